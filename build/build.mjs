@@ -1,0 +1,89 @@
+// Builds dist/: the command line, the renderer (browser bench and window, one build), its fit worker,
+// and the Electron main process and preload.
+import { build, transform } from 'esbuild';
+import { copyFileSync, existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
+
+const common = { bundle: true, sourcemap: true, logLevel: 'warning' };
+const PLOTLY = 'node_modules/plotly.js-dist/plotly.js';
+
+await Promise.all([
+  build({
+    ...common,
+    entryPoints: { cli: 'main/cli/index.ts' },
+    outdir: 'dist',
+    platform: 'node',
+    format: 'esm',
+    target: 'node20',
+    packages: 'external',
+  }),
+  build({
+    ...common,
+    entryPoints: { main: 'renderer/main.ts', worker: 'renderer/worker.ts' },
+    outdir: 'dist/renderer',
+    platform: 'browser',
+    format: 'esm',
+    target: 'chrome120',
+    minify: true,
+  }),
+  build({
+    ...common,
+    entryPoints: { main: 'main/electron/main.ts' },
+    outdir: 'dist/electron',
+    platform: 'node',
+    format: 'esm',
+    target: 'node20',
+    packages: 'external',
+  }),
+  // A sandboxed preload runs as one CommonJS file that may only require 'electron'.
+  build({
+    ...common,
+    entryPoints: { preload: 'main/electron/preload.ts' },
+    outfile: 'dist/electron/preload.cjs',
+    platform: 'node',
+    format: 'cjs',
+    target: 'node20',
+    external: ['electron'],
+  }),
+  copyStatic(),
+]);
+
+/** The page, its styles, and plotly as its own script file (minified once, then kept while unchanged). */
+async function copyStatic() {
+  mkdirSync('dist/renderer', { recursive: true });
+  copyFileSync('renderer/styles.css', 'dist/renderer/styles.css');
+  const source = readFileSync(PLOTLY, 'utf8');
+  const { css, placeholders } = plotlyStyles(source);
+  writeFileSync('dist/renderer/plotly-base.css', css);
+  writeFileSync('dist/renderer/index.html', readFileSync('renderer/index.html', 'utf8').replace('<!-- plotly styles: written by build/build.mjs -->', placeholders));
+  const target = 'dist/renderer/plotly.min.js';
+  if (!existsSync(target) || statSync(target).mtimeMs < statSync(PLOTLY).mtimeMs) {
+    const { code } = await transform(source, { minify: true, target: 'chrome120' });
+    writeFileSync(target, code);
+  }
+}
+
+/**
+ * Plotly injects its base CSS as <style> elements, which the page's CSP (style-src 'self') refuses.
+ * Plotly skips that when an element with its style id carries the class 'no-inline-styles', and the
+ * bundled map stylesheet is skipped when an element with its id exists. So the rules are written to a
+ * stylesheet of our own, and both ids are placed in the page.
+ */
+function plotlyStyles(source) {
+  const marker = source.indexOf('for (selector in rules)');
+  const start = source.lastIndexOf('var rules = {', marker);
+  if (marker < 0 || start < 0) throw new Error('build: cannot find the style rules in plotly.js (new plotly version?)');
+  const literal = source.slice(start + 'var rules = '.length, source.lastIndexOf('};', marker) + 1);
+  const rules = new Function(`return (${literal});`)();
+  let css = '/* plotly.js base styles (MIT license, Plotly, Inc.), moved out of the script for the CSP */\n';
+  for (const selector in rules) {
+    const full = selector.replace(/^,/, ' ,').replace(/X/g, '.js-plotly-plot .plotly').replace(/Y/g, '.plotly-notifier');
+    css += `${full}{${rules[selector]}}\n`;
+  }
+  const mapStyle = /maplibre-gl\.css"\(\) \{\s*\(function\(\) \{\s*if \(!document\.getElementById\("([0-9a-f]+)"\)\)/.exec(source);
+  if (!mapStyle) throw new Error('build: cannot find the map stylesheet id in plotly.js (new plotly version?)');
+  const placeholders = [
+    '<link id="plotly.js-style-global" class="no-inline-styles" rel="stylesheet" href="plotly-base.css">',
+    `<meta id="${mapStyle[1]}" name="plotly-map-styles" content="not used">`,
+  ].join('\n  ');
+  return { css, placeholders };
+}

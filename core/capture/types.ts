@@ -1,0 +1,58 @@
+// The shape of an imported capture: what every reader of scope exports produces.
+
+export interface Channel {
+  /** Column name as the file gives it without its unit ('CH1', 'V_C'), or 'channel N' when unnamed. */
+  name: string;
+  /** SI base unit after prefix scaling ('V', 'A', '' when unknown). */
+  unit: string;
+  /** Time axis of this channel, s, strictly increasing (shared between channels when the file has one). */
+  time: Float64Array;
+  /** Samples in SI base units, same length as time. */
+  values: Float64Array;
+  /** 1 where the sample sits in a run at an ADC rail (excluded from fits), else 0. */
+  clipped: Uint8Array;
+  /** Rows dropped for this channel: NaN, empty or overrange cells. */
+  dropped: number;
+}
+
+export interface Capture {
+  channels: Channel[];
+  /** Uniform sample interval in s when the axis is uniform (or was rebuilt from one), else null. */
+  sampleInterval: number | null;
+  /** Key/value pairs found in the preamble, keys as written. */
+  metadata: Record<string, string>;
+  /** Plain-language notes about what the importer did (axis rebuilt, rows sorted, clipping found). */
+  warnings: string[];
+  /** How the text was read, for reports and error messages. */
+  layout: {
+    /** ',', ';', '\t', ' ' (runs of spaces and tabs), or '' for a single column. */
+    delimiter: string;
+    decimalComma: boolean;
+    /** 1-based line of the header, or null when the file has none. */
+    headerLine: number | null;
+    /** 1-based line of the first data row. */
+    firstDataLine: number;
+    /** Data rows read (before per-channel dropping). */
+    rows: number;
+  };
+}
+
+export interface CaptureOptions {
+  /**
+   * Sample interval in s, used to build the time axis when the file has no numeric time column (values only,
+   * or wall-clock time stamps). Replaces an interval the file states (with a warning when they differ).
+   */
+  sampleInterval?: number;
+  /** Sort non-monotonic time stamps (with a warning) instead of failing. Default false. */
+  sortTime?: boolean;
+}
+
+/** Invalid capture text: the message says what was wrong; `line` is 1-based when known. */
+export class CaptureError extends Error {
+  readonly line: number | null;
+  constructor(message: string, line: number | null = null) {
+    super(line === null ? message : `line ${line}: ${message}`);
+    this.name = 'CaptureError';
+    this.line = line;
+  }
+}

@@ -1,0 +1,324 @@
+// Fits the second-order response to one trace: estimates, multi-start Levenberg-Marquardt, uncertainties.
+
+import { quantity, type Quantity } from '../quantity';
+import type { ResponseParams } from '../response/secondOrder';
+import type { FitStatus } from './types';
+import { fitCurve } from './fitCurve';
+import { estimateNoise, quantisationStep } from './noise';
+import { detectEvent, rateCandidates, type RateCandidate } from './estimate';
+import { solveAmplitudes, Workspace } from './amplitudes';
+import { LAYOUT_NAMES, fitsT0, layoutValue, nonlinearCount, unpackParams, type ParameterLayout } from './responseModel';
+import { prepareFitSet, type FitSet } from './fitSet';
+import { responseCovariance } from './responseCovariance';
+import { FitInputError } from './fitInputError';
+
+export interface Trace {
+  time: Float64Array;
+  values: Float64Array;
+  clipped?: Uint8Array;
+  unit: string;
+  name?: string;
+}
+
+export interface ResponseFitOptions {
+  /** Fit window in s (default: from the detected event, or the record start, to the record end). */
+  window?: { start?: number; end?: number };
+  /** Whether the measured quantity is continuous at the event (default 'continuous'). */
+  continuity?: 'continuous' | 'free';
+}
+
+export type Regime = 'underdamped' | 'critically damped' | 'overdamped';
+
+export interface ResponseFit {
+  status: FitStatus;
+  message: string;
+  regime: Regime;
+  regimeEvidence: string;
+  alpha: Quantity;
+  omega0: Quantity;
+  omegaD: Quantity | null;
+  zeta: Quantity;
+  Q: Quantity;
+  finalValue: Quantity;
+  t0: Quantity;
+  preLevel: Quantity;
+  params: ResponseParams;
+  correlation: { names: string[]; matrix: number[][] } | null;
+  rmsResidual: number;
+  noiseRms: number;
+  samplesUsed: number;
+  window: { start: number; end: number };
+  iterations: number;
+  decimation: { factor: number; note: string } | null;
+  warnings: string[];
+}
+
+const MIN_SAMPLES = 20;
+const MAX_STARTS = 4;
+
+interface Attempt {
+  layout: ParameterLayout;
+  /** Full parameter vector of the layout (LAYOUT_NAMES order). */
+  values: number[];
+  sse: number;
+  status: FitStatus;
+  message: string;
+  iterations: number;
+  warnings: string[];
+}
+
+export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): ResponseFit {
+  const continuity = options.continuity ?? 'continuous';
+  const set = prepareFitSet(trace, options.window ?? {});
+  if (set.time.length < MIN_SAMPLES) {
+    throw new FitInputError('trace', `only ${set.time.length} usable samples in the fit window; at least ${MIN_SAMPLES} are needed`);
+  }
+  const noise = estimateNoise(set.values);
+  const step = quantisationStep(set.values);
+  const event = options.window?.start !== undefined ? { index: 0, hasPreEvent: false } : detectEvent(set.values, noise, step);
+  const t0Start = set.time[event.index];
+  const layouts: ParameterLayout[] = !event.hasPreEvent ? ['free'] : continuity === 'continuous' ? ['smooth', 'step'] : ['free-pre'];
+  const warnings: string[] = [...set.warnings];
+  const candidates = rateCandidates(set.values, event.index, set.values.length, set.dt);
+
+  // Several starts in the simplest layout; a richer layout starts from that solution only.
+  const attempts: Attempt[] = [];
+  const starts = rankCandidates(set, layouts[0], candidates, t0Start).slice(0, MAX_STARTS);
+  const first = starts.map((start) => refine(set, layouts[0], start, t0Start)).sort((x, y) => x.sse - y.sse)[0];
+  if (first) {
+    attempts.push(first);
+    for (const layout of layouts.slice(1)) {
+      attempts.push(refine(set, layout, { alpha: first.values[0], omega0: first.values[1], source: 'nested layout' }, first.values[2] ?? t0Start));
+    }
+  }
+  if (attempts.length === 0) return failedFit(set, noise, warnings, 'no damped response was found in the data (no usable starting values)');
+  const best = chooseByInformation(attempts, set.time.length);
+  if (!Number.isFinite(best.sse)) return failedFit(set, noise, warnings, 'the solver did not reach a finite residual');
+
+  const params = unpackParams(best.layout, best.values, t0Start);
+  const dof = set.time.length - best.values.length;
+  const cov = responseCovariance(set, best.layout, best.values, t0Start, best.sse / Math.max(1, dof));
+  warnings.push(...best.warnings, ...cov.warnings);
+  return assembleFit(trace, set, params, best.layout, best, cov, noise, warnings);
+}
+
+/** Bayesian information criterion: among nested layouts, the extra parameter must pay for itself. */
+function chooseByInformation(attempts: Attempt[], n: number): Attempt {
+  const bic = (a: Attempt) => n * Math.log(Math.max(a.sse, 1e-300) / n) + a.values.length * Math.log(n);
+  return [...attempts].sort((x, y) => bic(x) - bic(y))[0];
+}
+
+/** Rank the candidate rates by the residual left after the linear part is solved exactly. */
+function rankCandidates(set: FitSet, layout: ParameterLayout, candidates: RateCandidate[], t0: number): RateCandidate[] {
+  const stride = Math.max(1, Math.floor(set.time.length / 4000));
+  const time = set.time.filter((_, i) => i % stride === 0);
+  const values = set.values.filter((_, i) => i % stride === 0);
+  const workspace = new Workspace(time.length);
+  const expanded: RateCandidate[] = [];
+  for (const c of candidates) {
+    expanded.push(c);
+    const zeta = c.alpha / c.omega0;
+    // Near critical damping the pencil may put the poles on the wrong side: start from each regime.
+    if (zeta > 0.4 && zeta < 2.5) {
+      for (const z of [0.8, 1, 1.25]) expanded.push({ alpha: z * c.omega0, omega0: c.omega0, source: `${c.source}, zeta ${z}` });
+    }
+  }
+  const scored = expanded
+    .map((c) => ({ c, sse: solveAmplitudes(layout, time, values, c.alpha, c.omega0, t0, workspace).sse }))
+    .filter((s) => Number.isFinite(s.sse))
+    .sort((x, y) => x.sse - y.sse);
+  const distinct: RateCandidate[] = [];
+  for (const { c } of scored) {
+    const near = distinct.some((d) => Math.abs(d.alpha - c.alpha) < 0.02 * d.omega0 && Math.abs(d.omega0 - c.omega0) < 0.02 * d.omega0);
+    if (!near) distinct.push(c);
+  }
+  return distinct;
+}
+
+/**
+ * Levenberg-Marquardt over the nonlinear parameters only (alpha, omega0 and t0 where fitted), scaled
+ * to order one; for each trial the levels and amplitudes follow by linear least squares (variable
+ * projection, Golub and Pereyra 1973), so the solver never wanders in the linear directions.
+ * The solver sees sample indices as its x, so each parameter vector costs one pass over the data.
+ */
+function refine(set: FitSet, layout: ParameterLayout, start: RateCandidate, t0Start: number): Attempt {
+  const k = nonlinearCount(layout);
+  const rate = start.omega0;
+  const toPhysical = (u: readonly number[]) => [u[0] * rate, u[1] * rate, ...(k === 3 ? [t0Start + u[2] / rate] : [])];
+  const workspace = new Workspace(set.time.length);
+  // The solver asks point by point, alternating between two vectors for central differences,
+  // so the model is kept for the last few parameter vectors it was asked about.
+  const cache: { key: readonly number[]; model: Float64Array }[] = [];
+  const modelFor = (u: readonly number[]): Float64Array => {
+    const hit = cache.find((entry) => entry.key === u);
+    if (hit) return hit.model;
+    const [alpha, omega0, t0 = t0Start] = toPhysical(u);
+    solveAmplitudes(layout, set.time, set.values, alpha, omega0, t0, workspace);
+    const entry = cache.length < 4 ? { key: u, model: new Float64Array(set.time.length) } : (cache.pop() as (typeof cache)[0]);
+    entry.key = u;
+    entry.model.set(workspace.model);
+    cache.unshift(entry);
+    return entry.model;
+  };
+  const model = {
+    names: LAYOUT_NAMES[layout].slice(0, k),
+    evaluate: (u: readonly number[], index: number) => modelFor(u)[index],
+  };
+  const indices = Float64Array.from(set.time, (_, i) => i);
+  const initial = [start.alpha / rate, start.omega0 / rate, ...(k === 3 ? [0] : [])];
+  const min = [1e-9, 1e-9, ...(k === 3 ? [-Infinity] : [])];
+  const result = fitCurve(model, { x: indices, y: set.values }, initial, { min, maxIterations: 200 });
+  const nonlinear = toPhysical(result.parameters.map((p) => p.value));
+  const [alpha, omega0, t0 = t0Start] = nonlinear;
+  const linear = solveAmplitudes(layout, set.time, set.values, alpha, omega0, t0, workspace);
+  return {
+    layout,
+    values: [...nonlinear, ...linear.coefficients],
+    sse: Number.isFinite(linear.sse) ? linear.sse : Infinity,
+    status: result.status,
+    message: result.message,
+    iterations: result.iterations,
+    warnings: result.warnings.filter((w) => !/covariance/i.test(w)),
+  };
+}
+
+/** Value and standard error of a smooth function of (alpha, omega0), to first order. */
+function derived(
+  value: number,
+  gradient: [number, number],
+  cov: number[][] | null,
+  ia: number,
+  iw: number,
+  unit: string,
+): Quantity {
+  if (!cov) return quantity(value, null, unit);
+  const [ga, gw] = gradient;
+  const variance = ga * ga * cov[ia][ia] + 2 * ga * gw * cov[ia][iw] + gw * gw * cov[iw][iw];
+  return quantity(value, variance >= 0 ? Math.sqrt(variance) : null, unit);
+}
+
+function classifyRegime(zeta: Quantity): { regime: Regime; evidence: string } {
+  const z = zeta.value;
+  if (zeta.stderr === null) {
+    const regime: Regime = z < 1 ? 'underdamped' : z > 1 ? 'overdamped' : 'critically damped';
+    return { regime, evidence: `zeta = ${z.toPrecision(4)}; its uncertainty could not be estimated` };
+  }
+  const s = zeta.stderr;
+  const text = `zeta = ${z.toPrecision(4)} ± ${s.toPrecision(2)}`;
+  if (z + 2 * s < 1) return { regime: 'underdamped', evidence: `${text}: zeta + 2 sigma < 1` };
+  if (z - 2 * s > 1) return { regime: 'overdamped', evidence: `${text}: zeta - 2 sigma > 1` };
+  return { regime: 'critically damped', evidence: `${text}: 1 lies within 2 sigma` };
+}
+
+function assembleFit(
+  trace: Trace,
+  set: FitSet,
+  params: ResponseParams,
+  layout: ParameterLayout,
+  best: Attempt,
+  cov: ReturnType<typeof responseCovariance>,
+  noise: number,
+  warnings: string[],
+): ResponseFit {
+  const names = cov.names;
+  const c = cov.covariance;
+  const se = (name: string) => {
+    const i = names.indexOf(name);
+    return c && i >= 0 ? Math.sqrt(c[i][i]) : null;
+  };
+  const ia = names.indexOf('alpha');
+  const iw = names.indexOf('omega0');
+  const { alpha, omega0 } = params;
+  const rateUnit = 's^-1';
+  const zeta = derived(alpha / omega0, [1 / omega0, -alpha / (omega0 * omega0)], c, ia, iw, '');
+  const q = derived(omega0 / (2 * alpha), [-omega0 / (2 * alpha * alpha), 1 / (2 * alpha)], c, ia, iw, '');
+  const omegaDValue = omega0 > alpha ? Math.sqrt(omega0 * omega0 - alpha * alpha) : null;
+  const omegaD =
+    omegaDValue === null ? null : derived(omegaDValue, [-alpha / omegaDValue, omega0 / omegaDValue], c, ia, iw, 'rad/s');
+  const { regime, evidence } = classifyRegime(zeta);
+  const rmsResidual = Math.sqrt(best.sse / set.time.length);
+  const t0Known = fitsT0(layout);
+  if (!t0Known) {
+    warnings.push('t0 was not fitted: the record has no flat samples before the event, so t0 is taken as the start of the fit window');
+  }
+  addPlausibilityWarnings(set, params, omegaDValue, rmsResidual, noise, warnings);
+  const correlation = cov.correlation ? { names, matrix: cov.correlation } : null;
+  return {
+    status: best.status,
+    message: best.message,
+    regime,
+    regimeEvidence: evidence,
+    alpha: quantity(alpha, se('alpha'), rateUnit),
+    omega0: quantity(omega0, se('omega0'), 'rad/s'),
+    omegaD: regime === 'underdamped' || omegaD ? omegaD : null,
+    zeta,
+    Q: q,
+    finalValue: quantity(params.yFinal, se('yFinal'), trace.unit),
+    t0: quantity(params.t0, t0Known ? se('t0') : null, 's'),
+    preLevel: quantity(params.yPre, layout === 'free' ? null : se('yPre'), trace.unit),
+    params,
+    correlation,
+    rmsResidual,
+    noiseRms: noise,
+    samplesUsed: set.samplesUsed,
+    window: { start: t0Known ? set.window.start : params.t0, end: set.window.end },
+    iterations: best.iterations,
+    decimation: set.decimation,
+    warnings: [...new Set(warnings)],
+  };
+}
+
+/** Warnings an engineer needs before trusting the numbers: thin sampling, short record, poor match. */
+function addPlausibilityWarnings(
+  set: FitSet,
+  p: ResponseParams,
+  omegaD: number | null,
+  rmsResidual: number,
+  noise: number,
+  warnings: string[],
+): void {
+  const dtRaw = set.decimation ? set.dt / set.decimation.factor : set.dt;
+  if (omegaD !== null) {
+    const perPeriod = (2 * Math.PI) / omegaD / dtRaw;
+    // At least 10 samples per ring period is the usual working margin (common practice, no single source).
+    if (perPeriod < 10) warnings.push(`only ${perPeriod.toFixed(1)} samples per ring period (10 or more is the usual margin for a fit)`);
+  }
+  const span = set.window.end - p.t0;
+  const slowest = p.omega0 > p.alpha ? p.alpha : p.alpha - Math.sqrt(p.alpha * p.alpha - p.omega0 * p.omega0);
+  if (span * slowest < 1) {
+    warnings.push('the record ends before the response has decayed by 1/e: alpha and the final value are poorly determined');
+  }
+  const floor = Math.max(noise, 1e-12 * set.range);
+  if (rmsResidual > 2 * floor) {
+    warnings.push(
+      `the model leaves a residual of ${(rmsResidual / floor).toFixed(1)}x the noise level: the circuit may not be second order, or the window includes the excitation`,
+    );
+  }
+}
+
+function failedFit(set: FitSet, noise: number, warnings: string[], message: string): ResponseFit {
+  const nothing = (unit: string) => quantity(NaN, null, unit);
+  return {
+    status: 'failed',
+    message,
+    regime: 'underdamped',
+    regimeEvidence: 'no fit',
+    alpha: nothing('s^-1'),
+    omega0: nothing('rad/s'),
+    omegaD: null,
+    zeta: nothing(''),
+    Q: nothing(''),
+    finalValue: nothing(''),
+    t0: nothing('s'),
+    preLevel: nothing(''),
+    params: { t0: set.window.start, yPre: NaN, yFinal: NaN, alpha: NaN, omega0: NaN, a: NaN, b: NaN },
+    correlation: null,
+    rmsResidual: NaN,
+    noiseRms: noise,
+    samplesUsed: set.samplesUsed,
+    window: set.window,
+    iterations: 0,
+    decimation: set.decimation,
+    warnings,
+  };
+}

@@ -1,0 +1,44 @@
+// Robust noise level of a sampled record, from its first differences.
+
+/** Median of a copy of the values (NaN for an empty list). */
+export function median(values: ArrayLike<number>): number {
+  const sorted = Float64Array.from(values).sort();
+  const n = sorted.length;
+  if (n === 0) return NaN;
+  return n % 2 ? sorted[(n - 1) >> 1] : 0.5 * (sorted[n / 2 - 1] + sorted[n / 2]);
+}
+
+/** Smallest non-zero step between sample values: the quantisation step of an ADC record, or 0. */
+export function quantisationStep(values: ArrayLike<number>, limit = 4096): number {
+  const n = Math.min(values.length, limit);
+  const steps = new Float64Array(n);
+  let count = 0;
+  for (let i = 1; i < n; i++) {
+    const d = Math.abs(values[i] - values[i - 1]);
+    if (d > 0) steps[count++] = d;
+  }
+  if (count === 0) return 0;
+  const smallest = steps.subarray(0, count).sort()[0];
+  // Accept only when most steps are near-integer multiples of the smallest one.
+  let onGrid = 0;
+  for (let i = 0; i < count; i++) {
+    const k = steps[i] / smallest;
+    if (Math.abs(k - Math.round(k)) < 0.02) onGrid++;
+  }
+  return onGrid > 0.9 * count ? smallest : 0;
+}
+
+/**
+ * Standard deviation of white noise on a smooth signal: MAD of the first differences / (0.6745 sqrt 2).
+ * On a quantised record whose noise is below one step the MAD is 0; then q / sqrt(12) is the floor.
+ */
+export function estimateNoise(values: ArrayLike<number>, start = 0, end = values.length): number {
+  const n = end - start;
+  if (n < 3) return 0;
+  const stride = Math.max(1, Math.floor(n / 20000));
+  const diffs: number[] = [];
+  for (let i = start + 1; i < end; i += stride) diffs.push(Math.abs(values[i] - values[i - 1]));
+  const sigma = median(diffs) / (0.6745 * Math.SQRT2);
+  const q = quantisationStep(values.length > 4096 ? Array.prototype.slice.call(values, start, start + 4096) : values);
+  return Math.max(sigma, q / Math.sqrt(12));
+}

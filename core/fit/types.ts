@@ -1,0 +1,55 @@
+// The generic least-squares contract: a model, data, a start, and a result that is data.
+
+export type FitStatus = 'converged' | 'max-iterations' | 'failed';
+
+export interface CurveModel {
+  /** Parameter names, in the order of the parameter vector. */
+  names: string[];
+  /** y at x for parameters p. Must be pure. */
+  evaluate(p: readonly number[], x: number): number;
+}
+
+export interface CurveData {
+  x: ArrayLike<number>;
+  y: ArrayLike<number>;
+  /** Optional weights (1 / sigma_i^2); default 1. */
+  weights?: ArrayLike<number>;
+}
+
+export interface FitOptions {
+  /** Iteration limit. Default 400. */
+  maxIterations?: number;
+  /** Lower / upper bounds per parameter (may be -Infinity / Infinity). */
+  min?: number[];
+  max?: number[];
+  /** Relative change in chi^2 counted as convergence. Default 1e-12. */
+  tolerance?: number;
+  /** Singular values below cutoff * largest are dropped in the covariance. Default 1e-10. */
+  svdCutoff?: number;
+}
+
+export interface FittedParameter {
+  name: string;
+  value: number;
+  /** Standard error scaled by the residual variance; null when the covariance is not estimable. */
+  stderr: number | null;
+  /** True when the value sits at a bound. */
+  atBound: boolean;
+}
+
+export interface CurveFitResult {
+  status: FitStatus;
+  message: string;
+  parameters: FittedParameter[];
+  /** Covariance matrix (scaled), or null when not estimable. */
+  covariance: number[][] | null;
+  /** Correlation matrix, or null. */
+  correlation: number[][] | null;
+  /** Weighted residual sum of squares. */
+  chiSquare: number;
+  /** chiSquare / (n - p). */
+  reducedChiSquare: number;
+  degreesOfFreedom: number;
+  iterations: number;
+  warnings: string[];
+}

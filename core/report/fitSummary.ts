@@ -1,0 +1,67 @@
+// A fit (and optional components) as the plain JSON summary every face of the program shows.
+
+import type { ResponseFit } from '../fit/fitResponse';
+import type { Quantity } from '../quantity';
+
+export interface ComponentSet {
+  R: Quantity;
+  L: Quantity;
+  C: Quantity;
+}
+
+export interface FitSummary {
+  file: string;
+  channel: string;
+  status: ResponseFit['status'];
+  message: string;
+  regime: ResponseFit['regime'];
+  regimeEvidence: string;
+  alpha: Quantity;
+  omega0: Quantity;
+  omegaD?: Quantity;
+  zeta: Quantity;
+  Q: Quantity;
+  finalValue: Quantity;
+  t0: Quantity;
+  components?: ComponentSet & { topology: string; known: string };
+  rmsResidual: number;
+  noiseRms: number;
+  samplesUsed: number;
+  window: { start: number; end: number };
+  decimation: ResponseFit['decimation'];
+  correlation: ResponseFit['correlation'];
+  warnings: string[];
+}
+
+export function summarizeFit(
+  file: string,
+  channel: string,
+  fit: ResponseFit,
+  components?: FitSummary['components'],
+  extraWarnings: string[] = [],
+): FitSummary {
+  const summary: FitSummary = {
+    file,
+    channel,
+    status: fit.status,
+    message: fit.message,
+    regime: fit.regime,
+    regimeEvidence: fit.regimeEvidence,
+    alpha: fit.alpha,
+    omega0: fit.omega0,
+    zeta: fit.zeta,
+    Q: fit.Q,
+    finalValue: fit.finalValue,
+    t0: fit.t0,
+    rmsResidual: fit.rmsResidual,
+    noiseRms: fit.noiseRms,
+    samplesUsed: fit.samplesUsed,
+    window: fit.window,
+    decimation: fit.decimation,
+    correlation: fit.correlation,
+    warnings: [...extraWarnings, ...fit.warnings],
+  };
+  if (fit.omegaD) summary.omegaD = fit.omegaD;
+  if (components) summary.components = components;
+  return summary;
+}

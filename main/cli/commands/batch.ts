@@ -1,0 +1,114 @@
+// `ringbench batch DIR`: fit every capture of a folder, one result each; a bad file does not stop the rest.
+// Exit 0 when every file was fitted (and in tolerance), 1 when any file failed, else 3 when any unit was out of tolerance.
+
+import type { Command } from 'commander';
+import { readdirSync, statSync } from 'node:fs';
+import { basename, extname, join, resolve } from 'node:path';
+import type { CommandContext } from '../program';
+import { fitOptionsOf, type LogAddOptions } from './log';
+import { appendBenchLog, requireLogFolder } from '../../benchLog';
+import { createBenchRecord, loadDesignFile, measureFile, type Measurement } from '../../benchLogRecord';
+import { formatEngineering } from '../../../core/units/format';
+import { EXIT, FileError, UsageError, messageFor } from '../errors';
+
+const CAPTURE_EXTENSIONS = new Set(['.csv', '.txt', '.dat']);
+
+type BatchOptions = Omit<LogAddOptions, 'log' | 'unit'> & { log?: string };
+
+interface BatchEntry {
+  file: string;
+  measurement?: Measurement;
+  error?: string;
+}
+
+/** Capture files of a folder (*.csv, *.txt, *.dat, any case), sorted by name. */
+export function listCaptureFiles(folder: string): string[] {
+  let names: string[];
+  try {
+    if (!statSync(folder).isDirectory()) throw new FileError(`'${folder}' is not a folder`);
+    names = readdirSync(folder);
+  } catch (error) {
+    if (error instanceof FileError) throw error;
+    throw new FileError(`cannot read folder '${folder}': ${(error as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such folder' : (error as NodeJS.ErrnoException).code}`);
+  }
+  return names
+    .filter((name) => CAPTURE_EXTENSIONS.has(extname(name).toLowerCase()) && statSync(join(folder, name)).isFile())
+    .sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
+}
+
+export function registerBatchCommand(program: Command, ctx: CommandContext): void {
+  program
+    .command('batch')
+    .description('fit every capture (*.csv, *.txt, *.dat) of a folder; exit 1 when a file failed, 3 when a unit was out of tolerance')
+    .argument('<dir>', 'folder of capture files')
+    .option('--design <file>', 'design file to check every unit against (instead of --topology/--known)')
+    .option('--topology <kind>', 'series or parallel: derive R, L, C (needs --known)')
+    .option('--known <NAME=VALUE[,TOL%]>', 'one known component, e.g. C=470n or L=2.2u,10%')
+    .option('--column <name|index>', 'channel to fit: its name or 0-based index (default: the first)')
+    .option('--sample-interval <time>', 'sample interval when the files have no time column, e.g. 2n')
+    .option('--from <time>', 'start of the fit window (default: found from the data)')
+    .option('--to <time>', 'end of the fit window (default: found from the data)')
+    .option('--sort-time', 'sort out-of-order time stamps instead of failing')
+    .option('--log <path>', 'append each result to this bench log, the unit id taken from the file name')
+    .option('--operator <name>', 'who measured (with --log)')
+    .option('--json', 'print a JSON array, one object per file ({ file, error } for a file that failed)')
+    .action((dir: string, options: BatchOptions) => {
+      const folder = resolve(ctx.io.cwd, dir);
+      if (options.design && (options.topology !== undefined || options.known !== undefined)) {
+        throw new UsageError('--design gives the topology and components: leave out --topology and --known');
+      }
+      const logPath = options.log === undefined ? null : resolve(ctx.io.cwd, options.log);
+      if (logPath) requireLogFolder(logPath);
+      const design = options.design === undefined ? null : loadDesignFile(options.design, ctx.io.cwd);
+      const files = listCaptureFiles(folder);
+      if (!files.length) throw new FileError(`no capture files (*.csv, *.txt, *.dat) in '${dir}'`);
+      const fitOptions = fitOptionsOf(options);
+      const operator = options.operator?.trim() || null;
+
+      const entries: BatchEntry[] = files.map((name, i) => {
+        if (ctx.io.interactive) ctx.io.err(`[${i + 1}/${files.length}] ${name}\n`);
+        try {
+          const measurement = measureFile(join(folder, name), fitOptions, ctx.io.cwd, design);
+          if (logPath && measurement.summary.status !== 'failed') {
+            const record = createBenchRecord(measurement, { unit: basename(name, extname(name)), operator, note: null }, fitOptions);
+            appendBenchLog(logPath, record);
+          }
+          return { file: name, measurement };
+        } catch (error) {
+          return { file: name, error: messageFor(error) };
+        }
+      });
+
+      ctx.io.out(options.json ? `${JSON.stringify(entries.map(jsonOf))}\n` : formatBatchTable(entries));
+      const failed = entries.some((e) => e.error !== undefined || e.measurement?.summary.status === 'failed');
+      const outOfTolerance = entries.some((e) => e.measurement?.verdict && !e.measurement.verdict.pass);
+      ctx.setExitCode(failed ? EXIT.failure : outOfTolerance ? EXIT.outOfTolerance : EXIT.ok);
+    });
+}
+
+function jsonOf(entry: BatchEntry): object {
+  if (entry.error !== undefined || !entry.measurement) return { file: entry.file, error: entry.error };
+  const { summary, verdict, cautions } = entry.measurement;
+  return { ...summary, file: entry.file, verdict, cautions };
+}
+
+function formatBatchTable(entries: BatchEntry[]): string {
+  const header = ['file', 'status', 'regime', 'f0', 'zeta', 'Q', 'verdict', 'cautions'];
+  const rows = entries.map((entry) => {
+    if (!entry.measurement) return [entry.file, `error: ${entry.error}`];
+    const { summary: s, verdict, cautions } = entry.measurement;
+    return [
+      entry.file,
+      s.status,
+      s.regime,
+      formatEngineering(s.omega0.value / (2 * Math.PI), 'Hz'),
+      formatEngineering(s.zeta.value, ''),
+      formatEngineering(s.Q.value, ''),
+      verdict ? (verdict.pass ? 'pass' : 'FAIL') : '-',
+      cautions.fired.length ? cautions.fired.map((c) => c.id).join(',') : '-',
+    ];
+  });
+  const widths = header.map((h, c) => Math.max(h.length, ...rows.filter((r) => r.length > 2).map((r) => r[c].length)));
+  const line = (cells: string[]) => (cells.length === 2 ? cells.join('  ') : cells.map((cell, c) => cell.padEnd(widths[c])).join('  ').trimEnd());
+  return [line(header), ...rows.map(line)].map((l) => `${l}\n`).join('');
+}

@@ -1,0 +1,90 @@
+// `ringbench fit FILE`: fit one capture and print alpha, omega0, ... and the components.
+
+import type { Command } from 'commander';
+import type { CommandContext } from '../program';
+import { loadCapture } from '../../captureFile';
+import { fitResponse } from '../../../core/fit/fitResponse';
+import { componentsFromResponse } from '../../../core/circuit/components';
+import { summarizeFit, type FitSummary } from '../../../core/report/fitSummary';
+import { formatFitText } from '../../../core/report/fitText';
+import { parseChannel, parseKnown, parseTime, parseTopology } from '../options';
+import { UsageError } from '../errors';
+import { basename } from 'node:path';
+
+export interface FitCommandOptions {
+  topology?: string;
+  known?: string;
+  column?: string;
+  sampleInterval?: string;
+  from?: string;
+  to?: string;
+  sortTime?: boolean;
+  json?: boolean;
+}
+
+/** Everything `fit` computes for one file; shared with `batch` and `log add`. */
+export function fitFile(file: string, options: FitCommandOptions, cwd: string): FitSummary {
+  if ((options.topology === undefined) !== (options.known === undefined)) {
+    throw new UsageError('--topology and --known go together: give both to derive R, L and C');
+  }
+  const topology = options.topology === undefined ? undefined : parseTopology(options.topology);
+  const known = options.known === undefined ? undefined : parseKnown(options.known);
+  const loaded = loadCapture(file, {
+    cwd,
+    channel: options.column === undefined ? undefined : parseChannel(options.column),
+    sampleInterval: options.sampleInterval === undefined ? undefined : parseTime(options.sampleInterval, '--sample-interval'),
+    sortTime: options.sortTime,
+  });
+  const window = {
+    start: options.from === undefined ? undefined : parseSignedTime(options.from, '--from'),
+    end: options.to === undefined ? undefined : parseSignedTime(options.to, '--to'),
+  };
+  const { channel } = loaded;
+  const fit = fitResponse(
+    { time: channel.time, values: channel.values, clipped: channel.clipped, unit: channel.unit, name: channel.name },
+    { window },
+  );
+  const components =
+    topology && known
+      ? {
+          topology,
+          known: `${known.name}=${known.value}${known.tolerance ? ` (±${known.tolerance * 100} %)` : ''}`,
+          ...componentsFromResponse(fit.alpha, fit.omega0, topology, known, correlationOf(fit)),
+        }
+      : undefined;
+  return summarizeFit(basename(file), channel.name, fit, components, loaded.capture.warnings);
+}
+
+function correlationOf(fit: ReturnType<typeof fitResponse>): number | undefined {
+  const c = fit.correlation;
+  if (!c) return undefined;
+  const i = c.names.indexOf('alpha');
+  const j = c.names.indexOf('omega0');
+  return i < 0 || j < 0 ? undefined : c.matrix[i][j];
+}
+
+function parseSignedTime(text: string, option: string): number {
+  const negative = text.trim().startsWith('-');
+  const value = parseTime(negative ? text.trim().slice(1) : text, option);
+  return negative ? -value : value;
+}
+
+export function registerFitCommand(program: Command, ctx: CommandContext): void {
+  program
+    .command('fit')
+    .description('fit a ringdown or step response and report alpha, omega0, zeta, Q (and R, L, C)')
+    .argument('<file>', 'capture file (CSV or text export of a scope)')
+    .option('--topology <kind>', 'series or parallel: derive R, L, C (needs --known)')
+    .option('--known <NAME=VALUE[,TOL%]>', 'one known component, e.g. C=470n or L=2.2u,10%')
+    .option('--column <name|index>', 'channel to fit: its name or 0-based index (default: the first)')
+    .option('--sample-interval <time>', 'sample interval when the file has no time column, e.g. 2n')
+    .option('--from <time>', 'start of the fit window (default: found from the data)')
+    .option('--to <time>', 'end of the fit window (default: found from the data)')
+    .option('--sort-time', 'sort out-of-order time stamps instead of failing')
+    .option('--json', 'print one JSON object instead of the table')
+    .action((file: string, options: FitCommandOptions) => {
+      const summary = fitFile(file, options, ctx.io.cwd);
+      ctx.io.out(options.json ? `${JSON.stringify(summary)}\n` : formatFitText(summary));
+      if (summary.status === 'failed') ctx.setExitCode(1);
+    });
+}

@@ -1,0 +1,104 @@
+// `ringbench log add FILE` and `ringbench log list`: append a measurement to the bench log, list the log.
+
+import type { Command } from 'commander';
+import { resolve } from 'node:path';
+import type { CommandContext } from '../program';
+import type { FitCommandOptions } from './fit';
+import { appendBenchLog, describeTornTail, readCleanBenchLog, requireLogFolder } from '../../benchLog';
+import { checkLabel, createBenchRecord, loadDesignFile, measureFile } from '../../benchLogRecord';
+import { formatFitText } from '../../../core/report/fitText';
+import { formatVerdictText } from '../../../core/report/verdictText';
+import { formatLogTable } from '../../../core/report/logTable';
+import { formatCautionsText } from '../../../core/safety/cautionText';
+import { EXIT } from '../errors';
+
+export interface LogAddOptions extends FitCommandOptions {
+  log: string;
+  unit: string;
+  design?: string;
+  operator?: string;
+  note?: string;
+}
+
+export function registerLogCommand(program: Command, ctx: CommandContext): void {
+  const log = program.command('log').description('the bench log: one JSON Lines file of measurements per project');
+  const output = { writeOut: ctx.io.out, writeErr: ctx.io.err };
+
+  log
+    .command('add')
+    .description('fit a capture (and check it against a design) and append the result to the bench log; exit 3 when out of tolerance')
+    .argument('<file>', 'capture file (CSV or text export of a scope)')
+    .requiredOption('--log <path>', 'bench log file (created when missing; its folder must exist)')
+    .requiredOption('--unit <id>', 'unit under test, e.g. a serial number (1 to 100 characters)')
+    .option('--design <file>', 'design file to check the unit against (instead of --topology/--known)')
+    .option('--topology <kind>', 'series or parallel: derive R, L, C (needs --known)')
+    .option('--known <NAME=VALUE[,TOL%]>', 'one known component, e.g. C=470n or L=2.2u,10%')
+    .option('--column <name|index>', 'channel to fit: its name or 0-based index (default: the first)')
+    .option('--sample-interval <time>', 'sample interval when the file has no time column, e.g. 2n')
+    .option('--from <time>', 'start of the fit window (default: found from the data)')
+    .option('--to <time>', 'end of the fit window (default: found from the data)')
+    .option('--sort-time', 'sort out-of-order time stamps instead of failing')
+    .option('--operator <name>', 'who measured')
+    .option('--note <text>', 'free text kept with the record')
+    .option('--json', 'print the logged record as JSON')
+    .exitOverride()
+    .configureOutput(output)
+    .action((file: string, options: LogAddOptions) => {
+      const logPath = resolve(ctx.io.cwd, options.log);
+      const label = {
+        unit: checkLabel(options.unit, '--unit'),
+        operator: options.operator === undefined ? null : checkLabel(options.operator, '--operator'),
+        note: options.note === undefined || options.note.trim() === '' ? null : options.note,
+      };
+      requireLogFolder(logPath);
+      const design = options.design === undefined ? null : loadDesignFile(options.design, ctx.io.cwd);
+      const fitOptions = fitOptionsOf(options);
+      const measurement = measureFile(file, fitOptions, ctx.io.cwd, design);
+      if (measurement.summary.status === 'failed') {
+        ctx.io.out(options.json ? `${JSON.stringify({ logged: null, fit: measurement.summary })}\n` : formatFitText(measurement.summary));
+        ctx.io.err(`ringbench: the fit failed, nothing was logged: ${measurement.summary.message}\n`);
+        ctx.setExitCode(EXIT.failure);
+        return;
+      }
+      const record = createBenchRecord(measurement, label, fitOptions);
+      const appended = appendBenchLog(logPath, record);
+      if (appended.repairedTail) {
+        ctx.io.err(`ringbench: note: the log ended in a cut-off line ${appended.repairedTail.line}; it was saved to ${appended.repairedTail.savedTo}\n`);
+      }
+      if (options.json) {
+        ctx.io.out(`${JSON.stringify({ logged: record, cautions: measurement.cautions })}\n`);
+      } else {
+        let text = `logged ${record.unit} to ${options.log} (record ${record.id}, ${record.time})\n`;
+        text += formatFitText(record.fit);
+        if (record.verdict && record.design) text += formatVerdictText(record.verdict, record.design.name);
+        text += formatCautionsText(measurement.cautions);
+        ctx.io.out(text);
+      }
+      if (record.verdict && !record.verdict.pass) ctx.setExitCode(EXIT.outOfTolerance);
+    });
+
+  log
+    .command('list')
+    .description('list the measurements of a bench log: time, unit, regime, f0, zeta, verdict')
+    .requiredOption('--log <path>', 'bench log file')
+    .option('--json', 'print the records as a JSON object { records, torn }')
+    .exitOverride()
+    .configureOutput(output)
+    .action((options: { log: string; json?: boolean }) => {
+      const logPath = resolve(ctx.io.cwd, options.log);
+      const contents = readCleanBenchLog(logPath);
+      if (options.json) {
+        ctx.io.out(`${JSON.stringify({ records: contents.records, torn: contents.torn })}\n`);
+      } else {
+        ctx.io.out(contents.records.length ? formatLogTable(contents.records) : 'no measurements logged yet\n');
+      }
+      if (contents.torn) ctx.io.err(`ringbench: note: ${describeTornTail(options.log, contents.torn)}\n`);
+    });
+}
+
+/** The fit options alone (what `fitFile` and the record's settings take). */
+export function fitOptionsOf(options: FitCommandOptions): FitCommandOptions {
+  const { topology, known, column, sampleInterval, from, to, sortTime } = options;
+  return { topology, known, column, sampleInterval, from, to, sortTime };
+}
+

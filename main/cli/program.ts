@@ -1,0 +1,47 @@
+// The command-line program: every command registered on one commander instance, one error path.
+
+import { Command, CommanderError } from 'commander';
+import { EXIT, exitCodeFor, messageFor } from './errors';
+import type { CliIo } from './io';
+import { registerFitCommand } from './commands/fit';
+import { registerServeCommand } from './commands/serve';
+import { registerStartCommand } from './commands/start';
+import { registerLogCommand } from './commands/log';
+import { registerReportCommand } from './commands/report';
+import { registerBatchCommand } from './commands/batch';
+import { VERSION } from '../version';
+
+/** What a command's action reports back: its exit code (0 unless it says otherwise). */
+export interface CommandContext {
+  io: CliIo;
+  setExitCode(code: number): void;
+}
+
+export type RegisterCommand = (program: Command, ctx: CommandContext) => void;
+
+const COMMANDS: RegisterCommand[] = [registerFitCommand, registerServeCommand, registerStartCommand, registerLogCommand, registerReportCommand, registerBatchCommand];
+
+/** Run the command line on `argv` (without node and script) and return the exit code. */
+export async function runCli(argv: string[], io: CliIo): Promise<number> {
+  let exitCode: number = EXIT.ok;
+  const ctx: CommandContext = { io, setExitCode: (code) => (exitCode = code) };
+  const program = new Command('ringbench')
+    .description('Fit second-order ringdowns and step responses from oscilloscope captures.')
+    .version(VERSION, '-V, --version')
+    .showHelpAfterError(false)
+    .exitOverride()
+    .configureOutput({ writeOut: io.out, writeErr: io.err });
+  for (const register of COMMANDS) register(program, ctx);
+  for (const command of program.commands) command.exitOverride().configureOutput({ writeOut: io.out, writeErr: io.err });
+  try {
+    await program.parseAsync(argv, { from: 'user' });
+    return exitCode;
+  } catch (error) {
+    if (error instanceof CommanderError) {
+      // commander has already printed its one line; help and version are not failures.
+      return error.exitCode === 0 ? EXIT.ok : EXIT.badInput;
+    }
+    io.err(`ringbench: ${messageFor(error)}\n`);
+    return exitCodeFor(error);
+  }
+}
