@@ -22,7 +22,7 @@ export class FileError extends Error {
 }
 
 /** Error names (set by each module's error class) that mean the input was bad: exit 2. */
-const BAD_INPUT_NAMES = new Set(['UsageError', 'FileError', 'CaptureError', 'UnitError', 'DesignError', 'LogError', 'FitInputError']);
+const BAD_INPUT_NAMES = new Set(['UsageError', 'FileError', 'CaptureError', 'UnitError', 'DesignError', 'LogError', 'FitInputError', 'CircuitInputError']);
 
 export function exitCodeFor(error: unknown): number {
   if (error instanceof CaptureError) return EXIT.badInput;

@@ -9,6 +9,8 @@ import { registerStartCommand } from './commands/start';
 import { registerLogCommand } from './commands/log';
 import { registerReportCommand } from './commands/report';
 import { registerBatchCommand } from './commands/batch';
+import { registerCheckCommand } from './commands/check';
+import { registerParasiticsCommand } from './commands/parasitics';
 import { VERSION } from '../version';
 
 /** What a command's action reports back: its exit code (0 unless it says otherwise). */
@@ -19,7 +21,7 @@ export interface CommandContext {
 
 export type RegisterCommand = (program: Command, ctx: CommandContext) => void;
 
-const COMMANDS: RegisterCommand[] = [registerFitCommand, registerServeCommand, registerStartCommand, registerLogCommand, registerReportCommand, registerBatchCommand];
+const COMMANDS: RegisterCommand[] = [registerFitCommand, registerCheckCommand, registerParasiticsCommand, registerServeCommand, registerStartCommand, registerLogCommand, registerReportCommand, registerBatchCommand];
 
 /** Run the command line on `argv` (without node and script) and return the exit code. */
 export async function runCli(argv: string[], io: CliIo): Promise<number> {

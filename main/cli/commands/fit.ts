@@ -2,7 +2,7 @@
 
 import type { Command } from 'commander';
 import type { CommandContext } from '../program';
-import { loadCapture } from '../../captureFile';
+import { loadCapture, type LoadedCapture } from '../../captureFile';
 import { fitResponse } from '../../../core/fit/fitResponse';
 import { componentsFromResponse } from '../../../core/circuit/components';
 import { summarizeFit, type FitSummary } from '../../../core/report/fitSummary';
@@ -24,6 +24,11 @@ export interface FitCommandOptions {
 
 /** Everything `fit` computes for one file; shared with `batch` and `log add`. */
 export function fitFile(file: string, options: FitCommandOptions, cwd: string): FitSummary {
+  return fitCapture(file, options, cwd).summary;
+}
+
+/** The fit summary with the capture it came from (for commands that also need the samples). */
+export function fitCapture(file: string, options: FitCommandOptions, cwd: string): { summary: FitSummary; loaded: LoadedCapture } {
   if ((options.topology === undefined) !== (options.known === undefined)) {
     throw new UsageError('--topology and --known go together: give both to derive R, L and C');
   }
@@ -52,7 +57,7 @@ export function fitFile(file: string, options: FitCommandOptions, cwd: string): 
           ...componentsFromResponse(fit.alpha, fit.omega0, topology, known, correlationOf(fit)),
         }
       : undefined;
-  return summarizeFit(basename(file), channel.name, fit, components, loaded.capture.warnings);
+  return { summary: summarizeFit(basename(file), channel.name, fit, components, loaded.capture.warnings), loaded };
 }
 
 function correlationOf(fit: ReturnType<typeof fitResponse>): number | undefined {

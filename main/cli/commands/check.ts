@@ -1,0 +1,43 @@
+// `ringbench check FILE --design board.json`: does the built board behave like its design? Exit 3 when not.
+
+import type { Command } from 'commander';
+import type { CommandContext } from '../program';
+import type { FitCommandOptions } from './fit';
+import { loadDesignFile, measureFile } from '../../benchLogRecord';
+import { formatFitText } from '../../../core/report/fitText';
+import { formatVerdictText } from '../../../core/report/verdictText';
+import { formatCautionsText } from '../../../core/safety/cautionText';
+import { EXIT } from '../errors';
+
+interface CheckCommandOptions extends FitCommandOptions {
+  design: string;
+}
+
+export function registerCheckCommand(program: Command, ctx: CommandContext): void {
+  program
+    .command('check')
+    .description('fit a capture and check it against a design file: exit 0 in tolerance, 3 out of tolerance')
+    .argument('<file>', 'capture file (CSV or text export of a scope)')
+    .requiredOption('--design <file>', 'design file (topology, R, L, C with tolerances, source, probe)')
+    .option('--column <name|index>', 'channel to fit: its name or 0-based index (default: the first)')
+    .option('--sample-interval <time>', 'sample interval when the file has no time column, e.g. 2n')
+    .option('--from <time>', 'start of the fit window (default: found from the data)')
+    .option('--to <time>', 'end of the fit window (default: found from the data)')
+    .option('--sort-time', 'sort out-of-order time stamps instead of failing')
+    .option('--json', 'print one JSON object instead of the table')
+    .action((file: string, options: CheckCommandOptions) => {
+      const design = loadDesignFile(options.design, ctx.io.cwd);
+      const { design: _design, ...fitOptions } = options;
+      const m = measureFile(file, fitOptions, ctx.io.cwd, design);
+      if (options.json) {
+        ctx.io.out(`${JSON.stringify({ ...m.summary, design: design.design.name, verdict: m.verdict, cautions: m.cautions })}\n`);
+      } else {
+        let text = formatFitText(m.summary);
+        if (m.verdict) text += formatVerdictText(m.verdict, design.design.name);
+        text += formatCautionsText(m.cautions);
+        ctx.io.out(text);
+      }
+      if (m.summary.status === 'failed' || !m.verdict) ctx.setExitCode(EXIT.failure);
+      else if (!m.verdict.pass) ctx.setExitCode(EXIT.outOfTolerance);
+    });
+}
