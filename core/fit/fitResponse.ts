@@ -54,7 +54,9 @@ export interface ResponseFit {
 }
 
 const MIN_SAMPLES = 20;
-const MAX_STARTS = 4;
+const MAX_STARTS = 3;
+/** A start that has not converged by then is crawling along a degenerate valley; a better start exists. */
+const MAX_ITERATIONS = 60;
 
 interface Attempt {
   layout: ParameterLayout;
@@ -81,15 +83,15 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   const warnings: string[] = [...set.warnings];
   const candidates = rateCandidates(set.values, event.index, set.values.length, set.dt);
 
-  // Several starts in the simplest layout; a richer layout starts from that solution only.
+  // Several starts in each layout; a richer layout also starts from the simpler one's solution.
   const attempts: Attempt[] = [];
-  const starts = rankCandidates(set, layouts[0], candidates, t0Start).slice(0, MAX_STARTS);
-  const first = starts.map((start) => refine(set, layouts[0], start, t0Start)).sort((x, y) => x.sse - y.sse)[0];
-  if (first) {
-    attempts.push(first);
-    for (const layout of layouts.slice(1)) {
-      attempts.push(refine(set, layout, { alpha: first.values[0], omega0: first.values[1], source: 'nested layout' }, first.values[2] ?? t0Start));
-    }
+  for (const [i, layout] of layouts.entries()) {
+    const starts = rankCandidates(set, layout, candidates, t0Start).slice(0, i === 0 ? MAX_STARTS : 1);
+    const tried = starts.map((start) => refine(set, layout, start, t0Start));
+    const simpler = attempts[0];
+    if (simpler) tried.push(refine(set, layout, { alpha: simpler.values[0], omega0: simpler.values[1], source: 'nested layout' }, simpler.values[2] ?? t0Start));
+    const best = tried.sort((x, y) => x.sse - y.sse)[0];
+    if (best) attempts.push(best);
   }
   if (attempts.length === 0) return failedFit(set, noise, warnings, 'no damped response was found in the data (no usable starting values)');
   const best = chooseByInformation(attempts, set.time.length);
@@ -167,7 +169,7 @@ function refine(set: FitSet, layout: ParameterLayout, start: RateCandidate, t0St
   const indices = Float64Array.from(set.time, (_, i) => i);
   const initial = [start.alpha / rate, start.omega0 / rate, ...(k === 3 ? [0] : [])];
   const min = [1e-9, 1e-9, ...(k === 3 ? [-Infinity] : [])];
-  const result = fitCurve(model, { x: indices, y: set.values }, initial, { min, maxIterations: 200 });
+  const result = fitCurve(model, { x: indices, y: set.values }, initial, { min, maxIterations: MAX_ITERATIONS });
   const nonlinear = toPhysical(result.parameters.map((p) => p.value));
   const [alpha, omega0, t0 = t0Start] = nonlinear;
   const linear = solveAmplitudes(layout, set.time, set.values, alpha, omega0, t0, workspace);
