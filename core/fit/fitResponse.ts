@@ -146,7 +146,8 @@ function rankCandidates(set: FitSet, layout: ParameterLayout, candidates: RateCa
 function refine(set: FitSet, layout: ParameterLayout, start: RateCandidate, t0Start: number): Attempt {
   const k = nonlinearCount(layout);
   const rate = start.omega0;
-  const toPhysical = (u: readonly number[]) => [u[0] * rate, u[1] * rate, ...(k === 3 ? [t0Start + u[2] / rate] : [])];
+  // t0 enters as 1 + (t0 - t0Start) omega0 so that every solver variable starts near 1.
+  const toPhysical = (u: readonly number[]) => [u[0] * rate, u[1] * rate, ...(k === 3 ? [t0Start + (u[2] - 1) / rate] : [])];
   const workspace = new Workspace(set.time.length);
   // The solver asks point by point, alternating between two vectors for central differences,
   // so the model is kept for the last few parameter vectors it was asked about.
@@ -167,7 +168,7 @@ function refine(set: FitSet, layout: ParameterLayout, start: RateCandidate, t0St
     evaluate: (u: readonly number[], index: number) => modelFor(u)[index],
   };
   const indices = Float64Array.from(set.time, (_, i) => i);
-  const initial = [start.alpha / rate, start.omega0 / rate, ...(k === 3 ? [0] : [])];
+  const initial = [start.alpha / rate, start.omega0 / rate, ...(k === 3 ? [1] : [])];
   const min = [1e-9, 1e-9, ...(k === 3 ? [-Infinity] : [])];
   const result = fitCurve(model, { x: indices, y: set.values }, initial, { min, maxIterations: MAX_ITERATIONS });
   const nonlinear = toPhysical(result.parameters.map((p) => p.value));

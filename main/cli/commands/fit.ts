@@ -9,6 +9,9 @@ import { summarizeFit, type FitSummary } from '../../../core/report/fitSummary';
 import { formatFitText } from '../../../core/report/fitText';
 import { parseChannel, parseKnown, parseTime, parseTopology } from '../options';
 import { UsageError } from '../errors';
+import { evaluateCautions } from '../../../core/safety/evaluateCautions';
+import { cautionInputsFromCapture } from '../../../core/safety/cautionInputs';
+import { formatCautionsText } from '../../../core/safety/cautionText';
 import { basename } from 'node:path';
 
 export interface FitCommandOptions {
@@ -88,8 +91,10 @@ export function registerFitCommand(program: Command, ctx: CommandContext): void 
     .option('--sort-time', 'sort out-of-order time stamps instead of failing')
     .option('--json', 'print one JSON object instead of the table')
     .action((file: string, options: FitCommandOptions) => {
-      const summary = fitFile(file, options, ctx.io.cwd);
-      ctx.io.out(options.json ? `${JSON.stringify(summary)}\n` : formatFitText(summary));
+      const { summary, loaded } = fitCapture(file, options, ctx.io.cwd);
+      const { channel } = loaded;
+      const cautions = evaluateCautions(cautionInputsFromCapture(channel.values, channel.unit, summary.components ?? {}));
+      ctx.io.out(options.json ? `${JSON.stringify({ ...summary, cautions })}\n` : formatFitText(summary) + formatCautionsText(cautions));
       if (summary.status === 'failed') ctx.setExitCode(1);
     });
 }

@@ -1,0 +1,213 @@
+// Turns the stored columns and the layout into a Capture: time axes, per-channel dropping, clipping, interval.
+
+import { formatEngineering } from '../units/format';
+import { detectClipping, type Clipping } from './detectClipping';
+import type { ColumnStore } from './columnStore';
+import { nameChannels, type ColumnPlan, type Layout } from './layout';
+import type { LineMap } from './lineMap';
+import { findOrderProblem, rebuildAxis, sortByTime, uniformInterval } from './timeAxis';
+import { CaptureError, type Capture, type CaptureOptions, type Channel } from './types';
+
+/** Fewest usable samples a channel needs to be kept. */
+export const MIN_SAMPLES = 20;
+
+interface Axis {
+  /** Time of each output row, s. */
+  time: Float64Array;
+  /** Source row of each output row, or null when output rows are the file rows in order. */
+  order: Uint32Array | null;
+  /** Uniform interval of this axis, or null. */
+  interval: number | null;
+}
+
+function seconds(value: number): string {
+  return formatEngineering(value, 's');
+}
+
+function scaled(column: Float64Array, scale: number): Float64Array {
+  const out = new Float64Array(column.length);
+  for (let i = 0; i < out.length; i++) out[i] = column[i] * scale;
+  return out;
+}
+
+function label(column: ColumnPlan): string {
+  return column.heading || column.name;
+}
+
+/** A headerless first column is time when strictly increasing (or to be sorted); otherwise it is a channel. */
+function resolveFirstColumn(layout: Layout, store: ColumnStore, lines: LineMap, options: CaptureOptions): void {
+  const first = layout.columns[0];
+  if (first?.kind !== 'maybe-time') return;
+  const problem = findOrderProblem(store.column(0));
+  if (problem === null || options.sortTime) {
+    first.kind = 'time';
+    return;
+  }
+  first.kind = 'value';
+  for (const column of layout.columns) column.timeColumn = null;
+  nameChannels(layout.columns, false);
+  if (layout.interval === null) {
+    throw new CaptureError(
+      'no time column: the first column stops increasing here, so it is read as a channel, and the file states no ' +
+        'sample interval; give the sample interval (option sampleInterval), or sortTime to sort by the first column',
+      lines.lineOf(problem.row),
+    );
+  }
+}
+
+function columnAxis(index: number, layout: Layout, store: ColumnStore, lines: LineMap, options: CaptureOptions, warnings: string[]): Axis {
+  const column = layout.columns[index];
+  const time = scaled(store.column(index), column.scale);
+  const problem = findOrderProblem(time);
+  if (problem === null) return { time, order: null, interval: uniformInterval(time) };
+  const line = lines.lineOf(problem.row);
+  if (!options.sortTime) {
+    const what =
+      problem.time === problem.previous
+        ? `time ${seconds(problem.time)} repeats the time stamp of the row before`
+        : `time ${seconds(problem.time)} is earlier than ${seconds(problem.previous)} on the row before`;
+    throw new CaptureError(`${what} (column '${label(column)}'); time must increase (option sortTime sorts the rows)`, line);
+  }
+  const sorted = sortByTime(time);
+  const sortedTime = new Float64Array(sorted.order.length);
+  for (let k = 0; k < sortedTime.length; k++) sortedTime[k] = time[sorted.order[k]];
+  warnings.push(`time in column '${label(column)}' does not increase from line ${line} on; rows were sorted by time`);
+  if (sorted.repeated > 0 && sorted.firstRepeatedRow !== null) {
+    warnings.push(
+      `${sorted.repeated} row(s) repeating an earlier time stamp were left out (first on line ${lines.lineOf(sorted.firstRepeatedRow)})`,
+    );
+  }
+  return { time: sortedTime, order: sorted.order, interval: uniformInterval(sortedTime) };
+}
+
+function intervalAxis(layout: Layout, rows: number, warnings: string[], stamped: ColumnPlan | null): Axis {
+  const interval = layout.interval;
+  if (interval === null) throw new CaptureError('no sample interval to build the time axis from', layout.firstDataLine);
+  const offset = layout.preamble.offset;
+  const start = offset ? offset.value : 0;
+  if (stamped) {
+    const from = offset ? ` and the start from '${offset.key}' on line ${offset.line}` : '';
+    warnings.push(
+      `column '${label(stamped)}' holds wall-clock time stamps; the time axis was rebuilt as ` +
+        `t = ${seconds(start)} + i × ${seconds(interval.value)}, with the interval from ${interval.source}${from}`,
+    );
+  }
+  return { time: rebuildAxis(rows, interval.value, start), order: null, interval: interval.value };
+}
+
+/** One channel: samples with both a time and a value, scaled to SI, with its clipping. */
+function buildChannel(column: ColumnPlan, values: Float64Array, axis: Axis): { channel: Channel; clipping: Clipping } {
+  const n = axis.time.length;
+  const order = axis.order;
+  let usable = 0;
+  for (let k = 0; k < n; k++) {
+    const v = values[order ? order[k] : k];
+    if (v === v && axis.time[k] === axis.time[k]) usable++;
+  }
+  let time = axis.time;
+  let out: Float64Array;
+  if (usable === n) {
+    out = new Float64Array(n);
+    for (let k = 0; k < n; k++) out[k] = values[order ? order[k] : k] * column.scale;
+  } else {
+    time = new Float64Array(usable);
+    out = new Float64Array(usable);
+    let j = 0;
+    for (let k = 0; k < n; k++) {
+      const v = values[order ? order[k] : k];
+      const t = axis.time[k];
+      if (v !== v || t !== t) continue;
+      time[j] = t;
+      out[j++] = v * column.scale;
+    }
+  }
+  const clipping = detectClipping(out);
+  const channel = { name: column.name, unit: column.unit, time, values: out, clipped: clipping.clipped, dropped: n - usable };
+  return { channel, clipping };
+}
+
+function clippingWarning(channel: Channel, clipping: Clipping): string | null {
+  const parts: string[] = [];
+  if (clipping.high > 0) parts.push(`${clipping.high} at the top (${formatEngineering(clipping.highLevel, channel.unit)})`);
+  if (clipping.low > 0) parts.push(`${clipping.low} at the bottom (${formatEngineering(clipping.lowLevel, channel.unit)})`);
+  if (parts.length === 0) return null;
+  return `channel '${channel.name}': ${parts.join(' and ')} samples sit in flat runs at the extreme and look clipped by the ADC; they are marked and left out of fits`;
+}
+
+export function assembleCapture(
+  layout: Layout,
+  store: ColumnStore,
+  lines: LineMap,
+  options: CaptureOptions,
+  footer: string[],
+): Capture {
+  const rows = store.length;
+  if (rows < MIN_SAMPLES) {
+    throw new CaptureError(`only ${rows} data row(s) from line ${layout.firstDataLine}; at least ${MIN_SAMPLES} samples are needed`);
+  }
+  resolveFirstColumn(layout, store, lines, options);
+  const warnings = [...layout.warnings];
+  const axes = new Map<number | null, Axis>();
+  const axisOf = (column: ColumnPlan): Axis => {
+    const key = column.timeColumn;
+    let axis = axes.get(key);
+    if (axis) return axis;
+    const source = key === null ? null : layout.columns[key];
+    axis =
+      source === null || source.kind === 'timestamp'
+        ? intervalAxis(layout, rows, warnings, source)
+        : columnAxis(key as number, layout, store, lines, options, warnings);
+    axes.set(key, axis);
+    return axis;
+  };
+
+  const channels: Channel[] = [];
+  const kept: { channel: Channel; axis: Axis }[] = [];
+  for (let c = 0; c < layout.columns.length; c++) {
+    const column = layout.columns[c];
+    if (column.kind !== 'value') continue;
+    const axis = axisOf(column);
+    const { channel, clipping } = buildChannel(column, store.column(c), axis);
+    const usable = channel.values.length;
+    if (usable < MIN_SAMPLES) {
+      warnings.push(`channel '${channel.name}' has only ${usable} usable sample(s) and was left out`);
+      continue;
+    }
+    if (channel.dropped > 0) {
+      warnings.push(`channel '${channel.name}': ${channel.dropped} sample(s) dropped (empty, NaN, infinite or overrange cells)`);
+    }
+    const clipped = clippingWarning(channel, clipping);
+    if (clipped) warnings.push(clipped);
+    channels.push(channel);
+    kept.push({ channel, axis });
+  }
+  if (channels.length === 0) {
+    throw new CaptureError(`no channel has at least ${MIN_SAMPLES} usable samples`, layout.firstDataLine);
+  }
+  const sampleInterval = commonInterval(kept.map((k) => k.axis));
+  const stated = layout.interval;
+  if (stated && kept.some((k) => k.axis.interval !== null && Math.abs(k.axis.interval - stated.value) > 0.01 * stated.value)) {
+    warnings.push(`the time column's step differs from the interval stated by ${stated.source} (${seconds(stated.value)}); the time column is used`);
+  }
+  warnings.push(...footer);
+  return {
+    channels,
+    sampleInterval,
+    metadata: layout.preamble.metadata,
+    warnings,
+    layout: {
+      delimiter: layout.delimiter,
+      decimalComma: layout.decimalComma,
+      headerLine: layout.headerLine,
+      firstDataLine: layout.firstDataLine,
+      rows,
+    },
+  };
+}
+
+/** The interval shared by all axes (to 1e-6), or null. */
+function commonInterval(axes: Axis[]): number | null {
+  const first = axes[0]?.interval ?? null;
+  if (first === null) return null;
+  return axes.every((a) => a.interval !== null && Math.abs(a.interval - first) <= 1e-6 * first) ? first : null;
+}

@@ -1,0 +1,110 @@
+// Reading one cell: a fast exact path for plain decimal numbers, and the rules for missing or junk cells.
+
+const POW10 = Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
+const MAX_EXACT_DIGITS = 15;
+/** Magnitude at or above which a value is a scope's overrange marker (9.9E37 is the usual one; common practice). */
+export const OVERRANGE = 9.9e37;
+
+/**
+ * The number in text[start, end) when it is a plain decimal (optional sign, digits, one decimal separator,
+ * optional exponent, surrounding spaces) whose value is exact in a double; NaN when the slow path must decide.
+ * Exactness: at most 15 significant digits and a power of ten up to 22 make one correctly rounded operation.
+ */
+export function fastNumber(text: string, start: number, end: number, decimalCode: number): number {
+  let i = start;
+  let c = 0;
+  while (i < end && ((c = text.charCodeAt(i)) === 32 || c === 9)) i++;
+  while (end > i && ((c = text.charCodeAt(end - 1)) === 32 || c === 9)) end--;
+  if (i === end) return NaN;
+  let negative = false;
+  c = text.charCodeAt(i);
+  if (c === 45 || c === 43) {
+    negative = c === 45;
+    i++;
+  }
+  let mantissa = 0;
+  let digits = 0;
+  let seen = false;
+  let exponent = 0;
+  for (; i < end; i++) {
+    const d = text.charCodeAt(i) - 48;
+    if (d < 0 || d > 9) break;
+    seen = true;
+    if (mantissa !== 0 || d !== 0) {
+      mantissa = mantissa * 10 + d;
+      digits++;
+    }
+  }
+  if (i < end && text.charCodeAt(i) === decimalCode) {
+    for (i++; i < end; i++) {
+      const d = text.charCodeAt(i) - 48;
+      if (d < 0 || d > 9) break;
+      seen = true;
+      exponent--;
+      if (mantissa !== 0 || d !== 0) {
+        mantissa = mantissa * 10 + d;
+        digits++;
+      }
+    }
+  }
+  if (!seen || digits > MAX_EXACT_DIGITS) return NaN;
+  if (i < end) {
+    c = text.charCodeAt(i);
+    if (c !== 101 && c !== 69) return NaN;
+    i++;
+    let expNegative = false;
+    c = text.charCodeAt(i);
+    if (c === 45 || c === 43) {
+      expNegative = c === 45;
+      i++;
+    }
+    let written = 0;
+    let expDigits = 0;
+    for (; i < end; i++) {
+      const d = text.charCodeAt(i) - 48;
+      if (d < 0 || d > 9 || expDigits > 4) return NaN;
+      written = written * 10 + d;
+      expDigits++;
+    }
+    if (expDigits === 0) return NaN;
+    exponent += expNegative ? -written : written;
+  }
+  if (mantissa === 0) return negative ? -0 : 0;
+  let value: number;
+  if (exponent === 0) value = mantissa;
+  else if (exponent < 0 && exponent >= -22) value = mantissa / POW10[-exponent];
+  else if (exponent > 0 && exponent <= 22) value = mantissa * POW10[exponent];
+  else return NaN;
+  if (value >= OVERRANGE) return NaN;
+  return negative ? -value : value;
+}
+
+const MISSING = new Set(['', 'nan', '-nan', '+nan', 'inf', '-inf', '+inf', 'infinity', '-infinity', '+infinity', 'null', 'none', 'n/a', 'na', '-', '--', 'over', 'under', 'overrange', 'ovf', 'clip', '?']);
+const STARS = /^\*+$/;
+const HEX = /^[+-]?0[xob]/i;
+
+/**
+ * A cell the fast path did not take: its value, NaN for a missing or overrange cell (empty, NaN, inf, '****',
+ * |x| >= 9.9e37), or null for junk that is not a number. `decimalComma` lets '1,5' mean 1.5.
+ */
+export function slowCellValue(cell: string, decimalComma: boolean): number | null {
+  let text = cell.trim();
+  if (text.length >= 2 && text.startsWith('"') && text.endsWith('"')) text = text.slice(1, -1).trim();
+  const lower = text.toLowerCase();
+  if (MISSING.has(lower) || STARS.test(text)) return NaN;
+  if (HEX.test(text)) return null;
+  const normal = decimalComma && text.includes(',') && !text.includes('.') ? text.replace(',', '.') : text;
+  const value = Number(normal);
+  if (Number.isNaN(value)) return null;
+  return Number.isFinite(value) && Math.abs(value) < OVERRANGE ? value : NaN;
+}
+
+const DATE_TIME =
+  /^\d{1,4}[/.-]\d{1,2}[/.-]\d{1,4}(?:[ T]+|\s*,\s*)\d{1,2}:\d{2}(?::\d{2}(?:[.,]\d+)?)?(?:\s*[AP]M)?(?:Z|[+-]\d{2}:?\d{2})?$/i;
+const TIME_OF_DAY = /^\d{1,2}:\d{2}:\d{2}(?:[.,]\d+)?(?:\s*[AP]M)?$/i;
+
+/** True for a wall-clock time stamp such as '5/26/2021  11:44:55.465797' or '11:44:55.4'. */
+export function isTimestamp(cell: string): boolean {
+  const text = cell.trim();
+  return DATE_TIME.test(text) || TIME_OF_DAY.test(text);
+}

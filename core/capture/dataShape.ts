@@ -1,0 +1,51 @@
+// Recognises a row of numbers and the delimiter it uses, before the layout of the file is known.
+
+import { isTimestamp, slowCellValue } from './cellValue';
+import { isBlankOrComment } from './preamble';
+import { WHITESPACE, splitLine } from './splitLine';
+
+export interface DataShape {
+  /** ',', ';', '\t', ' ' (runs of whitespace), or '' when the line holds one cell and no delimiter. */
+  delimiter: string;
+  /** Cells as split, trailing empty ones included. */
+  cells: string[];
+  /** A cell used ',' as the decimal separator. */
+  decimalComma: boolean;
+}
+
+/** Tried in this order; the one giving the most cells wins, ties going to the earlier. */
+const CANDIDATES = ['\t', ';', ',', WHITESPACE];
+
+function judge(cells: string[], delimiter: string): DataShape | null {
+  let numbers = 0;
+  let decimalComma = false;
+  for (const cell of cells) {
+    // A ',' inside a cell of a comma-separated line can only come from a quoted field: a decimal comma.
+    const value = slowCellValue(cell, delimiter !== ',' || cell.includes(','));
+    if (value === null) {
+      if (!isTimestamp(cell)) return null;
+    } else if (!Number.isNaN(value)) {
+      numbers++;
+      if (cell.includes(',')) decimalComma = true;
+    }
+  }
+  return numbers > 0 ? { delimiter, cells, decimalComma } : null;
+}
+
+/** The shape of `text` when it is a row of numbers (missing-value markers and time stamps allowed), else null. */
+export function dataShape(text: string): DataShape | null {
+  if (isBlankOrComment(text)) return null;
+  let best: DataShape | null = null;
+  for (const delimiter of CANDIDATES) {
+    const present = delimiter === WHITESPACE ? /\S\s+\S/.test(text.trim()) : text.includes(delimiter);
+    if (!present) continue;
+    const shape = judge(splitLine(text, delimiter), delimiter);
+    if (shape && (!best || shape.cells.length > best.cells.length)) best = shape;
+  }
+  return best ?? judge([text], '');
+}
+
+/** Two rows belong to the same table when they split the same way into the same number of cells. */
+export function sameShape(a: DataShape, b: DataShape): boolean {
+  return a.delimiter === b.delimiter && a.cells.length === b.cells.length;
+}

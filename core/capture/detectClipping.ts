@@ -1,0 +1,97 @@
+// Finds samples held at an ADC rail: flat runs at the channel's extreme that the signal slews into.
+
+/** Shortest run at the extreme that can be a rail. */
+const MIN_RUN = 3;
+/** Samples beside a run used to measure how steeply the signal enters or leaves it. */
+const FLANK = 3;
+/**
+ * A smooth peak sampled finely stays on its top code for about 4 q / slope samples (q the code step), so a run
+ * at least this many steps long for its flank slope, with flanks moving at least one step per sample, is a rail.
+ */
+const RUN_SLOPE_STEPS = 16;
+
+export interface Clipping {
+  /** 1 where the sample is part of a rail run. */
+  clipped: Uint8Array;
+  /** Clipped samples at the top and at the bottom rail. */
+  high: number;
+  low: number;
+  /** The rail levels (NaN when that side is not clipped). */
+  highLevel: number;
+  lowLevel: number;
+}
+
+/** Smallest non-zero step between neighbouring samples: one code for quantised data. */
+function codeStep(values: Float64Array): number {
+  let step = Infinity;
+  for (let i = 1; i < values.length; i++) {
+    const d = Math.abs(values[i] - values[i - 1]);
+    if (d > 0 && d < step) step = d;
+  }
+  return step;
+}
+
+/** Mean slope towards the run (units per sample) over up to FLANK samples beside it, from index `near` outwards. */
+function flankSlope(values: Float64Array, near: number, direction: 1 | -1, rail: number, sign: 1 | -1): number {
+  let far = near;
+  for (let k = 1; k <= FLANK && far + direction >= 0 && far + direction < values.length; k++) far += direction;
+  if (far === near) return sign * (rail - values[near]);
+  return (sign * (values[near] - values[far])) / Math.abs(far - near);
+}
+
+/** Marks the rail runs on one side (sign 1: top, -1: bottom); returns how many samples were marked. */
+function markSide(values: Float64Array, sign: 1 | -1, step: number, clipped: Uint8Array): { count: number; level: number } {
+  let level = -Infinity;
+  for (let i = 0; i < values.length; i++) if (sign * values[i] > level) level = sign * values[i];
+  const rail = sign * level;
+  const runs: { start: number; end: number }[] = [];
+  let confirmed = false;
+  for (let i = 0; i < values.length; ) {
+    if (values[i] !== rail) {
+      i++;
+      continue;
+    }
+    let end = i;
+    while (end + 1 < values.length && values[end + 1] === rail) end++;
+    const length = end - i + 1;
+    if (length >= MIN_RUN) {
+      runs.push({ start: i, end });
+      const interior = i > 0 && end < values.length - 1;
+      const steep = (slope: number): boolean => slope >= step && slope * length >= RUN_SLOPE_STEPS * step;
+      if (interior && steep(flankSlope(values, i - 1, -1, rail, sign)) && steep(flankSlope(values, end + 1, 1, rail, sign))) {
+        confirmed = true;
+      }
+    }
+    i = end + 1;
+  }
+  if (!confirmed) return { count: 0, level: rail };
+  let count = 0;
+  for (const run of runs) {
+    clipped.fill(1, run.start, run.end + 1);
+    count += run.end - run.start + 1;
+  }
+  return { count, level: rail };
+}
+
+/**
+ * Rule: the channel's maximum (or minimum) is a rail when some run of at least 3 samples exactly at it lies inside
+ * the record and the signal moves into and out of it steeply: on both sides, by at least one code step per sample
+ * (averaged over 3 samples), and that slope times the run length is at least 16 code steps. Then every run of 3 or
+ * more at that level is marked, those touching the start or end of the record included. A smooth peak repeating
+ * its top code, a level the signal settles onto, or a flat pre-trigger baseline is not marked; a pulse top that is
+ * exactly flat between steep edges cannot be told from a rail and is marked.
+ */
+export function detectClipping(values: Float64Array): Clipping {
+  const clipped = new Uint8Array(values.length);
+  const step = codeStep(values);
+  if (!Number.isFinite(step)) return { clipped, high: 0, low: 0, highLevel: NaN, lowLevel: NaN };
+  const high = markSide(values, 1, step, clipped);
+  const low = markSide(values, -1, step, clipped);
+  return {
+    clipped,
+    high: high.count,
+    low: low.count,
+    highLevel: high.count > 0 ? high.level : NaN,
+    lowLevel: low.count > 0 ? low.level : NaN,
+  };
+}

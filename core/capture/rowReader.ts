@@ -1,0 +1,143 @@
+// The hot loop: reads one data line of a known layout straight into the column store.
+
+import { fastNumber, slowCellValue } from './cellValue';
+import type { ColumnStore } from './columnStore';
+import { WHITESPACE, splitLine } from './splitLine';
+
+/** Outcome of reading a line: a row was stored, or the line carried nothing (blank, comment). */
+export const ROW = 0;
+export const SKIP = 1;
+
+const NOT_FOUND = Number.MAX_SAFE_INTEGER;
+
+export class RowReader {
+  private readonly count: number;
+  private readonly delimiterCode: number;
+  private readonly decimalCode: number;
+  private nextDelimiter = -1;
+  private nextQuote = -1;
+  private text = '';
+
+  constructor(
+    private readonly store: ColumnStore,
+    /** true where the column is parsed (time stamps are not). */
+    private readonly parsed: boolean[],
+    private readonly delimiter: string,
+    decimalComma: boolean,
+  ) {
+    this.count = parsed.length;
+    this.delimiterCode = delimiter === WHITESPACE ? -1 : delimiter.charCodeAt(0);
+    this.decimalCode = decimalComma ? 44 : 46;
+  }
+
+  /** Call before reading lines of a new text: the look-ahead caches belong to one string. */
+  begin(text: string): void {
+    this.text = text;
+    this.nextDelimiter = -1;
+    this.nextQuote = -1;
+  }
+
+  /** Reads text[start, end) (no line terminator): ROW, SKIP, or a message saying what is wrong. */
+  read(start: number, end: number): number | string {
+    const text = this.text;
+    let p = start;
+    let c = 0;
+    while (p < end && ((c = text.charCodeAt(p)) === 32 || c === 9)) p++;
+    if (p === end) return SKIP;
+    // '#', '%', '//' and (unless ';' separates cells) ';' start comments.
+    if (c === 35 || c === 37 || (c === 47 && text.charCodeAt(p + 1) === 47) || (c === 59 && this.delimiterCode !== 59)) return SKIP;
+    if (this.nextQuote < start) {
+      const q = text.indexOf('"', start);
+      this.nextQuote = q < 0 ? NOT_FOUND : q;
+    }
+    this.store.reserve();
+    if (this.nextQuote < end) return this.readCells(splitLine(text.slice(start, end), this.delimiter));
+    return this.delimiterCode < 0 ? this.readWhitespace(p, end) : this.readDelimited(start, end);
+  }
+
+  private readDelimited(start: number, end: number): number | string {
+    const text = this.text;
+    const columns = this.store.columns;
+    const row = this.store.length;
+    let col = 0;
+    let cellStart = start;
+    for (;;) {
+      if (this.nextDelimiter < cellStart) {
+        const d = text.indexOf(this.delimiter, cellStart);
+        this.nextDelimiter = d < 0 ? NOT_FOUND : d;
+      }
+      const cellEnd = this.nextDelimiter < end ? this.nextDelimiter : end;
+      const problem = this.store1(columns, row, col, cellStart, cellEnd);
+      if (problem !== null) return problem;
+      col++;
+      if (cellEnd === end) break;
+      cellStart = cellEnd + 1;
+    }
+    return this.commit(columns, row, col);
+  }
+
+  private readWhitespace(p: number, end: number): number | string {
+    const text = this.text;
+    const columns = this.store.columns;
+    const row = this.store.length;
+    let col = 0;
+    while (p < end) {
+      const cellStart = p;
+      let c = text.charCodeAt(p);
+      while (p < end && c !== 32 && c !== 9) c = text.charCodeAt(++p);
+      const problem = this.store1(columns, row, col, cellStart, p);
+      if (problem !== null) return problem;
+      col++;
+      while (p < end && ((c = text.charCodeAt(p)) === 32 || c === 9)) p++;
+    }
+    return this.commit(columns, row, col);
+  }
+
+  /** Stores one cell; null when fine, else what is wrong. */
+  private store1(columns: Float64Array[], row: number, col: number, start: number, end: number): string | null {
+    const text = this.text;
+    if (col >= this.count) {
+      const extra = text.slice(start, end).trim();
+      return extra === '' ? null : `expected ${this.count} columns, found more ('${extra}' in column ${col + 1})`;
+    }
+    if (!this.parsed[col]) return null;
+    let value = fastNumber(text, start, end, this.decimalCode);
+    if (value !== value) {
+      const cell = text.slice(start, end);
+      const slow = slowCellValue(cell, this.delimiterCode !== 44);
+      if (slow === null) return `expected ${this.count} numeric columns, found '${cell.trim()}' (column ${col + 1})`;
+      value = slow;
+    }
+    columns[col][row] = value;
+    return null;
+  }
+
+  /** A quoted line, already split. */
+  private readCells(cells: string[]): number | string {
+    const columns = this.store.columns;
+    const row = this.store.length;
+    for (let col = 0; col < cells.length; col++) {
+      const cell = cells[col];
+      if (col >= this.count) {
+        if (cell.trim() !== '') return `expected ${this.count} columns, found more ('${cell.trim()}' in column ${col + 1})`;
+        continue;
+      }
+      if (!this.parsed[col]) continue;
+      let value = fastNumber(cell, 0, cell.length, this.decimalCode);
+      if (value !== value) {
+        const slow = slowCellValue(cell, this.delimiterCode !== 44 || cell.includes(','));
+        if (slow === null) return `expected ${this.count} numeric columns, found '${cell.trim()}' (column ${col + 1})`;
+        value = slow;
+      }
+      columns[col][row] = value;
+    }
+    return this.commit(columns, row, cells.length);
+  }
+
+  /** Missing trailing cells are empty (NaN); the row is kept. */
+  private commit(columns: Float64Array[], row: number, filled: number): number {
+    for (let col = filled; col < this.count; col++) if (this.parsed[col]) columns[col][row] = NaN;
+    this.store.length = row + 1;
+    return ROW;
+  }
+}

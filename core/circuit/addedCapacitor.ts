@@ -1,0 +1,297 @@
+// Parasitic loop L, C and R by the added-capacitor method: known capacitors in parallel with the
+// node lower the natural frequency, and 1 / (2 pi f)^2 = L_p (C_p + C_added) is a straight line.
+import { quantity, type Quantity } from '../quantity';
+import { formatEngineering } from '../units/format';
+import { chiSquareLimit99 } from './chiSquareLimit';
+import { CircuitInputError } from './errors';
+import { checkRingCapture, type RingCaptureSetup } from './measurementChecks';
+import { toleranceToRelativeUncertainty } from './tolerance';
+
+export interface AddedCapacitorMeasurement {
+  /** Capacitance added in parallel with the node, F (0 for the bare loop). */
+  addedC: number;
+  /** Relative tolerance of the added part (rectangular, GUM 4.3.7). Default 0. */
+  addedCTolerance?: number;
+  /**
+   * Undamped natural frequency f0 = omega0 / (2 pi) from the fit, Hz. Not the ring (damped)
+   * frequency: f = 1 / (2 pi sqrt(L C)) holds for omega0 only, and f_d = sqrt(f0^2 - (alpha / 2 pi)^2)
+   * would read low by an amount that changes from capture to capture.
+   */
+  frequency: Quantity;
+  /** Neper frequency alpha from the same fit, s^-1. */
+  alpha: Quantity;
+  /** Sample interval of this capture, s (for the samples-per-period check). */
+  sampleInterval?: number;
+}
+
+export interface AddedCapacitorOptions {
+  /** Probe capacitance in parallel with the node in every capture, F. Default 0. */
+  probeC?: number;
+  /** Relative tolerance of probeC (rectangular). Default 0. */
+  probeCTolerance?: number;
+  /** Scope or probe bandwidth, Hz, for the bandwidth check. Default: no check. */
+  bandwidth?: number;
+  /** Sample interval used for every capture without its own, s. Default: no check. */
+  sampleInterval?: number;
+}
+
+export interface ParasiticExtraction {
+  /** Loop inductance L_p. */
+  L: Quantity;
+  /** Node capacitance C_p, probe capacitance removed. */
+  C: Quantity;
+  /** Loop resistance R_p = 2 alpha L_p (series-loop assumption), alpha of the bare loop. */
+  R: Quantity;
+  /** sqrt(L_p / C_p). */
+  characteristicImpedance: Quantity;
+  /**
+   * Residual of the straight-line fit, null with two captures (the line is exact). chiSquare is
+   * weighted by the frequency uncertainties, or by unit relative weights when some are missing.
+   */
+  residual: { chiSquare: number; dof: number } | null;
+  warnings: string[];
+  /** How the values were obtained (the assumptions behind R_p). */
+  notes: string[];
+}
+
+/** A frequency ratio squared below this leaves C_p poorly determined (derived: 20 % in C). */
+const MIN_CAPACITANCE_RATIO = 1.2;
+
+/**
+ * L_p and C_p by weighted least squares of y_i = 1 / (2 pi f_i)^2 against x_i = C_added,i + C_probe:
+ * y = L_p x + L_p C_p. With two captures this is the closed form C_p = C_add / ((f1 / f2)^2 - 1),
+ * L_p = 1 / ((2 pi f1)^2 C_p). Uncertainty is first order from the frequencies (weights 1 / u(y)^2;
+ * scaled by the Birge ratio sqrt(chi^2 / dof) when that exceeds 1, so an inconsistent set does not
+ * claim more precision than it shows), the added-part tolerances and the probe tolerance.
+ */
+export function extractParasitics(
+  measurements: readonly AddedCapacitorMeasurement[],
+  options: AddedCapacitorOptions = {},
+): ParasiticExtraction {
+  const probeC = options.probeC ?? 0;
+  const probeTolerance = options.probeCTolerance ?? 0;
+  validate(measurements, options, probeC, probeTolerance);
+  const warnings: string[] = [];
+  const n = measurements.length;
+  const x = measurements.map((m) => m.addedC + probeC);
+  const y = measurements.map((m) => 1 / (2 * Math.PI * m.frequency.value) ** 2);
+  const weighted = measurements.every((m) => m.frequency.stderr !== null && m.frequency.stderr > 0);
+  // u(y) / y = 2 u(f) / f; without stated uncertainties every capture gets the same relative weight.
+  const w = measurements.map((m, i) =>
+    weighted ? 1 / (2 * y[i] * (m.frequency.stderr as number) / m.frequency.value) ** 2 : 1 / y[i] ** 2,
+  );
+
+  const line = fitLine(x, y, w);
+  const { slope, intercept, residuals } = line;
+  if (!(slope > 0)) {
+    throw new CircuitInputError('measurements', 'the natural frequency does not fall as capacitance is added; check the captures and the added values');
+  }
+  const capacitance = intercept / slope;
+  if (!(capacitance > 0)) {
+    throw new CircuitInputError(
+      'measurements',
+      `the fitted node capacitance is not positive (${formatEngineering(capacitance, 'F')}); is probeC larger than the node's own capacitance?`,
+    );
+  }
+
+  const dof = n - 2;
+  const chiSquare = residuals.reduce((sum, r, i) => sum + w[i] * r * r, 0);
+  const residual = dof > 0 ? { chiSquare, dof } : null;
+  const scale = frequencyScale(weighted, chiSquare, dof);
+  warnings.push(...scale.warnings);
+  const cov = lineCovariance(line, x, w, measurements, probeC, probeTolerance, scale.value);
+
+  const propagate = (g: [number, number]): number | null =>
+    cov === null ? null : Math.sqrt(Math.max(0, g[0] * g[0] * cov[0][0] + 2 * g[0] * g[1] * cov[0][1] + g[1] * g[1] * cov[1][1]));
+  const L = quantity(slope, propagate([1, 0]), 'H');
+  const C = quantity(capacitance, propagate([-intercept / slope ** 2, 1 / slope]), 'F');
+  const z0 = slope / Math.sqrt(intercept);
+  const Z0 = quantity(z0, propagate([1 / Math.sqrt(intercept), -z0 / (2 * intercept)]), 'ohm');
+
+  const bare = bareIndex(measurements);
+  const alpha = measurements[bare].alpha;
+  const rValue = 2 * alpha.value * slope;
+  const rRel =
+    alpha.stderr === null || L.stderr === null ? null : Math.hypot(alpha.stderr / alpha.value, L.stderr / L.value);
+  const R = quantity(rValue, rRel === null ? null : rValue * rRel, 'ohm');
+
+  warnings.push(...checkSpread(x, capacitance), ...checkDamping(measurements, bare), ...checkCaptures(measurements, options));
+  const notes = [
+    'R_p = 2 alpha L_p assumes a series loop (alpha = R / (2 L)), with alpha from the capture with the least added capacitance.',
+  ];
+  return { L, C, R, characteristicImpedance: Z0, residual, warnings, notes };
+}
+
+interface LineFit {
+  slope: number;
+  intercept: number;
+  /** Inverse of the normal matrix A = sum w_i (x_i, 1)(x_i, 1)^T. */
+  inverse: number[][];
+  residuals: number[];
+}
+
+function fitLine(x: number[], y: number[], w: number[]): LineFit {
+  let sw = 0, sx = 0, sxx = 0, sy = 0, sxy = 0;
+  for (let i = 0; i < x.length; i++) {
+    sw += w[i];
+    sx += w[i] * x[i];
+    sxx += w[i] * x[i] * x[i];
+    sy += w[i] * y[i];
+    sxy += w[i] * x[i] * y[i];
+  }
+  const det = sxx * sw - sx * sx;
+  const inverse = [
+    [sw / det, -sx / det],
+    [-sx / det, sxx / det],
+  ];
+  const slope = inverse[0][0] * sxy + inverse[0][1] * sy;
+  const intercept = inverse[1][0] * sxy + inverse[1][1] * sy;
+  const residuals = x.map((xi, i) => y[i] - slope * xi - intercept);
+  return { slope, intercept, inverse, residuals };
+}
+
+/**
+ * Factor on the line fit's own covariance A^-1 for the frequency part: 1 with stated uncertainties
+ * (the Birge ratio squared chi^2 / dof when above 1), the residual variance without them, null when
+ * two captures without uncertainties leave nothing to estimate it from.
+ */
+function frequencyScale(weighted: boolean, chiSquare: number, dof: number): { value: number | null; warnings: string[] } {
+  if (weighted) {
+    const warnings =
+      dof > 0 && chiSquare > chiSquareLimit99(dof)
+        ? [
+            `the captures do not agree with one L_p and C_p (chi^2 / dof = ${(chiSquare / dof).toFixed(2)}, above the 1 % limit); ` +
+              'uncertainties are scaled up by sqrt(chi^2 / dof). Check the added values and that the node did not change between captures.',
+          ]
+        : [];
+    return { value: dof > 0 ? Math.max(1, chiSquare / dof) : 1, warnings };
+  }
+  if (dof === 0) {
+    return { value: null, warnings: ['frequency uncertainties were not all given and two captures leave no residual: L_p and C_p have no uncertainty.'] };
+  }
+  return {
+    value: chiSquare / dof,
+    warnings: ['frequency uncertainties were not all given: the frequency part of the uncertainty comes from the scatter about the line.'],
+  };
+}
+
+/**
+ * Covariance of (slope, intercept) to first order: the frequency part scale * A^-1, plus each added
+ * part's tolerance through d(slope, intercept)/d x_i = w_i A^-1 (r_i - slope x_i, -slope), plus the
+ * probe tolerance, which moves every x_i together. Null when the frequency part is unknown.
+ */
+function lineCovariance(
+  line: LineFit,
+  x: number[],
+  w: number[],
+  measurements: readonly AddedCapacitorMeasurement[],
+  probeC: number,
+  probeTolerance: number,
+  scale: number | null,
+): number[][] | null {
+  if (scale === null) return null;
+  const { inverse, slope, residuals } = line;
+  const cov = inverse.map((row) => row.map((v) => v * scale));
+  const addOuter = (g: [number, number], variance: number) => {
+    cov[0][0] += g[0] * g[0] * variance;
+    cov[0][1] += g[0] * g[1] * variance;
+    cov[1][0] += g[0] * g[1] * variance;
+    cov[1][1] += g[1] * g[1] * variance;
+  };
+  const probeGradient: [number, number] = [0, 0];
+  measurements.forEach((m, i) => {
+    const g = applyInverse(inverse, w[i] * (residuals[i] - slope * x[i]), -w[i] * slope);
+    addOuter(g, (m.addedC * toleranceToRelativeUncertainty(m.addedCTolerance ?? 0)) ** 2);
+    probeGradient[0] += g[0];
+    probeGradient[1] += g[1];
+  });
+  addOuter(probeGradient, (probeC * toleranceToRelativeUncertainty(probeTolerance)) ** 2);
+  return cov;
+}
+
+function applyInverse(inverse: number[][], a: number, b: number): [number, number] {
+  return [inverse[0][0] * a + inverse[0][1] * b, inverse[1][0] * a + inverse[1][1] * b];
+}
+
+/** The capture with the least added capacitance: its damping is the loop's own. */
+function bareIndex(measurements: readonly AddedCapacitorMeasurement[]): number {
+  let best = 0;
+  measurements.forEach((m, i) => {
+    if (m.addedC < measurements[best].addedC) best = i;
+  });
+  return best;
+}
+
+function checkSpread(x: number[], capacitance: number): string[] {
+  const ratio = (capacitance + Math.max(...x)) / (capacitance + Math.min(...x));
+  if (ratio >= MIN_CAPACITANCE_RATIO) return [];
+  return [
+    `the added capacitance moved the natural frequency by only ${((1 - 1 / Math.sqrt(ratio)) * 100).toFixed(1)} %, so C_p is poorly ` +
+      'determined; adding about 3 C_p halves the frequency (derived), a usual working choice (common practice).',
+  ];
+}
+
+/** Series-loop assumption: alpha = R / (2 L) does not depend on C, so the captures should share alpha. */
+function checkDamping(measurements: readonly AddedCapacitorMeasurement[], bare: number): string[] {
+  const ref = measurements[bare].alpha;
+  const moved = measurements.some((m, i) => {
+    if (i === bare) return false;
+    const diff = Math.abs(m.alpha.value - ref.value);
+    const sigma = ref.stderr !== null && m.alpha.stderr !== null ? Math.hypot(ref.stderr, m.alpha.stderr) : 0;
+    return diff > 3 * sigma && diff > 0.1 * ref.value;
+  });
+  if (!moved) return [];
+  return [
+    'alpha changes by more than 10 % (and 3 sigma) between captures: the added part brings its own loss (ESR) or the damping ' +
+      'is not a series resistance, so R_p is only indicative.',
+  ];
+}
+
+function checkCaptures(measurements: readonly AddedCapacitorMeasurement[], options: AddedCapacitorOptions): string[] {
+  return measurements.flatMap((m, i) => {
+    const setup: RingCaptureSetup = { bandwidth: options.bandwidth, sampleInterval: m.sampleInterval ?? options.sampleInterval };
+    return checkRingCapture(m.frequency.value, setup, `capture ${i + 1}:`);
+  });
+}
+
+function validate(
+  measurements: readonly AddedCapacitorMeasurement[],
+  options: AddedCapacitorOptions,
+  probeC: number,
+  probeTolerance: number,
+): void {
+  if (!Array.isArray(measurements) || measurements.length < 2) {
+    throw new CircuitInputError('measurements', 'need at least two captures (the bare loop and one with a capacitor added)');
+  }
+  measurements.forEach((m, i) => {
+    const at = `measurements[${i}]`;
+    if (!Number.isFinite(m.addedC) || m.addedC < 0) throw new CircuitInputError(`${at}.addedC`, `must be a finite capacitance >= 0 F, got ${m.addedC}`);
+    checkTolerance(`${at}.addedCTolerance`, m.addedCTolerance);
+    if (!Number.isFinite(m.frequency?.value) || m.frequency.value <= 0) {
+      throw new CircuitInputError(`${at}.frequency`, `must be a positive natural frequency in Hz, got ${m.frequency?.value}`);
+    }
+    if (!Number.isFinite(m.alpha?.value) || m.alpha.value <= 0) {
+      throw new CircuitInputError(`${at}.alpha`, `must be a positive neper frequency in s^-1 (a decaying ring), got ${m.alpha?.value}`);
+    }
+    if (m.sampleInterval !== undefined && !(m.sampleInterval > 0)) {
+      throw new CircuitInputError(`${at}.sampleInterval`, `must be a positive time in s, got ${m.sampleInterval}`);
+    }
+  });
+  if (new Set(measurements.map((m) => m.addedC)).size < 2) {
+    throw new CircuitInputError('measurements', 'need at least two different added capacitances');
+  }
+  if (!Number.isFinite(probeC) || probeC < 0) throw new CircuitInputError('options.probeC', `must be a finite capacitance >= 0 F, got ${probeC}`);
+  checkTolerance('options.probeCTolerance', probeTolerance);
+  if (options.bandwidth !== undefined && !(options.bandwidth > 0)) {
+    throw new CircuitInputError('options.bandwidth', `must be a positive frequency in Hz, got ${options.bandwidth}`);
+  }
+  if (options.sampleInterval !== undefined && !(options.sampleInterval > 0)) {
+    throw new CircuitInputError('options.sampleInterval', `must be a positive time in s, got ${options.sampleInterval}`);
+  }
+}
+
+function checkTolerance(field: string, tolerance: number | undefined): void {
+  if (tolerance !== undefined && (!Number.isFinite(tolerance) || tolerance < 0 || tolerance >= 1)) {
+    throw new CircuitInputError(field, `must be a relative tolerance in [0, 1), got ${tolerance}`);
+  }
+}

@@ -1,0 +1,174 @@
+// The design file of a circuit under test (our own JSON layout): reading with field-path errors, writing.
+import { parseQuantityText } from '../units/parseQuantity';
+import { COMPONENT_NAMES, COMPONENT_UNITS, type ComponentName, type Topology } from './relations';
+
+/** What the channel measures: the voltage across C, the current in L, or the voltage across R. */
+export type Probe = 'capacitor-voltage' | 'inductor-current' | 'resistor-voltage';
+
+export const PROBES: readonly Probe[] = ['capacitor-voltage', 'inductor-current', 'resistor-voltage'];
+export const DESIGN_FORMAT = 'ringbench-design';
+export const DESIGN_VERSION = 1;
+
+export interface ComponentSpec {
+  /** SI base units: ohm, H, F. */
+  value: number;
+  /** Relative tolerance (0.05 = 5 %), read as a rectangular half-width; 0 when the file gives none. */
+  tolerance: number;
+}
+
+/**
+ * step: the source jumps from initialLevel to initialLevel + amplitude with the circuit settled before.
+ *   Series: a voltage source driving R-L-C (V). Parallel: a current source into R || L || C (A).
+ * natural: the source is zero after the event; the capacitor voltage (V) and the inductor current (A,
+ *   series: the loop current charging C; parallel: node to ground through L) are given at the event.
+ */
+export type DesignSource =
+  | { kind: 'step'; amplitude: number; initialLevel: number }
+  | { kind: 'natural'; capacitorVoltage: number; inductorCurrent: number };
+
+export interface Design {
+  format: typeof DESIGN_FORMAT;
+  version: typeof DESIGN_VERSION;
+  name: string;
+  topology: Topology;
+  components: Record<ComponentName, ComponentSpec>;
+  source: DesignSource;
+  probe: Probe;
+  /** Free text for the reader of the file. */
+  notes?: string;
+}
+
+/** Invalid design text; `path` names the field ('components.L.tolerance'), '' for the whole file. */
+export class DesignError extends Error {
+  readonly path: string;
+  constructor(path: string, problem: string) {
+    super(path === '' ? `design: ${problem}` : `design ${path}: ${problem}`);
+    this.name = 'DesignError';
+    this.path = path;
+  }
+}
+
+type Json = Record<string, unknown>;
+
+/**
+ * A design from its JSON text. Component values and source levels may be numbers or strings with SI
+ * prefixes ('4.7', '2.2u', '470nF', '4k7'); every field is checked and the first fault is thrown
+ * as a DesignError naming its path.
+ */
+export function parseDesign(jsonText: string): Design {
+  let root: unknown;
+  try {
+    root = JSON.parse(jsonText);
+  } catch (e) {
+    throw new DesignError('', `not valid JSON (${(e as Error).message})`);
+  }
+  const top = object(root, '');
+  allowOnly(top, '', ['format', 'version', 'name', 'topology', 'components', 'source', 'probe', 'notes']);
+  if (top.format !== DESIGN_FORMAT) throw new DesignError('format', `must be "${DESIGN_FORMAT}"`);
+  if (top.version !== DESIGN_VERSION) throw new DesignError('version', `must be ${DESIGN_VERSION} (this program reads version ${DESIGN_VERSION})`);
+  const name = text(top.name, 'name');
+  const topology = oneOf(top.topology, 'topology', ['series', 'parallel'] as const);
+  const probe = oneOf(top.probe, 'probe', PROBES);
+  const design: Design = {
+    format: DESIGN_FORMAT,
+    version: DESIGN_VERSION,
+    name,
+    topology,
+    components: readComponents(top.components),
+    source: readSource(top.source, topology),
+    probe,
+  };
+  if (top.notes !== undefined) design.notes = text(top.notes, 'notes', true);
+  return design;
+}
+
+/** The design as JSON text (numbers in SI base units), readable by parseDesign. */
+export function serializeDesign(design: Design): string {
+  const { format, version, name, topology, components, source, probe, notes } = design;
+  const ordered = { format, version, name, topology, components, source, probe, ...(notes === undefined ? {} : { notes }) };
+  return `${JSON.stringify(ordered, null, 2)}\n`;
+}
+
+function readComponents(value: unknown): Record<ComponentName, ComponentSpec> {
+  const node = object(value, 'components');
+  allowOnly(node, 'components', COMPONENT_NAMES);
+  const result = {} as Record<ComponentName, ComponentSpec>;
+  for (const name of COMPONENT_NAMES) {
+    const path = `components.${name}`;
+    if (node[name] === undefined) throw new DesignError(path, 'is missing (R, L and C are all needed)');
+    const spec = object(node[name], path);
+    allowOnly(spec, path, ['value', 'tolerance']);
+    const v = measure(spec.value, `${path}.value`, COMPONENT_UNITS[name]);
+    if (!(v > 0)) throw new DesignError(`${path}.value`, `must be positive, got ${v}`);
+    const tolerance = spec.tolerance ?? 0;
+    if (typeof tolerance !== 'number' || !Number.isFinite(tolerance) || tolerance < 0 || tolerance >= 1) {
+      throw new DesignError(`${path}.tolerance`, 'must be a number between 0 and 1 (0.05 = 5 %)');
+    }
+    result[name] = { value: v, tolerance };
+  }
+  return result;
+}
+
+function readSource(value: unknown, topology: Topology): DesignSource {
+  const node = object(value, 'source');
+  const kind = oneOf(node.kind, 'source.kind', ['step', 'natural'] as const);
+  if (kind === 'step') {
+    allowOnly(node, 'source', ['kind', 'amplitude', 'initialLevel']);
+    const unit = topology === 'series' ? 'V' : 'A';
+    const amplitude = measure(node.amplitude, 'source.amplitude', unit);
+    if (amplitude === 0) throw new DesignError('source.amplitude', 'must not be zero (a step of nothing)');
+    const initialLevel = node.initialLevel === undefined ? 0 : measure(node.initialLevel, 'source.initialLevel', unit);
+    return { kind, amplitude, initialLevel };
+  }
+  allowOnly(node, 'source', ['kind', 'capacitorVoltage', 'inductorCurrent']);
+  const capacitorVoltage = node.capacitorVoltage === undefined ? 0 : measure(node.capacitorVoltage, 'source.capacitorVoltage', 'V');
+  const inductorCurrent = node.inductorCurrent === undefined ? 0 : measure(node.inductorCurrent, 'source.inductorCurrent', 'A');
+  if (capacitorVoltage === 0 && inductorCurrent === 0) {
+    throw new DesignError('source', 'a natural response needs a capacitorVoltage or an inductorCurrent other than zero');
+  }
+  return { kind, capacitorVoltage, inductorCurrent };
+}
+
+function object(value: unknown, path: string): Json {
+  if (typeof value !== 'object' || value === null || Array.isArray(value)) {
+    throw new DesignError(path, path === '' ? 'must be a JSON object' : 'must be an object');
+  }
+  return value as Json;
+}
+
+function allowOnly(node: Json, path: string, keys: readonly string[]): void {
+  for (const key of Object.keys(node)) {
+    if (!keys.includes(key)) {
+      const at = path === '' ? key : `${path}.${key}`;
+      throw new DesignError(at, `unknown field (expected one of ${keys.join(', ')})`);
+    }
+  }
+}
+
+function text(value: unknown, path: string, allowEmpty = false): string {
+  if (typeof value !== 'string' || (!allowEmpty && value.trim() === '')) throw new DesignError(path, 'must be a non-empty string');
+  return value;
+}
+
+function oneOf<T extends string>(value: unknown, path: string, options: readonly T[]): T {
+  if (typeof value !== 'string' || !options.includes(value as T)) {
+    throw new DesignError(path, `must be one of ${options.map((o) => `"${o}"`).join(', ')}`);
+  }
+  return value as T;
+}
+
+/** A number, or a string with an optional SI prefix and unit, in SI base units. */
+function measure(value: unknown, path: string, unit: string): number {
+  if (typeof value === 'number') {
+    if (!Number.isFinite(value)) throw new DesignError(path, 'must be a finite number');
+    return value;
+  }
+  if (typeof value === 'string') {
+    try {
+      return parseQuantityText(value, unit);
+    } catch (e) {
+      throw new DesignError(path, `could not read '${value}' as a value in ${unit} (${(e as Error).message})`);
+    }
+  }
+  throw new DesignError(path, value === undefined ? 'is missing' : `must be a number or a text such as '4.7u' (${unit})`);
+}

@@ -1,0 +1,37 @@
+// Plain warnings about how a ringdown was captured: bandwidth and samples per ring period.
+// Both limits are common practice (no single source; see shared/reference/trade-facts.md).
+import { formatEngineering } from '../units/format';
+
+export interface RingCaptureSetup {
+  /** Scope or probe bandwidth (the lower of the two), Hz. */
+  bandwidth?: number;
+  /** Sample interval of the capture, s. */
+  sampleInterval?: number;
+}
+
+/** Ring frequency above this fraction of the bandwidth draws a warning (common practice). */
+export const BANDWIDTH_FRACTION = 1 / 3;
+/** Fewer samples than this per ring period draws a warning (common practice). */
+export const MIN_SAMPLES_PER_PERIOD = 10;
+
+/** Warnings for a ring at `frequency` (Hz) captured with `setup`; empty when nothing is amiss. */
+export function checkRingCapture(frequency: number, setup: RingCaptureSetup, label = 'ring'): string[] {
+  const warnings: string[] = [];
+  const { bandwidth, sampleInterval } = setup;
+  if (bandwidth !== undefined && frequency > bandwidth * BANDWIDTH_FRACTION) {
+    warnings.push(
+      `${label} frequency ${formatEngineering(frequency, 'Hz')} is above a third of the ${formatEngineering(bandwidth, 'Hz')} ` +
+        'scope/probe bandwidth: the measurement attenuates and shifts it (common practice: keep the ring below bandwidth / 3).',
+    );
+  }
+  if (sampleInterval !== undefined) {
+    const perPeriod = 1 / (frequency * sampleInterval);
+    if (perPeriod < MIN_SAMPLES_PER_PERIOD) {
+      warnings.push(
+        `${label} period holds only ${perPeriod.toFixed(1)} samples (interval ${formatEngineering(sampleInterval, 's')}); ` +
+          `at least ${MIN_SAMPLES_PER_PERIOD} per period is the usual working margin for a fit (common practice).`,
+      );
+    }
+  }
+  return warnings;
+}

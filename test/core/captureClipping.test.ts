@@ -1,0 +1,116 @@
+// Clipping: flat runs at an ADC rail are marked; peaks that merely repeat a code and settled levels are not.
+
+import { describe, expect, it } from 'vitest';
+import { detectClipping } from '../../core/capture/detectClipping';
+import { parseCapture } from '../../core/capture/parseCapture';
+import { createRandom } from '../../core/random';
+
+/** An 8-bit style grid: 256 codes over ±10 V would be 0.078 V; any fixed step will do. */
+const LSB = 0.08;
+const quantise = (v: number): number => Math.round(v / LSB) * LSB;
+
+/** Ring decaying over `decay` periods, sampled `perPeriod` times per period; `phase` (samples) moves the peaks. */
+function ringdown(n: number, perPeriod: number, amplitude: number, phase = 0, decay = 6): Float64Array {
+  return Float64Array.from(
+    { length: n },
+    (_, i) => amplitude * Math.exp(-i / (decay * perPeriod)) * Math.cos((2 * Math.PI * (i - phase)) / perPeriod),
+  );
+}
+
+function longestRunAtMax(values: Float64Array): number {
+  const max = Math.max(...values);
+  let best = 0;
+  let run = 0;
+  for (const v of values) {
+    run = v === max ? run + 1 : 0;
+    best = Math.max(best, run);
+  }
+  return best;
+}
+
+function count(mask: Uint8Array): number {
+  return mask.reduce((sum, m) => sum + m, 0);
+}
+
+describe('detectClipping', () => {
+  it('does not flag a clean ringdown whose peak repeats once on an 8-bit grid', () => {
+    // Samples at ±0.5 sample around the first peak: the top code appears exactly twice in a row.
+    const values = ringdown(400, 20, 8, 0.5, 50).map(quantise);
+    expect(longestRunAtMax(values)).toBe(2);
+    const clipping = detectClipping(values);
+    expect(count(clipping.clipped)).toBe(0);
+  });
+
+  it('does not flag a finely sampled peak that sits on its top code for several samples', () => {
+    const values = ringdown(4000, 200, 8, 37).map(quantise);
+    expect(longestRunAtMax(values)).toBeGreaterThanOrEqual(3);
+    expect(count(detectClipping(values).clipped)).toBe(0);
+  });
+
+  it.each([
+    ['finely sampled, 1.5x over the rail', 200, 12],
+    ['coarsely sampled, 3x over the rail', 20, 24],
+  ])('marks exactly the samples held at the rails: %s', (_, perPeriod, amplitude) => {
+    const rail = 8;
+    const raw = ringdown(40 * perPeriod, perPeriod, amplitude, 3).map(quantise);
+    const values = raw.map((v) => Math.min(rail, Math.max(-rail, v)));
+    const clipping = detectClipping(values);
+    const expected = raw.map((v) => (v >= rail || v <= -rail ? 1 : 0));
+    expect(Array.from(clipping.clipped)).toEqual(Array.from(expected));
+    expect(clipping.high).toBeGreaterThan(0);
+    expect(clipping.low).toBeGreaterThan(0);
+    expect(clipping.highLevel).toBe(rail);
+    expect(clipping.lowLevel).toBe(-rail);
+  });
+
+  it('marks a rail in noisy unquantised data', () => {
+    const random = createRandom(11);
+    const rail = 2.5;
+    const raw = ringdown(2000, 50, 4, 0).map((v) => v + 0.01 * random.normal());
+    const values = raw.map((v) => Math.min(rail, v));
+    const clipping = detectClipping(values);
+    const atRail = Uint8Array.from(raw, (v) => (v >= rail ? 1 : 0));
+    expect(Array.from(clipping.clipped)).toEqual(Array.from(atRail));
+    expect(clipping.low).toBe(0);
+  });
+
+  it('does not flag a step response settling onto its top code, nor a flat pre-trigger baseline', () => {
+    // Overdamped step on the grid: baseline at the minimum code, a steep rise, a long settled top.
+    const values = Float64Array.from({ length: 1200 }, (_, i) => (i < 100 ? 0 : quantise(5 * (1 - Math.exp(-(i - 100) / 60)))));
+    expect(longestRunAtMax(values)).toBeGreaterThan(100);
+    expect(count(detectClipping(values).clipped)).toBe(0);
+  });
+
+  it('marks runs at a confirmed rail that touch the ends of the record', () => {
+    const rail = 8;
+    const raw = ringdown(4000, 200, 12, -20).map(quantise); // the record starts inside a clipped peak
+    const values = raw.map((v) => Math.min(rail, Math.max(-rail, v)));
+    expect(values[0]).toBe(rail);
+    const clipping = detectClipping(values);
+    expect(clipping.clipped[0]).toBe(1);
+    expect(Array.from(clipping.clipped)).toEqual(Array.from(raw.map((v) => (v >= rail || v <= -rail ? 1 : 0))));
+  });
+
+  it('marks nothing in a constant channel', () => {
+    expect(count(detectClipping(new Float64Array(50).fill(1.2)).clipped)).toBe(0);
+  });
+});
+
+describe('clipping through the importer', () => {
+  it('marks the channel, counts the samples in a warning, and leaves the values alone', () => {
+    const rail = 8;
+    const raw = ringdown(2000, 100, 12, 3).map(quantise);
+    const clippedValues = raw.map((v) => Math.min(rail, Math.max(-rail, v)));
+    const rows = Array.from(clippedValues, (v, i) => `${(i * 1e-9).toExponential(4)},${v.toFixed(2)},${(v / 4).toFixed(3)}`);
+    const capture = parseCapture(`Time (s),Vds (V),Vprobe (V)\n${rows.join('\n')}\n`);
+    const [vds, probe] = capture.channels;
+    const high = raw.filter((v) => v >= rail).length;
+    const low = raw.filter((v) => v <= -rail).length;
+    expect(count(vds.clipped)).toBe(high + low);
+    expect(count(probe.clipped)).toBe(high + low);
+    expect(Math.max(...vds.values)).toBe(rail);
+    expect(capture.warnings).toContain(
+      `channel 'Vds': ${high} at the top (8 V) and ${low} at the bottom (-8 V) samples sit in flat runs at the extreme and look clipped by the ADC; they are marked and left out of fits`,
+    );
+  });
+});

@@ -1,0 +1,122 @@
+// Bad capture files: one CaptureError naming the 1-based line and what was wrong; footers and sorting as states.
+
+import { describe, expect, it } from 'vitest';
+import { parseCapture } from '../../core/capture/parseCapture';
+import { CaptureError } from '../../core/capture/types';
+import type { CaptureOptions } from '../../core/capture/types';
+
+const N = 30;
+const value = (i: number): number => Number((1.5 * Math.exp(-i / 25) * Math.sin(i / 2)).toFixed(5));
+const row = (i: number): string => `${(i * 1e-8).toExponential(3)},${value(i)},${-value(i)}`;
+const header = 'Time (s),Vsw (V),Vgate (V)';
+
+/** Header on line 1, row i on line i + 2. */
+function table(rows: string[]): string {
+  return `${header}\n${rows.join('\n')}\n`;
+}
+const good = Array.from({ length: N }, (_, i) => row(i));
+
+function captureError(text: string, options: CaptureOptions = {}): CaptureError {
+  try {
+    parseCapture(text, options);
+  } catch (error) {
+    expect(error).toBeInstanceOf(CaptureError);
+    expect((error as Error).name).toBe('CaptureError');
+    return error as CaptureError;
+  }
+  throw new Error('expected a CaptureError');
+}
+
+function replaced(index: number, text: string): string[] {
+  return good.map((r, i) => (i === index ? text : r));
+}
+
+describe('junk inside the table', () => {
+  it.each([
+    ['a word in a value column', 12, `${(12e-8).toExponential(3)},abc,0.1`, "line 14: expected 3 numeric columns, found 'abc' (column 2)"],
+    ['a word in the time column', 20, 'later,0.1,0.2', "line 22: expected 3 numeric columns, found 'later' (column 1)"],
+    ['a whole junk row', 15, 'x,y,z', "line 17: expected 3 numeric columns, found 'x' (column 1)"],
+    ['a number with a unit', 25, `${(25e-8).toExponential(3)},1.2k,0`, "line 27: expected 3 numeric columns, found '1.2k' (column 2)"],
+    ['too many cells', 8, `${(8e-8).toExponential(3)},0.1,0.2,0.3`, "line 10: expected 3 columns, found more ('0.3' in column 4)"],
+    ['junk in the second data row', 1, 'oops,0.1,0.2', "line 3: expected 3 numeric columns, found 'oops,0.1,0.2'"],
+  ])('%s', (_, index, text, message) => {
+    const error = captureError(table(replaced(index, text)));
+    expect(error.message).toBe(message);
+    expect(error.line).toBe(Number(/^line (\d+)/.exec(message)![1]));
+  });
+
+  it('accepts a trailing footer after the data, with a warning', () => {
+    const capture = parseCapture(`${table(good)}\nEnd of record\nTotal points,${N}\n\n`);
+    expect(capture.layout.rows).toBe(N);
+    expect(capture.warnings.at(-1)).toBe("2 line(s) after the last data row were ignored (from line 33: 'End of record')");
+  });
+
+  it('skips blank and comment lines between data rows, keeping line numbers right', () => {
+    const rows = [...good.slice(0, 10), '', '# probe moved', ...good.slice(10, 20), `${(20e-8).toExponential(3)},0.1,bad`, ...good.slice(21)];
+    const error = captureError(table(rows));
+    expect(error.line).toBe(2 + 22);
+  });
+});
+
+describe('time order', () => {
+  const backwards = replaced(17, `${(3e-8).toExponential(3)},0.5,0.5`);
+  const repeated = replaced(9, row(8));
+
+  it('fails naming the line where time goes backwards', () => {
+    const error = captureError(table(backwards));
+    expect(error.line).toBe(19);
+    expect(error.message).toMatch(/^line 19: time 30 ns is earlier than 160 ns on the row before/);
+  });
+
+  it('fails naming the line of a repeated time stamp', () => {
+    const error = captureError(table(repeated));
+    expect(error.line).toBe(11);
+    expect(error.message).toContain('repeats the time stamp of the row before');
+  });
+
+  it('sorts with sortTime, keeping the first of a repeated stamp, with warnings', () => {
+    const shuffled = [...good.slice(15), ...good.slice(0, 15), good[4].replace(/,[^,]+,[^,]+$/, ',9,9')];
+    const capture = parseCapture(table(shuffled), { sortTime: true });
+    const [channel] = capture.channels;
+    expect(channel.values.length).toBe(N);
+    for (let i = 0; i < N; i++) {
+      expect(channel.time[i]).toBe(Number((i * 1e-8).toExponential(3)));
+      expect(channel.values[i]).toBe(value(i));
+    }
+    expect(capture.sampleInterval).toBeCloseTo(1e-8, 20);
+    const warnings = capture.warnings.join('\n');
+    expect(warnings).toContain("time in column 'Time (s)' does not increase from line 17 on; rows were sorted by time");
+    expect(warnings).toContain('1 row(s) repeating an earlier time stamp were left out (first on line 32)');
+  });
+});
+
+describe('too little data', () => {
+  it('needs at least 20 rows', () => {
+    const error = captureError(table(good.slice(0, 19)));
+    expect(error.message).toContain('only 19 data row(s) from line 2; at least 20 samples are needed');
+  });
+
+  it('leaves out a channel with fewer than 20 usable samples, with a warning', () => {
+    const rows = good.map((r, i) => (i < 12 ? r : r.replace(/,[^,]+$/, ',NaN')));
+    const capture = parseCapture(table(rows));
+    expect(capture.channels.map((c) => c.name)).toEqual(['Vsw']);
+    expect(capture.warnings).toContain("channel 'Vgate' has only 12 usable sample(s) and was left out");
+  });
+
+  it('fails when no channel has 20 usable samples', () => {
+    const rows = good.map((r, i) => (i < 12 ? r : r.replace(/,[^,]+,[^,]+$/, ',NaN,')));
+    expect(captureError(table(rows)).message).toContain('no channel has at least 20 usable samples');
+  });
+
+  it('fails for text with no rows of numbers', () => {
+    expect(captureError('# nothing here\nTime,CH1\n').message).toBe('no rows of numbers found in 2 line(s)');
+    expect(captureError('').message).toBe('no rows of numbers found in 0 line(s)');
+  });
+});
+
+describe('options', () => {
+  it.each([0, -1e-9, Number.NaN, Number.POSITIVE_INFINITY])('rejects sampleInterval %d naming the option', (interval) => {
+    const values = Array.from({ length: N }, (_, i) => `${value(i)}`).join('\n');
+    expect(captureError(`CH1\n${values}`, { sampleInterval: interval }).message).toMatch(/^option sampleInterval must be a positive number/);
+  });
+});
