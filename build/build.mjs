@@ -51,6 +51,7 @@ await Promise.all([
 async function copyStatic() {
   mkdirSync('dist/renderer', { recursive: true });
   copyFileSync('renderer/styles.css', 'dist/renderer/styles.css');
+  copyFileSync('renderer/icon.svg', 'dist/renderer/icon.svg');
   const source = readFileSync(PLOTLY, 'utf8');
   const { css, placeholders } = plotlyStyles(source);
   writeFileSync('dist/renderer/plotly-base.css', css);

@@ -83,14 +83,22 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   const warnings: string[] = [...set.warnings];
   const candidates = rateCandidates(set.values, event.index, set.values.length, set.dt);
 
-  // Several starts in each layout; a richer layout also starts from the simpler one's solution.
+  // Several starts in each layout, tried in rank order until one leaves no more than the noise;
+  // a richer layout also starts from the simpler one's solution.
   const attempts: Attempt[] = [];
+  const goodEnough = (a: Attempt) => Math.sqrt(a.sse / set.time.length) <= 1.25 * Math.max(noise, 1e-12 * set.range);
   for (const [i, layout] of layouts.entries()) {
-    const starts = rankCandidates(set, layout, candidates, t0Start).slice(0, i === 0 ? MAX_STARTS : 1);
-    const tried = starts.map((start) => refine(set, layout, start, t0Start));
     const simpler = attempts[0];
-    if (simpler) tried.push(refine(set, layout, { alpha: simpler.values[0], omega0: simpler.values[1], source: 'nested layout' }, simpler.values[2] ?? t0Start));
-    const best = tried.sort((x, y) => x.sse - y.sse)[0];
+    const starts: [RateCandidate, number][] = simpler
+      ? [[{ alpha: simpler.values[0], omega0: simpler.values[1], source: 'nested layout' }, simpler.values[2] ?? t0Start]]
+      : [];
+    for (const c of rankCandidates(set, layout, candidates, t0Start).slice(0, i === 0 ? MAX_STARTS : 1)) starts.push([c, t0Start]);
+    let best: Attempt | undefined;
+    for (const [start, t0] of starts) {
+      const attempt = refine(set, layout, start, t0);
+      if (!best || attempt.sse < best.sse) best = attempt;
+      if (goodEnough(best)) break;
+    }
     if (best) attempts.push(best);
   }
   if (attempts.length === 0) return failedFit(set, noise, warnings, 'no damped response was found in the data (no usable starting values)');

@@ -2,6 +2,7 @@
 
 import type { ResponseFit } from '../fit/fitResponse';
 import type { Quantity } from '../quantity';
+import type { ResponseParams } from '../response/secondOrder';
 
 export interface ComponentSet {
   R: Quantity;
@@ -30,6 +31,8 @@ export interface FitSummary {
   window: { start: number; end: number };
   decimation: ResponseFit['decimation'];
   correlation: ResponseFit['correlation'];
+  /** The fitted model itself, for drawing it again. */
+  params: ResponseParams;
   warnings: string[];
 }
 
@@ -59,6 +62,7 @@ export function summarizeFit(
     window: fit.window,
     decimation: fit.decimation,
     correlation: fit.correlation,
+    params: fit.params,
     warnings: [...extraWarnings, ...fit.warnings],
   };
   if (fit.omegaD) summary.omegaD = fit.omegaD;

@@ -31,10 +31,13 @@ export async function runCli(argv: string[], io: CliIo): Promise<number> {
     .description('Fit second-order ringdowns and step responses from oscilloscope captures.')
     .version(VERSION, '-V, --version')
     .showHelpAfterError(false)
+    .showSuggestionAfterError(false)
     .exitOverride()
     .configureOutput({ writeOut: io.out, writeErr: io.err });
   for (const register of COMMANDS) register(program, ctx);
-  for (const command of program.commands) command.exitOverride().configureOutput({ writeOut: io.out, writeErr: io.err });
+  for (const command of program.commands) {
+    command.exitOverride().showSuggestionAfterError(false).configureOutput({ writeOut: io.out, writeErr: io.err });
+  }
   try {
     await program.parseAsync(argv, { from: 'user' });
     return exitCode;

@@ -26,7 +26,7 @@ export function registerLogCommand(program: Command, ctx: CommandContext): void 
 
   log
     .command('add')
-    .description('fit a capture (and check it against a design) and append the result to the bench log; exit 3 when out of tolerance')
+    .description('fit a capture (and check it against a design) and append the result to the bench log; exit 3 when out of tolerance, 1 (nothing logged) when the fit fails')
     .argument('<file>', 'capture file (CSV or text export of a scope)')
     .requiredOption('--log <path>', 'bench log file (created when missing; its folder must exist)')
     .requiredOption('--unit <id>', 'unit under test, e.g. a serial number (1 to 100 characters)')

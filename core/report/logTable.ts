@@ -1,0 +1,26 @@
+// The bench log as the table `ringbench log list` prints: one line per measurement.
+
+import { formatEngineering } from '../units/format';
+import type { BenchRecord } from './benchRecord';
+import { recordStatus } from './yieldSummary';
+
+const COLUMNS = ['time', 'unit', 'regime', 'f0', 'zeta', 'verdict'] as const;
+
+export function formatLogTable(records: readonly BenchRecord[]): string {
+  const rows = records.map((r) => [
+    r.time.slice(0, 19).replace('T', ' '),
+    printable(r.unit),
+    r.fit.regime,
+    formatEngineering(r.fit.omega0.value / (2 * Math.PI), 'Hz'),
+    formatEngineering(r.fit.zeta.value, ''),
+    recordStatus(r),
+  ]);
+  const widths = COLUMNS.map((name, c) => Math.max(name.length, ...rows.map((row) => row[c].length)));
+  const line = (cells: readonly string[]) => cells.map((cell, c) => cell.padEnd(widths[c])).join('  ').trimEnd();
+  return [line(COLUMNS), ...rows.map(line)].map((l) => `${l}\n`).join('');
+}
+
+/** Control characters shown as '?' so that a unit id cannot move the terminal's cursor. */
+function printable(text: string): string {
+  return text.replace(/[\u0000-\u001f\u007f-\u009f]/g, '?');
+}

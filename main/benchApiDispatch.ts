@@ -1,0 +1,32 @@
+// Runs one bench API call by name: checks the method and every argument, then answers an ApiResult.
+
+import type { ApiMethod, ApiResult } from './electron/channels';
+import { argumentProblem, isApiMethod } from './electron/guards';
+
+export type ApiHandlers = Partial<Record<ApiMethod, (...args: never[]) => Promise<unknown>>>;
+
+/** Error names whose message is already plain words for the user. */
+const PLAIN_ERRORS = new Set(['BenchApiError', 'LogError', 'DesignError', 'FileError', 'CaptureError', 'UnitError']);
+
+/** A dispatcher over `handlers`; a method without a handler is unknown here (e.g. dialogs over HTTP). */
+export function createApiDispatch(handlers: ApiHandlers): (method: string, args: unknown[]) => Promise<ApiResult<unknown>> {
+  return async (method, args) => {
+    if (!isApiMethod(method) || handlers[method] === undefined) return { ok: false, error: `no bench call '${method.slice(0, 60)}'`, code: 'unknown-method' };
+    const problem = argumentProblem(method, args);
+    if (problem !== null) return { ok: false, error: problem, code: 'bad-argument' };
+    try {
+      const handler = handlers[method] as (...a: unknown[]) => Promise<unknown>;
+      return { ok: true, value: await handler(...args) };
+    } catch (error) {
+      return { ok: false, error: messageOf(error), code: 'failed' };
+    }
+  };
+}
+
+function messageOf(error: unknown): string {
+  if (error instanceof Error) {
+    const first = error.message.split('\n')[0];
+    return PLAIN_ERRORS.has(error.name) ? first : `the bench could not do this: ${first}`;
+  }
+  return `the bench could not do this: ${String(error)}`;
+}

@@ -1,0 +1,50 @@
+// The bench log behind the bench API: a window's measurement made into a record, appended, read back.
+
+import { existsSync } from 'node:fs';
+import { randomBytes } from 'node:crypto';
+import { appendBenchLog, describeTornTail, readBenchLog } from './benchLog';
+import { parseBenchRecord, RECORD_KIND, RECORD_SCHEMA, type BenchRecord } from '../core/report/benchRecord';
+import { parseDesign } from '../core/circuit/design';
+import type { BenchLogRequest, BenchLogView } from './electron/channels';
+import { VERSION } from './version';
+
+/** The record for a request: the window's results plus the id, the time and the software. */
+export function recordFromRequest(request: BenchLogRequest, now: Date, id = randomBytes(6).toString('hex')): BenchRecord {
+  const record: BenchRecord = {
+    record: RECORD_KIND,
+    schema: RECORD_SCHEMA,
+    id,
+    time: now.toISOString(),
+    unit: request.unit.trim(),
+    operator: blankToNull(request.operator),
+    note: blankToNull(request.note),
+    capture: request.capture,
+    settings: request.settings,
+    fit: request.fit,
+    verdict: request.verdict,
+    // Re-reading the spec checks every field as a design file would be checked.
+    design: request.design ? { ...request.design, spec: parseDesign(JSON.stringify(request.design.spec)) } : null,
+    cautions: request.cautions,
+    software: { name: 'ringbench', version: VERSION },
+  };
+  // The same check the log applies to every line it reads back.
+  return parseBenchRecord(JSON.stringify(record), 1);
+}
+
+export function appendLogRequest(logPath: string, request: BenchLogRequest, now: Date): BenchLogView {
+  appendBenchLog(logPath, recordFromRequest(request, now));
+  return readLogView(logPath);
+}
+
+/** The log's records and plain notes about lines it could not use; empty when there is no log yet. */
+export function readLogView(logPath: string): BenchLogView {
+  if (!existsSync(logPath)) return { path: logPath, records: [], notes: [] };
+  const contents = readBenchLog(logPath);
+  const notes = contents.bad.map((bad) => `line ${bad.line} is left out: ${bad.message}`);
+  if (contents.torn) notes.push(describeTornTail(logPath, contents.torn));
+  return { path: logPath, records: contents.records, notes };
+}
+
+function blankToNull(text: string | null): string | null {
+  return text === null || text.trim() === '' ? null : text.trim();
+}

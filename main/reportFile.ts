@@ -1,0 +1,140 @@
+// Writes a report file from a bench log: reloads each capture for its plot, renders, writes atomically.
+
+import { closeSync, fsyncSync, openSync, renameSync, statSync, unlinkSync, writeSync } from 'node:fs';
+import { createHash, randomBytes } from 'node:crypto';
+import { basename, dirname, extname, join } from 'node:path';
+import type { BenchRecord } from '../core/report/benchRecord';
+import type { ReportTrace } from '../core/report/overlay';
+import { renderReportHtml } from '../core/report/reportHtml';
+import { renderReportMarkdown } from '../core/report/reportMarkdown';
+import { renderReportCsv } from '../core/report/reportCsv';
+import { showTime } from '../core/report/resultRows';
+import { describeTornTail, readCleanBenchLog } from './benchLog';
+import { readFileBytes } from './captureFile';
+import { parseCapture } from '../core/capture/parseCapture';
+import { selectChannel } from '../core/capture/selectChannel';
+import { parseChannel, parseTime } from './cli/options';
+import { FileError } from './cli/errors';
+import { VERSION } from './version';
+
+export type ReportFormat = 'html' | 'md' | 'csv';
+
+const FORMATS: Record<string, ReportFormat> = { '.html': 'html', '.htm': 'html', '.md': 'md', '.csv': 'csv' };
+
+/** The format an output path asks for by its extension, or null. */
+export function reportFormatFor(path: string): ReportFormat | null {
+  return FORMATS[extname(path).toLowerCase()] ?? null;
+}
+
+export interface ReportTraces {
+  traces: Record<string, ReportTrace>;
+  /** Why a record has no plot: capture missing, changed since logged, or unreadable. */
+  recordNotes: Record<string, string[]>;
+}
+
+/** Each record's capture read again with its logged settings; only files with the logged sha256 are used. */
+export function loadReportTraces(records: readonly BenchRecord[]): ReportTraces {
+  const result: ReportTraces = { traces: {}, recordNotes: {} };
+  for (const record of records) {
+    const note = (text: string) => (result.recordNotes[record.id] ??= []).push(text);
+    const { path, sha256 } = record.capture;
+    try {
+      const bytes = readFileBytes(path);
+      const now = createHash('sha256').update(bytes).digest('hex');
+      if (now !== sha256) {
+        note(`The capture ${path} has changed since it was logged (sha256 ${now.slice(0, 12)}… instead of ${sha256.slice(0, 12)}…): the numbers are those logged, no plot is drawn.`);
+        continue;
+      }
+      const s = record.settings;
+      const capture = parseCapture(bytes.toString('utf8'), {
+        sampleInterval: s.sampleInterval === null ? undefined : parseTime(s.sampleInterval, 'sampleInterval'),
+        sortTime: s.sortTime,
+      });
+      const channel = selectChannel(capture, s.column === null ? undefined : parseChannel(s.column));
+      result.traces[record.id] = { time: channel.time, values: channel.values, unit: channel.unit, name: channel.name };
+    } catch (error) {
+      const missing = error instanceof FileError && /no such file/.test(error.message);
+      note(
+        missing
+          ? `The capture ${path} is missing: the numbers are those logged, no plot is drawn.`
+          : `The capture ${path} could not be read again (${(error as Error).message}): the numbers are those logged, no plot is drawn.`,
+      );
+    }
+  }
+  return result;
+}
+
+export interface WriteReportOptions {
+  /** Clock for the report's date. Default: the system clock. */
+  clock?: () => Date;
+}
+
+export interface WrittenReport {
+  format: ReportFormat;
+  records: number;
+  /** Notes for the terminal: torn tail, captures without plots. */
+  notes: string[];
+}
+
+/** Render the log at `logPath` into `outPath` (format by extension), replacing it atomically. */
+export function writeReport(logPath: string, outPath: string, options: WriteReportOptions = {}): WrittenReport {
+  const format = reportFormatFor(outPath);
+  if (format === null) throw new FileError(`report '${outPath}': the name must end in .html, .md or .csv`);
+  requireFolder(outPath);
+  const contents = readCleanBenchLog(logPath);
+  const logNotes = contents.torn ? [describeTornTail(logPath, contents.torn)] : [];
+  const generatedAt = (options.clock ?? (() => new Date()))().toISOString();
+  const { records } = contents;
+  let text: string;
+  const notes = [...logNotes];
+  if (format === 'csv') {
+    text = renderReportCsv(records);
+  } else {
+    const { traces, recordNotes } = loadReportTraces(records);
+    for (const list of Object.values(recordNotes)) notes.push(...list);
+    text =
+      format === 'html'
+        ? renderReportHtml(records, { logPath, generatedAt, software: { name: 'ringbench', version: VERSION }, traces, recordNotes, logNotes })
+        : renderReportMarkdown(records, {
+            meta: [`Log ${logPath}`, `Made ${showTime(generatedAt)} by ringbench ${VERSION}`, ...logNotes],
+            recordNotes,
+          });
+  }
+  writeFileAtomic(outPath, text);
+  return { format, records: records.length, notes };
+}
+
+/** Write `text` to a temporary file beside `path`, fsync, then rename over it: never a half-written file. */
+export function writeFileAtomic(path: string, text: string): void {
+  const temporary = join(dirname(path), `.${basename(path)}.${process.pid}-${randomBytes(4).toString('hex')}.tmp`);
+  let fd: number | null = null;
+  try {
+    fd = openSync(temporary, 'wx', 0o644);
+    const data = Buffer.from(text, 'utf8');
+    let offset = 0;
+    while (offset < data.length) offset += writeSync(fd, data, offset, data.length - offset);
+    fsyncSync(fd);
+    closeSync(fd);
+    fd = null;
+    renameSync(temporary, path);
+  } catch (error) {
+    if (fd !== null) closeSync(fd);
+    try {
+      unlinkSync(temporary);
+    } catch {
+      // already gone
+    }
+    throw new FileError(`cannot write report '${path}': ${(error as NodeJS.ErrnoException).code ?? (error as Error).message}`);
+  }
+}
+
+function requireFolder(path: string): void {
+  const folder = dirname(path);
+  let ok = false;
+  try {
+    ok = statSync(folder).isDirectory();
+  } catch {
+    ok = false;
+  }
+  if (!ok) throw new FileError(`report folder '${folder}' does not exist`);
+}

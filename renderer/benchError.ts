@@ -1,0 +1,13 @@
+// A failure the bench reported in words (from main, the server or a check in the window).
+
+export class BenchError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = 'BenchError';
+  }
+}
+
+export function unwrap<T>(result: { ok: true; value: T } | { ok: false; error: string }): T {
+  if (!result.ok) throw new BenchError(result.error);
+  return result.value;
+}

@@ -1,0 +1,119 @@
+// What the window shows at any moment: one plain object, re-rendered by every panel after each change.
+
+import type { ResponseFit } from '../core/fit/fitResponse';
+import type { FitSummary } from '../core/report/fitSummary';
+import type { Quantity } from '../core/quantity';
+import type { Design } from '../core/circuit/design';
+import type { Verdict } from '../core/circuit/verdict';
+import type { CautionResult } from '../core/safety/evaluateCautions';
+import type { Topology } from '../core/circuit/components';
+import type { ParasiticExtraction } from '../core/circuit/addedCapacitor';
+import type { SnubberSuggestion } from '../core/circuit/snubber';
+import type { BenchLogView, DesignEntry, OpenedCapture, SampleEntry } from './bridgeTypes';
+import type { CaptureInfo, FitWindow, TraceData } from './workerProtocol';
+
+export interface OpenCaptureState {
+  /** Worker cache key. */
+  key: string;
+  opened: OpenedCapture;
+  info: CaptureInfo;
+  channel: number;
+  sample: SampleEntry | null;
+  sha256: string;
+  bytes: number;
+}
+
+export interface ComponentsInput {
+  topology: Topology;
+  knownName: 'R' | 'L' | 'C';
+  knownText: string;
+  toleranceText: string;
+}
+
+export interface ComponentsState {
+  R: Quantity;
+  L: Quantity;
+  C: Quantity;
+  /** As the command line writes it: 'C=4.7e-8 (±5 %)'. */
+  known: string;
+  topology: Topology;
+}
+
+export interface LoadedDesign {
+  design: Design;
+  /** Where it came from: a sample design id, a file name, or 'edited'. */
+  name: string;
+  path: string;
+  text: string;
+  sha256: string;
+}
+
+export interface ExtractionState {
+  extraction: ParasiticExtraction;
+  snubber: SnubberSuggestion | null;
+  snubberError: string | null;
+  frequencies: { name: string; f0: Quantity; addedC: number }[];
+}
+
+export interface BenchState {
+  face: 'window' | 'browser';
+  samples: SampleEntry[];
+  designs: DesignEntry[];
+  capture: OpenCaptureState | null;
+  trace: TraceData | null;
+  fit: ResponseFit | null;
+  summary: FitSummary | null;
+  /** Why there is no fit for the capture shown, in plain words. */
+  fitError: string | null;
+  /** Event time found by the automatic fit: where the design's prediction is placed (a typed window moves t0). */
+  eventTime: number | null;
+  /** The window the user set by dragging or typing; empty for the automatic one. */
+  userWindow: FitWindow;
+  componentsInput: ComponentsInput;
+  components: ComponentsState | null;
+  componentsError: string | null;
+  design: LoadedDesign | null;
+  designError: string | null;
+  verdict: Verdict | null;
+  verdictError: string | null;
+  cautions: CautionResult | null;
+  extraction: ExtractionState | null;
+  extractionError: string | null;
+  log: BenchLogView | null;
+  logError: string | null;
+  logMessage: string | null;
+  /** What is running, for the progress line; null when idle. */
+  busy: string | null;
+  /** A failure to show in plain words (dismissable). */
+  error: string | null;
+}
+
+export function initialState(face: 'window' | 'browser'): BenchState {
+  return {
+    face,
+    samples: [],
+    designs: [],
+    capture: null,
+    trace: null,
+    fit: null,
+    summary: null,
+    fitError: null,
+    eventTime: null,
+    userWindow: {},
+    componentsInput: { topology: 'series', knownName: 'C', knownText: '', toleranceText: '' },
+    components: null,
+    componentsError: null,
+    design: null,
+    designError: null,
+    verdict: null,
+    verdictError: null,
+    cautions: null,
+    extraction: null,
+    extractionError: null,
+    log: null,
+    logError: null,
+    logMessage: null,
+    busy: null,
+    error: null,
+  };
+}

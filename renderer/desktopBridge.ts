@@ -1,0 +1,23 @@
+// The bridge of the Electron window: the preload's window.ringbench, its results unwrapped.
+
+import { unwrap } from './benchError';
+import type { Bridge, PreloadApi } from './bridgeTypes';
+
+export function createDesktopBridge(api: PreloadApi): Bridge {
+  return {
+    face: 'window',
+    listSamples: async () => unwrap(await api.listSamples()),
+    readSample: async (id) => unwrap(await api.readSample(id)),
+    listDesigns: async () => unwrap(await api.listDesigns()),
+    readDesign: async (id) => unwrap(await api.readDesign(id)),
+    readBenchLog: async () => unwrap(await api.readBenchLog()),
+    appendBenchLog: async (request) => unwrap(await api.appendBenchLog(request)),
+    renderReport: async (format) => unwrap(await api.renderReport(format)),
+    pickCapture: async () => unwrap(await api.openCaptureDialog()),
+    openDropped: async (file) => unwrap(await api.openDroppedFile(file)),
+    pickDesign: async () => unwrap(await api.openDesignDialog()),
+    saveFile: async (request) => unwrap(await api.saveFileDialog(request)),
+    onMenuCommand: (listener) => api.onMenuCommand(listener),
+    onCaptureOpened: (listener) => api.onCaptureOpened(listener),
+  };
+}

@@ -1,0 +1,76 @@
+// The window's side of the fit worker: one request at a time per kind, progress reported, errors as words.
+
+import { BenchError } from './benchError';
+import type { WorkerMessage, WorkerReplyValue, WorkerRequest } from './workerProtocol';
+
+type Pending = { resolve(value: WorkerReplyValue): void; reject(error: Error): void; onProgress?: (stage: string) => void };
+
+/** Distributes a request type over Omit of the id, so each variant keeps its own fields. */
+type WithoutId<T> = T extends unknown ? Omit<T, 'id'> : never;
+
+/** The fit was stopped because the user moved on (another capture); not a failure to show. */
+export class FitCancelled extends Error {
+  constructor() {
+    super('cancelled');
+    this.name = 'FitCancelled';
+  }
+}
+
+export class FitClient {
+  private worker: Worker;
+  private readonly pending = new Map<number, Pending>();
+  private nextId = 1;
+  /** Why the worker could not run (it failed to load), or null. */
+  private broken: string | null = null;
+
+  constructor(private readonly url: string) {
+    this.worker = this.startWorker();
+  }
+
+  /** True while a request is outstanding. */
+  get busy(): boolean {
+    return this.pending.size > 0;
+  }
+
+  /** Stop whatever the worker is doing (a long fit) and start a fresh one; its cached captures are gone. */
+  cancelAll(): void {
+    this.worker.terminate();
+    for (const entry of this.pending.values()) entry.reject(new FitCancelled());
+    this.pending.clear();
+    this.broken = null;
+    this.worker = this.startWorker();
+  }
+
+  private startWorker(): Worker {
+    const worker = new Worker(this.url, { type: 'module', name: 'ringbench-fit' });
+    worker.onmessage = (event: MessageEvent<WorkerMessage>) => this.receive(event.data);
+    worker.onerror = (event) => {
+      event.preventDefault();
+      this.broken = `the fit worker stopped (${event.message || 'it could not load'}); reload the window`;
+      for (const entry of this.pending.values()) entry.reject(new BenchError(this.broken));
+      this.pending.clear();
+    };
+    return worker;
+  }
+
+  request(request: WithoutId<WorkerRequest>, onProgress?: (stage: string) => void): Promise<WorkerReplyValue> {
+    const id = this.nextId++;
+    if (this.broken) return Promise.reject(new BenchError(this.broken));
+    return new Promise((resolve, reject) => {
+      this.pending.set(id, { resolve, reject, onProgress });
+      this.worker.postMessage({ ...request, id } as WorkerRequest);
+    });
+  }
+
+  private receive(message: WorkerMessage): void {
+    const entry = this.pending.get(message.id);
+    if (!entry) return;
+    if (message.kind === 'progress') {
+      entry.onProgress?.(message.stage);
+      return;
+    }
+    this.pending.delete(message.id);
+    if (message.kind === 'done') entry.resolve(message.value);
+    else entry.reject(new BenchError(message.message));
+  }
+}

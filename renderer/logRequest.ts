@@ -1,0 +1,40 @@
+// The bench-log request for the measurement on screen, laid out as the command line logs it.
+
+import type { BenchState } from './benchState';
+import type { BenchLogRequest } from './bridgeTypes';
+import { BenchError } from './benchError';
+
+export interface LogForm {
+  unit: string;
+  operator: string;
+  note: string;
+}
+
+export function buildLogRequest(state: BenchState, form: LogForm): BenchLogRequest {
+  const { capture, summary, components, design, verdict, cautions, userWindow } = state;
+  if (!capture || !summary) throw new BenchError('there is no fitted measurement to log: open a capture first');
+  if (form.unit.trim() === '') throw new BenchError('give the unit under test a name or serial number before logging');
+  const channel = capture.info.channels[capture.channel];
+  const input = state.componentsInput;
+  const knownOption = components ? `${input.knownName}=${input.knownText.trim()}${input.toleranceText.trim() ? `,${input.toleranceText.trim().replace(/\s*%?$/, '%')}` : ''}` : null;
+  const { advice: _advice, adviceSource: _source, deferral: _deferral, ...logged } = cautions ?? { fired: [], energies: {}, advice: [], adviceSource: '', deferral: '' };
+  return {
+    unit: form.unit.trim(),
+    operator: form.operator.trim() || null,
+    note: form.note.trim() || null,
+    capture: { path: capture.opened.path ?? capture.opened.name, sha256: capture.sha256, bytes: capture.bytes, channel: channel.name },
+    settings: {
+      topology: components ? components.topology : null,
+      known: knownOption,
+      column: channel.name,
+      sampleInterval: null,
+      from: userWindow.start === undefined ? null : String(userWindow.start),
+      to: userWindow.end === undefined ? null : String(userWindow.end),
+      sortTime: false,
+    },
+    fit: components ? { ...summary, components: { topology: components.topology, known: components.known, R: components.R, L: components.L, C: components.C } } : summary,
+    verdict,
+    design: design ? { path: design.path, name: design.design.name, sha256: design.sha256, spec: design.design } : null,
+    cautions: logged,
+  };
+}

@@ -1,0 +1,75 @@
+// The capture panel: open a file or a sample, choose the channel, and what the importer found.
+
+import { button, card, field, h, replaceChildren, select } from '../dom';
+import { showValue } from '../show';
+import type { BenchState } from '../benchState';
+import type { BenchController } from '../benchController';
+
+export function createCapturePanel(controller: BenchController) {
+  const { root, body } = card('Capture', 'capture-panel');
+  const sampleSelect = h('select', { id: 'sample-select', attrs: { 'aria-label': 'Sample captures' } });
+  sampleSelect.addEventListener('change', () => {
+    if (sampleSelect.value) void controller.openSample(sampleSelect.value);
+  });
+  const actions = h(
+    'div',
+    { class: 'actions' },
+    button('Open capture…', () => void controller.pickCapture(), { id: 'open-capture', class: 'primary', title: 'Open a scope export (Ctrl+O), or drop it on the window' }),
+    field('Sample', sampleSelect),
+  );
+  const details = h('div', { class: 'details' });
+  body.append(actions, details);
+  let samplesShown = '';
+
+  function render(state: BenchState): void {
+    const list = state.samples.map((s) => s.id).join(',');
+    if (list !== samplesShown) {
+      samplesShown = list;
+      replaceChildren(sampleSelect, h('option', { attrs: { value: '' } }, 'choose a sample…'), ...state.samples.map((s) => h('option', { attrs: { value: s.id }, title: s.description }, s.title)));
+    }
+    sampleSelect.value = state.capture?.opened.sampleId ?? '';
+    const capture = state.capture;
+    if (!capture) {
+      replaceChildren(details, h('p', { class: 'muted' }, 'No capture open. Open a file, pick a sample, or drop a capture on the window.'));
+      return;
+    }
+    const { info } = capture;
+    const channel = info.channels[capture.channel];
+    const channelControl =
+      info.channels.length > 1
+        ? select(
+            info.channels.map((c, i) => ({ value: String(i), label: `${c.name}${c.unit ? ` (${c.unit})` : ''}` })),
+            String(capture.channel),
+            (value) => void controller.chooseChannel(Number(value)),
+            { id: 'channel-select', attrs: { 'aria-label': 'Channel' } },
+          )
+        : h('span', { id: 'channel-name' }, `${channel.name}${channel.unit ? ` (${channel.unit})` : ''}`);
+    const dt = info.sampleInterval;
+    replaceChildren(
+      details,
+      h(
+        'dl',
+        { class: 'facts' },
+        h('dt', {}, 'File'),
+        h('dd', { id: 'capture-name', title: capture.opened.path ?? capture.opened.name }, capture.opened.name),
+        capture.sample ? h('dt', {}, 'Scenario') : null,
+        capture.sample ? h('dd', { class: 'scenario' }, capture.sample.description) : null,
+        h('dt', {}, 'Channel'),
+        h('dd', {}, channelControl),
+        h('dt', {}, 'Samples'),
+        h('dd', { id: 'capture-samples' }, channel.samples.toLocaleString('en')),
+        h('dt', {}, 'Sample rate'),
+        h('dd', {}, dt ? `${showValue(1 / dt, 'Sa/s')} (every ${showValue(dt, 's')})` : 'uneven time axis'),
+        h('dt', {}, 'Used in the fit'),
+        h('dd', { id: 'samples-used' }, state.fit ? state.fit.samplesUsed.toLocaleString('en') : '—'),
+        h('dt', {}, 'Clipped'),
+        h('dd', { class: channel.clipped ? 'attention' : '' }, channel.clipped ? `${channel.clipped.toLocaleString('en')} samples at a rail (left out of the fit)` : 'none'),
+        h('dt', {}, 'Dropped rows'),
+        h('dd', { class: channel.dropped ? 'attention' : '' }, channel.dropped ? `${channel.dropped.toLocaleString('en')} (empty or unreadable cells)` : 'none'),
+      ),
+      info.warnings.length ? h('ul', { class: 'warnings', id: 'capture-warnings' }, ...info.warnings.map((w) => h('li', {}, w))) : null,
+    );
+  }
+
+  return { root, render };
+}

@@ -1,0 +1,66 @@
+// The components panel: topology and one known part in, the other two with their uncertainties out.
+
+import { card, field, h, replaceChildren, select, textInput } from '../dom';
+import { quantityRow } from '../show';
+import type { BenchState } from '../benchState';
+import type { BenchController } from '../benchController';
+
+const UNITS = { R: 'Ω', L: 'H', C: 'F' } as const;
+
+export function createComponentsPanel(controller: BenchController) {
+  const { root, body } = card('Components', 'components-panel');
+  const topology = select(
+    [
+      { value: 'series', label: 'series R-L-C' },
+      { value: 'parallel', label: 'parallel R ∥ L ∥ C' },
+    ],
+    'series',
+    (value) => controller.setComponentsInput({ topology: value as 'series' | 'parallel' }),
+    { id: 'topology-select' },
+  );
+  const knownName = select(
+    (['C', 'L', 'R'] as const).map((n) => ({ value: n, label: `${n} is known` })),
+    'C',
+    (value) => controller.setComponentsInput({ knownName: value as 'R' | 'L' | 'C' }),
+    { id: 'known-name' },
+  );
+  const knownValue = textInput('', { id: 'known-value', attrs: { placeholder: 'e.g. 47u', 'aria-label': 'Known value' } });
+  const tolerance = textInput('', { id: 'known-tolerance', attrs: { placeholder: '%', 'aria-label': 'Known tolerance in percent' } });
+  const unitLabel = h('span', { class: 'unit' });
+  knownValue.addEventListener('change', () => controller.setComponentsInput({ knownText: knownValue.value }));
+  tolerance.addEventListener('change', () => controller.setComponentsInput({ toleranceText: tolerance.value }));
+  const inputs = h(
+    'div',
+    { class: 'grid-2' },
+    field('Topology', topology),
+    field('Known part', knownName),
+    field('Value', h('span', { class: 'with-unit' }, knownValue, unitLabel), 'SI prefixes: 470n, 4k7, 2.2u'),
+    field('Tolerance', h('span', { class: 'with-unit' }, tolerance, h('span', { class: 'unit' }, '%'))),
+  );
+  const results = h('div', { id: 'components-results' });
+  body.append(inputs, results);
+
+  function render(state: BenchState): void {
+    const input = state.componentsInput;
+    topology.value = input.topology;
+    knownName.value = input.knownName;
+    if (document.activeElement !== knownValue) knownValue.value = input.knownText;
+    if (document.activeElement !== tolerance) tolerance.value = input.toleranceText;
+    unitLabel.textContent = UNITS[input.knownName];
+    const { components, componentsError } = state;
+    if (componentsError) return replaceChildren(results, h('p', { class: 'error-text' }, componentsError));
+    if (!components) return replaceChildren(results, h('p', { class: 'muted' }, state.fit ? 'Enter one known part to derive the other two.' : 'Needs a fit.'));
+    const row = (name: 'R' | 'L' | 'C', words: string) => {
+      const tr = quantityRow(name, name, name === input.knownName ? `${words} (known)` : words, components[name]);
+      if (name === input.knownName) tr.classList.add('known');
+      return tr;
+    };
+    replaceChildren(
+      results,
+      h('table', { class: 'results' }, h('tbody', {}, row('R', 'resistance'), row('L', 'inductance'), row('C', 'capacitance'))),
+      h('p', { class: 'field-hint' }, input.topology === 'series' ? 'Series: α = R / 2L, ω₀ = 1 / √(LC).' : 'Parallel: α = 1 / 2RC, ω₀ = 1 / √(LC).'),
+    );
+  }
+
+  return { root, render };
+}

@@ -1,0 +1,43 @@
+// Values for the screen: engineering notation with units, and the raw SI value kept for tests and copying.
+
+import { formatEngineering, formatMeasured } from '../core/units/format';
+import type { Quantity } from '../core/quantity';
+import { h } from './dom';
+
+export function showQuantity(q: Quantity | null | undefined): string {
+  if (!q) return '—';
+  if (q.value === null || !Number.isFinite(q.value)) return 'not defined';
+  return pretty(formatMeasured(q));
+}
+
+export function showValue(value: number | null | undefined, unit: string, digits = 4): string {
+  return value === null || value === undefined || !Number.isFinite(value) ? '—' : pretty(formatEngineering(value, unit, digits));
+}
+
+/** Value and relative uncertainty only, for narrow tables: '11.02 ks⁻¹ ± 0.13 %'. */
+export function showCompact(q: Quantity): string {
+  if (q.value === null || !Number.isFinite(q.value)) return 'not defined';
+  const value = showValue(q.value, q.unit, 4);
+  if (q.stderr === null || q.value === 0) return value;
+  const percent = (100 * q.stderr) / Math.abs(q.value);
+  return `${value} ± ${percent < 0.1 ? percent.toPrecision(1) : percent.toPrecision(2)} %`;
+}
+
+/** Units as they are printed: s^-1 as s⁻¹. */
+function pretty(text: string): string {
+  return text.replace(/\^-1/g, '⁻¹');
+}
+
+/** One row of a result table: the symbol, its words, and the value with its uncertainty. */
+export function quantityRow(key: string, symbol: string, words: string, q: Quantity | null | undefined): HTMLTableRowElement {
+  return h(
+    'tr',
+    { data: { quantity: key, ...(q ? { value: String(q.value), stderr: String(q.stderr) } : {}) } },
+    h('th', { attrs: { scope: 'row' } }, h('span', { class: 'symbol' }, symbol), h('span', { class: 'words' }, words)),
+    h('td', { class: 'number' }, showQuantity(q)),
+  );
+}
+
+export function hertzOf(omega: Quantity): Quantity {
+  return { value: omega.value / (2 * Math.PI), stderr: omega.stderr === null ? null : omega.stderr / (2 * Math.PI), unit: 'Hz' };
+}

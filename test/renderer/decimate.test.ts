@@ -1,0 +1,98 @@
+// Tests of the per-column min/max reduction used to draw long captures.
+
+import { describe, expect, it } from 'vitest';
+import { lowerBound, reduceMinMax, upperBound } from '../../renderer/decimate';
+
+/** Small seeded PRNG (mulberry32) so the random traces are the same on every run. */
+function seeded(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+function ramp(n: number, dt = 1e-9): Float64Array {
+  return Float64Array.from({ length: n }, (_, i) => i * dt);
+}
+
+describe('reduceMinMax', () => {
+  it('returns a short range unchanged', () => {
+    const time = ramp(10);
+    const values = Float64Array.from(time, (t) => Math.sin(t * 1e9));
+    const reduced = reduceMinMax(time, values, -1, 1, 100);
+    expect(Array.from(reduced.x)).toEqual(Array.from(time));
+    expect(Array.from(reduced.y)).toEqual(Array.from(values));
+  });
+
+  it.each([
+    { n: 100_000, columns: 800, seed: 1 },
+    { n: 1_000_000, columns: 1200, seed: 2 },
+    { n: 5_000, columns: 7, seed: 3 },
+  ])('keeps at most 2 points per column and every extreme ($n samples, $columns columns)', ({ n, columns, seed }) => {
+    const random = seeded(seed);
+    const time = ramp(n);
+    const values = Float64Array.from(time, () => random() * 2 - 1);
+    const spikeAt = Math.floor(n * 0.37);
+    values[spikeAt] = 5;
+    values[spikeAt + 11] = -5;
+    const reduced = reduceMinMax(time, values, time[0], time[n - 1], columns);
+    expect(reduced.x.length).toBeLessThanOrEqual(2 * columns);
+    expect(Math.max(...reduced.y)).toBe(5);
+    expect(Math.min(...reduced.y)).toBe(-5);
+    for (let i = 1; i < reduced.x.length; i++) expect(reduced.x[i]).toBeGreaterThan(reduced.x[i - 1]);
+    // every kept point is a real sample
+    for (let i = 0; i < reduced.x.length; i += 97) {
+      const index = Math.round(reduced.x[i] / 1e-9);
+      expect(reduced.y[i]).toBe(values[index]);
+    }
+  });
+
+  it('reduces only the visible range, plus one neighbour on each side', () => {
+    const time = ramp(1000, 1);
+    const values = Float64Array.from(time, (_, i) => i);
+    const reduced = reduceMinMax(time, values, 100, 199, 1000);
+    expect(reduced.x.length).toBe(102);
+    expect(reduced.y[0]).toBe(99);
+    expect(reduced.y[reduced.y.length - 1]).toBe(200);
+  });
+
+  it('handles a range with no samples and uneven spacing', () => {
+    const time = Float64Array.from([0, 1, 2, 50, 51, 100]);
+    const values = Float64Array.from([0, 1, 0, 3, -3, 1]);
+    expect(reduceMinMax(time, values, 200, 300, 4).x.length).toBe(1); // only the left neighbour
+    const reduced = reduceMinMax(time, values, 0, 100, 2);
+    expect(Array.from(reduced.y).sort()).toEqual([-3, 0, 1, 3].sort());
+  });
+
+  it('refuses mismatched arrays and a zero column count', () => {
+    expect(() => reduceMinMax(ramp(3), ramp(4), 0, 1, 10)).toThrow(/time has 3 samples/);
+    expect(() => reduceMinMax(ramp(3), ramp(3), 0, 1, 0)).toThrow(/columns/);
+  });
+
+  it('reduces a 10^6-sample trace quickly enough to redraw on zoom', () => {
+    const time = ramp(1_000_000);
+    const values = Float64Array.from(time, (t) => Math.exp(-t * 2e5) * Math.cos(t * 6e7));
+    const started = performance.now();
+    for (let k = 0; k < 5; k++) reduceMinMax(time, values, time[0], time[time.length - 1], 1500);
+    const perCall = (performance.now() - started) / 5;
+    expect(perCall).toBeLessThan(100);
+  });
+});
+
+describe('bounds', () => {
+  it.each([
+    [-1, 0, 0],
+    [0, 0, 1],
+    [2.5, 3, 3],
+    [9, 9, 10],
+    [20, 10, 10],
+  ])('at %d: lower %d, upper %d', (value, lower, upper) => {
+    const time = Float64Array.from({ length: 10 }, (_, i) => i);
+    expect(lowerBound(time, value)).toBe(lower);
+    expect(upperBound(time, value)).toBe(upper);
+  });
+});

@@ -1,0 +1,66 @@
+// What the panels read from typed text: values with SI prefixes, tolerances, a sample's known option.
+
+import { describe, expect, it } from 'vitest';
+import { parsePositive, parseSigned, parseTolerancePercent, percentText, splitKnownOption } from '../../renderer/parseInputs';
+import { plainMessage } from '../../renderer/plainMessage';
+import { CaptureError } from '../../core/capture/types';
+
+describe('panel inputs', () => {
+  it.each([
+    ['470n', 'F', 470e-9],
+    ['47 uF', 'F', 47e-6],
+    ['4k7', 'ohm', 4700],
+    ['2.2u', 'H', 2.2e-6],
+    ['1e-6', 'H', 1e-6],
+  ])('reads %s as %s', (text, unit, expected) => {
+    expect(parsePositive(text, unit, 'known C')).toBeCloseTo(expected, 15);
+  });
+
+  it.each(['0', '-1n', 'abc', '', '47 H'])('refuses %j as a positive capacitance, naming the field', (text) => {
+    expect(() => parsePositive(text, 'F', 'known C')).toThrow(/^known C: /);
+  });
+
+  it.each([
+    ['-5', -5],
+    ['0', 0],
+    ['12m', 0.012],
+    ['-600u', -600e-6],
+  ])('reads the signed value %s', (text, expected) => {
+    expect(parseSigned(text, 's', 'window start')).toBeCloseTo(expected, 15);
+  });
+
+  it.each([
+    ['', 0],
+    ['5', 0.05],
+    ['5 %', 0.05],
+    ['0.5%', 0.005],
+  ])('reads the tolerance %j', (text, expected) => {
+    expect(parseTolerancePercent(text, 'tolerance')).toBeCloseTo(expected, 15);
+  });
+
+  it.each(['-1', '100', 'five'])('refuses the tolerance %j', (text) => {
+    expect(() => parseTolerancePercent(text, 'tolerance of C')).toThrow(/^tolerance of C: /);
+  });
+
+  it.each([
+    ['C=47u', { name: 'C', text: '47u' }],
+    ['l = 10u', { name: 'L', text: '10u' }],
+    ['R=390,1%', { name: 'R', text: '390' }],
+    ['X=1', null],
+  ])('splits the known option %s', (option, expected) => {
+    expect(splitKnownOption(option)).toEqual(expected);
+  });
+
+  it('writes a tolerance back as percent', () => {
+    expect(percentText(0.05)).toBe('5');
+    expect(percentText(0)).toBe('');
+    expect(percentText(0.001)).toBe('0.1');
+  });
+
+  it('shows input errors in their own words and anything else as a plain sentence, never a stack', () => {
+    expect(plainMessage(new CaptureError('no numeric rows', 3))).toBe('line 3: no numeric rows');
+    const bug = new TypeError('Cannot read properties of undefined (reading "x")\n    at f (worker.ts:1:1)');
+    expect(plainMessage(bug)).toBe('something went wrong: Cannot read properties of undefined (reading "x")');
+    expect(plainMessage('text')).toBe('something went wrong: text');
+  });
+});
