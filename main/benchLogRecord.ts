@@ -10,9 +10,8 @@ import { RECORD_KIND, RECORD_SCHEMA, type BenchRecord } from '../core/report/ben
 import type { FitSummary } from '../core/report/fitSummary';
 import { cautionInputsFromCapture } from '../core/safety/cautionInputs';
 import { evaluateCautions, type CautionResult } from '../core/safety/evaluateCautions';
-import { loadCapture, readFileBytes, type LoadedCapture } from './captureFile';
-import { fitFile, type FitCommandOptions } from './cli/commands/fit';
-import { parseChannel, parseTime } from './cli/options';
+import { readFileBytes, type LoadedCapture } from './captureFile';
+import { fitCapture, type FitCommandOptions } from './cli/commands/fit';
 import { UsageError } from './cli/errors';
 import { VERSION } from './version';
 
@@ -49,13 +48,7 @@ export function measureFile(file: string, options: FitCommandOptions, cwd: strin
   if (design && (options.topology !== undefined || options.known !== undefined)) {
     throw new UsageError('--design gives the topology and components: leave out --topology and --known');
   }
-  const summary = fitFile(file, options, cwd);
-  const capture = loadCapture(file, {
-    cwd,
-    channel: options.column === undefined ? undefined : parseChannel(options.column),
-    sampleInterval: options.sampleInterval === undefined ? undefined : parseTime(options.sampleInterval, '--sample-interval'),
-    sortTime: options.sortTime,
-  });
+  const { summary, loaded: capture } = fitCapture(file, options, cwd);
   const { channel } = capture;
   let verdict: Verdict | null = null;
   if (design && summary.status !== 'failed') {

@@ -128,10 +128,10 @@ function buildChannel(column: ColumnPlan, values: Float64Array, axis: Axis): { c
 
 function clippingWarning(channel: Channel, clipping: Clipping): string | null {
   const parts: string[] = [];
-  if (clipping.high > 0) parts.push(`${clipping.high} at the top (${formatEngineering(clipping.highLevel, channel.unit)})`);
-  if (clipping.low > 0) parts.push(`${clipping.low} at the bottom (${formatEngineering(clipping.lowLevel, channel.unit)})`);
+  if (clipping.high > 0) parts.push(`${clipping.high} samples at the top rail (${formatEngineering(clipping.highLevel, channel.unit)})`);
+  if (clipping.low > 0) parts.push(`${clipping.low} samples at the bottom rail (${formatEngineering(clipping.lowLevel, channel.unit)})`);
   if (parts.length === 0) return null;
-  return `channel '${channel.name}': ${parts.join(' and ')} samples sit in flat runs at the extreme and look clipped by the ADC; they are marked and left out of fits`;
+  return `channel '${channel.name}': ${parts.join(' and ')} sit in flat runs and look clipped by the ADC; they are marked and left out of fits`;
 }
 
 export function assembleCapture(

@@ -7,7 +7,7 @@ import { fitCurve } from './fitCurve';
 import { estimateNoise, quantisationStep } from './noise';
 import { detectEvent, rateCandidates, type RateCandidate } from './estimate';
 import { solveAmplitudes, Workspace } from './amplitudes';
-import { LAYOUT_NAMES, fitsT0, layoutValue, nonlinearCount, unpackParams, type ParameterLayout } from './responseModel';
+import { LAYOUT_NAMES, fitsT0, nonlinearCount, unpackParams, type ParameterLayout } from './responseModel';
 import { prepareFitSet, type FitSet } from './fitSet';
 import { responseCovariance } from './responseCovariance';
 import { FitInputError } from './fitInputError';

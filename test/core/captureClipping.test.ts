@@ -110,7 +110,7 @@ describe('clipping through the importer', () => {
     expect(count(probe.clipped)).toBe(high + low);
     expect(Math.max(...vds.values)).toBe(rail);
     expect(capture.warnings).toContain(
-      `channel 'Vds': ${high} at the top (8 V) and ${low} at the bottom (-8 V) samples sit in flat runs at the extreme and look clipped by the ADC; they are marked and left out of fits`,
+      `channel 'Vds': ${high} samples at the top rail (8 V) and ${low} samples at the bottom rail (-8 V) sit in flat runs and look clipped by the ADC; they are marked and left out of fits`,
     );
   });
 });

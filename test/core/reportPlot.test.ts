@@ -3,8 +3,6 @@ import { describe, expect, it } from 'vitest';
 import { decimateMinMax } from '../../core/report/decimate';
 import { scaleAxis } from '../../core/report/plotScale';
 import { PLOT_COLORS, plotColumns, renderOverlayPlot } from '../../core/report/svgPlot';
-import { evaluateResponse, type ResponseParams } from '../../core/response/secondOrder';
-import { createRandom } from '../../core/random';
 
 describe('decimateMinMax', () => {
   it('keeps the extreme of every column, so a one-sample spike survives', () => {

@@ -9,6 +9,8 @@ import { summarizeFit, type FitSummary } from '../../../core/report/fitSummary';
 import { formatFitText } from '../../../core/report/fitText';
 import { parseChannel, parseKnown, parseTime, parseTopology } from '../options';
 import { UsageError } from '../errors';
+import { formatEngineering } from '../../../core/units/format';
+import { COMPONENT_UNITS as UNIT_OF_COMPONENT } from '../../../core/circuit/relations';
 import { evaluateCautions } from '../../../core/safety/evaluateCautions';
 import { cautionInputsFromCapture } from '../../../core/safety/cautionInputs';
 import { formatCautionsText } from '../../../core/safety/cautionText';
@@ -56,7 +58,7 @@ export function fitCapture(file: string, options: FitCommandOptions, cwd: string
     topology && known
       ? {
           topology,
-          known: `${known.name}=${known.value}${known.tolerance ? ` (±${known.tolerance * 100} %)` : ''}`,
+          known: `${known.name} = ${formatEngineering(known.value, UNIT_OF_COMPONENT[known.name])}${known.tolerance ? ` ± ${+(known.tolerance * 100).toPrecision(3)} %` : ''}`,
           ...componentsFromResponse(fit.alpha, fit.omega0, topology, known, correlationOf(fit)),
         }
       : undefined;
