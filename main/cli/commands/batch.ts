@@ -6,6 +6,7 @@ import { readdirSync, statSync } from 'node:fs';
 import { basename, extname, join, resolve } from 'node:path';
 import type { CommandContext } from '../program';
 import { fitOptionsOf, type LogAddOptions } from './log';
+import { addCaptureOptions, addComponentOptions } from './fit';
 import { appendBenchLog, requireLogFolder } from '../../benchLog';
 import { createBenchRecord, loadDesignFile, measureFile, type Measurement } from '../../benchLogRecord';
 import { formatEngineering } from '../../../core/units/format';
@@ -37,18 +38,12 @@ export function listCaptureFiles(folder: string): string[] {
 }
 
 export function registerBatchCommand(program: Command, ctx: CommandContext): void {
-  program
+  const command = program
     .command('batch')
     .description('fit every capture (*.csv, *.txt, *.dat) of a folder; exit 1 when a file failed, 3 when a unit was out of tolerance')
     .argument('<dir>', 'folder of capture files')
-    .option('--design <file>', 'design file to check every unit against (instead of --topology/--known)')
-    .option('--topology <kind>', 'series or parallel: derive R, L, C (needs --known)')
-    .option('--known <NAME=VALUE[,TOL%]>', 'one known component, e.g. C=470n or L=2.2u,10%')
-    .option('--column <name|index>', 'channel to fit: its name or 0-based index (default: the first)')
-    .option('--sample-interval <time>', 'sample interval when the files have no time column, e.g. 2n')
-    .option('--from <time>', 'start of the fit window (default: found from the data)')
-    .option('--to <time>', 'end of the fit window (default: found from the data)')
-    .option('--sort-time', 'sort out-of-order time stamps instead of failing')
+    .option('--design <file>', 'design file to check every unit against (instead of --topology/--known)');
+  addCaptureOptions(addComponentOptions(command))
     .option('--log <path>', 'append each result to this bench log, the unit id taken from the file name')
     .option('--operator <name>', 'who measured (with --log)')
     .option('--json', 'print a JSON array, one object per file ({ file, error } for a file that failed)')

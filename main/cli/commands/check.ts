@@ -2,7 +2,7 @@
 
 import type { Command } from 'commander';
 import type { CommandContext } from '../program';
-import type { FitCommandOptions } from './fit';
+import { addCaptureOptions, type FitCommandOptions } from './fit';
 import { loadDesignFile, measureFile } from '../../benchLogRecord';
 import { formatFitText } from '../../../core/report/fitText';
 import { formatVerdictText } from '../../../core/report/verdictText';
@@ -14,16 +14,12 @@ interface CheckCommandOptions extends FitCommandOptions {
 }
 
 export function registerCheckCommand(program: Command, ctx: CommandContext): void {
-  program
+  const command = program
     .command('check')
     .description('fit a capture and check it against a design file: exit 0 in tolerance, 3 out of tolerance')
     .argument('<file>', 'capture file (CSV or text export of a scope)')
-    .requiredOption('--design <file>', 'design file (topology, R, L, C with tolerances, source, probe)')
-    .option('--column <name|index>', 'channel to fit: its name or 0-based index (default: the first)')
-    .option('--sample-interval <time>', 'sample interval when the file has no time column, e.g. 2n')
-    .option('--from <time>', 'start of the fit window (default: found from the data)')
-    .option('--to <time>', 'end of the fit window (default: found from the data)')
-    .option('--sort-time', 'sort out-of-order time stamps instead of failing')
+    .requiredOption('--design <file>', 'design file (topology, R, L, C with tolerances, source, probe)');
+  addCaptureOptions(command)
     .option('--json', 'print one JSON object instead of the table')
     .action((file: string, options: CheckCommandOptions) => {
       const design = loadDesignFile(options.design, ctx.io.cwd);

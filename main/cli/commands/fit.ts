@@ -79,18 +79,29 @@ function parseSignedTime(text: string, option: string): number {
   return negative ? -value : value;
 }
 
-export function registerFitCommand(program: Command, ctx: CommandContext): void {
-  program
-    .command('fit')
-    .description('fit a ringdown or step response and report alpha, omega0, zeta, Q (and R, L, C)')
-    .argument('<file>', 'capture file (CSV or text export of a scope)')
-    .option('--topology <kind>', 'series or parallel: derive R, L, C (needs --known)')
-    .option('--known <NAME=VALUE[,TOL%]>', 'one known component, e.g. C=470n or L=2.2u,10%')
+/** The options every fitting command takes: which channel, which window, how to read the axis. */
+export function addCaptureOptions(command: Command): Command {
+  return command
     .option('--column <name|index>', 'channel to fit: its name or 0-based index (default: the first)')
     .option('--sample-interval <time>', 'sample interval when the file has no time column, e.g. 2n')
     .option('--from <time>', 'start of the fit window (default: found from the data)')
     .option('--to <time>', 'end of the fit window (default: found from the data)')
-    .option('--sort-time', 'sort out-of-order time stamps instead of failing')
+    .option('--sort-time', 'sort out-of-order time stamps instead of failing');
+}
+
+/** --topology and --known: derive R, L and C from the fit. */
+export function addComponentOptions(command: Command): Command {
+  return command
+    .option('--topology <kind>', 'series or parallel: derive R, L, C (needs --known)')
+    .option('--known <NAME=VALUE[,TOL%]>', 'one known component, e.g. C=470n or L=2.2u,10%');
+}
+
+export function registerFitCommand(program: Command, ctx: CommandContext): void {
+  const command = program
+    .command('fit')
+    .description('fit a ringdown or step response and report alpha, omega0, zeta, Q (and R, L, C)')
+    .argument('<file>', 'capture file (CSV or text export of a scope)');
+  addCaptureOptions(addComponentOptions(command))
     .option('--json', 'print one JSON object instead of the table')
     .action((file: string, options: FitCommandOptions) => {
       const { summary, loaded } = fitCapture(file, options, ctx.io.cwd);

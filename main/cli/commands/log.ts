@@ -3,7 +3,7 @@
 import type { Command } from 'commander';
 import { resolve } from 'node:path';
 import type { CommandContext } from '../program';
-import type { FitCommandOptions } from './fit';
+import { addCaptureOptions, addComponentOptions, type FitCommandOptions } from './fit';
 import { appendBenchLog, describeTornTail, readCleanBenchLog, requireLogFolder } from '../../benchLog';
 import { checkLabel, createBenchRecord, loadDesignFile, measureFile } from '../../benchLogRecord';
 import { formatFitText } from '../../../core/report/fitText';
@@ -24,20 +24,14 @@ export function registerLogCommand(program: Command, ctx: CommandContext): void 
   const log = program.command('log').description('the bench log: one JSON Lines file of measurements per project');
   const output = { writeOut: ctx.io.out, writeErr: ctx.io.err };
 
-  log
+  const add = log
     .command('add')
     .description('fit a capture (and check it against a design) and append the result to the bench log; exit 3 when out of tolerance, 1 (nothing logged) when the fit fails')
     .argument('<file>', 'capture file (CSV or text export of a scope)')
     .requiredOption('--log <path>', 'bench log file (created when missing; its folder must exist)')
     .requiredOption('--unit <id>', 'unit under test, e.g. a serial number (1 to 100 characters)')
-    .option('--design <file>', 'design file to check the unit against (instead of --topology/--known)')
-    .option('--topology <kind>', 'series or parallel: derive R, L, C (needs --known)')
-    .option('--known <NAME=VALUE[,TOL%]>', 'one known component, e.g. C=470n or L=2.2u,10%')
-    .option('--column <name|index>', 'channel to fit: its name or 0-based index (default: the first)')
-    .option('--sample-interval <time>', 'sample interval when the file has no time column, e.g. 2n')
-    .option('--from <time>', 'start of the fit window (default: found from the data)')
-    .option('--to <time>', 'end of the fit window (default: found from the data)')
-    .option('--sort-time', 'sort out-of-order time stamps instead of failing')
+    .option('--design <file>', 'design file to check the unit against (instead of --topology/--known)');
+  addCaptureOptions(addComponentOptions(add))
     .option('--operator <name>', 'who measured')
     .option('--note <text>', 'free text kept with the record')
     .option('--json', 'print the logged record as JSON')
