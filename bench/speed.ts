@@ -187,7 +187,7 @@ function main(): void {
     const file = path.join(OUT, `speed-${sizeLabel(samples)}.csv`);
     const truth = writeSpeedCapture(file, samples, seed);
     const ours = runOurs(file, samples, repeats, values['cpu-prof']);
-    const scipy = scipyNote === null ? runScipy(file) : scipyNote;
+    const scipy: ScipyResult | string = scipyNote === null ? runScipy(file) : scipyNote;
     if (typeof scipy === 'string') scipyNote = scipy;
     rows.push({ truth, ours, scipy: typeof scipy === 'string' ? null : scipy });
     console.error(`  ${sizeLabel(samples)} done (end to end ${fixed(ours.endToEndS)} s)`);

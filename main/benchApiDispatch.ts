@@ -6,7 +6,7 @@ import { argumentProblem, isApiMethod } from './electron/guards';
 export type ApiHandlers = Partial<Record<ApiMethod, (...args: never[]) => Promise<unknown>>>;
 
 /** Error names whose message is already plain words for the user. */
-const PLAIN_ERRORS = new Set(['BenchApiError', 'LogError', 'DesignError', 'FileError', 'CaptureError', 'UnitError']);
+const PLAIN_ERRORS = new Set(['BenchApiError', 'LogError', 'DesignError', 'FileError', 'CaptureError', 'UnitError', 'UsageError']);
 
 /** A dispatcher over `handlers`; a method without a handler is unknown here (e.g. dialogs over HTTP). */
 export function createApiDispatch(handlers: ApiHandlers): (method: string, args: unknown[]) => Promise<ApiResult<unknown>> {

@@ -7,6 +7,7 @@ import { parseBenchRecord, RECORD_KIND, RECORD_SCHEMA, type BenchRecord } from '
 import { parseDesign } from '../core/circuit/design';
 import type { BenchLogRequest, BenchLogView } from './electron/channels';
 import { VERSION } from './version';
+import { checkLabel } from './benchLogRecord';
 
 /** The record for a request: the window's results plus the id, the time and the software. */
 export function recordFromRequest(request: BenchLogRequest, now: Date, id = randomBytes(6).toString('hex')): BenchRecord {
@@ -15,8 +16,9 @@ export function recordFromRequest(request: BenchLogRequest, now: Date, id = rand
     schema: RECORD_SCHEMA,
     id,
     time: now.toISOString(),
-    unit: request.unit.trim(),
-    operator: blankToNull(request.operator),
+    // The same label rules as `ringbench log add --unit/--operator`.
+    unit: checkLabel(request.unit, 'unit'),
+    operator: request.operator === null || request.operator.trim() === '' ? null : checkLabel(request.operator, 'operator'),
     note: blankToNull(request.note),
     capture: request.capture,
     settings: request.settings,

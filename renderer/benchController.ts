@@ -3,11 +3,8 @@
 
 import { componentsFromResponse } from '../core/circuit/components';
 import { parseDesign, serializeDesign } from '../core/circuit/design';
-import { extractParasitics, type AddedCapacitorMeasurement } from '../core/circuit/addedCapacitor';
-import { suggestSnubber } from '../core/circuit/snubber';
 import { evaluateCautions } from '../core/safety/evaluateCautions';
 import { cautionInputsFromCapture } from '../core/safety/cautionInputs';
-import { quantity } from '../core/quantity';
 import type { ResponseFit } from '../core/fit/fitResponse';
 import { plainMessage } from './plainMessage';
 import { BenchError } from './benchError';
@@ -20,20 +17,9 @@ import { parsePositive, parseTolerancePercent, splitKnownOption } from './parseI
 import { rememberCapture, recallCapture } from './lastCapture';
 import { sha256Hex } from './sha256';
 import { buildLogRequest, type LogForm } from './logRequest';
+import { extractFromCaptures, type ExtractionRow, type ExtractionSettings } from './extraction';
 
-export interface ExtractionRow {
-  name: string;
-  text: string;
-  addedText: string;
-  toleranceText: string;
-}
-
-export interface ExtractionSettings {
-  probeText: string;
-  probeToleranceText: string;
-  voltageText: string;
-  switchingText: string;
-}
+export type { ExtractionRow, ExtractionSettings } from './extraction';
 
 export class BenchController {
   private fitGeneration = 0;
@@ -85,7 +71,11 @@ export class BenchController {
     // A long fit of the previous capture must not hold this one up.
     if (this.client.busy) this.client.cancelAll();
     const done = await this.run(`reading ${opened.name}`, async () => {
-      const reply = await this.client.request({ type: 'open', captureId: key, name: opened.name, text: opened.text }, (stage) => this.progress(stage));
+      const reply = await this.client
+        .request({ type: 'open', captureId: key, name: opened.name, text: opened.text }, (stage) => this.progress(stage))
+        .catch((error: unknown) => {
+          throw error instanceof FitCancelled ? error : new BenchError(`${opened.name}: ${plainMessage(error)}`);
+        });
       if (reply.type !== 'open') throw new BenchError('the fit worker gave an unexpected answer');
       const digest = await sha256Hex(opened.text);
       const sample = options.sample ?? null;
@@ -103,8 +93,8 @@ export class BenchController {
     });
     if (!done) return;
     document.title = `${opened.name} — Ringbench`;
-    if (options.design) await this.loadDesignText(options.design, `sample-captures/designs/${options.design.name}`);
-    else if (options.sample) this.clearDesign();
+    if (options.design) await this.loadDesignText(options.design, `sample-captures/designs/${options.design.name}`, 'sample');
+    else if (options.sample || this.state.design?.origin === 'sample') this.clearDesign();
     await this.loadTrace();
     await this.refit();
     const capture = this.state.capture;
@@ -160,6 +150,7 @@ export class BenchController {
     this.state.fit = fit;
     this.state.summary = summary;
     this.state.fitError = fitError;
+    this.state.fitCount++;
     this.updateComponents();
     await this.runCheck();
     await this.drawPlot();
@@ -205,8 +196,9 @@ export class BenchController {
       this.state.cautions = null;
       return;
     }
-    const C = components?.C ?? design?.design.components.C.value;
-    const L = components?.L ?? design?.design.components.L.value;
+    // As `ringbench log add`: the design's parts when there is a design, else the derived ones.
+    const C = design ? design.design.components.C.value : components?.C;
+    const L = design ? design.design.components.L.value : components?.L;
     try {
       this.state.cautions = evaluateCautions(cautionInputsFromCapture(trace.values, trace.unit, { C, L }));
     } catch (error) {
@@ -217,19 +209,19 @@ export class BenchController {
 
   async loadDesignFromSamples(id: string): Promise<void> {
     const named = await this.run('reading the design', () => this.bridge.readDesign(id));
-    if (named) await this.applyDesign(named, `sample-captures/designs/${named.name}`);
+    if (named) await this.applyDesign(named, `sample-captures/designs/${named.name}`, 'user');
   }
 
   async pickDesign(): Promise<void> {
     const named = await this.run('opening a design', () => this.bridge.pickDesign());
-    if (named) await this.applyDesign(named, named.name);
+    if (named) await this.applyDesign(named, named.name, 'user');
   }
 
   /** A design as edited in the panel's fields (values as typed; parseDesign reads the prefixes). */
   async useEditedDesign(fields: Record<string, unknown>): Promise<void> {
     const text = `${JSON.stringify(fields, null, 2)}\n`;
     const name = typeof fields.name === 'string' && fields.name.trim() ? fields.name.trim() : 'design';
-    await this.applyDesign({ name: `${name.replace(/[^A-Za-z0-9._-]+/g, '-')}.json`, text }, 'edited in the window');
+    await this.applyDesign({ name: `${name.replace(/[^A-Za-z0-9._-]+/g, '-')}.json`, text }, 'edited in the window', 'user');
   }
 
   async saveDesign(): Promise<void> {
@@ -242,17 +234,17 @@ export class BenchController {
     this.render();
   }
 
-  private async applyDesign(named: NamedText, path: string): Promise<void> {
-    await this.loadDesignText(named, path);
+  private async applyDesign(named: NamedText, path: string, origin: LoadedDesign['origin']): Promise<void> {
+    await this.loadDesignText(named, path, origin);
     await this.runCheck();
     await this.drawPlot();
   }
 
-  private async loadDesignText(named: NamedText, path: string): Promise<void> {
+  private async loadDesignText(named: NamedText, path: string, origin: LoadedDesign['origin']): Promise<void> {
     try {
       const design = parseDesign(named.text);
       const { sha256 } = await sha256Hex(named.text);
-      const loaded: LoadedDesign = { design, name: named.name, path, text: named.text, sha256 };
+      const loaded: LoadedDesign = { design, name: named.name, path, text: named.text, sha256, origin };
       this.state.design = loaded;
       this.state.designError = null;
     } catch (error) {
@@ -370,40 +362,9 @@ export class BenchController {
     this.state.extraction = null;
     this.state.extractionError = null;
     try {
-      if (rows.length < 2) throw new BenchError('the added-capacitor method needs at least two captures: the bare loop and one with a capacitor added');
-      const probeC = settings.probeText.trim() === '' ? 0 : parsePositiveOrZero(settings.probeText, 'F', 'probe capacitance');
-      const probeCTolerance = parseTolerancePercent(settings.probeToleranceText, 'probe capacitance tolerance');
-      const measurements: AddedCapacitorMeasurement[] = [];
-      const frequencies: { name: string; f0: ReturnType<typeof quantity>; addedC: number }[] = [];
-      for (const [i, row] of rows.entries()) {
-        if (!row.text) throw new BenchError(`capture ${i + 1}: choose a capture file`);
-        const addedC = row.addedText.trim() === '' ? 0 : parsePositiveOrZero(row.addedText, 'F', `capture ${i + 1}: added capacitance`);
-        const addedCTolerance = parseTolerancePercent(row.toleranceText, `capture ${i + 1}: tolerance`);
-        this.progress(`fitting capture ${i + 1} of ${rows.length}`);
-        const reply = await this.client.request({ type: 'fitText', name: row.name, text: row.text }, (stage) => this.progress(stage));
-        if (reply.type !== 'fitText') throw new BenchError('the fit worker gave an unexpected answer');
-        const fit = reply.fit;
-        if (fit.status === 'failed') throw new BenchError(`capture ${i + 1} (${row.name}): the fit failed: ${fit.message}`);
-        const f0 = quantity(fit.omega0.value / (2 * Math.PI), fit.omega0.stderr === null ? null : fit.omega0.stderr / (2 * Math.PI), 'Hz');
-        measurements.push({ addedC, addedCTolerance, frequency: f0, alpha: fit.alpha, ...(reply.sampleInterval ? { sampleInterval: reply.sampleInterval } : {}) });
-        frequencies.push({ name: row.name, f0, addedC });
-      }
-      const extraction = extractParasitics(measurements, { probeC, probeCTolerance });
-      let snubber = null;
-      let snubberError = null;
-      try {
-        const voltage = settings.voltageText.trim() === '' ? undefined : parsePositive(settings.voltageText, 'V', 'snubber voltage');
-        const switchingFrequency = settings.switchingText.trim() === '' ? undefined : parsePositive(settings.switchingText, 'Hz', 'switching frequency');
-        snubber = suggestSnubber(
-          { L: extraction.L, C: extraction.C, R: extraction.R, characteristicImpedance: extraction.characteristicImpedance },
-          { voltage, switchingFrequency },
-        );
-      } catch (error) {
-        snubberError = plainMessage(error);
-      }
-      this.state.extraction = { extraction, snubber, snubberError, frequencies };
+      this.state.extraction = await extractFromCaptures(this.client, rows, settings, (stage) => this.progress(stage));
     } catch (error) {
-      this.state.extractionError = plainMessage(error);
+      this.state.extractionError = error instanceof FitCancelled ? 'stopped: another capture was opened; extract again' : plainMessage(error);
     } finally {
       this.progress(null);
     }
@@ -443,8 +404,4 @@ function correlationOf(fit: ResponseFit): number | undefined {
   const i = c.names.indexOf('alpha');
   const j = c.names.indexOf('omega0');
   return i < 0 || j < 0 ? undefined : c.matrix[i][j];
-}
-
-function parsePositiveOrZero(text: string, unit: string, what: string): number {
-  return /^\s*0+(\.0*)?\s*[a-zA-Zµ]*\s*$/.test(text) ? 0 : parsePositive(text, unit, what);
 }

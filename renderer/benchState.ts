@@ -46,6 +46,8 @@ export interface LoadedDesign {
   path: string;
   text: string;
   sha256: string;
+  /** A sample's own design goes with its sample; one the user opened or edited stays across captures. */
+  origin: 'sample' | 'user';
 }
 
 export interface ExtractionState {
@@ -63,6 +65,8 @@ export interface BenchState {
   trace: TraceData | null;
   fit: ResponseFit | null;
   summary: FitSummary | null;
+  /** Fits completed since the window opened (lets a watcher see that a refit has landed). */
+  fitCount: number;
   /** Why there is no fit for the capture shown, in plain words. */
   fitError: string | null;
   /** Event time found by the automatic fit: where the design's prediction is placed (a typed window moves t0). */
@@ -97,6 +101,7 @@ export function initialState(face: 'window' | 'browser'): BenchState {
     trace: null,
     fit: null,
     summary: null,
+    fitCount: 0,
     fitError: null,
     eventTime: null,
     userWindow: {},

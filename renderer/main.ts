@@ -76,8 +76,8 @@ function boot(): void {
         'div',
         { class: 'primary-column' },
         h('section', { class: 'card plot-card', attrs: { 'aria-label': 'Plot' } }, plotRoot, legend),
-        h('div', { class: 'pair' }, capture.root, fit.root),
-        h('div', { class: 'pair' }, components.root, design.root),
+        h('div', { class: 'pair' }, h('div', { class: 'stack' }, capture.root, components.root), fit.root),
+        design.root,
       ),
       h('div', { class: 'side-column' }, cautions.root, log.root, parasitic.root),
     ),
@@ -96,6 +96,12 @@ function boot(): void {
   bridge.onCaptureOpened((opened) => void controller.openCapture(opened, {}));
   if (bridge.face === 'browser') installShortcuts(commands);
   installFileDrop(document.body, (file) => void controller.openDropped(file));
+  // A last net: whatever slips through is shown in words, never left as a blank or a stack.
+  window.addEventListener('unhandledrejection', (event) => {
+    event.preventDefault();
+    state.error = plainMessage(event.reason);
+    render();
+  });
   new ResizeObserver(() => void plot.redraw()).observe(plotRoot);
   void controller.start();
 }

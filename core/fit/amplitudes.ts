@@ -108,11 +108,12 @@ export function solveAmplitudes(
   omega0: number,
   t0: number,
   workspace: Workspace = new Workspace(time.length),
+  blockWidth = 0,
 ): LinearSolution {
   const k = LAYOUT_NAMES[layout].length - nonlinearCount(layout);
   const n = time.length;
   const { ec, es, model } = workspace;
-  fillDampedBasis(alpha, omega0, t0, time, ec, es);
+  fillDampedBasis(alpha, omega0, t0, time, ec, es, blockWidth);
   const m = new Float64Array(k * k);
   const r = new Float64Array(k);
   const g = new Float64Array(k);

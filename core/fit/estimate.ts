@@ -121,7 +121,7 @@ function crossingEstimate(values: ArrayLike<number>, start: number, end: number,
 export function rateCandidates(values: ArrayLike<number>, start: number, end: number, dt: number): RateCandidate[] {
   const out: RateCandidate[] = [];
   const points = 120;
-  for (let size = 1; size === 1 || (end - start) / size >= 40; size *= 2) {
+  for (let size = 1; size === 1 || (end - start) / size >= 40; size *= 4) {
     const y = blockMeans(values, start, end, size, points);
     if (y.length < 12) break;
     const blockDt = dt * size;

@@ -134,7 +134,7 @@ function rankCandidates(set: FitSet, layout: ParameterLayout, candidates: RateCa
     }
   }
   const scored = expanded
-    .map((c) => ({ c, sse: solveAmplitudes(layout, time, values, c.alpha, c.omega0, t0, workspace).sse }))
+    .map((c) => ({ c, sse: solveAmplitudes(layout, time, values, c.alpha, c.omega0, t0, workspace, set.blockWidth).sse }))
     .filter((s) => Number.isFinite(s.sse))
     .sort((x, y) => x.sse - y.sse);
   const distinct: RateCandidate[] = [];
@@ -164,7 +164,7 @@ function refine(set: FitSet, layout: ParameterLayout, start: RateCandidate, t0St
     const hit = cache.find((entry) => entry.key === u);
     if (hit) return hit.model;
     const [alpha, omega0, t0 = t0Start] = toPhysical(u);
-    solveAmplitudes(layout, set.time, set.values, alpha, omega0, t0, workspace);
+    solveAmplitudes(layout, set.time, set.values, alpha, omega0, t0, workspace, set.blockWidth);
     const entry = cache.length < 4 ? { key: u, model: new Float64Array(set.time.length) } : (cache.pop() as (typeof cache)[0]);
     entry.key = u;
     entry.model.set(workspace.model);
@@ -181,7 +181,7 @@ function refine(set: FitSet, layout: ParameterLayout, start: RateCandidate, t0St
   const result = fitCurve(model, { x: indices, y: set.values }, initial, { min, maxIterations: MAX_ITERATIONS });
   const nonlinear = toPhysical(result.parameters.map((p) => p.value));
   const [alpha, omega0, t0 = t0Start] = nonlinear;
-  const linear = solveAmplitudes(layout, set.time, set.values, alpha, omega0, t0, workspace);
+  const linear = solveAmplitudes(layout, set.time, set.values, alpha, omega0, t0, workspace, set.blockWidth);
   return {
     layout,
     values: [...nonlinear, ...linear.coefficients],

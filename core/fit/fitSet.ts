@@ -15,13 +15,15 @@ export interface FitSet {
   samplesUsed: number;
   window: { start: number; end: number };
   decimation: { factor: number; note: string } | null;
+  /** Width of the blocks the values are means over, s (0 when not decimated): the model is averaged alike. */
+  blockWidth: number;
   warnings: string[];
 }
 
 /** Above this many samples the fit runs on block means (the poles of a damped exponential survive averaging). */
 export const MAX_FIT_POINTS = 8000;
 /** A block spans at most this fraction of the shortest period the sampling could carry. */
-const BLOCK_PER_PERIOD = 1 / 16;
+const BLOCK_PER_PERIOD = 1 / 8;
 
 export function prepareFitSet(trace: Trace, window: { start?: number; end?: number }): FitSet {
   const { time, values, clipped } = trace;
@@ -29,21 +31,24 @@ export function prepareFitSet(trace: Trace, window: { start?: number; end?: numb
   const start = window.start ?? -Infinity;
   const end = window.end ?? Infinity;
   if (start >= end) throw new FitInputError('window', `the fit window starts (${start} s) at or after its end (${end} s)`);
-  const keep: number[] = [];
+  // Two passes over the trace (count, then copy) so that a long record is never held as a list of indices.
+  const usable = (i: number) => time[i] >= start && time[i] <= end && Number.isFinite(values[i]) && Number.isFinite(time[i]);
+  let count = 0;
   let clippedCount = 0;
   for (let i = 0; i < time.length; i++) {
-    if (time[i] < start || time[i] > end) continue;
-    if (!Number.isFinite(values[i]) || !Number.isFinite(time[i])) continue;
-    if (clipped && clipped[i]) {
-      clippedCount++;
-      continue;
-    }
-    keep.push(i);
+    if (!usable(i)) continue;
+    if (clipped && clipped[i]) clippedCount++;
+    else count++;
+  }
+  let t: Float64Array = new Float64Array(count);
+  let y: Float64Array = new Float64Array(count);
+  for (let i = 0, j = 0; i < time.length; i++) {
+    if (!usable(i) || (clipped && clipped[i])) continue;
+    t[j] = time[i];
+    y[j++] = values[i];
   }
   const warnings: string[] = [];
   if (clippedCount > 0) warnings.push(`${clippedCount} clipped samples were left out of the fit`);
-  let t: Float64Array = Float64Array.from(keep, (i) => time[i]);
-  let y: Float64Array = Float64Array.from(keep, (i) => values[i]);
   const spacing: number[] = [];
   const stride = Math.max(1, Math.floor(t.length / 5000));
   for (let i = stride; i < t.length; i += stride) spacing.push(t[i] - t[i - 1]);
@@ -57,7 +62,7 @@ export function prepareFitSet(trace: Trace, window: { start?: number; end?: numb
       [t, y] = blockAverage(t, y, factor);
       decimation = {
         factor,
-        note: `fitted on means of ${factor} consecutive samples (${t.length} points); each block is under 1/16 of the ring period, so alpha and omega0 are unchanged by the averaging`,
+        note: `fitted on means of ${factor} consecutive samples (${t.length} points), each block at most 1/8 of the ring period, against the model averaged over the same blocks`,
       };
     }
   }
@@ -75,6 +80,7 @@ export function prepareFitSet(trace: Trace, window: { start?: number; end?: numb
     samplesUsed: used,
     window: { start: t.length ? t[0] : NaN, end: t.length ? t[t.length - 1] : NaN },
     decimation,
+    blockWidth: decimation ? dt * decimation.factor : 0,
     warnings,
   };
 }

@@ -1,7 +1,7 @@
 // Covariance of the response parameters: Jacobian at the solution, widened for correlated residuals.
 
 import { covarianceFromJacobian } from './covariance';
-import { LAYOUT_NAMES, layoutValue, type ParameterLayout } from './responseModel';
+import { LAYOUT_NAMES, layoutValues, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
 
 export interface ResponseCovariance {
@@ -26,9 +26,9 @@ function responseJacobian(set: FitSet, layout: ParameterLayout, values: readonly
     const lo = [...values];
     hi[j] += h;
     lo[j] -= h;
-    for (let i = 0; i < n; i++) {
-      rows[i][j] = (layoutValue(layout, hi, t0Fixed, set.time[i]) - layoutValue(layout, lo, t0Fixed, set.time[i])) / (2 * h);
-    }
+    const up = layoutValues(layout, hi, t0Fixed, set.time, set.blockWidth);
+    const down = layoutValues(layout, lo, t0Fixed, set.time, set.blockWidth);
+    for (let i = 0; i < n; i++) rows[i][j] = (up[i] - down[i]) / (2 * h);
   }
   return rows;
 }
@@ -65,8 +65,8 @@ export function responseCovariance(
   residualVariance: number,
 ): ResponseCovariance {
   const names = LAYOUT_NAMES[layout];
-  const residuals = new Float64Array(set.time.length);
-  for (let i = 0; i < residuals.length; i++) residuals[i] = set.values[i] - layoutValue(layout, values, t0Fixed, set.time[i]);
+  const model = layoutValues(layout, values, t0Fixed, set.time, set.blockWidth);
+  const residuals = set.values.map((y, i) => y - model[i]);
   const inflation = varianceInflation(residuals);
   const estimate = covarianceFromJacobian(responseJacobian(set, layout, values, t0Fixed), residualVariance * inflation, 1e-12, names);
   const warnings = [...estimate.warnings];

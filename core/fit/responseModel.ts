@@ -1,6 +1,6 @@
 // The constraint layouts of the response model: which parameters are free, and the basis of its linear part.
 
-import { dampedBasis, type ResponseParams } from '../response/secondOrder';
+import { fillDampedBasis, type ResponseParams } from '../response/secondOrder';
 
 /**
  * 'smooth': continuous at t0 with zero initial slope (a capacitor voltage or inductor current that
@@ -42,10 +42,19 @@ export function unpackParams(layout: ParameterLayout, v: readonly number[], fixe
   }
 }
 
-/** Model value at t for the full parameter vector v of a layout. */
-export function layoutValue(layout: ParameterLayout, v: readonly number[], fixedT0: number, t: number): number {
+/** Model values over a time axis for the full parameter vector v; block means when blockWidth > 0. */
+export function layoutValues(
+  layout: ParameterLayout,
+  v: readonly number[],
+  fixedT0: number,
+  time: ArrayLike<number>,
+  blockWidth = 0,
+): Float64Array {
   const p = unpackParams(layout, v, fixedT0);
-  if (t < p.t0) return p.yPre;
-  const [ec, es] = dampedBasis(p.alpha, p.omega0, t - p.t0);
-  return p.yFinal + p.a * ec + p.b * es;
+  const ec = new Float64Array(time.length);
+  const es = new Float64Array(time.length);
+  fillDampedBasis(p.alpha, p.omega0, p.t0, time, ec, es, blockWidth);
+  const y = new Float64Array(time.length);
+  for (let i = 0; i < time.length; i++) y[i] = time[i] < p.t0 ? p.yPre : p.yFinal + p.a * ec[i] + p.b * es[i];
+  return y;
 }

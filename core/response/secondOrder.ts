@@ -65,6 +65,7 @@ export function fillDampedBasis(
   time: ArrayLike<number>,
   ec: Float64Array,
   es: Float64Array,
+  blockWidth = 0,
 ): void {
   const q = omega0 * omega0 - alpha * alpha;
   const w = Math.sqrt(Math.abs(q));
@@ -90,6 +91,60 @@ export function fillDampedBasis(
       ec[i] = (slow + fast) / 2;
       es[i] = (slow - fast) / (2 * w);
     }
+  }
+  if (blockWidth > 0) averageOverBlocks(alpha, omega0, t0, time, ec, es, blockWidth);
+}
+
+/**
+ * Turns point values of the basis into means over a block of width h centred on each sample (what a
+ * record averaged in blocks holds). Averaging e^(s tau) gives e^(s tau) G(s), G(s) = sinh(s h/2)/(s h/2);
+ * with the poles s1, s2 of the circuit, Gm = (G(s1) + G(s2)) / 2 and D = (G(s1) - G(s2)) / (s1 - s2)
+ * are real in every regime and smooth through critical damping, and
+ *   mean(ec) = Gm ec - D q es,   mean(es) = Gm es + D ec   (q = omega0^2 - alpha^2).
+ * Gm and D come from G's power series and the power sums of the poles (recurrences in s1 + s2 = -2 alpha
+ * and s1 s2 = omega0^2). Samples whose block reaches back past t0 keep their point values.
+ */
+function averageOverBlocks(
+  alpha: number,
+  omega0: number,
+  t0: number,
+  time: ArrayLike<number>,
+  ec: Float64Array,
+  es: Float64Array,
+  h: number,
+): void {
+  const sum = -2 * alpha;
+  const product = omega0 * omega0;
+  let pPrev = 2; // s1^0 + s2^0
+  let p = sum; // s1 + s2
+  let uPrev = 0; // (s1^0 - s2^0) / (s1 - s2)
+  let u = 1;
+  let gm = 1;
+  let d = 0;
+  let coefficient = 1;
+  const half2 = (h / 2) * (h / 2);
+  for (let k = 1; k <= 40; k++) {
+    // Advance the power sums by two orders: index 2k-1 -> 2k and 2k -> 2k+1.
+    const p2 = sum * p - product * pPrev;
+    const u2 = sum * u - product * uPrev;
+    coefficient *= half2 / ((2 * k) * (2 * k + 1));
+    const termG = (coefficient * p2) / 2;
+    const termD = coefficient * u2;
+    gm += termG;
+    d += termD;
+    pPrev = p2;
+    p = sum * p2 - product * p;
+    uPrev = u2;
+    u = sum * u2 - product * u;
+    if (Math.abs(termG) < 1e-16 * Math.abs(gm) && Math.abs(termD) < 1e-16 * Math.abs(d) + 1e-300) break;
+  }
+  const q = product - alpha * alpha;
+  for (let i = 0; i < time.length; i++) {
+    if (time[i] - t0 < h / 2) continue;
+    const c = ec[i];
+    const s = es[i];
+    ec[i] = gm * c - d * q * s;
+    es[i] = gm * s + d * c;
   }
 }
 

@@ -55,7 +55,7 @@ export function createBenchLogPanel(controller: BenchController) {
     const records = [...log.records].reverse().slice(0, SHOWN);
     replaceChildren(
       list,
-      h('p', { class: 'fineprint', id: 'log-path' }, `${log.records.length} measurement${log.records.length === 1 ? '' : 's'} in ${log.path}`),
+      h('p', { class: 'fineprint', id: 'log-path', title: log.path }, `${log.records.length} measurement${log.records.length === 1 ? '' : 's'} in ${log.path.split(/[\\/]/).pop()}`),
       ...log.notes.map((n) => h('p', { class: 'warning-text small' }, n)),
       records.length
         ? h(

@@ -39,6 +39,7 @@ export function createFitPanel(controller: BenchController) {
 
   function render(state: BenchState): void {
     const { fit, fitError } = state;
+    root.dataset.fitCount = String(state.fitCount);
     if (!fit) {
       replaceChildren(status, fitError ? h('p', { class: 'error-text' }, fitError) : h('p', { class: 'muted' }, state.capture ? 'Fitting…' : 'Open a capture to fit it.'));
       table.replaceChildren();

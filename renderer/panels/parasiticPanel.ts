@@ -2,7 +2,7 @@
 // starting point that is to be verified on the bench.
 
 import { button, card, field, h, replaceChildren, textInput } from '../dom';
-import { quantityRow, showQuantity, showValue } from '../show';
+import { quantityRow, showCompact, showValue } from '../show';
 import { formatEngineering } from '../../core/units/format';
 import type { BenchState } from '../benchState';
 import type { BenchController, ExtractionRow } from '../benchController';
@@ -41,7 +41,12 @@ export function createParasiticPanel(controller: BenchController) {
       rows.splice(rows.indexOf(controls), 1);
       controls.element.remove();
     }, { class: 'icon', title: 'Remove this capture', attrs: { 'aria-label': 'Remove this capture' } });
-    controls.element = h('div', { class: 'extraction-row' }, name, choose, field('added C (F)', added), field('± %', tol), remove);
+    controls.element = h(
+      'div',
+      { class: 'extraction-row' },
+      h('div', { class: 'row-head' }, name, choose, remove),
+      h('div', { class: 'row-values' }, field('added C (F)', added), field('± %', tol)),
+    );
     rows.push(controls);
     list.append(controls.element);
   }
@@ -91,7 +96,12 @@ export function createParasiticPanel(controller: BenchController) {
     const { extraction, snubber, snubberError, frequencies } = done;
     replaceChildren(
       results,
-      h('table', { class: 'mini' }, h('tbody', {}, ...frequencies.map((f) => h('tr', {}, h('td', {}, f.name), h('td', { class: 'number' }, `+${showValue(f.addedC, 'F')}`), h('td', { class: 'number' }, showQuantity(f.f0)))))),
+      h(
+        'table',
+        { class: 'mini' },
+        h('thead', {}, h('tr', {}, h('th', {}, 'Capture'), h('th', { class: 'number' }, 'added'), h('th', { class: 'number' }, 'f₀'))),
+        h('tbody', {}, ...frequencies.map((f) => h('tr', {}, h('td', { class: 'clip', title: f.name }, f.name), h('td', { class: 'number' }, showValue(f.addedC, 'F')), h('td', { class: 'number' }, showCompact(f.f0))))),
+      ),
       h(
         'table',
         { class: 'results', id: 'parasitic-results' },

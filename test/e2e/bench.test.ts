@@ -79,6 +79,19 @@ async function compareFit(page: Page, cli: Record<string, any>): Promise<void> {
   }
 }
 
+async function fitCount(page: Page): Promise<number> {
+  return Number(await page.locator('#fit-panel').getAttribute('data-fit-count'));
+}
+
+/** Wait until a fit after the `before`-th has been shown and the bench is idle again. */
+async function waitForRefit(page: Page, before: number): Promise<void> {
+  await page.waitForFunction(
+    (n) => Number(document.querySelector('#fit-panel')?.getAttribute('data-fit-count')) > n && document.querySelector('#progress')?.textContent === '',
+    before,
+    { timeout: 90_000 },
+  );
+}
+
 async function openThroughInput(page: Page, path: string): Promise<void> {
   const chooser = page.waitForEvent('filechooser');
   await page.click('#open-capture');
@@ -178,8 +191,9 @@ describe.skipIf(!hasChromium)('the bench in a browser', () => {
       else await openThroughInput(page, path);
       await waitForFit(page, capture.file);
       if ((await page.locator('#channel-select').count()) > 0) {
+        const fits = await fitCount(page);
         await page.selectOption('#channel-select', { label: `${capture.channel} (${capture.unit})` });
-        await page.waitForFunction(() => document.querySelector('#progress')?.textContent === '' && document.querySelector('#fit-state') !== null, undefined, { timeout: 90_000 });
+        await waitForRefit(page, fits);
       }
       await compareFit(page, await cli.get(capture.file)!);
       expect(await plotInk(browser, page, `plot-${capture.file.replace('.csv', '')}`)).toBeGreaterThan(0.02);
@@ -196,7 +210,8 @@ describe.skipIf(!hasChromium)('the bench in a browser', () => {
     await page.press('#known-value', 'Tab');
     await page.fill('#known-tolerance', '5');
     await page.press('#known-tolerance', 'Tab');
-    await page.waitForSelector('#components-results tr[data-quantity="L"]');
+    // Rendered on the next frame: wait for the known C of 220 nF to show.
+    await page.waitForFunction(() => Number(document.querySelector('#components-results tr[data-quantity="C"]')?.getAttribute('data-value')) === 220e-9);
     const expected = (await cli.get('components')!).components;
     for (const name of ['R', 'L', 'C']) {
       const q = await shown(page, '#components-results', name);
@@ -267,15 +282,17 @@ describe.skipIf(!hasChromium)('the bench in a browser', () => {
   it('refits when the window is typed, as the command line does with --from and --to', async () => {
     await page.selectOption('#sample-select', 'input-filter-step');
     await waitForFit(page, 'input-filter-step.csv');
+    const fits = await fitCount(page);
     await page.fill('#window-start', '50u');
     await page.fill('#window-end', '600u');
     await page.click('#apply-window');
-    await page.waitForFunction(() => document.querySelector('#progress')?.textContent === '' && (document.querySelector('#window-start') as HTMLInputElement).value.startsWith('50'), undefined, { timeout: 90_000 });
+    await waitForRefit(page, fits);
     await compareFit(page, await cli.get('window')!);
   });
 
   it('refits when the window edge is dragged on the plot', async () => {
     const before = await page.locator('#window-start').inputValue();
+    const fits = await fitCount(page);
     await page.locator('#fit-plot').scrollIntoViewIfNeeded();
     // The window's left edge: the first thin vertical line of the shape layer.
     const paths = page.locator('#fit-plot .shapelayer path');
@@ -290,7 +307,8 @@ describe.skipIf(!hasChromium)('the bench in a browser', () => {
     await page.mouse.down();
     await page.mouse.move(x + width / 2 + 60, y + height / 2, { steps: 10 });
     await page.mouse.up();
-    await page.waitForFunction((old) => (document.querySelector('#window-start') as HTMLInputElement).value !== old && document.querySelector('#progress')?.textContent === '', before, { timeout: 90_000 });
+    await waitForRefit(page, fits);
+    expect(await page.locator('#window-start').inputValue()).not.toBe(before);
     expect(await page.locator('#fit-state').getAttribute('data-status')).not.toBeNull();
   });
 

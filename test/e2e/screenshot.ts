@@ -15,7 +15,7 @@ async function main(): Promise<void> {
   const bench = await serveBench(join(folder, 'bench-log.jsonl'), folder);
   const browser = await launchChromium();
   try {
-    const page = await browser.newPage({ viewport: { width: 1600, height: 1000 }, deviceScaleFactor: 1 });
+    const page = await browser.newPage({ viewport: { width: 1600, height: 1320 }, deviceScaleFactor: 1 });
     await page.goto(bench.url);
     await waitForFit(page, 'input-filter-step.csv');
     await page.waitForSelector('#verdict-overall');

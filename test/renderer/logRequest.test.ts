@@ -54,10 +54,18 @@ describe('buildLogRequest', () => {
     expect(record).toMatchObject({ unit: 'FILTER-1', operator: null, note: 'first article', capture: { path: 'input-filter-step.csv' } });
   });
 
+  it.each([
+    ['a line break', 'A\nB', /unit must not contain line breaks/],
+    ['more than 100 characters', 'x'.repeat(101), /unit must be at most 100 characters/],
+  ])('main refuses a unit with %s, as the command line does', (_name, unit, message) => {
+    const request = buildLogRequest(fittedState(), { unit: 'ok', operator: '', note: '' });
+    expect(() => recordFromRequest({ ...request, unit }, new Date())).toThrow(message);
+  });
+
   it('carries the design and its verdict', () => {
     const state = fittedState();
     const text = readFileSync(join(samples, 'designs', 'input-filter-step.json'), 'utf8');
-    state.design = { design: parseDesign(text), name: 'input-filter-step.json', path: 'sample-captures/designs/input-filter-step.json', text, sha256: 'c'.repeat(64) };
+    state.design = { design: parseDesign(text), name: 'input-filter-step.json', path: 'sample-captures/designs/input-filter-step.json', text, sha256: 'c'.repeat(64), origin: 'sample' };
     const request = buildLogRequest(state, { unit: 'F2', operator: 'me', note: '' });
     expect(request.design?.spec.name).toBe(state.design.design.name);
     expect(benchLogRequestProblem(JSON.parse(JSON.stringify(request)))).toBeNull();

@@ -26,7 +26,7 @@ export function registerServeCommand(program: Command, ctx: CommandContext): voi
     .description('serve the bench to a browser on this machine (127.0.0.1 only) and print its address')
     .option('--port <n>', 'port to listen on (default: any free port)')
     .option('--no-open', 'do not open the address in a browser')
-    .option('--log <file>', 'bench log file (JSON Lines)', 'bench-log.jsonl')
+    .option('--log <path>', 'bench log file (JSON Lines; its folder must exist)', 'bench-log.jsonl')
     .action(async (options: ServeCommandOptions) => {
       const server = await startServing({
         projectRoot: findProjectRoot(import.meta.url),

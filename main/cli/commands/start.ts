@@ -17,7 +17,7 @@ export function registerStartCommand(program: Command, ctx: CommandContext): voi
     .description('open the desktop window; without an Electron runtime or a display, serve the bench to a browser')
     .option('--port <n>', 'port for the browser bench (default: any free port)')
     .option('--no-open', 'do not open the browser bench in a browser')
-    .option('--log <file>', 'bench log file of the browser bench (JSON Lines)', 'bench-log.jsonl')
+    .option('--log <path>', 'bench log file of the browser bench (JSON Lines; its folder must exist)', 'bench-log.jsonl')
     .action(async (options: { port?: string; open: boolean; log: string }) => {
       const projectRoot = findProjectRoot(import.meta.url);
       const display = hasDisplay();
