@@ -27,7 +27,8 @@ export interface Bound {
 function jacobian(layout: ParameterLayout, values: readonly number[], t0Fixed: number, time: ArrayLike<number>): Float64Array[] {
   const names = LAYOUT_NAMES[layout];
   const rate = values[1];
-  const span = Math.max(...values.slice(2).map(Math.abs), 1e-12);
+  // Size of the levels: the step floor for the linear parameters (exact for them at any step).
+  const span = Math.max(...values.filter((_, j) => names[j].startsWith('y') || names[j] === 'a').map(Math.abs), 1e-12);
   const rows = Array.from({ length: time.length }, () => new Float64Array(values.length));
   for (let j = 0; j < values.length; j++) {
     const floor = names[j] === 't0' ? 1 / rate : names[j] === 'b' ? span * rate : names[j].startsWith('y') || names[j] === 'a' ? span : rate;

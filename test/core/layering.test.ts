@@ -61,6 +61,14 @@ describe('layer boundaries', () => {
     expect(users).toEqual([]);
   });
 
+  it('core/ reaches for no host globals (process, console)', () => {
+    const offences = sources(path.join(ROOT, 'core')).flatMap((file) => {
+      const code = readFileSync(file, 'utf8').replace(/\/\*[\s\S]*?\*\//g, '').replace(/\/\/.*$/gm, '');
+      return [...code.matchAll(/(?<![.\w])(process|console)\s*\./g)].map((m) => `${path.relative(ROOT, file)}: ${m[1]}`);
+    });
+    expect(offences).toEqual([]);
+  });
+
   it('the rule itself catches a forbidden import', () => {
     const probe = { layer: 'core', packages: RULES[0].packages, folders: RULES[0].folders };
     expect(probe.packages.test('node:fs')).toBe(false);
