@@ -1,11 +1,15 @@
 #!/usr/bin/env node
-// Launcher for the built command line (npm install builds dist/ through the prepare script).
+// Launcher for the command line: builds dist/ on first use (npm ci runs no install scripts), then runs it.
 import { existsSync } from 'node:fs';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
 const built = fileURLToPath(new URL('../dist/cli.js', import.meta.url));
 if (!existsSync(built)) {
-  process.stderr.write('ringbench: the command line is not built yet; run `npm run build` in the repository first\n');
-  process.exit(2);
+  try {
+    await import(pathToFileURL(fileURLToPath(new URL('../build/build.mjs', import.meta.url))).href);
+  } catch (error) {
+    process.stderr.write(`ringbench: could not build the command line (${error.message}); run \`npm ci\` in the repository first\n`);
+    process.exit(2);
+  }
 }
 await import(pathToFileURL(built).href);

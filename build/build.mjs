@@ -2,9 +2,15 @@
 // and the Electron main process and preload.
 import { build, transform } from 'esbuild';
 import { copyFileSync, existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 
-const common = { bundle: true, sourcemap: true, logLevel: 'warning' };
-const PLOTLY = 'node_modules/plotly.js-dist/plotly.js';
+// Paths are taken from the repository root, so the build runs from any working folder.
+const root = fileURLToPath(new URL('..', import.meta.url));
+const at = (path) => join(root, path);
+
+const common = { bundle: true, sourcemap: true, logLevel: 'warning', absWorkingDir: root };
+const PLOTLY = at('node_modules/plotly.js-dist/plotly.js');
 
 await Promise.all([
   build({
@@ -49,14 +55,14 @@ await Promise.all([
 
 /** The page, its styles, and plotly as its own script file (minified once, then kept while unchanged). */
 async function copyStatic() {
-  mkdirSync('dist/renderer', { recursive: true });
-  copyFileSync('renderer/styles.css', 'dist/renderer/styles.css');
-  copyFileSync('renderer/icon.svg', 'dist/renderer/icon.svg');
+  mkdirSync(at('dist/renderer'), { recursive: true });
+  copyFileSync(at('renderer/styles.css'), at('dist/renderer/styles.css'));
+  copyFileSync(at('renderer/icon.svg'), at('dist/renderer/icon.svg'));
   const source = readFileSync(PLOTLY, 'utf8');
   const { css, placeholders } = plotlyStyles(source);
-  writeFileSync('dist/renderer/plotly-base.css', css);
-  writeFileSync('dist/renderer/index.html', readFileSync('renderer/index.html', 'utf8').replace('<!-- plotly styles: written by build/build.mjs -->', placeholders));
-  const target = 'dist/renderer/plotly.min.js';
+  writeFileSync(at('dist/renderer/plotly-base.css'), css);
+  writeFileSync(at('dist/renderer/index.html'), readFileSync(at('renderer/index.html'), 'utf8').replace('<!-- plotly styles: written by build/build.mjs -->', placeholders));
+  const target = at('dist/renderer/plotly.min.js');
   if (!existsSync(target) || statSync(target).mtimeMs < statSync(PLOTLY).mtimeMs) {
     const { code } = await transform(source, { minify: true, target: 'chrome120' });
     writeFileSync(target, code);

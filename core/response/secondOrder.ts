@@ -29,34 +29,22 @@ export interface ResponseParams {
 /** Below this |q tau^2| the power series is used instead of the trig/hyperbolic form. */
 const SERIES_LIMIT = 1e-2;
 
-/**
- * e^(-alpha tau) C(tau) and e^(-alpha tau) S(tau) for one tau >= 0, written so that a heavily
- * overdamped response neither overflows nor cancels (the cosh and sinh are split into the two poles).
- */
+const oneTau = new Float64Array(1);
+const oneC = new Float64Array(1);
+const oneS = new Float64Array(1);
+
+/** e^(-alpha tau) C(tau) and e^(-alpha tau) S(tau) for one tau >= 0 (see fillDampedBasis). */
 export function dampedBasis(alpha: number, omega0: number, tau: number): [number, number] {
-  const q = omega0 * omega0 - alpha * alpha;
-  const x = q * tau * tau;
-  if (Math.abs(x) < SERIES_LIMIT) {
-    // Series to order x^4: error below (1e-2)^5 / 10! relative.
-    const c = 1 - x / 2 + (x * x) / 24 - (x * x * x) / 720 + (x * x * x * x) / 40320;
-    const s = tau * (1 - x / 6 + (x * x) / 120 - (x * x * x) / 5040 + (x * x * x * x) / 362880);
-    const e = Math.exp(-alpha * tau);
-    return [e * c, e * s];
-  }
-  if (q > 0) {
-    const w = Math.sqrt(q);
-    const e = Math.exp(-alpha * tau);
-    return [e * Math.cos(w * tau), (e * Math.sin(w * tau)) / w];
-  }
-  const beta = Math.sqrt(-q);
-  const slow = Math.exp((beta - alpha) * tau);
-  const fast = Math.exp(-(alpha + beta) * tau);
-  return [(slow + fast) / 2, (slow - fast) / (2 * beta)];
+  oneTau[0] = tau;
+  fillDampedBasis(alpha, omega0, 0, oneTau, oneC, oneS);
+  return [oneC[0], oneS[0]];
 }
 
 /**
  * e^(-alpha tau) C(tau) and e^(-alpha tau) S(tau) over a whole time axis (tau = t - t0; zero before t0),
- * without allocating per sample: the hot loop of every fit.
+ * without allocating per sample: the hot loop of every fit. A heavily overdamped response neither
+ * overflows nor cancels: cosh and sinh are split into the two poles. With blockWidth > 0, the means
+ * over blocks of that width centred on each sample.
  */
 export function fillDampedBasis(
   alpha: number,

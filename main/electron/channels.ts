@@ -1,102 +1,9 @@
-// The bench API shared by the preload, the Electron main process and the local server: its types,
-// its one list of channels, and the events the main process sends to the window.
+// The Electron side of the bench API: the shell calls, the one list of IPC channels, the events main
+// sends to the window, and what the preload exposes. The shared calls and types live in core/bench.
 
-import type { BenchRecord, LoggedCautions, MeasurementSettings } from '../../core/report/benchRecord';
-import type { FitSummary } from '../../core/report/fitSummary';
-import type { Verdict } from '../../core/circuit/verdict';
-import type { Design } from '../../core/circuit/design';
+import type { BenchApi, MenuCommand, NamedText, OpenedCapture, SaveRequest, ApiResult } from '../../core/bench/benchApiTypes';
 
-/** What crosses IPC and HTTP: a value or a plain message, never a thrown stack. */
-export type ApiResult<T> = { ok: true; value: T } | { ok: false; error: string; code?: ApiErrorCode };
-export type ApiErrorCode = 'unknown-method' | 'bad-argument' | 'failed';
-
-/** A bundled sample capture, as the manifest states it. */
-export interface SampleEntry {
-  id: string;
-  title: string;
-  description: string;
-  /** File name inside sample-captures/. */
-  file: string;
-  /** Id of its design in sample-captures/designs/, or null. */
-  designId: string | null;
-  /** Options the sample needs to be read or fitted (as the command line would take them). */
-  options: SampleOptions;
-  /** Member of an added-capacitor set: the set's name and the capacitance added, F. */
-  addedCapacitor: { group: string; added: number } | null;
-}
-
-export interface SampleOptions {
-  column?: string;
-  sampleInterval?: string;
-  from?: string;
-  to?: string;
-  topology?: string;
-  known?: string;
-}
-
-export interface NamedText {
-  name: string;
-  text: string;
-}
-
-/** A capture's text with where it came from: a path the user granted, a sample, or neither. */
-export interface OpenedCapture extends NamedText {
-  /** Absolute path (window) or the sample's path in the repository; null for a browser upload. */
-  path: string | null;
-  sampleId: string | null;
-}
-
-export interface OpenedSample extends OpenedCapture {
-  sample: SampleEntry;
-  design: NamedText | null;
-}
-
-export interface DesignEntry {
-  id: string;
-  name: string;
-}
-
-/** One measurement to log, as the window computed it; main adds the id, time and software. */
-export interface BenchLogRequest {
-  unit: string;
-  operator: string | null;
-  note: string | null;
-  capture: { path: string; sha256: string; bytes: number; channel: string };
-  settings: MeasurementSettings;
-  fit: FitSummary;
-  verdict: Verdict | null;
-  design: { path: string; name: string; sha256: string; spec: Design } | null;
-  cautions: LoggedCautions;
-}
-
-export interface BenchLogView {
-  /** Where the log lives, for the window to show. */
-  path: string;
-  records: BenchRecord[];
-  /** Plain notes: a cut-off last line, lines that are not records. */
-  notes: string[];
-}
-
-/** A file the window asks to save through a dialog. */
-export interface SaveRequest {
-  suggestedName: string;
-  content: string;
-  encoding: 'utf8' | 'base64';
-}
-
-/** Served by main to both faces: over IPC in the window and over HTTP to the browser bench. */
-export interface BenchApi {
-  listSamples(): Promise<SampleEntry[]>;
-  readSample(id: string): Promise<OpenedSample>;
-  listDesigns(): Promise<DesignEntry[]>;
-  readDesign(id: string): Promise<NamedText>;
-  readBenchLog(): Promise<BenchLogView>;
-  appendBenchLog(request: BenchLogRequest): Promise<BenchLogView>;
-  /** The bench log as a report (the same as `ringbench report`), to be saved by the window. */
-  renderReport(format: ReportFormat): Promise<NamedText>;
-}
-
-export type ReportFormat = 'html' | 'md' | 'csv';
+export * from '../../core/bench/benchApiTypes';
 
 /** The window only: native dialogs, and paths the user granted through them or by dropping a file. */
 export interface ShellApi {
@@ -126,8 +33,6 @@ export const CHANNELS = {
   saveFileDialog: 'shell:save-file',
 } as const satisfies Record<ApiMethod, string>;
 
-/** The calls the HTTP server also answers (the shell calls need the window's dialogs). */
-export const BENCH_METHODS = ['listSamples', 'readSample', 'listDesigns', 'readDesign', 'readBenchLog', 'appendBenchLog', 'renderReport'] as const satisfies readonly BenchMethod[];
 
 /** Messages from main to the window. */
 export const EVENTS = {
@@ -137,8 +42,6 @@ export const EVENTS = {
   captureOpened: 'event:capture-opened',
 } as const;
 
-export const MENU_COMMANDS = ['open-capture', 'open-design', 'save-report', 'export-png', 'export-svg', 'toggle-theme'] as const;
-export type MenuCommand = (typeof MENU_COMMANDS)[number];
 
 /** What the preload exposes to the page as `window.ringbench`: every call returns an ApiResult. */
 export type ExposedApi = {
