@@ -21,7 +21,7 @@ export interface FitSet {
 }
 
 /** Above this many samples the fit runs on block means (the poles of a damped exponential survive averaging). */
-export const MAX_FIT_POINTS = 8000;
+export const MAX_FIT_POINTS = 3000;
 /** A block spans at most this fraction of the shortest period the sampling could carry. */
 const BLOCK_PER_PERIOD = 1 / 8;
 
