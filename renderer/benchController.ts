@@ -5,7 +5,6 @@ import { componentsFromResponse } from '../core/circuit/components';
 import { parseDesign, serializeDesign } from '../core/circuit/design';
 import { evaluateCautions } from '../core/safety/evaluateCautions';
 import { cautionInputsFromCapture } from '../core/safety/cautionInputs';
-import type { ResponseFit } from '../core/fit/fitResponse';
 import { plainMessage } from './plainMessage';
 import { BenchError } from './benchError';
 import type { BenchState, ComponentsInput, LoadedDesign } from './benchState';
@@ -18,6 +17,7 @@ import { rememberCapture, recallCapture } from './lastCapture';
 import { sha256Hex } from './sha256';
 import { buildLogRequest, type LogForm } from './logRequest';
 import { extractFromCaptures, type ExtractionRow, type ExtractionSettings } from './extraction';
+import { alphaOmega0Correlation } from '../core/fit/correlation';
 
 export type { ExtractionRow, ExtractionSettings } from './extraction';
 
@@ -180,7 +180,7 @@ export class BenchController {
         const tolerance = parseTolerancePercent(input.toleranceText, `tolerance of ${input.knownName}`);
         if (!(fit.alpha.value > 0 && fit.omega0.value > 0)) throw new BenchError('the fit gives no positive alpha and omega0, so no components follow from it');
         const known = { name: input.knownName, value, ...(tolerance > 0 ? { tolerance } : {}) };
-        const values = componentsFromResponse(fit.alpha, fit.omega0, input.topology, known, correlationOf(fit));
+        const values = componentsFromResponse(fit.alpha, fit.omega0, input.topology, known, alphaOmega0Correlation(fit.correlation));
         const knownText = `${known.name}=${known.value}${tolerance ? ` (±${tolerance * 100} %)` : ''}`;
         this.state.components = { ...values, known: knownText, topology: input.topology };
       } catch (error) {
@@ -398,10 +398,3 @@ export class BenchController {
   }
 }
 
-function correlationOf(fit: ResponseFit): number | undefined {
-  const c = fit.correlation;
-  if (!c) return undefined;
-  const i = c.names.indexOf('alpha');
-  const j = c.names.indexOf('omega0');
-  return i < 0 || j < 0 ? undefined : c.matrix[i][j];
-}

@@ -17,6 +17,7 @@ import {
   type ResponseQuantityName,
 } from './relations';
 import { toleranceToRelativeUncertainty } from './tolerance';
+import { alphaOmega0Correlation } from '../fit/correlation';
 
 /** The parts of a response fit the verdict reads (a ResponseFit has them all). */
 export interface FittedResponse {
@@ -110,7 +111,7 @@ export function checkDesign(
   const known = options.knownComponent === undefined ? tightestComponent(design) : options.knownComponent;
   if (known !== null && physical) {
     const spec = design.components[known];
-    const derived = componentsFromResponse(fit.alpha, fit.omega0, design.topology, { name: known, value: spec.value, tolerance: spec.tolerance }, correlationOf(fit));
+    const derived = componentsFromResponse(fit.alpha, fit.omega0, design.topology, { name: known, value: spec.value, tolerance: spec.tolerance }, alphaOmega0Correlation(fit.correlation));
     for (const name of COMPONENT_NAMES.filter((n) => n !== known)) {
       const designQ = quantity(values[name], values[name] * relU[name], COMPONENT_UNITS[name]);
       quantities.push(compare(name, designQ, derived[name], limit));
@@ -153,14 +154,6 @@ function tightestComponent(design: Design): ComponentName {
   );
 }
 
-function correlationOf(fit: FittedResponse): number {
-  const c = fit.correlation;
-  if (!c) return 0;
-  const ia = c.names.indexOf('alpha');
-  const iw = c.names.indexOf('omega0');
-  const rho = ia >= 0 && iw >= 0 ? c.matrix[ia][iw] : 0;
-  return Number.isFinite(rho) ? Math.max(-1, Math.min(1, rho)) : 0;
-}
 
 /**
  * The single component change delta = ln(X_new / X_design) minimising |d - delta s_X|^2 in log space,

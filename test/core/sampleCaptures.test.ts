@@ -10,10 +10,11 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parseCapture } from '../../core/capture/parseCapture';
 import { selectChannel } from '../../core/capture/selectChannel';
 import { componentsFromResponse } from '../../core/circuit/components';
-import { fitResponse, type ResponseFit } from '../../core/fit/fitResponse';
+import { fitResponse } from '../../core/fit/fitResponse';
 import { circuitDamping } from '../../sample-captures/circuitResponse';
 import { fisherBound } from '../reference/ngspice/fisherBound';
 import { readSampleManifest, SAMPLE_DIR, type SampleManifestEntry } from '../../sample-captures/sampleManifest';
+import { alphaOmega0Correlation } from '../../core/fit/correlation';
 
 const manifest = readSampleManifest();
 const REPO_ROOT = path.resolve(SAMPLE_DIR, '..');
@@ -23,13 +24,6 @@ function loadChannel(entry: SampleManifestEntry) {
   return { capture, channel: selectChannel(capture, entry.channel) };
 }
 
-function correlationOf(fit: ResponseFit): number | undefined {
-  const c = fit.correlation;
-  if (!c) return undefined;
-  const i = c.names.indexOf('alpha');
-  const j = c.names.indexOf('omega0');
-  return i < 0 || j < 0 ? undefined : c.matrix[i][j];
-}
 
 /** |measured - stated| in units of the reported standard error (Infinity when none was reported). */
 function sigmas(value: number, stderr: number | null, stated: number): number {
@@ -107,7 +101,7 @@ describe('sample captures', () => {
       }
 
       const known = { name: entry.known.name, value: entry.known.value };
-      const parts = componentsFromResponse(fit.alpha, fit.omega0, entry.topology, known, correlationOf(fit));
+      const parts = componentsFromResponse(fit.alpha, fit.omega0, entry.topology, known, alphaOmega0Correlation(fit.correlation));
       for (const name of (['R', 'L', 'C'] as const).filter((n) => n !== known.name)) {
         const q = parts[name];
         expect(sigmas(q.value, q.stderr, entry[name]), `${name} = ${q.value} ± ${q.stderr}`).toBeLessThanOrEqual(3);

@@ -9,6 +9,7 @@ import { createRandom } from '../../core/random';
 import { circuitResponseParams } from '../../sample-captures/circuitResponse';
 import { fisherBound } from './ngspice/fisherBound';
 import { readFixture, readManifest, type FixtureEntry } from './ngspice/fixtures';
+import { alphaOmega0Correlation } from '../../core/fit/correlation';
 
 /** 40 dB: noise standard deviation 1 % of the circuit's scale (step, initial value or peak excursion). */
 const NOISE_FRACTION = 0.01;
@@ -23,13 +24,6 @@ function zetaOf(e: FixtureEntry): number {
   return e.topology === 'series' ? (e.R / 2) * Math.sqrt(e.C / e.L) : (1 / (2 * e.R)) * Math.sqrt(e.L / e.C);
 }
 
-function correlationOf(fit: ReturnType<typeof fitResponse>): number | undefined {
-  const c = fit.correlation;
-  if (!c) return undefined;
-  const i = c.names.indexOf('alpha');
-  const j = c.names.indexOf('omega0');
-  return i < 0 || j < 0 ? undefined : c.matrix[i][j];
-}
 
 const manifest = readManifest();
 
@@ -53,7 +47,7 @@ describe('fit of noisy ngspice waveforms', () => {
 
     const knownName = KNOWN_OF[entry.name] ?? 'C';
     const known: KnownComponent = { name: knownName, value: entry[knownName] };
-    const parts = componentsFromResponse(fit.alpha, fit.omega0, entry.topology, known, correlationOf(fit));
+    const parts = componentsFromResponse(fit.alpha, fit.omega0, entry.topology, known, alphaOmega0Correlation(fit.correlation));
     const bound = fisherBound(circuitResponseParams(entry, entry.eventTime), waveform.time, sigma);
     const boundParts = componentsFromResponse(bound.alpha, bound.omega0, entry.topology, known, bound.correlation);
     const checks: ['R' | 'L' | 'C', number][] = [

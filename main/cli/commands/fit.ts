@@ -15,6 +15,7 @@ import { evaluateCautions } from '../../../core/safety/evaluateCautions';
 import { cautionInputsFromCapture } from '../../../core/safety/cautionInputs';
 import { formatCautionsText } from '../../../core/safety/cautionText';
 import { basename } from 'node:path';
+import { alphaOmega0Correlation } from '../../../core/fit/correlation';
 
 export interface FitCommandOptions {
   topology?: string;
@@ -59,19 +60,12 @@ export function fitCapture(file: string, options: FitCommandOptions, cwd: string
       ? {
           topology,
           known: `${known.name} = ${formatEngineering(known.value, UNIT_OF_COMPONENT[known.name])}${known.tolerance ? ` ± ${+(known.tolerance * 100).toPrecision(3)} %` : ''}`,
-          ...componentsFromResponse(fit.alpha, fit.omega0, topology, known, correlationOf(fit)),
+          ...componentsFromResponse(fit.alpha, fit.omega0, topology, known, alphaOmega0Correlation(fit.correlation)),
         }
       : undefined;
   return { summary: summarizeFit(basename(file), channel.name, fit, components, loaded.capture.warnings), loaded };
 }
 
-function correlationOf(fit: ReturnType<typeof fitResponse>): number | undefined {
-  const c = fit.correlation;
-  if (!c) return undefined;
-  const i = c.names.indexOf('alpha');
-  const j = c.names.indexOf('omega0');
-  return i < 0 || j < 0 ? undefined : c.matrix[i][j];
-}
 
 function parseSignedTime(text: string, option: string): number {
   const negative = text.trim().startsWith('-');
