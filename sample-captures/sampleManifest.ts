@@ -4,22 +4,16 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { ResponseParams } from '../core/response/secondOrder';
-import type { CircuitProbe, CircuitSource, CircuitTopology } from './circuitResponse';
+import type { StatedCircuit } from './circuitResponse';
 import type { SampleLayout } from './scenarios';
 
 export const SAMPLE_DIR = path.dirname(fileURLToPath(import.meta.url));
 
-export interface SampleManifestEntry {
+/** A stated circuit (R, L, C in ohm, H, F; C is the total across the probed node) and its capture. */
+export interface SampleManifestEntry extends StatedCircuit {
   file: string;
   scenario: string;
-  topology: CircuitTopology;
-  /** Stated components, ohm, H, F (C is the total across the probed node). */
-  R: number;
-  L: number;
-  C: number;
   addedCapacitor?: { group: string; parasitic: number; added: number };
-  source: CircuitSource;
-  probe: CircuitProbe;
   unit: 'V' | 'A';
   /** Channel holding the response. */
   channel: string;

@@ -6,18 +6,13 @@ import { covarianceFromJacobian } from '../../core/fit/covariance';
 import { fitCurve } from '../../core/fit/fitCurve';
 import { FitInputError } from '../../core/fit/fitInputError';
 import type { CurveData, CurveModel, FitOptions } from '../../core/fit/types';
+import { createRandom } from '../../core/random';
 
-/** mulberry32: a small seeded PRNG, uniform on [0, 1). */
-function seeded(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** The project's seeded source, as a uniform generator on [0, 1). */
+const seeded = (seed: number): (() => number) => {
+  const random = createRandom(seed);
+  return () => random.uniform();
+};
 
 /** Standard normal deviates by Box-Muller from a seeded uniform source. */
 function gaussian(seed: number): () => number {

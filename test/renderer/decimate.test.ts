@@ -2,18 +2,13 @@
 
 import { describe, expect, it } from 'vitest';
 import { lowerBound, reduceMinMax, upperBound } from '../../renderer/decimate';
+import { createRandom } from '../../core/random';
 
-/** Small seeded PRNG (mulberry32) so the random traces are the same on every run. */
-function seeded(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** The project's seeded source, as a uniform generator on [0, 1). */
+const seeded = (seed: number): (() => number) => {
+  const random = createRandom(seed);
+  return () => random.uniform();
+};
 
 function ramp(n: number, dt = 1e-9): Float64Array {
   return Float64Array.from({ length: n }, (_, i) => i * dt);

@@ -3,7 +3,7 @@
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import type { CircuitProbe, CircuitSource, CircuitTopology } from '../../../sample-captures/circuitResponse';
+import type { StatedCircuit } from '../../../sample-captures/circuitResponse';
 
 export const NGSPICE_DIR = path.dirname(fileURLToPath(import.meta.url));
 export const FIXTURES_DIR = path.join(NGSPICE_DIR, 'fixtures');
@@ -11,20 +11,14 @@ export const FIXTURES_DIR = path.join(NGSPICE_DIR, 'fixtures');
 /** Fixture values may differ from a rerun by this fraction of the circuit's scale (see README.md). */
 export const CHECK_TOLERANCE = 1e-6;
 
-export interface FixtureEntry {
+export interface FixtureEntry extends StatedCircuit {
   name: string;
   scenario: string;
   /** Paths relative to test/reference/ngspice/. */
   netlist: string;
   file: string;
-  topology: CircuitTopology;
-  R: number;
-  L: number;
-  /** Total capacitance across the probed node (parasitic + added for the added-capacitor set). */
-  C: number;
+  /** C is the total capacitance across the probed node (parasitic + added for the added-capacitor set). */
   addedCapacitor?: { group: string; parasitic: number; added: number };
-  source: CircuitSource;
-  probe: CircuitProbe;
   /** ngspice vector written to the fixture. */
   vector: string;
   unit: 'V' | 'A';
