@@ -9,6 +9,11 @@ const FLANK = 3;
  * at least this many steps long for its flank slope, with flanks moving at least one step per sample, is a rail.
  */
 const RUN_SLOPE_STEPS = 16;
+/**
+ * A smooth peak that holds its top code for L samples is a parabola within q of its top over those L, so L
+ * samples beyond the run it lies at most 9 q below it; a signal that falls further than this there was cut off.
+ */
+const RUN_DROP_STEPS = 16;
 
 export interface Clipping {
   /** 1 where the sample is part of a rail run. */
@@ -39,6 +44,12 @@ function flankSlope(values: Float64Array, near: number, direction: 1 | -1, rail:
   return (sign * (values[near] - values[far])) / Math.abs(far - near);
 }
 
+/** How far below the rail (towards the inside) the signal lies `distance` samples beyond the run, as the mean of 3 samples. */
+function dropBeyond(values: Float64Array, edge: number, direction: 1 | -1, distance: number, rail: number, sign: 1 | -1): number {
+  const centre = Math.max(1, Math.min(values.length - 2, edge + direction * distance));
+  return sign * (rail - (values[centre - 1] + values[centre] + values[centre + 1]) / 3);
+}
+
 /** Marks the rail runs on one side (sign 1: top, -1: bottom); returns how many samples were marked. */
 function markSide(values: Float64Array, sign: 1 | -1, step: number, clipped: Uint8Array): { count: number; level: number } {
   let level = -Infinity;
@@ -58,9 +69,10 @@ function markSide(values: Float64Array, sign: 1 | -1, step: number, clipped: Uin
       runs.push({ start: i, end });
       const interior = i > 0 && end < values.length - 1;
       const steep = (slope: number): boolean => slope >= step && slope * length >= RUN_SLOPE_STEPS * step;
-      if (interior && steep(flankSlope(values, i - 1, -1, rail, sign)) && steep(flankSlope(values, end + 1, 1, rail, sign))) {
-        confirmed = true;
-      }
+      const falls = (edge: number, direction: 1 | -1): boolean =>
+        dropBeyond(values, edge, direction, Math.max(FLANK, length), rail, sign) >= RUN_DROP_STEPS * step;
+      const steepBothSides = steep(flankSlope(values, i - 1, -1, rail, sign)) && steep(flankSlope(values, end + 1, 1, rail, sign));
+      if (interior && (steepBothSides || (falls(i, -1) && falls(end, 1)))) confirmed = true;
     }
     i = end + 1;
   }
@@ -75,8 +87,9 @@ function markSide(values: Float64Array, sign: 1 | -1, step: number, clipped: Uin
 
 /**
  * Rule: the channel's maximum (or minimum) is a rail when some run of at least 3 samples exactly at it lies inside
- * the record and the signal moves into and out of it steeply: on both sides, by at least one code step per sample
- * (averaged over 3 samples), and that slope times the run length is at least 16 code steps. Then every run of 3 or
+ * the record and the signal moves into and out of it steeply: on both sides, either by at least one code step per
+ * sample (averaged over 3 samples) with that slope times the run length at least 16 code steps, or (finely sampled
+ * records) by at least 16 code steps at a distance of the run's length beyond it. Then every run of 3 or
  * more at that level is marked, those touching the start or end of the record included. A smooth peak repeating
  * its top code, a level the signal settles onto, or a flat pre-trigger baseline is not marked; a pulse top that is
  * exactly flat between steep edges cannot be told from a rail and is marked.

@@ -17,14 +17,73 @@ export interface RateCandidate {
 }
 
 const MIN_PRE_EVENT = 10;
+/** The starting level is the median of the first 1 % of the record: right while at least half of that is before the event. */
+export const HEAD_FRACTION = 0.01;
+/** At the scale the event is looked for, its largest excursion must stand this many noise levels clear. */
+const CONFIDENT_PEAK = 12;
+/** Coarsest scale: at least this many block means over the record. */
+const MIN_BLOCKS = 48;
 
 /**
  * The event is where the record first leaves the level it starts at by well over the noise.
  * A record whose first samples already move (by more than the noise allows) starts inside the response.
+ * When the response hardly stands out of the noise, the same test runs on means of 2, 4, 8... samples,
+ * whose noise is lower, at the finest scale where the largest excursion stands clear of it.
  */
 export function detectEvent(values: ArrayLike<number>, noise: number, step: number): EventEstimate {
   const n = values.length;
-  const head = Math.max(MIN_PRE_EVENT, Math.floor(n * 0.02));
+  for (let size = 1; size === 1 || n / size >= MIN_BLOCKS; size *= 2) {
+    const y = size === 1 ? values : blockMeans(values, 0, n, size, Infinity);
+    const blockNoise = noise / Math.sqrt(size);
+    const blockStep = size === 1 ? step : 0;
+    const found = detectAtScale(y, blockNoise, blockStep, Math.max(2, Math.ceil(MIN_PRE_EVENT / size)));
+    if (found.peak >= CONFIDENT_PEAK * blockNoise + 2 * blockStep) {
+      const index = found.hasPreEvent ? found.onset * size : 0;
+      return { index, hasPreEvent: found.hasPreEvent };
+    }
+  }
+  return detectByEnergy(values, noise);
+}
+
+/**
+ * A ring about the starting level averages away in block means; its energy does not. The mean square
+ * about the starting level over blocks of 16, 32... samples is noise^2 (spread noise^2 sqrt(2 / size))
+ * before the event, and rises after it. Blocks of 16 or more keep the chi-square tail of a quiet block
+ * short enough for a flat stretch to look flat.
+ */
+function detectByEnergy(values: ArrayLike<number>, noise: number): EventEstimate {
+  const n = values.length;
+  const baseline = median(Array.prototype.slice.call(values, 0, Math.max(MIN_PRE_EVENT, Math.floor(n * HEAD_FRACTION))));
+  const variance = noise * noise;
+  for (let size = 16; n / size >= MIN_BLOCKS; size *= 2) {
+    const blocks = Math.floor(n / size);
+    const energy = new Float64Array(blocks);
+    for (let k = 0; k < blocks; k++) {
+      let sum = 0;
+      for (let i = k * size; i < (k + 1) * size; i++) sum += (values[i] - baseline) ** 2;
+      energy[k] = sum / size - variance;
+    }
+    const spread = variance * Math.sqrt(2 / size);
+    if (Math.max(...energy) < CONFIDENT_PEAK * spread) continue;
+    const first = energy.findIndex((e) => e > 8 * spread);
+    let onset = first;
+    while (onset > 0 && energy[onset - 1] > 4 * spread) onset--;
+    const minFlat = Math.max(2, Math.ceil(MIN_PRE_EVENT / size));
+    const flat = energy.subarray(0, onset).every((e) => e <= 5 * spread);
+    return onset >= minFlat && flat ? { index: onset * size, hasPreEvent: true } : { index: 0, hasPreEvent: false };
+  }
+  return { index: 0, hasPreEvent: false };
+}
+
+/** The event test on one sequence (samples or block means) with its own noise level and minimum flat stretch. */
+function detectAtScale(
+  values: ArrayLike<number>,
+  noise: number,
+  step: number,
+  minFlat: number,
+): { onset: number; hasPreEvent: boolean; peak: number } {
+  const n = values.length;
+  const head = Math.max(minFlat, Math.floor(n * HEAD_FRACTION));
   const baseline = median(Array.prototype.slice.call(values, 0, head));
   let peak = 0;
   for (let i = 0; i < n; i++) peak = Math.max(peak, Math.abs(values[i] - baseline));
@@ -37,13 +96,64 @@ export function detectEvent(values: ArrayLike<number>, noise: number, step: numb
       break;
     }
   }
-  if (first < 0) return { index: 0, hasPreEvent: false };
-  let onset = first;
-  while (onset > 0 && Math.abs(values[onset - 1] - baseline) > quiet) onset--;
+  if (first < 0) return { onset: 0, hasPreEvent: false, peak };
   let flat = true;
-  for (let i = 0; i < Math.min(onset, MIN_PRE_EVENT); i++) if (Math.abs(values[i] - baseline) > quiet) flat = false;
-  const hasPreEvent = flat && onset >= MIN_PRE_EVENT;
-  return { index: hasPreEvent ? onset : 0, hasPreEvent };
+  for (let i = 0; i < Math.min(first, minFlat); i++) if (Math.abs(values[i] - baseline) > quiet) flat = false;
+  const onset = hingeOnset(values, first);
+  return { onset, hasPreEvent: flat && onset >= minFlat, peak };
+}
+
+/** Longest stretch the onset search fits at once; longer ones are fitted on block means. */
+const HINGE_POINTS = 400;
+
+/**
+ * Where the record leaves its starting level, from the samples before the first clear excursion
+ * (index `first`): least squares of a level followed by a linear or a quadratic departure (a response
+ * starts with a slope, or from rest), over every break point. Walking back to the last quiet sample
+ * instead would place a slow start late by the time it takes to climb out of the noise.
+ */
+function hingeOnset(values: ArrayLike<number>, first: number): number {
+  const size = Math.max(1, Math.ceil((first + 1) / HINGE_POINTS));
+  // The blocks end with the sample that crossed the threshold: the departure must be in the fit.
+  const from = (first + 1) % size;
+  const y = blockMeans(values, from, first + 1, size, Infinity);
+  const n = y.length;
+  if (n < 3) return first;
+  let bestSse = Infinity;
+  let bestBreak = 0;
+  for (const power of [1, 2]) {
+    for (let k = 0; k < n - 1; k++) {
+      const sse = hingeResidual(y, k, power);
+      if (sse < bestSse) {
+        bestSse = sse;
+        bestBreak = k;
+      }
+    }
+  }
+  return from + bestBreak * size;
+}
+
+/** Residual sum of squares of y = b (i <= k), b + c (i - k)^power (i > k), solved for b and c. */
+function hingeResidual(y: Float64Array, k: number, power: number): number {
+  const n = y.length;
+  let sx = 0;
+  let sxx = 0;
+  let sy = 0;
+  let sxy = 0;
+  let syy = 0;
+  for (let i = 0; i < n; i++) {
+    const x = i > k ? (i - k) ** power : 0;
+    sx += x;
+    sxx += x * x;
+    sy += y[i];
+    sxy += x * y[i];
+    syy += y[i] * y[i];
+  }
+  const det = n * sxx - sx * sx;
+  if (!(det > 0)) return Infinity;
+  const c = (n * sxy - sx * sy) / det;
+  const b = (sy - c * sx) / n;
+  return syy - b * sy - c * sxy;
 }
 
 /** Block means of `size` samples starting at `start`, at most `count` of them. */

@@ -4,11 +4,11 @@ import { quantity, type Quantity } from '../quantity';
 import type { ResponseParams } from '../response/secondOrder';
 import type { FitStatus } from './types';
 import { fitCurve } from './fitCurve';
-import { estimateNoise, quantisationStep } from './noise';
+import { estimateNoise, quantisationStep, recordNoise } from './noise';
 import { detectEvent, rateCandidates, type RateCandidate } from './estimate';
 import { solveAmplitudes, Workspace } from './amplitudes';
-import { LAYOUT_NAMES, fitsT0, nonlinearCount, unpackParams, type ParameterLayout } from './responseModel';
-import { prepareFitSet, type FitSet } from './fitSet';
+import { LAYOUT_NAMES, fitsT0, layoutValues, nonlinearCount, unpackParams, type ParameterLayout } from './responseModel';
+import { prepareFitSet, uniformValues, type FitSet } from './fitSet';
 import { responseCovariance } from './responseCovariance';
 import { FitInputError } from './fitInputError';
 
@@ -71,22 +71,51 @@ interface Attempt {
 
 export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): ResponseFit {
   const continuity = options.continuity ?? 'continuous';
-  const set = prepareFitSet(trace, options.window ?? {});
+  let set = prepareFitSet(trace, options.window ?? {});
   if (set.time.length < MIN_SAMPLES) {
     throw new FitInputError('trace', `only ${set.time.length} usable samples in the fit window; at least ${MIN_SAMPLES} are needed`);
   }
-  const noise = estimateNoise(set.values);
+  const noise = recordNoise(set.values);
   const step = quantisationStep(set.values);
   const event = options.window?.start !== undefined ? { index: 0, hasPreEvent: false } : detectEvent(set.values, noise, step);
   const t0Start = set.time[event.index];
   const layouts: ParameterLayout[] = !event.hasPreEvent ? ['free'] : continuity === 'continuous' ? ['smooth', 'step'] : ['free-pre'];
   const warnings: string[] = [...set.warnings];
-  const candidates = rateCandidates(set.values, event.index, set.values.length, set.dt);
+  const uniform = uniformValues(set);
+  const eventOnGrid = Math.round((t0Start - set.time[0]) / set.dt);
+  const candidates = rateCandidates(uniform, eventOnGrid, uniform.length, set.dt);
+  const attempts = searchLayouts(set, layouts, candidates, t0Start, noise);
+  if (attempts.length === 0) return failedFit(set, noise, warnings, 'no damped response was found in the data (no usable starting values)');
+  let best = chooseByInformation(attempts, set.time.length);
+  if (!Number.isFinite(best.sse)) return failedFit(set, noise, warnings, 'the solver did not reach a finite residual');
 
-  // Several starts in each layout, tried in rank order until one leaves no more than the noise;
-  // a richer layout also starts from the simpler one's solution.
+  const guarded = guardRails(trace, best, t0Start, options.window ?? {});
+  if (guarded) {
+    set = guarded.set;
+    const start = { alpha: best.values[0], omega0: best.values[1], source: 'fit before the rail guard' };
+    best = refine(set, best.layout, start, fitsT0(best.layout) ? best.values[2] : t0Start);
+    warnings.push(guarded.warning);
+  }
+  const subCode = subCodeNoiseWarning(trace.values);
+  if (subCode) warnings.push(subCode);
+  const params = unpackParams(best.layout, best.values, t0Start);
+  const dof = set.time.length - best.values.length;
+  const cov = responseCovariance(set, best.layout, best.values, t0Start, best.sse / Math.max(1, dof));
+  warnings.push(...best.warnings, ...cov.warnings);
+  return assembleFit(trace, set, params, best.layout, best, cov, noise, warnings);
+}
+
+/**
+ * Several starts in the first layout, tried in rank order until one leaves no more than the noise;
+ * a richer layout starts from the simpler one's solution and from the best-ranked candidate.
+ * One best attempt per layout.
+ */
+function searchLayouts(set: FitSet, layouts: ParameterLayout[], candidates: RateCandidate[], t0Start: number, noise: number): Attempt[] {
   const attempts: Attempt[] = [];
-  const goodEnough = (a: Attempt) => Math.sqrt(a.sse / set.time.length) <= 1.25 * Math.max(noise, 1e-12 * set.range);
+  // A wrong minimum can leave only a little more than the noise: the tolerance shrinks with the record,
+  // as the spread of the residual's rms and of the noise estimate do (both about 1 / sqrt(n)).
+  const tolerance = 1.02 + 4 / Math.sqrt(set.time.length);
+  const goodEnough = (a: Attempt) => Math.sqrt(a.sse / set.time.length) <= tolerance * Math.max(noise, 1e-12 * set.range);
   for (const [i, layout] of layouts.entries()) {
     const simpler = attempts[0];
     const starts: [RateCandidate, number][] = simpler
@@ -97,19 +126,99 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
     for (const [start, t0] of starts) {
       const attempt = refine(set, layout, start, t0);
       if (!best || attempt.sse < best.sse) best = attempt;
-      if (goodEnough(best)) break;
+      // A richer layout tries both of its starts: the simpler layout's minimum can pass for noise.
+      if (!simpler && goodEnough(best)) break;
     }
-    if (best) attempts.push(best);
+    if (best) attempts.push(fitsT0(layout) ? shiftByHalfPeriods(set, best) : best);
   }
-  if (attempts.length === 0) return failedFit(set, noise, warnings, 'no damped response was found in the data (no usable starting values)');
-  const best = chooseByInformation(attempts, set.time.length);
-  if (!Number.isFinite(best.sse)) return failedFit(set, noise, warnings, 'the solver did not reach a finite residual');
+  return attempts;
+}
 
-  const params = unpackParams(best.layout, best.values, t0Start);
-  const dof = set.time.length - best.values.length;
-  const cov = responseCovariance(set, best.layout, best.values, t0Start, best.sse / Math.max(1, dof));
-  warnings.push(...best.warnings, ...cov.warnings);
-  return assembleFit(trace, set, params, best.layout, best, cov, noise, warnings);
+/** How many half ring periods either way the event time is tried at once a layout has converged. */
+const HALF_PERIOD_SHIFTS = 4;
+
+/**
+ * A lightly damped ring fits almost as well with its start moved by half a period and its sign turned
+ * over; in noise the solver keeps whichever of these minima lies nearest its start. The residual is
+ * compared at t0 moved by 1 to 4 half periods each way, and the fit refined from a shift that does better.
+ */
+function shiftByHalfPeriods(set: FitSet, attempt: Attempt): Attempt {
+  const [alpha, omega0, t0] = attempt.values;
+  if (!(omega0 > alpha)) return attempt;
+  const halfPeriod = Math.PI / Math.sqrt(omega0 * omega0 - alpha * alpha);
+  const workspace = new Workspace(set.time.length);
+  let bestShift = 0;
+  let bestSse = attempt.sse;
+  for (let k = -HALF_PERIOD_SHIFTS; k <= HALF_PERIOD_SHIFTS; k++) {
+    const shifted = t0 + k * halfPeriod;
+    if (k === 0 || shifted <= set.time[0] || shifted >= set.time[set.time.length - 1]) continue;
+    const { sse } = solveAmplitudes(attempt.layout, set.time, set.values, alpha, omega0, shifted, workspace, set.blockWidth);
+    if (sse < bestSse) {
+      bestSse = sse;
+      bestShift = k;
+    }
+  }
+  if (bestShift === 0) return attempt;
+  const refined = refine(set, attempt.layout, { alpha, omega0, source: 'shifted by half periods' }, t0 + bestShift * halfPeriod);
+  return refined.sse < attempt.sse ? refined : attempt;
+}
+
+/**
+ * With less noise than half a converter code to dither it, the quantisation error follows the signal
+ * instead of averaging out: its mean ripples by about (q / pi) exp(-2 pi^2 sigma^2 / q^2), 0.06 q at
+ * sigma = 0.3 q but under 0.01 q from sigma = q / 2 on (Widrow and Kollar, Quantization Noise, 2008,
+ * Gaussian input; from memory). The fit's standard errors do not include that bias.
+ */
+function subCodeNoiseWarning(values: ArrayLike<number>): string | null {
+  const q = quantisationStep(values);
+  if (!(q > 0)) return null;
+  const noise = estimateNoise(values);
+  if (noise >= 0.5 * q) return null;
+  return `the noise (${(noise / q).toFixed(2)} of a converter code) is too small to dither the quantisation: its error follows the signal and may bias the fit beyond its standard errors (more vertical resolution or averaging off helps)`;
+}
+
+/**
+ * A sample beside a converter rail is kept only when its noise did not carry it onto the rail, so the
+ * samples left near a rail read low (censored data). Once clipping was found, the samples whose fitted
+ * value lies within 3 noise levels of a rail are left out too, and the fit is repeated on the rest.
+ */
+function guardRails(
+  trace: Trace,
+  best: Attempt,
+  t0Start: number,
+  window: { start?: number; end?: number },
+): { set: FitSet; warning: string } | null {
+  const { clipped, values, time } = trace;
+  if (!clipped) return null;
+  let top = -Infinity;
+  let bottom = Infinity;
+  let unclippedTop = -Infinity;
+  for (let i = 0; i < values.length; i++) {
+    if (clipped[i]) {
+      top = Math.max(top, values[i]);
+      bottom = Math.min(bottom, values[i]);
+    } else unclippedTop = Math.max(unclippedTop, values[i]);
+  }
+  if (top === -Infinity) return null;
+  // One rail only: it is the top one when it lies above every unclipped sample.
+  if (top === bottom) [top, bottom] = top >= unclippedTop ? [top, -Infinity] : [Infinity, bottom];
+  const margin = 3 * estimateNoise(values);
+  const model = layoutValues(best.layout, best.values, t0Start, time, 0);
+  const guard = Uint8Array.from(clipped);
+  let added = 0;
+  for (let i = 0; i < values.length; i++) {
+    if (!guard[i] && (model[i] > top - margin || model[i] < bottom + margin)) {
+      guard[i] = 1;
+      added++;
+    }
+  }
+  if (added === 0) return null;
+  const set = prepareFitSet({ ...trace, clipped: guard }, window);
+  if (set.time.length < MIN_SAMPLES) return null;
+  return {
+    set,
+    warning: `${added} more samples were left out because the fit puts them within 3 noise levels of a clipped rail (their noise is cut off there)`,
+  };
 }
 
 /** Bayesian information criterion: among nested layouts, the extra parameter must pay for itself. */

@@ -1,7 +1,7 @@
 // The samples a response fit uses: unclipped, inside the window, block-averaged when very long.
 
 import type { Trace } from './fitResponse';
-import { median } from './noise';
+import { estimateNoise, median } from './noise';
 import { FitInputError } from './fitInputError';
 
 export interface FitSet {
@@ -42,8 +42,12 @@ export function prepareFitSet(trace: Trace, window: { start?: number; end?: numb
   }
   let t: Float64Array = new Float64Array(count);
   let y: Float64Array = new Float64Array(count);
-  for (let i = 0, j = 0; i < time.length; i++) {
+  // Where a left-out sample breaks the run of consecutive samples (a block mean must not straddle it).
+  const gapBefore = new Uint8Array(count);
+  for (let i = 0, j = 0, last = -2; i < time.length; i++) {
     if (!usable(i) || (clipped && clipped[i])) continue;
+    gapBefore[j] = i === last + 1 ? 0 : 1;
+    last = i;
     t[j] = time[i];
     y[j++] = values[i];
   }
@@ -53,13 +57,14 @@ export function prepareFitSet(trace: Trace, window: { start?: number; end?: numb
   const stride = Math.max(1, Math.floor(t.length / 5000));
   for (let i = stride; i < t.length; i += stride) spacing.push(t[i] - t[i - 1]);
   const dt = spacing.length ? median(spacing) : NaN;
-  const used = t.length;
+  let used = t.length;
   let decimation: FitSet['decimation'] = null;
   if (t.length > MAX_FIT_POINTS) {
     const ringPeriod = roughPeriodSamples(y);
     const factor = Math.max(1, Math.min(Math.ceil(t.length / MAX_FIT_POINTS), Math.floor(ringPeriod * BLOCK_PER_PERIOD)));
     if (factor > 1) {
-      [t, y] = blockAverage(t, y, factor);
+      [t, y] = blockAverage(t, y, gapBefore, factor);
+      used = t.length * factor;
       decimation = {
         factor,
         note: `fitted on means of ${factor} consecutive samples (${t.length} points), each block at most 1/8 of the ring period, against the model averaged over the same blocks`,
@@ -91,14 +96,14 @@ function roughPeriodSamples(y: Float64Array): number {
   let crossings = 0;
   let first = -1;
   let last = -1;
-  // Hysteresis of a tenth of the range keeps noise from counting as crossings.
+  // Hysteresis of a tenth of the range, and of 4 noise levels, keeps noise from counting as crossings.
   let lo = Infinity;
   let hi = -Infinity;
   for (const v of y) {
     lo = Math.min(lo, v);
     hi = Math.max(hi, v);
   }
-  const band = (hi - lo) / 10;
+  const band = Math.max((hi - lo) / 10, 4 * estimateNoise(y));
   let state = 0;
   for (let i = 0; i < y.length; i++) {
     const s = y[i] > level + band ? 1 : y[i] < level - band ? -1 : 0;
@@ -115,19 +120,45 @@ function roughPeriodSamples(y: Float64Array): number {
   return (2 * (last - first)) / (crossings - 1);
 }
 
-function blockAverage(t: Float64Array, y: Float64Array, factor: number): [Float64Array, Float64Array] {
-  const blocks = Math.floor(t.length / factor);
-  const tb = new Float64Array(blocks);
-  const yb = new Float64Array(blocks);
-  for (let k = 0; k < blocks; k++) {
-    let st = 0;
-    let sy = 0;
-    for (let i = k * factor; i < (k + 1) * factor; i++) {
-      st += t[i];
-      sy += y[i];
+/**
+ * Means of `factor` consecutive samples. A block is restarted after a gap (left-out samples), and the
+ * partial block before a gap is dropped: the model is averaged over a whole, unbroken block.
+ */
+function blockAverage(t: Float64Array, y: Float64Array, gapBefore: Uint8Array, factor: number): [Float64Array, Float64Array] {
+  const tb = new Float64Array(Math.floor(t.length / factor));
+  const yb = new Float64Array(tb.length);
+  let blocks = 0;
+  let filled = 0;
+  let st = 0;
+  let sy = 0;
+  for (let i = 0; i < t.length; i++) {
+    if (gapBefore[i]) filled = st = sy = 0;
+    st += t[i];
+    sy += y[i];
+    if (++filled === factor) {
+      tb[blocks] = st / factor;
+      yb[blocks++] = sy / factor;
+      filled = st = sy = 0;
     }
-    tb[k] = st / factor;
-    yb[k] = sy / factor;
   }
-  return [tb, yb];
+  return [tb.subarray(0, blocks), yb.subarray(0, blocks)];
+}
+
+/**
+ * The set's values on its uniform grid (interval dt from its first sample), linear across the gaps that
+ * left-out samples make: what the starting-value methods, which need uniform sampling, look at.
+ */
+export function uniformValues(set: FitSet): Float64Array {
+  const { time, values, dt } = set;
+  const n = time.length;
+  if (n < 2 || !(dt > 0) || time[n - 1] - time[0] <= (n - 1) * dt * 1.001) return values;
+  const out = new Float64Array(Math.round((time[n - 1] - time[0]) / dt) + 1);
+  for (let k = 0, j = 0; k < out.length; k++) {
+    const t = time[0] + k * dt;
+    while (j < n - 2 && time[j + 1] < t) j++;
+    const span = time[j + 1] - time[j];
+    const f = span > 0 ? Math.min(1, Math.max(0, (t - time[j]) / span)) : 0;
+    out[k] = values[j] + f * (values[j + 1] - values[j]);
+  }
+  return out;
 }

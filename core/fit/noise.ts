@@ -1,4 +1,4 @@
-// Robust noise level of a sampled record, from its first differences.
+// Robust noise level of a sampled record, from its first differences and its flat head.
 
 /** Median of a copy of the values (NaN for an empty list). */
 export function median(values: ArrayLike<number>): number {
@@ -12,10 +12,14 @@ export function median(values: ArrayLike<number>): number {
 export function quantisationStep(values: ArrayLike<number>, limit = 4096): number {
   const n = Math.min(values.length, limit);
   const steps = new Float64Array(n);
+  // Differences at the resolution of the floating-point values (block means of equal codes) are not steps.
+  let largest = 0;
+  for (let i = 0; i < n; i++) largest = Math.max(largest, Math.abs(values[i]));
+  const resolution = 1e-12 * largest;
   let count = 0;
   for (let i = 1; i < n; i++) {
     const d = Math.abs(values[i] - values[i - 1]);
-    if (d > 0) steps[count++] = d;
+    if (d > resolution) steps[count++] = d;
   }
   if (count === 0) return 0;
   const smallest = steps.subarray(0, count).sort()[0];
@@ -41,4 +45,22 @@ export function estimateNoise(values: ArrayLike<number>, start = 0, end = values
   const sigma = median(diffs) / (0.6745 * Math.SQRT2);
   const q = quantisationStep(values.length > 4096 ? Array.prototype.slice.call(values, start, start + 4096) : values);
   return Math.max(sigma, q / Math.sqrt(12));
+}
+
+/** How many times the first-difference estimate the spread of the record's head may be taken for noise. */
+const HEAD_NOISE_CAP = 4;
+
+/**
+ * Noise level of a record that may start flat: the first-difference estimate, raised to the robust spread
+ * (1.4826 MAD) of the first 1 % of the record where that is larger. Noise from a bandwidth-limited front end
+ * is alike from one sample to the next, so its first differences read it low (2.2x at a neighbour
+ * correlation of 0.8); a flat head shows it whole. A head inside the response would read high, so its
+ * spread counts for at most HEAD_NOISE_CAP times the difference estimate.
+ */
+export function recordNoise(values: ArrayLike<number>): number {
+  const fromDifferences = estimateNoise(values);
+  const head = Array.prototype.slice.call(values, 0, Math.max(10, Math.floor(values.length * 0.01))) as number[];
+  const centre = median(head);
+  const spread = 1.4826 * median(head.map((v) => Math.abs(v - centre)));
+  return Math.max(fromDifferences, Math.min(spread, HEAD_NOISE_CAP * fromDifferences));
 }

@@ -63,6 +63,15 @@ describe('detectClipping', () => {
     expect(clipping.lowLevel).toBe(-rail);
   });
 
+  it('marks a rail in a record so finely sampled that the signal enters it by less than one code per sample', () => {
+    // 2000 samples a period: at the rail the ring moves about 0.35 code a sample.
+    const rail = 8;
+    const raw = ringdown(40000, 2000, 12, 3).map(quantise);
+    const values = raw.map((v) => Math.min(rail, Math.max(-rail, v)));
+    const clipping = detectClipping(values);
+    expect(Array.from(clipping.clipped)).toEqual(Array.from(raw.map((v) => (v >= rail || v <= -rail ? 1 : 0))));
+  });
+
   it('marks a rail in noisy unquantised data', () => {
     const random = createRandom(11);
     const rail = 2.5;

@@ -42,6 +42,10 @@ const CASES: Case[] = [
   { name: 'overdamped step', zeta: 3, omega0: 1e4, pre: 0.15, kind: 'step', samples: 3000, snrDb: 50 },
   { name: 'ringdown from the first sample', zeta: 0.02, omega0: 2 * Math.PI * 20e6, pre: 0, kind: 'ringdown', samples: 4000, snrDb: 35 },
   { name: 'long record, decimated for the fit', zeta: 0.1, omega0: 2 * Math.PI * 100e3, pre: 0.1, kind: 'step', samples: 200000, snrDb: 30 },
+  // The step stands only ~4 noise levels clear: the pre-trigger is found on block means.
+  { name: 'noisy step (10 dB), pre-trigger found on block means', zeta: 0.15, omega0: 2 * Math.PI * 200e3, pre: 0.3, kind: 'step', samples: 3000, snrDb: 10 },
+  // Noise would make the ring period look a few samples long; the record must still be decimated.
+  { name: 'noisy long ringdown from rest (12 dB)', zeta: 0.4, omega0: 2 * Math.PI * 20e3, pre: 0.3, kind: 'ringdown', samples: 100000, snrDb: 12 },
 ];
 
 describe('fitResponse recovers known parameters', () => {
@@ -61,8 +65,31 @@ describe('fitResponse recovers known parameters', () => {
       if (c.zeta > 1.5) expect(fit.regime).toBe('overdamped');
       expect(Math.abs(fit.finalValue.value - truth.yFinal)).toBeLessThan(4 * (fit.finalValue.stderr ?? 0) + 1e-9);
       if (c.pre > 0) expect(Math.abs(fit.t0.value - truth.t0)).toBeLessThan(4 * (fit.t0.stderr ?? 0) + 1e-12);
+      if (c.samples > 3000) expect(fit.decimation?.factor ?? 1).toBeGreaterThan(1);
     });
   }
+});
+
+describe('fitResponse finds the event of a weak ring about its starting level', () => {
+  it('a loop current ringing from zero at 15 dB (peak-to-peak over noise): found by block energy, not block means', () => {
+    const omega0 = 2 * Math.PI * 1e6;
+    const alpha = 0.015 * omega0;
+    const n = 2000;
+    const dt = 1 / (16 * 1e6); // 16 samples a ring period
+    const t0 = 250.3 * dt;
+    const time = Float64Array.from({ length: n }, (_, i) => i * dt);
+    const { a, b } = coefficientsFromInitial(0, 2e6, 0, alpha);
+    const truth: ResponseParams = { t0, yPre: 0, yFinal: 0, alpha, omega0, a, b };
+    const clean = evaluateResponse(truth, time);
+    const swing = Math.max(...clean) - Math.min(...clean);
+    const random = createRandom(466);
+    const values = clean.map((v) => v + swing * 10 ** (-15 / 20) * random.normal());
+    const fit = fitResponse({ time, values, unit: 'A' });
+    expect(fit.warnings.join(' ')).not.toMatch(/t0 was not fitted/);
+    expect(Math.abs(fit.t0.value - t0)).toBeLessThan(4 * (fit.t0.stderr as number));
+    expect(Math.abs(fit.omega0.value - omega0)).toBeLessThan(3 * (fit.omega0.stderr as number));
+    expect(Math.abs(fit.alpha.value - alpha)).toBeLessThan(3 * (fit.alpha.stderr as number));
+  });
 });
 
 describe('fitResponse reports what it could not do', () => {

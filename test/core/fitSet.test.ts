@@ -1,0 +1,76 @@
+// The fit set: block means never straddle left-out samples, and the uniform view the starting values use.
+
+import { describe, expect, it } from 'vitest';
+import { prepareFitSet, uniformValues } from '../../core/fit/fitSet';
+import { quantisationStep } from '../../core/fit/noise';
+
+const DT = 1e-9;
+/** A slow ring over 30 000 samples (so the set is block-averaged), with the samples in `holes` marked clipped. */
+function trace(holes: [number, number][]) {
+  const n = 30_000;
+  const time = Float64Array.from({ length: n }, (_, i) => i * DT);
+  const values = time.map((t) => Math.cos(2 * Math.PI * 2e4 * t));
+  const clipped = new Uint8Array(n);
+  for (const [from, to] of holes) clipped.fill(1, from, to);
+  return { time, values, clipped, unit: 'V' };
+}
+
+describe('prepareFitSet', () => {
+  it('averages only unbroken runs of samples, so each block mean is the mean over one block width', () => {
+    const t = trace([
+      [5_003, 5_040],
+      [17_777, 17_800],
+    ]);
+    const set = prepareFitSet(t, {});
+    const factor = set.decimation?.factor ?? 1;
+    expect(factor).toBeGreaterThan(1);
+    // A block of `factor` consecutive samples spans (factor - 1) DT; the mean of its times sits mid-block,
+    // so the first and last sample of each block are recovered from its time, and none of them is left out.
+    for (let k = 0; k < set.time.length; k++) {
+      const first = Math.round(set.time[k] / DT - (factor - 1) / 2);
+      let mean = 0;
+      for (let i = first; i < first + factor; i++) {
+        expect(t.clipped[i]).toBe(0);
+        mean += t.values[i];
+      }
+      expect(set.values[k]).toBeCloseTo(mean / factor, 12);
+    }
+    expect(set.samplesUsed).toBe(set.time.length * factor);
+  });
+
+  it('keeps every sample when nothing is left out and the record is short', () => {
+    const set = prepareFitSet({ ...trace([]), clipped: undefined }, { end: 2_000 * DT });
+    expect(set.decimation).toBeNull();
+    expect(set.time.length).toBe(2_001);
+  });
+});
+
+describe('uniformValues', () => {
+  it('returns the values themselves when the set has no gaps', () => {
+    const set = prepareFitSet({ ...trace([]), clipped: undefined }, { end: 2_000 * DT });
+    expect(uniformValues(set)).toBe(set.values);
+  });
+
+  it('fills a gap on the uniform grid by straight lines between its neighbours', () => {
+    const set = prepareFitSet(trace([[1_000, 1_010]]), { end: 2_000 * DT });
+    const grid = uniformValues(set);
+    expect(grid.length).toBe(2_001);
+    const before = Math.cos(2 * Math.PI * 2e4 * 999 * DT);
+    const after = Math.cos(2 * Math.PI * 2e4 * 1_010 * DT);
+    expect(grid[1_005]).toBeCloseTo(before + (6 / 11) * (after - before), 12);
+    expect(grid[1_500]).toBeCloseTo(Math.cos(2 * Math.PI * 2e4 * 1_500 * DT), 12);
+  });
+});
+
+describe('quantisationStep', () => {
+  it('finds the code step of quantised samples', () => {
+    expect(quantisationStep(Float64Array.from({ length: 500 }, (_, i) => Math.round(10 * Math.sin(i / 30)) * 0.25))).toBeCloseTo(0.25, 12);
+  });
+
+  it('does not take rounding differences between block means of equal codes for a step', () => {
+    // Means of five equal codes differ from the code in the last bits; the grid is a fifth of a code.
+    const codes = Float64Array.from({ length: 500 }, (_, i) => Math.round(40 * Math.sin(i / 60)) * 0.1088);
+    const means = Float64Array.from({ length: 100 }, (_, k) => codes.subarray(5 * k, 5 * k + 5).reduce((a, b) => a + b) / 5);
+    expect(quantisationStep(means)).toBeGreaterThan(0.1088 / 5 - 1e-9);
+  });
+});
