@@ -2,7 +2,6 @@
 
 import { describe, expect, it } from 'vitest';
 import { prepareFitSet, uniformValues } from '../../core/fit/fitSet';
-import { quantisationStep } from '../../core/fit/noise';
 
 const DT = 1e-9;
 /** A slow ring over 30 000 samples (so the set is block-averaged), with the samples in `holes` marked clipped. */
@@ -59,18 +58,5 @@ describe('uniformValues', () => {
     const after = Math.cos(2 * Math.PI * 2e4 * 1_010 * DT);
     expect(grid[1_005]).toBeCloseTo(before + (6 / 11) * (after - before), 12);
     expect(grid[1_500]).toBeCloseTo(Math.cos(2 * Math.PI * 2e4 * 1_500 * DT), 12);
-  });
-});
-
-describe('quantisationStep', () => {
-  it('finds the code step of quantised samples', () => {
-    expect(quantisationStep(Float64Array.from({ length: 500 }, (_, i) => Math.round(10 * Math.sin(i / 30)) * 0.25))).toBeCloseTo(0.25, 12);
-  });
-
-  it('does not take rounding differences between block means of equal codes for a step', () => {
-    // Means of five equal codes differ from the code in the last bits; the grid is a fifth of a code.
-    const codes = Float64Array.from({ length: 500 }, (_, i) => Math.round(40 * Math.sin(i / 60)) * 0.1088);
-    const means = Float64Array.from({ length: 100 }, (_, k) => codes.subarray(5 * k, 5 * k + 5).reduce((a, b) => a + b) / 5);
-    expect(quantisationStep(means)).toBeGreaterThan(0.1088 / 5 - 1e-9);
   });
 });
