@@ -49,10 +49,10 @@ export function estimateNoise(values: ArrayLike<number>, start = 0, end = values
 
 /** How many times the first-difference estimate the spread of the record's head may be taken for noise. */
 const HEAD_NOISE_CAP = 4;
-/** Below this many times the difference estimate, a head's spread is sampling error (about 3 sd for 32 white samples). */
+/** Below this many times the difference estimate, a head's spread is sampling error (about 2 sd for 16 white samples). */
 const HEAD_NOISE_GATE = 1.5;
 /** The head: the first 1 % of the record, and at least this many samples. */
-const HEAD_MIN = 32;
+const HEAD_MIN = 16;
 
 /**
  * Noise level of a record that may start flat: the first-difference estimate, or the robust spread
