@@ -88,6 +88,11 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   if (attempts.length === 0) return failedFit(set, noise, warnings, 'no damped response was found in the data (no usable starting values)');
   let best = chooseByInformation(attempts, set.time.length);
   if (!Number.isFinite(best.sse)) return failedFit(set, noise, warnings, 'the solver did not reach a finite residual');
+  if (fitsT0(best.layout) && best.values[2] <= set.time[0]) {
+    // The event was placed at or before the first sample: no sample sees the level before it.
+    const fromStart = searchLayouts(set, ['free'], candidates, set.time[0], noise);
+    if (fromStart.length > 0 && Number.isFinite(fromStart[0].sse)) best = fromStart[0];
+  }
 
   const guarded = guardRails(trace, best, t0Start, options.window ?? {});
   if (guarded) {
