@@ -1,6 +1,6 @@
 // `npm run bench:accuracy`: Monte Carlo RMS error of omega_d and alpha against the Cramér-Rao bound, and coverage of the reported 95 % intervals.
 //
-// Usage: tsx bench/accuracy.ts [--runs 200] [--samples 2000] [--seed 1] [--workers <cores>]
+// Usage: tsx bench/accuracy.ts [--runs 200] [--samples 2000] [--seed 1] [--workers <cores>] [--cases all|white|low-pass|<ids>]
 
 import { spawn } from 'node:child_process';
 import { cpus } from 'node:os';
@@ -66,6 +66,8 @@ function printWhite(cases: AccuracyCase[], results: CaseSummary[]): string[] {
         fixed(r.alpha.bias / r.bound.white.alpha, 2),
         fixed(r.convergedOmegaD.rms / (r.bound.white.omegaD as number)),
         fixed(r.convergedAlpha.rms / r.bound.white.alpha),
+        percent(r.convergedOmegaD.coverage),
+        percent(r.convergedAlpha.coverage),
         `${r.worstSigmas[0].toFixed(1)}, ${r.worstSigmas[1].toFixed(1)}`,
         String(r.notConverged),
         String(r.noOmegaD),
@@ -75,12 +77,12 @@ function printWhite(cases: AccuracyCase[], results: CaseSummary[]): string[] {
     });
   console.log(
     formatTable(
-      ['case', 'RMS/CRB omega_d', 'RMS/CRB alpha', 'cover omega_d %', 'cover alpha %', 'bias/CRB omega_d', 'bias/CRB alpha', 'converged: RMS/CRB omega_d', 'alpha', 'worst |err|/se', 'not converged', 'no omega_d', 'free slope', 'ms/fit'],
+      ['case', 'RMS/CRB omega_d', 'RMS/CRB alpha', 'cover omega_d %', 'cover alpha %', 'bias/CRB omega_d', 'bias/CRB alpha', 'converged: RMS/CRB omega_d', 'alpha', 'cover omega_d %', 'cover alpha %', 'worst |err|/se', 'not converged', 'no omega_d', 'free slope', 'ms/fit'],
       rows,
     ),
   );
   console.log(
-    "RMS and bias over the runs that gave the estimate; converged: the same over runs with status converged; worst |err|/se: the largest error in its own reported stderr among those (omega_d, alpha); not converged: status failed or stopped at the iteration limit; no omega_d: the fit called the response not underdamped; free slope: the fit's information criterion chose the layout with a free initial slope (the bound is for the zero-slope layout).",
+    "RMS and bias over the runs that gave the estimate; converged: the same over runs with status converged (coverage as a fraction of those runs); worst |err|/se: the largest error in its own reported stderr among those (omega_d, alpha); not converged: status failed or stopped at the iteration limit; no omega_d: the fit called the response not underdamped; free slope: the fit's information criterion chose the layout with a free initial slope (the bound is for the zero-slope layout).",
   );
   return misses;
 }
@@ -117,7 +119,14 @@ function printCorrelated(cases: AccuracyCase[], results: CaseSummary[]): string[
         twin ? fixed(r.alpha.meanStderr / twin.alpha.meanStderr) : '-',
         percent(r.omegaD.coverage),
         percent(r.alpha.coverage),
+        percent(r.convergedOmegaD.coverage),
+        percent(r.convergedAlpha.coverage),
         String(r.notConverged),
+        fixed(r.locatedOmegaD.meanStderr / r.locatedOmegaD.rms),
+        fixed(r.locatedAlpha.meanStderr / r.locatedAlpha.rms),
+        percent(r.locatedOmegaD.coverage),
+        percent(r.locatedAlpha.coverage),
+        String(r.located),
       ];
     });
   console.log(
@@ -134,13 +143,32 @@ function printCorrelated(cases: AccuracyCase[], results: CaseSummary[]): string[
         'se widening alpha',
         'cover omega_d %',
         'cover alpha %',
+        'converged: cover omega_d %',
+        'cover alpha %',
         'not converged',
+        'event found: se/RMS omega_d',
+        'se/RMS alpha',
+        'cover omega_d %',
+        'cover alpha %',
+        'runs',
       ],
       rows,
     ),
   );
-  console.log('own: the bound for the filtered noise itself; se/RMS: mean reported stderr over the real spread; widening: mean reported stderr over that of the white-noise case of the same rms.');
+  console.log(
+    'own: the bound for the filtered noise itself; se/RMS: mean reported stderr over the real spread; widening: mean reported stderr over that of the white-noise case of the same rms; event found: converged runs that fitted t0 (the calibration of the uncertainties where the model matches the record).',
+  );
   return misses;
+}
+
+/** `--cases`: all, white, low-pass, or comma-separated case ids (0-based, in the order of accuracyCases). */
+function selectCases(cases: AccuracyCase[], spec: string): AccuracyCase[] {
+  if (spec === 'all') return cases;
+  if (spec === 'white' || spec === 'low-pass') return cases.filter((c) => c.noise === spec);
+  const ids = spec.split(',').map(Number);
+  const unknown = ids.filter((id) => !cases.some((c) => c.id === id));
+  if (unknown.length) throw new Error(`--cases: no case ${unknown.join(', ')} (ids 0..${cases.length - 1}, or all, white, low-pass)`);
+  return cases.filter((c) => ids.includes(c.id));
 }
 
 async function main(): Promise<void> {
@@ -150,6 +178,7 @@ async function main(): Promise<void> {
       samples: { type: 'string', default: '2000' },
       seed: { type: 'string', default: '1' },
       workers: { type: 'string', default: String(cpus().length) },
+      cases: { type: 'string', default: 'all' },
     },
   });
   const [runs, samples, seed, workers] = [values.runs, values.samples, values.seed, values.workers].map(Number);
@@ -158,13 +187,14 @@ async function main(): Promise<void> {
   }
   const began = performance.now();
   const cases = accuracyCases();
+  const chosen = selectCases(cases, values.cases);
   console.log(`Ringbench accuracy benchmark: ${machineLine(cpus(), process.version, new Date())}`);
   console.log(
     `${runs} seeded records per case, ${samples} samples each: a 0 -> 1 V step of a gate-drive loop, omega0 = 2 pi 1 MHz, 10 % pre-trigger, record 6/alpha after the event.`,
   );
   console.log('SNR = 20 log10(step height / noise rms). 8-bit: 256 codes over 3 V, adding q/sqrt(12) = ' + `${(quantizationRms() * 1e3).toFixed(2)} mV rms of quantization error.`);
   console.log('CRB: Fisher information of the fit\'s zero-slope layout (alpha, omega0, t0, yPre, yFinal) for the analog noise; coverage: value ± 1.96 stderr holds the truth.');
-  const results = await runCases(cases, samples, runs, seed, workers);
+  const results = await runCases(chosen, samples, runs, seed, workers);
 
   console.log('\nWhite noise');
   const misses = printWhite(cases, results);

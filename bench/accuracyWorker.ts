@@ -26,9 +26,13 @@ export interface CaseSummary {
   freeSlope: number;
   omegaD: Spread;
   alpha: Spread;
-  /** The same over the runs whose status is 'converged' only. */
+  /** The same over the runs whose status is 'converged' only (coverage a fraction of those runs). */
   convergedOmegaD: Spread;
   convergedAlpha: Spread;
+  /** Converged runs that fitted t0 (the event was found, so the model matches the record), their count and spreads. */
+  located: number;
+  locatedOmegaD: Spread;
+  locatedAlpha: Spread;
   /** Largest |error| / reported stderr among converged runs, omega_d and alpha (a confident outlier shows here). */
   worstSigmas: [number, number];
   /** The bound for white noise of the same rms, and for the case's own noise. */
@@ -79,6 +83,9 @@ function runCase(c: AccuracyCase, samples: number, runs: number, seed: number): 
   const alpha = new Tally();
   const convergedOmegaD = new Tally();
   const convergedAlpha = new Tally();
+  const locatedOmegaD = new Tally();
+  const locatedAlpha = new Tally();
+  let located = 0;
   let notConverged = 0;
   let noOmegaD = 0;
   let freeSlope = 0;
@@ -89,13 +96,17 @@ function runCase(c: AccuracyCase, samples: number, runs: number, seed: number): 
     if (fit.correlation?.names.includes('b')) freeSlope++;
     const wd = fit.omegaD;
     const converged = fit.status === 'converged';
+    const eventFound = converged && fit.correlation?.names.includes('t0') === true;
+    if (eventFound) located++;
     if (wd && wd.stderr !== null) {
       omegaD.add(wd.value, wd.stderr, omegaDTruth);
       if (converged) convergedOmegaD.add(wd.value, wd.stderr, omegaDTruth);
+      if (eventFound) locatedOmegaD.add(wd.value, wd.stderr, omegaDTruth);
     } else noOmegaD++;
     if (fit.alpha.stderr !== null) {
       alpha.add(fit.alpha.value, fit.alpha.stderr, truth.alpha);
       if (converged) convergedAlpha.add(fit.alpha.value, fit.alpha.stderr, truth.alpha);
+      if (eventFound) locatedAlpha.add(fit.alpha.value, fit.alpha.stderr, truth.alpha);
     }
   }
   return {
@@ -106,8 +117,11 @@ function runCase(c: AccuracyCase, samples: number, runs: number, seed: number): 
     freeSlope,
     omegaD: omegaD.spread(runs),
     alpha: alpha.spread(runs),
-    convergedOmegaD: convergedOmegaD.spread(runs),
-    convergedAlpha: convergedAlpha.spread(runs),
+    convergedOmegaD: convergedOmegaD.spread(runs - notConverged),
+    convergedAlpha: convergedAlpha.spread(runs - notConverged),
+    located,
+    locatedOmegaD: locatedOmegaD.spread(located),
+    locatedAlpha: locatedAlpha.spread(located),
     worstSigmas: [convergedOmegaD.worst, convergedAlpha.worst],
     bound,
     msPerFit: (performance.now() - start) / runs,

@@ -1,4 +1,4 @@
-// Parameter covariance from a weighted Jacobian: SVD of J^T J with a relative cut-off, and why it failed when it does.
+// Parameter covariance from a weighted Jacobian: SVD of J^T J with a relative cut-off, why it failed when it does, and the sandwich form.
 
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 
@@ -102,6 +102,22 @@ export function covarianceFromJacobian(
     degenerateDirections: [],
     warnings: [],
   };
+}
+
+/**
+ * The sandwich covariance bread * meat * bread of a least-squares estimate whose errors are not white:
+ * bread = (J^T J)^-1, meat = J^T S J with S the errors' covariance (Huber 1967, White 1980; for serially
+ * correlated errors Newey and West, Econometrica 1987 — from memory). Returns it with its correlation.
+ */
+export function sandwichCovariance(bread: readonly number[][], meat: readonly number[][]): { covariance: number[][]; correlation: number[][] } {
+  const p = bread.length;
+  const product = (x: readonly number[][], y: readonly number[][]) =>
+    x.map((row) => Array.from({ length: p }, (_, b) => row.reduce((s, v, k) => s + v * y[k][b], 0)));
+  const full = product(product(bread, meat), bread);
+  // Symmetric in exact arithmetic; averaging removes the rounding.
+  const covariance = full.map((row, a) => row.map((v, b) => (v + full[b][a]) / 2));
+  const correlation = covariance.map((row, a) => row.map((v, b) => (a === b ? 1 : v / Math.sqrt(covariance[a][a] * covariance[b][b]))));
+  return { covariance, correlation };
 }
 
 /** 'tell a and b apart (lost direction 0.707 a - 0.707 b)' from the largest components of a unit null vector. */
