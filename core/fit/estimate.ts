@@ -30,19 +30,36 @@ const MIN_BLOCKS = 48;
  * When the response hardly stands out of the noise, the same test runs on means of 2, 4, 8... samples,
  * whose noise is lower, at the finest scale where the largest excursion stands clear of it.
  */
-export function detectEvent(values: ArrayLike<number>, noise: number, step: number): EventEstimate {
+export function detectEvent(values: ArrayLike<number>, noise: number, step: number, retry = true): EventEstimate {
   const n = values.length;
   for (let size = 1; size === 1 || n / size >= MIN_BLOCKS; size *= 2) {
     const y = size === 1 ? values : blockMeans(values, 0, n, size, Infinity);
     const blockNoise = noise / Math.sqrt(size);
     const blockStep = size === 1 ? step : 0;
     const found = detectAtScale(y, blockNoise, blockStep, Math.max(2, Math.ceil(MIN_PRE_EVENT / size)));
-    if (found.peak >= CONFIDENT_PEAK * blockNoise + 2 * blockStep) {
-      const index = found.hasPreEvent ? found.onset * size : 0;
-      return { index, hasPreEvent: found.hasPreEvent };
+    if (found.peak < CONFIDENT_PEAK * blockNoise + 2 * blockStep) continue;
+    if (found.hasPreEvent) return { index: found.onset * size, hasPreEvent: true };
+    // A stretch before the onset that is not flat at this noise level may be noise the estimate read low
+    // (a bandwidth-limited front end): its own spread, where clearly larger, is tried once.
+    const before = found.onset * size;
+    if (retry && before >= 2 * MIN_PRE_EVENT) {
+      const spread = robustSpread(Array.prototype.slice.call(values, 0, before) as number[]);
+      if (spread > NOISE_RETRY_GATE * noise) return detectEvent(values, Math.min(spread, NOISE_RETRY_CAP * noise), step, false);
     }
+    return { index: 0, hasPreEvent: false };
   }
   return detectByEnergy(values, noise);
+}
+
+/** A stretch's spread must exceed the noise estimate this much to be tried as the noise level... */
+const NOISE_RETRY_GATE = 1.5;
+/** ...and counts for at most this many times it (a stretch inside the response would read high). */
+const NOISE_RETRY_CAP = 4;
+
+/** 1.4826 times the median absolute deviation from the median: the standard deviation of normal samples, robustly. */
+function robustSpread(values: number[]): number {
+  const centre = median(values);
+  return 1.4826 * median(values.map((v) => Math.abs(v - centre)));
 }
 
 /**

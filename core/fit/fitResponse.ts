@@ -86,7 +86,7 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   const candidates = rateCandidates(uniform, eventOnGrid, uniform.length, set.dt);
   const attempts = searchLayouts(set, layouts, candidates, t0Start, noise);
   if (attempts.length === 0) return failedFit(set, noise, warnings, 'no damped response was found in the data (no usable starting values)');
-  let best = chooseByInformation(attempts, set.time.length);
+  let best = chooseByInformation(attempts, set, t0Start);
   if (!Number.isFinite(best.sse)) return failedFit(set, noise, warnings, 'the solver did not reach a finite residual');
   if (fitsT0(best.layout) && best.values[2] <= set.time[0]) {
     // The event was placed at or before the first sample: no sample sees the level before it.
@@ -226,10 +226,30 @@ function guardRails(
   };
 }
 
-/** Bayesian information criterion: among nested layouts, the extra parameter must pay for itself. */
-function chooseByInformation(attempts: Attempt[], n: number): Attempt {
-  const bic = (a: Attempt) => n * Math.log(Math.max(a.sse, 1e-300) / n) + a.values.length * Math.log(n);
+/**
+ * Bayesian information criterion: among nested layouts, the extra parameter must pay for itself.
+ * Correlated noise carries fewer independent samples than the record holds, so the count is the
+ * effective one, n (1 - rho) / (1 + rho), with rho the lag-1 correlation of the closest fit's residuals
+ * (an autoregression of order one; no single source, common practice).
+ */
+function chooseByInformation(attempts: Attempt[], set: FitSet, t0Start: number): Attempt {
+  const closest = attempts.reduce((x, y) => (y.sse < x.sse ? y : x));
+  const rho = Math.max(0, lagOneCorrelation(set, closest, t0Start));
+  const n = (set.time.length * (1 - rho)) / (1 + rho);
+  const bic = (a: Attempt) => n * Math.log(Math.max(a.sse, 1e-300)) + a.values.length * Math.log(n);
   return [...attempts].sort((x, y) => bic(x) - bic(y))[0];
+}
+
+function lagOneCorrelation(set: FitSet, attempt: Attempt, t0Start: number): number {
+  const model = layoutValues(attempt.layout, attempt.values, t0Start, set.time, set.blockWidth);
+  let c0 = 0;
+  let c1 = 0;
+  for (let i = 0; i < model.length; i++) {
+    const r = set.values[i] - model[i];
+    c0 += r * r;
+    if (i > 0) c1 += r * (set.values[i - 1] - model[i - 1]);
+  }
+  return c0 > 0 ? c1 / c0 : 0;
 }
 
 /** Rank the candidate rates by the residual left after the linear part is solved exactly. */
