@@ -15,6 +15,9 @@ export interface Pole {
  */
 export function matrixPencil(y: ArrayLike<number>, modes: number): Pole[] {
   const n = y.length;
+  // A constant sequence has no poles to find, and ml-matrix's SVD can loop forever on its rank-one
+  // Hankel matrix (seen with 63 samples of 12.4); a ramp's differences are such a sequence.
+  if (isConstant(y)) return [];
   const pencil = Math.max(modes, Math.floor(n / 3));
   const rows = n - pencil;
   if (rows <= modes) return [];
@@ -31,4 +34,9 @@ export function matrixPencil(y: ArrayLike<number>, modes: number): Pole[] {
     const im = eig.imaginaryEigenvalues[k];
     return { re: 0.5 * Math.log(re * re + im * im), im: Math.atan2(im, re) };
   });
+}
+
+function isConstant(y: ArrayLike<number>): boolean {
+  for (let i = 1; i < y.length; i++) if (y[i] !== y[0]) return false;
+  return true;
 }
