@@ -3,7 +3,7 @@
 // Usage: tsx bench/speedRun.ts <capture.csv> <whole|stream> <repeats> (bench/speed.ts runs it bundled, as the command line is)
 
 import { closeSync, createReadStream, openSync, readFileSync, readSync } from 'node:fs';
-import { loadCapture } from '../main/captureFile';
+import { decodeUtf8, loadCapture } from '../main/captureFile';
 import { createCaptureReader } from '../core/capture/parseCapture';
 import { selectChannel } from '../core/capture/selectChannel';
 import type { Channel } from '../core/capture/types';
@@ -53,8 +53,8 @@ function warmPageCache(path: string): void {
 }
 
 async function streamChannel(path: string): Promise<Channel> {
-  const reader = createCaptureReader();
-  for await (const chunk of createReadStream(path, { encoding: 'utf8', highWaterMark: 1 << 20 })) reader.push(chunk as string);
+  const reader = createCaptureReader({}, decodeUtf8);
+  for await (const chunk of createReadStream(path, { highWaterMark: 1 << 20 })) reader.pushBytes(chunk as Buffer);
   return selectChannel(reader.finish());
 }
 

@@ -3,7 +3,7 @@
 import { readFileSync, statSync } from 'node:fs';
 import { createHash } from 'node:crypto';
 import { resolve } from 'node:path';
-import { parseCapture } from '../core/capture/parseCapture';
+import { parseCaptureBytes } from '../core/capture/parseCapture';
 import { selectChannel } from '../core/capture/selectChannel';
 import type { Capture, CaptureOptions, Channel } from '../core/capture/types';
 import { FileError } from './cli/errors';
@@ -29,14 +29,18 @@ export function readFileBytes(path: string): Buffer {
   }
 }
 
+/** Node's UTF-8 decoding of a byte range, as Buffer.toString gives it (a byte-order mark is kept for the parser to drop). */
+export function decodeUtf8(bytes: Uint8Array): string {
+  return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString('utf8');
+}
+
 export function loadCapture(
   path: string,
   options: CaptureOptions & { channel?: string | number; cwd?: string } = {},
 ): LoadedCapture {
   const full = resolve(options.cwd ?? process.cwd(), path);
   const bytes = readFileBytes(full);
-  const text = bytes.toString('utf8');
-  const capture = parseCapture(text, options);
+  const capture = parseCaptureBytes(bytes, decodeUtf8, options);
   return {
     path: full,
     sha256: createHash('sha256').update(bytes).digest('hex'),

@@ -99,17 +99,20 @@ function intervalAxis(layout: Layout, rows: number, warnings: string[], stamped:
 function buildChannel(column: ColumnPlan, values: Float64Array, axis: Axis): { channel: Channel; clipping: Clipping } {
   const n = axis.time.length;
   const order = axis.order;
-  let usable = 0;
-  for (let k = 0; k < n; k++) {
-    const v = values[order ? order[k] : k];
-    if (v === v && axis.time[k] === axis.time[k]) usable++;
-  }
   let time = axis.time;
-  let out: Float64Array;
-  if (usable === n) {
-    out = new Float64Array(n);
-    for (let k = 0; k < n; k++) out[k] = values[order ? order[k] : k] * column.scale;
-  } else {
+  // Copy in one pass while every sample is usable (the usual case); count and filter only when one is not.
+  let out = new Float64Array(n);
+  let usable = 0;
+  for (; usable < n; usable++) {
+    const v = values[order ? order[usable] : usable];
+    if (v !== v || time[usable] !== time[usable]) break;
+    out[usable] = v * column.scale;
+  }
+  if (usable < n) {
+    for (let k = usable; k < n; k++) {
+      const v = values[order ? order[k] : k];
+      if (v === v && axis.time[k] === axis.time[k]) usable++;
+    }
     time = new Float64Array(usable);
     out = new Float64Array(usable);
     let j = 0;

@@ -18,11 +18,20 @@ export class ColumnStore {
   /** Makes room for the row at index `length`. */
   reserve(): void {
     if (this.length < this.capacity) return;
-    this.capacity *= 2;
+    this.grow(this.capacity * 2);
+  }
+
+  /** Makes room for `rows` more rows at once, when a reader can tell how many are coming (still at least doubling). */
+  expect(rows: number): void {
+    if (this.length + rows > this.capacity) this.grow(Math.max(this.length + rows, this.capacity * 2));
+  }
+
+  private grow(capacity: number): void {
+    this.capacity = capacity;
     for (let c = 0; c < this.columns.length; c++) {
       if (!this.stored[c]) continue;
       const grown = new Float64Array(this.capacity);
-      grown.set(this.columns[c]);
+      grown.set(this.columns[c].subarray(0, this.length));
       this.columns[c] = grown;
     }
   }

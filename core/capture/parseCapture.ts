@@ -1,4 +1,4 @@
-// Reads capture text (a scope's CSV or text export) into a Capture, whole or streamed in chunks.
+// Reads capture text (a scope's CSV or text export), or its UTF-8 bytes, into a Capture, whole or streamed in chunks.
 //
 // How a text is read:
 // - Lines end in LF, CRLF or CR; a UTF-8 byte-order mark is dropped. Blank lines and comments ('#', ';', '%', '//')
@@ -22,6 +22,7 @@
 //   samples are needed; flat runs at an ADC rail are marked in `clipped` (see detectClipping).
 
 import { assembleCapture } from './assembleCapture';
+import { ByteRowReader, DECLINED } from './byteRowReader';
 import { ColumnStore } from './columnStore';
 import { dataShape, sameShape, type DataShape } from './dataShape';
 import { decideLayout, type Layout } from './layout';
@@ -32,10 +33,22 @@ import { CaptureError, type Capture, type CaptureOptions } from './types';
 
 /** Data rows of the same shape needed in a row before the table is taken to have started. */
 const CONFIRMING_ROWS = 3;
+/** Bytes decoded to text at a time while the layout is not yet known. */
+const HEAD_BYTES = 1 << 14;
+const LF = 10;
+const CR = 13;
+
+/** The host's UTF-8 decoder (Buffer's toString, TextDecoder); it is only ever given whole lines. */
+export type Utf8Decoder = (bytes: Uint8Array) => string;
 
 export interface CaptureReader {
   /** Adds the next piece of text; pieces may split lines (and CRLF pairs) anywhere. */
   push(chunk: string): void;
+  /**
+   * Adds the next piece of the file's UTF-8 bytes, split anywhere (needs the reader's decoder; do not mix with
+   * push). Lines of plain numbers are read straight from the bytes; every other line is decoded and read as text.
+   */
+  pushBytes(chunk: Uint8Array): void;
   /** Ends the text and returns the capture; throws CaptureError for a bad file. */
   finish(): Capture;
 }
@@ -55,8 +68,14 @@ class StreamingReader implements CaptureReader {
   private readonly lines = new LineMap();
   private pending: { line: number; message: string; text: string } | null = null;
   private pendingCount = 0;
+  private byteRows: ByteRowReader | null = null;
+  /** Bytes after the last complete line pushed. */
+  private carriedBytes: Uint8Array = new Uint8Array(0);
 
-  constructor(private readonly options: CaptureOptions) {}
+  constructor(
+    private readonly options: CaptureOptions,
+    private readonly decode: Utf8Decoder | null,
+  ) {}
 
   push(chunk: string): void {
     if (this.finished) throw new CaptureError('text pushed after finish()');
@@ -82,8 +101,32 @@ class StreamingReader implements CaptureReader {
     this.carry = pos === 0 ? text : text.slice(pos);
   }
 
+  pushBytes(chunk: Uint8Array): void {
+    if (this.finished) throw new CaptureError('bytes pushed after finish()');
+    // A plain Uint8Array view (not a Buffer) keeps the hot loop's element reads monomorphic.
+    const bytes = this.carriedBytes.length === 0 ? new Uint8Array(chunk.buffer, chunk.byteOffset, chunk.byteLength) : joinBytes(this.carriedBytes, chunk);
+    const complete = bytes.lastIndexOf(LF) + 1;
+    let pos = 0;
+    while (pos < complete && this.byteRows === null) {
+      const cut = this.layout === null ? lineEndAfter(bytes, pos + HEAD_BYTES, complete) : complete;
+      this.push(this.decoder()(bytes.subarray(pos, cut)));
+      pos = cut;
+      this.byteRows = this.byteRowReader();
+    }
+    if (pos < complete) {
+      (this.store as ColumnStore).expect(estimateLines(bytes, pos, complete));
+      this.readByteLines(bytes, pos, complete);
+    }
+    this.carriedBytes = bytes.slice(complete);
+  }
+
   finish(): Capture {
     if (this.finished) throw new CaptureError('finish() called twice');
+    if (this.carriedBytes.length > 0) {
+      const rest = this.carriedBytes;
+      this.carriedBytes = new Uint8Array(0);
+      this.push(this.decoder()(rest));
+    }
     const last = this.carry.endsWith('\r') ? this.carry.slice(0, -1) : this.carry;
     this.carry = '';
     if (last !== '') {
@@ -119,13 +162,50 @@ class StreamingReader implements CaptureReader {
     const outcome = rows.read(start, end);
     if (outcome === SKIP) return;
     if (outcome === ROW) {
-      if (this.pending) throw new CaptureError(this.pending.message, this.pending.line);
-      this.lines.record((this.store as ColumnStore).length - 1, line);
+      this.rowStored(line);
       return;
     }
     const shown = text.slice(start, Math.min(end, start + 60)).trim();
     this.pending ??= { line, message: outcome as string, text: shown };
     this.pendingCount++;
+  }
+
+  private rowStored(line: number): void {
+    if (this.pending) throw new CaptureError(this.pending.message, this.pending.line);
+    this.lines.record((this.store as ColumnStore).length - 1, line);
+  }
+
+  /** The complete lines bytes[pos, complete) of the table, each from the bytes or, when declined, as text. */
+  private readByteLines(bytes: Uint8Array, pos: number, complete: number): void {
+    const byteRows = this.byteRows as ByteRowReader;
+    while (pos < complete) {
+      const line = ++this.line;
+      const outcome = byteRows.read(bytes, pos, complete);
+      const at = byteRows.lineFeed;
+      if (outcome === ROW) this.rowStored(line);
+      else if (outcome === DECLINED) {
+        const end = at > pos && bytes[at - 1] === CR ? at - 1 : at;
+        const text = this.decoder()(bytes.subarray(pos, end));
+        (this.rows as RowReader).begin(text);
+        this.readRow(text, line, 0, text.length);
+      }
+      pos = at + 1;
+    }
+  }
+
+  /** The byte reader once the layout is known, when lines end in LF and every column holds numbers; else null. */
+  private byteRowReader(): ByteRowReader | null {
+    const layout = this.layout;
+    if (layout === null || this.terminator !== '\n' || layout.columns.some((c) => c.kind === 'timestamp')) return null;
+    const delimiter = layout.delimiter || ',';
+    // A decimal comma in a comma-separated table (from quoted fields) needs the cells split first: the text path.
+    if (layout.decimalComma && delimiter === ',') return null;
+    return new ByteRowReader(this.store as ColumnStore, delimiter, layout.decimalComma ? 44 : 46);
+  }
+
+  private decoder(): Utf8Decoder {
+    if (this.decode === null) throw new Error('pushBytes needs a reader made with a UTF-8 decoder (createCaptureReader(options, decode))');
+    return this.decode;
   }
 
   private takeHeadLine(text: string): void {
@@ -159,9 +239,38 @@ class StreamingReader implements CaptureReader {
   }
 }
 
-/** An incremental reader: push the text in pieces of any size, then finish(). */
-export function createCaptureReader(options: CaptureOptions = {}): CaptureReader {
-  return new StreamingReader(options);
+/** An incremental reader: push the text (or, given a decoder, the bytes) in pieces of any size, then finish(). */
+export function createCaptureReader(options: CaptureOptions = {}, decode: Utf8Decoder | null = null): CaptureReader {
+  return new StreamingReader(options, decode);
+}
+
+/** Reads a whole capture from its UTF-8 bytes: the same capture as parseCapture(decode(bytes)), sooner. */
+export function parseCaptureBytes(bytes: Uint8Array, decode: Utf8Decoder, options: CaptureOptions = {}): Capture {
+  const reader = createCaptureReader(options, decode);
+  reader.pushBytes(bytes);
+  return reader.finish();
+}
+
+function joinBytes(a: Uint8Array, b: Uint8Array): Uint8Array {
+  const joined = new Uint8Array(a.length + b.length);
+  joined.set(a);
+  joined.set(b, a.length);
+  return joined;
+}
+
+/** Lines in bytes[from, to), from the line length over the first HEAD_BYTES (a little over, so one allocation holds them). */
+function estimateLines(bytes: Uint8Array, from: number, to: number): number {
+  const sampleEnd = Math.min(to, from + HEAD_BYTES);
+  let lines = 0;
+  for (let i = from; i < sampleEnd; i++) if (bytes[i] === LF) lines++;
+  return Math.ceil((lines * (to - from) * 1.01) / (sampleEnd - from));
+}
+
+/** The position just after the first LF at or beyond `from` - 1, at most `limit` (itself just after an LF). */
+function lineEndAfter(bytes: Uint8Array, from: number, limit: number): number {
+  if (from >= limit) return limit;
+  const at = bytes.indexOf(LF, from - 1);
+  return at < 0 || at >= limit ? limit : at + 1;
 }
 
 /** Reads a whole capture text. Throws CaptureError naming the 1-based line and what was wrong. */

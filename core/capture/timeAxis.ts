@@ -68,14 +68,11 @@ const UNIFORM_TOLERANCE = 0.01;
 
 /** The interval when the (increasing) axis is uniform to 1 % of a step, else null; rows without a time skipped. */
 export function uniformInterval(time: Float64Array): number | null {
-  let first = -1;
-  let last = -1;
-  for (let i = 0; i < time.length; i++) {
-    if (time[i] !== time[i]) continue;
-    if (first < 0) first = i;
-    last = i;
-  }
-  if (first < 0 || last === first) return null;
+  let first = 0;
+  while (first < time.length && time[first] !== time[first]) first++;
+  let last = time.length - 1;
+  while (last > first && time[last] !== time[last]) last--;
+  if (first >= last) return null;
   const step = (time[last] - time[first]) / (last - first);
   if (!(step > 0)) return null;
   for (let i = first; i <= last; i++) {
