@@ -1,6 +1,6 @@
 // The linear part of the response (levels and amplitudes) by least squares for given alpha, omega0, t0.
 
-import { fillDampedBasis } from '../response/secondOrder';
+import { fillDampedBasis, type BlockAverage } from '../response/secondOrder';
 import { LAYOUT_NAMES, nonlinearCount, type ParameterLayout } from './responseModel';
 
 export interface LinearSolution {
@@ -55,21 +55,30 @@ function solveNormal(m: Float64Array, r: Float64Array, k: number): number[] {
 export class Workspace {
   readonly ec: Float64Array;
   readonly es: Float64Array;
+  /** Share of each value's samples at or after t0 (see fillDampedBasis). */
+  readonly after: Float64Array;
   readonly model: Float64Array;
   constructor(readonly length: number) {
     this.ec = new Float64Array(length);
     this.es = new Float64Array(length);
+    this.after = new Float64Array(length);
     this.model = new Float64Array(length);
   }
 }
 
-/** The linear basis row of a layout at one sample, from the damped basis values there. */
-function basisRow(layout: ParameterLayout, alpha: number, before: boolean, ec: number, es: number, g: Float64Array): void {
-  if (before) {
-    g.fill(0);
-    g[0] = 1;
-    return;
-  }
+/**
+ * The linear basis row of a layout at one value: the pre-event row weighted by the share of its samples
+ * before t0, plus the response row (from the damped basis there) weighted by the share at or after it.
+ */
+function basisRow(layout: ParameterLayout, alpha: number, after: number, ec: number, es: number, g: Float64Array): void {
+  responseRow(layout, alpha, ec, es, g);
+  if (after === 1) return;
+  for (let p = 0; p < g.length; p++) g[p] *= after;
+  // Every layout's first linear parameter is the level before the event ('free' has none: its values start at t0).
+  if (layout !== 'free') g[0] += 1 - after;
+}
+
+function responseRow(layout: ParameterLayout, alpha: number, ec: number, es: number, g: Float64Array): void {
   switch (layout) {
     case 'smooth': {
       const shape = ec + alpha * es;
@@ -98,7 +107,7 @@ function basisRow(layout: ParameterLayout, alpha: number, before: boolean, ec: n
 
 /**
  * Linear parameters minimising the squared error for fixed alpha, omega0 and t0; the model values
- * are left in workspace.model. In the 'free' layout samples before t0 are not part of the fit.
+ * are left in workspace.model. In the 'free' layout values with samples before t0 are not part of the fit.
  */
 export function solveAmplitudes(
   layout: ParameterLayout,
@@ -108,20 +117,19 @@ export function solveAmplitudes(
   omega0: number,
   t0: number,
   workspace: Workspace = new Workspace(time.length),
-  blockWidth = 0,
+  block: BlockAverage | null = null,
 ): LinearSolution {
   const k = LAYOUT_NAMES[layout].length - nonlinearCount(layout);
   const n = time.length;
-  const { ec, es, model } = workspace;
-  fillDampedBasis(alpha, omega0, t0, time, ec, es, blockWidth);
+  const { ec, es, after, model } = workspace;
+  fillDampedBasis(alpha, omega0, t0, time, ec, es, block, after);
   const m = new Float64Array(k * k);
   const r = new Float64Array(k);
   const g = new Float64Array(k);
   const skipBefore = layout === 'free';
   for (let i = 0; i < n; i++) {
-    const before = time[i] < t0;
-    if (before && skipBefore) continue;
-    basisRow(layout, alpha, before, ec[i], es[i], g);
+    if (after[i] < 1 && skipBefore) continue;
+    basisRow(layout, alpha, after[i], ec[i], es[i], g);
     const y = values[i];
     for (let p = 0; p < k; p++) {
       r[p] += g[p] * y;
@@ -132,12 +140,11 @@ export function solveAmplitudes(
   const coefficients = solveNormal(m, r, k);
   let sse = 0;
   for (let i = 0; i < n; i++) {
-    const before = time[i] < t0;
-    basisRow(layout, alpha, before, ec[i], es[i], g);
+    basisRow(layout, alpha, after[i], ec[i], es[i], g);
     let y = 0;
     for (let p = 0; p < k; p++) y += g[p] * coefficients[p];
     model[i] = y;
-    if (before && skipBefore) continue;
+    if (after[i] < 1 && skipBefore) continue;
     const d = values[i] - y;
     sse += d * d;
   }

@@ -8,7 +8,7 @@ import { estimateNoise, quantisationStep, recordNoise } from './noise';
 import { detectEvent, rateCandidates, type RateCandidate } from './estimate';
 import { solveAmplitudes, Workspace } from './amplitudes';
 import { LAYOUT_NAMES, fitsT0, layoutValues, nonlinearCount, unpackParams, type ParameterLayout } from './responseModel';
-import { prepareFitSet, uniformValues, type FitSet } from './fitSet';
+import { firstSampleTime, prepareFitSet, uniformValues, type FitSet } from './fitSet';
 import { responseCovariance } from './responseCovariance';
 import { FitInputError } from './fitInputError';
 
@@ -78,7 +78,8 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   const noise = recordNoise(set.values);
   const step = quantisationStep(set.values);
   const event = options.window?.start !== undefined ? { index: 0, hasPreEvent: false } : detectEvent(set.values, noise, step);
-  const t0Start = set.time[event.index];
+  // Without a pre-event stretch the response is taken from the first sample on.
+  let t0Start = event.hasPreEvent ? set.time[event.index] : firstSampleTime(set);
   const layouts: ParameterLayout[] = !event.hasPreEvent ? ['free'] : continuity === 'continuous' ? ['smooth', 'step'] : ['free-pre'];
   const warnings: string[] = [...set.warnings];
   const uniform = uniformValues(set);
@@ -88,10 +89,13 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   if (attempts.length === 0) return failedFit(set, noise, warnings, 'no damped response was found in the data (no usable starting values)');
   let best = chooseByInformation(attempts, set, t0Start);
   if (!Number.isFinite(best.sse)) return failedFit(set, noise, warnings, 'the solver did not reach a finite residual');
-  if (fitsT0(best.layout) && best.values[2] <= set.time[0]) {
+  if (fitsT0(best.layout) && best.values[2] <= firstSampleTime(set)) {
     // The event was placed at or before the first sample: no sample sees the level before it.
-    const fromStart = searchLayouts(set, ['free'], candidates, set.time[0], noise);
-    if (fromStart.length > 0 && Number.isFinite(fromStart[0].sse)) best = fromStart[0];
+    const fromStart = searchLayouts(set, ['free'], candidates, firstSampleTime(set), noise);
+    if (fromStart.length > 0 && Number.isFinite(fromStart[0].sse)) {
+      best = fromStart[0];
+      t0Start = firstSampleTime(set);
+    }
   }
 
   const guarded = guardRails(trace, best, t0Start, options.window ?? {});
@@ -157,7 +161,7 @@ function shiftByHalfPeriods(set: FitSet, attempt: Attempt): Attempt {
   for (let k = -HALF_PERIOD_SHIFTS; k <= HALF_PERIOD_SHIFTS; k++) {
     const shifted = t0 + k * halfPeriod;
     if (k === 0 || shifted <= set.time[0] || shifted >= set.time[set.time.length - 1]) continue;
-    const { sse } = solveAmplitudes(attempt.layout, set.time, set.values, alpha, omega0, shifted, workspace, set.blockWidth);
+    const { sse } = solveAmplitudes(attempt.layout, set.time, set.values, alpha, omega0, shifted, workspace, set.block);
     if (sse < bestSse) {
       bestSse = sse;
       bestShift = k;
@@ -208,7 +212,7 @@ function guardRails(
   // One rail only: it is the top one when it lies above every unclipped sample.
   if (top === bottom) [top, bottom] = top >= unclippedTop ? [top, -Infinity] : [Infinity, bottom];
   const margin = 3 * estimateNoise(values);
-  const model = layoutValues(best.layout, best.values, t0Start, time, 0);
+  const model = layoutValues(best.layout, best.values, t0Start, time);
   const guard = Uint8Array.from(clipped);
   let added = 0;
   for (let i = 0; i < values.length; i++) {
@@ -241,7 +245,7 @@ function chooseByInformation(attempts: Attempt[], set: FitSet, t0Start: number):
 }
 
 function lagOneCorrelation(set: FitSet, attempt: Attempt, t0Start: number): number {
-  const model = layoutValues(attempt.layout, attempt.values, t0Start, set.time, set.blockWidth);
+  const model = layoutValues(attempt.layout, attempt.values, t0Start, set.time, set.block);
   let c0 = 0;
   let c1 = 0;
   for (let i = 0; i < model.length; i++) {
@@ -268,7 +272,7 @@ function rankCandidates(set: FitSet, layout: ParameterLayout, candidates: RateCa
     }
   }
   const scored = expanded
-    .map((c) => ({ c, sse: solveAmplitudes(layout, time, values, c.alpha, c.omega0, t0, workspace, set.blockWidth).sse }))
+    .map((c) => ({ c, sse: solveAmplitudes(layout, time, values, c.alpha, c.omega0, t0, workspace, set.block).sse }))
     .filter((s) => Number.isFinite(s.sse))
     .sort((x, y) => x.sse - y.sse);
   const distinct: RateCandidate[] = [];
@@ -298,7 +302,7 @@ function refine(set: FitSet, layout: ParameterLayout, start: RateCandidate, t0St
     const hit = cache.find((entry) => entry.key === u);
     if (hit) return hit.model;
     const [alpha, omega0, t0 = t0Start] = toPhysical(u);
-    solveAmplitudes(layout, set.time, set.values, alpha, omega0, t0, workspace, set.blockWidth);
+    solveAmplitudes(layout, set.time, set.values, alpha, omega0, t0, workspace, set.block);
     const entry = cache.length < 4 ? { key: u, model: new Float64Array(set.time.length) } : (cache.pop() as (typeof cache)[0]);
     entry.key = u;
     entry.model.set(workspace.model);
@@ -316,7 +320,7 @@ function refine(set: FitSet, layout: ParameterLayout, start: RateCandidate, t0St
   const result = fitCurve(model, { x: indices, y: set.values }, initial, { min, maxIterations: MAX_ITERATIONS });
   const nonlinear = toPhysical(result.parameters.map((p) => p.value));
   const [alpha, omega0, t0 = t0Start] = nonlinear;
-  const linear = solveAmplitudes(layout, set.time, set.values, alpha, omega0, t0, workspace, set.blockWidth);
+  const linear = solveAmplitudes(layout, set.time, set.values, alpha, omega0, t0, workspace, set.block);
   return {
     layout,
     values: [...nonlinear, ...linear.coefficients],

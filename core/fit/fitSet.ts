@@ -1,6 +1,7 @@
 // The samples a response fit uses: unclipped, inside the window, block-averaged when very long.
 
 import type { Trace } from './fitResponse';
+import type { BlockAverage } from '../response/secondOrder';
 import { estimateNoise, median } from './noise';
 import { FitInputError } from './fitInputError';
 
@@ -15,8 +16,8 @@ export interface FitSet {
   samplesUsed: number;
   window: { start: number; end: number };
   decimation: { factor: number; note: string } | null;
-  /** Width of the blocks the values are means over, s (0 when not decimated): the model is averaged alike. */
-  blockWidth: number;
+  /** The blocks the values are means over (null when not decimated): the model is averaged alike. */
+  block: BlockAverage | null;
   warnings: string[];
 }
 
@@ -85,7 +86,7 @@ export function prepareFitSet(trace: Trace, window: { start?: number; end?: numb
     samplesUsed: used,
     window: { start: t.length ? t[0] : NaN, end: t.length ? t[t.length - 1] : NaN },
     decimation,
-    blockWidth: decimation ? dt * decimation.factor : 0,
+    block: decimation ? { samples: decimation.factor, spacing: dt } : null,
     warnings,
   };
 }
@@ -161,4 +162,9 @@ export function uniformValues(set: FitSet): Float64Array {
     out[k] = values[j] + f * (values[j + 1] - values[j]);
   }
   return out;
+}
+
+/** Time of the first sample the set holds: the first of the first block when the set is block means. */
+export function firstSampleTime(set: FitSet): number {
+  return set.block ? set.time[0] - ((set.block.samples - 1) / 2) * set.block.spacing : set.time[0];
 }

@@ -26,8 +26,8 @@ function responseJacobian(set: FitSet, layout: ParameterLayout, values: readonly
     const lo = [...values];
     hi[j] += h;
     lo[j] -= h;
-    const up = layoutValues(layout, hi, t0Fixed, set.time, set.blockWidth);
-    const down = layoutValues(layout, lo, t0Fixed, set.time, set.blockWidth);
+    const up = layoutValues(layout, hi, t0Fixed, set.time, set.block);
+    const down = layoutValues(layout, lo, t0Fixed, set.time, set.block);
     for (let i = 0; i < n; i++) rows[i][j] = (up[i] - down[i]) / (2 * h);
   }
   return rows;
@@ -143,7 +143,7 @@ export function responseCovariance(
   residualVariance: number,
 ): ResponseCovariance {
   const names = LAYOUT_NAMES[layout];
-  const model = layoutValues(layout, values, t0Fixed, set.time, set.blockWidth);
+  const model = layoutValues(layout, values, t0Fixed, set.time, set.block);
   const residuals = set.values.map((y, i) => y - model[i]);
   const J = responseJacobian(set, layout, values, t0Fixed);
   // Unit variance: (J^T J)^-1, the bread of the sandwich and, times the residual variance, the white-noise covariance.

@@ -1,6 +1,6 @@
 // The constraint layouts of the response model: which parameters are free, and the basis of its linear part.
 
-import { fillDampedBasis, type ResponseParams } from '../response/secondOrder';
+import { fillDampedBasis, type BlockAverage, type ResponseParams } from '../response/secondOrder';
 
 /**
  * 'smooth': continuous at t0 with zero initial slope (a capacitor voltage or inductor current that
@@ -42,19 +42,20 @@ export function unpackParams(layout: ParameterLayout, v: readonly number[], fixe
   }
 }
 
-/** Model values over a time axis for the full parameter vector v; block means when blockWidth > 0. */
+/** Model values over a time axis for the full parameter vector v; means over each block's samples for a block average. */
 export function layoutValues(
   layout: ParameterLayout,
   v: readonly number[],
   fixedT0: number,
   time: ArrayLike<number>,
-  blockWidth = 0,
+  block: BlockAverage | null = null,
 ): Float64Array {
   const p = unpackParams(layout, v, fixedT0);
   const ec = new Float64Array(time.length);
   const es = new Float64Array(time.length);
-  fillDampedBasis(p.alpha, p.omega0, p.t0, time, ec, es, blockWidth);
+  const after = new Float64Array(time.length);
+  fillDampedBasis(p.alpha, p.omega0, p.t0, time, ec, es, block, after);
   const y = new Float64Array(time.length);
-  for (let i = 0; i < time.length; i++) y[i] = time[i] < p.t0 ? p.yPre : p.yFinal + p.a * ec[i] + p.b * es[i];
+  for (let i = 0; i < time.length; i++) y[i] = (1 - after[i]) * p.yPre + after[i] * (p.yFinal + p.a * ec[i] + p.b * es[i]);
   return y;
 }

@@ -40,11 +40,18 @@ export function dampedBasis(alpha: number, omega0: number, tau: number): [number
   return [oneC[0], oneS[0]];
 }
 
+/** A record averaged in blocks: each value is the mean of `samples` consecutive samples `spacing` apart, centred on its time. */
+export interface BlockAverage {
+  samples: number;
+  spacing: number;
+}
+
 /**
  * e^(-alpha tau) C(tau) and e^(-alpha tau) S(tau) over a whole time axis (tau = t - t0; zero before t0),
  * without allocating per sample: the hot loop of every fit. A heavily overdamped response neither
- * overflows nor cancels: cosh and sinh are split into the two poles. With blockWidth > 0, the means
- * over blocks of that width centred on each sample.
+ * overflows nor cancels: cosh and sinh are split into the two poles. With a block average, the means
+ * over each block's samples at or after t0, and in `after` the fraction of the block's samples that
+ * is (1 after the event, 0 before it, in between for the block the event falls in; 0 or 1 without blocks).
  */
 export function fillDampedBasis(
   alpha: number,
@@ -53,7 +60,8 @@ export function fillDampedBasis(
   time: ArrayLike<number>,
   ec: Float64Array,
   es: Float64Array,
-  blockWidth = 0,
+  block: BlockAverage | null = null,
+  after?: Float64Array,
 ): void {
   const q = omega0 * omega0 - alpha * alpha;
   const w = Math.sqrt(Math.abs(q));
@@ -64,43 +72,38 @@ export function fillDampedBasis(
       es[i] = 0;
       continue;
     }
-    const x = q * tau * tau;
-    if (Math.abs(x) < SERIES_LIMIT) {
-      const e = Math.exp(-alpha * tau);
-      ec[i] = e * (1 - x / 2 + (x * x) / 24 - (x * x * x) / 720 + (x * x * x * x) / 40320);
-      es[i] = e * tau * (1 - x / 6 + (x * x) / 120 - (x * x * x) / 5040 + (x * x * x * x) / 362880);
-    } else if (q > 0) {
-      const e = Math.exp(-alpha * tau);
-      ec[i] = e * Math.cos(w * tau);
-      es[i] = (e * Math.sin(w * tau)) / w;
-    } else {
-      const slow = Math.exp((w - alpha) * tau);
-      const fast = Math.exp(-(alpha + w) * tau);
-      ec[i] = (slow + fast) / 2;
-      es[i] = (slow - fast) / (2 * w);
-    }
+    [ec[i], es[i]] = pointBasis(alpha, q, w, tau);
   }
-  if (blockWidth > 0) averageOverBlocks(alpha, omega0, t0, time, ec, es, blockWidth);
+  if (block && block.samples > 1) averageOverBlocks(alpha, omega0, t0, time, ec, es, block, after);
+  else if (after) for (let i = 0; i < time.length; i++) after[i] = time[i] < t0 ? 0 : 1;
+}
+
+/** The basis at one tau >= 0, with q = omega0^2 - alpha^2 and w = sqrt|q|. */
+function pointBasis(alpha: number, q: number, w: number, tau: number): [number, number] {
+  const x = q * tau * tau;
+  if (Math.abs(x) < SERIES_LIMIT) {
+    const e = Math.exp(-alpha * tau);
+    return [
+      e * (1 - x / 2 + (x * x) / 24 - (x * x * x) / 720 + (x * x * x * x) / 40320),
+      e * tau * (1 - x / 6 + (x * x) / 120 - (x * x * x) / 5040 + (x * x * x * x) / 362880),
+    ];
+  }
+  if (q > 0) {
+    const e = Math.exp(-alpha * tau);
+    return [e * Math.cos(w * tau), (e * Math.sin(w * tau)) / w];
+  }
+  const slow = Math.exp((w - alpha) * tau);
+  const fast = Math.exp(-(alpha + w) * tau);
+  return [(slow + fast) / 2, (slow - fast) / (2 * w)];
 }
 
 /**
- * Turns point values of the basis into means over a block of width h centred on each sample (what a
- * record averaged in blocks holds). Averaging e^(s tau) gives e^(s tau) G(s), G(s) = sinh(s h/2)/(s h/2);
- * with the poles s1, s2 of the circuit, Gm = (G(s1) + G(s2)) / 2 and D = (G(s1) - G(s2)) / (s1 - s2)
- * are real in every regime and smooth through critical damping, and
- *   mean(ec) = Gm ec - D q es,   mean(es) = Gm es + D ec   (q = omega0^2 - alpha^2).
- * Gm and D come from G's power series and the power sums of the poles (recurrences in s1 + s2 = -2 alpha
- * and s1 s2 = omega0^2). Samples whose block reaches back past t0 keep their point values.
+ * Gm = (G(s1) + G(s2)) / 2 and D = (G(s1) - G(s2)) / (s1 - s2) for G(s) = sinh(s h/2) / (s h/2), the
+ * mean of e^(s tau) over a window of width h around tau, and s1, s2 the poles of the circuit; both are
+ * real in every regime and smooth through critical damping. From G's power series and the power sums
+ * of the poles (recurrences in s1 + s2 = -2 alpha and s1 s2 = omega0^2).
  */
-function averageOverBlocks(
-  alpha: number,
-  omega0: number,
-  t0: number,
-  time: ArrayLike<number>,
-  ec: Float64Array,
-  es: Float64Array,
-  h: number,
-): void {
+function windowGain(alpha: number, omega0: number, h: number): [number, number] {
   const sum = -2 * alpha;
   const product = omega0 * omega0;
   let pPrev = 2; // s1^0 + s2^0
@@ -126,13 +129,64 @@ function averageOverBlocks(
     u = sum * u2 - product * u;
     if (Math.abs(termG) < 1e-16 * Math.abs(gm) && Math.abs(termD) < 1e-16 * Math.abs(d) + 1e-300) break;
   }
-  const q = product - alpha * alpha;
+  return [gm, d];
+}
+
+/**
+ * Turns point values of the basis into means over each block's samples (what a record averaged in
+ * blocks holds). Averaging e^(s tau) over m samples dt apart gives e^(s tau) G_m(s) with
+ * G_m(s) = sinh(s m dt/2) / (m sinh(s dt/2)) = G(s; m dt) / G(s; dt), whose pole-pair form (Gm, D) follows
+ * from those of the two windows (q = omega0^2 - alpha^2 = -((s1 - s2)/2)^2):
+ *   Gm = (Gm_h Gm_dt + D_h D_dt q) / n,  D = (D_h Gm_dt - Gm_h D_dt) / n,  n = Gm_dt^2 + D_dt^2 q,
+ * and then mean(ec) = Gm ec - D q es, mean(es) = Gm es + D ec. A block the event falls in is averaged
+ * sample by sample over its samples at or after t0.
+ */
+function averageOverBlocks(
+  alpha: number,
+  omega0: number,
+  t0: number,
+  time: ArrayLike<number>,
+  ec: Float64Array,
+  es: Float64Array,
+  block: BlockAverage,
+  after?: Float64Array,
+): void {
+  const { samples, spacing } = block;
+  const q = omega0 * omega0 - alpha * alpha;
+  const w = Math.sqrt(Math.abs(q));
+  const [gmBlock, dBlock] = windowGain(alpha, omega0, samples * spacing);
+  const [gmSample, dSample] = windowGain(alpha, omega0, spacing);
+  const norm = gmSample * gmSample + dSample * dSample * q;
+  const gm = (gmBlock * gmSample + dBlock * dSample * q) / norm;
+  const d = (dBlock * gmSample - gmBlock * dSample) / norm;
+  const reach = ((samples - 1) / 2) * spacing;
   for (let i = 0; i < time.length; i++) {
-    if (time[i] - t0 < h / 2) continue;
-    const c = ec[i];
-    const s = es[i];
-    ec[i] = gm * c - d * q * s;
-    es[i] = gm * s + d * c;
+    const first = time[i] - reach;
+    if (first >= t0) {
+      const c = ec[i];
+      const s = es[i];
+      ec[i] = gm * c - d * q * s;
+      es[i] = gm * s + d * c;
+      if (after) after[i] = 1;
+    } else if (time[i] + reach < t0) {
+      if (after) after[i] = 0;
+    } else {
+      // The event falls inside this block: the mean over its samples at or after t0, and their share.
+      let count = 0;
+      let sumC = 0;
+      let sumS = 0;
+      for (let j = 0; j < samples; j++) {
+        const tau = first + j * spacing - t0;
+        if (tau < 0) continue;
+        const [c, s] = pointBasis(alpha, q, w, tau);
+        sumC += c;
+        sumS += s;
+        count++;
+      }
+      ec[i] = count ? sumC / count : 0;
+      es[i] = count ? sumS / count : 0;
+      if (after) after[i] = count / samples;
+    }
   }
 }
 

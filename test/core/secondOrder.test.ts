@@ -52,27 +52,45 @@ describe('responseAt', () => {
 });
 
 describe('fillDampedBasis with blocks', () => {
-  it.each([
-    ['underdamped', 0.3, 1],
-    ['critically damped', 1, 1],
-    ['overdamped', 3, 1],
-  ])('gives the mean over each block of an %s basis (numerical quadrature as the reference)', (_, alpha, omega0) => {
-    const h = 0.7;
-    const time = [2, 5];
-    const ec = new Float64Array(2);
-    const es = new Float64Array(2);
-    fillDampedBasis(alpha, omega0, 0, time, ec, es, h);
-    const steps = 20000;
-    for (let k = 0; k < 2; k++) {
-      let meanC = 0;
-      let meanS = 0;
-      for (let j = 0; j < steps; j++) {
-        const [c, s] = dampedBasis(alpha, omega0, time[k] - h / 2 + ((j + 0.5) * h) / steps);
-        meanC += c / steps;
-        meanS += s / steps;
-      }
-      expect(ec[k]).toBeCloseTo(meanC, 9);
-      expect(es[k]).toBeCloseTo(meanS, 9);
+  /** The reference: the mean of the point basis over a block's own samples at or after t0, and their share. */
+  function blockMean(alpha: number, omega0: number, t0: number, centre: number, samples: number, spacing: number): [number, number, number] {
+    let c = 0;
+    let s = 0;
+    let count = 0;
+    for (let j = 0; j < samples; j++) {
+      const tau = centre + (j - (samples - 1) / 2) * spacing - t0;
+      if (tau < 0) continue;
+      const [pc, ps] = dampedBasis(alpha, omega0, tau);
+      c += pc;
+      s += ps;
+      count++;
     }
+    return count ? [c / count, s / count, count / samples] : [0, 0, 0];
+  }
+
+  it.each([
+    ['underdamped, 7 samples a block', 0.3, 1, 7, 0.1],
+    ['underdamped, 2 samples a block (where a continuous window is 0.7 % off)', 0.05, 1, 2, 0.4],
+    ['critically damped, 50 samples a block', 1, 1, 50, 0.014],
+    ['overdamped, 200 samples a block', 3, 1, 200, 0.0035],
+  ])('gives the mean over each block of an %s basis', (_, alpha, omega0, samples, spacing) => {
+    // Blocks before the event, across it, just after it and well after it.
+    const t0 = 1;
+    const width = samples * spacing;
+    const time = [t0 - width, t0 + 0.2 * width, t0 + ((samples - 1) / 2) * spacing, 5];
+    const ec = new Float64Array(time.length);
+    const es = new Float64Array(time.length);
+    const after = new Float64Array(time.length);
+    fillDampedBasis(alpha, omega0, t0, time, ec, es, { samples, spacing }, after);
+    for (let k = 0; k < time.length; k++) {
+      const [c, s, share] = blockMean(alpha, omega0, t0, time[k], samples, spacing);
+      expect(ec[k]).toBeCloseTo(c, 12);
+      expect(es[k]).toBeCloseTo(s, 12);
+      expect(after[k]).toBeCloseTo(share, 15);
+    }
+    expect(after[0]).toBe(0);
+    expect(after[1]).toBeGreaterThan(0);
+    expect(after[1]).toBeLessThan(1);
+    expect(after[2]).toBe(1);
   });
 });
