@@ -114,10 +114,11 @@ function detectAtScale(
     }
   }
   if (first < 0) return { onset: 0, hasPreEvent: false, peak };
-  let flat = true;
-  for (let i = 0; i < Math.min(first, minFlat); i++) if (Math.abs(values[i] - baseline) > quiet) flat = false;
+  // The record starts flat unless its first samples move: one sample in the noise's tail does not count.
+  let outside = 0;
+  for (let i = 0; i < Math.min(first, minFlat); i++) if (Math.abs(values[i] - baseline) > quiet) outside++;
   const onset = hingeOnset(values, first);
-  return { onset, hasPreEvent: flat && onset >= minFlat, peak };
+  return { onset, hasPreEvent: outside <= 1 && onset >= minFlat, peak };
 }
 
 /** Longest stretch the onset search fits at once; longer ones are fitted on block means. */
