@@ -69,14 +69,7 @@ export function fastNumber(text: string, start: number, end: number, decimalCode
     if (expDigits === 0) return NaN;
     exponent += expNegative ? -written : written;
   }
-  if (mantissa === 0) return negative ? -0 : 0;
-  let value: number;
-  if (exponent === 0) value = mantissa;
-  else if (exponent < 0 && exponent >= -22) value = mantissa / POW10[-exponent];
-  else if (exponent > 0 && exponent <= 22) value = mantissa * POW10[exponent];
-  else return NaN;
-  if (value >= OVERRANGE) return NaN;
-  return negative ? -value : value;
+  return composeNumber(mantissa, exponent, negative);
 }
 
 /** Where leadingNumber stopped reading. */
@@ -144,14 +137,7 @@ export function leadingNumber(bytes: Uint8Array, start: number, end: number, dec
     if (expDigits === 0) return NaN;
     exponent += expNegative ? -written : written;
   }
-  if (mantissa === 0) return negative ? -0 : 0;
-  let value: number;
-  if (exponent === 0) value = mantissa;
-  else if (exponent < 0 && exponent >= -22) value = mantissa / POW10[-exponent];
-  else if (exponent > 0 && exponent <= 22) value = mantissa * POW10[exponent];
-  else return NaN;
-  if (value >= OVERRANGE) return NaN;
-  return negative ? -value : value;
+  return composeNumber(mantissa, exponent, negative);
 }
 
 const MISSING = new Set(['', 'nan', '-nan', '+nan', 'inf', '-inf', '+inf', 'infinity', '-infinity', '+infinity', 'null', 'none', 'n/a', 'na', '-', '--', 'over', 'under', 'overrange', 'ovf', 'clip', '?']);
@@ -182,4 +168,19 @@ const TIME_OF_DAY = /^\d{1,2}:\d{2}:\d{2}(?:[.,]\d+)?(?:\s*[AP]M)?$/i;
 export function isTimestamp(cell: string): boolean {
   const text = cell.trim();
   return DATE_TIME.test(text) || TIME_OF_DAY.test(text);
+}
+
+/**
+ * mantissa x 10^exponent, exact when both are exactly representable (|exponent| <= 22, a mantissa of at
+ * most 15 digits): one correctly rounded multiplication or division. NaN outside that range or at overrange.
+ */
+function composeNumber(mantissa: number, exponent: number, negative: boolean): number {
+  if (mantissa === 0) return negative ? -0 : 0;
+  let value: number;
+  if (exponent === 0) value = mantissa;
+  else if (exponent < 0 && exponent >= -22) value = mantissa / POW10[-exponent];
+  else if (exponent > 0 && exponent <= 22) value = mantissa * POW10[exponent];
+  else return NaN;
+  if (value >= OVERRANGE) return NaN;
+  return negative ? -value : value;
 }
