@@ -214,9 +214,12 @@ describe.skipIf(!hasChromium)('the bench in a browser', () => {
     await page.press('#known-value', 'Tab');
     await page.fill('#known-tolerance', '5');
     await page.press('#known-tolerance', 'Tab');
-    // Rendered on the next frame: wait for the known C of 220 nF to show.
-    await page.waitForFunction(() => Number(document.querySelector('#components-results tr[data-quantity="C"]')?.getAttribute('data-value')) === 220e-9);
     const expected = (await cli.get('components')!).components;
+    // Rendered on the next frame: wait for the known C of 220 nF to show with its 5 % tolerance (typed last).
+    await page.waitForFunction((stderr: number) => {
+      const row = document.querySelector('#components-results tr[data-quantity="C"]');
+      return Number(row?.getAttribute('data-value')) === 220e-9 && Math.abs(Number(row?.getAttribute('data-stderr')) - stderr) <= 1e-9 * stderr;
+    }, expected.C.stderr as number);
     for (const name of ['R', 'L', 'C']) {
       const q = await shown(page, '#components-results', name);
       expectClose(q.value, expected[name].value, `component ${name}`);
