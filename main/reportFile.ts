@@ -10,8 +10,8 @@ import { renderReportMarkdown } from '../core/report/reportMarkdown';
 import { renderReportCsv } from '../core/report/reportCsv';
 import { showTime } from '../core/report/resultRows';
 import { describeTornTail, readCleanBenchLog } from './benchLog';
-import { readFileBytes } from './captureFile';
-import { parseCapture } from '../core/capture/parseCapture';
+import { decodeUtf8, readFileBytes } from './captureFile';
+import { parseCaptureBytes } from '../core/capture/parseCapture';
 import { selectChannel } from '../core/capture/selectChannel';
 import { parseChannel, parseTime } from './cli/options';
 import { FileError } from './cli/errors';
@@ -46,7 +46,7 @@ export function loadReportTraces(records: readonly BenchRecord[]): ReportTraces 
         continue;
       }
       const s = record.settings;
-      const capture = parseCapture(bytes.toString('utf8'), {
+      const capture = parseCaptureBytes(bytes, decodeUtf8, {
         sampleInterval: s.sampleInterval === null ? undefined : parseTime(s.sampleInterval, 'sampleInterval'),
         sortTime: s.sortTime,
       });

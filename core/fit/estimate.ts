@@ -1,7 +1,7 @@
 // Starting values for the response fit from the data alone: event time, and candidate (alpha, omega0).
 
 import { matrixPencil, type Pole } from './pencil';
-import { median } from './noise';
+import { HEAD_FRACTION, median, robustSpread } from './noise';
 
 export interface EventEstimate {
   /** Index of the first sample of the response (0 when the record starts inside it). */
@@ -16,9 +16,8 @@ export interface RateCandidate {
   source: string;
 }
 
+/** Fewest flat samples before the event for t0 and the pre-event level to be fitted. */
 const MIN_PRE_EVENT = 10;
-/** The starting level is the median of the first 1 % of the record: right while at least half of that is before the event. */
-export const HEAD_FRACTION = 0.01;
 /** At the scale the event is looked for, its largest excursion must stand this many noise levels clear. */
 const CONFIDENT_PEAK = 12;
 /** Coarsest scale: at least this many block means over the record. */
@@ -30,7 +29,12 @@ const MIN_BLOCKS = 48;
  * When the response hardly stands out of the noise, the same test runs on means of 2, 4, 8... samples,
  * whose noise is lower, at the finest scale where the largest excursion stands clear of it.
  */
-export function detectEvent(values: ArrayLike<number>, noise: number, step: number, retry = true): EventEstimate {
+export function detectEvent(values: ArrayLike<number>, noise: number, step: number): EventEstimate {
+  return detectEventAt(values, noise, step, true);
+}
+
+/** detectEvent, allowed (`retry`) or not to try again once with the noise read before the onset. */
+function detectEventAt(values: ArrayLike<number>, noise: number, step: number, retry: boolean): EventEstimate {
   const n = values.length;
   for (let size = 1; size === 1 || n / size >= MIN_BLOCKS; size *= 2) {
     const y = size === 1 ? values : blockMeans(values, 0, n, size, Infinity);
@@ -44,7 +48,7 @@ export function detectEvent(values: ArrayLike<number>, noise: number, step: numb
     const before = found.onset * size;
     if (retry && before >= 2 * MIN_PRE_EVENT) {
       const spread = robustSpread(Array.prototype.slice.call(values, 0, before) as number[]);
-      if (spread > NOISE_RETRY_GATE * noise) return detectEvent(values, Math.min(spread, NOISE_RETRY_CAP * noise), step, false);
+      if (spread > NOISE_RETRY_GATE * noise) return detectEventAt(values, Math.min(spread, NOISE_RETRY_CAP * noise), step, false);
     }
     return { index: 0, hasPreEvent: false };
   }
@@ -55,12 +59,6 @@ export function detectEvent(values: ArrayLike<number>, noise: number, step: numb
 const NOISE_RETRY_GATE = 1.5;
 /** ...and counts for at most this many times it (a stretch inside the response would read high). */
 const NOISE_RETRY_CAP = 4;
-
-/** 1.4826 times the median absolute deviation from the median: the standard deviation of normal samples, robustly. */
-function robustSpread(values: number[]): number {
-  const centre = median(values);
-  return 1.4826 * median(values.map((v) => Math.abs(v - centre)));
-}
 
 /**
  * A ring about the starting level averages away in block means; its energy does not. The mean square

@@ -98,14 +98,16 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
     }
   }
 
-  const guarded = guardRails(trace, best, t0Start, options.window ?? {});
+  // The raw samples' own noise: the rail guard's margin and the dither test are about single samples.
+  const sampleNoise = estimateNoise(trace.values);
+  const guarded = guardRails(trace, best, t0Start, options.window ?? {}, sampleNoise);
   if (guarded) {
     set = guarded.set;
     const start = { alpha: best.values[0], omega0: best.values[1], source: 'fit before the rail guard' };
     best = refine(set, best.layout, start, fitsT0(best.layout) ? best.values[2] : t0Start);
     warnings.push(guarded.warning);
   }
-  const subCode = subCodeNoiseWarning(trace.values);
+  const subCode = subCodeNoiseWarning(trace.values, sampleNoise);
   if (subCode) warnings.push(subCode);
   const params = unpackParams(best.layout, best.values, t0Start);
   const dof = set.time.length - best.values.length;
@@ -178,11 +180,9 @@ function shiftByHalfPeriods(set: FitSet, attempt: Attempt): Attempt {
  * sigma = 0.3 q but under 0.01 q from sigma = q / 2 on (Widrow and Kollar, Quantization Noise, 2008,
  * Gaussian input; from memory). The fit's standard errors do not include that bias.
  */
-function subCodeNoiseWarning(values: ArrayLike<number>): string | null {
+function subCodeNoiseWarning(values: ArrayLike<number>, noise: number): string | null {
   const q = quantisationStep(values);
-  if (!(q > 0)) return null;
-  const noise = estimateNoise(values);
-  if (noise >= 0.5 * q) return null;
+  if (!(q > 0) || noise >= 0.5 * q) return null;
   return `the noise (${(noise / q).toFixed(2)} of a converter code) is too small to dither the quantisation: its error follows the signal and may bias the fit beyond its standard errors (more vertical resolution or averaging off helps)`;
 }
 
@@ -196,6 +196,7 @@ function guardRails(
   best: Attempt,
   t0Start: number,
   window: { start?: number; end?: number },
+  sampleNoise: number,
 ): { set: FitSet; warning: string } | null {
   const { clipped, values, time } = trace;
   if (!clipped) return null;
@@ -211,7 +212,7 @@ function guardRails(
   if (top === -Infinity) return null;
   // One rail only: it is the top one when it lies above every unclipped sample.
   if (top === bottom) [top, bottom] = top >= unclippedTop ? [top, -Infinity] : [Infinity, bottom];
-  const margin = 3 * estimateNoise(values);
+  const margin = 3 * sampleNoise;
   const model = layoutValues(best.layout, best.values, t0Start, time);
   const guard = Uint8Array.from(clipped);
   let added = 0;
@@ -442,7 +443,7 @@ function addPlausibilityWarnings(
   noise: number,
   warnings: string[],
 ): void {
-  const dtRaw = set.decimation ? set.dt / set.decimation.factor : set.dt;
+  const dtRaw = set.block?.spacing ?? set.dt;
   if (omegaD !== null) {
     const perPeriod = (2 * Math.PI) / omegaD / dtRaw;
     // At least 10 samples per ring period is the usual working margin (common practice, no single source).

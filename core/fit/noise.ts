@@ -47,24 +47,34 @@ export function estimateNoise(values: ArrayLike<number>, start = 0, end = values
   return Math.max(sigma, q / Math.sqrt(12));
 }
 
+/**
+ * A record's head, where its starting level and noise are read: the first 1 % of the record (its median is
+ * the starting level while at least half of it lies before the event)...
+ */
+export const HEAD_FRACTION = 0.01;
+/** ...and, for the noise, at least this many samples. */
+const HEAD_MIN = 16;
 /** How many times the first-difference estimate the spread of the record's head may be taken for noise. */
 const HEAD_NOISE_CAP = 4;
 /** Below this many times the difference estimate, a head's spread is sampling error (about 2 sd for 16 white samples). */
 const HEAD_NOISE_GATE = 1.5;
-/** The head: the first 1 % of the record, and at least this many samples. */
-const HEAD_MIN = 16;
+
+/** 1.4826 times the median absolute deviation from the median: the standard deviation of normal samples, robustly. */
+export function robustSpread(values: number[]): number {
+  const centre = median(values);
+  return 1.4826 * median(values.map((v) => Math.abs(v - centre)));
+}
 
 /**
  * Noise level of a record that may start flat: the first-difference estimate, or the robust spread
- * (1.4826 MAD) of the record's head where that is clearly larger. Noise from a bandwidth-limited front end
+ * of the record's head where that is clearly larger. Noise from a bandwidth-limited front end
  * is alike from one sample to the next, so its first differences read it low (2.2x at a neighbour
  * correlation of 0.8); a flat head shows it whole. A head inside the response would read high, so its
  * spread counts for at most HEAD_NOISE_CAP times the difference estimate.
  */
 export function recordNoise(values: ArrayLike<number>): number {
   const fromDifferences = estimateNoise(values);
-  const head = Array.prototype.slice.call(values, 0, Math.max(HEAD_MIN, Math.floor(values.length * 0.01))) as number[];
-  const centre = median(head);
-  const spread = 1.4826 * median(head.map((v) => Math.abs(v - centre)));
+  const head = Array.prototype.slice.call(values, 0, Math.max(HEAD_MIN, Math.floor(values.length * HEAD_FRACTION))) as number[];
+  const spread = robustSpread(head);
   return spread > HEAD_NOISE_GATE * fromDifferences ? Math.min(spread, HEAD_NOISE_CAP * fromDifferences) : fromDifferences;
 }

@@ -63,6 +63,13 @@ export function fillDampedBasis(
   block: BlockAverage | null = null,
   after?: Float64Array,
 ): void {
+  fillPointBasis(alpha, omega0, t0, time, ec, es);
+  if (block && block.samples > 1) averageOverBlocks(alpha, omega0, t0, time, ec, es, block, after);
+  else if (after) for (let i = 0; i < time.length; i++) after[i] = time[i] < t0 ? 0 : 1;
+}
+
+/** The basis at each instant of the time axis (zero before t0), written in place. */
+function fillPointBasis(alpha: number, omega0: number, t0: number, time: ArrayLike<number>, ec: Float64Array, es: Float64Array): void {
   const q = omega0 * omega0 - alpha * alpha;
   const w = Math.sqrt(Math.abs(q));
   for (let i = 0; i < time.length; i++) {
@@ -72,29 +79,22 @@ export function fillDampedBasis(
       es[i] = 0;
       continue;
     }
-    [ec[i], es[i]] = pointBasis(alpha, q, w, tau);
+    const x = q * tau * tau;
+    if (Math.abs(x) < SERIES_LIMIT) {
+      const e = Math.exp(-alpha * tau);
+      ec[i] = e * (1 - x / 2 + (x * x) / 24 - (x * x * x) / 720 + (x * x * x * x) / 40320);
+      es[i] = e * tau * (1 - x / 6 + (x * x) / 120 - (x * x * x) / 5040 + (x * x * x * x) / 362880);
+    } else if (q > 0) {
+      const e = Math.exp(-alpha * tau);
+      ec[i] = e * Math.cos(w * tau);
+      es[i] = (e * Math.sin(w * tau)) / w;
+    } else {
+      const slow = Math.exp((w - alpha) * tau);
+      const fast = Math.exp(-(alpha + w) * tau);
+      ec[i] = (slow + fast) / 2;
+      es[i] = (slow - fast) / (2 * w);
+    }
   }
-  if (block && block.samples > 1) averageOverBlocks(alpha, omega0, t0, time, ec, es, block, after);
-  else if (after) for (let i = 0; i < time.length; i++) after[i] = time[i] < t0 ? 0 : 1;
-}
-
-/** The basis at one tau >= 0, with q = omega0^2 - alpha^2 and w = sqrt|q|. */
-function pointBasis(alpha: number, q: number, w: number, tau: number): [number, number] {
-  const x = q * tau * tau;
-  if (Math.abs(x) < SERIES_LIMIT) {
-    const e = Math.exp(-alpha * tau);
-    return [
-      e * (1 - x / 2 + (x * x) / 24 - (x * x * x) / 720 + (x * x * x * x) / 40320),
-      e * tau * (1 - x / 6 + (x * x) / 120 - (x * x * x) / 5040 + (x * x * x * x) / 362880),
-    ];
-  }
-  if (q > 0) {
-    const e = Math.exp(-alpha * tau);
-    return [e * Math.cos(w * tau), (e * Math.sin(w * tau)) / w];
-  }
-  const slow = Math.exp((w - alpha) * tau);
-  const fast = Math.exp(-(alpha + w) * tau);
-  return [(slow + fast) / 2, (slow - fast) / (2 * w)];
 }
 
 /**
@@ -153,7 +153,6 @@ function averageOverBlocks(
 ): void {
   const { samples, spacing } = block;
   const q = omega0 * omega0 - alpha * alpha;
-  const w = Math.sqrt(Math.abs(q));
   const [gmBlock, dBlock] = windowGain(alpha, omega0, samples * spacing);
   const [gmSample, dSample] = windowGain(alpha, omega0, spacing);
   const norm = gmSample * gmSample + dSample * dSample * q;
@@ -172,19 +171,13 @@ function averageOverBlocks(
       if (after) after[i] = 0;
     } else {
       // The event falls inside this block: the mean over its samples at or after t0, and their share.
-      let count = 0;
-      let sumC = 0;
-      let sumS = 0;
-      for (let j = 0; j < samples; j++) {
-        const tau = first + j * spacing - t0;
-        if (tau < 0) continue;
-        const [c, s] = pointBasis(alpha, q, w, tau);
-        sumC += c;
-        sumS += s;
-        count++;
-      }
-      ec[i] = count ? sumC / count : 0;
-      es[i] = count ? sumS / count : 0;
+      const times = Float64Array.from({ length: samples }, (_, j) => first + j * spacing).filter((t) => t >= t0);
+      const count = times.length;
+      const c = new Float64Array(count);
+      const s = new Float64Array(count);
+      fillPointBasis(alpha, omega0, t0, times, c, s);
+      ec[i] = count ? c.reduce((sum, v) => sum + v, 0) / count : 0;
+      es[i] = count ? s.reduce((sum, v) => sum + v, 0) / count : 0;
       if (after) after[i] = count / samples;
     }
   }
