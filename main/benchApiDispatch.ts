@@ -1,12 +1,11 @@
 // Runs one bench API call by name: checks the method and every argument, then answers an ApiResult.
 
+import { describeFailure } from '../core/inputError';
 import type { ApiMethod, ApiResult } from './electron/channels';
 import { argumentProblem, isApiMethod } from './electron/guards';
 
 export type ApiHandlers = Partial<Record<ApiMethod, (...args: never[]) => Promise<unknown>>>;
 
-/** Error names whose message is already plain words for the user. */
-const PLAIN_ERRORS = new Set(['BenchApiError', 'LogError', 'DesignError', 'FileError', 'CaptureError', 'UnitError', 'UsageError']);
 
 /** A dispatcher over `handlers`; a method without a handler is unknown here (e.g. dialogs over HTTP). */
 export function createApiDispatch(handlers: ApiHandlers): (method: string, args: unknown[]) => Promise<ApiResult<unknown>> {
@@ -24,9 +23,6 @@ export function createApiDispatch(handlers: ApiHandlers): (method: string, args:
 }
 
 function messageOf(error: unknown): string {
-  if (error instanceof Error) {
-    const first = error.message.split('\n')[0];
-    return PLAIN_ERRORS.has(error.name) ? first : `the bench could not do this: ${first}`;
-  }
-  return `the bench could not do this: ${String(error)}`;
+  const { input, text } = describeFailure(error);
+  return input ? text : `the bench could not do this: ${text}`;
 }

@@ -12,7 +12,7 @@ import { cautionInputsFromCapture } from '../core/safety/cautionInputs';
 import { evaluateCautions, type CautionResult } from '../core/safety/evaluateCautions';
 import { readFileBytes, type LoadedCapture } from './captureFile';
 import { fitCapture, type FitCommandOptions } from './cli/commands/fit';
-import { UsageError } from './cli/errors';
+import { UsageError } from '../core/inputError';
 import { VERSION } from './version';
 
 export interface LoadedDesign {

@@ -6,7 +6,7 @@ import { resolve } from 'node:path';
 import { parseCaptureBytes } from '../core/capture/parseCapture';
 import { selectChannel } from '../core/capture/selectChannel';
 import type { Capture, CaptureOptions, Channel } from '../core/capture/types';
-import { FileError } from './cli/errors';
+import { FileError } from './io/fileError';
 
 export interface LoadedCapture {
   path: string;

@@ -14,7 +14,7 @@ import { decodeUtf8, readFileBytes } from './captureFile';
 import { parseCaptureBytes } from '../core/capture/parseCapture';
 import { selectChannel } from '../core/capture/selectChannel';
 import { parseChannel, parseTime } from './cli/options';
-import { FileError } from './cli/errors';
+import { FileError } from './io/fileError';
 import { VERSION } from './version';
 
 export type ReportFormat = 'html' | 'md' | 'csv';

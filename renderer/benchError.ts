@@ -1,6 +1,8 @@
 // A failure the bench reported in words (from main, the server or a check in the window).
 
-export class BenchError extends Error {
+import { InputError } from '../core/inputError';
+
+export class BenchError extends InputError {
   constructor(message: string) {
     super(message);
     this.name = 'BenchError';

@@ -1,5 +1,7 @@
 // The shape of an imported capture: what every reader of scope exports produces.
 
+import { InputError } from '../inputError';
+
 export interface Channel {
   /** Column name as the file gives it without its unit ('CH1', 'V_C'), or 'channel N' when unnamed. */
   name: string;
@@ -48,10 +50,10 @@ export interface CaptureOptions {
 }
 
 /** Invalid capture text: the message says what was wrong; `line` is 1-based when known. */
-export class CaptureError extends Error {
+export class CaptureError extends InputError {
   readonly line: number | null;
   constructor(message: string, line: number | null = null) {
-    super(line === null ? message : `line ${line}: ${message}`);
+    super(line === null ? message : `line ${line}: ${message}`, line === null ? null : `line ${line}`);
     this.name = 'CaptureError';
     this.line = line;
   }

@@ -1,4 +1,6 @@
 // The design file of a circuit under test (our own JSON layout): reading with field-path errors, writing.
+
+import { InputError } from '../inputError';
 import { parseQuantityText } from '../units/parseQuantity';
 import { COMPONENT_NAMES, COMPONENT_UNITS, type ComponentName, type Topology } from './relations';
 
@@ -39,10 +41,10 @@ export interface Design {
 }
 
 /** Invalid design text; `path` names the field ('components.L.tolerance'), '' for the whole file. */
-export class DesignError extends Error {
+export class DesignError extends InputError {
   readonly path: string;
   constructor(path: string, problem: string) {
-    super(path === '' ? `design: ${problem}` : `design ${path}: ${problem}`);
+    super(path === '' ? `design: ${problem}` : `design ${path}: ${problem}`, path === '' ? 'design' : path);
     this.name = 'DesignError';
     this.path = path;
   }

@@ -1,5 +1,7 @@
 // One bench-log record (a logged measurement of one unit) and the check of a line read back.
 
+import { InputError } from '../inputError';
+
 import type { FitSummary } from './fitSummary';
 import type { Verdict } from '../circuit/verdict';
 import type { Design } from '../circuit/design';
@@ -43,11 +45,11 @@ export interface BenchRecord {
 }
 
 /** A bench log that cannot be used: bad line, bad location, held lock. Names the line or path. */
-export class LogError extends Error {
+export class LogError extends InputError {
   /** 1-based line of the log, when the problem is one line. */
   readonly line: number | null;
   constructor(message: string, line: number | null = null) {
-    super(line === null ? message : `line ${line}: ${message}`);
+    super(line === null ? message : `line ${line}: ${message}`, line === null ? null : `line ${line}`);
     this.name = 'LogError';
     this.line = line;
   }

@@ -1,5 +1,7 @@
 // Applies the caution rules to the voltages, currents and components of a measurement.
 
+import { InputError } from '../inputError';
+
 import { quantity, type Quantity } from '../quantity';
 import { CAUTION_RULES, SAFE_DISCHARGE_VOLTAGE, type CautionMeasure, type CautionRule, type Certainty } from './cautionRules';
 import { DEFERRAL, STANDING_ADVICE, STANDING_ADVICE_SOURCE } from './standingAdvice';
@@ -43,10 +45,10 @@ export interface CautionResult {
 }
 
 /** An input that is not a finite, non-negative number: names the field. */
-export class CautionInputError extends Error {
+export class CautionInputError extends InputError {
   readonly field: string;
   constructor(field: string, value: unknown) {
-    super(`${field}: must be a finite, non-negative number in SI base units, got ${String(value)}`);
+    super(`${field}: must be a finite, non-negative number in SI base units, got ${String(value)}`, field);
     this.name = 'CautionInputError';
     this.field = field;
   }

@@ -1,12 +1,14 @@
 // Parses a typed value such as '470n', '470 nF', '2.2uH', '4k7', '2R2' or '1e-6' into SI base units.
 
+import { InputError } from '../inputError';
+
 import { PREFIX_EXPONENT, canonicalUnit } from './prefixes';
 
 /** Text that is not a valid value: the message quotes the text and says what was expected. */
-export class UnitError extends Error {
+export class UnitError extends InputError {
   readonly text: string;
   constructor(text: string, expected: string) {
-    super(`'${text}' is not a valid value: expected ${expected}`);
+    super(`'${text}' is not a valid value: expected ${expected}`, text);
     this.name = 'UnitError';
     this.text = text;
   }

@@ -2,7 +2,7 @@
 
 import { parseQuantityText } from '../../core/units/parseQuantity';
 import type { KnownComponent, Topology } from '../../core/circuit/components';
-import { UsageError } from './errors';
+import { UsageError } from '../../core/inputError';
 
 const UNIT_OF = { R: 'ohm', L: 'H', C: 'F' } as const;
 

@@ -5,6 +5,7 @@ import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { BENCH_METHODS, CHANNELS, EVENTS, EXPOSED_NAME, MENU_COMMANDS, type ApiMethod } from '../../main/electron/channels';
 import { argumentProblem, isAbsolutePath, isApiMethod, isBenchLogRequest, isResourceId, isSafeFileName, isSaveRequest } from '../../main/electron/guards';
 import { createApiDispatch } from '../../main/benchApiDispatch';
+import { BenchApiError } from '../../main/benchApiError';
 import { registerIpcHandlers } from '../../main/electron/ipcHandlers';
 import { BENCH_CALLS, MENU_COMMANDS as RENDERER_MENU_COMMANDS, type BenchCalls } from '../../renderer/bridgeTypes';
 import type { BenchApi } from '../../main/electron/channels';
@@ -175,7 +176,7 @@ describe('dispatch in main', () => {
   it('runs no handler when an argument is refused, and wraps failures as plain results', async () => {
     const readSample = vi.fn(async (id: string) => ({ id }));
     const failing = vi.fn(async () => {
-      throw Object.assign(new Error('no sample capture \'x\''), { name: 'BenchApiError' });
+      throw new BenchApiError("no sample capture 'x'");
     });
     const dispatch = createApiDispatch({ readSample, listDesigns: failing });
     expect(await dispatch('readSample', ['../secret'])).toMatchObject({ ok: false, code: 'bad-argument' });

@@ -10,7 +10,9 @@ import { addCaptureOptions, addComponentOptions } from './fit';
 import { appendBenchLog, requireLogFolder } from '../../benchLog';
 import { createBenchRecord, loadDesignFile, measureFile, type Measurement } from '../../benchLogRecord';
 import { formatEngineering } from '../../../core/units/format';
-import { EXIT, FileError, UsageError, messageFor } from '../errors';
+import { EXIT, messageFor } from '../errors';
+import { UsageError } from '../../../core/inputError';
+import { FileError } from '../../io/fileError';
 
 const CAPTURE_EXTENSIONS = new Set(['.csv', '.txt', '.dat']);
 

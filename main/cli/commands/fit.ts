@@ -8,7 +8,7 @@ import { componentsFromResponse } from '../../../core/circuit/components';
 import { summarizeFit, type FitSummary } from '../../../core/report/fitSummary';
 import { formatFitText } from '../../../core/report/fitText';
 import { parseChannel, parseKnown, parseTime, parseTopology } from '../options';
-import { UsageError } from '../errors';
+import { UsageError } from '../../../core/inputError';
 import { formatEngineering } from '../../../core/units/format';
 import { COMPONENT_UNITS as UNIT_OF_COMPONENT } from '../../../core/circuit/relations';
 import { evaluateCautions } from '../../../core/safety/evaluateCautions';

@@ -11,7 +11,7 @@ import { evaluateCautions } from '../../../core/safety/evaluateCautions';
 import { formatParasiticsText } from '../../../core/report/parasiticsText';
 import { quantity } from '../../../core/quantity';
 import { parseTolerance } from '../options';
-import { UsageError } from '../errors';
+import { UsageError } from '../../../core/inputError';
 
 interface ParasiticsOptions {
   added: string;

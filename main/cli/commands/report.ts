@@ -4,7 +4,7 @@ import type { Command } from 'commander';
 import { resolve } from 'node:path';
 import type { CommandContext } from '../program';
 import { reportFormatFor, writeReport } from '../../reportFile';
-import { UsageError } from '../errors';
+import { UsageError } from '../../../core/inputError';
 
 export function registerReportCommand(program: Command, ctx: CommandContext): void {
   program

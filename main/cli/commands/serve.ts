@@ -3,7 +3,7 @@
 import type { Command } from 'commander';
 import { resolve } from 'node:path';
 import type { CommandContext } from '../program';
-import { UsageError } from '../errors';
+import { UsageError } from '../../../core/inputError';
 import { findProjectRoot } from '../../benchApiPaths';
 import { serveUntilStopped, startServing } from '../../server/serveBench';
 import { hasDisplay } from '../../start';
