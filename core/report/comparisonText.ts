@@ -1,0 +1,26 @@
+// A before/after comparison as the readable table the command line prints.
+
+import { formatCautionsText } from '../safety/cautionText';
+import { formatMeasured } from '../units/format';
+import type { Comparison } from '../workflow/compare';
+
+export function formatComparisonText(c: Comparison): string {
+  let text = `before  ${c.before.file} (${c.before.channel}): ${c.before.status}, ${c.before.regime}\n`;
+  text += `after   ${c.after.file} (${c.after.channel}): ${c.after.status}, ${c.after.regime}\n`;
+  if (c.quantities.length) text += `  ${'quantity'.padEnd(8)} ${'before'.padEnd(30)} ${'after'.padEnd(30)} change\n`;
+  for (const q of c.quantities) {
+    const relative = q.relative === null ? '' : ` (${(100 * q.relative).toFixed(2)} %)`;
+    const sigmas = q.sigmas === null ? 'uncertainty unknown' : `${q.sigmas.toFixed(1)} σ${q.significant ? ', significant' : ''}`;
+    text += `  ${q.name.padEnd(8)} ${formatMeasured(q.before).padEnd(30)} ${formatMeasured(q.after).padEnd(30)} ${formatMeasured(q.difference)}${relative}, ${sigmas}\n`;
+  }
+  text += `verdict: ${c.verdict}: ${c.reason}\n`;
+  for (const note of c.notes) text += `  note: ${note}\n`;
+  for (const w of c.before.warnings) text += `  warning (before): ${w}\n`;
+  for (const w of c.after.warnings) text += `  warning (after): ${w}\n`;
+  return text + formatCautionsText(strongerCautions(c));
+}
+
+/** The side whose cautions fired more (the same node, so the worse capture speaks for both). */
+function strongerCautions(c: Comparison): Comparison['beforeCautions'] {
+  return c.afterCautions.fired.length > c.beforeCautions.fired.length ? c.afterCautions : c.beforeCautions;
+}

@@ -1,0 +1,29 @@
+// R, L and C from a fit and one known part, and the one way the known part is written for people.
+
+import { componentsFromResponse, type KnownComponent, type Topology } from '../circuit/components';
+import { COMPONENT_UNITS } from '../circuit/relations';
+import { alphaOmega0Correlation } from '../fit/correlation';
+import type { ResponseFit } from '../fit/fitResponse';
+import type { FitSummary } from '../report/fitSummary';
+import { formatEngineering } from '../units/format';
+
+/** What the user states about the circuit: its topology and one part whose value is known. */
+export interface KnownPartRequest {
+  topology: Topology;
+  known: KnownComponent;
+}
+
+/** 'C = 47 µF ± 5 %': the known part as every face writes it. */
+export function describeKnownPart(known: KnownComponent): string {
+  const tolerance = known.tolerance ? ` ± ${+(known.tolerance * 100).toPrecision(3)} %` : '';
+  return `${known.name} = ${formatEngineering(known.value, COMPONENT_UNITS[known.name])}${tolerance}`;
+}
+
+/** The other two parts from alpha, omega0 and the known one (a CircuitInputError when the rates are not positive). */
+export function deriveComponents(fit: Pick<ResponseFit, 'alpha' | 'omega0' | 'correlation'>, request: KnownPartRequest): NonNullable<FitSummary['components']> {
+  return {
+    topology: request.topology,
+    known: describeKnownPart(request.known),
+    ...componentsFromResponse(fit.alpha, fit.omega0, request.topology, request.known, alphaOmega0Correlation(fit.correlation)),
+  };
+}

@@ -1,0 +1,92 @@
+// Loop parasitics by the added-capacitor method from several captures, an RC snubber starting point,
+// and the cautions from the largest peak the captures show. The command line and the window call this.
+
+import type { Channel } from '../capture/types';
+import { extractParasitics } from '../circuit/addedCapacitor';
+import { suggestSnubber } from '../circuit/snubber';
+import { UsageError } from '../inputError';
+import { hertz } from '../report/resultRows';
+import type { ParasiticsResult } from '../report/parasiticsText';
+import { cautionInputsFromCapture } from '../safety/cautionInputs';
+import { evaluateCautions, type CautionInputs } from '../safety/evaluateCautions';
+import { fitChannel } from './measure';
+
+export interface ParasiticsCapture {
+  /** Name as people see it. */
+  file: string;
+  channel: Channel;
+  captureWarnings?: readonly string[];
+  /** Capacitance added in parallel with the node for this capture, F (0 for the bare loop, which comes first). */
+  addedC: number;
+}
+
+export interface ParasiticsRequest {
+  captures: readonly ParasiticsCapture[];
+  /** Relative tolerance of the added capacitors (rectangular half-width). Default 0. */
+  addedTolerance?: number;
+  /** Probe capacitance in parallel with the node, F, and its relative tolerance. Default none. */
+  probeC?: number;
+  probeCTolerance?: number;
+  /** Scope or probe bandwidth, Hz, for the bandwidth check. */
+  bandwidth?: number;
+  /** Voltage the snubber capacitor swings and the switching frequency: they size the snubber's dissipation only. */
+  voltage?: number;
+  switchingFrequency?: number;
+}
+
+/** Fit every capture, extract L_p, C_p, R_p, suggest a snubber and weigh the cautions; `progress` hears each stage. */
+export function measureParasitics(request: ParasiticsRequest, progress: (stage: string) => void = () => {}): ParasiticsResult {
+  const { captures } = request;
+  if (captures.length < 2) throw new UsageError('the added-capacitor method needs at least two captures: the bare loop and one with a capacitor added');
+  const fits = captures.map((capture, i) => {
+    progress(`fitting capture ${i + 1} of ${captures.length}`);
+    return fitChannel(capture.file, capture.channel, {}, capture.captureWarnings).summary;
+  });
+  const failed = fits.find((f) => f.status === 'failed' || f.regime !== 'underdamped');
+  if (failed) throw new UsageError(`${failed.file}: no ringing found to measure (${failed.status}, ${failed.regime}); the method needs an underdamped ring in every capture`);
+  // The method needs the undamped natural frequency f0 = omega0 / 2 pi, not the ring frequency.
+  const rows = fits.map((fit, i) => ({ file: fit.file, addedC: captures[i].addedC, frequency: hertz(fit.omega0), alpha: fit.alpha }));
+  const extraction = extractParasitics(
+    rows.map((row, i) => ({
+      addedC: row.addedC,
+      addedCTolerance: i === 0 ? 0 : (request.addedTolerance ?? 0),
+      frequency: row.frequency,
+      alpha: row.alpha,
+      sampleInterval: meanInterval(captures[i].channel.time),
+    })),
+    { probeC: request.probeC ?? 0, probeCTolerance: request.probeCTolerance ?? 0, bandwidth: request.bandwidth },
+  );
+  const loop = { L: extraction.L, C: extraction.C, R: extraction.R, characteristicImpedance: extraction.characteristicImpedance };
+  const snubber = suggestSnubber(loop, { voltage: request.voltage, switchingFrequency: request.switchingFrequency });
+  const peaks = largestPeaks(captures.map((c) => cautionInputsFromCapture(c.channel.values, c.channel.unit)));
+  const cautions = evaluateCautions({ ...peaks, capacitance: extraction.C.value + snubber.C.value, inductance: extraction.L.value });
+  return {
+    L: extraction.L,
+    C: extraction.C,
+    R: extraction.R,
+    characteristicImpedance: extraction.characteristicImpedance,
+    residual: extraction.residual,
+    captures: rows,
+    snubber,
+    cautions,
+    warnings: [...extraction.warnings, ...fits.flatMap((f) => f.warnings.map((w) => `${f.file}: ${w}`))],
+    notes: extraction.notes,
+  };
+}
+
+/** The largest peak voltage and current over all captures: the node sees the worst of them. */
+function largestPeaks(inputs: readonly CautionInputs[]): Pick<CautionInputs, 'peakVoltage' | 'peakCurrent'> {
+  const largest = (key: 'peakVoltage' | 'peakCurrent') => {
+    const values = inputs.map((i) => i[key]).filter((v): v is number => v !== undefined);
+    return values.length ? Math.max(...values) : undefined;
+  };
+  const peakVoltage = largest('peakVoltage');
+  const peakCurrent = largest('peakCurrent');
+  return { ...(peakVoltage === undefined ? {} : { peakVoltage }), ...(peakCurrent === undefined ? {} : { peakCurrent }) };
+}
+
+/** Mean sample interval, s, for the samples-per-period check; undefined with fewer than two samples. */
+function meanInterval(time: Float64Array): number | undefined {
+  const n = time.length;
+  return n > 1 ? (time[n - 1] - time[0]) / (n - 1) : undefined;
+}
