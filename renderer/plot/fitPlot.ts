@@ -5,7 +5,7 @@ import { evaluateResponse } from '../../core/response/secondOrder';
 import { predictResponse, toleranceBand } from '../../core/circuit/predict';
 import type { Design } from '../../core/circuit/design';
 import type { ResponseParams } from '../../core/response/secondOrder';
-import { lowerBound, reduceMinMax } from '../decimate';
+import { lowerBound, reduceMinMax } from '../../core/report/decimate';
 import type { TraceData } from '../workerProtocol';
 import { themeColor } from '../theme';
 import { plotly, type PlotlyElement, type PlotlyTrace } from './plotly';

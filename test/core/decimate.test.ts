@@ -1,7 +1,7 @@
-// Tests of the per-column min/max reduction used to draw long captures.
+// Tests of the per-column min/max reduction the window draws long captures with (core/report/decimate.ts).
 
 import { describe, expect, it } from 'vitest';
-import { lowerBound, reduceMinMax, upperBound } from '../../renderer/decimate';
+import { decimateMinMax, lowerBound, reduceMinMax, upperBound } from '../../core/report/decimate';
 import { createRandom } from '../../core/random';
 
 /** The project's seeded source, as a uniform generator on [0, 1). */
@@ -75,6 +75,21 @@ describe('reduceMinMax', () => {
     for (let k = 0; k < 5; k++) reduceMinMax(time, values, time[0], time[time.length - 1], 1500);
     const perCall = (performance.now() - started) / 5;
     expect(perCall).toBeLessThan(100);
+  });
+});
+
+describe('decimateMinMax and reduceMinMax', () => {
+  it('find the same extremes: the report envelope and the window trace come from one scan', () => {
+    const random = seeded(4);
+    const time = ramp(50_000);
+    const values = Float64Array.from(time, () => random() * 2 - 1);
+    values[12_345] = 7;
+    values[40_000] = -7;
+    const envelope = decimateMinMax(time, values, time[0], time[time.length - 1], 300);
+    const reduced = reduceMinMax(time, values, time[0], time[time.length - 1], 300);
+    expect(Math.max(...envelope.max)).toBe(Math.max(...reduced.y));
+    expect(Math.min(...envelope.min)).toBe(Math.min(...reduced.y));
+    expect(reduced.y.length).toBe(2 * envelope.x.length);
   });
 });
 
