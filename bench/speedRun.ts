@@ -3,7 +3,7 @@
 // Usage: tsx bench/speedRun.ts <capture.csv> <whole|stream> <repeats> (bench/speed.ts runs it bundled, as the command line is)
 
 import { closeSync, createReadStream, openSync, readFileSync, readSync } from 'node:fs';
-import { decodeUtf8, loadCapture } from '../main/captureFile';
+import { decodeUtf8, loadCapture } from '../main/io/captureFile';
 import { createCaptureReader } from '../core/capture/parseCapture';
 import { selectChannel } from '../core/capture/selectChannel';
 import type { Channel } from '../core/capture/types';

@@ -12,7 +12,8 @@ import type { Bridge, NamedText, OpenedCapture, ReportFormat, SampleEntry } from
 import { FitCancelled, type FitClient } from './fitClient';
 import type { FitPlot } from './plot/fitPlot';
 import type { FitWindow } from './workerProtocol';
-import { parsePositive, parseTolerancePercent, splitKnownOption } from './parseInputs';
+import { parsePositive, splitKnownOption } from './parseInputs';
+import { parseTolerance } from '../core/workflow/userValues';
 import { rememberCapture, recallCapture } from './lastCapture';
 import { sha256Hex } from './sha256';
 import { buildLogRequest, type LogForm } from './logRequest';
@@ -177,7 +178,7 @@ export class BenchController {
       try {
         const unit = { R: 'ohm', L: 'H', C: 'F' }[input.knownName];
         const value = parsePositive(input.knownText, unit, `known ${input.knownName}`);
-        const tolerance = parseTolerancePercent(input.toleranceText, `tolerance of ${input.knownName}`);
+        const tolerance = parseTolerance(input.toleranceText, `known ${input.knownName}`);
         if (!(fit.alpha.value > 0 && fit.omega0.value > 0)) throw new BenchError('the fit gives no positive alpha and omega0, so no components follow from it');
         const known = { name: input.knownName, value, ...(tolerance > 0 ? { tolerance } : {}) };
         const values = componentsFromResponse(fit.alpha, fit.omega0, input.topology, known, alphaOmega0Correlation(fit.correlation));

@@ -7,7 +7,8 @@ import { quantity } from '../core/quantity';
 import { BenchError } from './benchError';
 import type { ExtractionState } from './benchState';
 import type { FitClient } from './fitClient';
-import { parsePositive, parseTolerancePercent } from './parseInputs';
+import { parsePositive } from './parseInputs';
+import { parseTolerance } from '../core/workflow/userValues';
 import { plainMessage } from './plainMessage';
 
 export interface ExtractionRow {
@@ -32,14 +33,14 @@ export async function extractFromCaptures(
 ): Promise<ExtractionState> {
   if (rows.length < 2) throw new BenchError('the added-capacitor method needs at least two captures: the bare loop and one with a capacitor added');
   const probeC = parseCapacitance(settings.probeText, 'probe capacitance');
-  const probeCTolerance = parseTolerancePercent(settings.probeToleranceText, 'probe capacitance tolerance');
+  const probeCTolerance = parseTolerance(settings.probeToleranceText, 'probe capacitance');
   const measurements: AddedCapacitorMeasurement[] = [];
   const frequencies: ExtractionState['frequencies'] = [];
   for (const [i, row] of rows.entries()) {
     const where = `capture ${i + 1}`;
     if (!row.text) throw new BenchError(`${where}: choose a capture file`);
     const addedC = parseCapacitance(row.addedText, `${where}: added capacitance`);
-    const addedCTolerance = parseTolerancePercent(row.toleranceText, `${where}: tolerance`);
+    const addedCTolerance = parseTolerance(row.toleranceText, where);
     progress(`fitting capture ${i + 1} of ${rows.length}`);
     const reply = await client.request({ type: 'fitText', name: row.name, text: row.text }, progress);
     if (reply.type !== 'fitText') throw new BenchError('the fit worker gave an unexpected answer');

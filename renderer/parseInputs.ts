@@ -1,4 +1,5 @@
-// Reads what the user types into the panels: component values with SI prefixes, tolerances, times.
+// Reads what the user types into the panels: component values with SI prefixes, times, a sample's known option.
+// Tolerances are read by parseTolerance in core/workflow/userValues.ts, the same rule as the command line.
 
 import { parseQuantityText } from '../core/units/parseQuantity';
 import { BenchError } from './benchError';
@@ -22,15 +23,6 @@ export function parseSigned(text: string, unit: string, what: string): number {
   } catch (error) {
     throw new BenchError(`${what}: ${(error as Error).message}`);
   }
-}
-
-/** '5 %', '5%', '5' (percent) or '' (none) as a relative tolerance in [0, 1). */
-export function parseTolerancePercent(text: string, what: string): number {
-  const trimmed = text.trim().replace(/\s*%$/, '');
-  if (trimmed === '') return 0;
-  const percent = Number(trimmed);
-  if (!Number.isFinite(percent) || percent < 0 || percent >= 100) throw new BenchError(`${what}: '${text}' is not a tolerance between 0 and 100 %`);
-  return percent / 100;
 }
 
 /** 'C=47u' (a sample's known option) as name and value text. */

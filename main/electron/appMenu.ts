@@ -2,7 +2,7 @@
 
 import { Menu, type MenuItemConstructorOptions } from 'electron';
 import { basename } from 'node:path';
-import type { MenuCommand } from './channels';
+import type { MenuCommand } from '../../core/bench/benchApiTypes';
 
 export interface MenuActions {
   recent: string[];

@@ -2,9 +2,9 @@
 
 import { basename } from 'node:path';
 import { statSync } from 'node:fs';
-import { readFileBytes } from '../captureFile';
-import { BenchApiError } from '../benchApiError';
-import type { NamedText, OpenedCapture } from './channels';
+import { readFileBytes } from '../io/captureFile';
+import { BenchApiError } from '../api/apiError';
+import type { NamedText, OpenedCapture } from '../../core/bench/benchApiTypes';
 
 const MAX_CAPTURE_BYTES = 512 * 1024 * 1024;
 const MAX_DESIGN_BYTES = 1024 * 1024;

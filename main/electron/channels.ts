@@ -1,22 +1,8 @@
-// The Electron side of the bench API: the shell calls, the one list of IPC channels, the events main
-// sends to the window, and what the preload exposes. The shared calls and types live in core/bench.
+// The Electron side of the bench API: the one list of IPC channels, the events main sends to the window,
+// and what the preload exposes. The calls and their types live in core/bench and main/api.
 
-import type { BenchApi, MenuCommand, NamedText, OpenedCapture, SaveRequest, ApiResult } from '../../core/bench/benchApiTypes';
-
-export * from '../../core/bench/benchApiTypes';
-
-/** The window only: native dialogs, and paths the user granted through them or by dropping a file. */
-export interface ShellApi {
-  openCaptureDialog(): Promise<OpenedCapture | null>;
-  /** The path of a dropped file, found by the preload from the File itself. */
-  openDroppedPath(path: string): Promise<OpenedCapture>;
-  openDesignDialog(): Promise<NamedText | null>;
-  saveFileDialog(request: SaveRequest): Promise<string | null>;
-}
-
-export type BenchMethod = keyof BenchApi;
-export type ShellMethod = keyof ShellApi;
-export type ApiMethod = BenchMethod | ShellMethod;
+import type { ApiResult, BenchApi, MenuCommand, OpenedCapture } from '../../core/bench/benchApiTypes';
+import type { ApiMethod, ShellApi } from '../api/apiMethods';
 
 /** Every call and its IPC channel: the one list the preload and main are built from. */
 export const CHANNELS = {

@@ -1,7 +1,9 @@
 // Registers every channel of the one list on ipcMain: sender checked, arguments guarded, result wrapped.
 
 import type { IpcMain, IpcMainInvokeEvent } from 'electron';
-import { CHANNELS, type ApiMethod, type ApiResult } from './channels';
+import type { ApiResult } from '../../core/bench/benchApiTypes';
+import type { ApiMethod } from '../api/apiMethods';
+import { CHANNELS } from './channels';
 
 type Dispatch = (method: string, args: unknown[]) => Promise<ApiResult<unknown>>;
 

@@ -1,7 +1,9 @@
 // The preload: the bench API exposed to the page as window.ringbench, built from the one channel list.
 
 import { contextBridge, ipcRenderer, webUtils } from 'electron';
-import { CHANNELS, EVENTS, EXPOSED_NAME, MENU_COMMANDS, type ApiMethod, type ExposedApi, type MenuCommand, type OpenedCapture } from './channels';
+import { MENU_COMMANDS, type MenuCommand, type OpenedCapture } from '../../core/bench/benchApiTypes';
+import type { ApiMethod } from '../api/apiMethods';
+import { CHANNELS, EVENTS, EXPOSED_NAME, type ExposedApi } from './channels';
 
 /** One invoker per channel except the dropped-file one, whose path the preload itself finds. */
 export function buildExposedApi(): ExposedApi {

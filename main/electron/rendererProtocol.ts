@@ -2,8 +2,8 @@
 
 import { protocol } from 'electron';
 import { readFileSync } from 'node:fs';
-import { contentTypeOf, resolveStaticFile } from '../server/staticFiles';
-import { SECURITY_HEADERS } from '../server/securityHeaders';
+import { resolveStaticFile, staticFileHeaders } from '../web/staticFiles';
+import { SECURITY_HEADERS } from '../web/securityHeaders';
 
 export const SCHEME = 'bench';
 export const PAGE_ORIGIN = `${SCHEME}://app`;
@@ -19,6 +19,6 @@ export function serveRenderer(rendererDir: string): void {
     const url = new URL(request.url);
     const file = url.host === 'app' ? resolveStaticFile(rendererDir, url.pathname) : null;
     if (file === null) return new Response('not found', { status: 404, headers: SECURITY_HEADERS });
-    return new Response(readFileSync(file), { headers: { ...SECURITY_HEADERS, 'Content-Type': contentTypeOf(file) } });
+    return new Response(readFileSync(file), { headers: staticFileHeaders(file) });
   });
 }

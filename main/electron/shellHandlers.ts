@@ -3,10 +3,11 @@
 import { dialog, type BrowserWindow } from 'electron';
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { OpenedCapture, ShellApi } from './channels';
+import type { OpenedCapture } from '../../core/bench/benchApiTypes';
+import type { ShellApi } from '../api/apiMethods';
 import type { GrantedPaths } from './grantedPaths';
 import { readCaptureFile, readDesignText } from './captureReader';
-import { BenchApiError } from '../benchApiError';
+import { BenchApiError } from '../api/apiError';
 
 export interface ShellContext {
   window(): BrowserWindow | null;

@@ -1,7 +1,7 @@
 // The /api/ routes: POST /api/<method> with a JSON body { "args": [...] }, answered with an ApiResult.
 
 import type { IncomingMessage, ServerResponse } from 'node:http';
-import type { ApiResult } from '../electron/channels';
+import type { ApiResult } from '../../core/bench/benchApiTypes';
 
 /** Runs one bench API call by name; validates the arguments itself. */
 export type ApiDispatch = (method: string, args: unknown[]) => Promise<ApiResult<unknown>>;

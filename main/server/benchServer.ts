@@ -4,9 +4,9 @@ import { createServer, type IncomingMessage, type ServerResponse } from 'node:ht
 import { createReadStream, statSync } from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import { checkRequest, isApiPath } from './requestChecks';
-import { contentTypeOf, resolveStaticFile } from './staticFiles';
+import { resolveStaticFile, staticFileHeaders } from '../web/staticFiles';
 import { handleApiRequest, sendJson, type ApiDispatch } from './apiRoute';
-import { SECURITY_HEADERS } from './securityHeaders';
+import { SECURITY_HEADERS } from '../web/securityHeaders';
 import { createToken } from './token';
 
 export interface BenchServerOptions {
@@ -76,7 +76,7 @@ async function handleRequest(
   if (request.method !== 'GET' && request.method !== 'HEAD') return sendText(response, 405, 'only GET for files');
   const file = resolveStaticFile(options.rendererDir, pathname);
   if (file === null) return sendText(response, 404, 'not found');
-  response.writeHead(200, { ...SECURITY_HEADERS, 'Content-Type': contentTypeOf(file), 'Content-Length': statSync(file).size });
+  response.writeHead(200, { ...staticFileHeaders(file), 'Content-Length': statSync(file).size });
   if (request.method === 'HEAD') return void response.end();
   createReadStream(file).pipe(response);
 }

@@ -1,9 +1,9 @@
 // Serves the browser bench: the bench API and the built renderer on loopback, until stopped.
 
 import { spawn } from 'node:child_process';
-import { createBenchApi } from '../benchApi';
-import { createApiDispatch } from '../benchApiDispatch';
-import { rendererDirOf } from '../benchApiPaths';
+import { createBenchApi } from '../api/benchApi';
+import { createApiDispatch } from '../api/dispatch';
+import { rendererDirOf } from '../io/projectPaths';
 import { startBenchServer, type RunningBenchServer } from './benchServer';
 
 export interface ServeOptions {

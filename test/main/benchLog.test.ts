@@ -4,7 +4,7 @@ import { spawnSync } from 'node:child_process';
 import { appendFileSync, existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, utimesSync, writeFileSync } from 'node:fs';
 import { hostname, tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { appendBenchLog, readBenchLog, readCleanBenchLog } from '../../main/benchLog';
+import { appendBenchLog, readBenchLog, readCleanBenchLog } from '../../main/io/benchLog';
 import { LogError } from '../../core/report/benchRecord';
 import { sampleRecord } from '../fixtures/benchLog/sampleRecord';
 

@@ -5,7 +5,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runCli } from '../../main/cli/program';
 import type { CliIo } from '../../main/cli/io';
-import { readBenchLog } from '../../main/benchLog';
+import { readBenchLog } from '../../main/io/benchLog';
 import { NOMINAL_LOOP, writeLoopCapture, writeLoopDesign } from '../fixtures/benchLog/captures';
 
 let folder: string;

@@ -7,7 +7,7 @@ import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { build } from 'esbuild';
-import { appendBenchLog, readBenchLog } from '../../main/benchLog';
+import { appendBenchLog, readBenchLog } from '../../main/io/benchLog';
 import { createRandom } from '../../core/random';
 import { sampleRecord } from '../fixtures/benchLog/sampleRecord';
 
@@ -25,7 +25,7 @@ beforeAll(async () => {
   folder = mkdtempSync(join(tmpdir(), 'ringbench-durability-'));
   bundle = join(folder, 'benchLog.mjs');
   // Bundled once so that each child starts in plain node, fast.
-  await build({ entryPoints: [join(repo, 'main/benchLog.ts')], bundle: true, platform: 'node', format: 'esm', outfile: bundle, logLevel: 'error' });
+  await build({ entryPoints: [join(repo, 'main/io/benchLog.ts')], bundle: true, platform: 'node', format: 'esm', outfile: bundle, logLevel: 'error' });
   template = join(folder, 'template.json');
   writeFileSync(template, JSON.stringify(sampleRecord()));
 });

@@ -1,9 +1,10 @@
 // Building a bench-log record from a measurement: injected clock and id, settings, cautions, checks on labels.
 import { describe, expect, it } from 'vitest';
-import { checkLabel, createBenchRecord, type Measurement } from '../../main/benchLogRecord';
+import { createBenchRecord, type Measurement } from '../../main/app/benchLogRecord';
+import { checkLabel } from '../../main/app/labels';
 import { parseBenchRecord } from '../../core/report/benchRecord';
 import { evaluateCautions } from '../../core/safety/evaluateCautions';
-import type { LoadedCapture } from '../../main/captureFile';
+import type { LoadedCapture } from '../../main/io/captureFile';
 import { sampleFit } from '../fixtures/benchLog/sampleRecord';
 
 const measurement: Measurement = {

@@ -2,13 +2,14 @@
 // list, and the main-side registration that checks the sender and every argument before any handler runs.
 
 import { beforeEach, describe, expect, it, vi } from 'vitest';
-import { BENCH_METHODS, CHANNELS, EVENTS, EXPOSED_NAME, MENU_COMMANDS, type ApiMethod } from '../../main/electron/channels';
-import { argumentProblem, isAbsolutePath, isApiMethod, isBenchLogRequest, isResourceId, isSafeFileName, isSaveRequest } from '../../main/electron/guards';
-import { createApiDispatch } from '../../main/benchApiDispatch';
-import { BenchApiError } from '../../main/benchApiError';
+import { BENCH_METHODS, MENU_COMMANDS, type BenchApi } from '../../core/bench/benchApiTypes';
+import { API_METHODS, type ApiMethod } from '../../main/api/apiMethods';
+import { CHANNELS, EVENTS, EXPOSED_NAME } from '../../main/electron/channels';
+import { argumentProblem, isAbsolutePath, isApiMethod, isBenchLogRequest, isResourceId, isSafeFileName, isSaveRequest } from '../../main/api/guards';
+import { createApiDispatch } from '../../main/api/dispatch';
+import { BenchApiError } from '../../main/api/apiError';
 import { registerIpcHandlers } from '../../main/electron/ipcHandlers';
 import { BENCH_CALLS, MENU_COMMANDS as RENDERER_MENU_COMMANDS, type BenchCalls } from '../../renderer/bridgeTypes';
-import type { BenchApi } from '../../main/electron/channels';
 
 const electron = vi.hoisted(() => ({
   exposed: {} as Record<string, unknown>,
@@ -70,6 +71,7 @@ describe('the channel list', () => {
   });
 
   it('has a guard for every method, and the renderer mirrors the bench calls and menu commands', () => {
+    expect(Object.keys(CHANNELS)).toEqual([...API_METHODS]);
     for (const method of Object.keys(CHANNELS) as ApiMethod[]) expect(() => argumentProblem(method, [])).not.toThrow();
     expect([...BENCH_CALLS].sort()).toEqual([...BENCH_METHODS].sort());
     expect([...RENDERER_MENU_COMMANDS]).toEqual([...MENU_COMMANDS]);

@@ -5,7 +5,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { runCli } from '../../main/cli/program';
 import type { CliIo } from '../../main/cli/io';
-import { appendBenchLog } from '../../main/benchLog';
+import { appendBenchLog } from '../../main/io/benchLog';
 import { loggedCapture } from '../fixtures/benchLog/loggedCapture';
 import { NOMINAL_LOOP } from '../fixtures/benchLog/captures';
 

@@ -3,8 +3,9 @@ import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { appendFileSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { appendBenchLog } from '../../main/benchLog';
-import { reportFormatFor, writeFileAtomic, writeReport } from '../../main/reportFile';
+import { appendBenchLog } from '../../main/io/benchLog';
+import { reportFormatFor, writeReport } from '../../main/app/reportFile';
+import { writeFileAtomic } from '../../main/io/atomicFile';
 import type { BenchRecord } from '../../core/report/benchRecord';
 import { loggedCapture } from '../fixtures/benchLog/loggedCapture';
 

@@ -7,11 +7,11 @@ import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { startBenchServer, type RunningBenchServer } from '../../main/server/benchServer';
-import { createApiDispatch } from '../../main/benchApiDispatch';
-import { createBenchApi } from '../../main/benchApi';
+import { createApiDispatch } from '../../main/api/dispatch';
+import { createBenchApi } from '../../main/api/benchApi';
 import { fitFile } from '../../main/cli/commands/fit';
 import { evaluateCautions } from '../../core/safety/evaluateCautions';
-import type { BenchLogRequest } from '../../main/electron/channels';
+import type { BenchLogRequest } from '../../core/bench/benchApiTypes';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '../..');
 const sampleFile = join(root, 'sample-captures', 'input-filter-step.csv');

@@ -4,7 +4,7 @@ import { existsSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { loadCapture } from '../../main/captureFile';
+import { loadCapture } from '../../main/io/captureFile';
 import { fitResponse } from '../../core/fit/fitResponse';
 
 const REAL = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../../shared/reference/real-captures');

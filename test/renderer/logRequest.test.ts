@@ -12,8 +12,8 @@ import { evaluateCautions } from '../../core/safety/evaluateCautions';
 import { parseDesign } from '../../core/circuit/design';
 import { buildLogRequest } from '../../renderer/logRequest';
 import { initialState, type BenchState } from '../../renderer/benchState';
-import { benchLogRequestProblem } from '../../main/electron/guards';
-import { recordFromRequest } from '../../main/benchApiLog';
+import { benchLogRequestProblem } from '../../main/api/guards';
+import { recordFromRequest } from '../../main/api/logCalls';
 
 const samples = resolve(dirname(fileURLToPath(import.meta.url)), '../../sample-captures');
 

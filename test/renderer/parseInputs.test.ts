@@ -1,7 +1,7 @@
-// What the panels read from typed text: values with SI prefixes, tolerances, a sample's known option.
+// What the panels read from typed text: values with SI prefixes, a sample's known option (tolerances: test/core/userValues.test.ts).
 
 import { describe, expect, it } from 'vitest';
-import { parsePositive, parseSigned, parseTolerancePercent, percentText, splitKnownOption } from '../../renderer/parseInputs';
+import { parsePositive, parseSigned, percentText, splitKnownOption } from '../../renderer/parseInputs';
 import { plainMessage } from '../../renderer/plainMessage';
 import { CaptureError } from '../../core/capture/types';
 
@@ -27,19 +27,6 @@ describe('panel inputs', () => {
     ['-600u', -600e-6],
   ])('reads the signed value %s', (text, expected) => {
     expect(parseSigned(text, 's', 'window start')).toBeCloseTo(expected, 15);
-  });
-
-  it.each([
-    ['', 0],
-    ['5', 0.05],
-    ['5 %', 0.05],
-    ['0.5%', 0.005],
-  ])('reads the tolerance %j', (text, expected) => {
-    expect(parseTolerancePercent(text, 'tolerance')).toBeCloseTo(expected, 15);
-  });
-
-  it.each(['-1', '100', 'five'])('refuses the tolerance %j', (text) => {
-    expect(() => parseTolerancePercent(text, 'tolerance of C')).toThrow(/^tolerance of C: /);
   });
 
   it.each([

@@ -3,7 +3,7 @@
 import type { Command } from 'commander';
 import type { CommandContext } from '../program';
 import { addCaptureOptions, type FitCommandOptions } from './fit';
-import { loadDesignFile, measureFile } from '../../benchLogRecord';
+import { loadDesignFile, measureFile } from '../../app/benchLogRecord';
 import { formatFitText } from '../../../core/report/fitText';
 import { formatVerdictText } from '../../../core/report/verdictText';
 import { formatCautionsText } from '../../../core/safety/cautionText';

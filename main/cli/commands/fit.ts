@@ -2,12 +2,12 @@
 
 import type { Command } from 'commander';
 import type { CommandContext } from '../program';
-import { loadCapture, type LoadedCapture } from '../../captureFile';
+import { loadCapture, type LoadedCapture } from '../../io/captureFile';
 import { fitResponse } from '../../../core/fit/fitResponse';
 import { componentsFromResponse } from '../../../core/circuit/components';
 import { summarizeFit, type FitSummary } from '../../../core/report/fitSummary';
 import { formatFitText } from '../../../core/report/fitText';
-import { parseChannel, parseKnown, parseTime, parseTopology } from '../options';
+import { parseChannel, parseKnown, parseSignedTime, parseTime, parseTopology } from '../../../core/workflow/userValues';
 import { UsageError } from '../../../core/inputError';
 import { formatEngineering } from '../../../core/units/format';
 import { COMPONENT_UNITS as UNIT_OF_COMPONENT } from '../../../core/circuit/relations';
@@ -66,13 +66,6 @@ export function fitCapture(file: string, options: FitCommandOptions, cwd: string
   return { summary: summarizeFit(basename(file), channel.name, fit, components, loaded.capture.warnings), loaded };
 }
 
-
-function parseSignedTime(text: string, option: string): number {
-  const negative = text.trim().startsWith('-');
-  const value = parseTime(negative ? text.trim().slice(1) : text, option);
-  return negative ? -value : value;
-}
-
 /** The options every fitting command takes: which channel, which window, how to read the axis. */
 export function addCaptureOptions(command: Command): Command {
   return command
@@ -87,7 +80,7 @@ export function addCaptureOptions(command: Command): Command {
 export function addComponentOptions(command: Command): Command {
   return command
     .option('--topology <kind>', 'series or parallel: derive R, L, C (needs --known)')
-    .option('--known <NAME=VALUE[,TOL%]>', 'one known component, e.g. C=470n or L=2.2u,10%');
+    .option('--known <NAME=VALUE[,TOL]>', 'one known component, tolerance in %, e.g. C=470n or L=2.2u,10 or L=2.2u,10%');
 }
 
 export function registerFitCommand(program: Command, ctx: CommandContext): void {

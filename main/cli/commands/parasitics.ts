@@ -4,13 +4,12 @@ import type { Command } from 'commander';
 import { basename } from 'node:path';
 import type { CommandContext } from '../program';
 import { fitCapture } from './fit';
-import { parseQuantityText } from '../../../core/units/parseQuantity';
 import { extractParasitics } from '../../../core/circuit/addedCapacitor';
 import { suggestSnubber } from '../../../core/circuit/snubber';
 import { evaluateCautions } from '../../../core/safety/evaluateCautions';
 import { formatParasiticsText } from '../../../core/report/parasiticsText';
 import { quantity } from '../../../core/quantity';
-import { parseTolerance } from '../options';
+import { parseAddedCapacitances, parsePositiveValue, parseTolerance } from '../../../core/workflow/userValues';
 import { UsageError } from '../../../core/inputError';
 
 interface ParasiticsOptions {
@@ -24,44 +23,13 @@ interface ParasiticsOptions {
   json?: boolean;
 }
 
-/** '--added C=470p,1n' (or '470p,1n'): one added capacitance per capture after the first. */
-export function parseAdded(text: string, captures: number): number[] {
-  const list = text.replace(/^\s*C\s*=\s*/i, '').split(',').map((s) => s.trim());
-  const values = list.map((item) => {
-    let value: number;
-    try {
-      value = parseQuantityText(item, 'F');
-    } catch (error) {
-      throw new UsageError(`--added '${text}': ${(error as Error).message}`);
-    }
-    if (!(value > 0) || !Number.isFinite(value)) throw new UsageError(`--added '${text}': '${item}' must be a positive capacitance`);
-    return value;
-  });
-  if (values.length !== captures - 1) {
-    throw new UsageError(`--added gives ${values.length} value(s) for ${captures - 1} capture(s) after the first (the bare loop)`);
-  }
-  return values;
-}
-
-function positive(text: string | undefined, option: string, unit: string): number | undefined {
-  if (text === undefined) return undefined;
-  let value: number;
-  try {
-    value = parseQuantityText(text, unit);
-  } catch (error) {
-    throw new UsageError(`${option} '${text}': ${(error as Error).message}`);
-  }
-  if (!(value > 0) || !Number.isFinite(value)) throw new UsageError(`${option} '${text}': must be a positive value`);
-  return value;
-}
-
 export function registerParasiticsCommand(program: Command, ctx: CommandContext): void {
   program
     .command('parasitics')
     .description('loop inductance, capacitance and resistance by the added-capacitor method, and an RC snubber starting point')
     .argument('<captures...>', 'the bare loop first, then one capture per added capacitor')
     .requiredOption('--added <C=VALUE[,VALUE...]>', 'capacitance added for each capture after the first, e.g. C=470p,1n')
-    .option('--added-tolerance <TOL%>', 'tolerance of the added capacitors, e.g. 5%')
+    .option('--added-tolerance <TOL>', 'tolerance of the added capacitors in %, e.g. 5 or 5%')
     .option('--probe-c <value>', 'probe input capacitance in parallel with the node, e.g. 12p (default none)')
     .option('--bandwidth <value>', 'scope or probe bandwidth, e.g. 200M: warns when the ring is above a third of it')
     .option('--voltage <value>', 'voltage the node switches, for the snubber dissipation, e.g. 48')
@@ -70,12 +38,12 @@ export function registerParasiticsCommand(program: Command, ctx: CommandContext)
     .option('--json', 'print one JSON object instead of the table')
     .action((files: string[], options: ParasiticsOptions) => {
       if (files.length < 2) throw new UsageError('parasitics needs at least two captures: the bare loop and one with a capacitor added');
-      const added = [0, ...parseAdded(options.added, files.length)];
+      const added = [0, ...parseAddedCapacitances(options.added, files.length)];
       const addedTolerance = options.addedTolerance === undefined ? 0 : parseTolerance(options.addedTolerance, '--added-tolerance');
-      const probeC = positive(options.probeC, '--probe-c', 'F') ?? 0;
-      const bandwidth = positive(options.bandwidth, '--bandwidth', 'Hz');
-      const voltage = positive(options.voltage, '--voltage', 'V');
-      const switchingFrequency = positive(options.switchingFrequency, '--switching-frequency', 'Hz');
+      const probeC = parsePositiveValue(options.probeC, '--probe-c', 'F') ?? 0;
+      const bandwidth = parsePositiveValue(options.bandwidth, '--bandwidth', 'Hz');
+      const voltage = parsePositiveValue(options.voltage, '--voltage', 'V');
+      const switchingFrequency = parsePositiveValue(options.switchingFrequency, '--switching-frequency', 'Hz');
       const fitted = files.map((file) => fitCapture(file, { column: options.column }, ctx.io.cwd));
       const fits = fitted.map((f) => f.summary);
       const failed = fits.find((f) => f.status === 'failed' || f.regime !== 'underdamped');

@@ -3,7 +3,7 @@
 import type { Command } from 'commander';
 import { resolve } from 'node:path';
 import type { CommandContext } from '../program';
-import { reportFormatFor, writeReport } from '../../reportFile';
+import { reportFormatFor, writeReport } from '../../app/reportFile';
 import { UsageError } from '../../../core/inputError';
 
 export function registerReportCommand(program: Command, ctx: CommandContext): void {

@@ -4,7 +4,7 @@ import type { Command } from 'commander';
 import { resolve } from 'node:path';
 import type { CommandContext } from '../program';
 import { UsageError } from '../../../core/inputError';
-import { findProjectRoot } from '../../benchApiPaths';
+import { findProjectRoot } from '../../io/projectPaths';
 import { serveUntilStopped, startServing } from '../../server/serveBench';
 import { hasDisplay } from '../../start';
 

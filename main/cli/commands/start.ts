@@ -3,7 +3,7 @@
 import type { Command } from 'commander';
 import { resolve } from 'node:path';
 import type { CommandContext } from '../program';
-import { findProjectRoot } from '../../benchApiPaths';
+import { findProjectRoot } from '../../io/projectPaths';
 import { serveUntilStopped, startServing } from '../../server/serveBench';
 import { fetchElectronRuntime, hasDisplay, planLaunch, runWindow } from '../../start';
 import { parsePort } from './serve';

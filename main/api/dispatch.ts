@@ -1,8 +1,9 @@
 // Runs one bench API call by name: checks the method and every argument, then answers an ApiResult.
 
-import { describeFailure } from '../core/inputError';
-import type { ApiMethod, ApiResult } from './electron/channels';
-import { argumentProblem, isApiMethod } from './electron/guards';
+import { describeFailure } from '../../core/inputError';
+import type { ApiResult } from '../../core/bench/benchApiTypes';
+import type { ApiMethod } from './apiMethods';
+import { argumentProblem, isApiMethod } from './guards';
 
 export type ApiHandlers = Partial<Record<ApiMethod, (...args: never[]) => Promise<unknown>>>;
 

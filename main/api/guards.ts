@@ -1,7 +1,8 @@
 // Type guards for every argument of the bench API, run in main before any file is touched.
 
 import { isAbsolute } from 'node:path';
-import { CHANNELS, type ApiMethod, type BenchLogRequest, type SaveRequest } from './channels';
+import type { BenchLogRequest, SaveRequest } from '../../core/bench/benchApiTypes';
+import { API_METHODS, type ApiMethod } from './apiMethods';
 
 type Json = Record<string, unknown>;
 
@@ -11,7 +12,7 @@ const MAX_PATH = 4096;
 export const MAX_SAVE_CHARS = 64 * 1024 * 1024;
 
 export function isApiMethod(name: unknown): name is ApiMethod {
-  return typeof name === 'string' && Object.prototype.hasOwnProperty.call(CHANNELS, name);
+  return typeof name === 'string' && (API_METHODS as readonly string[]).includes(name);
 }
 
 /** A sample or design id: a plain file-name stem, never a path. */

@@ -2,12 +2,12 @@
 
 import { existsSync } from 'node:fs';
 import { randomBytes } from 'node:crypto';
-import { appendBenchLog, describeTornTail, readBenchLog } from './benchLog';
-import { parseBenchRecord, RECORD_KIND, RECORD_SCHEMA, type BenchRecord } from '../core/report/benchRecord';
-import { parseDesign } from '../core/circuit/design';
-import type { BenchLogRequest, BenchLogView } from './electron/channels';
-import { VERSION } from './version';
-import { checkLabel } from './benchLogRecord';
+import { appendBenchLog, describeTornTail, readBenchLog } from '../io/benchLog';
+import { parseBenchRecord, RECORD_KIND, RECORD_SCHEMA, type BenchRecord } from '../../core/report/benchRecord';
+import { parseDesign } from '../../core/circuit/design';
+import type { BenchLogRequest, BenchLogView } from '../../core/bench/benchApiTypes';
+import { VERSION } from '../version';
+import { checkLabel } from '../app/labels';
 
 /** The record for a request: the window's results plus the id, the time and the software. */
 export function recordFromRequest(request: BenchLogRequest, now: Date, id = randomBytes(6).toString('hex')): BenchRecord {

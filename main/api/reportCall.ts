@@ -3,9 +3,9 @@
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { writeReport } from './reportFile';
-import type { NamedText, ReportFormat } from './electron/channels';
-import { BenchApiError } from './benchApiError';
+import { writeReport } from '../app/reportFile';
+import type { NamedText, ReportFormat } from '../../core/bench/benchApiTypes';
+import { BenchApiError } from './apiError';
 
 export function renderLogReport(logPath: string, format: ReportFormat, clock: () => Date): NamedText {
   const name = `bench-report.${format}`;

@@ -3,17 +3,17 @@
 
 import { createHash, randomBytes } from 'node:crypto';
 import { resolve } from 'node:path';
-import { parseDesign, type Design } from '../core/circuit/design';
-import { probeUnit } from '../core/circuit/predict';
-import { checkDesign, type Verdict } from '../core/circuit/verdict';
-import { RECORD_KIND, RECORD_SCHEMA, type BenchRecord } from '../core/report/benchRecord';
-import type { FitSummary } from '../core/report/fitSummary';
-import { cautionInputsFromCapture } from '../core/safety/cautionInputs';
-import { evaluateCautions, type CautionResult } from '../core/safety/evaluateCautions';
-import { readFileBytes, type LoadedCapture } from './captureFile';
-import { fitCapture, type FitCommandOptions } from './cli/commands/fit';
-import { UsageError } from '../core/inputError';
-import { VERSION } from './version';
+import { parseDesign, type Design } from '../../core/circuit/design';
+import { probeUnit } from '../../core/circuit/predict';
+import { checkDesign, type Verdict } from '../../core/circuit/verdict';
+import { RECORD_KIND, RECORD_SCHEMA, type BenchRecord } from '../../core/report/benchRecord';
+import type { FitSummary } from '../../core/report/fitSummary';
+import { cautionInputsFromCapture } from '../../core/safety/cautionInputs';
+import { evaluateCautions, type CautionResult } from '../../core/safety/evaluateCautions';
+import { readFileBytes, type LoadedCapture } from '../io/captureFile';
+import { fitCapture, type FitCommandOptions } from '../cli/commands/fit';
+import { UsageError } from '../../core/inputError';
+import { VERSION } from '../version';
 
 export interface LoadedDesign {
   path: string;
@@ -63,15 +63,6 @@ export function measureFile(file: string, options: FitCommandOptions, cwd: strin
     : { C: summary.components?.C, L: summary.components?.L };
   const cautions = evaluateCautions(cautionInputsFromCapture(channel.values, channel.unit, parts));
   return { summary, capture, design, verdict, cautions };
-}
-
-/** A unit id, operator name: 1 to 100 characters, no line breaks or control characters. */
-export function checkLabel(text: string, option: string): string {
-  const value = text.trim();
-  if (value === '') throw new UsageError(`${option} must not be empty`);
-  if (value.length > 100) throw new UsageError(`${option} must be at most 100 characters, got ${value.length}`);
-  if (/[\u0000-\u001f\u007f]/.test(value)) throw new UsageError(`${option} must not contain line breaks or control characters`);
-  return value;
 }
 
 export interface RecordDeps {

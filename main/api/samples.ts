@@ -2,8 +2,8 @@
 
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { DesignEntry, NamedText, SampleEntry } from './electron/channels';
-import { BenchApiError } from './benchApiError';
+import type { DesignEntry, NamedText, SampleEntry } from '../../core/bench/benchApiTypes';
+import { BenchApiError } from './apiError';
 
 /** Largest sample or design file served, bytes. */
 const MAX_FILE_BYTES = 64 * 1024 * 1024;

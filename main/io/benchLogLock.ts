@@ -9,7 +9,7 @@ import { closeSync, linkSync, openSync, readdirSync, readFileSync, renameSync, s
 import { basename, dirname, join } from 'node:path';
 import { hostname } from 'node:os';
 import { randomBytes } from 'node:crypto';
-import { LogError } from '../core/report/benchRecord';
+import { LogError } from '../../core/report/benchRecord';
 
 const EMPTY_LOCK_GRACE_MS = 2000;
 

@@ -1,21 +1,22 @@
 // Writes a report file from a bench log: reloads each capture for its plot, renders, writes atomically.
 
-import { closeSync, fsyncSync, openSync, renameSync, statSync, unlinkSync, writeSync } from 'node:fs';
-import { createHash, randomBytes } from 'node:crypto';
-import { basename, dirname, extname, join } from 'node:path';
-import type { BenchRecord } from '../core/report/benchRecord';
-import type { ReportTrace } from '../core/report/overlay';
-import { renderReportHtml } from '../core/report/reportHtml';
-import { renderReportMarkdown } from '../core/report/reportMarkdown';
-import { renderReportCsv } from '../core/report/reportCsv';
-import { showTime } from '../core/report/resultRows';
-import { describeTornTail, readCleanBenchLog } from './benchLog';
-import { decodeUtf8, readFileBytes } from './captureFile';
-import { parseCaptureBytes } from '../core/capture/parseCapture';
-import { selectChannel } from '../core/capture/selectChannel';
-import { parseChannel, parseTime } from './cli/options';
-import { FileError } from './io/fileError';
-import { VERSION } from './version';
+import { statSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import { dirname, extname } from 'node:path';
+import type { BenchRecord } from '../../core/report/benchRecord';
+import type { ReportTrace } from '../../core/report/overlay';
+import { renderReportHtml } from '../../core/report/reportHtml';
+import { renderReportMarkdown } from '../../core/report/reportMarkdown';
+import { renderReportCsv } from '../../core/report/reportCsv';
+import { showTime } from '../../core/report/resultRows';
+import { describeTornTail, readCleanBenchLog } from '../io/benchLog';
+import { decodeUtf8, readFileBytes } from '../io/captureFile';
+import { parseCaptureBytes } from '../../core/capture/parseCapture';
+import { selectChannel } from '../../core/capture/selectChannel';
+import { parseChannel, parseTime } from '../../core/workflow/userValues';
+import { FileError } from '../io/fileError';
+import { writeFileAtomic } from '../io/atomicFile';
+import { VERSION } from '../version';
 
 export type ReportFormat = 'html' | 'md' | 'csv';
 
@@ -102,30 +103,6 @@ export function writeReport(logPath: string, outPath: string, options: WriteRepo
   }
   writeFileAtomic(outPath, text);
   return { format, records: records.length, notes };
-}
-
-/** Write `text` to a temporary file beside `path`, fsync, then rename over it: never a half-written file. */
-export function writeFileAtomic(path: string, text: string): void {
-  const temporary = join(dirname(path), `.${basename(path)}.${process.pid}-${randomBytes(4).toString('hex')}.tmp`);
-  let fd: number | null = null;
-  try {
-    fd = openSync(temporary, 'wx', 0o644);
-    const data = Buffer.from(text, 'utf8');
-    let offset = 0;
-    while (offset < data.length) offset += writeSync(fd, data, offset, data.length - offset);
-    fsyncSync(fd);
-    closeSync(fd);
-    fd = null;
-    renameSync(temporary, path);
-  } catch (error) {
-    if (fd !== null) closeSync(fd);
-    try {
-      unlinkSync(temporary);
-    } catch {
-      // already gone
-    }
-    throw new FileError(`cannot write report '${path}': ${(error as NodeJS.ErrnoException).code ?? (error as Error).message}`);
-  }
 }
 
 function requireFolder(path: string): void {

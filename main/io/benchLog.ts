@@ -9,7 +9,7 @@
 
 import { closeSync, constants, fstatSync, fsyncSync, ftruncateSync, openSync, readFileSync, readSync, statSync, writeSync } from 'node:fs';
 import { dirname } from 'node:path';
-import { LogError, parseBenchRecord, type BenchRecord } from '../core/report/benchRecord';
+import { LogError, parseBenchRecord, type BenchRecord } from '../../core/report/benchRecord';
 import { acquireLogLock } from './benchLogLock';
 
 export interface AppendOptions {

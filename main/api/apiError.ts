@@ -1,6 +1,6 @@
 // A bench API call that could not be carried out: the message says what, in plain words.
 
-import { InputError } from '../core/inputError';
+import { InputError } from '../../core/inputError';
 
 export class BenchApiError extends InputError {
   constructor(message: string) {

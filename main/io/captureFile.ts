@@ -3,10 +3,10 @@
 import { readFileSync, statSync } from 'node:fs';
 import { createHash } from 'node:crypto';
 import { resolve } from 'node:path';
-import { parseCaptureBytes } from '../core/capture/parseCapture';
-import { selectChannel } from '../core/capture/selectChannel';
-import type { Capture, CaptureOptions, Channel } from '../core/capture/types';
-import { FileError } from './io/fileError';
+import { parseCaptureBytes } from '../../core/capture/parseCapture';
+import { selectChannel } from '../../core/capture/selectChannel';
+import type { Capture, CaptureOptions, Channel } from '../../core/capture/types';
+import { FileError } from './fileError';
 
 export interface LoadedCapture {
   path: string;

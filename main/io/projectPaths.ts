@@ -3,7 +3,7 @@
 import { existsSync, readFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { FileError } from './io/fileError';
+import { FileError } from './fileError';
 
 /** Walk up from `start` (a file URL or folder) to the folder whose package.json names ringbench. */
 export function findProjectRoot(start: string): string {

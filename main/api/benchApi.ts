@@ -1,11 +1,11 @@
 // The bench API behind both faces: the preload's IPC calls and the local server's /api/ routes.
 
 import { join } from 'node:path';
-import type { BenchApi } from './electron/channels';
-import { findSample, listDesignEntries, listSampleEntries, readDesignFile, readSampleFile } from './benchApiSamples';
-import { appendLogRequest, readLogView } from './benchApiLog';
-import { renderLogReport } from './benchApiReport';
-import { BenchApiError } from './benchApiError';
+import type { BenchApi } from '../../core/bench/benchApiTypes';
+import { findSample, listDesignEntries, listSampleEntries, readDesignFile, readSampleFile } from './samples';
+import { appendLogRequest, readLogView } from './logCalls';
+import { renderLogReport } from './reportCall';
+import { BenchApiError } from './apiError';
 import { existsSync } from 'node:fs';
 
 export interface BenchApiOptions {

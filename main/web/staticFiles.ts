@@ -1,7 +1,8 @@
-// Maps a request path to a file of the built renderer, refusing anything outside it.
+// Maps a request path to a file of the built renderer, refusing anything outside it, and the headers it is served with.
 
 import { realpathSync, statSync } from 'node:fs';
 import { extname, join, sep } from 'node:path';
+import { SECURITY_HEADERS } from './securityHeaders';
 
 const CONTENT_TYPES: Record<string, string> = {
   '.html': 'text/html; charset=utf-8',
@@ -40,6 +41,11 @@ export function resolveStaticFile(rootDir: string, rawPathname: string): string 
   }
 }
 
-export function contentTypeOf(file: string): string {
+function contentTypeOf(file: string): string {
   return CONTENT_TYPES[extname(file)] ?? 'application/octet-stream';
+}
+
+/** The headers of a served renderer file, the same over HTTP and bench://: the security headers and its type. */
+export function staticFileHeaders(file: string): Record<string, string> {
+  return { ...SECURITY_HEADERS, 'Content-Type': contentTypeOf(file) };
 }
