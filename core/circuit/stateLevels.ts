@@ -1,6 +1,9 @@
 // State levels of a two-state waveform by the histogram mode method (IEEE Std 181-2011, state-level
 // estimation from the histogram; clause numbers from memory).
 
+/** Where the state levels of a transition came from. */
+export type StateLevelMethod = 'fitted model' | 'histogram mode' | 'given';
+
 export interface StateLevels {
   /** Level before the transition. */
   initial: number;
@@ -10,8 +13,10 @@ export interface StateLevels {
 
 /**
  * The histogram of the samples is split at the middle of their range; each half's modal bin gives a
- * state level (the mean of the samples in that bin). The level nearer the start of the record is
- * the initial one. Bin count: sqrt(N), between 16 and 512 (our choice; the standard leaves it open).
+ * state level: the mean of the samples in that bin and its two neighbours (within the half), which
+ * keeps a level that falls near a bin edge, or quantisation codes unevenly shared between bins, from
+ * pulling it by up to half a bin. The level nearer the start of the record is the initial one.
+ * Bin count: sqrt(N), between 16 and 512 (our choice; the standard leaves it open).
  */
 export function histogramStateLevels(values: ArrayLike<number>): StateLevels {
   const n = values.length;
@@ -34,7 +39,13 @@ export function histogramStateLevels(values: ArrayLike<number>): StateLevels {
   const modeLevel = (from: number, to: number): number => {
     let best = from;
     for (let k = from; k < to; k++) if (counts[k] > counts[best]) best = k;
-    return sums[best] / counts[best];
+    let count = 0;
+    let sum = 0;
+    for (let k = Math.max(from, best - 1); k <= Math.min(to - 1, best + 1); k++) {
+      count += counts[k];
+      sum += sums[k];
+    }
+    return sum / count;
   };
   const low = modeLevel(0, bins / 2);
   const high = modeLevel(bins / 2, bins);

@@ -1,7 +1,7 @@
 // Step-response transition metrics with the IEEE Std 181-2011 definitions (clause numbers from
 // memory): reference-level instants, rise time, overshoot and undershoot, settling time, ring frequency.
 import { CircuitInputError } from './errors';
-import { histogramStateLevels } from './stateLevels';
+import { histogramStateLevels, type StateLevelMethod } from './stateLevels';
 
 export interface TransitionReference {
   /** State level before the transition (the fit's pre level, say). */
@@ -10,10 +10,12 @@ export interface TransitionReference {
   final: number;
   /** Instant of the event (the fit's t0), s: the search starts here and the peak time counts from it. */
   eventTime?: number;
+  /** Where the levels came from (default 'given'). */
+  method?: Exclude<StateLevelMethod, 'histogram mode'>;
 }
 
 export interface TransitionMetrics {
-  levels: { initial: number; final: number; method: 'histogram mode' | 'given' };
+  levels: { initial: number; final: number; method: StateLevelMethod };
   /** final - initial, in the unit of the samples. */
   amplitude: number;
   /** 10 %, 50 % and 90 % reference-level instants, s (null when not crossed). */
@@ -56,7 +58,7 @@ export function transitionMetrics(
   const amplitude = levels.final - levels.initial;
   const warnings: string[] = [];
   const result: TransitionMetrics = {
-    levels: { initial: levels.initial, final: levels.final, method: reference ? 'given' : 'histogram mode' },
+    levels: { initial: levels.initial, final: levels.final, method: reference ? (reference.method ?? 'given') : 'histogram mode' },
     amplitude,
     instants: { t10: null, t50: null, t90: null },
     riseTime: null,
