@@ -3,6 +3,7 @@
 import type { ResponseFit } from '../fit/fitResponse';
 import type { Quantity } from '../quantity';
 import type { ResponseParams } from '../response/secondOrder';
+import type { TransitionSummary } from '../circuit/transitionSummary';
 
 export interface ComponentSet {
   R: Quantity;
@@ -34,6 +35,8 @@ export interface FitSummary {
   /** The fitted model itself, for drawing it again. */
   params: ResponseParams;
   warnings: string[];
+  /** Rise time, overshoot, peak and settling times of a step, from the samples and from the fitted model. */
+  transitions?: TransitionSummary;
 }
 
 export function summarizeFit(

@@ -4,6 +4,7 @@
 import type { Channel } from '../capture/types';
 import type { Design } from '../circuit/design';
 import { probeUnit } from '../circuit/predict';
+import { summarizeTransitions } from '../circuit/transitionSummary';
 import { checkDesign, type Verdict } from '../circuit/verdict';
 import { fitResponse, type ResponseFit } from '../fit/fitResponse';
 import { UsageError } from '../inputError';
@@ -39,10 +40,12 @@ export interface MeasureResult {
   cautions: CautionResult;
 }
 
-/** Fit the channel and summarize the fit; a window with too few samples is a FitInputError. */
+/** Fit the channel and summarize the fit with its transition metrics; a window with too few samples is a FitInputError. */
 export function fitChannel(file: string, channel: Channel, window: FitWindow = {}, captureWarnings: readonly string[] = []): { fit: ResponseFit; summary: FitSummary } {
   const fit = fitResponse({ time: channel.time, values: channel.values, clipped: channel.clipped, unit: channel.unit, name: channel.name }, { window });
-  return { fit, summary: summarizeFit(file, channel.name, fit, undefined, [...captureWarnings]) };
+  const summary = summarizeFit(file, channel.name, fit, undefined, [...captureWarnings]);
+  summary.transitions = summarizeTransitions(channel, fit);
+  return { fit, summary };
 }
 
 /**

@@ -1,0 +1,51 @@
+// How a capture is read and fitted, as a person gives it (command-line options, a sample's manifest
+// entry, a bench record's settings), read once into the values the measuring use case takes.
+
+import { UsageError } from '../inputError';
+import type { FitWindow } from './measure';
+import type { KnownPartRequest } from './measuredComponents';
+import { parseChannel, parseKnown, parseSignedTime, parseTime, parseTopology } from './userValues';
+
+/** The settings as typed; every field optional. */
+export interface MeasureSettings {
+  /** 'series' or 'parallel'; goes with `known`. */
+  topology?: string;
+  /** One known part, 'C=470n' or 'L=2.2u,10' (tolerance in %). */
+  known?: string;
+  /** Channel name or 0-based index. Default: the first channel. */
+  column?: string;
+  /** Sample interval for a file without a time column, e.g. '2n'. */
+  sampleInterval?: string;
+  /** Fit window edges, e.g. '-30n', '600u'. Default: found from the data. */
+  from?: string;
+  to?: string;
+  /** Sort out-of-order time stamps instead of refusing them. Default false. */
+  sortTime?: boolean;
+}
+
+export interface ParsedMeasureSettings {
+  channel?: string | number;
+  sampleInterval?: number;
+  sortTime: boolean;
+  window: FitWindow;
+  knownPart?: KnownPartRequest;
+}
+
+export function parseMeasureSettings(settings: MeasureSettings): ParsedMeasureSettings {
+  if ((settings.topology === undefined) !== (settings.known === undefined)) {
+    throw new UsageError('--topology and --known go together: give both to derive R, L and C');
+  }
+  const parsed: ParsedMeasureSettings = {
+    sortTime: settings.sortTime ?? false,
+    window: {
+      ...(settings.from === undefined ? {} : { start: parseSignedTime(settings.from, '--from') }),
+      ...(settings.to === undefined ? {} : { end: parseSignedTime(settings.to, '--to') }),
+    },
+  };
+  if (settings.column !== undefined) parsed.channel = parseChannel(settings.column);
+  if (settings.sampleInterval !== undefined) parsed.sampleInterval = parseTime(settings.sampleInterval, '--sample-interval');
+  if (settings.topology !== undefined && settings.known !== undefined) {
+    parsed.knownPart = { topology: parseTopology(settings.topology), known: parseKnown(settings.known) };
+  }
+  return parsed;
+}

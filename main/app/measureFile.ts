@@ -1,0 +1,64 @@
+// Measuring capture files: read the capture (and design) from disk, then the use case of core/workflow.
+// Shared by `fit`, `check`, `log add`, `batch`, `parasitics` and `compare`.
+
+import { createHash } from 'node:crypto';
+import { basename, resolve } from 'node:path';
+import { parseDesign, type Design } from '../../core/circuit/design';
+import { UsageError } from '../../core/inputError';
+import { compareCaptures, type Comparison } from '../../core/workflow/compare';
+import { measureCapture, type MeasureResult } from '../../core/workflow/measure';
+import { parseMeasureSettings, type MeasureSettings } from '../../core/workflow/measureSettings';
+import { loadCapture, readFileBytes, type LoadedCapture } from '../io/captureFile';
+
+export interface LoadedDesign {
+  path: string;
+  sha256: string;
+  design: Design;
+}
+
+/** One capture file measured, with the file and design it came from. */
+export interface FileMeasurement extends MeasureResult {
+  capture: LoadedCapture;
+  design: LoadedDesign | null;
+}
+
+/** A design file read and checked (DesignError names the faulty field). */
+export function loadDesignFile(path: string, cwd: string): LoadedDesign {
+  const full = resolve(cwd, path);
+  const bytes = readFileBytes(full);
+  return { path: full, sha256: createHash('sha256').update(bytes).digest('hex'), design: parseDesign(bytes.toString('utf8')) };
+}
+
+/** The capture file read with the settings' channel, sample interval and time-order rule. */
+export function loadCaptureFor(file: string, settings: MeasureSettings, cwd: string): LoadedCapture {
+  const parsed = parseMeasureSettings(settings);
+  return loadCapture(file, { cwd, channel: parsed.channel, sampleInterval: parsed.sampleInterval, sortTime: parsed.sortTime });
+}
+
+/** Fit one capture file; with a design, its verdict; the cautions from its samples. */
+export function measureFile(file: string, settings: MeasureSettings, cwd: string, design: LoadedDesign | null = null): FileMeasurement {
+  if (design && (settings.topology !== undefined || settings.known !== undefined)) {
+    throw new UsageError('--design gives the topology and components: leave out --topology and --known');
+  }
+  const parsed = parseMeasureSettings(settings);
+  const capture = loadCaptureFor(file, settings, cwd);
+  const result = measureCapture({
+    file: basename(file),
+    channel: capture.channel,
+    captureWarnings: capture.capture.warnings,
+    window: parsed.window,
+    knownPart: parsed.knownPart,
+    design: design?.design,
+  });
+  return { ...result, capture, design };
+}
+
+/** Two capture files of the same circuit, read with the same settings, compared. */
+export function compareFiles(before: string, after: string, settings: MeasureSettings, cwd: string): Comparison {
+  const parsed = parseMeasureSettings(settings);
+  const side = (file: string) => {
+    const capture = loadCaptureFor(file, settings, cwd);
+    return { file: basename(file), channel: capture.channel, captureWarnings: capture.capture.warnings, window: parsed.window };
+  };
+  return compareCaptures({ before: side(before), after: side(after), knownPart: parsed.knownPart });
+}
