@@ -1,7 +1,7 @@
 // The bench log as the table `ringbench log list` prints: one line per measurement.
 
-import { formatEngineering } from '../units/format';
 import type { BenchRecord } from './benchRecord';
+import { briefValue } from './resultRows';
 import { recordStatus } from './yieldSummary';
 
 const COLUMNS = ['time', 'unit', 'regime', 'f0', 'zeta', 'verdict'] as const;
@@ -11,8 +11,8 @@ export function formatLogTable(records: readonly BenchRecord[]): string {
     r.time.slice(0, 19).replace('T', ' '),
     printable(r.unit),
     r.fit.regime,
-    formatEngineering(r.fit.omega0.value / (2 * Math.PI), 'Hz'),
-    formatEngineering(r.fit.zeta.value, ''),
+    briefValue(r.fit, 'f0'),
+    briefValue(r.fit, 'zeta'),
     recordStatus(r),
   ]);
   const widths = COLUMNS.map((name, c) => Math.max(name.length, ...rows.map((row) => row[c].length)));

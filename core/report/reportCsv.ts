@@ -1,16 +1,13 @@
 // The bench log as CSV: one row per measurement, SI base units, text cells made safe for spreadsheets.
 
-import type { Quantity } from '../quantity';
 import type { BenchRecord } from './benchRecord';
 import { csvCell } from './escape';
-import { hertz } from './resultRows';
+import { RESULT_ROWS, rowQuantity } from './resultRows';
 import { recordStatus } from './yieldSummary';
-
-const QUANTITY_COLUMNS = ['alpha_per_s', 'omega0_rad_per_s', 'f0_hz', 'zeta', 'Q', 'final_value', 't0_s', 'R_ohm', 'L_h', 'C_f'] as const;
 
 const HEADER = [
   'id', 'time', 'unit', 'operator', 'note', 'file', 'channel', 'channel_unit', 'status', 'regime',
-  ...QUANTITY_COLUMNS.flatMap((name) => [name, `${name}_stderr`]),
+  ...RESULT_ROWS.flatMap((row) => [row.column, `${row.column}_stderr`]),
   'verdict', 'design', 'cautions', 'capture_path', 'capture_sha256', 'software_version',
 ];
 
@@ -18,10 +15,7 @@ export function renderReportCsv(records: readonly BenchRecord[]): string {
   const lines = [HEADER.join(',')];
   for (const r of records) {
     const fit = r.fit;
-    const quantities: (Quantity | undefined)[] = [
-      fit.alpha, fit.omega0, hertz(fit.omega0), fit.zeta, fit.Q, fit.finalValue, fit.t0,
-      fit.components?.R, fit.components?.L, fit.components?.C,
-    ];
+    const quantities = RESULT_ROWS.map((spec) => rowQuantity(spec, fit));
     const row: (string | number | null)[] = [
       r.id, r.time, r.unit, r.operator, r.note, fit.file, fit.channel, fit.finalValue.unit, fit.status, fit.regime,
       ...quantities.flatMap((q) => [q?.value ?? null, q?.stderr ?? null]),

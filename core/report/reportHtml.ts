@@ -7,7 +7,7 @@ import type { BenchRecord } from './benchRecord';
 import type { Verdict } from '../circuit/verdict';
 import { escapeHtml as e } from './escape';
 import { renderMeasurementPlot, type ReportTrace } from './overlay';
-import { fitResultRows, marginText, showTime } from './resultRows';
+import { briefValue, fitResultRows, marginText, showTime } from './resultRows';
 import { reproduceCommand } from './reproduce';
 import { REPORT_CSS } from './reportStyle';
 import { YIELD_RULE, recordStatus, summarizeYield, type UnitStatus, type UnitSummary, type YieldSummary } from './yieldSummary';
@@ -76,7 +76,7 @@ function summarySection(summary: YieldSummary): string {
       return (
         `<tr><td><a href="#unit-${u + 1}">${e(unit.unit)}</a></td><td class="num">${unit.records.length}</td>` +
         `<td class="num">${e(showTime(latest.time))}</td><td>${unit.design === null ? '–' : e(unit.design)}</td>` +
-        `<td class="num">${e(fitFrequency(latest))}</td><td>${badge(unit.status)}</td></tr>`
+        `<td class="num">${e(briefValue(latest.fit, 'f0'))}</td><td>${badge(unit.status)}</td></tr>`
       );
     })
     .join('');
@@ -134,7 +134,7 @@ function measurement(record: BenchRecord, id: string, options: ReportOptions): s
 
 function resultsTable(record: BenchRecord): string {
   const fit = record.fit;
-  const cells = fitResultRows(fit).map((row) => [row.label, formatMeasured(row.quantity)]);
+  const cells = fitResultRows(fit).map((row) => [row.symbol, row.text]);
   cells.push(['residual rms', `${formatEngineering(fit.rmsResidual, fit.finalValue.unit)} (noise ${formatEngineering(fit.noiseRms, fit.finalValue.unit)})`]);
   // Two label/value pairs per row, read down the left pair first.
   const half = Math.ceil(cells.length / 2);
@@ -211,8 +211,4 @@ function badge(status: UnitStatus, text?: string): string {
   const mark = status === 'pass' ? '✓' : status === 'fail' ? '✗' : '–';
   const cls = status === 'not checked' ? 'not-checked' : status;
   return `<span class="badge ${cls}">${mark} ${e(text ?? status)}</span>`;
-}
-
-function fitFrequency(record: BenchRecord): string {
-  return formatEngineering(record.fit.omega0.value / (2 * Math.PI), 'Hz');
 }

@@ -52,7 +52,7 @@ function measurement(record: BenchRecord, notes: string[]): string[] {
   if (byline.length) lines.push(m(byline.join(' · ')), '');
   for (const note of notes) lines.push(`> ${m(note)}`, '');
   lines.push(`Fit: ${m(fit.status)}, ${m(fit.regime)}.`, '', '| Quantity | Value |', '| --- | --- |');
-  for (const row of fitResultRows(fit)) lines.push(`| ${m(row.label)} | ${m(formatMeasured(row.quantity))} |`);
+  for (const row of fitResultRows(fit)) lines.push(`| ${m(row.symbol)} | ${m(row.text)} |`);
   if (record.verdict) {
     lines.push('', `Verdict against ${m(record.design?.name ?? 'design')}: ${record.verdict.pass ? 'pass' : 'fail'}.`, '');
     lines.push('| Quantity | Design | Measured | Margin | In tolerance |', '| --- | --- | --- | ---: | --- |');

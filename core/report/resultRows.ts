@@ -1,36 +1,79 @@
-// What every report face shows for one measurement: the fitted rows, margins and times as text.
+// The one table of what a measurement shows (alpha ... C) and how; every face reads its rows here.
 
 import type { Quantity } from '../quantity';
+import { formatEngineering, formatMeasured } from '../units/format';
 import type { FitSummary } from './fitSummary';
 import type { VerdictQuantity } from '../circuit/verdict';
 
-export interface ResultRow {
-  label: string;
-  quantity: Quantity;
+export interface ResultRowSpec {
+  /** JSON key path of the quantity in a fit summary ('alpha', 'components.R'); a derived row's own key. */
+  name: string;
+  /** The symbol as people read it. */
+  symbol: string;
+  /** SI unit of the value; null where it is the channel's own (the final value). */
+  unit: string | null;
+  /** CSV column of the value in SI base units; its uncertainty goes in `<column>_stderr`. */
+  column: string;
+  /** Present only for some fits: omega_d for an underdamped one, R, L, C when components were derived. */
+  optional?: 'underdamped' | 'components';
+  /** A row computed from another (f0 from omega0) rather than stored in the summary. */
+  derived?: { from: string; convert: (q: Quantity) => Quantity };
 }
 
-/** alpha, omega0, omega_d, f0, zeta, Q, final value, t0, then R, L, C when derived. */
+/** A row of one fit, formatted both ways a face shows it. */
+export interface ResultRow extends ResultRowSpec {
+  quantity: Quantity;
+  /** 'value ± stderr (rel %)' in engineering notation: the full result. */
+  text: string;
+  /** The value alone in engineering notation: a cell of a one-line-per-measurement table. */
+  brief: string;
+}
+
+export const RESULT_ROWS = [
+  { name: 'alpha', symbol: 'alpha', unit: 's^-1', column: 'alpha_per_s' },
+  { name: 'omega0', symbol: 'omega0', unit: 'rad/s', column: 'omega0_rad_per_s' },
+  { name: 'omegaD', symbol: 'omega_d', unit: 'rad/s', column: 'omega_d_rad_per_s', optional: 'underdamped' },
+  { name: 'f0', symbol: 'f0', unit: 'Hz', column: 'f0_hz', derived: { from: 'omega0', convert: hertz } },
+  { name: 'zeta', symbol: 'zeta', unit: '', column: 'zeta' },
+  { name: 'Q', symbol: 'Q', unit: '', column: 'Q' },
+  { name: 'finalValue', symbol: 'final value', unit: null, column: 'final_value' },
+  { name: 't0', symbol: 't0', unit: 's', column: 't0_s' },
+  { name: 'components.R', symbol: 'R', unit: 'ohm', column: 'R_ohm', optional: 'components' },
+  { name: 'components.L', symbol: 'L', unit: 'H', column: 'L_h', optional: 'components' },
+  { name: 'components.C', symbol: 'C', unit: 'F', column: 'C_f', optional: 'components' },
+] as const satisfies readonly ResultRowSpec[];
+
+export type ResultRowName = (typeof RESULT_ROWS)[number]['name'];
+
+/** The rows this fit has, in table order: omega_d only when underdamped, R, L, C only with components. */
 export function fitResultRows(fit: FitSummary): ResultRow[] {
-  const rows: ResultRow[] = [
-    { label: 'alpha', quantity: fit.alpha },
-    { label: 'omega0', quantity: fit.omega0 },
-  ];
-  if (fit.omegaD) rows.push({ label: 'omega_d', quantity: fit.omegaD });
-  rows.push(
-    { label: 'f0', quantity: hertz(fit.omega0) },
-    { label: 'zeta', quantity: fit.zeta },
-    { label: 'Q', quantity: fit.Q },
-    { label: 'final value', quantity: fit.finalValue },
-    { label: 't0', quantity: fit.t0 },
-  );
-  if (fit.components) {
-    rows.push(
-      { label: 'R', quantity: fit.components.R },
-      { label: 'L', quantity: fit.components.L },
-      { label: 'C', quantity: fit.components.C },
-    );
+  return RESULT_ROWS.flatMap((spec: ResultRowSpec) => {
+    const q = rowQuantity(spec, fit);
+    return q ? [{ ...spec, quantity: q, text: formatMeasured(q), brief: formatEngineering(q.value, q.unit) }] : [];
+  });
+}
+
+/** The quantity of one row for this fit, or undefined when the fit has none. */
+export function rowQuantity(spec: ResultRowSpec, fit: FitSummary): Quantity | undefined {
+  const source = valueAtPath(fit, spec.derived?.from ?? spec.name) as Quantity | null | undefined;
+  if (source === undefined || source === null) return undefined;
+  return spec.derived ? spec.derived.convert(source) : source;
+}
+
+/** The value alone of the named row ('f0', 'zeta'), or '-' when this fit has none. */
+export function briefValue(fit: FitSummary, name: ResultRowName): string {
+  const q = rowQuantity(RESULT_ROWS.find((row) => row.name === name)!, fit);
+  return q ? formatEngineering(q.value, q.unit) : '-';
+}
+
+/** What sits at a dotted key path of a JSON value ('components.R'); undefined when a step is missing. */
+export function valueAtPath(value: unknown, path: string): unknown {
+  let at = value;
+  for (const key of path.split('.')) {
+    if (typeof at !== 'object' || at === null) return undefined;
+    at = (at as Record<string, unknown>)[key];
   }
-  return rows;
+  return at;
 }
 
 /** f = omega / (2 pi), Hz. */

@@ -3,6 +3,7 @@
 import { isAbsolute } from 'node:path';
 import type { BenchLogRequest, SaveRequest } from '../../core/bench/benchApiTypes';
 import { API_METHODS, type ApiMethod } from './apiMethods';
+import { RESULT_ROWS, valueAtPath, type ResultRowSpec } from '../../core/report/resultRows';
 
 type Json = Record<string, unknown>;
 
@@ -75,16 +76,19 @@ export function benchLogRequestProblem(value: unknown): string | null {
 const LOG_REQUEST_KEYS = ['unit', 'operator', 'note', 'capture', 'settings', 'fit', 'verdict', 'design', 'cautions'];
 const FIT_STATUSES = ['converged', 'max-iterations', 'failed'];
 const REGIMES = ['underdamped', 'critically damped', 'overdamped'];
+/** The quantities a fit summary stores (derived rows such as f0 are not sent), from the one row table. */
+const FIT_QUANTITY_ROWS: readonly ResultRowSpec[] = RESULT_ROWS.filter((row: ResultRowSpec) => !row.derived);
 
 function fitSummaryProblem(value: unknown): string | null {
   if (!isObject(value)) return 'must be a fit summary';
   if (!isText(value.file) || !isText(value.channel)) return 'file and channel must be text';
   if (!FIT_STATUSES.includes(value.status as string)) return `status must be one of ${FIT_STATUSES.join(', ')}`;
   if (!REGIMES.includes(value.regime as string)) return `regime must be one of ${REGIMES.join(', ')}`;
-  for (const key of ['alpha', 'omega0', 'zeta', 'Q', 'finalValue', 't0']) {
-    if (!isQuantity(value[key])) return `${key} must be a quantity { value, stderr, unit }`;
+  for (const row of FIT_QUANTITY_ROWS) {
+    const field = valueAtPath(value, row.name);
+    if (row.optional && field === undefined) continue;
+    if (!isQuantity(field)) return `${row.name} must be a quantity { value, stderr, unit }`;
   }
-  if (value.omegaD !== undefined && !isQuantity(value.omegaD)) return 'omegaD must be a quantity';
   if (!isCount(value.samplesUsed)) return 'samplesUsed must be a count';
   if (!isObject(value.window) || !isNumberOrNull(value.window.start) || !isNumberOrNull(value.window.end)) return 'window must give start and end';
   if (!Array.isArray(value.warnings) || !value.warnings.every((w) => isText(w, 10 * MAX_TEXT))) return 'warnings must be a list of text';

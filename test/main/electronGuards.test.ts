@@ -148,12 +148,25 @@ describe('argument guards', () => {
     expect(isBenchLogRequest(goodLogRequest())).toBe(true);
   });
 
+  it('accepts the optional rows of the result table: omega_d, and R, L, C with components', () => {
+    const request = goodLogRequest();
+    const q = (value: number, unit: string) => ({ value, stderr: null, unit });
+    Object.assign(request.fit as Record<string, unknown>, {
+      omegaD: q(5.5e4, 'rad/s'),
+      components: { topology: 'series', known: 'C=47u', R: q(0.8, 'ohm'), L: q(6.8e-6, 'H'), C: q(47e-6, 'F') },
+    });
+    expect(isBenchLogRequest(request)).toBe(true);
+  });
+
   it.each([
     ['an empty unit', (r: Record<string, unknown>) => (r.unit = '  '), /unit/],
     ['an unknown field', (r: Record<string, unknown>) => (r.path = '/etc/passwd'), /unknown field "path"/],
     ['a short sha256', (r: Record<string, unknown>) => ((r.capture as Record<string, unknown>).sha256 = 'abc'), /capture/],
     ['a bad status', (r: Record<string, unknown>) => ((r.fit as Record<string, unknown>).status = 'great'), /fit: status/],
     ['alpha without a unit', (r: Record<string, unknown>) => ((r.fit as Record<string, unknown>).alpha = { value: 1, stderr: null }), /fit: alpha/],
+    ['no zeta', (r: Record<string, unknown>) => delete (r.fit as Record<string, unknown>).zeta, /fit: zeta must be a quantity/],
+    ['omega_d as text', (r: Record<string, unknown>) => ((r.fit as Record<string, unknown>).omegaD = '55 krad/s'), /fit: omegaD must be a quantity/],
+    ['components without a quantity R', (r: Record<string, unknown>) => ((r.fit as Record<string, unknown>).components = { topology: 'series', known: 'C=47u', R: 0.8 }), /fit: components\.R must be a quantity/],
     ['settings without sortTime', (r: Record<string, unknown>) => delete (r.settings as Record<string, unknown>).sortTime, /settings/],
     ['a verdict of the wrong shape', (r: Record<string, unknown>) => (r.verdict = { pass: 'yes' }), /verdict/],
     ['cautions without the list', (r: Record<string, unknown>) => (r.cautions = {}), /cautions/],

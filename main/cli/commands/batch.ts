@@ -9,7 +9,7 @@ import { fitOptionsOf, type LogAddOptions } from './log';
 import { addCaptureOptions, addComponentOptions } from './fit';
 import { appendBenchLog, requireLogFolder } from '../../io/benchLog';
 import { createBenchRecord, loadDesignFile, measureFile, type Measurement } from '../../app/benchLogRecord';
-import { formatEngineering } from '../../../core/units/format';
+import { briefValue } from '../../../core/report/resultRows';
 import { EXIT, messageFor } from '../errors';
 import { UsageError } from '../../../core/inputError';
 import { FileError } from '../../io/fileError';
@@ -98,9 +98,9 @@ function formatBatchTable(entries: BatchEntry[]): string {
       entry.file,
       s.status,
       s.regime,
-      formatEngineering(s.omega0.value / (2 * Math.PI), 'Hz'),
-      formatEngineering(s.zeta.value, ''),
-      formatEngineering(s.Q.value, ''),
+      briefValue(s, 'f0'),
+      briefValue(s, 'zeta'),
+      briefValue(s, 'Q'),
       verdict ? (verdict.pass ? 'pass' : 'FAIL') : '-',
       cautions.fired.length ? cautions.fired.map((c) => c.id).join(',') : '-',
     ];

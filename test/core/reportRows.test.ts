@@ -1,0 +1,71 @@
+// The one table of result rows: which rows a fit has, how they read, and that every face follows it.
+import { describe, expect, it } from 'vitest';
+import { RESULT_ROWS, briefValue, fitResultRows, hertz, rowQuantity } from '../../core/report/resultRows';
+import { formatFitText } from '../../core/report/fitText';
+import { renderReportCsv } from '../../core/report/reportCsv';
+import { renderReportMarkdown } from '../../core/report/reportMarkdown';
+import { formatLogTable } from '../../core/report/logTable';
+import { escapeMarkdown } from '../../core/report/escape';
+import { sampleFit, sampleRecord } from '../fixtures/benchLog/sampleRecord';
+
+const q = (value: number, stderr: number | null, unit: string) => ({ value, stderr, unit });
+const withComponents = sampleFit({
+  components: { topology: 'series', known: 'C=2.2n', R: q(1.94, 0.01, 'ohm'), L: q(11.2e-9, 0.1e-9, 'H'), C: q(2.2e-9, 0, 'F') },
+});
+const overdamped = sampleFit({ regime: 'overdamped', omegaD: undefined });
+
+describe('the result row table', () => {
+  it('names every row by its key path in the fit summary, or by what it is derived from', () => {
+    for (const spec of RESULT_ROWS) expect(rowQuantity(spec, withComponents), spec.name).toBeDefined();
+    expect(new Set(RESULT_ROWS.map((r) => r.column)).size).toBe(RESULT_ROWS.length);
+  });
+
+  it('has omega_d only when underdamped and R, L, C only with components', () => {
+    expect(fitResultRows(withComponents).map((r) => r.symbol)).toEqual(['alpha', 'omega0', 'omega_d', 'f0', 'zeta', 'Q', 'final value', 't0', 'R', 'L', 'C']);
+    expect(fitResultRows(overdamped).map((r) => r.symbol)).toEqual(['alpha', 'omega0', 'f0', 'zeta', 'Q', 'final value', 't0']);
+  });
+
+  it('formats a row as value ± stderr and, briefly, as the value alone, in engineering notation', () => {
+    const alpha = fitResultRows(withComponents)[0];
+    expect(alpha.text).toBe('24.00 Ms^-1 ± 110 ks^-1 (0.46 %)');
+    expect(alpha.brief).toBe('24 Ms^-1');
+    expect(briefValue(withComponents, 'f0')).toBe('32 MHz');
+    expect(briefValue(overdamped, 'omegaD')).toBe('-');
+  });
+
+  it('converts angular frequency to hertz with its uncertainty', () => {
+    expect(hertz(q(2 * Math.PI * 1e3, 2 * Math.PI, 'rad/s'))).toEqual({ value: 1e3, stderr: 1, unit: 'Hz' });
+    expect(hertz(q(1, null, 'rad/s')).stderr).toBeNull();
+  });
+});
+
+describe('every face reads the table', () => {
+  const rows = fitResultRows(withComponents);
+
+  it('the command line text: one line per row, the components basis heading R, L, C', () => {
+    const lines = formatFitText(withComponents).split('\n');
+    const at = (label: string) => lines.findIndex((l) => l.startsWith(`  ${label.padEnd(16)} `));
+    for (const row of rows) expect(lines[at(row.symbol)]).toBe(`  ${row.symbol.padEnd(16)} ${row.text}`);
+    expect(at('components')).toBe(at('R') - 1);
+    expect(lines[at('components')]).toContain('series, known C=2.2n');
+    expect(formatFitText(overdamped)).not.toMatch(/omega_d|components/);
+  });
+
+  it('the Markdown report: a table line per row', () => {
+    const md = renderReportMarkdown([sampleRecord({ fit: withComponents })]);
+    for (const row of rows) expect(md).toContain(`| ${escapeMarkdown(row.symbol)} | ${escapeMarkdown(row.text)} |`);
+  });
+
+  it('the CSV: a value and an uncertainty column per row, empty where the fit has no such row', () => {
+    const [header, line] = renderReportCsv([sampleRecord({ fit: overdamped, note: null })]).split('\r\n');
+    const cells = line.split(',');
+    const columns = header.split(',');
+    for (const spec of RESULT_ROWS) expect(columns).toContain(`${spec.column}_stderr`);
+    expect(cells[columns.indexOf('omega_d_rad_per_s')]).toBe('');
+    expect(Number(cells[columns.indexOf('f0_hz_stderr')])).toBeCloseTo(2.1e5 / (2 * Math.PI), 6);
+  });
+
+  it('the log table: f0 and zeta as brief values', () => {
+    expect(formatLogTable([sampleRecord({ fit: overdamped })])).toMatch(/overdamped\s+32 MHz\s+0\.119\s/);
+  });
+});
