@@ -12,14 +12,7 @@ import { registerBatchCommand } from './commands/batch';
 import { registerCheckCommand } from './commands/check';
 import { registerParasiticsCommand } from './commands/parasitics';
 import { VERSION } from '../version';
-
-/** What a command's action reports back: its exit code (0 unless it says otherwise). */
-export interface CommandContext {
-  io: CliIo;
-  setExitCode(code: number): void;
-}
-
-export type RegisterCommand = (program: Command, ctx: CommandContext) => void;
+import type { CommandContext, RegisterCommand } from './commandContext';
 
 const COMMANDS: RegisterCommand[] = [registerFitCommand, registerCheckCommand, registerParasiticsCommand, registerServeCommand, registerStartCommand, registerLogCommand, registerReportCommand, registerBatchCommand];
 

@@ -4,7 +4,7 @@
 import type { Command } from 'commander';
 import { readdirSync, statSync } from 'node:fs';
 import { basename, extname, join, resolve } from 'node:path';
-import type { CommandContext } from '../program';
+import type { CommandContext } from '../commandContext';
 import { fitOptionsOf, type LogAddOptions } from './log';
 import { addCaptureOptions, addComponentOptions } from './fit';
 import { appendBenchLog, requireLogFolder } from '../../io/benchLog';

@@ -1,7 +1,7 @@
 // `ringbench check FILE --design board.json`: does the built board behave like its design? Exit 3 when not.
 
 import type { Command } from 'commander';
-import type { CommandContext } from '../program';
+import type { CommandContext } from '../commandContext';
 import { addCaptureOptions, type FitCommandOptions } from './fit';
 import { loadDesignFile, measureFile } from '../../app/benchLogRecord';
 import { formatFitText } from '../../../core/report/fitText';

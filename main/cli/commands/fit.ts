@@ -1,7 +1,7 @@
 // `ringbench fit FILE`: fit one capture and print alpha, omega0, ... and the components.
 
 import type { Command } from 'commander';
-import type { CommandContext } from '../program';
+import type { CommandContext } from '../commandContext';
 import { loadCapture, type LoadedCapture } from '../../io/captureFile';
 import { fitResponse } from '../../../core/fit/fitResponse';
 import { componentsFromResponse } from '../../../core/circuit/components';

@@ -2,7 +2,7 @@
 
 import type { Command } from 'commander';
 import { resolve } from 'node:path';
-import type { CommandContext } from '../program';
+import type { CommandContext } from '../commandContext';
 import { addCaptureOptions, addComponentOptions, type FitCommandOptions } from './fit';
 import { appendBenchLog, describeTornTail, readCleanBenchLog, requireLogFolder } from '../../io/benchLog';
 import { createBenchRecord, loadDesignFile, measureFile } from '../../app/benchLogRecord';

@@ -2,7 +2,7 @@
 
 import type { Command } from 'commander';
 import { basename } from 'node:path';
-import type { CommandContext } from '../program';
+import type { CommandContext } from '../commandContext';
 import { fitCapture } from './fit';
 import { extractParasitics } from '../../../core/circuit/addedCapacitor';
 import { suggestSnubber } from '../../../core/circuit/snubber';

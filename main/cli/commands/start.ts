@@ -2,7 +2,7 @@
 
 import type { Command } from 'commander';
 import { resolve } from 'node:path';
-import type { CommandContext } from '../program';
+import type { CommandContext } from '../commandContext';
 import { findProjectRoot } from '../../io/projectPaths';
 import { serveUntilStopped, startServing } from '../../server/serveBench';
 import { fetchElectronRuntime, hasDisplay, planLaunch, runWindow } from '../../start';
