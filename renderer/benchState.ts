@@ -2,13 +2,12 @@
 
 import type { ResponseFit } from '../core/fit/fitResponse';
 import type { FitSummary } from '../core/report/fitSummary';
-import type { Quantity } from '../core/quantity';
 import type { Design } from '../core/circuit/design';
 import type { Verdict } from '../core/circuit/verdict';
 import type { CautionResult } from '../core/safety/evaluateCautions';
 import type { Topology } from '../core/circuit/components';
-import type { ParasiticExtraction } from '../core/circuit/addedCapacitor';
-import type { SnubberSuggestion } from '../core/circuit/snubber';
+import type { ParasiticsResult } from '../core/report/parasiticsText';
+import type { Comparison } from '../core/workflow/compare';
 import type { BenchLogView, DesignEntry, OpenedCapture, SampleEntry } from './bridgeTypes';
 import type { CaptureInfo, FitWindow, TraceData } from './workerProtocol';
 
@@ -30,14 +29,8 @@ export interface ComponentsInput {
   toleranceText: string;
 }
 
-export interface ComponentsState {
-  R: Quantity;
-  L: Quantity;
-  C: Quantity;
-  /** As the command line writes it: 'C=4.7e-8 (±5 %)'. */
-  known: string;
-  topology: Topology;
-}
+/** R, L and C derived from the fit and the known part (deriveComponents); `known` as describeKnownPart writes it. */
+export type ComponentsState = NonNullable<FitSummary['components']>;
 
 export interface LoadedDesign {
   design: Design;
@@ -48,13 +41,6 @@ export interface LoadedDesign {
   sha256: string;
   /** A sample's own design goes with its sample; one the user opened or edited stays across captures. */
   origin: 'sample' | 'user';
-}
-
-export interface ExtractionState {
-  extraction: ParasiticExtraction;
-  snubber: SnubberSuggestion | null;
-  snubberError: string | null;
-  frequencies: { name: string; f0: Quantity; addedC: number }[];
 }
 
 export interface BenchState {
@@ -81,8 +67,10 @@ export interface BenchState {
   verdict: Verdict | null;
   verdictError: string | null;
   cautions: CautionResult | null;
-  extraction: ExtractionState | null;
+  extraction: ParasiticsResult | null;
   extractionError: string | null;
+  comparison: Comparison | null;
+  comparisonError: string | null;
   log: BenchLogView | null;
   logError: string | null;
   logMessage: string | null;
@@ -115,6 +103,8 @@ export function initialState(face: 'window' | 'browser'): BenchState {
     cautions: null,
     extraction: null,
     extractionError: null,
+    comparison: null,
+    comparisonError: null,
     log: null,
     logError: null,
     logMessage: null,

@@ -1,12 +1,9 @@
 // The window's side of the fit worker: one request at a time per kind, progress reported, errors as words.
 
 import { BenchError } from './benchError';
-import type { WorkerMessage, WorkerReplyValue, WorkerRequest } from './workerProtocol';
+import type { WorkerAsk, WorkerMessage, WorkerReplyValue, WorkerRequest } from './workerProtocol';
 
 type Pending = { resolve(value: WorkerReplyValue): void; reject(error: Error): void; onProgress?: (stage: string) => void };
-
-/** Distributes a request type over Omit of the id, so each variant keeps its own fields. */
-type WithoutId<T> = T extends unknown ? Omit<T, 'id'> : never;
 
 /** The fit was stopped because the user moved on (another capture); not a failure to show. */
 export class FitCancelled extends Error {
@@ -53,13 +50,16 @@ export class FitClient {
     return worker;
   }
 
-  request(request: WithoutId<WorkerRequest>, onProgress?: (stage: string) => void): Promise<WorkerReplyValue> {
+  /** One request; answers the reply of the same type. */
+  async request<A extends WorkerAsk>(request: A, onProgress?: (stage: string) => void): Promise<Extract<WorkerReplyValue, { type: A['type'] }>> {
     const id = this.nextId++;
-    if (this.broken) return Promise.reject(new BenchError(this.broken));
-    return new Promise((resolve, reject) => {
+    if (this.broken) throw new BenchError(this.broken);
+    const reply = await new Promise<WorkerReplyValue>((resolve, reject) => {
       this.pending.set(id, { resolve, reject, onProgress });
       this.worker.postMessage({ ...request, id } as WorkerRequest);
     });
+    if (reply.type !== request.type) throw new BenchError('the fit worker gave an unexpected answer');
+    return reply as Extract<WorkerReplyValue, { type: A['type'] }>;
   }
 
   private receive(message: WorkerMessage): void {

@@ -1,11 +1,13 @@
-// The window's entry point: builds the panels, connects the bridge and the fit worker, opens the first capture.
+// The window's entry point: builds the panels over one store, connects the bridge and the fit worker, owns the
+// page (its address and title), and opens the first capture.
 
 import { h } from './dom';
 import { createBridge } from './bridge';
 import { FitClient } from './fitClient';
 import { FitPlot } from './plot/fitPlot';
-import { BenchController } from './benchController';
+import { bindActions } from './actions';
 import { initialState } from './benchState';
+import { createStore } from './store';
 import { applyTheme, currentTheme, initialTheme } from './theme';
 import { plainMessage } from './plainMessage';
 import { createTopBar } from './panels/topBar';
@@ -14,6 +16,7 @@ import { createFitPanel } from './panels/fitPanel';
 import { createComponentsPanel } from './panels/componentsPanel';
 import { createDesignPanel } from './panels/designPanel';
 import { createParasiticPanel } from './panels/parasiticPanel';
+import { createBeforeAfterPanel } from './panels/beforeAfterPanel';
 import { createCautionsPanel } from './panels/cautionsPanel';
 import { createBenchLogPanel } from './panels/benchLogPanel';
 import { installFileDrop } from './fileDrop';
@@ -33,32 +36,25 @@ function boot(): void {
     return;
   }
   const plotRoot = h('div', { class: 'plot', id: 'fit-plot', attrs: { 'aria-label': 'Measured samples, fit, design prediction and residuals' } });
-  const state = initialState(bridge.face);
-  let renderQueued = false;
-  const render = () => {
-    if (renderQueued) return;
-    renderQueued = true;
-    requestAnimationFrame(() => {
-      renderQueued = false;
-      for (const panel of panels) panel.render(state);
-    });
-  };
-  const plot = new FitPlot(plotRoot, (window) => void controller.setWindow(window));
-  const controller = new BenchController(state, bridge, new FitClient('worker.js'), plot, render);
+  const store = createStore(initialState(bridge.face), (run) => requestAnimationFrame(run));
+  const plot = new FitPlot(plotRoot, (window) => void actions.setWindow(window));
+  const page = { showCaptureName: (name: string) => (document.title = `${name} — Ringbench`) };
+  const actions = bindActions({ store, bridge, client: new FitClient('worker.js'), plot, page, counters: { running: 0, fitGeneration: 0, captures: 0 } });
   const toggleTheme = () => {
     applyTheme(currentTheme() === 'dark' ? 'light' : 'dark');
     void plot.redraw();
-    render();
+    store.update();
   };
-  const top = createTopBar(controller, toggleTheme);
-  const capture = createCapturePanel(controller);
-  const fit = createFitPanel(controller);
-  const components = createComponentsPanel(controller);
-  const design = createDesignPanel(controller);
-  const parasitic = createParasiticPanel(controller);
+  const top = createTopBar(actions, toggleTheme);
+  const capture = createCapturePanel(actions);
+  const fit = createFitPanel(actions);
+  const components = createComponentsPanel(actions);
+  const design = createDesignPanel(actions);
+  const parasitic = createParasiticPanel(actions);
+  const beforeAfter = createBeforeAfterPanel(actions);
   const cautions = createCautionsPanel();
-  const log = createBenchLogPanel(controller);
-  const panels = [top, capture, fit, components, design, parasitic, cautions, log];
+  const log = createBenchLogPanel(actions);
+  for (const panel of [top, capture, fit, components, design, parasitic, beforeAfter, cautions, log]) store.subscribe(panel.render);
 
   const legend = h(
     'p',
@@ -78,32 +74,32 @@ function boot(): void {
         h('section', { class: 'card plot-card', attrs: { 'aria-label': 'Plot' } }, plotRoot, legend),
         h('div', { class: 'pair' }, h('div', { class: 'stack' }, capture.root, components.root), fit.root),
         design.root,
+        beforeAfter.root,
       ),
       h('div', { class: 'side-column' }, cautions.root, log.root, parasitic.root),
     ),
   );
-  render();
+  store.update();
 
   const commands: Record<MenuCommand, () => void> = {
-    'open-capture': () => void controller.pickCapture(),
-    'open-design': () => void controller.pickDesign(),
-    'save-report': () => void controller.exportReport('html'),
-    'export-png': () => void controller.exportPlot('png'),
-    'export-svg': () => void controller.exportPlot('svg'),
+    'open-capture': () => void actions.pickCapture(),
+    'open-design': () => void actions.pickDesign(),
+    'save-report': () => void actions.exportReport('html'),
+    'export-png': () => void actions.exportPlot('png'),
+    'export-svg': () => void actions.exportPlot('svg'),
     'toggle-theme': toggleTheme,
   };
   bridge.onMenuCommand((command) => commands[command]());
-  bridge.onCaptureOpened((opened) => void controller.openCapture(opened, {}));
+  bridge.onCaptureOpened((opened) => void actions.openCapture(opened));
   if (bridge.face === 'browser') installShortcuts(commands);
-  installFileDrop(document.body, (file) => void controller.openDropped(file));
+  installFileDrop(document.body, (file) => void actions.openDropped(file));
   // A last net: whatever slips through is shown in words, never left as a blank or a stack.
   window.addEventListener('unhandledrejection', (event) => {
     event.preventDefault();
-    state.error = plainMessage(event.reason);
-    render();
+    store.update((state) => (state.error = plainMessage(event.reason)));
   });
   new ResizeObserver(() => void plot.redraw()).observe(plotRoot);
-  void controller.start();
+  void actions.start(new URLSearchParams(location.search).get('sample'));
 }
 
 boot();

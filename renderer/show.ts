@@ -37,7 +37,3 @@ export function quantityRow(key: string, symbol: string, words: string, q: Quant
     h('td', { class: 'number' }, showQuantity(q)),
   );
 }
-
-export function hertzOf(omega: Quantity): Quantity {
-  return { value: omega.value / (2 * Math.PI), stderr: omega.stderr === null ? null : omega.stderr / (2 * Math.PI), unit: 'Hz' };
-}

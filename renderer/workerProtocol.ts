@@ -1,9 +1,14 @@
 // Messages between the window and the fit worker: plain data, arrays transferred, never a stack.
 
-import type { ResponseFit } from '../core/fit/fitResponse';
-import type { FitSummary } from '../core/report/fitSummary';
-import type { Verdict } from '../core/circuit/verdict';
 import type { Design } from '../core/circuit/design';
+import type { Verdict } from '../core/circuit/verdict';
+import type { FitSummary } from '../core/report/fitSummary';
+import type { ParasiticsResult } from '../core/report/parasiticsText';
+import type { Comparison } from '../core/workflow/compare';
+import type { FitWindow, MeasureResult } from '../core/workflow/measure';
+import type { KnownPartRequest } from '../core/workflow/measuredComponents';
+
+export type { FitWindow } from '../core/workflow/measure';
 
 export interface ChannelInfo {
   name: string;
@@ -33,31 +38,55 @@ export interface TraceData {
   dropped: number;
 }
 
-export interface FitWindow {
-  start?: number;
-  end?: number;
+/** A capture's text as the user chose it (a sample or a file), not kept open in the worker. */
+export interface CaptureText {
+  name: string;
+  text: string;
+}
+
+/** The added-capacitor run as the window asks for it: typed values already read (SI units, relative tolerances). */
+export interface ParasiticsAsk {
+  captures: (CaptureText & { addedC: number })[];
+  addedTolerance: number;
+  probeC?: number;
+  probeCTolerance?: number;
+  bandwidth?: number;
+  voltage?: number;
+  switchingFrequency?: number;
 }
 
 export type WorkerRequest =
   | { id: number; type: 'open'; captureId: string; name: string; text: string; sampleInterval?: number }
   | { id: number; type: 'trace'; captureId: string; channel: number }
-  | { id: number; type: 'fit'; captureId: string; channel: number; window: FitWindow }
-  | { id: number; type: 'check'; captureId: string; channel: number; design: Design; fit: ResponseFit }
-  | { id: number; type: 'fitText'; name: string; text: string; channel?: string };
+  | {
+      id: number;
+      type: 'measure';
+      captureId: string;
+      channel: number;
+      window: FitWindow;
+      knownPart?: KnownPartRequest;
+      design?: Design;
+      /** Where the design's prediction starts when the window was set by hand, s. */
+      eventTime?: number;
+    }
+  | { id: number; type: 'check'; captureId: string; channel: number; design: Design; fit: FitSummary; eventTime?: number }
+  | ({ id: number; type: 'parasitics' } & ParasiticsAsk)
+  | { id: number; type: 'compare'; before: CaptureText; after: CaptureText; channel?: string | number; knownPart?: KnownPartRequest };
 
-export interface FitReply {
-  /** Null when the fit could not be run (too few samples in the window, ...): fitError says why. */
-  fit: ResponseFit | null;
-  summary: FitSummary | null;
-  fitError: string | null;
-}
+/** A request before the client numbers it (Omit distributed over the variants, so each keeps its fields). */
+export type WorkerAsk = WithoutId<WorkerRequest>;
+type WithoutId<T> = T extends unknown ? Omit<T, 'id'> : never;
+
+/** A measurement, or why the capture could not be fitted (too few samples in the window, ...). */
+export type MeasureReply = { result: MeasureResult; fitError: null } | { result: null; fitError: string };
 
 export type WorkerReplyValue =
   | { type: 'open'; info: CaptureInfo }
   | { type: 'trace'; trace: TraceData }
-  | { type: 'fit'; result: FitReply }
+  | { type: 'measure'; reply: MeasureReply }
   | { type: 'check'; verdict: Verdict }
-  | { type: 'fitText'; fit: ResponseFit; sampleInterval: number | null };
+  | { type: 'parasitics'; result: ParasiticsResult }
+  | { type: 'compare'; comparison: Comparison };
 
 export type WorkerMessage =
   | { id: number; kind: 'progress'; stage: string }

@@ -3,12 +3,12 @@
 import { button, card, field, h, replaceChildren, select, textInput } from '../dom';
 import { showValue } from '../show';
 import type { BenchState } from '../benchState';
-import type { BenchController } from '../benchController';
+import type { BenchActions } from '../actions';
 import type { ReportFormat } from '../bridgeTypes';
 
 const SHOWN = 12;
 
-export function createBenchLogPanel(controller: BenchController) {
+export function createBenchLogPanel(actions: BenchActions) {
   const { root, body } = card('Bench log', 'log-panel');
   const unit = textInput('', { id: 'log-unit', attrs: { placeholder: 'serial number or name' } });
   const operator = textInput('', { id: 'log-operator' });
@@ -18,7 +18,7 @@ export function createBenchLogPanel(controller: BenchController) {
     'Add this measurement',
     async () => {
       add.disabled = true;
-      const ok = await controller.logMeasurement({ unit: unit.value, operator: operator.value, note: note.value });
+      const ok = await actions.logMeasurement({ unit: unit.value, operator: operator.value, note: note.value });
       add.disabled = false;
       if (ok) note.value = '';
     },
@@ -35,7 +35,7 @@ export function createBenchLogPanel(controller: BenchController) {
     (value) => (format = value as ReportFormat),
     { id: 'report-format', attrs: { 'aria-label': 'Report format' } },
   );
-  const exportButton = button('Export report…', () => void controller.exportReport(format), { id: 'export-report', title: 'Save the whole bench log as a report (Ctrl+S)' });
+  const exportButton = button('Export report…', () => void actions.exportReport(format), { id: 'export-report', title: 'Save the whole bench log as a report (Ctrl+S)' });
   const list = h('div', { id: 'log-list' });
   body.append(
     h('div', { class: 'grid-2' }, field('Unit under test', unit), field('Operator', operator)),

@@ -3,22 +3,22 @@
 import { button, card, field, h, replaceChildren, select } from '../dom';
 import { showValue } from '../show';
 import type { BenchState } from '../benchState';
-import type { BenchController } from '../benchController';
+import type { BenchActions } from '../actions';
 
-export function createCapturePanel(controller: BenchController) {
+export function createCapturePanel(actions: BenchActions) {
   const { root, body } = card('Capture', 'capture-panel');
   const sampleSelect = h('select', { id: 'sample-select', attrs: { 'aria-label': 'Sample captures' } });
   sampleSelect.addEventListener('change', () => {
-    if (sampleSelect.value) void controller.openSample(sampleSelect.value);
+    if (sampleSelect.value) void actions.openSample(sampleSelect.value);
   });
-  const actions = h(
+  const buttons = h(
     'div',
     { class: 'actions' },
-    button('Open capture…', () => void controller.pickCapture(), { id: 'open-capture', class: 'primary', title: 'Open a scope export (Ctrl+O), or drop it on the window' }),
+    button('Open capture…', () => void actions.pickCapture(), { id: 'open-capture', class: 'primary', title: 'Open a scope export (Ctrl+O), or drop it on the window' }),
     field('Sample', sampleSelect),
   );
   const details = h('div', { class: 'details' });
-  body.append(actions, details);
+  body.append(buttons, details);
   let samplesShown = '';
 
   function render(state: BenchState): void {
@@ -40,7 +40,7 @@ export function createCapturePanel(controller: BenchController) {
         ? select(
             info.channels.map((c, i) => ({ value: String(i), label: `${c.name}${c.unit ? ` (${c.unit})` : ''}` })),
             String(capture.channel),
-            (value) => void controller.chooseChannel(Number(value)),
+            (value) => void actions.chooseChannel(Number(value)),
             { id: 'channel-select', attrs: { 'aria-label': 'Channel' } },
           )
         : h('span', { id: 'channel-name' }, `${channel.name}${channel.unit ? ` (${channel.unit})` : ''}`);

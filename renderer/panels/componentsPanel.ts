@@ -3,11 +3,12 @@
 import { card, field, h, replaceChildren, select, textInput } from '../dom';
 import { quantityRow } from '../show';
 import type { BenchState } from '../benchState';
-import type { BenchController } from '../benchController';
+import { TOLERANCE_HINT, TOLERANCE_RULE } from './toleranceHint';
+import type { BenchActions } from '../actions';
 
 const UNITS = { R: 'Ω', L: 'H', C: 'F' } as const;
 
-export function createComponentsPanel(controller: BenchController) {
+export function createComponentsPanel(actions: BenchActions) {
   const { root, body } = card('Components', 'components-panel');
   const topology = select(
     [
@@ -15,27 +16,27 @@ export function createComponentsPanel(controller: BenchController) {
       { value: 'parallel', label: 'parallel R ∥ L ∥ C' },
     ],
     'series',
-    (value) => controller.setComponentsInput({ topology: value as 'series' | 'parallel' }),
+    (value) => actions.setComponentsInput({ topology: value as 'series' | 'parallel' }),
     { id: 'topology-select' },
   );
   const knownName = select(
     (['C', 'L', 'R'] as const).map((n) => ({ value: n, label: `${n} is known` })),
     'C',
-    (value) => controller.setComponentsInput({ knownName: value as 'R' | 'L' | 'C' }),
+    (value) => actions.setComponentsInput({ knownName: value as 'R' | 'L' | 'C' }),
     { id: 'known-name' },
   );
   const knownValue = textInput('', { id: 'known-value', attrs: { placeholder: 'e.g. 47u', 'aria-label': 'Known value' } });
-  const tolerance = textInput('', { id: 'known-tolerance', attrs: { placeholder: '%', 'aria-label': 'Known tolerance in percent' } });
+  const tolerance = textInput('', { id: 'known-tolerance', title: TOLERANCE_RULE, attrs: { placeholder: 'e.g. 5', 'aria-label': 'Known tolerance in percent' } });
   const unitLabel = h('span', { class: 'unit' });
-  knownValue.addEventListener('change', () => controller.setComponentsInput({ knownText: knownValue.value }));
-  tolerance.addEventListener('change', () => controller.setComponentsInput({ toleranceText: tolerance.value }));
+  knownValue.addEventListener('change', () => actions.setComponentsInput({ knownText: knownValue.value }));
+  tolerance.addEventListener('change', () => actions.setComponentsInput({ toleranceText: tolerance.value }));
   const inputs = h(
     'div',
     { class: 'grid-2' },
     field('Topology', topology),
     field('Known part', knownName),
     field('Value', h('span', { class: 'with-unit' }, knownValue, unitLabel), 'SI prefixes: 470n, 4k7, 2.2u'),
-    field('Tolerance', h('span', { class: 'with-unit' }, tolerance, h('span', { class: 'unit' }, '%'))),
+    field('Tolerance', h('span', { class: 'with-unit' }, tolerance, h('span', { class: 'unit' }, '%')), TOLERANCE_HINT),
   );
   const results = h('div', { id: 'components-results' });
   body.append(inputs, results);
@@ -57,8 +58,10 @@ export function createComponentsPanel(controller: BenchController) {
     };
     replaceChildren(
       results,
+      h('p', { class: 'known-part' }, 'Known: ', h('span', { id: 'known-part' }, components.known)),
       h('table', { class: 'results' }, h('tbody', {}, row('R', 'resistance'), row('L', 'inductance'), row('C', 'capacitance'))),
       h('p', { class: 'field-hint' }, input.topology === 'series' ? 'Series: α = R / 2L, ω₀ = 1 / √(LC).' : 'Parallel: α = 1 / 2RC, ω₀ = 1 / √(LC).'),
+      h('p', { class: 'field-hint' }, 'The tolerance counts as a rectangular half-width: standard uncertainty tol/√3 (GUM 4.3.7).'),
     );
   }
 

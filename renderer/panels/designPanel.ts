@@ -3,17 +3,18 @@
 import { button, card, field, h, replaceChildren, select, textInput } from '../dom';
 import { showCompact, showValue } from '../show';
 import { formatEngineering } from '../../core/units/format';
+import { marginText } from '../../core/report/resultRows';
 import { percentText } from '../parseInputs';
 import type { Design } from '../../core/circuit/design';
 import type { BenchState } from '../benchState';
-import type { BenchController } from '../benchController';
+import type { BenchActions } from '../actions';
 
 const NAMES: Record<string, string> = { alpha: 'α damping', omega0: 'ω₀ natural frequency', zeta: 'ζ damping ratio', Q: 'Q quality factor', R: 'R resistance', L: 'L inductance', C: 'C capacitance' };
 
-export function createDesignPanel(controller: BenchController) {
+export function createDesignPanel(actions: BenchActions) {
   const { root, body } = card('Design check', 'design-panel');
   const designSelect = h('select', { id: 'design-select', attrs: { 'aria-label': 'Sample designs' } });
-  designSelect.addEventListener('change', () => designSelect.value && void controller.loadDesignFromSamples(designSelect.value));
+  designSelect.addEventListener('change', () => designSelect.value && void actions.loadDesignFromSamples(designSelect.value));
   const inputs = {
     name: textInput('', { id: 'design-name' }),
     topology: select([{ value: 'series', label: 'series' }, { value: 'parallel', label: 'parallel' }], 'series', () => undefined, { id: 'design-topology' }),
@@ -60,16 +61,16 @@ export function createDesignPanel(controller: BenchController) {
     h(
       'div',
       { class: 'actions' },
-      button('Check with these values', () => void controller.useEditedDesign(fieldsOf()), { id: 'check-design', class: 'primary' }),
-      button('Save design…', () => void controller.saveDesign(), { id: 'save-design' }),
+      button('Check with these values', () => void actions.useEditedDesign(fieldsOf()), { id: 'check-design', class: 'primary' }),
+      button('Save design…', () => void actions.saveDesign(), { id: 'save-design' }),
     ),
   );
   const top = h(
     'div',
     { class: 'actions' },
     field('Design', designSelect),
-    button('Open design…', () => void controller.pickDesign(), { id: 'open-design' }),
-    button('Remove', () => controller.clearDesign(), { id: 'clear-design', title: 'Fit without a design' }),
+    button('Open design…', () => void actions.pickDesign(), { id: 'open-design' }),
+    button('Remove', () => actions.clearDesign(), { id: 'clear-design', title: 'Fit without a design' }),
   );
   const message = h('div', { id: 'design-message' });
   const verdictBox = h('div', { id: 'verdict' });
@@ -158,7 +159,7 @@ export function createDesignPanel(controller: BenchController) {
               h('th', { attrs: { scope: 'row' } }, NAMES[q.name] ?? q.name),
               h('td', { class: 'number' }, showCompact(q.design)),
               h('td', { class: 'number' }, showCompact(q.measured)),
-              h('td', { class: 'number' }, Number.isFinite(q.marginSigma) ? `${q.marginSigma.toFixed(2)} σ` : '∞ σ'),
+              h('td', { class: 'number' }, marginText(q)),
               h('td', { class: q.inTolerance ? 'pass' : 'fail' }, q.inTolerance ? 'in' : 'out'),
             ),
           ),

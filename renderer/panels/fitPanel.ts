@@ -1,13 +1,27 @@
-// The fit panel: regime, alpha, omega0, omega_d, zeta, Q, final value with uncertainties, and the fit window.
+// The fit panel: regime, the fit rows of fitResultRows with uncertainties, the step metrics, and the fit window.
 
 import { button, card, field, h, replaceChildren, textInput } from '../dom';
-import { hertzOf, quantityRow, showValue } from '../show';
+import { quantityRow, showValue } from '../show';
+import { fitResultRows, hertz } from '../../core/report/resultRows';
 import { parseSigned } from '../parseInputs';
 import { plainMessage } from '../plainMessage';
 import type { BenchState } from '../benchState';
-import type { BenchController } from '../benchController';
+import { transitionView } from './transitionView';
+import type { BenchActions } from '../actions';
 
-export function createFitPanel(controller: BenchController) {
+/** The window's words for each row of fitResultRows (its name and symbol come from there). */
+const WORDS: Record<string, [symbol: string, words: string]> = {
+  alpha: ['α', 'damping (neper frequency)'],
+  omega0: ['ω₀', 'natural frequency'],
+  omegaD: ['ω_d', 'ring frequency'],
+  f0: ['f₀', 'natural frequency'],
+  zeta: ['ζ', 'damping ratio'],
+  Q: ['Q', 'quality factor'],
+  finalValue: ['y∞', 'final value'],
+  t0: ['t₀', 'event time'],
+};
+
+export function createFitPanel(actions: BenchActions) {
   const { root, body } = card('Fit', 'fit-panel');
   const status = h('div', { class: 'fit-status', id: 'fit-status', attrs: { role: 'status' } });
   const table = h('table', { class: 'results', id: 'fit-results' });
@@ -20,7 +34,7 @@ export function createFitPanel(controller: BenchController) {
       const end = parseSigned(endInput.value, 's', 'window end');
       if (!(end > start)) throw new Error('the window must end after it starts');
       windowNote.textContent = '';
-      void controller.setWindow({ start, end });
+      void actions.setWindow({ start, end });
     } catch (error) {
       windowNote.textContent = plainMessage(error);
     }
@@ -31,18 +45,20 @@ export function createFitPanel(controller: BenchController) {
     field('Window from', startInput),
     field('to', endInput),
     button('Refit', apply, { id: 'apply-window' }),
-    button('Automatic', () => void controller.setWindow({}), { id: 'auto-window', title: 'Let the fit find the window from the data' }),
+    button('Automatic', () => void actions.setWindow({}), { id: 'auto-window', title: 'Let the fit find the window from the data' }),
   );
   for (const input of [startInput, endInput]) input.addEventListener('keydown', (e) => e.key === 'Enter' && apply());
   const extra = h('div', { class: 'details' });
-  body.append(status, table, h('h3', {}, 'Fit window'), h('p', { class: 'field-hint' }, 'Drag the edges of the shaded region on the plot, or type the times.'), windowRow, windowNote, extra);
+  const steps = h('div', { id: 'transitions' });
+  body.append(status, table, steps, h('h3', {}, 'Fit window'), h('p', { class: 'field-hint' }, 'Drag the edges of the shaded region on the plot, or type the times.'), windowRow, windowNote, extra);
 
   function render(state: BenchState): void {
-    const { fit, fitError } = state;
+    const { fit, summary, fitError } = state;
     root.dataset.fitCount = String(state.fitCount);
-    if (!fit) {
+    if (!fit || !summary) {
       replaceChildren(status, fitError ? h('p', { class: 'error-text' }, fitError) : h('p', { class: 'muted' }, state.capture ? 'Fitting…' : 'Open a capture to fit it.'));
       table.replaceChildren();
+      steps.replaceChildren();
       extra.replaceChildren();
       return;
     }
@@ -54,22 +70,22 @@ export function createFitPanel(controller: BenchController) {
       h('p', { class: 'muted small' }, fit.regimeEvidence),
       fit.status !== 'converged' ? h('p', { class: 'error-text' }, fit.message) : null,
     );
+    // R, L and C are shown in the components panel.
+    const rows = fitResultRows(summary).filter((row) => WORDS[row.name]);
+    const ringHz = summary.omegaD ? quantityRow('fd', 'f_d', 'ring frequency', hertz(summary.omegaD)) : null;
     replaceChildren(
       table,
       h(
         'tbody',
         {},
-        quantityRow('alpha', 'α', 'damping (neper frequency)', fit.alpha),
-        quantityRow('omega0', 'ω₀', 'natural frequency', fit.omega0),
-        quantityRow('f0', 'f₀', 'natural frequency', hertzOf(fit.omega0)),
-        fit.omegaD ? quantityRow('omegaD', 'ω_d', 'ring frequency', fit.omegaD) : null,
-        fit.omegaD ? quantityRow('fd', 'f_d', 'ring frequency', hertzOf(fit.omegaD)) : null,
-        quantityRow('zeta', 'ζ', 'damping ratio', fit.zeta),
-        quantityRow('Q', 'Q', 'quality factor', fit.Q),
-        quantityRow('finalValue', 'y∞', 'final value', fit.finalValue),
-        quantityRow('t0', 't₀', 'event time', fit.t0),
+        ...rows.flatMap((row) => {
+          const [symbol, words] = WORDS[row.name];
+          const tr = quantityRow(row.name, symbol, words, row.quantity);
+          return row.name === 'omegaD' ? [tr, ringHz] : [tr];
+        }),
       ),
     );
+    replaceChildren(steps, ...(summary.transitions ? transitionView(summary.transitions) : []));
     if (document.activeElement !== startInput && document.activeElement !== endInput) {
       startInput.value = showValue(fit.window.start, 's', 6).replace(/\s/g, '');
       endInput.value = showValue(fit.window.end, 's', 6).replace(/\s/g, '');

@@ -1,36 +1,42 @@
-// Parasitic extraction by added capacitors: two or more captures with known added C, then a snubber
-// starting point that is to be verified on the bench.
+// Parasitic extraction by added capacitors: two or more captures with known added C, measureParasitics in the
+// worker, the loop's parts, a snubber starting point to verify on the bench, and the captures' cautions.
 
 import { button, card, field, h, replaceChildren, textInput } from '../dom';
 import { quantityRow, showCompact, showValue } from '../show';
 import { formatEngineering } from '../../core/units/format';
+import type { ParasiticsResult } from '../../core/report/parasiticsText';
 import type { BenchState } from '../benchState';
-import type { BenchController, ExtractionRow } from '../benchController';
+import type { BenchActions } from '../actions';
+import type { ExtractionRow } from '../actions/extraction';
+import { cautionView } from './cautionView';
+import { TOLERANCE_HINT, TOLERANCE_RULE } from './toleranceHint';
 
 interface RowControls extends ExtractionRow {
   element: HTMLElement;
 }
 
-export function createParasiticPanel(controller: BenchController) {
+export function createParasiticPanel(actions: BenchActions) {
   const { root, body } = card('Parasitic extraction', 'parasitic-panel');
   const rows: RowControls[] = [];
   const list = h('div', { class: 'extraction-rows', id: 'extraction-rows' });
-  const probe = textInput('0', { id: 'probe-c', attrs: { 'aria-label': 'Probe capacitance' } });
-  const probeTol = textInput('', { id: 'probe-c-tol', attrs: { 'aria-label': 'Probe capacitance tolerance' } });
-  const voltage = textInput('', { id: 'snubber-voltage', attrs: { placeholder: 'e.g. 48', 'aria-label': 'Voltage swing' } });
-  const switching = textInput('', { id: 'snubber-fsw', attrs: { placeholder: 'e.g. 500k', 'aria-label': 'Switching frequency' } });
+  const input = (id: string, label: string, placeholder = '') => textInput('', { id, title: label, attrs: { placeholder, 'aria-label': label } });
+  const addedTol = input('added-c-tol', 'Added capacitance tolerance in percent', '%');
+  const probe = input('probe-c', 'Probe capacitance', 'none');
+  const probeTol = input('probe-c-tol', 'Probe capacitance tolerance in percent', '%');
+  const bandwidth = input('scope-bandwidth', 'Scope or probe bandwidth', 'e.g. 200M');
+  const voltage = input('snubber-voltage', 'Voltage swing', 'e.g. 48');
+  const switching = input('snubber-fsw', 'Switching frequency', 'e.g. 500k');
+  for (const tol of [addedTol, probeTol]) tol.title = TOLERANCE_RULE;
   const results = h('div', { id: 'extraction-results' });
   let state: BenchState | null = null;
 
   function addRow(row: ExtractionRow): void {
     const name = h('span', { class: 'row-name' }, row.name || 'no capture chosen');
-    const added = textInput(row.addedText, { class: 'added-c', attrs: { placeholder: '0', 'aria-label': 'Added capacitance' } });
-    const tol = textInput(row.toleranceText, { class: 'added-tol', attrs: { placeholder: '%', 'aria-label': 'Added capacitance tolerance' } });
+    const added = textInput(row.addedText, { class: 'added-c', attrs: { placeholder: 'e.g. 470p', 'aria-label': 'Added capacitance' } });
     const controls: RowControls = { ...row, element: h('div') };
     added.addEventListener('input', () => (controls.addedText = added.value));
-    tol.addEventListener('input', () => (controls.toleranceText = tol.value));
     const choose = button('Choose…', async () => {
-      const opened = await controller.pickForExtraction();
+      const opened = await actions.pickCaptureText();
       if (opened) {
         controls.name = opened.name;
         controls.text = opened.text;
@@ -40,49 +46,59 @@ export function createParasiticPanel(controller: BenchController) {
     const remove = button('×', () => {
       rows.splice(rows.indexOf(controls), 1);
       controls.element.remove();
+      markBareLoop();
     }, { class: 'icon', title: 'Remove this capture', attrs: { 'aria-label': 'Remove this capture' } });
     controls.element = h(
       'div',
       { class: 'extraction-row' },
       h('div', { class: 'row-head' }, name, choose, remove),
-      h('div', { class: 'row-values' }, field('added C (F)', added), field('± %', tol)),
+      h('div', { class: 'row-values' }, field('added C (F)', added), h('span', { class: 'bare-loop field-hint' }, 'the bare loop: nothing added')),
     );
     rows.push(controls);
     list.append(controls.element);
+    markBareLoop();
+  }
+
+  /** The first capture is the bare loop: its added-C field is not asked for. */
+  function markBareLoop(): void {
+    rows.forEach((row, i) => row.element.classList.toggle('bare', i === 0));
   }
 
   const useSet = button('Use the sample set', () => void loadSampleSet(), { id: 'use-sample-set', title: 'The bundled switch-node captures with 0, 470 pF and 1 nF added' });
   const useCurrent = button('Add the open capture', () => {
     if (!state?.capture) return;
-    addRow({ name: state.capture.opened.name, text: state.capture.opened.text, addedText: '', toleranceText: '' });
+    addRow({ name: state.capture.opened.name, text: state.capture.opened.text, addedText: '' });
   }, { id: 'add-current' });
-  const addEmpty = button('Add a capture', () => addRow({ name: '', text: '', addedText: '', toleranceText: '' }), { id: 'add-extraction-row' });
+  const addEmpty = button('Add a capture', () => addRow({ name: '', text: '', addedText: '' }), { id: 'add-extraction-row' });
 
   async function loadSampleSet(): Promise<void> {
     const set = (state?.samples ?? []).filter((s) => s.addedCapacitor !== null).sort((a, b) => (a.addedCapacitor?.added ?? 0) - (b.addedCapacitor?.added ?? 0));
     rows.splice(0).forEach((r) => r.element.remove());
     for (const sample of set) {
-      const opened = await controller.readSampleText(sample.id);
+      const opened = await actions.readSampleText(sample.id);
       if (!opened) return;
       const added = sample.addedCapacitor?.added ?? 0;
-      addRow({ name: sample.file, text: opened.text, addedText: added === 0 ? '0' : formatEngineering(added, 'F').replace(/\s+/g, ''), toleranceText: '' });
+      addRow({ name: sample.file, text: opened.text, addedText: added === 0 ? '' : formatEngineering(added, 'F').replace(/\s+/g, '') });
     }
   }
 
+  const settings = () => ({
+    addedToleranceText: addedTol.value,
+    probeText: probe.value,
+    probeToleranceText: probeTol.value,
+    bandwidthText: bandwidth.value,
+    voltageText: voltage.value,
+    switchingText: switching.value,
+  });
+
   body.append(
-    h('p', { class: 'field-hint' }, 'Ring the same node bare and with known capacitors added; the shift of the natural frequency gives the loop’s own L and C.'),
+    h('p', { class: 'field-hint' }, 'Ring the same node bare (first) and with known capacitors added; the shift of the natural frequency gives the loop’s own L and C.'),
     h('div', { class: 'actions' }, useSet, useCurrent, addEmpty),
     list,
-    h('div', { class: 'grid-2' }, field('Probe C (F)', probe, 'in parallel in every capture'), field('± %', probeTol)),
+    h('div', { class: 'grid-2' }, field('Added C tolerance', addedTol, TOLERANCE_HINT), field('Bandwidth (Hz)', bandwidth, 'scope or probe; optional')),
+    h('div', { class: 'grid-2' }, field('Probe C (F)', probe, 'in parallel in every capture'), field('Probe C tolerance', probeTol, TOLERANCE_HINT)),
     h('div', { class: 'grid-2' }, field('Snubber voltage swing (V)', voltage, 'optional, for the dissipation'), field('Switching frequency (Hz)', switching)),
-    h(
-      'div',
-      { class: 'actions' },
-      button('Extract', () => void controller.runExtraction(rows, { probeText: probe.value, probeToleranceText: probeTol.value, voltageText: voltage.value, switchingText: switching.value }), {
-        id: 'run-extraction',
-        class: 'primary',
-      }),
-    ),
+    h('div', { class: 'actions' }, button('Extract', () => void actions.runExtraction(rows, settings()), { id: 'run-extraction', class: 'primary' })),
     results,
   );
 
@@ -91,51 +107,52 @@ export function createParasiticPanel(controller: BenchController) {
     useSet.disabled = !next.samples.some((s) => s.addedCapacitor !== null);
     useCurrent.disabled = !next.capture;
     if (next.extractionError) return replaceChildren(results, h('p', { class: 'error-text', id: 'extraction-error' }, next.extractionError));
-    const done = next.extraction;
-    if (!done) return replaceChildren(results);
-    const { extraction, snubber, snubberError, frequencies } = done;
-    replaceChildren(
-      results,
-      h(
-        'table',
-        { class: 'mini' },
-        h('thead', {}, h('tr', {}, h('th', {}, 'Capture'), h('th', { class: 'number' }, 'added'), h('th', { class: 'number' }, 'f₀'))),
-        h('tbody', {}, ...frequencies.map((f) => h('tr', {}, h('td', { class: 'clip', title: f.name }, f.name), h('td', { class: 'number' }, showValue(f.addedC, 'F')), h('td', { class: 'number' }, showCompact(f.f0))))),
-      ),
-      h(
-        'table',
-        { class: 'results', id: 'parasitic-results' },
-        h(
-          'tbody',
-          {},
-          quantityRow('Lp', 'L_p', 'loop inductance', extraction.L),
-          quantityRow('Cp', 'C_p', 'node capacitance', extraction.C),
-          quantityRow('Rp', 'R_p', 'loop resistance', extraction.R),
-          quantityRow('Z0', 'Z₀', 'characteristic impedance', extraction.characteristicImpedance),
-        ),
-      ),
-      extraction.warnings.length ? h('ul', { class: 'warnings' }, ...extraction.warnings.map((w) => h('li', {}, w))) : null,
-      h('ul', { class: 'notes' }, ...extraction.notes.map((n) => h('li', {}, n))),
-      h('h3', {}, 'RC snubber: a starting point to verify on the bench'),
-      snubberError ? h('p', { class: 'error-text' }, snubberError) : null,
-      snubber
-        ? h(
-            'div',
-            { id: 'snubber' },
-            h('table', { class: 'results' }, h('tbody', {}, quantityRow('Rs', 'R_s', 'snubber resistor', snubber.R), quantityRow('Cs', 'C_s', 'snubber capacitor', snubber.C))),
-            h(
-              'p',
-              { class: 'small' },
-              `C_s usually ${showValue(snubber.capacitanceRange.min, 'F')} to ${showValue(snubber.capacitanceRange.max, 'F')}. ` +
-                (snubber.powerAt ? `Resistor dissipation about ${showValue(snubber.powerAt.power, 'W')} at ${showValue(snubber.powerAt.voltage, 'V')}, ${showValue(snubber.powerAt.frequency, 'Hz')}. ` : '') +
-                `Predicted: ζ from ${snubber.before.zeta.toFixed(3)} to ${snubber.predicted.zeta.toFixed(3)}, Q from ${snubber.before.Q.toFixed(1)} to ${snubber.predicted.Q.toFixed(1)}.`,
-            ),
-            h('ul', { class: 'notes' }, ...snubber.notes.map((n) => h('li', {}, n))),
-            h('p', { class: 'deferral' }, 'A starting point, not a design: fit the parts, measure the ring again and check the resistor’s temperature at full load.'),
-          )
-        : null,
-    );
+    if (!next.extraction) return replaceChildren(results);
+    replaceChildren(results, ...extractionView(next.extraction));
   }
 
   return { root, render };
+}
+
+function extractionView(result: ParasiticsResult): (HTMLElement | null)[] {
+  const { snubber } = result;
+  return [
+    h(
+      'table',
+      { class: 'mini' },
+      h('thead', {}, h('tr', {}, h('th', {}, 'Capture'), h('th', { class: 'number' }, 'added'), h('th', { class: 'number' }, 'f₀'))),
+      h('tbody', {}, ...result.captures.map((c) => h('tr', {}, h('td', { class: 'clip', title: c.file }, c.file), h('td', { class: 'number' }, showValue(c.addedC, 'F')), h('td', { class: 'number' }, showCompact(c.frequency))))),
+    ),
+    h(
+      'table',
+      { class: 'results', id: 'parasitic-results' },
+      h(
+        'tbody',
+        {},
+        quantityRow('Lp', 'L_p', 'loop inductance', result.L),
+        quantityRow('Cp', 'C_p', 'node capacitance', result.C),
+        quantityRow('Rp', 'R_p', 'loop resistance', result.R),
+        quantityRow('Z0', 'Z₀', 'characteristic impedance', result.characteristicImpedance),
+      ),
+    ),
+    result.warnings.length ? h('ul', { class: 'warnings', id: 'extraction-warnings' }, ...result.warnings.map((w) => h('li', {}, w))) : null,
+    h('ul', { class: 'notes' }, ...result.notes.map((n) => h('li', {}, n))),
+    h('h3', {}, 'Cautions from these captures'),
+    h('div', { class: 'extraction-cautions', id: 'extraction-cautions', data: { fired: String(result.cautions.fired.length) } }, ...cautionView(result.cautions, 'extraction-cautions')),
+    h('h3', {}, 'RC snubber: a starting point to verify on the bench'),
+    h(
+      'div',
+      { id: 'snubber' },
+      h('table', { class: 'results' }, h('tbody', {}, quantityRow('Rs', 'R_s', 'snubber resistor', snubber.R), quantityRow('Cs', 'C_s', 'snubber capacitor', snubber.C))),
+      h(
+        'p',
+        { class: 'small' },
+        `C_s usually ${showValue(snubber.capacitanceRange.min, 'F')} to ${showValue(snubber.capacitanceRange.max, 'F')}. ` +
+          (snubber.powerAt ? `Resistor dissipation about ${showValue(snubber.powerAt.power, 'W')} at ${showValue(snubber.powerAt.voltage, 'V')}, ${showValue(snubber.powerAt.frequency, 'Hz')}. ` : '') +
+          `Predicted: ζ from ${snubber.before.zeta.toFixed(3)} to ${snubber.predicted.zeta.toFixed(3)}, Q from ${snubber.before.Q.toFixed(1)} to ${snubber.predicted.Q.toFixed(1)}.`,
+      ),
+      h('ul', { class: 'notes' }, ...snubber.notes.map((n) => h('li', {}, n))),
+      h('p', { class: 'deferral' }, 'A starting point, not a design: fit the parts, measure the ring again and check the resistor’s temperature at full load.'),
+    ),
+  ];
 }

@@ -2,9 +2,9 @@
 
 import { button, h, replaceChildren } from '../dom';
 import type { BenchState } from '../benchState';
-import type { BenchController } from '../benchController';
+import type { BenchActions } from '../actions';
 
-export function createTopBar(controller: BenchController, toggleTheme: () => void) {
+export function createTopBar(actions: BenchActions, toggleTheme: () => void) {
   const title = h('span', { class: 'capture-title', id: 'capture-title' });
   const progress = h('div', { class: 'progress', id: 'progress', attrs: { role: 'status', 'aria-live': 'polite' } });
   const themeButton = button('Dark theme', toggleTheme, { id: 'theme-toggle', class: 'quiet', title: 'Switch between the light and the dark theme (Ctrl+Shift+L)' });
@@ -17,9 +17,9 @@ export function createTopBar(controller: BenchController, toggleTheme: () => voi
     h(
       'div',
       { class: 'topbar-actions' },
-      button('Open capture…', () => void controller.pickCapture(), { id: 'open-capture-top', class: 'quiet', title: 'Ctrl+O' }),
-      button('Export PNG', () => void controller.exportPlot('png'), { id: 'export-png', class: 'quiet', title: 'Save the plot as an image (Ctrl+E)' }),
-      button('Export SVG', () => void controller.exportPlot('svg'), { id: 'export-svg', class: 'quiet', title: 'Save the plot as a vector drawing (Ctrl+Shift+E)' }),
+      button('Open capture…', () => void actions.pickCapture(), { id: 'open-capture-top', class: 'quiet', title: 'Ctrl+O' }),
+      button('Export PNG', () => void actions.exportPlot('png'), { id: 'export-png', class: 'quiet', title: 'Save the plot as an image (Ctrl+E)' }),
+      button('Export SVG', () => void actions.exportPlot('svg'), { id: 'export-svg', class: 'quiet', title: 'Save the plot as a vector drawing (Ctrl+Shift+E)' }),
       themeButton,
     ),
   );
@@ -31,7 +31,7 @@ export function createTopBar(controller: BenchController, toggleTheme: () => voi
     replaceChildren(progress, state.busy ? h('span', { class: 'spinner', attrs: { 'aria-hidden': 'true' } }) : null, state.busy ? `${state.busy}…` : '');
     themeButton.textContent = document.documentElement.dataset.theme === 'dark' ? 'Light theme' : 'Dark theme';
     banner.hidden = state.error === null;
-    replaceChildren(banner, state.error ? h('span', { id: 'error-text' }, state.error) : null, state.error ? button('Dismiss', () => controller.dismissError(), { class: 'quiet' }) : null);
+    replaceChildren(banner, state.error ? h('span', { id: 'error-text' }, state.error) : null, state.error ? button('Dismiss', () => actions.dismissError(), { class: 'quiet' }) : null);
   }
 
   return { root, banner, render };

@@ -1,0 +1,115 @@
+// The capture panel's actions: the first start, opening a sample, a file or a dropped file, and choosing the channel.
+
+import { BenchError } from '../benchError';
+import type { NamedText, OpenedCapture, SampleEntry } from '../bridgeTypes';
+import { FitCancelled } from '../fitClient';
+import { rememberCapture, recallCapture } from '../lastCapture';
+import { plainMessage } from '../plainMessage';
+import { sha256Hex } from '../sha256';
+import { reweighCautions } from './cautions';
+import { applySampleOptions } from './components';
+import { runStep, showProgress, type ActionContext } from './context';
+import { clearDesign, loadDesignText } from './design';
+import { measure } from './fitWindow';
+import { drawPlot } from './plotView';
+import { refreshLog } from './benchLog';
+
+/** First start: the sample the page asks for, else the last capture again, else a bundled sample with its design. */
+export async function start(ctx: ActionContext, requestedSample: string | null): Promise<void> {
+  const lists = await runStep(ctx, 'reading the sample list', async () => ({ samples: await ctx.bridge.listSamples(), designs: await ctx.bridge.listDesigns() }));
+  const state = ctx.store.state;
+  if (lists) ctx.store.update((s) => Object.assign(s, lists));
+  void refreshLog(ctx);
+  if (requestedSample) return openSample(ctx, requestedSample);
+  const last = await recallCapture();
+  if (last?.kind === 'file') return openCapture(ctx, { name: last.name, text: last.text, path: last.path, sampleId: null }, { channel: last.channel });
+  if (last?.kind === 'sample' && state.samples.some((s) => s.id === last.id)) return openSample(ctx, last.id, last.channel);
+  const first = state.samples.find((s) => s.designId !== null) ?? state.samples[0];
+  if (first) return openSample(ctx, first.id);
+}
+
+export async function openSample(ctx: ActionContext, id: string, channel?: number): Promise<void> {
+  const sample = await runStep(ctx, 'opening the sample capture', () => ctx.bridge.readSample(id));
+  if (sample) await openCapture(ctx, sample, { sample: sample.sample, design: sample.design, channel });
+}
+
+export async function pickCapture(ctx: ActionContext): Promise<void> {
+  const opened = await runStep(ctx, 'opening a capture', () => ctx.bridge.pickCapture());
+  if (opened) await openCapture(ctx, opened, {});
+}
+
+export async function openDropped(ctx: ActionContext, file: File): Promise<void> {
+  const opened = await runStep(ctx, `opening ${file.name}`, () => ctx.bridge.openDropped(file));
+  if (opened) await openCapture(ctx, opened, {});
+}
+
+export async function openCapture(ctx: ActionContext, opened: OpenedCapture, options: { sample?: SampleEntry; design?: NamedText | null; channel?: number }): Promise<void> {
+  const key = `capture-${++ctx.counters.captures}`;
+  // A long fit of the previous capture must not hold this one up.
+  if (ctx.client.busy) ctx.client.cancelAll();
+  const done = await runStep(ctx, `reading ${opened.name}`, async () => {
+    const reply = await ctx.client.request({ type: 'open', captureId: key, name: opened.name, text: opened.text }, (stage) => showProgress(ctx, stage)).catch((error: unknown) => {
+      throw error instanceof FitCancelled ? error : new BenchError(`${opened.name}: ${plainMessage(error)}`);
+    });
+    const digest = await sha256Hex(opened.text);
+    const sample = options.sample ?? null;
+    const byName = sample?.options.column ? reply.info.channels.findIndex((c) => c.name === sample.options.column) : -1;
+    const channel = options.channel ?? (byName >= 0 ? byName : 0);
+    ctx.store.update((s) => {
+      s.capture = { key, opened, info: reply.info, channel: Math.min(channel, reply.info.channels.length - 1), sample, ...digest };
+      forgetMeasurement(s);
+      if (sample) applySampleOptions(s, sample);
+    });
+    return true;
+  });
+  if (!done) return;
+  ctx.page.showCaptureName(opened.name);
+  if (options.design) await loadDesignText(ctx, options.design, `sample-captures/designs/${options.design.name}`, 'sample');
+  else if (options.sample || ctx.store.state.design?.origin === 'sample') clearDesign(ctx);
+  await loadTrace(ctx);
+  await measure(ctx);
+  const capture = ctx.store.state.capture;
+  if (capture) {
+    void rememberCapture(
+      capture.opened.sampleId
+        ? { kind: 'sample', id: capture.opened.sampleId, channel: capture.channel }
+        : { kind: 'file', name: opened.name, path: opened.path, text: opened.text, channel: capture.channel },
+    );
+  }
+}
+
+export async function chooseChannel(ctx: ActionContext, index: number): Promise<void> {
+  const capture = ctx.store.state.capture;
+  if (!capture) return;
+  ctx.store.update((s) => {
+    capture.channel = index;
+    forgetMeasurement(s);
+  });
+  await loadTrace(ctx);
+  await measure(ctx);
+  if (capture.opened.sampleId) void rememberCapture({ kind: 'sample', id: capture.opened.sampleId, channel: index });
+}
+
+/** Another capture or channel: nothing measured on the previous one stays. */
+function forgetMeasurement(state: ActionContext['store']['state']): void {
+  state.userWindow = {};
+  state.eventTime = null;
+  state.fit = null;
+  state.summary = null;
+  state.trace = null;
+  state.verdict = null;
+  state.components = null;
+}
+
+/** The channel's samples, drawn at once so the capture shows while its fit runs. */
+async function loadTrace(ctx: ActionContext): Promise<void> {
+  const capture = ctx.store.state.capture;
+  if (!capture) return;
+  const reply = await runStep(ctx, 'reading the channel', () => ctx.client.request({ type: 'trace', captureId: capture.key, channel: capture.channel }));
+  if (capture !== ctx.store.state.capture) return;
+  ctx.store.update((s) => {
+    s.trace = reply?.trace ?? null;
+    reweighCautions(s);
+  });
+  await drawPlot(ctx);
+}

@@ -1,0 +1,55 @@
+// The known part typed in the components panel: read once, the other two parts derived by deriveComponents.
+
+import { deriveComponents, type KnownPartRequest } from '../../core/workflow/measuredComponents';
+import { parseTolerance } from '../../core/workflow/userValues';
+import type { BenchState, ComponentsInput } from '../benchState';
+import type { SampleEntry } from '../bridgeTypes';
+import { parsePositive, splitKnownOption } from '../parseInputs';
+import { plainMessage } from '../plainMessage';
+import { reweighCautions } from './cautions';
+import type { ActionContext } from './context';
+
+const UNIT_OF = { R: 'ohm', L: 'H', C: 'F' } as const;
+
+/** The typed known part; null when no value is typed; bad text throws in plain words. */
+export function knownPartOf(input: ComponentsInput): KnownPartRequest | null {
+  if (input.knownText.trim() === '') return null;
+  const value = parsePositive(input.knownText, UNIT_OF[input.knownName], `known ${input.knownName}`);
+  const tolerance = parseTolerance(input.toleranceText, `known ${input.knownName}`);
+  return { topology: input.topology, known: { name: input.knownName, value, ...(tolerance > 0 ? { tolerance } : {}) } };
+}
+
+/** The known part for a request to the worker, or undefined with the reason shown in the components panel. */
+export function knownPartForFit(state: BenchState): KnownPartRequest | undefined {
+  try {
+    state.componentsError = null;
+    return knownPartOf(state.componentsInput) ?? undefined;
+  } catch (error) {
+    state.componentsError = plainMessage(error);
+    return undefined;
+  }
+}
+
+/** A changed topology or known part: the parts derived again from the fit on screen, no refit. */
+export function setComponentsInput(ctx: ActionContext, change: Partial<ComponentsInput>): void {
+  ctx.store.update((state) => {
+    state.componentsInput = { ...state.componentsInput, ...change };
+    state.components = null;
+    const part = knownPartForFit(state);
+    if (part && state.fit) {
+      try {
+        state.components = deriveComponents(state.fit, part);
+      } catch (error) {
+        state.componentsError = plainMessage(error);
+      }
+    }
+    reweighCautions(state);
+  });
+}
+
+/** A sample's own topology and known part, as its manifest entry gives them to the command line. */
+export function applySampleOptions(state: BenchState, sample: SampleEntry): void {
+  const known = sample.options.known ? splitKnownOption(sample.options.known) : null;
+  const topology = sample.options.topology === 'parallel' ? 'parallel' : 'series';
+  if (known) state.componentsInput = { topology, knownName: known.name, knownText: known.text, toleranceText: '' };
+}

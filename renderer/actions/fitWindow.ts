@@ -1,0 +1,44 @@
+// Measuring the open channel in the worker (fit, parts, verdict, cautions by measureCapture); a new fit window measures again.
+
+import type { FitWindow } from '../workerProtocol';
+import { reweighCautions } from './cautions';
+import { knownPartForFit } from './components';
+import { runStep, showProgress, type ActionContext } from './context';
+import { drawPlot } from './plotView';
+
+/** A new fit window (from the plot or the fields); an empty one goes back to the automatic window. */
+export async function setWindow(ctx: ActionContext, window: FitWindow): Promise<void> {
+  ctx.store.state.userWindow = window;
+  await measure(ctx);
+}
+
+export async function measure(ctx: ActionContext): Promise<void> {
+  const state = ctx.store.state;
+  const { capture, trace, userWindow, design } = state;
+  if (!capture || !trace) return;
+  const generation = ++ctx.counters.fitGeneration;
+  const knownPart = knownPartForFit(state);
+  // A window set by hand moves the fit's t0; the design's prediction stays at the event the automatic fit found.
+  const eventTime = userWindow.start === undefined ? undefined : (state.eventTime ?? undefined);
+  const answer = await runStep(ctx, 'fitting', () =>
+    ctx.client.request(
+      { type: 'measure', captureId: capture.key, channel: capture.channel, window: userWindow, knownPart, design: design?.design, eventTime },
+      (stage) => showProgress(ctx, stage),
+    ),
+  );
+  if (generation !== ctx.counters.fitGeneration || !answer) return ctx.store.update();
+  const { result, fitError } = answer.reply;
+  ctx.store.update((s) => {
+    if (result && s.userWindow.start === undefined && result.fit.status !== 'failed') s.eventTime = result.fit.t0.value;
+    s.fit = result?.fit ?? null;
+    s.summary = result?.summary ?? null;
+    s.fitError = fitError;
+    s.fitCount++;
+    s.components = result?.summary.components ?? null;
+    s.verdict = result?.verdict ?? null;
+    s.verdictError = null;
+    if (result) s.cautions = result.cautions;
+    else reweighCautions(s);
+  });
+  await drawPlot(ctx);
+}

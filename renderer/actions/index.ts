@@ -1,0 +1,45 @@
+// Every action of the window bound to one context: what the panels and the page entry call.
+
+import type { ComponentsInput } from '../benchState';
+import type { OpenedCapture, ReportFormat } from '../bridgeTypes';
+import type { LogForm } from '../logRequest';
+import type { CaptureText, FitWindow } from '../workerProtocol';
+import { logMeasurement, refreshLog } from './benchLog';
+import { chooseChannel, openCapture, openDropped, openSample, pickCapture, start } from './capture';
+import { runComparison, type CompareSettings } from './compare';
+import { setComponentsInput } from './components';
+import type { ActionContext } from './context';
+import { clearDesign, loadDesignFromSamples, pickDesign, saveDesign, useEditedDesign } from './design';
+import { exportPlot, exportReport } from './export';
+import { runExtraction, type ExtractionRow, type ExtractionSettings } from './extraction';
+import { setWindow } from './fitWindow';
+import { pickCaptureText, readSampleText } from './pickCaptures';
+
+export type BenchActions = ReturnType<typeof bindActions>;
+
+export function bindActions(ctx: ActionContext) {
+  return {
+    start: (requestedSample: string | null) => start(ctx, requestedSample),
+    openSample: (id: string) => openSample(ctx, id),
+    pickCapture: () => pickCapture(ctx),
+    openDropped: (file: File) => openDropped(ctx, file),
+    openCapture: (opened: OpenedCapture) => openCapture(ctx, opened, {}),
+    chooseChannel: (index: number) => chooseChannel(ctx, index),
+    setWindow: (window: FitWindow) => setWindow(ctx, window),
+    setComponentsInput: (change: Partial<ComponentsInput>) => setComponentsInput(ctx, change),
+    loadDesignFromSamples: (id: string) => loadDesignFromSamples(ctx, id),
+    pickDesign: () => pickDesign(ctx),
+    useEditedDesign: (fields: Record<string, unknown>) => useEditedDesign(ctx, fields),
+    saveDesign: () => saveDesign(ctx),
+    clearDesign: () => clearDesign(ctx),
+    refreshLog: () => refreshLog(ctx),
+    logMeasurement: (form: LogForm) => logMeasurement(ctx, form),
+    exportReport: (format: ReportFormat) => exportReport(ctx, format),
+    exportPlot: (format: 'png' | 'svg') => exportPlot(ctx, format),
+    pickCaptureText: () => pickCaptureText(ctx),
+    readSampleText: (id: string) => readSampleText(ctx, id),
+    runExtraction: (rows: readonly ExtractionRow[], settings: ExtractionSettings) => runExtraction(ctx, rows, settings),
+    runComparison: (before: CaptureText | null, after: CaptureText | null, settings: CompareSettings) => runComparison(ctx, before, after, settings),
+    dismissError: () => ctx.store.update((s) => (s.error = null)),
+  };
+}

@@ -1,0 +1,92 @@
+// The fit worker's requests answered with core/workflow: no `self`, no DOM, so node tests call it directly.
+
+import { parseCapture } from '../core/capture/parseCapture';
+import { selectChannel } from '../core/capture/selectChannel';
+import type { Capture, Channel } from '../core/capture/types';
+import { compareCaptures, type ComparisonSide } from '../core/workflow/compare';
+import { checkAgainstDesign, measureCapture } from '../core/workflow/measure';
+import { deriveComponents } from '../core/workflow/measuredComponents';
+import { measureParasitics } from '../core/workflow/parasitics';
+import { plainMessage } from './plainMessage';
+import { describeCapture, traceData } from './traceData';
+import type { CaptureText, WorkerAsk, WorkerReplyValue } from './workerProtocol';
+
+export interface HandledReply {
+  value: WorkerReplyValue;
+  /** Buffers to move to the window rather than copy. */
+  transfer: ArrayBuffer[];
+}
+
+/** Captures kept parsed for refits, newest last. */
+const opened = new Map<string, { name: string; capture: Capture }>();
+const KEEP = 4;
+
+/** Answer one request; invalid input throws (the worker turns it into a message). */
+export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string) => void): HandledReply {
+  switch (request.type) {
+    case 'open': {
+      progress('reading the capture');
+      const capture = parseCapture(request.text, { sampleInterval: request.sampleInterval });
+      opened.delete(request.captureId);
+      opened.set(request.captureId, { name: request.name, capture });
+      while (opened.size > KEEP) opened.delete(opened.keys().next().value as string);
+      return { value: { type: 'open', info: describeCapture(capture) }, transfer: [] };
+    }
+    case 'trace': {
+      const { capture } = openedCapture(request.captureId);
+      const trace = traceData(channelAt(capture, request.channel), capture.sampleInterval);
+      return { value: { type: 'trace', trace }, transfer: [trace.time.buffer, trace.values.buffer, trace.clippedTimes.buffer, trace.gapTimes.buffer] as ArrayBuffer[] };
+    }
+    case 'measure': {
+      const { name, capture } = openedCapture(request.captureId);
+      const channel = channelAt(capture, request.channel);
+      progress(`fitting ${channel.values.length.toLocaleString('en')} samples`);
+      try {
+        const { design, knownPart } = request;
+        // A design states all three parts; the window still shows the parts derived from a typed known one.
+        const result = measureCapture({ file: name, channel, captureWarnings: capture.warnings, window: request.window, design, knownPart: design ? undefined : knownPart, eventTime: request.eventTime });
+        if (design && knownPart) result.summary.components = deriveComponents(result.fit, knownPart);
+        return { value: { type: 'measure', reply: { result, fitError: null } }, transfer: [] };
+      } catch (error) {
+        // The samples are still shown; the window says why there is no fit.
+        return { value: { type: 'measure', reply: { result: null, fitError: plainMessage(error) } }, transfer: [] };
+      }
+    }
+    case 'check': {
+      const { name, capture } = openedCapture(request.captureId);
+      progress('checking against the design');
+      const verdict = checkAgainstDesign(request.design, request.fit, channelAt(capture, request.channel), name, request.eventTime);
+      return { value: { type: 'check', verdict }, transfer: [] };
+    }
+    case 'parasitics': {
+      const captures = request.captures.map((c) => ({ ...readSide(c, undefined, progress), addedC: c.addedC }));
+      const result = measureParasitics({ ...request, captures }, progress);
+      return { value: { type: 'parasitics', result }, transfer: [] };
+    }
+    case 'compare': {
+      const before = readSide(request.before, request.channel, progress);
+      const after = readSide(request.after, request.channel, progress);
+      progress('fitting both captures');
+      return { value: { type: 'compare', comparison: compareCaptures({ before, after, knownPart: request.knownPart }) }, transfer: [] };
+    }
+  }
+}
+
+/** A capture text read for a one-off use case, as the command line reads a file. */
+function readSide(side: CaptureText, channel: string | number | undefined, progress: (stage: string) => void): ComparisonSide {
+  progress(`reading ${side.name}`);
+  const capture = parseCapture(side.text);
+  return { file: side.name, channel: selectChannel(capture, channel), captureWarnings: capture.warnings };
+}
+
+function openedCapture(id: string): { name: string; capture: Capture } {
+  const entry = opened.get(id);
+  if (!entry) throw new Error('the capture is no longer open; open it again');
+  return entry;
+}
+
+function channelAt(capture: Capture, index: number): Channel {
+  const channel = capture.channels[index];
+  if (!channel) throw new Error(`the capture has no channel ${index + 1}`);
+  return channel;
+}
