@@ -7,7 +7,7 @@ import type { Verdict } from '../core/circuit/verdict';
 import type { CautionResult } from '../core/safety/evaluateCautions';
 import type { Topology } from '../core/circuit/components';
 import type { ParasiticsResult } from '../core/report/parasiticsText';
-import type { Comparison } from '../core/workflow/compare';
+import type { Comparison } from '../core/report/comparisonText';
 import type { BenchLogView, DesignEntry, OpenedCapture, SampleEntry } from './bridgeTypes';
 import type { CaptureInfo, FitWindow, TraceData } from './workerProtocol';
 

@@ -4,7 +4,7 @@ import type { Design } from '../core/circuit/design';
 import type { Verdict } from '../core/circuit/verdict';
 import type { FitSummary } from '../core/report/fitSummary';
 import type { ParasiticsResult } from '../core/report/parasiticsText';
-import type { Comparison } from '../core/workflow/compare';
+import type { Comparison } from '../core/report/comparisonText';
 import type { FitWindow, MeasureResult } from '../core/workflow/measure';
 import type { KnownPartRequest } from '../core/workflow/measuredComponents';
 

@@ -2,7 +2,7 @@
 
 import { button, card, field, h, replaceChildren, select, textInput } from '../dom';
 import { showCompact, showValue } from '../show';
-import type { Comparison, QuantityChange } from '../../core/workflow/compare';
+import type { Comparison, QuantityChange } from '../../core/report/comparisonText';
 import type { BenchState } from '../benchState';
 import type { BenchActions } from '../actions';
 import type { CaptureText } from '../workerProtocol';
