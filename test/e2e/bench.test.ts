@@ -1,7 +1,7 @@
 // End to end in a real browser: the bench served by `ringbench serve`, driven by playwright-core in
 // Debian's Chromium. Every sample capture is opened (file input, and one by drag and drop) and its fit
 // compared with the command line's JSON; then components, design check, bench log, report, plot
-// export, theme, parasitic extraction, reopening, and a 10^6-sample capture's redraw time.
+// export, theme, parasitic extraction, before / after, reopening, and a 10^6-sample capture's redraw time.
 
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { spawn } from 'node:child_process';
@@ -220,6 +220,8 @@ describe.skipIf(!hasChromium)('the bench in a browser', () => {
       const row = document.querySelector('#components-results tr[data-quantity="C"]');
       return Number(row?.getAttribute('data-value')) === 220e-9 && Math.abs(Number(row?.getAttribute('data-stderr')) - stderr) <= 1e-9 * stderr;
     }, expected.C.stderr as number);
+    // The known part is written as the command line writes it.
+    expect(await page.locator('#known-part').innerText()).toBe(expected.known);
     for (const name of ['R', 'L', 'C']) {
       const q = await shown(page, '#components-results', name);
       expectClose(q.value, expected[name].value, `component ${name}`);
@@ -342,6 +344,24 @@ describe.skipIf(!hasChromium)('the bench in a browser', () => {
     expect(Math.abs(Cp / set.addedCapacitor!.parasitic - 1)).toBeLessThan(0.05);
     expect(await page.locator('#parasitic-panel h3').last().innerText()).toMatch(/starting point to verify on the bench/);
     expect(await page.locator('#snubber tr[data-quantity="Rs"]').count()).toBe(1);
+    // The cautions come from the captures' own peaks, as the command line weighs them.
+    expect(await page.locator('#extraction-cautions-fired li').count()).toBeGreaterThan(0);
+    expect(await page.locator('#extraction-cautions-deferral').innerText()).toMatch(/local electrical codes/);
+  });
+
+  it('compares two samples before and after a change and gives a verdict with its reason', async () => {
+    await page.selectOption('#before-sample', 'switch-node-before');
+    await page.waitForFunction(() => document.querySelector('#before-name')?.textContent === 'switch-node-before.csv');
+    await page.selectOption('#after-sample', 'switch-node-after-470p');
+    await page.waitForFunction(() => document.querySelector('#after-name')?.textContent === 'switch-node-after-470p.csv');
+    await page.click('#run-compare');
+    await page.waitForSelector('#compare-verdict, #compare-error', { timeout: 120_000 });
+    // 470 pF added to a 390 pF node moves f0 by far more than its noise.
+    expect(await page.locator('#compare-verdict').getAttribute('data-verdict')).toBe('changed');
+    expect(await page.locator('#compare-reason').innerText()).toMatch(/chi-square/);
+    expect(await page.locator('#compare-table tr[data-quantity="f0"]').getAttribute('data-significant')).toBe('true');
+    await page.locator('#before-after-panel').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: join(outputDir, 'bench-before-after.png'), fullPage: true });
   });
 
   it('reopens the last capture on the next start', async () => {
