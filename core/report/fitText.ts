@@ -2,7 +2,7 @@
 
 import { formatEngineering } from '../units/format';
 import type { FitSummary } from './fitSummary';
-import { fitResultRows } from './resultRows';
+import { fitResultRows, fitTransitionRows, transitionNote } from './resultRows';
 
 /** Width of the label column: the longest label ('residual rms', 'samples used') and a space. */
 const LABEL_WIDTH = 16;
@@ -20,10 +20,14 @@ export function formatFitText(s: FitSummary): string {
     if (row.name === 'components.R' && s.components) text += line('components', `${s.components.topology}, known ${s.components.known}`);
     text += line(row.symbol, row.text);
   }
+  const note = transitionNote(s);
+  if (note) text += line('transitions', note);
+  for (const row of fitTransitionRows(s)) text += line(row.symbol, `${row.modelText}, measured ${row.measuredText}`);
   text += line('residual rms', `${formatEngineering(s.rmsResidual, s.finalValue.unit)} (noise ${formatEngineering(s.noiseRms, s.finalValue.unit)})`);
   text += line('samples used', `${s.samplesUsed}${s.decimation ? ` (${s.decimation.note})` : ''}`);
   text += line('fit window', `${formatEngineering(s.window.start, 's')} to ${formatEngineering(s.window.end, 's')}`);
   for (const w of s.warnings) text += `  warning: ${w}\n`;
+  for (const w of s.transitions?.warnings ?? []) text += `  warning: transitions: ${w}\n`;
   return text;
 }
 

@@ -2,12 +2,14 @@
 
 import type { BenchRecord } from './benchRecord';
 import { csvCell } from './escape';
-import { RESULT_ROWS, rowQuantity } from './resultRows';
+import { RESULT_ROWS, TRANSITION_ROWS, fitTransitionRows, rowQuantity } from './resultRows';
 import { recordStatus } from './yieldSummary';
 
 const HEADER = [
   'id', 'time', 'unit', 'operator', 'note', 'file', 'channel', 'channel_unit', 'status', 'regime',
   ...RESULT_ROWS.flatMap((row) => [row.column, `${row.column}_stderr`]),
+  ...TRANSITION_ROWS.flatMap((row) => [row.columns.model, `${row.columns.model}_stderr`, row.columns.measured]),
+  'transition_levels',
   'verdict', 'design', 'cautions', 'capture_path', 'capture_sha256', 'software_version',
 ];
 
@@ -16,9 +18,17 @@ export function renderReportCsv(records: readonly BenchRecord[]): string {
   for (const r of records) {
     const fit = r.fit;
     const quantities = RESULT_ROWS.map((spec) => rowQuantity(spec, fit));
+    // No transition rows (a ringdown, an older record): the columns stay empty.
+    const transitions = fitTransitionRows(fit);
+    const transitionCells = TRANSITION_ROWS.flatMap((_, k) => {
+      const t = transitions[k];
+      return [t?.model?.value ?? null, t?.model?.stderr ?? null, t?.measured ?? null];
+    });
     const row: (string | number | null)[] = [
       r.id, r.time, r.unit, r.operator, r.note, fit.file, fit.channel, fit.finalValue.unit, fit.status, fit.regime,
       ...quantities.flatMap((q) => [q?.value ?? null, q?.stderr ?? null]),
+      ...transitionCells,
+      transitions.length ? (fit.transitions?.levelMethod ?? null) : null,
       recordStatus(r), r.design?.name ?? null, r.cautions.fired.map((c) => c.id).join(';'),
       r.capture.path, r.capture.sha256, r.software.version,
     ];

@@ -4,10 +4,11 @@
 import { formatEngineering, formatMeasured } from '../units/format';
 import { DEFERRAL, STANDING_ADVICE, STANDING_ADVICE_SOURCE } from '../safety/standingAdvice';
 import type { BenchRecord } from './benchRecord';
+import type { FitSummary } from './fitSummary';
 import type { Verdict } from '../circuit/verdict';
 import { escapeHtml as e } from './escape';
 import { renderMeasurementPlot, type ReportTrace } from './overlay';
-import { briefValue, fitResultRows, marginText, showTime } from './resultRows';
+import { briefValue, fitResultRows, fitTransitionRows, marginText, showTime, transitionNote } from './resultRows';
 import { reproduceCommand } from './reproduce';
 import { REPORT_CSS } from './reportStyle';
 import { YIELD_RULE, recordStatus, summarizeYield, type UnitStatus, type UnitSummary, type YieldSummary } from './yieldSummary';
@@ -125,6 +126,7 @@ function measurement(record: BenchRecord, id: string, options: ReportOptions): s
   if (fit.status !== 'converged') html += `<p class="notice">Fit status ${e(fit.status)}: ${e(fit.message)}</p>`;
   html += figure;
   html += `<div class="block"><h4>Fit: ${e(fit.regime)}</h4>${resultsTable(record)}</div>`;
+  html += transitionsBlock(fit);
   html += `<div class="block">${record.verdict ? verdictBlock(record.verdict, record.design?.name ?? 'design', fit.finalValue.unit) : '<h4>Verdict</h4><p class="fineprint">Not checked against a design.</p>'}</div>`;
   if (fit.warnings.length) html += `<div class="block"><h4>Warnings</h4><ul>${fit.warnings.map((w) => `<li class="warning">${e(w)}</li>`).join('')}</ul></div>`;
   html += cautionsBlock(record);
@@ -146,6 +148,25 @@ function resultsTable(record: BenchRecord): string {
   }
   const components = fit.components ? `<p class="fineprint">R, L, C: ${e(fit.components.topology)}, known ${e(fit.components.known)}.</p>` : '';
   return `<table class="results"><tbody>${rows}</tbody></table>${components}`;
+}
+
+function transitionsBlock(fit: FitSummary): string {
+  const note = transitionNote(fit);
+  if (note === null) return '';
+  const rows = fitTransitionRows(fit)
+    .map((row) => `<tr><th scope="row">${e(row.symbol)}</th><td class="num">${e(row.modelText)}</td><td class="num">${e(row.measuredText)}</td></tr>`)
+    .join('');
+  let html = '<div class="block"><h4>Transitions</h4>';
+  if (rows) html += `<table class="transitions"><thead><tr><th>Quantity</th><th>Model (fit)</th><th>Measured (samples)</th></tr></thead><tbody>${rows}</tbody></table>`;
+  html += `<p class="fineprint">${e(sentence(note))}</p>`;
+  const warnings = fit.transitions?.warnings ?? [];
+  if (warnings.length) html += `<ul class="fineprint">${warnings.map((w) => `<li>${e(w)}</li>`).join('')}</ul>`;
+  return `${html}</div>`;
+}
+
+/** 'State levels: ...' from 'state levels: ...'. */
+function sentence(text: string): string {
+  return `${text.charAt(0).toUpperCase()}${text.slice(1)}.`;
 }
 
 function verdictBlock(verdict: Verdict, designName: string, unit: string): string {

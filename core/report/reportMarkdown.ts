@@ -4,7 +4,7 @@ import { formatEngineering, formatMeasured } from '../units/format';
 import { DEFERRAL, STANDING_ADVICE, STANDING_ADVICE_SOURCE } from '../safety/standingAdvice';
 import type { BenchRecord } from './benchRecord';
 import { escapeMarkdown as m } from './escape';
-import { fitResultRows, marginText, showTime } from './resultRows';
+import { fitResultRows, fitTransitionRows, marginText, showTime, transitionNote } from './resultRows';
 import { reproduceCommand } from './reproduce';
 import { YIELD_RULE, recordStatus, summarizeYield } from './yieldSummary';
 
@@ -53,6 +53,14 @@ function measurement(record: BenchRecord, notes: string[]): string[] {
   for (const note of notes) lines.push(`> ${m(note)}`, '');
   lines.push(`Fit: ${m(fit.status)}, ${m(fit.regime)}.`, '', '| Quantity | Value |', '| --- | --- |');
   for (const row of fitResultRows(fit)) lines.push(`| ${m(row.symbol)} | ${m(row.text)} |`);
+  const transitions = fitTransitionRows(fit);
+  const note = transitionNote(fit);
+  if (note !== null) lines.push('', `Transitions, ${m(note)}.`);
+  if (transitions.length) {
+    lines.push('', '| Quantity | Model (fit) | Measured (samples) |', '| --- | --- | --- |');
+    for (const row of transitions) lines.push(`| ${m(row.symbol)} | ${m(row.modelText)} | ${m(row.measuredText)} |`);
+  }
+  for (const warning of fit.transitions?.warnings ?? []) lines.push('', `Warning (transitions): ${m(warning)}`);
   if (record.verdict) {
     lines.push('', `Verdict against ${m(record.design?.name ?? 'design')}: ${record.verdict.pass ? 'pass' : 'fail'}.`, '');
     lines.push('| Quantity | Design | Measured | Margin | In tolerance |', '| --- | --- | --- | ---: | --- |');

@@ -20,8 +20,11 @@ code, .mono { font-family: ui-monospace, SFMono-Regular, Menlo, Consolas, monosp
 .tile .label { color: var(--muted); font-size: 12px; text-transform: uppercase; letter-spacing: 0.04em; }
 table { border-collapse: collapse; width: 100%; font-variant-numeric: tabular-nums; }
 th, td { text-align: left; padding: 5px 10px 5px 0; border-bottom: 1px solid var(--rule); vertical-align: top; }
-table.results th { text-transform: none; letter-spacing: 0; font-size: 14px; color: var(--muted); font-weight: 500; width: 12%; }
+table.results th, table.transitions tbody th { text-transform: none; letter-spacing: 0; font-size: 14px; color: var(--muted); font-weight: 500; width: 12%; }
 table.results td { width: 38%; }
+table.transitions { width: auto; }
+table.transitions th, table.transitions td { padding-right: 32px; }
+table.transitions tbody th { width: auto; white-space: nowrap; }
 th { font-size: 12px; color: var(--muted); font-weight: 600; text-transform: uppercase; letter-spacing: 0.03em; }
 tfoot td { font-weight: 600; border-bottom: none; border-top: 2px solid var(--ink); }
 td.num { white-space: nowrap; }

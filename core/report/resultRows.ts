@@ -1,4 +1,5 @@
-// The one table of what a measurement shows (alpha ... C) and how; every face reads its rows here.
+// The one table of what a measurement shows (alpha ... C, then the step's transition metrics) and
+// how; every face reads its rows here.
 
 import type { Quantity } from '../quantity';
 import { formatEngineering, formatMeasured } from '../units/format';
@@ -58,6 +59,59 @@ export function rowQuantity(spec: ResultRowSpec, fit: FitSummary): Quantity | un
   const source = valueAtPath(fit, spec.derived?.from ?? spec.name) as Quantity | null | undefined;
   if (source === undefined || source === null) return undefined;
   return spec.derived ? spec.derived.convert(source) : source;
+}
+
+/** A step metric, shown from the fitted model (value ± stderr) beside the samples' own value. */
+export interface TransitionRowSpec {
+  /** Key under the fit summary's transitions.model and transitions.measured. */
+  name: 'riseTime' | 'overshoot' | 'peakTime' | 'settlingTime2';
+  /** The name as people read it. */
+  symbol: string;
+  unit: 's' | '%';
+  /** CSV columns: the model's value (its uncertainty in `<model>_stderr`) and the measured value. */
+  columns: { model: string; measured: string };
+}
+
+/** A transition row of one fit; null and '–' where a metric is not defined (no overshoot, no peak). */
+export interface TransitionRow extends TransitionRowSpec {
+  model: Quantity | null;
+  measured: number | null;
+  modelText: string;
+  measuredText: string;
+}
+
+export const TRANSITION_ROWS = [
+  { name: 'riseTime', symbol: 'rise time', unit: 's', columns: { model: 'rise_time_s', measured: 'rise_time_measured_s' } },
+  { name: 'overshoot', symbol: 'overshoot', unit: '%', columns: { model: 'overshoot_pct', measured: 'overshoot_measured_pct' } },
+  { name: 'peakTime', symbol: 'peak time', unit: 's', columns: { model: 'peak_time_s', measured: 'peak_time_measured_s' } },
+  { name: 'settlingTime2', symbol: 'settling (2 %)', unit: 's', columns: { model: 'settling_2pct_s', measured: 'settling_2pct_measured_s' } },
+] as const satisfies readonly TransitionRowSpec[];
+
+/** Shown for a metric that is not defined. */
+const NONE = '–';
+
+/** The transition rows of a measured step; none for a ringdown, a failed fit or a summary without them. */
+export function fitTransitionRows(fit: FitSummary): TransitionRow[] {
+  const t = fit.transitions;
+  if (!t || t.reason !== null || !t.model) return [];
+  return TRANSITION_ROWS.map((spec: TransitionRowSpec) => {
+    const model = t.model?.[spec.name] ?? null;
+    const measured = t.measured?.[spec.name] ?? null;
+    return {
+      ...spec,
+      model,
+      measured,
+      modelText: model ? formatMeasured(model) : NONE,
+      measuredText: measured === null ? NONE : formatEngineering(measured, spec.unit),
+    };
+  });
+}
+
+/** 'state levels: fitted model; ...', or why the transitions were not measured; null without transitions. */
+export function transitionNote(fit: FitSummary): string | null {
+  const t = fit.transitions;
+  if (!t) return null;
+  return t.reason === null ? `state levels: ${t.levelMethod}; peak and settling times from t0` : `not measured: ${t.reason}`;
 }
 
 /** The value alone of the named row ('f0', 'zeta'), or '-' when this fit has none. */

@@ -9,7 +9,7 @@ import { reproduceCommand } from '../../core/report/reproduce';
 import { evaluateResponse } from '../../core/response/secondOrder';
 import { evaluateCautions } from '../../core/safety/evaluateCautions';
 import type { BenchRecord } from '../../core/report/benchRecord';
-import { sampleDesign, sampleRecord, sampleVerdict } from '../fixtures/benchLog/sampleRecord';
+import { sampleDesign, sampleFit, sampleRecord, sampleTransitions, sampleVerdict } from '../fixtures/benchLog/sampleRecord';
 
 const HOSTILE = ['<script>alert(1)</script>', '"><img src=x onerror=alert(2)>', "'><svg onload=alert(3)>"];
 
@@ -30,6 +30,13 @@ const records: BenchRecord[] = [
   checked('00000000000d', 'SN043', false, '2025-03-14T09:20:00.000Z'),
   sampleRecord({ id: '00000000000e', unit: 'SN044', time: '2025-03-14T09:30:00.000Z' }),
 ];
+
+/** A logged step with its transition metrics, and a ringdown whose transitions were not measured. */
+const withTransitions = sampleRecord({ id: '0000000000a1', fit: sampleFit({ transitions: sampleTransitions() }) });
+const ringdown = sampleRecord({
+  id: '0000000000a2',
+  fit: sampleFit({ transitions: { ...sampleTransitions(), reason: 'a ringdown about one level has no step to measure', measured: null, model: null } }),
+});
 
 const options: ReportOptions = {
   logPath: '/bench/bench.jsonl',
@@ -122,13 +129,30 @@ describe('renderReportHtml', () => {
     expect(html).toMatch(/follow your local electrical codes/);
   });
 
+  it('shows rise time, overshoot, peak time and settling time, model ± uncertainty beside the measured value, and the level method', () => {
+    const page = renderReportHtml([withTransitions, ringdown], options);
+    const table = /<table class="transitions">([\s\S]*?)<\/table>/.exec(page)![1];
+    expect(table).toContain('<th>Model (fit)</th><th>Measured (samples)</th>');
+    expect(table).toContain('<tr><th scope="row">rise time</th><td class="num">4.583 ns ± 21 ps (0.46 %)</td><td class="num">4.61 ns</td></tr>');
+    expect(table).toContain('<tr><th scope="row">overshoot</th><td class="num">68.61 % ± 0.21 % (0.31 %)</td><td class="num">69.3 %</td></tr>');
+    expect(table).toMatch(/peak time<\/th><td class="num">15\.72 ns ± 110 ps/);
+    expect(table).toContain('<tr><th scope="row">settling (2 %)</th><td class="num">161.10 ns ± 900 ps (0.56 %)</td><td class="num">163 ns</td></tr>');
+    expect(page).toContain('State levels: fitted model; peak and settling times from t0.');
+    expect(page).toContain('Not measured: a ringdown about one level has no step to measure.');
+    expect(page.match(/<table class="transitions">/g)).toHaveLength(1);
+  });
+
+  it('leaves the transitions out for a record logged without them', () => {
+    expect(html).not.toContain('Transitions');
+  });
+
   it.each(HOSTILE)('escapes hostile text everywhere it can appear: %s', (attack) => {
     const hostile = sampleRecord({
       id: '0000000000ff',
       unit: attack,
       operator: attack,
       note: attack,
-      fit: { ...sampleRecord().fit, file: attack, channel: attack, warnings: [attack], message: attack, status: 'max-iterations' },
+      fit: { ...sampleRecord().fit, file: attack, channel: attack, warnings: [attack], message: attack, status: 'max-iterations', transitions: { ...sampleTransitions(), warnings: [attack] } },
       capture: { path: attack, sha256: attack, bytes: 1, channel: attack },
       verdict: sampleVerdict(false),
       design: { path: attack, name: attack, sha256: attack, spec: design },
@@ -160,6 +184,17 @@ describe('renderReportMarkdown', () => {
     expect(md.match(/^## SN0\d\d: /gm)!.length).toBe(4);
     expect(md).toContain('| alpha | 24.00 Ms^-1 ± 110 ks^-1 (0.46 %) |');
     expect(md).toMatch(/follow your local electrical codes/);
+  });
+
+  it('has the transitions table and names the level method', () => {
+    const out = renderReportMarkdown([withTransitions, ringdown]);
+    expect(out).toContain('Transitions, state levels: fitted model; peak and settling times from t0.');
+    expect(out).toContain('| Quantity | Model (fit) | Measured (samples) |');
+    expect(out).toContain('| rise time | 4.583 ns ± 21 ps (0.46 %) | 4.61 ns |');
+    expect(out).toContain('| overshoot | 68.61 % ± 0.21 % (0.31 %) | 69.3 % |');
+    expect(out).toMatch(/\| peak time \| 15\.72 ns ± 110 ps .* \| 15\.8 ns \|/);
+    expect(out).toContain('| settling (2 %) | 161.10 ns ± 900 ps (0.56 %) | 163 ns |');
+    expect(out).toContain('Transitions, not measured: a ringdown about one level has no step to measure.');
   });
 
   it.each(HOSTILE)('escapes hostile text: %s', (attack) => {
@@ -215,6 +250,22 @@ describe('renderReportCsv', () => {
     expect(row).toContain("'@SUM(1+1)");
     expect(row).toMatch(/,-5,/);
     expect(row).not.toMatch(/,[=+@]/);
+  });
+
+  it('has model, uncertainty and measured columns for each transition metric and the level method', () => {
+    const rows = parseCsv(renderReportCsv([withTransitions, ringdown, sampleRecord()]));
+    const header = rows[0];
+    const cell = (r: number, name: string) => rows[r][header.indexOf(name)];
+    for (const name of ['rise_time_s', 'rise_time_s_stderr', 'rise_time_measured_s', 'overshoot_pct', 'overshoot_measured_pct', 'peak_time_s', 'peak_time_measured_s', 'settling_2pct_s', 'settling_2pct_s_stderr', 'settling_2pct_measured_s', 'transition_levels']) {
+      expect(header).toContain(name);
+    }
+    expect(new Set(rows.map((r) => r.length))).toEqual(new Set([header.length]));
+    expect(Number(cell(1, 'rise_time_s'))).toBe(4.583e-9);
+    expect(Number(cell(1, 'rise_time_s_stderr'))).toBe(0.021e-9);
+    expect(Number(cell(1, 'overshoot_measured_pct'))).toBe(69.3);
+    expect(Number(cell(1, 'settling_2pct_measured_s'))).toBe(1.63e-7);
+    expect(cell(1, 'transition_levels')).toBe('fitted model');
+    for (const r of [2, 3]) expect([cell(r, 'rise_time_s'), cell(r, 'overshoot_measured_pct'), cell(r, 'transition_levels')]).toEqual(['', '', '']);
   });
 
   it('lists the fired caution ids', () => {

@@ -1,12 +1,12 @@
 // The one table of result rows: which rows a fit has, how they read, and that every face follows it.
 import { describe, expect, it } from 'vitest';
-import { RESULT_ROWS, briefValue, fitResultRows, hertz, rowQuantity } from '../../core/report/resultRows';
+import { RESULT_ROWS, TRANSITION_ROWS, briefValue, fitResultRows, fitTransitionRows, hertz, rowQuantity } from '../../core/report/resultRows';
 import { formatFitText } from '../../core/report/fitText';
 import { renderReportCsv } from '../../core/report/reportCsv';
 import { renderReportMarkdown } from '../../core/report/reportMarkdown';
 import { formatLogTable } from '../../core/report/logTable';
 import { escapeMarkdown } from '../../core/report/escape';
-import { sampleFit, sampleRecord } from '../fixtures/benchLog/sampleRecord';
+import { sampleFit, sampleRecord, sampleTransitions } from '../fixtures/benchLog/sampleRecord';
 
 const q = (value: number, stderr: number | null, unit: string) => ({ value, stderr, unit });
 const withComponents = sampleFit({
@@ -49,6 +49,26 @@ describe('every face reads the table', () => {
     expect(at('components')).toBe(at('R') - 1);
     expect(lines[at('components')]).toContain('series, known C=2.2n');
     expect(formatFitText(overdamped)).not.toMatch(/omega_d|components/);
+  });
+
+  it('the command line text: the level method, then each transition metric from the model and as measured', () => {
+    const text = formatFitText(sampleFit({ transitions: { ...sampleTransitions(), warnings: ['noise lifts the largest sample'] } }));
+    expect(text).toContain('  transitions      state levels: fitted model; peak and settling times from t0\n');
+    expect(text).toContain('  rise time        4.583 ns ± 21 ps (0.46 %), measured 4.61 ns\n');
+    expect(text).toContain('  overshoot        68.61 % ± 0.21 % (0.31 %), measured 69.3 %\n');
+    expect(text).toContain('  peak time        15.72 ns ± 110 ps (0.7 %), measured 15.8 ns\n');
+    expect(text).toContain('  settling (2 %)   161.10 ns ± 900 ps (0.56 %), measured 163 ns\n');
+    expect(text).toContain('  warning: transitions: noise lifts the largest sample\n');
+    const ringdown = formatFitText(sampleFit({ transitions: { ...sampleTransitions(), reason: 'no step', model: null, measured: null } }));
+    expect(ringdown).toContain('  transitions      not measured: no step\n');
+    expect(ringdown).not.toContain('rise time');
+  });
+
+  it('a transition metric that is not defined reads as a dash', () => {
+    const t = sampleTransitions();
+    const rows = fitTransitionRows(sampleFit({ transitions: { ...t, model: { ...t.model!, peakTime: null }, measured: { ...t.measured!, peakTime: null } } }));
+    expect(rows.map((r) => r.name)).toEqual(TRANSITION_ROWS.map((r) => r.name));
+    expect(rows.find((r) => r.name === 'peakTime')).toMatchObject({ modelText: '–', measuredText: '–' });
   });
 
   it('the Markdown report: a table line per row', () => {

@@ -8,6 +8,7 @@ import type { CliIo } from '../../main/cli/io';
 import { appendBenchLog } from '../../main/io/benchLog';
 import { loggedCapture } from '../fixtures/benchLog/loggedCapture';
 import { NOMINAL_LOOP } from '../fixtures/benchLog/captures';
+import { sampleTransitions } from '../fixtures/benchLog/sampleRecord';
 
 let folder: string;
 
@@ -35,6 +36,20 @@ describe('report', () => {
     expect(result.code).toBe(0);
     expect(result.out()).toBe(`wrote ${out} (${format}, 2 measurements)\n`);
     expect(readFileSync(join(folder, out), 'utf8').startsWith(marker)).toBe(true);
+  });
+
+  it('carries the transition metrics of a logged step into every format', async () => {
+    const step = loggedCapture(folder, '00000000000c', 'SN042', 'sn042.csv', NOMINAL_LOOP, { note: null });
+    step.fit.transitions = sampleTransitions();
+    appendBenchLog(join(folder, 'steps.jsonl'), step);
+    for (const out of ['steps.html', 'steps.md', 'steps.csv']) expect((await run(['report', '--log', 'steps.jsonl', '--out', out])).code).toBe(0);
+    const read = (name: string) => readFileSync(join(folder, name), 'utf8');
+    expect(read('steps.html')).toMatch(/<th scope="row">rise time<\/th><td class="num">4\.583 ns ± 21 ps \(0\.46 %\)<\/td><td class="num">4\.61 ns<\/td>/);
+    expect(read('steps.html')).toContain('State levels: fitted model;');
+    expect(read('steps.md')).toContain('| overshoot | 68.61 % ± 0.21 % (0.31 %) | 69.3 % |');
+    const [header, row] = read('steps.csv').split('\r\n').map((line) => line.split(','));
+    expect(Number(row[header.indexOf('settling_2pct_s')])).toBe(1.611e-7);
+    expect(row[header.indexOf('transition_levels')]).toBe('fitted model');
   });
 
   it('tells on stderr which captures could not be plotted', async () => {
