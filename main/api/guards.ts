@@ -3,7 +3,7 @@
 import { isAbsolute } from 'node:path';
 import type { BenchLogRequest, SaveRequest } from '../../core/bench/benchApiTypes';
 import { API_METHODS, type ApiMethod } from './apiMethods';
-import { RESULT_ROWS, valueAtPath, type ResultRowSpec } from '../../core/report/resultRows';
+import { RESULT_ROWS, TRANSITION_ROWS, valueAtPath, type ResultRowSpec } from '../../core/report/resultRows';
 
 type Json = Record<string, unknown>;
 
@@ -92,6 +92,19 @@ function fitSummaryProblem(value: unknown): string | null {
   if (!isCount(value.samplesUsed)) return 'samplesUsed must be a count';
   if (!isObject(value.window) || !isNumberOrNull(value.window.start) || !isNumberOrNull(value.window.end)) return 'window must give start and end';
   if (!Array.isArray(value.warnings) || !value.warnings.every((w) => isText(w, 10 * MAX_TEXT))) return 'warnings must be a list of text';
+  return value.transitions === undefined ? null : transitionsProblem(value.transitions);
+}
+
+/** The transition metrics the reports show (the row table's), each a quantity or null from the model, a number or null as measured. */
+function transitionsProblem(value: unknown): string | null {
+  if (!isObject(value) || !isText(value.levelMethod) || (value.reason !== null && !isText(value.reason))) return 'transitions must give levelMethod and reason';
+  for (const row of TRANSITION_ROWS) {
+    if (value.model !== null && !(isObject(value.model) && (value.model[row.name] === null || isQuantity(value.model[row.name])))) {
+      return `transitions.model.${row.name} must be a quantity or null`;
+    }
+    if (value.measured !== null && !(isObject(value.measured) && isNumberOrNull(value.measured[row.name]))) return `transitions.measured.${row.name} must be a number or null`;
+  }
+  if (!Array.isArray(value.warnings) || !value.warnings.every((w) => isText(w, 10 * MAX_TEXT))) return 'transitions.warnings must be a list of text';
   return null;
 }
 

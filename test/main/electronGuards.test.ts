@@ -9,6 +9,7 @@ import { argumentProblem, isAbsolutePath, isApiMethod, isBenchLogRequest, isReso
 import { createApiDispatch } from '../../main/api/dispatch';
 import { BenchApiError } from '../../main/api/apiError';
 import { registerIpcHandlers } from '../../main/electron/ipcHandlers';
+import { sampleTransitions } from '../fixtures/benchLog/sampleRecord';
 import { BENCH_CALLS, MENU_COMMANDS as RENDERER_MENU_COMMANDS, type BenchCalls } from '../../renderer/bridgeTypes';
 
 const electron = vi.hoisted(() => ({
@@ -156,6 +157,8 @@ describe('argument guards', () => {
       components: { topology: 'series', known: 'C=47u', R: q(0.8, 'ohm'), L: q(6.8e-6, 'H'), C: q(47e-6, 'F') },
     });
     expect(isBenchLogRequest(request)).toBe(true);
+    (request.fit as Record<string, unknown>).transitions = sampleTransitions();
+    expect(isBenchLogRequest(request)).toBe(true);
   });
 
   it.each([
@@ -167,6 +170,7 @@ describe('argument guards', () => {
     ['no zeta', (r: Record<string, unknown>) => delete (r.fit as Record<string, unknown>).zeta, /fit: zeta must be a quantity/],
     ['omega_d as text', (r: Record<string, unknown>) => ((r.fit as Record<string, unknown>).omegaD = '55 krad/s'), /fit: omegaD must be a quantity/],
     ['components without a quantity R', (r: Record<string, unknown>) => ((r.fit as Record<string, unknown>).components = { topology: 'series', known: 'C=47u', R: 0.8 }), /fit: components\.R must be a quantity/],
+    ['a transition metric as text', (r: Record<string, unknown>) => ((r.fit as Record<string, unknown>).transitions = { ...sampleTransitions(), model: { ...sampleTransitions().model, riseTime: '5 ns' } }), /fit: transitions\.model\.riseTime must be a quantity or null/],
     ['settings without sortTime', (r: Record<string, unknown>) => delete (r.settings as Record<string, unknown>).sortTime, /settings/],
     ['a verdict of the wrong shape', (r: Record<string, unknown>) => (r.verdict = { pass: 'yes' }), /verdict/],
     ['cautions without the list', (r: Record<string, unknown>) => (r.cautions = {}), /cautions/],
