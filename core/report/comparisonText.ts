@@ -1,8 +1,42 @@
-// A before/after comparison as the readable table the command line prints.
+// A before/after comparison of two captures: its result (made by core/workflow/compare) and the readable
+// table the command line prints.
 
 import { formatCautionsText } from '../safety/cautionText';
 import { formatMeasured } from '../units/format';
-import type { Comparison } from '../workflow/compare';
+import type { Quantity } from '../quantity';
+import type { CautionResult } from '../safety/evaluateCautions';
+import type { FitSummary } from './fitSummary';
+
+export interface QuantityChange {
+  name: string;
+  before: Quantity;
+  after: Quantity;
+  /** after - before, with the combined standard uncertainty sqrt(u_before^2 + u_after^2) (independent captures). */
+  difference: Quantity;
+  /** difference / |before|; null when before is zero. */
+  relative: number | null;
+  /** |difference| / its standard uncertainty; null when an uncertainty is unknown. */
+  sigmas: number | null;
+  /** sigmas > the coverage factor; null when unknown. */
+  significant: boolean | null;
+}
+
+export type ChangeVerdict = 'changed' | 'no significant change' | 'undetermined';
+
+export interface Comparison {
+  before: FitSummary;
+  after: FitSummary;
+  beforeCautions: CautionResult;
+  afterCautions: CautionResult;
+  quantities: QuantityChange[];
+  /** The joint chi-square of the (alpha, omega0) change, 2 degrees of freedom; null when it cannot be formed. */
+  jointChiSquare: number | null;
+  verdict: ChangeVerdict;
+  /** One sentence: why this verdict. */
+  reason: string;
+  coverageFactor: number;
+  notes: string[];
+}
 
 export function formatComparisonText(c: Comparison): string {
   let text = `before  ${c.before.file} (${c.before.channel}): ${c.before.status}, ${c.before.regime}\n`;

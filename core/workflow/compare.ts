@@ -6,6 +6,7 @@ import { alphaOmega0Correlation } from '../fit/correlation';
 import { quantity, type Quantity } from '../quantity';
 import { hertz } from '../report/resultRows';
 import type { FitSummary } from '../report/fitSummary';
+import type { ChangeVerdict, Comparison, QuantityChange } from '../report/comparisonText';
 import { measureCapture, type MeasureRequest, type MeasureResult } from './measure';
 import type { KnownPartRequest } from './measuredComponents';
 
@@ -27,37 +28,6 @@ export interface CompareRequest {
   after: ComparisonSide;
   /** The same known part for both: R, L and C are compared too. */
   knownPart?: KnownPartRequest;
-}
-
-export interface QuantityChange {
-  name: string;
-  before: Quantity;
-  after: Quantity;
-  /** after - before, with the combined standard uncertainty sqrt(u_before^2 + u_after^2) (independent captures). */
-  difference: Quantity;
-  /** difference / |before|; null when before is zero. */
-  relative: number | null;
-  /** |difference| / its standard uncertainty; null when an uncertainty is unknown. */
-  sigmas: number | null;
-  /** sigmas > COVERAGE_FACTOR; null when unknown. */
-  significant: boolean | null;
-}
-
-export type ChangeVerdict = 'changed' | 'no significant change' | 'undetermined';
-
-export interface Comparison {
-  before: MeasureResult['summary'];
-  after: MeasureResult['summary'];
-  beforeCautions: MeasureResult['cautions'];
-  afterCautions: MeasureResult['cautions'];
-  quantities: QuantityChange[];
-  /** The joint chi-square of the (alpha, omega0) change, 2 degrees of freedom; null when it cannot be formed. */
-  jointChiSquare: number | null;
-  verdict: ChangeVerdict;
-  /** One sentence: why this verdict. */
-  reason: string;
-  coverageFactor: number;
-  notes: string[];
 }
 
 export function compareCaptures(request: CompareRequest): Comparison {

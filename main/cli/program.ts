@@ -11,10 +11,11 @@ import { registerReportCommand } from './commands/report';
 import { registerBatchCommand } from './commands/batch';
 import { registerCheckCommand } from './commands/check';
 import { registerParasiticsCommand } from './commands/parasitics';
+import { registerCompareCommand } from './commands/compare';
 import { VERSION } from '../version';
 import type { CommandContext, RegisterCommand } from './commandContext';
 
-const COMMANDS: RegisterCommand[] = [registerFitCommand, registerCheckCommand, registerParasiticsCommand, registerServeCommand, registerStartCommand, registerLogCommand, registerReportCommand, registerBatchCommand];
+const COMMANDS: RegisterCommand[] = [registerFitCommand, registerCheckCommand, registerParasiticsCommand, registerCompareCommand, registerServeCommand, registerStartCommand, registerLogCommand, registerReportCommand, registerBatchCommand];
 
 /** Run the command line on `argv` (without node and script) and return the exit code. */
 export async function runCli(argv: string[], io: CliIo): Promise<number> {

@@ -9,7 +9,8 @@ import { fileURLToPath } from 'node:url';
 import { startBenchServer, type RunningBenchServer } from '../../main/server/benchServer';
 import { createApiDispatch } from '../../main/api/dispatch';
 import { createBenchApi } from '../../main/api/benchApi';
-import { fitFile } from '../../main/cli/commands/fit';
+import { measureFile } from '../../main/app/measureFile';
+import type { FitSummary } from '../../core/report/fitSummary';
 import { evaluateCautions } from '../../core/safety/evaluateCautions';
 import type { BenchLogRequest } from '../../core/bench/benchApiTypes';
 
@@ -18,7 +19,7 @@ const sampleFile = join(root, 'sample-captures', 'input-filter-step.csv');
 let server: RunningBenchServer;
 let folder: string;
 let logPath: string;
-let summary: ReturnType<typeof fitFile>;
+let summary: FitSummary;
 
 async function call(method: string, ...args: unknown[]): Promise<{ status: number; body: { ok: boolean; value?: any; error?: string; code?: string } }> {
   const response = await fetch(`${server.origin}/api/${method}`, {
@@ -31,7 +32,7 @@ async function call(method: string, ...args: unknown[]): Promise<{ status: numbe
 
 beforeAll(async () => {
   // Fitted before the server starts: a long synchronous fit must not stall its idle connections.
-  summary = fitFile(sampleFile, { topology: 'series', known: 'C=47u' }, root);
+  summary = measureFile(sampleFile, { topology: 'series', known: 'C=47u' }, root).summary;
   folder = mkdtempSync(join(tmpdir(), 'ringbench-api-'));
   mkdirSync(join(folder, 'renderer'));
   writeFileSync(join(folder, 'renderer', 'index.html'), '<!doctype html>');

@@ -5,10 +5,11 @@ import type { Command } from 'commander';
 import { readdirSync, statSync } from 'node:fs';
 import { basename, extname, join, resolve } from 'node:path';
 import type { CommandContext } from '../commandContext';
-import { fitOptionsOf, type LogAddOptions } from './log';
-import { addCaptureOptions, addComponentOptions } from './fit';
+import type { LogAddOptions } from './log';
+import { addCaptureOptions, addComponentOptions, measureSettingsOf } from '../measureOptions';
 import { appendBenchLog, requireLogFolder } from '../../io/benchLog';
-import { createBenchRecord, loadDesignFile, measureFile, type Measurement } from '../../app/benchLogRecord';
+import { createBenchRecord } from '../../app/benchLogRecord';
+import { loadDesignFile, measureFile, type FileMeasurement } from '../../app/measureFile';
 import { briefValue } from '../../../core/report/resultRows';
 import { EXIT, messageFor } from '../errors';
 import { UsageError } from '../../../core/inputError';
@@ -20,7 +21,7 @@ type BatchOptions = Omit<LogAddOptions, 'log' | 'unit'> & { log?: string };
 
 interface BatchEntry {
   file: string;
-  measurement?: Measurement;
+  measurement?: FileMeasurement;
   error?: string;
 }
 
@@ -59,15 +60,15 @@ export function registerBatchCommand(program: Command, ctx: CommandContext): voi
       const design = options.design === undefined ? null : loadDesignFile(options.design, ctx.io.cwd);
       const files = listCaptureFiles(folder);
       if (!files.length) throw new FileError(`no capture files (*.csv, *.txt, *.dat) in '${dir}'`);
-      const fitOptions = fitOptionsOf(options);
+      const settings = measureSettingsOf(options);
       const operator = options.operator?.trim() || null;
 
       const entries: BatchEntry[] = files.map((name, i) => {
         if (ctx.io.interactive) ctx.io.err(`[${i + 1}/${files.length}] ${name}\n`);
         try {
-          const measurement = measureFile(join(folder, name), fitOptions, ctx.io.cwd, design);
+          const measurement = measureFile(join(folder, name), settings, ctx.io.cwd, design);
           if (logPath && measurement.summary.status !== 'failed') {
-            const record = createBenchRecord(measurement, { unit: basename(name, extname(name)), operator, note: null }, fitOptions);
+            const record = createBenchRecord(measurement, { unit: basename(name, extname(name)), operator, note: null }, settings);
             appendBenchLog(logPath, record);
           }
           return { file: name, measurement };

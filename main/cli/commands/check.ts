@@ -2,14 +2,14 @@
 
 import type { Command } from 'commander';
 import type { CommandContext } from '../commandContext';
-import { addCaptureOptions, type FitCommandOptions } from './fit';
-import { loadDesignFile, measureFile } from '../../app/benchLogRecord';
+import { addCaptureOptions, measureSettingsOf, type MeasureCommandOptions } from '../measureOptions';
+import { loadDesignFile, measureFile } from '../../app/measureFile';
 import { formatFitText } from '../../../core/report/fitText';
 import { formatVerdictText } from '../../../core/report/verdictText';
 import { formatCautionsText } from '../../../core/safety/cautionText';
 import { EXIT } from '../errors';
 
-interface CheckCommandOptions extends FitCommandOptions {
+interface CheckCommandOptions extends MeasureCommandOptions {
   design: string;
 }
 
@@ -23,8 +23,7 @@ export function registerCheckCommand(program: Command, ctx: CommandContext): voi
     .option('--json', 'print one JSON object instead of the table')
     .action((file: string, options: CheckCommandOptions) => {
       const design = loadDesignFile(options.design, ctx.io.cwd);
-      const { design: _design, ...fitOptions } = options;
-      const m = measureFile(file, fitOptions, ctx.io.cwd, design);
+      const m = measureFile(file, measureSettingsOf(options), ctx.io.cwd, design);
       if (options.json) {
         ctx.io.out(`${JSON.stringify({ ...m.summary, design: design.design.name, verdict: m.verdict, cautions: m.cautions })}\n`);
       } else {

@@ -3,9 +3,10 @@
 import type { Command } from 'commander';
 import { resolve } from 'node:path';
 import type { CommandContext } from '../commandContext';
-import { addCaptureOptions, addComponentOptions, type FitCommandOptions } from './fit';
+import { addCaptureOptions, addComponentOptions, measureSettingsOf, type MeasureCommandOptions } from '../measureOptions';
 import { appendBenchLog, describeTornTail, readCleanBenchLog, requireLogFolder } from '../../io/benchLog';
-import { createBenchRecord, loadDesignFile, measureFile } from '../../app/benchLogRecord';
+import { createBenchRecord } from '../../app/benchLogRecord';
+import { loadDesignFile, measureFile } from '../../app/measureFile';
 import { checkLabel } from '../../app/labels';
 import { formatFitText } from '../../../core/report/fitText';
 import { formatVerdictText } from '../../../core/report/verdictText';
@@ -13,7 +14,7 @@ import { formatLogTable } from '../../../core/report/logTable';
 import { formatCautionsText } from '../../../core/safety/cautionText';
 import { EXIT } from '../errors';
 
-export interface LogAddOptions extends FitCommandOptions {
+export interface LogAddOptions extends MeasureCommandOptions {
   log: string;
   unit: string;
   design?: string;
@@ -47,15 +48,15 @@ export function registerLogCommand(program: Command, ctx: CommandContext): void 
       };
       requireLogFolder(logPath);
       const design = options.design === undefined ? null : loadDesignFile(options.design, ctx.io.cwd);
-      const fitOptions = fitOptionsOf(options);
-      const measurement = measureFile(file, fitOptions, ctx.io.cwd, design);
+      const settings = measureSettingsOf(options);
+      const measurement = measureFile(file, settings, ctx.io.cwd, design);
       if (measurement.summary.status === 'failed') {
         ctx.io.out(options.json ? `${JSON.stringify({ logged: null, fit: measurement.summary })}\n` : formatFitText(measurement.summary));
         ctx.io.err(`ringbench: the fit failed, nothing was logged: ${measurement.summary.message}\n`);
         ctx.setExitCode(EXIT.failure);
         return;
       }
-      const record = createBenchRecord(measurement, label, fitOptions);
+      const record = createBenchRecord(measurement, label, settings);
       const appended = appendBenchLog(logPath, record);
       if (appended.repairedTail) {
         ctx.io.err(`ringbench: note: the log ended in a cut-off line ${appended.repairedTail.line}; it was saved to ${appended.repairedTail.savedTo}\n`);
@@ -90,10 +91,3 @@ export function registerLogCommand(program: Command, ctx: CommandContext): void 
       if (contents.torn) ctx.io.err(`ringbench: note: ${describeTornTail(options.log, contents.torn)}\n`);
     });
 }
-
-/** The fit options alone (what `fitFile` and the record's settings take). */
-export function fitOptionsOf(options: FitCommandOptions): FitCommandOptions {
-  const { topology, known, column, sampleInterval, from, to, sortTime } = options;
-  return { topology, known, column, sampleInterval, from, to, sortTime };
-}
-

@@ -1,0 +1,36 @@
+// The options every fitting command takes, documented once: which channel and window, how to read the
+// time axis, and the known part that gives R, L and C.
+
+import type { Command } from 'commander';
+import type { MeasureSettings } from '../../core/workflow/measureSettings';
+
+/** The measuring options as commander hands them over, plus --json. */
+export interface MeasureCommandOptions extends MeasureSettings {
+  json?: boolean;
+}
+
+/** --column, --sample-interval, --from, --to, --sort-time. */
+export function addCaptureOptions(command: Command): Command {
+  return command
+    .option('--column <name|index>', 'channel to fit: its name or 0-based index (default: the first)')
+    .option('--sample-interval <time>', 'sample interval when the file has no time column, e.g. 2n')
+    .option('--from <time>', 'start of the fit window (default: found from the data)')
+    .option('--to <time>', 'end of the fit window (default: found from the data)')
+    .option('--sort-time', 'sort out-of-order time stamps instead of failing');
+}
+
+/** --topology and --known: derive R, L and C from the fit. */
+export function addComponentOptions(command: Command): Command {
+  return command
+    .option('--topology <kind>', 'series or parallel: derive R, L, C (needs --known)')
+    .option(
+      '--known <NAME=VALUE[,TOL]>',
+      'one known component, tolerance in % (5 and 5% both mean 5 %), read as a rectangular half-width (u = tol/√3, GUM 4.3.7), e.g. C=470n or L=2.2u,10',
+    );
+}
+
+/** The measuring settings alone, without --json and command-specific options. */
+export function measureSettingsOf(options: MeasureCommandOptions): MeasureSettings {
+  const { topology, known, column, sampleInterval, from, to, sortTime } = options;
+  return { topology, known, column, sampleInterval, from, to, sortTime };
+}
