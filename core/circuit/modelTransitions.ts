@@ -86,10 +86,13 @@ export function modelTransitions(fit: ModelFitInput): ModelTransitionsResult {
     if (ga === null || gw === null) return null;
     return Math.sqrt(Math.max(0, ga * ga * sa * sa + gw * gw * sw * sw + 2 * rho * ga * gw * sa * sw));
   };
-  const settlingJump = (pick: (m: Metrics) => number, band: string, se: number | null) => {
-    if (sa === null || sw === null || se === null) return;
-    // Settling jumps by about half a ring period where a peak crosses the band edge: a jump within one
-    // standard error of alpha or omega0 makes the linear standard error an understatement.
+  /**
+   * Settling jumps by about half a ring period where a peak crosses the band edge: a jump within one
+   * standard error of alpha or omega0 makes the linear standard error an understatement, so the
+   * standard error is widened to the largest move seen within one standard error (never a tight wrong number).
+   */
+  const settlingError = (pick: (m: Metrics) => number, band: string, se: number | null): number | null => {
+    if (sa === null || sw === null || se === null) return se;
     const spread = [
       { ...shape, alpha: shape.alpha + sa },
       { ...shape, alpha: shape.alpha - sa },
@@ -97,16 +100,14 @@ export function modelTransitions(fit: ModelFitInput): ModelTransitionsResult {
       { ...shape, omega0: shape.omega0 - sw },
     ].map((s) => Math.abs(pick(shapeMetrics(s)) - pick(base)));
     const largest = Math.max(...spread);
-    if (largest > 3 * se + 1e-12 * pick(base)) {
-      warnings.push(
-        `the model's ${band} settling time sits near a jump (a peak grazing the band edge): within one standard error of alpha or omega0 it moves by ${largest.toPrecision(2)} s, more than its stated standard error.`,
-      );
-    }
+    if (!(largest > 3 * se + 1e-12 * pick(base))) return se;
+    warnings.push(
+      `the model's ${band} settling time sits near a jump (a peak grazing the band edge): within one standard error of alpha or omega0 it moves by ${largest.toPrecision(2)} s, so its standard error is widened to that.`,
+    );
+    return largest;
   };
-  const se2 = errors((m) => m.settling2);
-  const se5 = errors((m) => m.settling5);
-  settlingJump((m) => m.settling2, '2 %', se2);
-  settlingJump((m) => m.settling5, '5 %', se5);
+  const se2 = settlingError((m) => m.settling2, '2 %', errors((m) => m.settling2));
+  const se5 = settlingError((m) => m.settling5, '5 %', errors((m) => m.settling5));
   if (sa === null || sw === null) warnings.push('alpha or omega0 has no standard error: the model metrics carry none either.');
   return {
     reason: null,
