@@ -347,3 +347,49 @@ describe('import circles', () => {
     expect(importCircles(probe)).toEqual(['a.ts -> b.ts -> c.ts -> a.ts', 'e.ts -> e.ts', 'f.ts -> g.ts -> f.ts', 'h.ts -> g.ts -> h.ts']);
   });
 });
+
+/** Our modules each file loads at run time: value imports only (`import type` and `export type` are erased). */
+function runtimeImports(file: string): string[] {
+  const text = readFileSync(path.join(ROOT, file), 'utf8');
+  const pattern = /(?:^|\n)\s*(?:import|export)\s(?!type\s)[^'"]*?from\s*['"](\.[^'"]+)['"]|(?:^|\n)\s*import\s*['"](\.[^'"]+)['"]|import\(\s*['"](\.[^'"]+)['"]\s*\)/g;
+  return [...text.matchAll(pattern)]
+    .map((m) => rel(resolveImport(path.join(ROOT, file), m[1] ?? m[2] ?? m[3]) as string))
+    .filter((target) => existsSync(path.join(ROOT, target)));
+}
+
+/** Every module `entry` loads at run time, itself included. */
+function loadedBy(entry: string, imports: (file: string) => string[]): Set<string> {
+  const seen = new Set<string>();
+  const stack = [entry];
+  while (stack.length) {
+    const file = stack.pop() as string;
+    if (seen.has(file)) continue;
+    seen.add(file);
+    stack.push(...imports(file));
+  }
+  return seen;
+}
+
+describe('start-up weight of the shells', () => {
+  // The window fits in its worker; the Electron main process and the bench server only read and write
+  // files, so loading the fitting code there would only slow their start.
+  for (const entry of ['main/electron/main.ts', 'main/server/serveBench.ts']) {
+    it(`${entry} loads no fitting code`, () => {
+      const fitting = [...loadedBy(entry, runtimeImports)].filter((file) => file.startsWith('core/fit/'));
+      expect(fitting).toEqual([]);
+    });
+  }
+
+  it('the walk follows value imports and skips type imports (probe)', () => {
+    const probe = new Map([
+      ['a.ts', ['b.ts']],
+      ['b.ts', ['c.ts']],
+      ['c.ts', []],
+    ]);
+    expect([...loadedBy('a.ts', (file) => probe.get(file) ?? [])].sort()).toEqual(['a.ts', 'b.ts', 'c.ts']);
+    // preload.ts: `import type { ApiMethod } from '../api/apiMethods'` beside value imports of channels.ts.
+    const preload = runtimeImports('main/electron/preload.ts');
+    expect(preload).toContain('main/electron/channels.ts');
+    expect(preload).not.toContain('main/api/apiMethods.ts');
+  });
+});
