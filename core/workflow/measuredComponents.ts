@@ -2,6 +2,7 @@
 
 import { componentsFromResponse, type KnownComponent, type Topology } from '../circuit/components';
 import { COMPONENT_UNITS } from '../circuit/relations';
+import { toleranceToRelativeUncertainty } from '../circuit/tolerance';
 import { alphaOmega0Correlation } from '../fit/correlation';
 import type { ResponseFit } from '../fit/fitResponse';
 import type { FitSummary } from '../report/fitSummary';
@@ -13,9 +14,15 @@ export interface KnownPartRequest {
   known: KnownComponent;
 }
 
-/** 'C = 47 µF ± 5 %': the known part as every face writes it. */
+/**
+ * 'C = 47 µF' or 'C = 47 µF ± 5 % (rectangular half-width: u = tol/√3 = 2.89 %, GUM 4.3.7)': the known part
+ * as every face writes it, saying how its tolerance enters the uncertainties.
+ */
 export function describeKnownPart(known: KnownComponent): string {
-  const tolerance = known.tolerance ? ` ± ${+(known.tolerance * 100).toPrecision(3)} %` : '';
+  const percent = (fraction: number) => `${+(fraction * 100).toPrecision(3)} %`;
+  const tolerance = known.tolerance
+    ? ` ± ${percent(known.tolerance)} (rectangular half-width: u = tol/√3 = ${percent(toleranceToRelativeUncertainty(known.tolerance))}, GUM 4.3.7)`
+    : '';
   return `${known.name} = ${formatEngineering(known.value, COMPONENT_UNITS[known.name])}${tolerance}`;
 }
 
