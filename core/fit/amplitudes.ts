@@ -1,10 +1,10 @@
 // The linear part of the response (levels and amplitudes) by least squares for given alpha, omega0, t0.
 
 import { fillDampedBasis, type BlockAverage } from '../response/secondOrder';
-import { LAYOUT_NAMES, nonlinearCount, type ParameterLayout } from './responseModel';
+import { LAYOUTS, type ParameterLayout } from './responseModel';
 
 export interface LinearSolution {
-  /** The linear parameters of the layout, in LAYOUT_NAMES order after the nonlinear ones. */
+  /** The linear parameters of the layout, in the order of its descriptor's `linear`. */
   coefficients: number[];
   /** Residual sum of squares over the samples used. */
   sse: number;
@@ -58,56 +58,26 @@ export class Workspace {
   /** Share of each value's samples at or after t0 (see fillDampedBasis). */
   readonly after: Float64Array;
   readonly model: Float64Array;
+  /** Basis columns of the linear part, as many as the largest layout solved so far needed. */
+  private readonly columns: Float64Array[] = [];
   constructor(readonly length: number) {
     this.ec = new Float64Array(length);
     this.es = new Float64Array(length);
     this.after = new Float64Array(length);
     this.model = new Float64Array(length);
   }
-}
 
-/**
- * The linear basis row of a layout at one value: the pre-event row weighted by the share of its samples
- * before t0, plus the response row (from the damped basis there) weighted by the share at or after it.
- */
-function basisRow(layout: ParameterLayout, alpha: number, after: number, ec: number, es: number, g: Float64Array): void {
-  responseRow(layout, alpha, ec, es, g);
-  if (after === 1) return;
-  for (let p = 0; p < g.length; p++) g[p] *= after;
-  // Every layout's first linear parameter is the level before the event ('free' has none: its values start at t0).
-  if (layout !== 'free') g[0] += 1 - after;
-}
-
-function responseRow(layout: ParameterLayout, alpha: number, ec: number, es: number, g: Float64Array): void {
-  switch (layout) {
-    case 'smooth': {
-      const shape = ec + alpha * es;
-      g[0] = shape;
-      g[1] = 1 - shape;
-      return;
-    }
-    case 'step':
-      g[0] = ec;
-      g[1] = 1 - ec;
-      g[2] = es;
-      return;
-    case 'free-pre':
-      g[0] = 0;
-      g[1] = 1;
-      g[2] = ec;
-      g[3] = es;
-      return;
-    case 'free':
-      g[0] = 1;
-      g[1] = ec;
-      g[2] = es;
-      return;
+  /** The first `count` basis columns. */
+  basisColumns(count: number): Float64Array[] {
+    while (this.columns.length < count) this.columns.push(new Float64Array(this.length));
+    return this.columns.slice(0, count);
   }
 }
 
 /**
  * Linear parameters minimising the squared error for fixed alpha, omega0 and t0; the model values
- * are left in workspace.model. In the 'free' layout values with samples before t0 are not part of the fit.
+ * are left in workspace.model. In a layout without a pre-event level, values with samples before t0 are
+ * not part of the fit.
  */
 export function solveAmplitudes(
   layout: ParameterLayout,
@@ -119,34 +89,53 @@ export function solveAmplitudes(
   workspace: Workspace = new Workspace(time.length),
   block: BlockAverage | null = null,
 ): LinearSolution {
-  const k = LAYOUT_NAMES[layout].length - nonlinearCount(layout);
+  const descriptor = LAYOUTS[layout];
+  const k = descriptor.linear.length;
   const n = time.length;
   const { ec, es, after, model } = workspace;
   fillDampedBasis(alpha, omega0, t0, time, ec, es, block, after);
+  const columns = workspace.basisColumns(k);
+  descriptor.fillColumns(columns, alpha, ec, es);
+  mixPreLevel(columns, descriptor.preLevelColumn, after);
+  const skipBefore = descriptor.preLevelColumn === null;
   const m = new Float64Array(k * k);
   const r = new Float64Array(k);
-  const g = new Float64Array(k);
-  const skipBefore = layout === 'free';
-  for (let i = 0; i < n; i++) {
-    if (after[i] < 1 && skipBefore) continue;
-    basisRow(layout, alpha, after[i], ec[i], es[i], g);
-    const y = values[i];
-    for (let p = 0; p < k; p++) {
-      r[p] += g[p] * y;
-      for (let q = p; q < k; q++) m[p * k + q] += g[p] * g[q];
-    }
+  for (let p = 0; p < k; p++) {
+    r[p] = dot(columns[p], values, n, after, skipBefore);
+    for (let q = p; q < k; q++) m[p * k + q] = dot(columns[p], columns[q], n, after, skipBefore);
   }
   for (let p = 0; p < k; p++) for (let q = 0; q < p; q++) m[p * k + q] = m[q * k + p];
   const coefficients = solveNormal(m, r, k);
   let sse = 0;
   for (let i = 0; i < n; i++) {
-    basisRow(layout, alpha, after[i], ec[i], es[i], g);
     let y = 0;
-    for (let p = 0; p < k; p++) y += g[p] * coefficients[p];
+    for (let p = 0; p < k; p++) y += columns[p][i] * coefficients[p];
     model[i] = y;
     if (after[i] < 1 && skipBefore) continue;
     const d = values[i] - y;
     sse += d * d;
   }
   return { coefficients, sse };
+}
+
+/**
+ * Turns the response basis into the basis at each value: the response row weighted by the share of the
+ * value's samples at or after t0, plus the pre-event row (the level before the event) by the share before.
+ */
+function mixPreLevel(columns: readonly Float64Array[], preLevelColumn: number | null, after: Float64Array): void {
+  for (const column of columns) for (let i = 0; i < column.length; i++) if (after[i] !== 1) column[i] *= after[i];
+  if (preLevelColumn === null) return;
+  const level = columns[preLevelColumn];
+  for (let i = 0; i < level.length; i++) if (after[i] !== 1) level[i] += 1 - after[i];
+}
+
+/** Sum of a[i] b[i] over the first n values in order, without those with samples before t0 when skipBefore. */
+function dot(a: ArrayLike<number>, b: ArrayLike<number>, n: number, after: Float64Array, skipBefore: boolean): number {
+  let sum = 0;
+  if (skipBefore) {
+    for (let i = 0; i < n; i++) if (!(after[i] < 1)) sum += a[i] * b[i];
+  } else {
+    for (let i = 0; i < n; i++) sum += a[i] * b[i];
+  }
+  return sum;
 }

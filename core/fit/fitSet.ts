@@ -1,6 +1,6 @@
 // The samples a response fit uses: unclipped, inside the window, block-averaged when very long.
 
-import type { Trace } from './fitResponse';
+import type { Trace } from './trace';
 import type { BlockAverage } from '../response/secondOrder';
 import { estimateNoise, median } from './noise';
 import { FitInputError } from './fitInputError';
@@ -21,6 +21,8 @@ export interface FitSet {
   warnings: string[];
 }
 
+/** Fewest usable samples a response fit runs on: a handful per parameter, with the event among them. */
+export const MIN_FIT_SAMPLES = 20;
 /** Above this many samples the fit runs on block means (the poles of a damped exponential survive averaging). */
 export const MAX_FIT_POINTS = 3000;
 /** A block spans at most this fraction of the shortest period the sampling could carry. */

@@ -78,3 +78,11 @@ export function recordNoise(values: ArrayLike<number>): number {
   const spread = robustSpread(head);
   return spread > HEAD_NOISE_GATE * fromDifferences ? Math.min(spread, HEAD_NOISE_CAP * fromDifferences) : fromDifferences;
 }
+
+/** Share of the data's range below which a noise level is not trusted (a record with no measurable noise). */
+const NOISE_FLOOR_SHARE = 1e-12;
+
+/** The noise level a residual is compared against: the noise, but never zero for a noiseless record. */
+export function noiseFloor(noise: number, range: number): number {
+  return Math.max(noise, NOISE_FLOOR_SHARE * range);
+}

@@ -1,7 +1,7 @@
 // Covariance of the response parameters: Jacobian at the solution, as a sandwich over the residuals' noise model when they are correlated.
 
 import { covarianceFromJacobian, sandwichCovariance } from './covariance';
-import { LAYOUT_NAMES, layoutValues, type ParameterLayout } from './responseModel';
+import { LAYOUTS, layoutValues, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
 
 export interface ResponseCovariance {
@@ -15,10 +15,10 @@ export interface ResponseCovariance {
 
 /** Central-difference Jacobian of the model over the fit set, steps relative to each parameter's size. */
 function responseJacobian(set: FitSet, layout: ParameterLayout, values: readonly number[], t0Fixed: number): Float64Array[] {
-  const names = LAYOUT_NAMES[layout];
+  const { names, index } = LAYOUTS[layout];
   const n = set.time.length;
   const rows = Array.from({ length: n }, () => new Float64Array(values.length));
-  const rate = values[1];
+  const rate = values[index.omega0];
   for (let j = 0; j < values.length; j++) {
     const floor = names[j] === 't0' ? 1 / rate : names[j] === 'b' ? set.range * rate : names[j].startsWith('y') || names[j] === 'a' ? set.range : rate;
     const h = 1e-6 * Math.max(Math.abs(names[j] === 't0' ? 0 : values[j]), floor);
@@ -142,7 +142,8 @@ export function responseCovariance(
   t0Fixed: number,
   residualVariance: number,
 ): ResponseCovariance {
-  const names = LAYOUT_NAMES[layout];
+  const { names: layoutNames, index } = LAYOUTS[layout];
+  const names = [...layoutNames];
   const model = layoutValues(layout, values, t0Fixed, set.time, set.block);
   const residuals = set.values.map((y, i) => y - model[i]);
   const J = responseJacobian(set, layout, values, t0Fixed);
@@ -154,8 +155,7 @@ export function responseCovariance(
   const noise = bread ? residualNoiseModel(residuals) : null;
   if (!bread || !plain || !noise) return { names, covariance: plain, correlation: estimate.correlation, inflation: 1, warnings };
   const { covariance, correlation } = correlatedCovariance(J, bread, residuals, noise);
-  // alpha and omega0 lead every layout.
-  const ratios = [0, 1].map((j) => covariance[j][j] / plain[j][j]);
+  const ratios = [index.alpha, index.omega0].map((j) => covariance[j][j] / plain[j][j]);
   if (Math.max(...ratios) > WARN_INFLATION) {
     const [alpha, omega0] = ratios.map((r) => Math.sqrt(r).toFixed(2));
     warnings.push(

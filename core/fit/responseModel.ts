@@ -1,45 +1,195 @@
-// The constraint layouts of the response model: which parameters are free, and the basis of its linear part.
+// The parameter layouts of the response fit, one descriptor each: which parameters are free, how the
+// linear part's basis is filled, and how a fitted vector becomes ResponseParams.
+//
+// Adding a model or a layout: write one descriptor with defineLayout below and add it to LAYOUTS, then
+// add its recovery cases to the tests (test/core/fitResponse.test.ts). A descriptor names its nonlinear
+// parameters (found by the solver; 't0' among them means the event time is fitted) and its linear ones
+// (solved exactly for every trial of the nonlinear ones), says when it applies to a record, fills the
+// basis column of each linear parameter from the damped basis, and unpacks a fitted vector. Everything
+// reads parameters by name, so no other module depends on where a parameter sits in the vector.
+// The steps around the descriptors (refine.ts scales the solver by omega0, candidateRanking.ts and
+// halfPeriodShift.ts work on a ring) expect 'alpha' and 'omega0' among the nonlinear parameters.
 
 import { fillDampedBasis, type BlockAverage, type ResponseParams } from '../response/secondOrder';
+import type { Continuity } from './responseFit';
+
+/** What is known about a record before any layout is fitted. */
+export interface RecordShape {
+  /** Whether flat samples precede the event, so that t0 and the level before it can be fitted. */
+  hasPreEvent: boolean;
+  continuity: Continuity;
+}
+
+/** What the fit needs to know about one layout. */
+export interface LayoutDescriptor {
+  /** Parameters the solver varies, in the order of the parameter vector. */
+  readonly nonlinear: readonly string[];
+  /** Parameters solved by linear least squares for given nonlinear ones; they follow the nonlinear ones. */
+  readonly linear: readonly string[];
+  /** Every parameter: the nonlinear ones, then the linear ones (the parameter vector's order). */
+  readonly names: readonly string[];
+  /** Position of each parameter in the parameter vector, by name. */
+  readonly index: Readonly<Record<string, number>>;
+  /** Whether t0 is fitted; otherwise it is held at the start the caller gives. */
+  readonly fitsT0: boolean;
+  /**
+   * Column of the level before the event among the linear parameters, or null when the layout has
+   * none: then the values with samples before t0 are left out of the fit.
+   */
+  readonly preLevelColumn: number | null;
+  appliesTo(record: RecordShape): boolean;
+  /**
+   * The basis of the response after t0, one column per linear parameter (in `linear` order), from the
+   * damped basis ec, es at each value; the level before the event is mixed in by the caller.
+   */
+  fillColumns(columns: readonly Float64Array[], alpha: number, ec: Float64Array, es: Float64Array): void;
+  /** ResponseParams from a full parameter vector; fixedT0 is used when t0 is not fitted. */
+  unpack(values: readonly number[], fixedT0: number): ResponseParams;
+}
+
+interface LayoutSpec<N extends string, L extends string> {
+  nonlinear: readonly N[];
+  linear: readonly L[];
+  appliesTo(record: RecordShape): boolean;
+  /** Writes the basis column of every linear parameter, by name, for every value of ec and es. */
+  fillColumns(column: Readonly<Record<L, Float64Array>>, alpha: number, ec: Float64Array, es: Float64Array): void;
+  unpack(value: (name: N | L) => number, fixedT0: number): ResponseParams;
+}
+
+/** A descriptor from its parameter names and functions; the maps from names to positions are built here. */
+function defineLayout<const N extends string, const L extends string>(spec: LayoutSpec<N, L>): LayoutDescriptor {
+  const names: string[] = [...spec.nonlinear, ...spec.linear];
+  const index = Object.fromEntries(names.map((name, i) => [name, i])) as Record<N | L, number>;
+  const preLevel = (spec.linear as readonly string[]).indexOf('yPre');
+  return {
+    nonlinear: spec.nonlinear,
+    linear: spec.linear,
+    names,
+    index,
+    fitsT0: (spec.nonlinear as readonly string[]).includes('t0'),
+    preLevelColumn: preLevel >= 0 ? preLevel : null,
+    appliesTo: spec.appliesTo,
+    fillColumns: (columns, alpha, ec, es) => {
+      const column = Object.fromEntries(spec.linear.map((name, i) => [name, columns[i]])) as Record<L, Float64Array>;
+      spec.fillColumns(column, alpha, ec, es);
+    },
+    unpack: (values, fixedT0) => spec.unpack((name) => values[index[name]], fixedT0),
+  };
+}
 
 /**
- * 'smooth': continuous at t0 with zero initial slope (a capacitor voltage or inductor current that
- *   starts from rest: a step response, or a ringdown from a charged capacitor with no current).
- * 'step': continuous at t0 with any initial slope (the state variable jumps in slope only).
- * 'free-pre': the natural part starts anywhere (a measured quantity that jumps), t0 held.
- * 'free': no pre-event samples; t0 held at the start of the window, the pre-event level is y(t0+).
+ * Continuous at t0 with zero initial slope: a capacitor voltage or inductor current that starts from
+ * rest (a step response, or a ringdown from a charged capacitor with no current).
  */
-export type ParameterLayout = 'smooth' | 'step' | 'free-pre' | 'free';
+const smooth = defineLayout({
+  nonlinear: ['alpha', 'omega0', 't0'],
+  linear: ['yPre', 'yFinal'],
+  appliesTo: ({ hasPreEvent, continuity }) => hasPreEvent && continuity === 'continuous',
+  fillColumns: ({ yPre, yFinal }, alpha, ec, es) => {
+    for (let i = 0; i < ec.length; i++) {
+      const shape = ec[i] + alpha * es[i];
+      yPre[i] = shape;
+      yFinal[i] = 1 - shape;
+    }
+  },
+  unpack: (value) => ({
+    alpha: value('alpha'),
+    omega0: value('omega0'),
+    t0: value('t0'),
+    yPre: value('yPre'),
+    yFinal: value('yFinal'),
+    a: value('yPre') - value('yFinal'),
+    b: value('alpha') * (value('yPre') - value('yFinal')),
+  }),
+});
 
-/** Names of every parameter of a layout: the nonlinear ones first, then the linear ones. */
-export const LAYOUT_NAMES: Record<ParameterLayout, string[]> = {
-  smooth: ['alpha', 'omega0', 't0', 'yPre', 'yFinal'],
-  step: ['alpha', 'omega0', 't0', 'yPre', 'yFinal', 'b'],
-  'free-pre': ['alpha', 'omega0', 'yPre', 'yFinal', 'a', 'b'],
-  free: ['alpha', 'omega0', 'yFinal', 'a', 'b'],
-};
+/** Continuous at t0 with any initial slope (the state variable jumps in slope only). */
+const step = defineLayout({
+  nonlinear: ['alpha', 'omega0', 't0'],
+  linear: ['yPre', 'yFinal', 'b'],
+  appliesTo: ({ hasPreEvent, continuity }) => hasPreEvent && continuity === 'continuous',
+  fillColumns: ({ yPre, yFinal, b }, _alpha, ec, es) => {
+    for (let i = 0; i < ec.length; i++) {
+      yPre[i] = ec[i];
+      yFinal[i] = 1 - ec[i];
+      b[i] = es[i];
+    }
+  },
+  unpack: (value) => ({
+    alpha: value('alpha'),
+    omega0: value('omega0'),
+    t0: value('t0'),
+    yPre: value('yPre'),
+    yFinal: value('yFinal'),
+    a: value('yPre') - value('yFinal'),
+    b: value('b'),
+  }),
+});
 
-/** How many leading names are nonlinear (fitted by the solver; the rest follow by linear least squares). */
-export function nonlinearCount(layout: ParameterLayout): number {
-  return layout === 'smooth' || layout === 'step' ? 3 : 2;
+/** The natural part starts anywhere (a measured quantity that jumps); t0 held at the detected event. */
+const freePre = defineLayout({
+  nonlinear: ['alpha', 'omega0'],
+  linear: ['yPre', 'yFinal', 'a', 'b'],
+  appliesTo: ({ hasPreEvent, continuity }) => hasPreEvent && continuity === 'free',
+  fillColumns: ({ yPre, yFinal, a, b }, _alpha, ec, es) => {
+    yPre.fill(0);
+    yFinal.fill(1);
+    a.set(ec);
+    b.set(es);
+  },
+  unpack: (value, fixedT0) => ({
+    alpha: value('alpha'),
+    omega0: value('omega0'),
+    t0: fixedT0,
+    yPre: value('yPre'),
+    yFinal: value('yFinal'),
+    a: value('a'),
+    b: value('b'),
+  }),
+});
+
+/** No pre-event samples: t0 held at the start of the window, the pre-event level reported is y(t0+). */
+const free = defineLayout({
+  nonlinear: ['alpha', 'omega0'],
+  linear: ['yFinal', 'a', 'b'],
+  appliesTo: ({ hasPreEvent }) => !hasPreEvent,
+  fillColumns: ({ yFinal, a, b }, _alpha, ec, es) => {
+    yFinal.fill(1);
+    a.set(ec);
+    b.set(es);
+  },
+  unpack: (value, fixedT0) => ({
+    alpha: value('alpha'),
+    omega0: value('omega0'),
+    t0: fixedT0,
+    yPre: value('yFinal') + value('a'),
+    yFinal: value('yFinal'),
+    a: value('a'),
+    b: value('b'),
+  }),
+});
+
+/**
+ * Every layout, simpler before richer: among the layouts that apply to a record, a later one also
+ * starts from the first one's solution.
+ */
+export const LAYOUTS = { smooth, step, 'free-pre': freePre, free } satisfies Record<string, LayoutDescriptor>;
+
+export type ParameterLayout = keyof typeof LAYOUTS;
+
+/** The layouts that apply to a record, in the order they are tried. */
+export function layoutsFor(record: RecordShape): ParameterLayout[] {
+  return (Object.keys(LAYOUTS) as ParameterLayout[]).filter((layout) => LAYOUTS[layout].appliesTo(record));
 }
 
-export function fitsT0(layout: ParameterLayout): boolean {
-  return layout === 'smooth' || layout === 'step';
-}
+/** Names of every parameter of each layout, in the order of its parameter vector. */
+export const LAYOUT_NAMES = Object.fromEntries(
+  (Object.keys(LAYOUTS) as ParameterLayout[]).map((layout) => [layout, LAYOUTS[layout].names]),
+) as Record<ParameterLayout, readonly string[]>;
 
 /** ResponseParams from the full parameter vector of a layout. */
-export function unpackParams(layout: ParameterLayout, v: readonly number[], fixedT0: number): ResponseParams {
-  switch (layout) {
-    case 'smooth':
-      return { alpha: v[0], omega0: v[1], t0: v[2], yPre: v[3], yFinal: v[4], a: v[3] - v[4], b: v[0] * (v[3] - v[4]) };
-    case 'step':
-      return { alpha: v[0], omega0: v[1], t0: v[2], yPre: v[3], yFinal: v[4], a: v[3] - v[4], b: v[5] };
-    case 'free-pre':
-      return { alpha: v[0], omega0: v[1], t0: fixedT0, yPre: v[2], yFinal: v[3], a: v[4], b: v[5] };
-    case 'free':
-      return { alpha: v[0], omega0: v[1], t0: fixedT0, yPre: v[2] + v[3], yFinal: v[2], a: v[3], b: v[4] };
-  }
+export function unpackParams(layout: ParameterLayout, values: readonly number[], fixedT0: number): ResponseParams {
+  return LAYOUTS[layout].unpack(values, fixedT0);
 }
 
 /** Model values over a time axis for the full parameter vector v; means over each block's samples for a block average. */

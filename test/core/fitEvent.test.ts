@@ -1,7 +1,7 @@
 // Event detection: a pre-trigger found despite a sample in the noise's tail, at low SNR, and none where the record starts moving.
 
 import { describe, expect, it } from 'vitest';
-import { detectEvent } from '../../core/fit/estimate';
+import { detectEvent } from '../../core/fit/eventDetection';
 import { createRandom } from '../../core/random';
 
 /** 2000 samples: flat until `onset`, then a rise of `height` with time constant 40 samples; unit white noise. */
