@@ -4,7 +4,7 @@ import { parseCapture } from '../core/capture/parseCapture';
 import { selectChannel } from '../core/capture/selectChannel';
 import type { Capture, Channel } from '../core/capture/types';
 import { compareCaptures, type ComparisonSide } from '../core/workflow/compare';
-import { checkAgainstDesign, measureCapture } from '../core/workflow/measure';
+import { checkAgainstDesign, fitChannel, weighCautions } from '../core/workflow/measure';
 import { deriveComponents } from '../core/workflow/measuredComponents';
 import { measureParasitics } from '../core/workflow/parasitics';
 import { plainMessage } from './plainMessage';
@@ -41,22 +41,30 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
       const { name, capture } = openedCapture(request.captureId);
       const channel = channelAt(capture, request.channel);
       progress(`fitting ${channel.values.length.toLocaleString('en')} samples`);
+      let fitted: ReturnType<typeof fitChannel>;
       try {
-        const { design, knownPart } = request;
-        // A design states all three parts; the window still shows the parts derived from a typed known one.
-        const result = measureCapture({ file: name, channel, captureWarnings: capture.warnings, window: request.window, design, knownPart: design ? undefined : knownPart, eventTime: request.eventTime });
-        if (design && knownPart) result.summary.components = deriveComponents(result.fit, knownPart);
-        return { value: { type: 'measure', reply: { result, fitError: null } }, transfer: [] };
+        fitted = fitChannel(name, channel, request.window, capture.warnings);
       } catch (error) {
         // The samples are still shown; the window says why there is no fit.
-        return { value: { type: 'measure', reply: { result: null, fitError: plainMessage(error) } }, transfer: [] };
+        return { value: { type: 'measure', reply: { result: null, fitError: plainMessage(error), verdictError: null, componentsError: null } }, transfer: [] };
       }
+      const { fit, summary } = fitted;
+      const { design, knownPart } = request;
+      // The verdict and the components each fail on their own, shown beside the fit in their panels.
+      const checked = design && summary.status !== 'failed' ? attempt(() => checkAgainstDesign(design, summary, channel, name, request.eventTime)) : NOT_ASKED;
+      // A design states all three parts; the window still shows the parts derived from a typed known one.
+      const derived = knownPart ? attempt(() => deriveComponents(fit, knownPart)) : NOT_ASKED;
+      if (derived.value) summary.components = derived.value;
+      const cautions = weighCautions(channel, { design, components: summary.components });
+      const result = { fit, summary, verdict: checked.value, cautions };
+      return { value: { type: 'measure', reply: { result, fitError: null, verdictError: checked.error, componentsError: derived.error } }, transfer: [] };
     }
     case 'check': {
       const { name, capture } = openedCapture(request.captureId);
+      const channel = channelAt(capture, request.channel);
       progress('checking against the design');
-      const verdict = checkAgainstDesign(request.design, request.fit, channelAt(capture, request.channel), name, request.eventTime);
-      return { value: { type: 'check', verdict }, transfer: [] };
+      const { value: verdict, error: verdictError } = attempt(() => checkAgainstDesign(request.design, request.fit, channel, name, request.eventTime));
+      return { value: { type: 'check', verdict, verdictError }, transfer: [] };
     }
     case 'parasitics': {
       const captures = request.captures.map((c) => ({ ...readSide(c, undefined, progress), addedC: c.addedC }));
@@ -69,6 +77,22 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
       progress('fitting both captures');
       return { value: { type: 'compare', comparison: compareCaptures({ before, after, knownPart: request.knownPart }) }, transfer: [] };
     }
+  }
+}
+
+/** A use case's answer, or why it gave none in plain words. */
+interface Attempt<T> {
+  value: T | null;
+  error: string | null;
+}
+
+const NOT_ASKED: Attempt<never> = { value: null, error: null };
+
+function attempt<T>(run: () => T): Attempt<T> {
+  try {
+    return { value: run(), error: null };
+  } catch (error) {
+    return { value: null, error: plainMessage(error) };
   }
 }
 

@@ -77,14 +77,20 @@ export type WorkerRequest =
 export type WorkerAsk = WithoutId<WorkerRequest>;
 type WithoutId<T> = T extends unknown ? Omit<T, 'id'> : never;
 
-/** A measurement, or why the capture could not be fitted (too few samples in the window, ...). */
-export type MeasureReply = { result: MeasureResult; fitError: null } | { result: null; fitError: string };
+/** Beside a fit: why the design gave no verdict (it probes another unit, ...) and why the known part gave no components. */
+interface SideErrors {
+  verdictError: string | null;
+  componentsError: string | null;
+}
+
+/** A measurement with what failed beside its fit, or why the capture could not be fitted (too few samples in the window, ...). */
+export type MeasureReply = ({ result: MeasureResult; fitError: null } | { result: null; fitError: string }) & SideErrors;
 
 export type WorkerReplyValue =
   | { type: 'open'; info: CaptureInfo }
   | { type: 'trace'; trace: TraceData }
   | { type: 'measure'; reply: MeasureReply }
-  | { type: 'check'; verdict: Verdict }
+  | { type: 'check'; verdict: Verdict | null; verdictError: string | null }
   | { type: 'parasitics'; result: ParasiticsResult }
   | { type: 'compare'; comparison: Comparison };
 

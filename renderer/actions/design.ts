@@ -83,7 +83,7 @@ async function checkDesign(ctx: ActionContext): Promise<void> {
     ctx.client.request({ type: 'check', captureId: capture.key, channel: capture.channel, design: design.design, fit: summary, eventTime: state.eventTime ?? undefined }),
   );
   ctx.store.update((s) => {
-    if (answer) s.verdict = answer.verdict;
-    else s.verdictError = s.error;
+    s.verdict = answer?.verdict ?? null;
+    s.verdictError = answer ? answer.verdictError : s.error;
   });
 }

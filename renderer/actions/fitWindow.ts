@@ -1,4 +1,4 @@
-// Measuring the open channel in the worker (fit, parts, verdict, cautions by measureCapture); a new fit window measures again.
+// Measuring the open channel in the worker (fit, then verdict and parts beside it, then cautions); a new fit window measures again.
 
 import type { FitWindow } from '../workerProtocol';
 import { reweighCautions } from './cautions';
@@ -27,7 +27,7 @@ export async function measure(ctx: ActionContext): Promise<void> {
     ),
   );
   if (generation !== ctx.counters.fitGeneration || !answer) return ctx.store.update();
-  const { result, fitError } = answer.reply;
+  const { result, fitError, verdictError, componentsError } = answer.reply;
   ctx.store.update((s) => {
     if (result && s.userWindow.start === undefined && result.fit.status !== 'failed') s.eventTime = result.fit.t0.value;
     s.fit = result?.fit ?? null;
@@ -35,8 +35,10 @@ export async function measure(ctx: ActionContext): Promise<void> {
     s.fitError = fitError;
     s.fitCount++;
     s.components = result?.summary.components ?? null;
+    // A known part that could not be read was already explained when the request was made.
+    s.componentsError ??= componentsError;
     s.verdict = result?.verdict ?? null;
-    s.verdictError = null;
+    s.verdictError = verdictError;
     if (result) s.cautions = result.cautions;
     else reweighCautions(s);
   });

@@ -321,6 +321,31 @@ describe.skipIf(!hasChromium)('the bench in a browser', () => {
     expect(await page.locator('#fit-state').getAttribute('data-status')).not.toBeNull();
   });
 
+  it('keeps the fit when the design probes another unit, and says so in the design panel', async () => {
+    const alpha = await shown(page, '#fit-results', 'alpha');
+    await page.locator('#design-form').evaluate((form) => ((form as HTMLDetailsElement).open = true));
+    await page.selectOption('#design-probe', 'inductor-current');
+    await page.click('#check-design');
+    const wrongUnit = /^the design probes inductor-current \(A\) but channel 'CH1' of input-filter-step\.csv is in V$/;
+    await page.waitForSelector('#verdict .error-text');
+    expect(await page.locator('#verdict .error-text').innerText()).toMatch(wrongUnit);
+    expect(await shown(page, '#fit-results', 'alpha')).toEqual(alpha);
+    // A refit with that design loaded still shows the fit, the samples' cautions and the design's problem beside them.
+    const fits = await fitCount(page);
+    await page.fill('#window-start', '50u');
+    await page.fill('#window-end', '600u');
+    await page.click('#apply-window');
+    await waitForRefit(page, fits);
+    await compareFit(page, await cli.get('window')!);
+    expect(await page.locator('#fit-status .error-text').count()).toBe(0);
+    expect(await page.locator('#verdict .error-text').innerText()).toMatch(wrongUnit);
+    expect(await page.locator('#cautions-fired li').count()).toBeGreaterThan(0);
+    expect(await page.locator('#error-banner').isHidden()).toBe(true);
+    await page.screenshot({ path: join(outputDir, 'bench-design-wrong-unit.png'), fullPage: true });
+    await page.selectOption('#design-select', 'input-filter-step');
+    await page.waitForSelector('#verdict-overall');
+  });
+
   it('switches to the dark theme and draws the plot in it', async () => {
     await page.click('#theme-toggle');
     expect(await page.locator('html').getAttribute('data-theme')).toBe('dark');
