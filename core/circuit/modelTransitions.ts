@@ -38,6 +38,11 @@ const HORIZON_SHARE = 1e-3;
 const DIFF_STEP = 1e-6;
 /** Bisection halvings: far below any timing that matters. */
 const BISECTIONS = 100;
+/**
+ * Most turning points followed before the ring settles: a model that needs more (Q in the thousands,
+ * often a fit of noise) gets no metrics, and the list never grows without bound on hostile input.
+ */
+const MAX_TURNING_POINTS = 20_000;
 
 /** The model's step: natural part x(tau) = a C + b S about the final level, step A = final - pre. */
 interface Shape {
@@ -69,6 +74,9 @@ export function modelTransitions(fit: ModelFitInput): ModelTransitionsResult {
     return { metrics: null, reason: 'the fitted model is not a decaying response' };
   }
   const shape: Shape = { alpha: p.alpha, omega0: p.omega0, a: p.a, slope: p.b - p.alpha * p.a, step: p.yFinal - p.yPre };
+  if (turningPointCount(shape) > MAX_TURNING_POINTS) {
+    return { metrics: null, reason: `the model rings for more than ${MAX_TURNING_POINTS} half periods before it settles, so its step metrics are not computed` };
+  }
   const noStep = stepAbsence(fit, shape);
   if (noStep) return { metrics: null, reason: noStep };
 
@@ -172,6 +180,16 @@ function level(s: Shape, tau: number): number {
  * the same equation as x, with x'(0) = slope and x''(0) = -2 alpha slope - omega0^2 a, so it is
  * a1 C + b1 S with a1 = slope, b1 = x''(0) + alpha a1; its zeros follow in closed form per regime.
  */
+/** Turning points of a ring before its natural part falls below the horizon floor (0 without a ring). */
+function turningPointCount(s: Shape): number {
+  const q = s.omega0 * s.omega0 - s.alpha * s.alpha;
+  if (!(q > 0)) return 0;
+  const w = Math.sqrt(q);
+  const b = s.slope + s.alpha * s.a;
+  const horizon = Math.max(0, Math.log(Math.hypot(s.a, b / w) / (HORIZON_SHARE * Math.abs(s.step)))) / s.alpha;
+  return (horizon * w) / Math.PI;
+}
+
 function criticalPoints(s: Shape): number[] {
   const a1 = s.slope;
   const b1 = -s.alpha * s.slope - s.omega0 * s.omega0 * s.a;
@@ -187,7 +205,8 @@ function criticalPoints(s: Shape): number[] {
     const phi = Math.atan2(b1 / w, a1);
     let theta = (((phi + Math.PI / 2) % Math.PI) + Math.PI) % Math.PI;
     if (theta === 0) theta = Math.PI;
-    for (; theta / w < horizon; theta += Math.PI) points.push(theta / w);
+    // The cap only bites for a perturbed shape near the limit checked in modelTransitions.
+    for (; theta / w < horizon && points.length < MAX_TURNING_POINTS; theta += Math.PI) points.push(theta / w);
     points.push(Math.max(horizon, points[points.length - 1]));
     return points;
   }

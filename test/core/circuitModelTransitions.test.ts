@@ -120,4 +120,12 @@ describe('modelTransitions: no step', () => {
   it('returns a reason for a failed fit', () => {
     expect(modelTransitions({ ...stepFit(0.3), status: 'failed' }).reason).toMatch(/failed/);
   });
+
+  it('returns a reason, and stays within memory, for a ring that all but never decays (alpha at its floor)', () => {
+    // A growing oscillation fitted with alpha held at its lower bound: following every turning point
+    // until the ring settles would take about 1e14 of them.
+    const r = modelTransitions(stepFit(1e-9));
+    expect(r.metrics).toBeNull();
+    expect(r.reason).toMatch(/half periods before it settles/);
+  });
 });
