@@ -96,6 +96,15 @@ async function waitForRefit(page: Page, before: number): Promise<void> {
   );
 }
 
+/** Type a fit window into the fields, apply it and wait for the refit. */
+async function typeWindow(page: Page, start: string, end: string): Promise<void> {
+  const fits = await fitCount(page);
+  await page.fill('#window-start', start);
+  await page.fill('#window-end', end);
+  await page.click('#apply-window');
+  await waitForRefit(page, fits);
+}
+
 async function openThroughInput(page: Page, path: string): Promise<void> {
   const chooser = page.waitForEvent('filechooser');
   await page.click('#open-capture');
@@ -291,11 +300,7 @@ describe.skipIf(!hasChromium)('the bench in a browser', () => {
   it('refits when the window is typed, as the command line does with --from and --to', async () => {
     await page.selectOption('#sample-select', 'input-filter-step');
     await waitForFit(page, 'input-filter-step.csv');
-    const fits = await fitCount(page);
-    await page.fill('#window-start', '50u');
-    await page.fill('#window-end', '600u');
-    await page.click('#apply-window');
-    await waitForRefit(page, fits);
+    await typeWindow(page, '50u', '600u');
     await compareFit(page, await cli.get('window')!);
   });
 
@@ -331,11 +336,7 @@ describe.skipIf(!hasChromium)('the bench in a browser', () => {
     expect(await page.locator('#verdict .error-text').innerText()).toMatch(wrongUnit);
     expect(await shown(page, '#fit-results', 'alpha')).toEqual(alpha);
     // A refit with that design loaded still shows the fit, the samples' cautions and the design's problem beside them.
-    const fits = await fitCount(page);
-    await page.fill('#window-start', '50u');
-    await page.fill('#window-end', '600u');
-    await page.click('#apply-window');
-    await waitForRefit(page, fits);
+    await typeWindow(page, '50u', '600u');
     await compareFit(page, await cli.get('window')!);
     expect(await page.locator('#fit-status .error-text').count()).toBe(0);
     expect(await page.locator('#verdict .error-text').innerText()).toMatch(wrongUnit);
