@@ -2,7 +2,7 @@
 // table the command line prints.
 
 import { formatCautionsText } from '../safety/cautionText';
-import { formatMeasured } from '../units/format';
+import { formatMeasured, formatWithUncertainty } from '../units/format';
 import type { Quantity } from '../quantity';
 import type { CautionResult } from '../safety/evaluateCautions';
 import type { FitSummary } from './fitSummary';
@@ -41,11 +41,12 @@ export interface Comparison {
 export function formatComparisonText(c: Comparison): string {
   let text = `before  ${c.before.file} (${c.before.channel}): ${c.before.status}, ${c.before.regime}\n`;
   text += `after   ${c.after.file} (${c.after.channel}): ${c.after.status}, ${c.after.regime}\n`;
-  if (c.quantities.length) text += `  ${'quantity'.padEnd(8)} ${'before'.padEnd(30)} ${'after'.padEnd(30)} change\n`;
+  const width = Math.max(24, ...c.quantities.flatMap((q) => [formatMeasured(q.before).length, formatMeasured(q.after).length])) + 2;
+  if (c.quantities.length) text += `  ${'quantity'.padEnd(8)} ${'before'.padEnd(width)} ${'after'.padEnd(width)} change (relative), in combined standard uncertainties\n`;
   for (const q of c.quantities) {
-    const relative = q.relative === null ? '' : ` (${(100 * q.relative).toFixed(2)} %)`;
+    const relative = q.relative === null ? '' : ` (${q.relative >= 0 ? '+' : ''}${(100 * q.relative).toFixed(2)} %)`;
     const sigmas = q.sigmas === null ? 'uncertainty unknown' : `${q.sigmas.toFixed(1)} σ${q.significant ? ', significant' : ''}`;
-    text += `  ${q.name.padEnd(8)} ${formatMeasured(q.before).padEnd(30)} ${formatMeasured(q.after).padEnd(30)} ${formatMeasured(q.difference)}${relative}, ${sigmas}\n`;
+    text += `  ${q.name.padEnd(8)} ${formatMeasured(q.before).padEnd(width)} ${formatMeasured(q.after).padEnd(width)} ${formatWithUncertainty(q.difference)}${relative}, ${sigmas}\n`;
   }
   text += `verdict: ${c.verdict}: ${c.reason}\n`;
   for (const note of c.notes) text += `  note: ${note}\n`;

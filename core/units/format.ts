@@ -72,14 +72,19 @@ function formatRoundedValue(value: number, place: number, unit: string): string 
  * digits and the value to the same decimal place; 'value (uncertainty not estimable)' when stderr is null.
  */
 export function formatMeasured(q: Quantity): string {
+  const text = formatWithUncertainty(q);
+  if (q.stderr === null || !Number.isFinite(q.stderr) || !Number.isFinite(q.value) || q.stderr === 0 || q.value === 0) return text;
+  const relative = (q.stderr / Math.abs(q.value)) * 100;
+  return `${text} (${formatPlain(relative, 2)} %)`;
+}
+
+/** 'value ± stderr' without the relative uncertainty (for a difference, where it says little). */
+export function formatWithUncertainty(q: Quantity): string {
   if (q.stderr === null || !Number.isFinite(q.stderr)) {
     return `${formatEngineering(q.value, q.unit)} (uncertainty not estimable)`;
   }
   if (!Number.isFinite(q.value)) return `${formatEngineering(q.value, q.unit)} ± ${formatEngineering(q.stderr, q.unit)}`;
   if (q.stderr === 0) return `${formatEngineering(q.value, q.unit)} ± 0 (exact)`;
   const place = Math.floor(Math.log10(q.stderr)) - 1;
-  const text = `${formatRoundedValue(q.value, place, q.unit)} ± ${formatUncertainty(q.stderr, q.unit)}`;
-  if (q.value === 0) return text;
-  const relative = (q.stderr / Math.abs(q.value)) * 100;
-  return `${text} (${formatPlain(relative, 2)} %)`;
+  return `${formatRoundedValue(q.value, place, q.unit)} ± ${formatUncertainty(q.stderr, q.unit)}`;
 }
