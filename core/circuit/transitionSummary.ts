@@ -46,11 +46,20 @@ const PEAK_HALF_PHASE = Math.PI / 6;
 /** The largest sample exceeding the parabola's peak by more than this many standard errors is flagged. */
 const LIFT_SIGMAS = 3;
 
+/** The samples measured; `clipped` flags samples at an ADC rail (nonzero), whose values are not the waveform's. */
+export interface TransitionTrace {
+  time: ArrayLike<number>;
+  values: ArrayLike<number>;
+  clipped?: ArrayLike<number>;
+}
+
 /**
  * Always returns a summary: with `reason` set (and `measured`, `model` null) when the fit holds no
- * step to measure. The state levels are the fitted model's, the event time the fit's t0.
+ * step to measure. The state levels are the fitted model's, the event time the fit's t0. When samples
+ * after the event sit at a rail, the sample peak is not the waveform's: overshoot, undershoot and peak
+ * time are not measured from the samples (the model's still are).
  */
-export function summarizeTransitions(trace: { time: ArrayLike<number>; values: ArrayLike<number> }, fit: ResponseFit): TransitionSummary {
+export function summarizeTransitions(trace: TransitionTrace, fit: ResponseFit): TransitionSummary {
   const levels = { initial: fit.preLevel.value, final: fit.finalValue.value };
   const eventTime = fit.t0.value;
   const summary: TransitionSummary = { reason: null, levelMethod: 'fitted model', levels, eventTime, measured: null, model: null, warnings: [] };
@@ -70,21 +79,34 @@ export function summarizeTransitions(trace: { time: ArrayLike<number>; values: A
       `noise lifts the largest sample: the sample overshoot reads ${(m.overshoot - peakOvershoot.value).toFixed(2)} percentage points above the parabola through the peak's samples.`,
     );
   }
+  const clipped = clippedAfter(trace, eventTime);
+  if (clipped > 0) {
+    warnings.push(`${clipped} sample(s) after the event sit at a rail: the sample overshoot, undershoot and peak time are not measured; the model's stand.`);
+  }
+  const peakShown = <T>(value: T): T | null => (clipped > 0 ? null : value);
   return {
     ...summary,
     measured: {
       riseTime: m.riseTime,
-      overshoot: m.overshoot,
-      undershoot: m.undershoot,
-      peakTime: m.peakTime,
+      overshoot: peakShown(m.overshoot),
+      undershoot: peakShown(m.undershoot),
+      peakTime: peakShown(m.peakTime),
       settlingTime2: fromEvent(m.settlingTime2),
       settlingTime5: fromEvent(m.settlingTime5),
       ringFrequency: m.ringFrequency,
-      peakOvershoot,
+      peakOvershoot: peakShown(peakOvershoot),
     },
     model: modelMetrics,
     warnings: [...new Set(warnings)],
   };
+}
+
+/** How many samples at or after the event are flagged as clipped. */
+function clippedAfter(trace: TransitionTrace, eventTime: number): number {
+  if (!trace.clipped) return 0;
+  let count = 0;
+  for (let i = 0; i < trace.clipped.length; i++) if (trace.clipped[i] && trace.time[i] >= eventTime) count++;
+  return count;
 }
 
 /** The overshoot of the parabola through the samples about the largest one, % of |step|. */

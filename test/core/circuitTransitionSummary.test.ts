@@ -78,6 +78,23 @@ describe('summarizeTransitions on simulated captures', () => {
     expect(s.measured).toBeNull();
     expect(s.model).toBeNull();
   });
+
+  it('measures no sample peak when samples after the event sit at a rail (their values are not the waveform)', () => {
+    const c = capture(0.3, 5);
+    const rail = STEP * 1.2;
+    const values = Float64Array.from(c.values, (v) => Math.min(v, rail));
+    const clipped = Uint8Array.from(c.values, (v) => (v >= rail ? 1 : 0));
+    expect(clipped.some((f) => f === 1)).toBe(true);
+    const fit = fitResponse({ time: c.time, values, clipped, unit: 'V' });
+    const s = summarizeTransitions({ time: c.time, values, clipped }, fit);
+    expect(s.measured!.overshoot).toBeNull();
+    expect(s.measured!.peakTime).toBeNull();
+    expect(s.measured!.peakOvershoot).toBeNull();
+    expect(s.measured!.riseTime).not.toBeNull();
+    expect(s.warnings.join(' ')).toMatch(/sit at a rail/);
+    // The model's overshoot stands, near the truth for zeta 0.3 (exp(-pi zeta / sqrt(1 - zeta^2)) = 37.2 %).
+    expect(s.model!.overshoot.value).toBeCloseTo(100 * Math.exp((-Math.PI * 0.3) / Math.sqrt(1 - 0.09)), 0);
+  });
 });
 
 describe('state levels at zeta 0.3 (12 seeds)', () => {
