@@ -1,20 +1,8 @@
-// Reads what the user types into the panels: component values with SI prefixes, times, a sample's known option.
-// Tolerances are read by parseTolerance in core/workflow/userValues.ts, the same rule as the command line.
+// Reads what the user types into the panels that the command line has no option for: signed source levels and
+// window times, a sample's known option. Parts, tolerances and positive values are read by core/workflow/userValues.ts.
 
 import { parseQuantityText } from '../core/units/parseQuantity';
 import { BenchError } from './benchError';
-
-/** '470n', '470 nF', '4k7', '2.2u' in the given unit; positive and finite. */
-export function parsePositive(text: string, unit: string, what: string): number {
-  let value: number;
-  try {
-    value = parseQuantityText(text.trim(), unit);
-  } catch (error) {
-    throw new BenchError(`${what}: ${(error as Error).message}`);
-  }
-  if (!(value > 0) || !Number.isFinite(value)) throw new BenchError(`${what}: must be a positive value, got '${text}'`);
-  return value;
-}
 
 /** A value that may be zero or negative (source levels), with SI prefixes. */
 export function parseSigned(text: string, unit: string, what: string): number {

@@ -1,10 +1,10 @@
 // The known part typed in the components panel: read once, the other two parts derived by deriveComponents.
 
 import { deriveComponents, type KnownPartRequest } from '../../core/workflow/measuredComponents';
-import { parseTolerance } from '../../core/workflow/userValues';
+import { parsePositiveValue, parseTolerance } from '../../core/workflow/userValues';
 import type { BenchState, ComponentsInput } from '../benchState';
 import type { SampleEntry } from '../bridgeTypes';
-import { parsePositive, splitKnownOption } from '../parseInputs';
+import { splitKnownOption } from '../parseInputs';
 import { plainMessage } from '../plainMessage';
 import { reweighCautions } from './cautions';
 import type { ActionContext } from './context';
@@ -14,7 +14,7 @@ const UNIT_OF = { R: 'ohm', L: 'H', C: 'F' } as const;
 /** The typed known part; null when no value is typed; bad text throws in plain words. */
 export function knownPartOf(input: ComponentsInput): KnownPartRequest | null {
   if (input.knownText.trim() === '') return null;
-  const value = parsePositive(input.knownText, UNIT_OF[input.knownName], `known ${input.knownName}`);
+  const value = parsePositiveValue(input.knownText.trim(), `known ${input.knownName}`, UNIT_OF[input.knownName]) as number;
   const tolerance = parseTolerance(input.toleranceText, `known ${input.knownName}`);
   return { topology: input.topology, known: { name: input.knownName, value, ...(tolerance > 0 ? { tolerance } : {}) } };
 }

@@ -2,6 +2,7 @@
 
 import { button, card, field, h, replaceChildren, select, textInput } from '../dom';
 import { showValue } from '../show';
+import { hertz } from '../../core/report/resultRows';
 import type { BenchState } from '../benchState';
 import type { BenchActions } from '../actions';
 import type { ReportFormat } from '../bridgeTypes';
@@ -71,7 +72,7 @@ export function createBenchLogPanel(actions: BenchActions) {
                   { data: { record: r.id }, title: `${r.time}${r.operator ? ` by ${r.operator}` : ''}${r.note ? ` — ${r.note}` : ''}` },
                   h('td', {}, r.unit),
                   h('td', { class: 'clip' }, r.capture.path.split(/[\\/]/).pop() ?? r.capture.path),
-                  h('td', { class: 'number' }, showValue(r.fit.omega0.value / (2 * Math.PI), 'Hz')),
+                  h('td', { class: 'number' }, showValue(hertz(r.fit.omega0).value, 'Hz')),
                   h('td', { class: 'number' }, showValue(r.fit.Q.value, '', 3)),
                   h('td', { class: r.verdict ? (r.verdict.pass ? 'pass' : 'fail') : 'muted' }, r.verdict ? (r.verdict.pass ? 'in' : 'out') : '—'),
                 ),

@@ -46,3 +46,20 @@ describe('the other typed values', () => {
     expect(() => parsePositiveValue('-1', '--voltage', 'V')).toThrow(/^--voltage '-1': must be a positive value/);
   });
 });
+
+describe('parsePositiveValue: values with SI prefixes, as the panels and the options take them', () => {
+  it.each([
+    ['470n', 'F', 470e-9],
+    ['47 uF', 'F', 47e-6],
+    ['4k7', 'ohm', 4700],
+    ['2.2u', 'H', 2.2e-6],
+    ['1e-6', 'H', 1e-6],
+  ])('reads %s as %s', (text, unit, expected) => {
+    expect(parsePositiveValue(text, 'known C', unit)).toBeCloseTo(expected, 15);
+  });
+
+  it.each(['0', '-1n', 'abc', '', '47 H'])('refuses %j as a positive capacitance, naming the field', (text) => {
+    expect(() => parsePositiveValue(text, 'known C', 'F')).toThrow(/^known C '.*': /);
+  });
+
+});

@@ -1,25 +1,11 @@
-// What the panels read from typed text: values with SI prefixes, a sample's known option (tolerances: test/core/userValues.test.ts).
+// What the panels read from typed text: signed values, a sample's known option (parts, tolerances, positive values: test/core/userValues.test.ts).
 
 import { describe, expect, it } from 'vitest';
-import { parsePositive, parseSigned, percentText, splitKnownOption } from '../../renderer/parseInputs';
+import { parseSigned, percentText, splitKnownOption } from '../../renderer/parseInputs';
 import { plainMessage } from '../../renderer/plainMessage';
 import { CaptureError } from '../../core/capture/types';
 
 describe('panel inputs', () => {
-  it.each([
-    ['470n', 'F', 470e-9],
-    ['47 uF', 'F', 47e-6],
-    ['4k7', 'ohm', 4700],
-    ['2.2u', 'H', 2.2e-6],
-    ['1e-6', 'H', 1e-6],
-  ])('reads %s as %s', (text, unit, expected) => {
-    expect(parsePositive(text, unit, 'known C')).toBeCloseTo(expected, 15);
-  });
-
-  it.each(['0', '-1n', 'abc', '', '47 H'])('refuses %j as a positive capacitance, naming the field', (text) => {
-    expect(() => parsePositive(text, 'F', 'known C')).toThrow(/^known C: /);
-  });
-
   it.each([
     ['-5', -5],
     ['0', 0],
