@@ -119,6 +119,52 @@ function workflowImportOffences(graph: Map<string, string[]>): string[] {
   );
 }
 
+/** The zone of a module of renderer/: the page entry, a folder, or the shared modules at its root. */
+type RendererZone = 'entry' | 'root' | 'panels' | 'actions' | 'plot';
+
+/**
+ * What each zone of renderer/ may import besides core/ and itself: panels draw the state and call the
+ * actions they are handed (types only), actions change the state and ask the plot to draw (types only
+ * of the plot's class), the plot draws; the root holds what all share (state, store, worker, bridge).
+ * Only the page entry wires them together.
+ */
+const RENDERER_TABLE: Record<RendererZone, { values: readonly RendererZone[]; types: readonly RendererZone[] }> = {
+  entry: { values: ['root', 'panels', 'actions', 'plot'], types: [] },
+  root: { values: [], types: [] },
+  panels: { values: ['root'], types: ['actions'] },
+  actions: { values: ['root'], types: ['plot'] },
+  plot: { values: ['root'], types: [] },
+};
+
+function rendererZone(file: string): RendererZone | null {
+  const parts = file.split('/');
+  if (parts[0] !== 'renderer') return null;
+  if (parts.length === 2) return parts[1] === 'main.ts' ? 'entry' : 'root';
+  return parts[1] === 'panels' || parts[1] === 'actions' || parts[1] === 'plot' ? parts[1] : null;
+}
+
+/** Offences against the renderer table; `valueImports` gives the modules a file loads at run time. */
+function rendererTableOffences(graph: Map<string, string[]>, valueImports: (file: string) => string[]): string[] {
+  const offences: string[] = [];
+  for (const [file, targets] of graph) {
+    const zone = rendererZone(file);
+    if (!file.startsWith('renderer/')) continue;
+    if (zone === null) {
+      offences.push(`${file} lies in no zone of the table`);
+      continue;
+    }
+    const loaded = new Set(valueImports(file));
+    for (const target of targets) {
+      const to = rendererZone(target);
+      if (!target.startsWith('renderer/') || to === zone) continue;
+      const allowed = RENDERER_TABLE[zone];
+      const ok = to !== null && (allowed.values.includes(to) || (!loaded.has(target) && allowed.types.includes(to)));
+      if (!ok) offences.push(`${file} (${zone}) ${loaded.has(target) ? 'imports' : 'imports types of'} ${target} (${to ?? 'no zone'})`);
+    }
+  }
+  return offences;
+}
+
 /** The worker's entry modules: they and every renderer module they reach run without a DOM. */
 const WORKER_ENTRIES = ['renderer/worker.ts', 'renderer/workerProtocol.ts'];
 const DOM_USE = /(?<![.\w])(document|window)\s*\.|\bHTML\w*Element\b|\b(localStorage|sessionStorage|requestAnimationFrame)\b/;
@@ -311,6 +357,24 @@ describe('the layers inside core/ and renderer/', () => {
 
   it('the fit worker reaches no renderer module that uses the DOM', () => {
     expect(workerDomOffences(GRAPH, usesDom)).toEqual([]);
+  });
+
+  it('each zone of renderer/ imports only what its row of the table allows', () => {
+    expect(rendererTableOffences(GRAPH, runtimeImports)).toEqual([]);
+  });
+
+  it('the renderer table catches a forbidden import, and a type import where only types may go (probe)', () => {
+    const probe = new Map([
+      ['renderer/panels/a.ts', ['renderer/actions/index.ts', 'renderer/dom.ts']],
+      ['renderer/actions/b.ts', ['renderer/panels/a.ts', 'renderer/plot/fitPlot.ts']],
+      ['renderer/store.ts', ['renderer/actions/index.ts']],
+    ]);
+    const values: Record<string, string[]> = { 'renderer/panels/a.ts': ['renderer/actions/index.ts'], 'renderer/actions/b.ts': ['renderer/panels/a.ts'] };
+    expect(rendererTableOffences(probe, (file) => values[file] ?? [])).toEqual([
+      'renderer/panels/a.ts (panels) imports renderer/actions/index.ts (actions)',
+      'renderer/actions/b.ts (actions) imports renderer/panels/a.ts (panels)',
+      'renderer/store.ts (root) imports types of renderer/actions/index.ts (actions)',
+    ]);
   });
 
   it('the core and worker rules catch a forbidden import (probes)', () => {
