@@ -34,7 +34,8 @@ function fitParabola(time: ArrayLike<number>, values: ArrayLike<number>, centre:
   const m = [0, 0, 0, 0, 0];
   const r = [0, 0, 0];
   const picked: number[] = [];
-  for (let i = 0; i < time.length; i++) {
+  // The time axis is sorted (the importer sorts or refuses it): only the samples about the centre are visited.
+  for (let i = firstAtOrAfter(time, centre - halfWidth); i < time.length && time[i] <= centre + halfWidth; i++) {
     const u = (time[i] - centre) / halfWidth;
     if (Math.abs(u) > 1) continue;
     picked.push(i);
@@ -80,4 +81,16 @@ function invert3(a: number[][]): number[][] | null {
     [c01 / det, (a00 * a22 - a02 * a20) / det, (a02 * a10 - a00 * a12) / det],
     [c02 / det, (a01 * a20 - a00 * a21) / det, (a00 * a11 - a01 * a10) / det],
   ];
+}
+
+/** Index of the first sample at or after t (time sorted ascending); time.length when there is none. */
+function firstAtOrAfter(time: ArrayLike<number>, t: number): number {
+  let lo = 0;
+  let hi = time.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (time[mid] < t) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
 }

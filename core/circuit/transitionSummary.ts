@@ -46,7 +46,7 @@ const PEAK_HALF_PHASE = Math.PI / 6;
 /** The largest sample exceeding the parabola's peak by more than this many standard errors is flagged. */
 const LIFT_SIGMAS = 3;
 
-/** The samples measured; `clipped` flags samples at an ADC rail (nonzero), whose values are not the waveform's. */
+/** The samples measured, time ascending; `clipped` flags samples at an ADC rail (nonzero), whose values are not the waveform's. */
 export interface TransitionTrace {
   time: ArrayLike<number>;
   values: ArrayLike<number>;
@@ -71,7 +71,7 @@ export function summarizeTransitions(trace: TransitionTrace, fit: ResponseFit): 
   const fromEvent = (settling: number | null) => (settling === null || m.instants.t50 === null ? null : settling + m.instants.t50 - eventTime);
   const peakOvershoot = parabolaOvershoot(trace, fit, m.peakInstant);
   const warnings = [...m.warnings, ...modelWarnings];
-  if (!Array.from({ length: trace.time.length }, (_, i) => trace.time[i]).some((t) => t < eventTime)) {
+  if (!(trace.time[0] < eventTime)) {
     warnings.push('no sample precedes the event: the starting level is the model at the first sample, and times count from there.');
   }
   if (peakOvershoot?.stderr && m.overshoot !== null && m.overshoot - peakOvershoot.value > LIFT_SIGMAS * peakOvershoot.stderr) {
