@@ -4,8 +4,7 @@ import { parseCapture } from '../core/capture/parseCapture';
 import { selectChannel } from '../core/capture/selectChannel';
 import type { Capture, Channel } from '../core/capture/types';
 import { compareCaptures, type ComparisonSide } from '../core/workflow/compare';
-import { checkAgainstDesign, fitChannel, weighCautions } from '../core/workflow/measure';
-import { deriveComponents } from '../core/workflow/measuredComponents';
+import { checkAgainstDesign, measureCapture, type MeasureResult } from '../core/workflow/measure';
 import { measureParasitics } from '../core/workflow/parasitics';
 import { plainMessage } from './plainMessage';
 import { describeCapture, traceData } from './traceData';
@@ -41,23 +40,17 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
       const { name, capture } = openedCapture(request.captureId);
       const channel = channelAt(capture, request.channel);
       progress(`fitting ${channel.values.length.toLocaleString('en')} samples`);
-      let fitted: ReturnType<typeof fitChannel>;
+      let measured: MeasureResult;
       try {
-        fitted = fitChannel(name, channel, request.window, capture.warnings);
+        measured = measureCapture({ file: name, channel, captureWarnings: capture.warnings, window: request.window, knownPart: request.knownPart, design: request.design, eventTime: request.eventTime });
       } catch (error) {
         // The samples are still shown; the window says why there is no fit.
         return { value: { type: 'measure', reply: { result: null, fitError: plainMessage(error), verdictError: null, componentsError: null } }, transfer: [] };
       }
-      const { fit, summary } = fitted;
-      const { design, knownPart } = request;
+      const { problems, ...result } = measured;
       // The verdict and the components each fail on their own, shown beside the fit in their panels.
-      const checked = design && summary.status !== 'failed' ? attempt(() => checkAgainstDesign(design, summary, channel, name, request.eventTime)) : NOT_ASKED;
-      // A design states all three parts; the window still shows the parts derived from a typed known one.
-      const derived = knownPart ? attempt(() => deriveComponents(fit, knownPart)) : NOT_ASKED;
-      if (derived.value) summary.components = derived.value;
-      const cautions = weighCautions(channel, { design, components: summary.components });
-      const result = { fit, summary, verdict: checked.value, cautions };
-      return { value: { type: 'measure', reply: { result, fitError: null, verdictError: checked.error, componentsError: derived.error } }, transfer: [] };
+      const message = (problem: Error | null) => (problem ? plainMessage(problem) : null);
+      return { value: { type: 'measure', reply: { result, fitError: null, verdictError: message(problems.verdict), componentsError: message(problems.components) } }, transfer: [] };
     }
     case 'check': {
       const { name, capture } = openedCapture(request.captureId);
@@ -85,8 +78,6 @@ interface Attempt<T> {
   value: T | null;
   error: string | null;
 }
-
-const NOT_ASKED: Attempt<never> = { value: null, error: null };
 
 function attempt<T>(run: () => T): Attempt<T> {
   try {

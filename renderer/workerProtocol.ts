@@ -84,7 +84,9 @@ interface SideErrors {
 }
 
 /** A measurement with what failed beside its fit, or why the capture could not be fitted (too few samples in the window, ...). */
-export type MeasureReply = ({ result: MeasureResult; fitError: null } | { result: null; fitError: string }) & SideErrors;
+/** A measurement as the window receives it: its problems arrive as words in the side errors. */
+export type MeasuredInWindow = Omit<MeasureResult, 'problems'>;
+export type MeasureReply = ({ result: MeasuredInWindow; fitError: null } | { result: null; fitError: string }) & SideErrors;
 
 export type WorkerReplyValue =
   | { type: 'open'; info: CaptureInfo }

@@ -3,11 +3,13 @@
 
 import type { Channel } from '../capture/types';
 import type { Design } from '../circuit/design';
+import { implausibility } from '../circuit/plausibility';
 import { probeUnit } from '../circuit/predict';
+import { hertz } from '../report/resultRows';
 import { summarizeTransitions } from '../circuit/transitionSummary';
 import { checkDesign, type Verdict } from '../circuit/verdict';
 import { fitResponse, type ResponseFit } from '../fit/fitResponse';
-import { UsageError } from '../inputError';
+import { InputError, UsageError } from '../inputError';
 import { summarizeFit, type FitSummary } from '../report/fitSummary';
 import { cautionInputsFromCapture, type CautionComponents } from '../safety/cautionInputs';
 import { evaluateCautions, type CautionResult } from '../safety/evaluateCautions';
@@ -38,6 +40,12 @@ export interface MeasureResult {
   summary: FitSummary;
   verdict: Verdict | null;
   cautions: CautionResult;
+  /**
+   * Why the verdict or the components could not be given for this capture (a design probing another
+   * unit, a known part the fit cannot use): the fit and the cautions stand. The command line refuses the
+   * input with them; the window shows each beside the fit.
+   */
+  problems: { verdict: InputError | null; components: InputError | null };
 }
 
 /** Fit the channel and summarize the fit with its transition metrics; a window with too few samples is a FitInputError. */
@@ -68,15 +76,44 @@ export function checkAgainstDesign(design: Design, fit: ResponseFit | FitSummary
   return checkDesign(design, { ...fit, t0 }, { time: channel.time, values: channel.values });
 }
 
-/** One capture measured: fit, components, verdict and cautions. */
+/** An implausible result (a misread unit, the wrong known part) says so as the first warning. */
+function warnIfImplausible(summary: FitSummary, channel: Channel): void {
+  if (summary.status === 'failed') return;
+  const n = channel.time.length;
+  const doubt = implausibility({ f0: hertz(summary.omega0).value, recordSpan: n > 1 ? channel.time[n - 1] - channel.time[0] : 0, components: summary.components });
+  if (doubt) summary.warnings.unshift(doubt);
+}
+
+/**
+ * One capture measured: fit, components, verdict and cautions. A design gives the verdict and the parts
+ * the cautions weigh; a known part gives R, L and C from the fit (shown beside a design too). Only a
+ * fit that cannot run throws; a bad design or known part for this capture is a problem in the result.
+ */
 export function measureCapture(request: MeasureRequest): MeasureResult {
-  if (request.design && request.knownPart) {
-    throw new UsageError('a design gives the topology and components: leave out the topology and the known part');
-  }
   const { fit, summary } = fitChannel(request.file, request.channel, request.window, request.captureWarnings);
-  if (request.knownPart) summary.components = deriveComponents(fit, request.knownPart);
+  const { knownPart, design } = request;
+  const components = knownPart ? attempt(() => deriveComponents(fit, knownPart)) : NOT_ASKED;
+  if (components.value) summary.components = components.value;
+  warnIfImplausible(summary, request.channel);
   const verdict =
-    request.design && summary.status !== 'failed' ? checkAgainstDesign(request.design, summary, request.channel, request.file, request.eventTime) : null;
-  const cautions = weighCautions(request.channel, { design: request.design, components: summary.components });
-  return { fit, summary, verdict, cautions };
+    design && summary.status !== 'failed' ? attempt(() => checkAgainstDesign(design, summary, request.channel, request.file, request.eventTime)) : NOT_ASKED;
+  const cautions = weighCautions(request.channel, { design, components: summary.components });
+  return { fit, summary, verdict: verdict.value, cautions, problems: { verdict: verdict.error, components: components.error } };
+}
+
+interface Attempt<T> {
+  value: T | null;
+  error: InputError | null;
+}
+
+const NOT_ASKED: Attempt<never> = { value: null, error: null };
+
+/** Bad input to one part becomes that part's problem; anything else is a fault and goes on up. */
+function attempt<T>(run: () => T): Attempt<T> {
+  try {
+    return { value: run(), error: null };
+  } catch (error) {
+    if (error instanceof InputError) return { value: null, error };
+    throw error;
+  }
 }

@@ -36,7 +36,7 @@ export function loadCaptureFor(file: string, settings: MeasureSettings, cwd: str
   return loadCapture(file, { cwd, channel: parsed.channel, sampleInterval: parsed.sampleInterval, sortTime: parsed.sortTime });
 }
 
-/** Fit one capture file; with a design, its verdict; the cautions from its samples. */
+/** Fit one capture file; with a design, its verdict; the cautions from its samples. A part or design that cannot be used throws. */
 export function measureFile(file: string, settings: MeasureSettings, cwd: string, design: LoadedDesign | null = null): FileMeasurement {
   if (design && (settings.topology !== undefined || settings.known !== undefined)) {
     throw new UsageError('--design gives the topology and components: leave out --topology and --known');
@@ -51,6 +51,9 @@ export function measureFile(file: string, settings: MeasureSettings, cwd: string
     knownPart: parsed.knownPart,
     design: design?.design,
   });
+  // On the command line a known part or design that cannot be used for this capture is bad input (exit 2).
+  const problem = result.problems.components ?? result.problems.verdict;
+  if (problem) throw problem;
   return { ...result, capture, design };
 }
 

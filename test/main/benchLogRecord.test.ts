@@ -16,6 +16,7 @@ const measurement: FileMeasurement = {
   design: null,
   verdict: null,
   cautions: evaluateCautions({ peakVoltage: 60, capacitance: 1e-6 }),
+  problems: { verdict: null, components: null },
 };
 
 describe('createBenchRecord', () => {
