@@ -4,7 +4,9 @@ import { formatEngineering } from '../units/format';
 import { detectClipping, type Clipping } from './detectClipping';
 import type { ColumnStore } from './columnStore';
 import { nameChannels, type ColumnPlan, type Layout } from './layout';
+import type { RowDrop } from './importSummary';
 import type { LineMap } from './lineMap';
+import { summarizeImport, type KeptChannel, type TextSource } from './summarizeImport';
 import { findOrderProblem, rebuildAxis, sortByTime, uniformInterval } from './timeAxis';
 import { CaptureError, type Capture, type CaptureOptions, type Channel } from './types';
 
@@ -18,6 +20,8 @@ interface Axis {
   order: Uint32Array | null;
   /** Uniform interval of this axis, or null. */
   interval: number | null;
+  /** File rows left out of this axis (repeated time stamps when sorted), or null. */
+  leftOut: RowDrop | null;
 }
 
 function seconds(value: number): string {
@@ -59,7 +63,7 @@ function columnAxis(index: number, layout: Layout, store: ColumnStore, lines: Li
   const column = layout.columns[index];
   const time = scaled(store.column(index), column.scale);
   const problem = findOrderProblem(time);
-  if (problem === null) return { time, order: null, interval: uniformInterval(time) };
+  if (problem === null) return { time, order: null, interval: uniformInterval(time), leftOut: null };
   const line = lines.lineOf(problem.row);
   if (!options.sortTime) {
     const what =
@@ -72,12 +76,13 @@ function columnAxis(index: number, layout: Layout, store: ColumnStore, lines: Li
   const sortedTime = new Float64Array(sorted.order.length);
   for (let k = 0; k < sortedTime.length; k++) sortedTime[k] = time[sorted.order[k]];
   warnings.push(`time in column '${label(column)}' does not increase from line ${line} on; rows were sorted by time`);
+  let leftOut: Axis['leftOut'] = null;
   if (sorted.repeated > 0 && sorted.firstRepeatedRow !== null) {
-    warnings.push(
-      `${sorted.repeated} row(s) repeating an earlier time stamp were left out (first on line ${lines.lineOf(sorted.firstRepeatedRow)})`,
-    );
+    const firstLine = lines.lineOf(sorted.firstRepeatedRow);
+    warnings.push(`${sorted.repeated} row(s) repeating an earlier time stamp were left out (first on line ${firstLine})`);
+    leftOut = { reason: 'repeated time stamp', count: sorted.repeated, firstLine };
   }
-  return { time: sortedTime, order: sorted.order, interval: uniformInterval(sortedTime) };
+  return { time: sortedTime, order: sorted.order, interval: uniformInterval(sortedTime), leftOut };
 }
 
 function intervalAxis(layout: Layout, rows: number, warnings: string[], stamped: ColumnPlan | null): Axis {
@@ -92,7 +97,7 @@ function intervalAxis(layout: Layout, rows: number, warnings: string[], stamped:
         `t = ${seconds(start)} + i × ${seconds(interval.value)}, with the interval from ${interval.source}${from}`,
     );
   }
-  return { time: rebuildAxis(rows, interval.value, start), order: null, interval: interval.value };
+  return { time: rebuildAxis(rows, interval.value, start), order: null, interval: interval.value, leftOut: null };
 }
 
 /** One channel: samples with both a time and a value, scaled to SI, with its clipping. */
@@ -143,6 +148,7 @@ export function assembleCapture(
   lines: LineMap,
   options: CaptureOptions,
   footer: string[],
+  source: TextSource,
 ): Capture {
   const rows = store.length;
   if (rows < MIN_SAMPLES) {
@@ -165,7 +171,7 @@ export function assembleCapture(
   };
 
   const channels: Channel[] = [];
-  const kept: { channel: Channel; axis: Axis }[] = [];
+  const kept: KeptChannel[] = [];
   for (let c = 0; c < layout.columns.length; c++) {
     const column = layout.columns[c];
     if (column.kind !== 'value') continue;
@@ -182,7 +188,7 @@ export function assembleCapture(
     const clipped = clippingWarning(channel, clipping);
     if (clipped) warnings.push(clipped);
     channels.push(channel);
-    kept.push({ channel, axis });
+    kept.push({ channel, column, axis });
   }
   if (channels.length === 0) {
     throw new CaptureError(`no channel has at least ${MIN_SAMPLES} usable samples`, layout.firstDataLine);
@@ -205,6 +211,7 @@ export function assembleCapture(
       firstDataLine: layout.firstDataLine,
       rows,
     },
+    importSummary: summarizeImport(source, layout, rows, kept, lines, warnings),
   };
 }
 

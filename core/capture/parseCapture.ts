@@ -1,8 +1,8 @@
 // Reads capture text (a scope's CSV or text export), or its UTF-8 bytes, into a Capture, whole or streamed in chunks.
 //
 // How a text is read:
-// - Lines end in LF, CRLF or CR; a UTF-8 byte-order mark is dropped. Blank lines and comments ('#', ';', '%', '//')
-//   are skipped anywhere.
+// - Lines end in LF, CRLF or CR; a UTF-8 byte-order mark is dropped (both noted in the capture's importSummary).
+//   Blank lines and comments ('#', ';', '%', '//') are skipped anywhere.
 // - The table starts at the first of 3 rows that split the same way into numbers (or missing-value markers, or
 //   wall-clock stamps). The delimiter is the one of tab, ';', ',', whitespace giving the most cells; ',' inside a
 //   cell of a ';', tab or whitespace table (or of a quoted field) is a decimal comma.
@@ -29,6 +29,8 @@ import { decideLayout, type Layout } from './layout';
 import { LineMap } from './lineMap';
 import { isBlankOrComment, type PreambleLine } from './preamble';
 import { ROW, RowReader, SKIP } from './rowReader';
+import type { LineEnd, TextEncoding } from './importSummary';
+import type { TextSource } from './summarizeImport';
 import { CaptureError, type Capture, type CaptureOptions } from './types';
 
 /** Data rows of the same shape needed in a row before the table is taken to have started. */
@@ -59,6 +61,9 @@ class StreamingReader implements CaptureReader {
   private started = false;
   private finished = false;
   private terminator: '\n' | '\r' | null = null;
+  private lineEnd: LineEnd | null = null;
+  /** Filled as the text is decoded: a byte-order mark is noted here when dropped. */
+  private readonly encoding: TextEncoding = { name: 'UTF-8', byteOrderMark: false };
   private head: PreambleLine[] = [];
   private run: number[] = [];
   private runShape: DataShape | null = null;
@@ -81,13 +86,19 @@ class StreamingReader implements CaptureReader {
     if (this.finished) throw new CaptureError('text pushed after finish()');
     if (!this.started && chunk.length > 0) {
       this.started = true;
-      if (chunk.charCodeAt(0) === 0xfeff) chunk = chunk.slice(1);
+      if (chunk.charCodeAt(0) === 0xfeff) {
+        chunk = chunk.slice(1);
+        this.encoding.byteOrderMark = true;
+      }
     }
     const text = this.carry === '' ? chunk : this.carry + chunk;
-    this.terminator ??= text.includes('\n') ? '\n' : /\r[^]/.test(text) ? '\r' : null;
     if (this.terminator === null) {
-      this.carry = text;
-      return;
+      this.terminator = text.includes('\n') ? '\n' : /\r[^]/.test(text) ? '\r' : null;
+      if (this.terminator === null) {
+        this.carry = text;
+        return;
+      }
+      this.lineEnd = lineEndOf(text, this.terminator);
     }
     this.rows?.begin(text);
     let pos = 0;
@@ -142,7 +153,8 @@ class StreamingReader implements CaptureReader {
       this.pending === null
         ? []
         : [`${this.pendingCount} line(s) after the last data row were ignored (from line ${this.pending.line}: '${this.pending.text}')`];
-    return assembleCapture(this.layout as Layout, this.store as ColumnStore, this.lines, this.options, footer);
+    const source: TextSource = { encoding: this.encoding, lineEnd: this.lineEnd };
+    return assembleCapture(this.layout as Layout, this.store as ColumnStore, this.lines, this.options, footer, source);
   }
 
   /** One line, text[start, end) without its terminator. */
@@ -249,6 +261,13 @@ export function parseCaptureBytes(bytes: Uint8Array, decode: Utf8Decoder, option
   const reader = createCaptureReader(options, decode);
   reader.pushBytes(bytes);
   return reader.finish();
+}
+
+/** The line end of a text by its first terminator: CR alone, or LF with or without a CR before it. */
+function lineEndOf(text: string, terminator: '\n' | '\r'): LineEnd {
+  if (terminator === '\r') return 'CR';
+  const at = text.indexOf('\n');
+  return at > 0 && text.charCodeAt(at - 1) === CR ? 'CRLF' : 'LF';
 }
 
 function joinBytes(a: Uint8Array, b: Uint8Array): Uint8Array {

@@ -1,6 +1,7 @@
 // The shape of an imported capture: what every reader of scope exports produces.
 
 import { InputError } from '../inputError';
+import type { ImportSummary } from './importSummary';
 
 export interface Channel {
   /** Column name as the file gives it without its unit ('CH1', 'V_C'), or 'channel N' when unnamed. */
@@ -37,6 +38,8 @@ export interface Capture {
     /** Data rows read (before per-channel dropping). */
     rows: number;
   };
+  /** What the importer inferred (encoding, delimiter, line end, time source, drops...), for every face to show. */
+  importSummary: ImportSummary;
 }
 
 export interface CaptureOptions {

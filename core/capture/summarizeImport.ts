@@ -1,0 +1,117 @@
+// Builds the import summary from what the reader decided: the text's encoding and line end, the layout, the axes.
+
+import { formatEngineering } from '../units/format';
+import type { DelimiterName, ImportSummary, LineEnd, RowDrop, TextEncoding, TimeSource } from './importSummary';
+import type { ColumnPlan, Layout } from './layout';
+import type { LineMap } from './lineMap';
+import type { Channel } from './types';
+
+/** What the decoder found about the text itself. */
+export interface TextSource {
+  encoding: TextEncoding;
+  lineEnd: LineEnd | null;
+}
+
+/** A time axis as the assembler built it. */
+export interface ImportedAxis {
+  time: Float64Array;
+  /** Source row of each axis row, or null when they are the file rows in order. */
+  order: Uint32Array | null;
+  interval: number | null;
+  /** File rows this axis left out (repeated time stamps when sorted), or null. */
+  leftOut: RowDrop | null;
+}
+
+export interface KeptChannel {
+  channel: Channel;
+  column: ColumnPlan;
+  axis: ImportedAxis;
+}
+
+const DELIMITER_NAMES: Record<string, DelimiterName> = { ',': 'comma', ';': 'semicolon', '\t': 'tab', ' ': 'whitespace', '': 'none' };
+
+/** The unit a time column is written in: 's' for a scale of 1, else the scale in engineering notation ('ns'). */
+function writtenTimeUnit(column: ColumnPlan): string {
+  if (column.unit === '') return '';
+  return column.scale === 1 ? 's' : formatEngineering(column.scale, 's').replace(/^1 /, '');
+}
+
+function timeSource(layout: Layout, kept: KeptChannel): TimeSource {
+  const index = kept.column.timeColumn;
+  const source = index === null ? null : layout.columns[index];
+  if (index !== null && source !== null && source.kind !== 'timestamp') {
+    return { kind: 'column', column: source.heading || `column ${index + 1}`, index: index + 1, unit: writtenTimeUnit(source) };
+  }
+  // The layout refuses a capture without a time column and without an interval, so one is stated here.
+  const stated = layout.interval as NonNullable<Layout['interval']>;
+  const option = stated.line === 0;
+  return { kind: 'interval', interval: stated.value, from: option ? 'option' : 'preamble', key: option ? null : stated.key, line: option ? null : stated.line };
+}
+
+/** Mean step and, when the axis is not uniform, the standard deviation of its steps (rows without a time skipped). */
+function steps(axis: ImportedAxis): { mean: number; jitter: number | null } {
+  let count = 0;
+  let sum = 0;
+  let sumSquares = 0;
+  let previous = NaN;
+  for (const t of axis.time) {
+    if (t !== t) continue;
+    if (previous === previous) {
+      const step = t - previous;
+      count++;
+      sum += step;
+      sumSquares += step * step;
+    }
+    previous = t;
+  }
+  const mean = count > 0 ? sum / count : 0;
+  if (axis.interval !== null) return { mean: axis.interval, jitter: null };
+  return { mean, jitter: count > 1 ? Math.sqrt(Math.max(0, (sumSquares - count * mean * mean) / (count - 1))) : 0 };
+}
+
+/** Rows of a column axis that have no time (empty or unreadable time cell): left out of every channel on it. */
+function timelessRows(axis: ImportedAxis, lines: LineMap): RowDrop | null {
+  let count = 0;
+  let first: number | null = null;
+  axis.time.forEach((t, k) => {
+    if (t === t) return;
+    count++;
+    const row = axis.order ? axis.order[k] : k;
+    if (first === null || row < first) first = row;
+  });
+  return count === 0 ? null : { reason: 'no readable time', count, firstLine: first === null ? null : lines.lineOf(first) };
+}
+
+export function summarizeImport(source: TextSource, layout: Layout, rows: number, kept: KeptChannel[], lines: LineMap, warnings: string[]): ImportSummary {
+  const axes = [...new Set(kept.map((k) => k.axis))];
+  const droppedRows: RowDrop[] = [];
+  for (const axis of axes) {
+    if (axis.leftOut) droppedRows.push(axis.leftOut);
+    const timeless = timelessRows(axis, lines);
+    if (timeless) droppedRows.push(timeless);
+  }
+  const { mean, jitter } = steps(kept[0].axis);
+  return {
+    encoding: { ...source.encoding },
+    delimiter: DELIMITER_NAMES[layout.delimiter] ?? 'none',
+    decimalMark: layout.decimalComma ? ',' : '.',
+    lineEnd: source.lineEnd,
+    headerLine: layout.headerLine,
+    firstDataLine: layout.firstDataLine,
+    rows,
+    time: timeSource(layout, kept[0]),
+    sampleInterval: mean,
+    jitter,
+    channels: kept.map(({ channel }) => ({
+      name: channel.name,
+      unit: channel.unit,
+      samples: channel.values.length,
+      dropped: channel.dropped,
+      clipped: channel.clipped.reduce((sum, flag) => sum + flag, 0),
+    })),
+    droppedRows,
+    ignoredSections: [],
+    segments: [],
+    warnings: [...warnings],
+  };
+}
