@@ -15,6 +15,7 @@ export function describeCapture(capture: Capture): CaptureInfo {
     sampleInterval: capture.sampleInterval,
     warnings: capture.warnings,
     rows: capture.layout.rows,
+    import: capture.importSummary,
   };
 }
 

@@ -1,5 +1,6 @@
 // Messages between the window and the fit worker: plain data, arrays transferred, never a stack.
 
+import type { ImportSummary } from '../core/capture/importSummary';
 import type { Design } from '../core/circuit/design';
 import type { Verdict } from '../core/circuit/verdict';
 import type { FitSummary } from '../core/report/fitSummary';
@@ -23,6 +24,8 @@ export interface CaptureInfo {
   sampleInterval: number | null;
   warnings: string[];
   rows: number;
+  /** What the importer inferred, shown in the capture panel. */
+  import: ImportSummary;
 }
 
 /** The chosen channel's samples, for plotting and checks on the window side. */

@@ -4,6 +4,7 @@ import type { ResponseFit } from '../fit/fitResponse';
 import type { Quantity } from '../quantity';
 import type { ResponseParams } from '../response/secondOrder';
 import type { TransitionSummary } from '../circuit/transitionSummary';
+import type { ImportSummary } from '../capture/importSummary';
 
 export interface ComponentSet {
   R: Quantity;
@@ -37,6 +38,8 @@ export interface FitSummary {
   warnings: string[];
   /** Rise time, overshoot, peak and settling times of a step, from the samples and from the fitted model. */
   transitions?: TransitionSummary;
+  /** What the importer inferred from the capture file (absent where the capture did not come through the importer). */
+  import?: ImportSummary;
 }
 
 export function summarizeFit(

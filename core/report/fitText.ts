@@ -2,6 +2,7 @@
 
 import { formatEngineering } from '../units/format';
 import type { FitSummary } from './fitSummary';
+import { importRows } from './importText';
 import { fitResultRows, fitTransitionRows, transitionNote } from './resultRows';
 
 /** Width of the label column: the longest label ('residual rms', 'samples used') and a space. */
@@ -13,6 +14,8 @@ function line(label: string, text: string): string {
 
 export function formatFitText(s: FitSummary): string {
   let text = `${s.file} (${s.channel})\n`;
+  // What the importer inferred comes first: a misread file explains any result below it.
+  for (const row of s.import ? importRows(s.import) : []) text += line(row.label, row.text);
   text += line('status', `${s.status}${s.status === 'converged' ? '' : `: ${s.message}`}`);
   text += line('regime', `${s.regime} (${s.regimeEvidence})`);
   for (const row of fitResultRows(s)) {

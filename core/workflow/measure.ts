@@ -1,6 +1,7 @@
 // Measuring one capture: the response fit, R, L and C from a known part, the design verdict and the
 // cautions from the samples. Every face (command line, bench log, batch, the window's worker) calls this.
 
+import type { ImportSummary } from '../capture/importSummary';
 import type { Channel } from '../capture/types';
 import type { Design } from '../circuit/design';
 import { implausibility } from '../circuit/plausibility';
@@ -27,6 +28,8 @@ export interface MeasureRequest {
   channel: Channel;
   /** Warnings of the import (dropped rows, clipping...), shown before the fit's own. */
   captureWarnings?: readonly string[];
+  /** What the importer inferred from the capture, carried on the summary as its `import` field. */
+  importSummary?: ImportSummary;
   window?: FitWindow;
   /** Derive R, L and C from a known part; not with a design, which states all three. */
   knownPart?: KnownPartRequest;
@@ -91,6 +94,7 @@ function warnIfImplausible(summary: FitSummary, channel: Channel): void {
  */
 export function measureCapture(request: MeasureRequest): MeasureResult {
   const { fit, summary } = fitChannel(request.file, request.channel, request.window, request.captureWarnings);
+  if (request.importSummary) summary.import = request.importSummary;
   const { knownPart, design } = request;
   const components = knownPart ? attempt(() => deriveComponents(fit, knownPart)) : NOT_ASKED;
   if (components.value) summary.components = components.value;

@@ -47,6 +47,7 @@ export function measureFile(file: string, settings: MeasureSettings, cwd: string
     file: basename(file),
     channel: capture.channel,
     captureWarnings: capture.capture.warnings,
+    importSummary: capture.capture.importSummary,
     window: parsed.window,
     knownPart: parsed.knownPart,
     design: design?.design,

@@ -9,7 +9,7 @@ import { runCli } from '../../main/cli/program';
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const GOLDEN_DIR = path.join(ROOT, 'test', 'fixtures', 'fitJson');
 /** Fields `fit --json` gained after the golden outputs were recorded. */
-const ADDED_FIELDS = ['transitions'];
+const ADDED_FIELDS = ['transitions', 'import'];
 
 interface Golden {
   /** The arguments after `fit`. */

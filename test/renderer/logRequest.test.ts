@@ -26,7 +26,7 @@ function fittedState(): BenchState {
   state.capture = {
     key: 'capture-1',
     opened: { name: 'input-filter-step.csv', text, path: null, sampleId: null },
-    info: { channels: [{ name: channel.name, unit: channel.unit, samples: channel.values.length, dropped: 0, clipped: 0 }], sampleInterval: capture.sampleInterval, warnings: [], rows: 0 },
+    info: { channels: [{ name: channel.name, unit: channel.unit, samples: channel.values.length, dropped: 0, clipped: 0 }], sampleInterval: capture.sampleInterval, warnings: [], rows: 0, import: capture.importSummary },
     channel: 0,
     sample: null,
     sha256: 'b'.repeat(64),
