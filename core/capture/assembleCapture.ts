@@ -45,9 +45,12 @@ function resolveFirstColumn(layout: Layout, store: ColumnStore, lines: LineMap, 
   const problem = findOrderProblem(store.column(0));
   if (problem === null || options.sortTime) {
     first.kind = 'time';
+    first.scale = options.timeUnit?.scale ?? 1;
     return;
   }
   first.kind = 'value';
+  first.unit = options.valueUnit?.unit ?? '';
+  first.scale = options.valueUnit?.scale ?? 1;
   for (const column of layout.columns) column.timeColumn = null;
   nameChannels(layout.columns, false);
   if (layout.interval === null) {

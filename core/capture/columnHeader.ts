@@ -1,16 +1,17 @@
-// Reads a column header cell ('Time (s)', 't [us]', 'time_ns', 'CH1 [mV]', 'Voltage(V)') into name, unit and scale.
+// Reads a column header cell ('Time (s)', 't [us]', 'time_ns', 'CH1 [mV]', 'Voltage(V)') into name and unit, and
+// settles the unit a column is read in (the header's, or the one an option states).
 
-import { unitScale } from '../units/unitScale';
+import { canonicalUnit } from '../units/prefixes';
+import { TIME_UNIT, printable, readUnitText, unitProblem, type StatedUnit, type UnitReading } from '../units/unitText';
+import { CaptureError, type CaptureOptions } from './types';
 
 export interface ColumnHeading {
   /** Name without its unit, as written ('' when the cell held only a unit). */
   name: string;
-  /** SI unit after prefix scaling, '' when none or unknown. */
-  unit: string;
-  /** Multiplier from the written values to SI base units. */
-  scale: number;
-  /** The unit text when it was given but not recognised, else null. */
-  unknownUnit: string | null;
+  /** The unit as written, or null when the header gives none. */
+  unitText: string | null;
+  /** What the unit text reads as; null with no unit. */
+  reading: UnitReading | null;
 }
 
 const BRACKETED = /^(.*?)\s*[([]\s*([^()[\]]*?)\s*[)\]]\s*$/;
@@ -23,32 +24,77 @@ export function isTimeName(name: string): boolean {
   return TIME_NAME.test(name.trim());
 }
 
+/** True when the unit reads as time, or as one of two times ('MS'). */
+export function readsAsTime(reading: UnitReading | null): boolean {
+  return reading !== null && (reading.kind === 'ambiguous' || (reading.kind === 'known' && reading.unit === TIME_UNIT));
+}
+
+function withUnit(name: string, unitText: string): ColumnHeading {
+  return unitText === '' ? { name, unitText: null, reading: null } : { name, unitText, reading: readUnitText(unitText) };
+}
+
+/** A unit after '/' or '_' counts only when it reads as one; otherwise it is part of the name ('V_out', 'V/div'). */
+function readsAsUnit(heading: ColumnHeading): boolean {
+  return heading.reading !== null && heading.reading.kind !== 'unknown';
+}
+
 export function parseColumnHeading(cell: string): ColumnHeading {
   const text = cell.trim();
   const bracketed = BRACKETED.exec(text);
-  if (bracketed) {
-    const found = bracketed[2] === '' ? { scale: 1, unit: '' } : unitScale(bracketed[2]);
-    return {
-      name: bracketed[1],
-      unit: found?.unit ?? '',
-      scale: found?.scale ?? 1,
-      unknownUnit: found ? null : bracketed[2],
-    };
-  }
+  if (bracketed) return withUnit(bracketed[1], bracketed[2]);
   const slashed = SLASHED.exec(text);
-  const bySlash = slashed ? unitScale(slashed[2]) : null;
-  if (slashed && bySlash) return { name: slashed[1], ...bySlash, unknownUnit: null };
-  // 'time_ns' or 'CH1_mV'; a one-letter suffix ('V_C', 'I_A') is part of the name unless the column is time.
+  const bySlash = slashed ? withUnit(slashed[1], slashed[2]) : null;
+  if (bySlash && readsAsUnit(bySlash)) return bySlash;
+  // 'time_ns' or 'CH1_mV'; a one-letter suffix ('V_C', 'I_A', 'TimeV_S') is part of the name unless the column is
+  // time and the letter is the exact symbol ('time_s').
   const underscored = UNDERSCORED.exec(text);
-  const byUnderscore = underscored ? unitScale(underscored[2]) : null;
-  if (underscored && byUnderscore && (underscored[2].length >= 2 || isTimeName(underscored[1]))) {
-    return { name: underscored[1], ...byUnderscore, unknownUnit: null };
+  const byUnderscore = underscored ? withUnit(underscored[1], underscored[2]) : null;
+  if (underscored && byUnderscore && readsAsUnit(byUnderscore)) {
+    const suffix = underscored[2];
+    if (suffix.length >= 2 || (isTimeName(underscored[1]) && canonicalUnit(suffix) !== null)) return byUnderscore;
   }
-  return { name: text, unit: '', scale: 1, unknownUnit: null };
+  return { name: text, unitText: null, reading: null };
 }
 
 /** True when every non-empty cell is only a unit ('(s)', '[V]', 'mV'): a units row under the names. */
 export function isUnitsRow(cells: string[]): boolean {
-  const filled = cells.map((c) => c.trim()).filter((c) => c !== '');
-  return filled.length > 0 && filled.every((c) => unitScale(c.replace(/^[([]\s*|\s*[)\]]$/g, '')) !== null);
+  const filled = cells.map((c) => unitCellText(c)).filter((c) => c !== '');
+  return filled.length > 0 && filled.every((c) => readUnitText(c).kind !== 'unknown');
+}
+
+/** The unit of a units-row cell without its brackets ('(mV)' -> 'mV'). */
+export function unitCellText(cell: string): string {
+  return cell.trim().replace(/^[([]\s*|\s*[)\]]$/g, '');
+}
+
+/**
+ * The SI unit and scale a column is read in: the one the option states (time columns: options.timeUnit; channels:
+ * options.valueUnit), with a note when the header says otherwise; else the header's. A unit the header gives that is
+ * not recognised, ambiguous or of the wrong kind is a CaptureError on `line` naming the column and the option.
+ */
+export function columnUnit(
+  heading: ColumnHeading,
+  label: string,
+  isTime: boolean,
+  options: CaptureOptions,
+  line: number | null,
+  warnings: string[],
+): { unit: string; scale: number } {
+  const stated: StatedUnit | undefined = isTime ? options.timeUnit : options.valueUnit;
+  const option = isTime ? '--time-unit' : '--value-unit';
+  const { unitText, reading } = heading;
+  if (stated) {
+    const same = reading?.kind === 'known' && reading.unit === stated.unit && reading.scale === stated.scale;
+    if (unitText !== null && !same) {
+      warnings.push(`column '${printable(label)}': its unit '${printable(unitText)}' is replaced by ${option} ${stated.text}`);
+    }
+    return { unit: stated.unit, scale: stated.scale };
+  }
+  if (unitText === null || reading === null) return { unit: '', scale: 1 };
+  const problem = unitProblem(unitText, reading, isTime);
+  if (problem !== '' || reading.kind !== 'known') {
+    const what = isTime ? 'the time unit' : "the channel's unit";
+    throw new CaptureError(`column '${printable(label)}': ${problem}; state ${what} with ${option}`, line);
+  }
+  return { unit: reading.unit, scale: reading.scale };
 }

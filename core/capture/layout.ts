@@ -2,11 +2,11 @@
 
 import { CaptureError, type CaptureOptions } from './types';
 import { isTimestamp, slowCellValue } from './cellValue';
-import { isTimeName, isUnitsRow, parseColumnHeading } from './columnHeader';
+import { columnUnit, isTimeName, isUnitsRow, parseColumnHeading, readsAsTime, unitCellText, type ColumnHeading } from './columnHeader';
 import { sameShape, dataShape, type DataShape } from './dataShape';
 import { isBlankOrComment, readPreamble, type Preamble, type PreambleLine, type StatedTime } from './preamble';
 import { WHITESPACE, splitLine, trimTrailingEmpty } from './splitLine';
-import { unitScale } from '../units/unitScale';
+import { readUnitText } from '../units/unitText';
 
 /**
  * 'time': numbers on a time axis; 'timestamp': wall-clock stamps, axis rebuilt from the interval;
@@ -64,14 +64,13 @@ function looksLikeHeader(cells: string[], dataCount: number): boolean {
   return cells.every((c) => c === '' || (slowCellValue(c, false) === null && !isTimestamp(c)));
 }
 
-/** A header cell that is only a unit ('(s)') keeps the unit and borrows a plain name. */
-function plan(heading: string, unitCell: string | undefined): Omit<ColumnPlan, 'kind' | 'timeColumn'> & { unknownUnit: string | null } {
+/** A header cell and the unit under it in a units row, if the cell gives none and the one below reads as a unit. */
+function plan(heading: string, unitCell: string | undefined): ColumnHeading & { heading: string } {
   const parsed = parseColumnHeading(heading);
-  if (unitCell !== undefined && unitCell.trim() !== '' && parsed.unit === '') {
-    const found = unitScale(unitCell.trim().replace(/^[([]\s*|\s*[)\]]$/g, ''));
-    if (found) return { heading, name: parsed.name, unit: found.unit, scale: found.scale, unknownUnit: null };
-  }
-  return { heading, name: parsed.name, unit: parsed.unit, scale: parsed.scale, unknownUnit: parsed.unknownUnit };
+  const unitText = unitCell === undefined ? '' : unitCellText(unitCell);
+  const reading = readUnitText(unitText);
+  if (unitText !== '' && parsed.unitText === null && reading.kind !== 'unknown') return { heading, name: parsed.name, unitText, reading };
+  return { heading, ...parsed };
 }
 
 /** 'TimeV_S' + 'AmplitudeV_S' -> 'V_S'; otherwise the value column's own name. */
@@ -177,17 +176,18 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
   const columns: ColumnPlan[] = [];
   for (let c = 0; c < count; c++) {
     const p = plan(headings[c] ?? '', units?.[c]);
-    if (p.unknownUnit !== null) warnings.push(`column '${p.heading}': unit '${p.unknownUnit}' not recognised; values kept as written`);
     let kind: ColumnKind = 'value';
     if (firstCells[c] !== undefined && isTimestamp(firstCells[c])) kind = 'timestamp';
-    else if (header && (isTimeName(p.name) || p.unit === 's')) kind = 'time';
+    else if (header && (isTimeName(p.name) || readsAsTime(p.reading))) kind = 'time';
     else if (!header && c === 0 && count >= 2) kind = 'maybe-time';
-    columns.push({ kind, heading: p.heading, name: p.name, unit: p.unit, scale: p.scale, timeColumn: null });
+    // A headerless first column gets its unit once it is known to be time or a channel (assembleCapture).
+    const { unit, scale } = kind === 'maybe-time' ? { unit: '', scale: 1 } : columnUnit(p, p.heading || p.name, kind !== 'value', options, header?.line ?? null, warnings);
+    columns.push({ kind, heading: p.heading, name: p.name, unit, scale, timeColumn: null });
   }
   assignTimeColumns(columns);
   nameChannels(columns, header !== null);
 
-  const preamble = readPreamble(head.slice(0, header ? header.i : runStart), delimiter, decimalComma);
+  const preamble = readPreamble(head.slice(0, header ? header.i : runStart), delimiter, decimalComma, options.timeUnit);
   warnings.unshift(...preamble.warnings);
   const interval = chooseInterval(preamble, options, warnings);
   const firstDataLine = head[runStart].line;

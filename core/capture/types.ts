@@ -1,6 +1,7 @@
 // The shape of an imported capture: what every reader of scope exports produces.
 
 import { InputError } from '../inputError';
+import type { StatedUnit } from '../units/unitText';
 import type { ImportSummary } from './importSummary';
 
 export interface Channel {
@@ -50,6 +51,10 @@ export interface CaptureOptions {
   sampleInterval?: number;
   /** Sort non-monotonic time stamps (with a warning) instead of failing. Default false. */
   sortTime?: boolean;
+  /** Unit of the time column and of a preamble's stated interval and start, over the file's (a note when it differs). */
+  timeUnit?: StatedUnit;
+  /** Unit of the channels' values, over the file's (a note when it differs). */
+  valueUnit?: StatedUnit;
 }
 
 /** Invalid capture text: the message says what was wrong; `line` is 1-based when known. */

@@ -19,6 +19,9 @@ export interface MeasurementSettings {
   from: string | null;
   to: string | null;
   sortTime: boolean;
+  /** Given only when stated (records written before these options have neither). */
+  timeUnit?: string;
+  valueUnit?: string;
 }
 
 /** Cautions as logged: the standing advice and deferral are the same for every record and left out. */

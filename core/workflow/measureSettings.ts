@@ -2,6 +2,7 @@
 // entry, a bench record's settings), read once into the values the measuring use case takes.
 
 import { UsageError } from '../inputError';
+import { parseStatedUnit, type StatedUnit } from '../units/unitText';
 import type { FitWindow } from './measure';
 import type { KnownPartRequest } from './measuredComponents';
 import { parseChannel, parseKnown, parseSignedTime, parseTime, parseTopology } from './userValues';
@@ -21,12 +22,18 @@ export interface MeasureSettings {
   to?: string;
   /** Sort out-of-order time stamps instead of refusing them. Default false. */
   sortTime?: boolean;
+  /** Unit of the time column or of the file's stated interval, e.g. 'us'. Default: the file's, else seconds. */
+  timeUnit?: string;
+  /** Unit of the chosen channel's values, e.g. 'mV'. Default: the file's, else as written. */
+  valueUnit?: string;
 }
 
 export interface ParsedMeasureSettings {
   channel?: string | number;
   sampleInterval?: number;
   sortTime: boolean;
+  timeUnit?: StatedUnit;
+  valueUnit?: StatedUnit;
   window: FitWindow;
   knownPart?: KnownPartRequest;
 }
@@ -44,6 +51,8 @@ export function parseMeasureSettings(settings: MeasureSettings): ParsedMeasureSe
   };
   if (settings.column !== undefined) parsed.channel = parseChannel(settings.column);
   if (settings.sampleInterval !== undefined) parsed.sampleInterval = parseTime(settings.sampleInterval, '--sample-interval');
+  if (settings.timeUnit !== undefined) parsed.timeUnit = parseStatedUnit(settings.timeUnit, true, '--time-unit');
+  if (settings.valueUnit !== undefined) parsed.valueUnit = parseStatedUnit(settings.valueUnit, false, '--value-unit');
   if (settings.topology !== undefined && settings.known !== undefined) {
     parsed.knownPart = { topology: parseTopology(settings.topology), known: parseKnown(settings.known) };
   }

@@ -58,7 +58,9 @@ export function benchLogRequestProblem(value: unknown): string | null {
   if (!isObject(capture) || !isText(capture.path, MAX_PATH) || !isText(capture.channel) || !isSha256(capture.sha256) || !isCount(capture.bytes)) {
     return 'capture: must give path, channel, sha256 (64 hex digits) and bytes';
   }
-  if (!isSettings(value.settings)) return 'settings: must give topology, known, column, sampleInterval, from, to (text or null) and sortTime';
+  if (!isSettings(value.settings)) {
+    return 'settings: must give topology, known, column, sampleInterval, from, to (text or null) and sortTime, and timeUnit, valueUnit only as text';
+  }
   const fitProblem = fitSummaryProblem(value.fit);
   if (fitProblem) return `fit: ${fitProblem}`;
   if (value.verdict !== null && !isVerdict(value.verdict)) return 'verdict: must be a design check result or null';
@@ -120,7 +122,9 @@ function isVerdict(value: unknown): boolean {
 
 function isSettings(value: unknown): boolean {
   if (!isObject(value) || typeof value.sortTime !== 'boolean') return false;
-  return ['topology', 'known', 'column', 'sampleInterval', 'from', 'to'].every((key) => value[key] === null || isText(value[key]));
+  const given = ['topology', 'known', 'column', 'sampleInterval', 'from', 'to'].every((key) => value[key] === null || isText(value[key]));
+  // The stated units are left out when not given (and by records of earlier versions).
+  return given && ['timeUnit', 'valueUnit'].every((key) => value[key] === undefined || isText(value[key]));
 }
 
 /** JSON turns NaN and Infinity into null, so a number that could not be formed arrives as null. */

@@ -39,6 +39,8 @@ export function createBenchRecord(m: FileMeasurement, label: MeasurementLabel, o
       from: options.from ?? null,
       to: options.to ?? null,
       sortTime: options.sortTime ?? false,
+      ...(options.timeUnit === undefined ? {} : { timeUnit: options.timeUnit }),
+      ...(options.valueUnit === undefined ? {} : { valueUnit: options.valueUnit }),
     },
     fit: m.summary,
     verdict: m.verdict,

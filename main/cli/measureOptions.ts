@@ -9,11 +9,13 @@ export interface MeasureCommandOptions extends MeasureSettings {
   json?: boolean;
 }
 
-/** --column, --sample-interval, --from, --to, --sort-time. */
+/** --column, --sample-interval, --time-unit, --value-unit, --from, --to, --sort-time. */
 export function addCaptureOptions(command: Command): Command {
   return command
     .option('--column <name|index>', 'channel to fit: its name or 0-based index (default: the first)')
     .option('--sample-interval <time>', 'sample interval when the file has no time column, e.g. 2n')
+    .option('--time-unit <unit>', "unit of the time column or of the file's sample interval, over the file's, e.g. us")
+    .option('--value-unit <unit>', "unit of the channel's values, over the file's, e.g. mV")
     .option('--from <time>', 'start of the fit window (default: found from the data)')
     .option('--to <time>', 'end of the fit window (default: found from the data)')
     .option('--sort-time', 'sort out-of-order time stamps instead of failing');
@@ -31,6 +33,6 @@ export function addComponentOptions(command: Command): Command {
 
 /** The measuring settings alone, without --json and command-specific options. */
 export function measureSettingsOf(options: MeasureCommandOptions): MeasureSettings {
-  const { topology, known, column, sampleInterval, from, to, sortTime } = options;
-  return { topology, known, column, sampleInterval, from, to, sortTime };
+  const { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime } = options;
+  return { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime };
 }

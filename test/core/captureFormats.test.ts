@@ -206,11 +206,10 @@ describe('headers and units', () => {
     expect(capture.channels[1].values[0]).toBeCloseTo(values[0] * 1e-3, 15);
   });
 
-  it('keeps an unknown unit as written, with a warning', () => {
-    const capture = parseCapture(`Time (s),CH1 (div)\n${rowsOf((i) => `${times[i]},${values[i]}`)}`);
-    expect(capture.channels[0].unit).toBe('');
-    expectClose(capture.channels[0].values, values);
-    expect(capture.warnings.join('\n')).toContain("unit 'div' not recognised");
+  it('refuses an unknown unit, naming the column and the option that states it', () => {
+    expect(() => parseCapture(`Time (s),CH1 (div)\n${rowsOf((i) => `${times[i]},${values[i]}`)}`)).toThrow(
+      "line 1: column 'CH1 (div)': unit 'div' is not recognised; state the channel's unit with --value-unit",
+    );
   });
 
   it('reads several channels on one shared time axis', () => {

@@ -2,7 +2,7 @@
 
 import { describe, expect, it } from 'vitest';
 import { parseQuantityText, UnitError } from '../../core/units/parseQuantity';
-import { unitScale } from '../../core/units/unitScale';
+import { readUnitText } from '../../core/units/unitText';
 
 /** Equal to the nearest double of the exact decimal value (relative 1e-15). */
 function expectSi(actual: number, expected: number): void {
@@ -81,7 +81,7 @@ describe('parseQuantityText', () => {
   });
 });
 
-describe('unitScale', () => {
+describe('readUnitText', () => {
   it.each([
     ['mV', 1e-3, 'V'],
     ['V', 1, 'V'],
@@ -99,13 +99,13 @@ describe('unitScale', () => {
     ['uH', 1e-6, 'H'],
     [' mW ', 1e-3, 'W'],
   ])('%s -> scale %d, unit %s', (text, scale, unit) => {
-    const found = unitScale(text);
-    expect(found).not.toBeNull();
-    expectSi(found!.scale, scale);
-    expect(found!.unit).toBe(unit);
+    const found = readUnitText(text);
+    if (found.kind !== 'known') throw new Error(`'${text}' not read`);
+    expectSi(found.scale, scale);
+    expect(found.unit).toBe(unit);
   });
 
-  it.each(['', '%', 'div', 'm', 'S', 'Volts', 'dB', 'mm'])("returns null for '%s'", (text) => {
-    expect(unitScale(text)).toBeNull();
+  it.each(['', '%', 'div', 'm', 'dB', 'mm', 'furlongs', 'µx'])("does not know '%s'", (text) => {
+    expect(readUnitText(text).kind).toBe('unknown');
   });
 });

@@ -1,0 +1,227 @@
+// Units as people type them, in column headers and in a preamble's sample interval: read to SI, or refused by name.
+import { describe, expect, it } from 'vitest';
+import { parseCapture } from '../../core/capture/parseCapture';
+import { CaptureError } from '../../core/capture/types';
+import { UsageError } from '../../core/inputError';
+import { parseStatedUnit } from '../../core/units/unitText';
+
+const N = 30;
+/** Relative tolerance for a number scaled once to SI. */
+const REL = 1e-12;
+
+/** Time spellings and their scale to seconds. */
+const TIME_UNITS: [string, number][] = [
+  ['s', 1],
+  ['ms', 1e-3],
+  ['us', 1e-6],
+  ['\u00b5s', 1e-6],
+  ['\u03bcs', 1e-6],
+  ['ns', 1e-9],
+  ['ps', 1e-12],
+  ['uS', 1e-6],
+  ['nS', 1e-9],
+  ['mSec', 1e-3],
+  ['NS', 1e-9],
+  ['nsecs', 1e-9],
+  ['usec', 1e-6],
+  ['microseconds', 1e-6],
+  ['Sec', 1],
+  ['seconds', 1],
+];
+
+/** Value spellings, their scale to SI and the SI unit. */
+const VALUE_UNITS: [string, number, string][] = [
+  ['V', 1, 'V'],
+  ['mV', 1e-3, 'V'],
+  ['\u00b5V', 1e-6, 'V'],
+  ['uV', 1e-6, 'V'],
+  ['kV', 1e3, 'V'],
+  ['A', 1, 'A'],
+  ['mA', 1e-3, 'A'],
+  ['\u00b5A', 1e-6, 'A'],
+  ['uA', 1e-6, 'A'],
+];
+
+const values = Array.from({ length: N }, (_, i) => 1 + ((i * 7) % 5));
+
+/** Rows 't,v' with t = 10, 11, 12... in the header's unit. */
+function timedRows(): string {
+  return values.map((v, i) => `${10 + i},${v}`).join('\n');
+}
+
+function close(actual: number, expected: number): void {
+  expect(Math.abs(actual - expected)).toBeLessThanOrEqual(REL * Math.abs(expected));
+}
+
+function captureError(run: () => unknown): CaptureError {
+  try {
+    run();
+  } catch (error) {
+    if (error instanceof CaptureError) return error;
+    throw error;
+  }
+  throw new Error('expected a CaptureError');
+}
+
+describe('time units in a column header', () => {
+  const forms: [string, (unit: string) => string][] = [
+    ['Time (unit)', (u) => `Time (${u})`],
+    ['Time[unit]', (u) => `Time[${u}]`],
+    ['time_unit', (u) => `time_${u}`],
+  ];
+  for (const [form, heading] of forms) {
+    it.each(TIME_UNITS)(`${form} with '%s' gives the axis in s`, (unit, scale) => {
+      const capture = parseCapture(`${heading(unit)},CH1(V)\n${timedRows()}`);
+      const { time } = capture.channels[0];
+      close(time[0], 10 * scale);
+      close(capture.sampleInterval as number, scale);
+      expect(capture.warnings).toEqual([]);
+    });
+  }
+});
+
+describe('time units of a sample-interval line', () => {
+  const body = `CH1 (V)\n${values.join('\n')}`;
+  it.each(TIME_UNITS)("'Sample Interval,2 %s' gives the interval in s", (unit, scale) => {
+    const capture = parseCapture(`Sample Interval,2 ${unit}\n${body}`);
+    close(capture.sampleInterval as number, 2 * scale);
+    expect(capture.channels[0].time[0]).toBe(0);
+    close(capture.channels[0].time[N - 1], (N - 1) * 2 * scale);
+  });
+
+  it.each(TIME_UNITS)("'XIncrement (%s): 2' gives the interval in s", (unit, scale) => {
+    const capture = parseCapture(`XIncrement (${unit}): 2\n${body}`);
+    close(capture.sampleInterval as number, 2 * scale);
+  });
+});
+
+describe('value units in a column header', () => {
+  const forms: [string, (unit: string) => string][] = [
+    ['CH1 (unit)', (u) => `CH1 (${u})`],
+    ['CH1(unit)', (u) => `CH1(${u})`],
+    ['CH1 [unit]', (u) => `CH1 [${u}]`],
+    ['CH1_unit', (u) => `CH1_${u}`],
+  ];
+  for (const [form, heading] of forms) {
+    // A one-letter suffix stays part of the name ('V_C', 'I_A'): the '_unit' form is read from two letters on.
+    const units = form.includes('_') ? VALUE_UNITS.filter(([unit]) => unit.length >= 2) : VALUE_UNITS;
+    it.each(units)(`${form} with '%s' gives SI values`, (unit, scale, si) => {
+      const capture = parseCapture(`Time (s),${heading(unit)}\n${timedRows()}`);
+      const channel = capture.channels[0];
+      expect(channel.name).toBe('CH1');
+      expect(channel.unit).toBe(si);
+      values.forEach((v, i) => close(channel.values[i], v * scale));
+    });
+  }
+});
+
+describe('a unit that cannot be read is refused, naming where and the option', () => {
+  it.each(['MS', 'Ms', 'MSec'])("'Time (%s)' is ambiguous: --time-unit", (unit) => {
+    const error = captureError(() => parseCapture(`Time (${unit}),CH1 (V)\n${timedRows()}`));
+    expect(error.line).toBe(1);
+    expect(error.message).toContain(`column 'Time (${unit})'`);
+    expect(error.message).toContain(`'${unit}' is ambiguous`);
+    expect(error.message).toContain('--time-unit');
+  });
+
+  it("'Sample Interval,2 MS' is ambiguous: --time-unit, on its line", () => {
+    const error = captureError(() => parseCapture(`# scope\nSample Interval,2 MS\nCH1 (V)\n${values.join('\n')}`));
+    expect(error.line).toBe(2);
+    expect(error.message).toMatch(/^line 2: 'Sample Interval': unit 'MS' is ambiguous .*--time-unit/);
+  });
+
+  it.each([
+    ['Time (furlongs),CH1 (V)', "column 'Time (furlongs)'", "'furlongs'", '--time-unit'],
+    ['Time (\u00b5x),CH1 (V)', "column 'Time (\u00b5x)'", "'\u00b5x'", '--time-unit'],
+    ['Time (s),CH1 (furlongs)', "column 'CH1 (furlongs)'", "'furlongs'", '--value-unit'],
+    ['Time (s),CH1 (\u00b5x)', "column 'CH1 (\u00b5x)'", "'\u00b5x'", '--value-unit'],
+    ['Time (s),CH1 (\u0007)', "column 'CH1 (\\x07)'", "'\\x07'", '--value-unit'],
+    ['Time (V),CH1 (V)', "column 'Time (V)'", "'V' is not a unit of time", '--time-unit'],
+  ])("'%s' is refused", (header, column, unit, option) => {
+    const error = captureError(() => parseCapture(`${header}\n${timedRows()}`));
+    expect(error.line).toBe(1);
+    expect(error.message).toContain(column);
+    expect(error.message).toContain(unit);
+    expect(error.message).toContain(option);
+    expect(error.message).not.toMatch(/[\u0000-\u001f]/);
+  });
+
+  it.each([
+    ['Sample Interval,2 furlongs', "'furlongs'"],
+    ['Sample Interval: 2 \u00b5x', "'\u00b5x'"],
+    ['dt [\u0001],2', "'\\x01'"],
+  ])("'%s' is refused on its line with --time-unit", (line, unit) => {
+    const error = captureError(() => parseCapture(`${line}\nCH1 (V)\n${values.join('\n')}`));
+    expect(error.line).toBe(1);
+    expect(error.message).toContain(unit);
+    expect(error.message).toContain('--time-unit');
+    expect(error.message).not.toMatch(/[\u0000-\u001f]/);
+  });
+
+  it('a column without a unit keeps being read as written (time in s)', () => {
+    const capture = parseCapture(`Time,CH1\n${timedRows()}`);
+    expect(capture.channels[0].time[0]).toBe(10);
+    expect(capture.channels[0].unit).toBe('');
+    expect(capture.channels[0].values[0]).toBe(values[0]);
+  });
+
+  it('a date or clock time after a start key is no unit', () => {
+    const capture = parseCapture(`Start Time,2024-03-14 09:26:05\nSample Interval,1e-6\nCH1 (V)\n${values.join('\n')}`);
+    expect(capture.sampleInterval).toBe(1e-6);
+    expect(capture.channels[0].time[0]).toBe(0);
+  });
+});
+
+describe('the stated units fix each refusal', () => {
+  const timeUnit = (text: string) => parseStatedUnit(text, true, '--time-unit');
+  const valueUnit = (text: string) => parseStatedUnit(text, false, '--value-unit');
+
+  it('timeUnit reads an ambiguous or unknown time column, with a note', () => {
+    for (const unit of ['MS', 'furlongs']) {
+      const capture = parseCapture(`Time (${unit}),CH1 (V)\n${timedRows()}`, { timeUnit: timeUnit('ms') });
+      close(capture.channels[0].time[0], 10e-3);
+      expect(capture.warnings.join('\n')).toContain(`'${unit}' is replaced by --time-unit ms`);
+    }
+  });
+
+  it('timeUnit reads a stated interval, and a time column without a unit, silently', () => {
+    const interval = parseCapture(`Sample Interval,2 MS\nCH1 (V)\n${values.join('\n')}`, { timeUnit: timeUnit('ms') });
+    close(interval.sampleInterval as number, 2e-3);
+    expect(interval.warnings.join('\n')).toContain("'MS' of 'Sample Interval' is replaced by --time-unit ms");
+    const bare = parseCapture(`Time,CH1 (V)\n${timedRows()}`, { timeUnit: timeUnit('us') });
+    close(bare.channels[0].time[0], 10e-6);
+    expect(bare.warnings).toEqual([]);
+  });
+
+  it('timeUnit scales a headerless time column; valueUnit its channel', () => {
+    const rows = values.map((v, i) => `${10 + 2.5 * i},${v}`).join('\n');
+    const capture = parseCapture(rows, { timeUnit: timeUnit('ns'), valueUnit: valueUnit('mA') });
+    close(capture.channels[0].time[1], 12.5e-9);
+    expect(capture.channels[0].unit).toBe('A');
+    close(capture.channels[0].values[0], values[0] * 1e-3);
+  });
+
+  it('valueUnit reads an unknown channel unit, with a note', () => {
+    const capture = parseCapture(`Time (s),CH1 (\u00b5x)\n${timedRows()}`, { valueUnit: valueUnit('mV') });
+    expect(capture.channels[0].unit).toBe('V');
+    close(capture.channels[0].values[0], values[0] * 1e-3);
+    expect(capture.warnings.join('\n')).toContain("column 'CH1 (\u00b5x)': its unit '\u00b5x' is replaced by --value-unit mV");
+  });
+
+  it('the same unit stated as the file has it gives no note', () => {
+    const capture = parseCapture(`Time (us),CH1 (mV)\n${timedRows()}`, { timeUnit: timeUnit('\u00b5s'), valueUnit: valueUnit('mv') });
+    expect(capture.warnings).toEqual([]);
+  });
+
+  it.each([
+    ['MS', true, "--time-unit 'MS': unit 'MS' is ambiguous"],
+    ['furlongs', true, "--time-unit 'furlongs': unit 'furlongs' is not recognised"],
+    ['mV', true, "--time-unit 'mV': unit 'mV' is not a unit of time"],
+    ['us', false, "--value-unit 'us': unit 'us' is a unit of time"],
+    ['\u0007', false, "--value-unit '\\x07'"],
+  ])("a stated unit '%s' that cannot be used is a UsageError naming the option", (text, isTime, message) => {
+    const option = isTime ? '--time-unit' : '--value-unit';
+    expect(() => parseStatedUnit(text, isTime, option)).toThrow(UsageError);
+    expect(() => parseStatedUnit(text, isTime, option)).toThrow(message);
+  });
+});
