@@ -33,7 +33,8 @@ export function loadDesignFile(path: string, cwd: string): LoadedDesign {
 /** The capture file read with the settings' channel, sample interval and time-order rule. */
 export function loadCaptureFor(file: string, settings: MeasureSettings, cwd: string): LoadedCapture {
   const parsed = parseMeasureSettings(settings);
-  return loadCapture(file, { cwd, channel: parsed.channel, sampleInterval: parsed.sampleInterval, sortTime: parsed.sortTime });
+  const { channel, sampleInterval, sortTime, timeUnit, valueUnit } = parsed;
+  return loadCapture(file, { cwd, channel, sampleInterval, sortTime, timeUnit, valueUnit });
 }
 
 /** Fit one capture file; with a design, its verdict; the cautions from its samples. A part or design that cannot be used throws. */
