@@ -97,6 +97,8 @@ function missingField(r: Record<string, unknown>): string | null {
   if (!isObject(fit) || !isObject(fit.alpha) || !isObject(fit.omega0) || typeof fit.status !== 'string') {
     return '"fit" must be a fit summary (status, alpha, omega0, ...)';
   }
+  // Records logged before the import summary was kept have none.
+  if (fit.import !== undefined && !isObject(fit.import)) return '"fit.import" must be an import summary object';
   if (r.verdict !== null && !isObject(r.verdict)) return '"verdict" must be an object or null';
   if (r.design !== null && !isObject(r.design)) return '"design" must be an object or null';
   if (!isObject(r.cautions) || !Array.isArray(r.cautions.fired)) return '"cautions" must list the fired cautions';

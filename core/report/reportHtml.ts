@@ -7,6 +7,7 @@ import type { BenchRecord } from './benchRecord';
 import type { FitSummary } from './fitSummary';
 import type { Verdict } from '../circuit/verdict';
 import { escapeHtml as e } from './escape';
+import { importRows } from './importText';
 import { renderMeasurementPlot, type ReportTrace } from './overlay';
 import { briefValue, fitResultRows, fitTransitionRows, marginText, showTime, transitionNote } from './resultRows';
 import { reproduceCommand } from './reproduce';
@@ -127,11 +128,19 @@ function measurement(record: BenchRecord, id: string, options: ReportOptions): s
   html += figure;
   html += `<div class="block"><h4>Fit: ${e(fit.regime)}</h4>${resultsTable(record)}</div>`;
   html += transitionsBlock(fit);
+  html += importBlock(fit);
   html += `<div class="block">${record.verdict ? verdictBlock(record.verdict, record.design?.name ?? 'design', fit.finalValue.unit) : '<h4>Verdict</h4><p class="fineprint">Not checked against a design.</p>'}</div>`;
   if (fit.warnings.length) html += `<div class="block"><h4>Warnings</h4><ul>${fit.warnings.map((w) => `<li class="warning">${e(w)}</li>`).join('')}</ul></div>`;
   html += cautionsBlock(record);
   html += reproduceBlock(record);
   return `${html}</article>`;
+}
+
+/** How the capture file was read, when the record keeps it (records logged before it was kept have none). */
+function importBlock(fit: FitSummary): string {
+  if (!fit.import) return '';
+  const rows = importRows(fit.import).map((row) => `<tr><th scope="row">${e(row.label)}</th><td>${e(row.text)}</td></tr>`);
+  return `<div class="block"><h4>How the file was read</h4><table class="import"><tbody>${rows.join('')}</tbody></table></div>`;
 }
 
 function resultsTable(record: BenchRecord): string {

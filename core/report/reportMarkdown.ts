@@ -4,6 +4,7 @@ import { formatEngineering, formatMeasured } from '../units/format';
 import { DEFERRAL, STANDING_ADVICE, STANDING_ADVICE_SOURCE } from '../safety/standingAdvice';
 import type { BenchRecord } from './benchRecord';
 import { escapeMarkdown as m } from './escape';
+import { importRows } from './importText';
 import { fitResultRows, fitTransitionRows, marginText, showTime, transitionNote } from './resultRows';
 import { reproduceCommand } from './reproduce';
 import { YIELD_RULE, recordStatus, summarizeYield } from './yieldSummary';
@@ -61,6 +62,11 @@ function measurement(record: BenchRecord, notes: string[]): string[] {
     for (const row of transitions) lines.push(`| ${m(row.symbol)} | ${m(row.modelText)} | ${m(row.measuredText)} |`);
   }
   for (const warning of fit.transitions?.warnings ?? []) lines.push('', `Warning (transitions): ${m(warning)}`);
+  // How the capture file was read, when the record keeps it (records logged before it was kept have none).
+  if (fit.import) {
+    lines.push('', 'How the file was read:', '');
+    for (const row of importRows(fit.import)) lines.push(`- ${m(row.label)}: ${m(row.text)}`);
+  }
   if (record.verdict) {
     lines.push('', `Verdict against ${m(record.design?.name ?? 'design')}: ${record.verdict.pass ? 'pass' : 'fail'}.`, '');
     lines.push('| Quantity | Design | Measured | Margin | In tolerance |', '| --- | --- | --- | ---: | --- |');

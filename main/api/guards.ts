@@ -3,6 +3,7 @@
 import { isAbsolute } from 'node:path';
 import type { BenchLogRequest, SaveRequest } from '../../core/bench/benchApiTypes';
 import { API_METHODS, type ApiMethod } from './apiMethods';
+import { importSummaryProblem } from './importSummaryGuard';
 import { RESULT_ROWS, TRANSITION_ROWS, valueAtPath, type ResultRowSpec } from '../../core/report/resultRows';
 
 type Json = Record<string, unknown>;
@@ -94,7 +95,10 @@ function fitSummaryProblem(value: unknown): string | null {
   if (!isCount(value.samplesUsed)) return 'samplesUsed must be a count';
   if (!isObject(value.window) || !isNumberOrNull(value.window.start) || !isNumberOrNull(value.window.end)) return 'window must give start and end';
   if (!Array.isArray(value.warnings) || !value.warnings.every((w) => isText(w, 10 * MAX_TEXT))) return 'warnings must be a list of text';
-  return value.transitions === undefined ? null : transitionsProblem(value.transitions);
+  const transitions = value.transitions === undefined ? null : transitionsProblem(value.transitions);
+  if (transitions) return transitions;
+  const imported = value.import === undefined ? null : importSummaryProblem(value.import);
+  return imported ? `import: ${imported}` : null;
 }
 
 /** The transition metrics the reports show (the row table's), each a quantity or null from the model, a number or null as measured. */

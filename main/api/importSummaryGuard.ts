@@ -1,0 +1,88 @@
+// The check of an import summary a window sends with its log request, field by field.
+
+type Json = Record<string, unknown>;
+
+/** Longest text field accepted (a column heading, a reason), as for the other fields of a log request. */
+const MAX_TEXT = 2000;
+/** Longest warning accepted: a warning quotes lines of the file, so it may run longer (as the fit's warnings may). */
+const MAX_WARNING = 10 * MAX_TEXT;
+
+const SUMMARY_KEYS = [
+  'encoding',
+  'delimiter',
+  'decimalMark',
+  'lineEnd',
+  'headerLine',
+  'firstDataLine',
+  'rows',
+  'time',
+  'sampleInterval',
+  'jitter',
+  'channels',
+  'droppedRows',
+  'ignoredSections',
+  'segments',
+  'warnings',
+];
+const DELIMITERS = ['comma', 'semicolon', 'tab', 'whitespace', 'none'];
+const LINE_ENDS = ['CRLF', 'LF', 'CR', null];
+
+function isObject(value: unknown): value is Json {
+  return typeof value === 'object' && value !== null && !Array.isArray(value);
+}
+
+function isText(value: unknown, max = MAX_TEXT): value is string {
+  return typeof value === 'string' && value.length <= max && !value.includes('\0');
+}
+
+function isCount(value: unknown): boolean {
+  return typeof value === 'number' && Number.isInteger(value) && value >= 0;
+}
+
+function isLine(value: unknown): boolean {
+  return typeof value === 'number' && Number.isInteger(value) && value >= 1;
+}
+
+function isListOf(value: unknown, item: (x: Json) => boolean): boolean {
+  return Array.isArray(value) && value.every((x) => isObject(x) && item(x));
+}
+
+function timeProblem(time: unknown): string | null {
+  if (!isObject(time)) return 'time must be an object';
+  if (time.kind === 'column') {
+    return isText(time.column) && isLine(time.index) && isText(time.unit) ? null : 'time: a column source needs column, index and unit';
+  }
+  if (time.kind === 'interval') {
+    const stated = time.from === 'preamble' ? isText(time.key) && isLine(time.line) : time.from === 'option' && time.key === null && time.line === null;
+    return typeof time.interval === 'number' && time.interval > 0 && stated ? null : 'time: an interval source needs interval, from, key and line';
+  }
+  return "time.kind must be 'column' or 'interval'";
+}
+
+/** The first thing wrong with an import summary, as a phrase naming the field, or null. */
+export function importSummaryProblem(value: unknown): string | null {
+  if (!isObject(value)) return 'must be an import summary';
+  const extra = Object.keys(value).find((key) => !SUMMARY_KEYS.includes(key));
+  if (extra !== undefined) return `has an unknown field "${extra}"`;
+  const encoding = value.encoding;
+  if (!isObject(encoding) || !isText(encoding.name) || typeof encoding.byteOrderMark !== 'boolean') return 'encoding must give name and byteOrderMark';
+  if (!DELIMITERS.includes(value.delimiter as string)) return `delimiter must be one of ${DELIMITERS.join(', ')}`;
+  if (value.decimalMark !== '.' && value.decimalMark !== ',') return "decimalMark must be '.' or ','";
+  if (!LINE_ENDS.includes(value.lineEnd as string | null)) return 'lineEnd must be CRLF, LF, CR or null';
+  if (!(value.headerLine === null || isLine(value.headerLine)) || !isLine(value.firstDataLine) || !isCount(value.rows)) {
+    return 'headerLine, firstDataLine and rows must be line numbers and a count';
+  }
+  const time = timeProblem(value.time);
+  if (time) return time;
+  if (typeof value.sampleInterval !== 'number' || !(value.jitter === null || typeof value.jitter === 'number')) return 'sampleInterval and jitter must be numbers';
+  if (!isListOf(value.channels, (c) => isText(c.name) && isText(c.unit) && isCount(c.samples) && isCount(c.dropped) && isCount(c.clipped))) {
+    return 'channels must list name, unit, samples, dropped and clipped';
+  }
+  if (!isListOf(value.droppedRows, (d) => isText(d.reason) && isCount(d.count) && (d.firstLine === null || isLine(d.firstLine)))) {
+    return 'droppedRows must list reason, count and firstLine';
+  }
+  if (!isListOf(value.ignoredSections, (x) => isLine(x.firstLine) && isLine(x.lastLine) && isText(x.reason))) return 'ignoredSections must list firstLine, lastLine and reason';
+  if (!isListOf(value.segments, (x) => isLine(x.firstLine) && isLine(x.lastLine) && isCount(x.rows))) return 'segments must list firstLine, lastLine and rows';
+  if (!Array.isArray(value.warnings) || !value.warnings.every((w) => isText(w, MAX_WARNING))) return 'warnings must be a list of text';
+  return null;
+}
