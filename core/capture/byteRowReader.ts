@@ -65,10 +65,11 @@ export class ByteRowReader {
       p = this.skipPads(bytes, p + 1);
     }
     if (!this.endsLine(bytes, p)) return this.passLine(bytes, p, DECLINED);
-    return this.commit(columns, row, col);
+    return this.commit(columns, row, col, start);
   }
 
   private readWhitespace(bytes: Uint8Array, p: number, limit: number): number {
+    const start = p;
     const columns = this.store.columns;
     const row = this.store.length;
     let col = 0;
@@ -83,7 +84,7 @@ export class ByteRowReader {
       // A number must be followed by whitespace to be the whole cell.
       if (p === numberEnd) return this.passLine(bytes, p, DECLINED);
     }
-    return this.commit(columns, row, col);
+    return this.commit(columns, row, col, start);
   }
 
   private skipPads(bytes: Uint8Array, p: number): number {
@@ -107,10 +108,11 @@ export class ByteRowReader {
     return outcome;
   }
 
-  /** Missing trailing cells are empty (NaN); the row is kept. */
-  private commit(columns: Float64Array[], row: number, filled: number): number {
+  /** Missing trailing cells are empty (NaN); the row, from `start` to lineFeed, is kept and counted as input. */
+  private commit(columns: Float64Array[], row: number, filled: number, start: number): number {
     for (let col = filled; col < this.count; col++) columns[col][row] = NaN;
     this.store.length = row + 1;
+    this.store.input += this.lineFeed - start + 1;
     return ROW;
   }
 }

@@ -2,6 +2,7 @@
 
 import { CaptureError, type CaptureOptions } from './types';
 import { isTimestamp, slowCellValue } from './cellValue';
+import { checkColumnCount } from './captureLimits';
 import { columnUnit, isTimeName, isUnitsRow, parseColumnHeading, readsAsTime, unitCellText, type ColumnHeading } from './columnHeader';
 import { sameShape, dataShape, type DataShape } from './dataShape';
 import { isBlankOrComment, readPreamble, type Preamble, type PreambleLine, type StatedTime } from './preamble';
@@ -171,6 +172,7 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
   }
   const headings = header ? headerCells(header.text, delimiter) : [];
   const count = Math.max(headings.length, dataCount);
+  checkColumnCount(count, header && headings.length > dataCount ? header.line : head[runStart].line);
   const firstCells = first.cells;
   const warnings: string[] = [];
   const columns: ColumnPlan[] = [];

@@ -26,6 +26,7 @@ import { ByteRowReader, DECLINED } from './byteRowReader';
 import { ColumnStore } from './columnStore';
 import { dataShape, sameShape, type DataShape } from './dataShape';
 import { decideLayout, type Layout } from './layout';
+import { MAX_LINE_LENGTH, checkLastLine, checkUnfinishedLine, lineTooLong } from './captureLimits';
 import { LineMap } from './lineMap';
 import { isBlankOrComment, type PreambleLine } from './preamble';
 import { ROW, RowReader, SKIP } from './rowReader';
@@ -120,14 +121,16 @@ class StreamingReader implements CaptureReader {
     let pos = 0;
     while (pos < complete && this.byteRows === null) {
       const cut = this.layout === null ? lineEndAfter(bytes, pos + HEAD_BYTES, complete) : complete;
+      checkLastLine(bytes, pos, cut, this.line + 1);
       this.push(this.decoder()(bytes.subarray(pos, cut)));
       pos = cut;
       this.byteRows = this.byteRowReader();
     }
     if (pos < complete) {
-      (this.store as ColumnStore).expect(estimateLines(bytes, pos, complete));
+      (this.store as ColumnStore).expect(estimateLines(bytes, pos, complete), complete - pos);
       this.readByteLines(bytes, pos, complete);
     }
+    checkUnfinishedLine(bytes, complete, this.line + 1);
     this.carriedBytes = bytes.slice(complete);
   }
 
@@ -160,6 +163,7 @@ class StreamingReader implements CaptureReader {
   /** One line, text[start, end) without its terminator. */
   private take(text: string, start: number, end: number): void {
     this.line++;
+    if (end - start > MAX_LINE_LENGTH) throw lineTooLong(this.line);
     if (this.rows) {
       this.readRow(text, this.line, start, end);
       return;
@@ -194,6 +198,7 @@ class StreamingReader implements CaptureReader {
       const line = ++this.line;
       const outcome = byteRows.read(bytes, pos, complete);
       const at = byteRows.lineFeed;
+      if (at - pos > MAX_LINE_LENGTH) throw lineTooLong(line);
       if (outcome === ROW) this.rowStored(line);
       else if (outcome === DECLINED) {
         const end = at > pos && bytes[at - 1] === CR ? at - 1 : at;
@@ -240,7 +245,7 @@ class StreamingReader implements CaptureReader {
     const layout = decideLayout(this.head, this.run, this.options);
     const parsed = layout.columns.map((c) => c.kind !== 'timestamp');
     this.layout = layout;
-    this.store = new ColumnStore(parsed);
+    this.store = new ColumnStore(parsed, () => this.line);
     const rows = new RowReader(this.store, parsed, layout.delimiter || ',', layout.decimalComma);
     this.rows = rows;
     for (const { text, line } of this.head.slice(this.run[0])) {

@@ -50,6 +50,7 @@ export class RowReader {
       const q = text.indexOf('"', start);
       this.nextQuote = q < 0 ? NOT_FOUND : q;
     }
+    this.store.input += end - start + 1;
     this.store.reserve();
     if (this.nextQuote < end) return this.readCells(splitLine(text.slice(start, end), this.delimiter));
     return this.delimiterCode < 0 ? this.readWhitespace(p, end) : this.readDelimited(start, end);
