@@ -40,9 +40,11 @@ function label(column: ColumnPlan): string {
 
 /** A headerless first column is time when strictly increasing (or to be sorted); otherwise it is a channel. */
 function resolveFirstColumn(layout: Layout, store: ColumnStore, lines: LineMap, options: CaptureOptions): void {
-  const first = layout.columns[0];
-  if (first?.kind !== 'maybe-time') return;
-  const problem = findOrderProblem(store.column(0));
+  // The first column that is not ignored (a leading empty field or a sample index may come before it).
+  const index = layout.columns.findIndex((c) => c.kind === 'maybe-time');
+  if (index < 0) return;
+  const first = layout.columns[index];
+  const problem = findOrderProblem(store.column(index));
   if (problem === null || options.sortTime) {
     first.kind = 'time';
     first.scale = options.timeUnit?.scale ?? 1;

@@ -140,19 +140,21 @@ export function leadingNumber(bytes: Uint8Array, start: number, end: number, dec
   return composeNumber(mantissa, exponent, negative);
 }
 
-const MISSING = new Set(['', 'nan', '-nan', '+nan', 'inf', '-inf', '+inf', 'infinity', '-infinity', '+infinity', 'null', 'none', 'n/a', 'na', '-', '--', 'over', 'under', 'overrange', 'ovf', 'clip', '?']);
+const MISSING = new Set(['', 'nan', '-nan', '+nan', 'inf', '-inf', '+inf', 'infinity', '-infinity', '+infinity', 'null', 'none', 'n/a', 'na', 'over', 'under', 'overrange', 'ovf', 'clip', '?']);
 const STARS = /^\*+$/;
+/** A run of dashes ('----'): how some exports fill a cell they have no sample for. */
+const DASHES = /^-+$/;
 const HEX = /^[+-]?0[xob]/i;
 
 /**
- * A cell the fast path did not take: its value, NaN for a missing or overrange cell (empty, NaN, inf, '****',
+ * A cell the fast path did not take: its value, NaN for a missing or overrange cell (empty, NaN, inf, '****', '----',
  * |x| >= 9.9e37), or null for junk that is not a number. `decimalComma` lets '1,5' mean 1.5.
  */
 export function slowCellValue(cell: string, decimalComma: boolean): number | null {
   let text = cell.trim();
   if (text.length >= 2 && text.startsWith('"') && text.endsWith('"')) text = text.slice(1, -1).trim();
   const lower = text.toLowerCase();
-  if (MISSING.has(lower) || STARS.test(text)) return NaN;
+  if (MISSING.has(lower) || STARS.test(text) || DASHES.test(text)) return NaN;
   if (HEX.test(text)) return null;
   const normal = decimalComma && text.includes(',') && !text.includes('.') ? text.replace(',', '.') : text;
   const value = Number(normal);

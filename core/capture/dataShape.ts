@@ -34,7 +34,7 @@ function judge(cells: string[], delimiter: string): DataShape | null {
 
 /** The shape of `text` when it is a row of numbers (missing-value markers and time stamps allowed), else null. */
 export function dataShape(text: string): DataShape | null {
-  if (isBlankOrComment(text)) return null;
+  if (isBlankOrComment(text)) return emptyFirstField(text);
   let best: DataShape | null = null;
   for (const delimiter of CANDIDATES) {
     const present = delimiter === WHITESPACE ? /\S\s+\S/.test(text.trim()) : text.includes(delimiter);
@@ -43,6 +43,17 @@ export function dataShape(text: string): DataShape | null {
     if (shape && (!best || shape.cells.length > best.cells.length)) best = shape;
   }
   return best ?? judge([text], '');
+}
+
+/** Numbers needed on a ';'-led line for it to be a row opening with an empty field rather than a comment. */
+const NUMBERS_AFTER_EMPTY_FIELD = 2;
+
+/** A ';'-separated row opening with an empty field (';-1e-5;0.8'), which would otherwise read as a comment; else null. */
+function emptyFirstField(text: string): DataShape | null {
+  if (!text.trimStart().startsWith(';')) return null;
+  const shape = judge(splitLine(text, ';'), ';');
+  const numbers = shape ? shape.cells.filter((c) => !Number.isNaN(slowCellValue(c, true) ?? NaN)).length : 0;
+  return numbers >= NUMBERS_AFTER_EMPTY_FIELD ? shape : null;
 }
 
 /** Two rows belong to the same table when they split the same way into the same number of cells. */

@@ -11,9 +11,10 @@ import { readUnitText } from '../units/unitText';
 
 /**
  * 'time': numbers on a time axis; 'timestamp': wall-clock stamps, axis rebuilt from the interval;
- * 'maybe-time': first column of a headerless file, time when strictly increasing (decided at the end); 'value'.
+ * 'maybe-time': first column of a headerless file, time when strictly increasing (decided at the end); 'value';
+ * 'ignored': read but not a channel (an empty leading field, a sample index, cells of stated timing).
  */
-export type ColumnKind = 'time' | 'timestamp' | 'maybe-time' | 'value';
+export type ColumnKind = 'time' | 'timestamp' | 'maybe-time' | 'value' | 'ignored';
 
 export interface ColumnPlan {
   kind: ColumnKind;
@@ -32,6 +33,8 @@ export interface Layout {
   delimiter: string;
   decimalComma: boolean;
   headerLine: number | null;
+  /** The header line as written, to know it again when it is repeated inside the table; null without one. */
+  headerText: string | null;
   firstDataLine: number;
   columns: ColumnPlan[];
   preamble: Preamble;
@@ -59,9 +62,16 @@ function headerCells(text: string, delimiter: string): string[] {
   return merged;
 }
 
+/** A single cell holding a number among its words ('Sample interval,2e-6', 'Increment 2e-6'): metadata, no name. */
+function statesANumber(cell: string): boolean {
+  return /[:=]\s*\S/.test(cell) || cell.split(/[\s,;]+/).some((word) => word !== '' && slowCellValue(word, false) !== null);
+}
+
+/** A header names every data column, or all but the first when at least 3 remain (an unnamed time column). */
 function looksLikeHeader(cells: string[], dataCount: number): boolean {
-  if (cells.length < dataCount || cells.length === 0) return false;
-  if (cells.length === 1 && /[:=]\s*\S/.test(cells[0])) return false;
+  const named = cells.filter((c) => c.trim() !== '').length;
+  if (cells.length === 0 || (cells.length < dataCount && !(dataCount >= 3 && named === dataCount - 1))) return false;
+  if (cells.length === 1 && statesANumber(cells[0])) return false;
   return cells.every((c) => c === '' || (slowCellValue(c, false) === null && !isTimestamp(c)));
 }
 
@@ -82,7 +92,12 @@ function pairedName(valueName: string, timeName: string | null): string {
 }
 
 function isTimeKind(kind: ColumnKind): boolean {
-  return kind !== 'value';
+  return kind === 'time' || kind === 'timestamp' || kind === 'maybe-time';
+}
+
+/** The delimiter the row readers split on: a one-column table with decimal commas must not be split at them. */
+export function rowDelimiter(layout: Layout): string {
+  return layout.delimiter || (layout.decimalComma ? '\t' : ',');
 }
 
 /** Each value column takes the nearest time column on its left, else the first one, else none. */
@@ -100,6 +115,7 @@ export function nameChannels(columns: ColumnPlan[], hasHeader: boolean): void {
   let count = 0;
   const seen = new Map<string, number>();
   columns.forEach((column, index) => {
+    if (column.kind === 'ignored') return;
     if (isTimeKind(column.kind)) {
       if (column.name === '') column.name = 'time';
       return;
@@ -144,33 +160,136 @@ function chooseInterval(preamble: Preamble, options: CaptureOptions, warnings: s
   return stated ? { ...stated, source: `'${stated.key}' on line ${stated.line}` } : null;
 }
 
+/** Names of a column that counts samples rather than measuring anything. */
+const INDEX_NAME = /^(?:index|idx|samples?|sample ?(?:no|nr|number|#)|no|nr|#|points?|pt|seq|sequence|counter)\.?$/i;
+/** Fewest digits after a decimal comma for '0,123' to be read as one number rather than two columns (fixed decimals). */
+const FIXED_DECIMALS = 3;
+/** Preamble keys stating a vertical scale per division or per code, which integer values may be meant to take. */
+const VERTICAL_SCALE_KEY = /per\s*div|\/\s*div|codes?\s*per|vertical\s*(?:scale|gain)|volts?\s*per/i;
+const WHOLE_NUMBER = /^[-+]?\d+$/;
+
+/** True when the cells are whole numbers counting up by one (a sample index or sequence number). */
+function countsUp(cells: (string | undefined)[]): boolean {
+  if (!cells.every((c) => c !== undefined && WHOLE_NUMBER.test(c.trim()))) return false;
+  return cells.every((c, k) => k === 0 || Number(c) === Number(cells[k - 1]) + 1);
+}
+
+/** True when the cells are numbers increasing strictly. */
+function increases(cells: (string | undefined)[], decimalComma: boolean): boolean {
+  const values = cells.map((c) => (c === undefined ? null : slowCellValue(c, decimalComma)));
+  return values.every((v, k) => v !== null && !Number.isNaN(v) && (k === 0 || v > (values[k - 1] as number)));
+}
+
+/**
+ * Rows such as '0,125' that split at the comma into a whole number and a run of fixed decimals, under a line with
+ * no comma: one column written with decimal commas. A whole number counting up ('0,25' '1,30') stays two columns.
+ */
+function oneColumnWithDecimalCommas(shapes: DataShape[], above: string | undefined): boolean {
+  if (shapes[0].delimiter !== ',' || shapes.some((s) => s.cells.length !== 2) || above?.includes(',')) return false;
+  const wholes = shapes.map((s) => s.cells[0].trim());
+  const decimals = shapes.map((s) => s.cells[1].trim());
+  if (!wholes.every((w) => WHOLE_NUMBER.test(w)) || !decimals.every((d) => /^\d+$/.test(d))) return false;
+  return decimals.every((d) => d.length === decimals[0].length) && decimals[0].length >= FIXED_DECIMALS && !countsUp(wholes);
+}
+
+interface HeaderTiming {
+  timing: Preamble;
+  /** Columns that only hold the stated timing. */
+  cells: Set<number>;
+}
+
+/** Start time and increment stated in header cells ('Start = -1e-5') or under the header names in the row below. */
+function headerTiming(headings: string[], below: string[] | null, line: number, decimalComma: boolean): HeaderTiming {
+  const cells = new Set<number>();
+  const timing: Preamble = { metadata: {}, interval: null, offset: null, warnings: [] };
+  headings.forEach((heading, c) => {
+    const text = /[:=]/.test(heading) ? heading : below?.[c] ? `${heading}: ${below[c]}` : null;
+    if (text === null) return;
+    const stated = readPreamble([{ text, line }], '', decimalComma);
+    if (stated.interval === null && stated.offset === null) return;
+    cells.add(c);
+    timing.interval ??= stated.interval;
+    timing.offset ??= stated.offset;
+  });
+  return { timing, cells };
+}
+
+/** A warning for value columns of whole numbers without a unit, under a preamble stating a vertical scale. */
+function converterCodesWarning(columns: ColumnPlan[], shapes: DataShape[], preamble: Preamble): string | null {
+  const key = Object.keys(preamble.metadata).find((k) => VERTICAL_SCALE_KEY.test(k));
+  if (key === undefined) return null;
+  const coded = columns.filter((column, c) => column.kind === 'value' && column.unit === '' && shapes.every((s) => WHOLE_NUMBER.test(s.cells[c]?.trim() ?? '')));
+  if (coded.length === 0) return null;
+  const names = coded.map((c) => `'${c.name}'`).join(', ');
+  return `channel(s) ${names} hold whole numbers and the preamble states a vertical scale ('${key}'): they look like converter codes, and are kept as codes, unscaled`;
+}
+
 /**
  * The layout from the lines read so far: `head` holds every line up to and including the confirming data rows,
  * `run` the indexes into `head` of those rows. Throws CaptureError for a table broken by junk, or time that
  * cannot be known (time stamps or no time column, and no stated interval).
  */
 export function decideLayout(head: PreambleLine[], run: number[], options: CaptureOptions): Layout {
-  const shapes = run.map((i) => dataShape(head[i].text) as DataShape);
+  const runStart = run[0];
+  const above = head.slice(0, runStart).map((l, i) => ({ ...l, i }));
+  let meaningful = above.filter((l) => !isBlankOrComment(l.text));
+  let shapes = run.map((i) => dataShape(head[i].text) as DataShape);
+  if (oneColumnWithDecimalCommas(shapes, meaningful[meaningful.length - 1]?.text)) {
+    shapes = run.map((i) => ({ delimiter: '', cells: [head[i].text.trim()], decimalComma: true }));
+  }
   const first = shapes[0];
   const delimiter = first.delimiter;
   const decimalComma = shapes.some((s) => s.decimalComma);
   const dataCount = Math.max(...shapes.map((s) => trimTrailingEmpty(s.cells).length));
-  const runStart = run[0];
-  rejectBrokenTable(head, runStart, first, dataCount);
+  rejectBrokenTable(head, runStart, dataShape(head[runStart].text) as DataShape, dataCount);
+  const column = (c: number): (string | undefined)[] => shapes.map((s) => s.cells[c]);
+  // Every row opening with an empty field: the field is no column, and a header may or may not have it.
+  const skip = delimiter !== WHITESPACE && dataCount > 1 && column(0).every((c) => c?.trim() === '') ? 1 : 0;
+  const width = dataCount - skip;
+  // Rows opening with an empty ';'-separated field: a header written the same way opens with ';' too, and is no comment.
+  if (skip === 1 && delimiter === ';') meaningful = above.filter((l) => !isBlankOrComment(l.text) || /^\s*;.*[^;\s]/.test(l.text));
 
-  const meaningful = head.slice(0, runStart).map((l, i) => ({ ...l, i })).filter((l) => !isBlankOrComment(l.text));
   let header: (typeof meaningful)[number] | null = null;
   let units: string[] | undefined;
+  let timing: HeaderTiming | null = null;
   const last = meaningful[meaningful.length - 1];
   if (last) {
     const lastCells = headerCells(last.text, delimiter);
     const before = meaningful[meaningful.length - 2];
-    if (isUnitsRow(lastCells) && before && looksLikeHeader(headerCells(before.text, delimiter), dataCount)) {
+    const beforeCells = before ? headerCells(before.text, delimiter) : [];
+    if (isUnitsRow(lastCells) && before && looksLikeHeader(beforeCells, width)) {
       header = before;
       units = lastCells;
-    } else if (looksLikeHeader(lastCells, dataCount)) header = last;
+    } else if (looksLikeHeader(lastCells, width)) {
+      // A line of units only is no header: it gives the units of header-less columns.
+      if (isUnitsRow(lastCells)) units = lastCells;
+      else header = last;
+    } else if (before && looksLikeHeader(beforeCells, width)) {
+      const below = headerTiming(trimTrailingEmpty(beforeCells), lastCells, last.line, decimalComma);
+      if (below.timing.interval !== null) {
+        header = before;
+        units = lastCells;
+        timing = below;
+      }
+    }
   }
-  const headings = header ? headerCells(header.text, delimiter) : [];
+  let headings = header ? trimTrailingEmpty(headerCells(header.text, delimiter)) : [];
+  if (skip === 1 && header && headings[0] !== '') {
+    headings = ['', ...headings];
+    if (units && units[0] !== '') units = ['', ...units];
+  }
+  if (header && timing === null) timing = headerTiming(headings, null, header.line, decimalComma);
+  // One name fewer than data columns, none of them time: the first data column is an unnamed time axis.
+  const names = headings.filter((h) => h !== '');
+  const unnamedTime =
+    header !== null &&
+    names.length === width - 1 &&
+    (timing === null || timing.cells.size === 0) &&
+    !names.some((h) => isTimeName(parseColumnHeading(h).name)) &&
+    increases(column(skip), decimalComma);
+  if (unnamedTime) headings = [...Array<string>(skip + 1).fill(''), ...names];
+  const statesTiming = timing !== null && timing.timing.interval !== null;
+
   const count = Math.max(headings.length, dataCount);
   checkColumnCount(count, header && headings.length > dataCount ? header.line : head[runStart].line);
   const firstCells = first.cells;
@@ -178,19 +297,32 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
   const columns: ColumnPlan[] = [];
   for (let c = 0; c < count; c++) {
     const p = plan(headings[c] ?? '', units?.[c]);
+    const counting = countsUp(column(c));
+    const indexNamed = INDEX_NAME.test(p.name) || INDEX_NAME.test(units?.[c]?.trim() ?? '');
+    const beforeTime = !header && c === skip && increases(column(c + 1), decimalComma) && !countsUp(column(c + 1));
+    const timeNamed = header !== null && (isTimeName(p.name) || readsAsTime(p.reading));
     let kind: ColumnKind = 'value';
-    if (firstCells[c] !== undefined && isTimestamp(firstCells[c])) kind = 'timestamp';
-    else if (header && (isTimeName(p.name) || readsAsTime(p.reading))) kind = 'time';
-    else if (!header && c === 0 && count >= 2) kind = 'maybe-time';
+    if (c < skip || timing?.cells.has(c)) kind = 'ignored';
+    else if (counting && (indexNamed || beforeTime || (statesTiming && (timeNamed || c === skip)))) kind = 'ignored';
+    else if (firstCells[c] !== undefined && isTimestamp(firstCells[c])) kind = 'timestamp';
+    else if (timeNamed || (unnamedTime && c === skip)) kind = 'time';
+    else if (!header && columns.every((k) => k.kind === 'ignored') && count - c >= 2) kind = 'maybe-time';
     // A headerless first column gets its unit once it is known to be time or a channel (assembleCapture).
-    const { unit, scale } = kind === 'maybe-time' ? { unit: '', scale: 1 } : columnUnit(p, p.heading || p.name, kind !== 'value', options, header?.line ?? null, warnings);
+    const { unit, scale } =
+      kind === 'maybe-time' || kind === 'ignored'
+        ? { unit: '', scale: 1 }
+        : columnUnit(p, p.heading || p.name, kind !== 'value', options, header?.line ?? null, warnings);
     columns.push({ kind, heading: p.heading, name: p.name, unit, scale, timeColumn: null });
   }
   assignTimeColumns(columns);
   nameChannels(columns, header !== null);
 
   const preamble = readPreamble(head.slice(0, header ? header.i : runStart), delimiter, decimalComma, options.timeUnit);
+  preamble.interval ??= timing?.timing.interval ?? null;
+  preamble.offset ??= timing?.timing.offset ?? null;
   warnings.unshift(...preamble.warnings);
+  const codes = converterCodesWarning(columns, shapes, preamble);
+  if (codes !== null) warnings.push(codes);
   const interval = chooseInterval(preamble, options, warnings);
   const firstDataLine = head[runStart].line;
   if (interval === null) {
@@ -212,5 +344,6 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
   if (!columns.some((c) => c.kind === 'value')) {
     throw new CaptureError('the table has no value columns, only time', header ? header.line : firstDataLine);
   }
-  return { delimiter, decimalComma, headerLine: header ? header.line : null, firstDataLine, columns, preamble, interval, warnings };
+  const headerLine = header ? header.line : null;
+  return { delimiter, decimalComma, headerLine, headerText: header ? header.text : null, firstDataLine, columns, preamble, interval, warnings };
 }

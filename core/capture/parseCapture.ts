@@ -2,7 +2,7 @@
 //
 // How a text is read:
 // - Lines end in LF, CRLF or CR; a UTF-8 byte-order mark is dropped (both noted in the capture's importSummary).
-//   Blank lines and comments ('#', ';', '%', '//') are skipped anywhere.
+//   Blank lines and comments ('#', ';', '%', '//') are skipped anywhere; 'CR CR LF' ends a line like CR LF.
 // - The table starts at the first of 3 rows that split the same way into numbers (or missing-value markers, or
 //   wall-clock stamps). The delimiter is the one of tab, ';', ',', whitespace giving the most cells; ',' inside a
 //   cell of a ';', tab or whitespace table (or of a quoted field) is a decimal comma.
@@ -12,12 +12,14 @@
 // - Time columns: a column holding wall-clock stamps; a header named time, t, x, sec(onds), timestamp or starting
 //   with 'time', or with a time unit. Each channel uses the nearest time column on its left (time/value pairs).
 //   Without a header, the first of two or more columns is time when strictly increasing (or when sortTime is set);
-//   otherwise every column is a channel.
+//   otherwise every column is a channel. An empty field opening every row, and a column counting samples (an index
+//   beside a time column, or a sequence number where the start and increment are stated) are no channels; see layout.
 // - Without a numeric time column, t = t0 + i * dt: dt from the sampleInterval option or a preamble key meaning
 //   the sample interval (sample interval, sampling period, xincrement, delta t, dt, time per point, increment;
 //   never a per-division scale), t0 from a numeric 't0', 'x origin' or 'start time' key, else 0.
-// - Empty, NaN, inf, '****' and overrange (|x| >= 9.9e37) cells are dropped per channel and counted. Any other text
-//   in the table is an error naming its line, unless only such lines follow (a footer, ignored with a warning).
+// - Empty, NaN, inf, '****', '----' and overrange (|x| >= 9.9e37) cells are dropped per channel and counted; a line
+//   repeating the header is skipped with a warning. Any other text in the table is an error naming its line, unless
+//   no row of the table's shape follows it (a footer or a later section of another shape, ignored with a warning).
 // - Time must increase strictly (sortTime sorts instead, keeping the first of repeated stamps); at least 20
 //   samples are needed; flat runs at an ADC rail are marked in `clipped` (see detectClipping).
 
@@ -25,7 +27,7 @@ import { assembleCapture } from './assembleCapture';
 import { ByteRowReader, DECLINED } from './byteRowReader';
 import { ColumnStore } from './columnStore';
 import { dataShape, sameShape, type DataShape } from './dataShape';
-import { decideLayout, type Layout } from './layout';
+import { decideLayout, rowDelimiter, type Layout } from './layout';
 import { MAX_LINE_LENGTH, checkLastLine, checkUnfinishedLine, lineTooLong } from './captureLimits';
 import { LineMap } from './lineMap';
 import { isBlankOrComment, type PreambleLine } from './preamble';
@@ -74,6 +76,8 @@ class StreamingReader implements CaptureReader {
   private readonly lines = new LineMap();
   private pending: { line: number; message: string; text: string } | null = null;
   private pendingCount = 0;
+  /** Lines inside the table that repeat its header: skipped, counted. */
+  private repeatedHeader: { line: number; count: number } | null = null;
   private byteRows: ByteRowReader | null = null;
   /** Bytes after the last complete line pushed. */
   private carriedBytes: Uint8Array = new Uint8Array(0);
@@ -106,7 +110,9 @@ class StreamingReader implements CaptureReader {
     for (;;) {
       const at = text.indexOf(this.terminator, pos);
       if (at < 0) break;
-      const end = this.terminator === '\n' && at > pos && text.charCodeAt(at - 1) === 13 ? at - 1 : at;
+      let end = at;
+      // 'CR CR LF' ends lines too: every CR before the LF belongs to the line end.
+      if (this.terminator === '\n') while (end > pos && text.charCodeAt(end - 1) === 13) end--;
       this.take(text, pos, end);
       pos = at + 1;
     }
@@ -156,6 +162,9 @@ class StreamingReader implements CaptureReader {
       this.pending === null
         ? []
         : [`${this.pendingCount} line(s) after the last data row were ignored (from line ${this.pending.line}: '${this.pending.text}')`];
+    if (this.repeatedHeader) {
+      footer.unshift(`${this.repeatedHeader.count} line(s) repeating the header were skipped (first on line ${this.repeatedHeader.line})`);
+    }
     const source: TextSource = { encoding: this.encoding, lineEnd: this.lineEnd };
     return assembleCapture(this.layout as Layout, this.store as ColumnStore, this.lines, this.options, footer, source);
   }
@@ -174,6 +183,10 @@ class StreamingReader implements CaptureReader {
   }
 
   private readRow(text: string, line: number, start: number, end: number): void {
+    if (this.pending) {
+      this.readAfterBreak(text.slice(start, end));
+      return;
+    }
     const rows = this.rows as RowReader;
     const outcome = rows.read(start, end);
     if (outcome === SKIP) return;
@@ -181,8 +194,23 @@ class StreamingReader implements CaptureReader {
       this.rowStored(line);
       return;
     }
+    const header = (this.layout as Layout).headerText;
+    if (header !== null && text.slice(start, end).trim() === header.trim()) {
+      this.repeatedHeader ??= { line, count: 0 };
+      this.repeatedHeader.count++;
+      return;
+    }
     const shown = text.slice(start, Math.min(end, start + 60)).trim();
     this.pending ??= { line, message: outcome as string, text: shown };
+    this.pendingCount++;
+  }
+
+  /** After a line that is not data: a row of the table's shape means junk inside the table; else a later section, left out. */
+  private readAfterBreak(text: string): void {
+    if (isBlankOrComment(text)) return;
+    const shape = dataShape(text);
+    const pending = this.pending as NonNullable<typeof this.pending>;
+    if (shape && this.runShape && sameShape(shape, this.runShape)) throw new CaptureError(pending.message, pending.line);
     this.pendingCount++;
   }
 
@@ -196,12 +224,15 @@ class StreamingReader implements CaptureReader {
     const byteRows = this.byteRows as ByteRowReader;
     while (pos < complete) {
       const line = ++this.line;
-      const outcome = byteRows.read(bytes, pos, complete);
-      const at = byteRows.lineFeed;
+      // After a line that is not data, every line goes to the text path, which tells junk from a later section.
+      const broken = this.pending !== null;
+      const outcome = broken ? DECLINED : byteRows.read(bytes, pos, complete);
+      const at = broken ? bytes.indexOf(LF, pos) : byteRows.lineFeed;
       if (at - pos > MAX_LINE_LENGTH) throw lineTooLong(line);
       if (outcome === ROW) this.rowStored(line);
       else if (outcome === DECLINED) {
-        const end = at > pos && bytes[at - 1] === CR ? at - 1 : at;
+        let end = at;
+        while (end > pos && bytes[end - 1] === CR) end--;
         const text = this.decoder()(bytes.subarray(pos, end));
         (this.rows as RowReader).begin(text);
         this.readRow(text, line, 0, text.length);
@@ -214,7 +245,7 @@ class StreamingReader implements CaptureReader {
   private byteRowReader(): ByteRowReader | null {
     const layout = this.layout;
     if (layout === null || this.terminator !== '\n' || layout.columns.some((c) => c.kind === 'timestamp')) return null;
-    const delimiter = layout.delimiter || ',';
+    const delimiter = rowDelimiter(layout);
     // A decimal comma in a comma-separated table (from quoted fields) needs the cells split first: the text path.
     if (layout.decimalComma && delimiter === ',') return null;
     return new ByteRowReader(this.store as ColumnStore, delimiter, layout.decimalComma ? 44 : 46);
@@ -227,8 +258,8 @@ class StreamingReader implements CaptureReader {
 
   private takeHeadLine(text: string): void {
     this.head.push({ text, line: this.line });
-    if (isBlankOrComment(text)) return;
     const shape = dataShape(text);
+    if (shape === null && isBlankOrComment(text)) return;
     if (shape && this.runShape && sameShape(shape, this.runShape)) this.run.push(this.head.length - 1);
     else if (shape) {
       this.run = [this.head.length - 1];
@@ -246,7 +277,7 @@ class StreamingReader implements CaptureReader {
     const parsed = layout.columns.map((c) => c.kind !== 'timestamp');
     this.layout = layout;
     this.store = new ColumnStore(parsed, () => this.line);
-    const rows = new RowReader(this.store, parsed, layout.delimiter || ',', layout.decimalComma);
+    const rows = new RowReader(this.store, parsed, rowDelimiter(layout), layout.decimalComma);
     this.rows = rows;
     for (const { text, line } of this.head.slice(this.run[0])) {
       rows.begin(text);

@@ -2,8 +2,9 @@
 
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { createCaptureReader, parseCapture } from '../../core/capture/parseCapture';
+import { createCaptureReader, parseCapture, parseCaptureBytes } from '../../core/capture/parseCapture';
 import { CaptureError, type Capture } from '../../core/capture/types';
+import { exportHabits } from '../fixtures/exportHabits';
 
 /** A case slower than this is treated as a hang (generous: a case takes well under a millisecond). */
 const HANG_MS = 2000;
@@ -123,6 +124,33 @@ const table = fc
     return [...lines, ...t.footer].join(t.ending) + t.ending;
   });
 
+/** Characters that end a cell or a line in any habit: a token is a run of anything else. */
+const CELL_END = /[,;\t \r\n]/;
+
+/** The text with the cell (run of non-delimiter characters) at `at` replaced, or the replacement put in at `at`. */
+function replaceCell(text: string, at: number, replacement: string): string {
+  let start = Math.min(at, text.length);
+  let end = start;
+  while (start > 0 && !CELL_END.test(text[start - 1])) start--;
+  while (end < text.length && !CELL_END.test(text[end])) end++;
+  return text.slice(0, start) + replacement + text.slice(end);
+}
+
+const HABITS = exportHabits();
+
+/** A habit's text with a few cells spoilt (junk, markers, numbers) and perhaps a line cut short. */
+const spoiltHabit = fc
+  .record({
+    habit: fc.nat({ max: HABITS.length - 1 }),
+    spoilt: fc.array(fc.tuple(fc.nat(), fc.oneof(spoiler, nonZeroNumber, fc.constant(''))), { minLength: 1, maxLength: 4 }),
+    cut: fc.option(fc.nat(), { nil: undefined }),
+  })
+  .map(({ habit, spoilt, cut }) => {
+    let text = HABITS[habit].text;
+    for (const [at, replacement] of spoilt) text = replaceCell(text, at % text.length, replacement);
+    return cut === undefined ? text : text.slice(0, cut % text.length);
+  });
+
 // Properties -------------------------------------------------------------------------------------------
 
 describe('the importer on arbitrary input (fast-check)', () => {
@@ -156,6 +184,30 @@ describe('the importer on arbitrary input (fast-check)', () => {
         }
       }),
       { numRuns: 3000, seed: 20263 },
+    );
+  });
+
+  it('every export habit with cells spoilt at random: a capture or one CaptureError naming the line', () => {
+    fc.assert(
+      fc.property(spoiltHabit, (text) => {
+        check(text);
+      }),
+      { numRuns: 2000, seed: 20266 },
+    );
+  });
+
+  it('every export habit, spoilt or not, reads the same from its UTF-8 bytes as from its text', () => {
+    const encoder = new TextEncoder();
+    const decoder = new TextDecoder();
+    const fromBytes = (text: string) => parseCaptureBytes(encoder.encode(text), (bytes) => decoder.decode(bytes));
+    fc.assert(
+      fc.property(fc.oneof(spoiltHabit, fc.constantFrom(...HABITS.map((h) => h.text))), (text) => {
+        const whole = check(text);
+        const bytes = outcomeOf(text, fromBytes);
+        if ('error' in whole) expect('error' in bytes && bytes.error.message).toBe(whole.error.message);
+        else expect('capture' in bytes && bytes.capture).toEqual(whole.capture);
+      }),
+      { numRuns: 800, seed: 20267 },
     );
   });
 
