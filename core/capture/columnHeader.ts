@@ -2,7 +2,7 @@
 // settles the unit a column is read in (the header's, or the one an option states).
 
 import { canonicalUnit } from '../units/prefixes';
-import { TIME_UNIT, printable, readUnitText, unitProblem, type StatedUnit, type UnitReading } from '../units/unitText';
+import { TIME_UNIT, isUnitAttempt, printable, readUnitText, unitProblem, type StatedUnit, type UnitReading } from '../units/unitText';
 import { CaptureError, type CaptureOptions } from './types';
 
 export interface ColumnHeading {
@@ -29,8 +29,9 @@ export function readsAsTime(reading: UnitReading | null): boolean {
   return reading !== null && (reading.kind === 'ambiguous' || (reading.kind === 'known' && reading.unit === TIME_UNIT));
 }
 
+/** The name and the unit after it; a label in brackets ('Vout (CH1)') is no unit. */
 function withUnit(name: string, unitText: string): ColumnHeading {
-  return unitText === '' ? { name, unitText: null, reading: null } : { name, unitText, reading: readUnitText(unitText) };
+  return isUnitAttempt(unitText) ? { name, unitText, reading: readUnitText(unitText) } : { name, unitText: null, reading: null };
 }
 
 /** A unit after '/' or '_' counts only when it reads as one; otherwise it is part of the name ('V_out', 'V/div'). */

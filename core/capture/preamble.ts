@@ -1,6 +1,6 @@
 // The lines before the header: key/value metadata, and the sample interval and start time they may state.
 
-import { printable, readUnitText, unitProblem, type StatedUnit } from '../units/unitText';
+import { isUnitAttempt, printable, readUnitText, unitProblem, type StatedUnit } from '../units/unitText';
 import { WHITESPACE, splitLine, trimTrailingEmpty } from './splitLine';
 import { CaptureError } from './types';
 
@@ -64,11 +64,11 @@ export function splitKeyValue(text: string, delimiter: string): [string, string]
   return spaced ? [spaced[1], spaced[2]] : null;
 }
 
-/** The key's words (lower case, unit removed) and the unit text of its last bracket ('Sample interval (us)'), if any. */
+/** The key's words (lower case, unit removed) and the unit of its last bracket ('Sample interval (us)'; not '(CH1)'). */
 function normaliseKey(key: string): { words: string; unitText: string | null } {
   let unitText: string | null = null;
   const withoutUnit = key.replace(/\s*[([]\s*([^()[\]]*?)\s*[)\]]\s*/g, (_, unit: string) => {
-    unitText = unit === '' ? null : unit;
+    unitText = isUnitAttempt(unit) ? unit : null;
     return ' ';
   });
   const words = withoutUnit

@@ -54,6 +54,15 @@ const PREFIX_WORDS: Readonly<Record<string, number>> = {
 /** Why an 'M' before a unit of time is refused: a scope means milliseconds, SI says megaseconds. */
 const AMBIGUOUS_TIME = 'ms (milliseconds) or Ms (megaseconds)';
 
+/** Bracketed text holding a digit or a space is a label ('CH1', 'Channel 2', '10x probe'), not a unit. */
+const LABEL_TEXT = /[\d\s]/;
+
+/** True for bracketed text meant as a unit, which must then read as one: anything but a label. */
+export function isUnitAttempt(text: string): boolean {
+  const token = text.trim();
+  return token !== '' && !LABEL_TEXT.test(token);
+}
+
 /** SI scale of a power of ten, exact for the prefixes ('1e-6' rather than 10 ** -6). */
 function scaleOf(exponent: number): number {
   return Number(`1e${exponent}`);

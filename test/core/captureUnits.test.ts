@@ -165,6 +165,15 @@ describe('a unit that cannot be read is refused, naming where and the option', (
     expect(capture.channels[0].values[0]).toBe(values[0]);
   });
 
+  it('a label in brackets is no unit', () => {
+    const capture = parseCapture(`XIncrement (CH1),2e-9\nTime (s),Vout (CH 1),Vin (10x probe)\n${values.map((v, i) => `${i * 1e-9},${v},${v}`).join('\n')}`);
+    expect(capture.channels.map((c) => [c.name, c.unit])).toEqual([
+      ['Vout', ''],
+      ['Vin', ''],
+    ]);
+    expect(capture.warnings.join('\n')).not.toContain('unit');
+  });
+
   it('a date or clock time after a start key is no unit', () => {
     const capture = parseCapture(`Start Time,2024-03-14 09:26:05\nSample Interval,1e-6\nCH1 (V)\n${values.join('\n')}`);
     expect(capture.sampleInterval).toBe(1e-6);
