@@ -2,6 +2,7 @@
 
 import { button, card, field, h, replaceChildren, select } from '../dom';
 import { showValue } from '../show';
+import { importRows } from '../../core/report/importText';
 import type { BenchState } from '../benchState';
 import type { BenchActions } from '../actions';
 
@@ -67,9 +68,20 @@ export function createCapturePanel(actions: BenchActions) {
         h('dt', {}, 'Dropped rows'),
         h('dd', { class: channel.dropped ? 'attention' : '' }, channel.dropped ? `${channel.dropped.toLocaleString('en')} (empty or unreadable cells)` : 'none'),
       ),
+      // What the importer inferred, in the words the command line and the reports use.
+      h('h3', {}, 'How the file was read'),
+      h(
+        'dl',
+        { class: 'facts', id: 'capture-import' },
+        ...importRows(info.import).flatMap((row) => [h('dt', {}, capitalized(row.label)), h('dd', { id: `import-${row.label.replace(/ /g, '-')}` }, row.text)]),
+      ),
       info.warnings.length ? h('ul', { class: 'warnings', id: 'capture-warnings' }, ...info.warnings.map((w) => h('li', {}, w))) : null,
     );
   }
 
   return { root, render };
+}
+
+function capitalized(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
 }

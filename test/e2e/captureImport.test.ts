@@ -1,0 +1,66 @@
+// End to end: the capture panel shows how the file was read (delimiter, decimal mark, time source), in a real browser.
+
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Browser, Page } from 'playwright-core';
+import { buildBench, CHROMIUM, hasChromium, launchChromium, outputDir, repoRoot, serveBench, waitForFit, type ServedBench } from './benchHarness';
+
+if (!hasChromium) console.warn(`test/e2e/captureImport.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
+
+/** Drop a capture file on the window as a person drags it from a folder. */
+async function dropFile(page: Page, path: string, name: string): Promise<void> {
+  const text = readFileSync(path, 'utf8');
+  await page.evaluate(
+    ({ text, name }) => {
+      const transfer = new DataTransfer();
+      transfer.items.add(new File([text], name, { type: 'text/csv' }));
+      for (const type of ['dragenter', 'dragover', 'drop']) {
+        document.body.dispatchEvent(new DragEvent(type, { dataTransfer: transfer, bubbles: true, cancelable: true }));
+      }
+    },
+    { text, name },
+  );
+}
+
+describe.skipIf(!hasChromium)('the capture panel in a browser', () => {
+  let bench: ServedBench;
+  let browser: Browser;
+  let page: Page;
+  let folder: string;
+
+  beforeAll(async () => {
+    buildBench();
+    mkdirSync(outputDir, { recursive: true });
+    folder = mkdtempSync(join(tmpdir(), 'ringbench-import-'));
+    bench = await serveBench(join(folder, 'bench-log.jsonl'), folder);
+    browser = await launchChromium();
+    page = await (await browser.newContext({ viewport: { width: 1600, height: 1000 }, deviceScaleFactor: 1 })).newPage();
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+    await bench?.stop();
+    if (folder) rmSync(folder, { recursive: true, force: true });
+  });
+
+  it('shows the delimiter and the time column of the sample opened on first start', async () => {
+    await page.goto(bench.url);
+    await waitForFit(page, 'input-filter-step.csv');
+    expect(await page.locator('#import-import').innerText()).toBe('UTF-8, comma-separated, decimal point, LF line ends');
+    expect(await page.locator('#import-time-axis').innerText()).toBe("column 'Time (s)' in s, every 400 ns");
+  });
+
+  it('shows a semicolon table with a decimal comma, and an interval stated in the preamble', async () => {
+    await dropFile(page, join(repoRoot, 'test/fixtures/capture/lc-filter-decimal-comma.csv'), 'lc-filter-decimal-comma.csv');
+    await waitForFit(page, 'lc-filter-decimal-comma.csv');
+    expect(await page.locator('#import-import').innerText()).toContain('semicolon-separated, decimal comma');
+    expect(await page.locator('#import-time-axis').innerText()).toBe("column 't [us]' in µs, every 500 ns");
+    await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-import.png') });
+    await dropFile(page, join(repoRoot, 'sample-captures/pulse-jig-discharge.csv'), 'pulse-jig-discharge.csv');
+    await waitForFit(page, 'pulse-jig-discharge.csv');
+    expect(await page.locator('#import-time-axis').innerText()).toBe("interval 40 ns from 'Sample Interval' on line 2");
+    expect(await page.locator('#import-import').innerText()).toContain('one column');
+  });
+});
