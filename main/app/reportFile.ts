@@ -13,7 +13,7 @@ import { describeTornTail, readCleanBenchLog } from '../io/benchLog';
 import { decodeUtf8, readFileBytes } from '../io/captureFile';
 import { parseCaptureBytes } from '../../core/capture/parseCapture';
 import { selectChannel } from '../../core/capture/selectChannel';
-import { parseChannel, parseTime } from '../../core/workflow/userValues';
+import { readingOptionsOf, settingsOfRecord } from './measureFile';
 import { FileError } from '../io/fileError';
 import { writeFileAtomic } from '../io/atomicFile';
 import { VERSION } from '../version';
@@ -46,12 +46,9 @@ export function loadReportTraces(records: readonly BenchRecord[]): ReportTraces 
         note(`The capture ${path} has changed since it was logged (sha256 ${now.slice(0, 12)}… instead of ${sha256.slice(0, 12)}…): the numbers are those logged, no plot is drawn.`);
         continue;
       }
-      const s = record.settings;
-      const capture = parseCaptureBytes(bytes, decodeUtf8, {
-        sampleInterval: s.sampleInterval === null ? undefined : parseTime(s.sampleInterval, 'sampleInterval'),
-        sortTime: s.sortTime,
-      });
-      const channel = selectChannel(capture, s.column === null ? undefined : parseChannel(s.column));
+      // Read as it was when logged: the same channel, interval, time order and stated units.
+      const { channel: chosen, ...reading } = readingOptionsOf(settingsOfRecord(record.settings));
+      const channel = selectChannel(parseCaptureBytes(bytes, decodeUtf8, reading), chosen);
       result.traces[record.id] = { time: channel.time, values: channel.values, unit: channel.unit, name: channel.name };
     } catch (error) {
       const missing = error instanceof FileError && /no such file/.test(error.message);

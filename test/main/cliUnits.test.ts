@@ -113,3 +113,19 @@ describe('fit with units it cannot read, then with the option that states them',
     expect(out + err).toContain('--value-unit <unit>');
   });
 });
+
+describe('a measurement logged with a stated unit', () => {
+  it('is read again with that unit when the report draws its plot', async () => {
+    const file = capture('logged-us.csv', 'Time (furlongs),CH1 (V)', (t, v) => `${t * 1e6},${v}`);
+    const log = path.join(dir, 'units-log.jsonl');
+    const added = await run(['log', 'add', file, '--log', log, '--unit', 'U1', '--time-unit', 'us']);
+    expect(added.err).toBe('');
+    expect(added.code).toBe(0);
+    const out = path.join(dir, 'units-report.html');
+    const report = await run(['report', '--log', log, '--out', out]);
+    expect(report.code).toBe(0);
+    const html = readFileSync(out, 'utf8');
+    expect(html).not.toMatch(/could not be read again/);
+    expect(html).toMatch(/<svg/);
+  });
+});
