@@ -1,6 +1,6 @@
 // Reads a capture file from disk into a Capture and the trace chosen for fitting.
 
-import { readFileSync, statSync } from 'node:fs';
+import { closeSync, constants, fstatSync, openSync, readFileSync, type Stats } from 'node:fs';
 import { createHash } from 'node:crypto';
 import { resolve } from 'node:path';
 import { parseCaptureBytes } from '../../core/capture/parseCapture';
@@ -16,16 +16,41 @@ export interface LoadedCapture {
   channel: Channel;
 }
 
-/** Read bytes, failing with a message that names the path. */
+/**
+ * Largest file read (2 GiB less a byte, the most one read of Node's gives): its samples alone would take several
+ * times that in memory.
+ */
+const MAX_FILE_BYTES = 2 ** 31 - 1;
+/** Opening never waits for a writer (a FIFO); a regular file reads as usual. Absent on Windows, where FIFOs are not files. */
+const OPEN_FLAGS = constants.O_RDONLY | (constants.O_NONBLOCK ?? 0);
+
+/** Read bytes, failing with a message that names the path; only a regular file is read (never a FIFO, device or socket). */
 export function readFileBytes(path: string): Buffer {
+  let fd: number | null = null;
   try {
-    if (statSync(path).isDirectory()) throw new FileError(`'${path}' is a folder, not a capture file`);
-    return readFileSync(path);
+    fd = openSync(path, OPEN_FLAGS);
+    refuseUnreadable(path, fstatSync(fd));
+    return readFileSync(fd);
   } catch (error) {
     if (error instanceof FileError) throw error;
     const code = (error as NodeJS.ErrnoException).code;
+    if (code === 'EISDIR') throw new FileError(`'${path}' is a folder, not a capture file`, path);
     const why = code === 'ENOENT' ? 'no such file' : code === 'EACCES' ? 'permission denied' : String(code ?? error);
-    throw new FileError(`cannot read '${path}': ${why}`);
+    throw new FileError(`cannot read '${path}': ${why}`, path);
+  } finally {
+    if (fd !== null) closeSync(fd);
+  }
+}
+
+/** Throws FileError for what is not a regular file, or a file too large to read. */
+function refuseUnreadable(path: string, stats: Stats): void {
+  if (stats.isDirectory()) throw new FileError(`'${path}' is a folder, not a capture file`, path);
+  if (!stats.isFile()) {
+    const what = stats.isFIFO() ? 'a named pipe (FIFO)' : stats.isSocket() ? 'a socket' : 'a device';
+    throw new FileError(`'${path}' is ${what}, not a regular file; save the capture to a file and read that`, path);
+  }
+  if (stats.size > MAX_FILE_BYTES) {
+    throw new FileError(`'${path}' is ${(stats.size / 2 ** 30).toFixed(1)} GiB; capture files over 2 GiB are not read`, path);
   }
 }
 

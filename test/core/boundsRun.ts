@@ -3,9 +3,10 @@
 import { spawn } from 'node:child_process';
 import { readFileSync, statSync } from 'node:fs';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 
-const PROBE = path.join(path.dirname(fileURLToPath(import.meta.url)), 'captureBoundsProbe.ts');
+const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
+const PROBE = path.join(ROOT, 'test/core/captureBoundsProbe.ts');
 const MB = 1024 * 1024;
 /** What the bound allows beyond the file: a fixed 100 MB, as the importer promises. */
 export const FIXED_MB = 100;
@@ -16,7 +17,12 @@ const RUNTIME_MB = 200;
 /** How often the child's memory is looked at (Linux /proc only; elsewhere the child's own report is all). */
 const POLL_MS = 20;
 /** A child still running after this long has failed the test (a regression that hangs or thrashes). */
-const TIMEOUT_MS = 30_000;
+export const PROBE_TIMEOUT_MS = 30_000;
+
+/** Node's arguments to run a TypeScript file of the repository from any folder (tsx found by path, not from the folder). */
+export function tsxArgs(script: string, ...args: string[]): string[] {
+  return ['--import', pathToFileURL(path.join(ROOT, 'node_modules/tsx/dist/loader.mjs')).href, script, ...args];
+}
 
 export interface ProbeResult {
   /** 'CaptureError: line 1: ...', or '' when the file was read. */
@@ -44,7 +50,7 @@ function residentMB(pid: number): number | null {
 export function probe(mode: 'core' | 'file', file: string): Promise<ProbeResult> {
   const limitMB = (PER_FILE_BYTE * statSync(file).size) / MB + FIXED_MB;
   return new Promise((resolve, reject) => {
-    const child = spawn(process.execPath, ['--import', 'tsx', PROBE, mode, file], { stdio: ['ignore', 'pipe', 'pipe'] });
+    const child = spawn(process.execPath, tsxArgs(PROBE, mode, file), { stdio: ['ignore', 'pipe', 'pipe'] });
     let out = '';
     let err = '';
     let killed: string | null = null;
@@ -56,7 +62,7 @@ export function probe(mode: 'core' | 'file', file: string): Promise<ProbeResult>
       const rss = child.pid === undefined ? null : residentMB(child.pid);
       if (rss !== null && rss > limitMB + RUNTIME_MB) kill(`resident memory reached ${rss.toFixed(0)} MB`);
     }, POLL_MS);
-    const timer = setTimeout(() => kill(`still running after ${TIMEOUT_MS} ms`), TIMEOUT_MS);
+    const timer = setTimeout(() => kill(`still running after ${PROBE_TIMEOUT_MS} ms`), PROBE_TIMEOUT_MS);
     child.stdout.on('data', (d: Buffer) => (out += d.toString()));
     child.stderr.on('data', (d: Buffer) => (err += d.toString()));
     child.on('error', reject);

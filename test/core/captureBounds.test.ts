@@ -7,7 +7,7 @@ import { MAX_COLUMNS, MAX_LINE_LENGTH } from '../../core/capture/captureLimits';
 import { ColumnStore } from '../../core/capture/columnStore';
 import { parseCapture, parseCaptureBytes } from '../../core/capture/parseCapture';
 import { CaptureError } from '../../core/capture/types';
-import { probe } from './boundsRun';
+import { PROBE_TIMEOUT_MS, probe } from './boundsRun';
 
 const decode = (bytes: Uint8Array): string => new TextDecoder().decode(bytes);
 const encoder = new TextEncoder();
@@ -101,7 +101,7 @@ describe('memory, measured in a child process', () => {
     expect(result.killed).toBeNull();
     expect(result.message).toBe(`CaptureError: line 1: the table has 60000 columns, more than the ${MAX_COLUMNS} a capture can hold`);
     expect(result.grewMB).toBeLessThan(result.limitMB);
-  });
+  }, PROBE_TIMEOUT_MS * 2);
 
   it('refuses a 50 MB line with no line end, in bounded memory', async () => {
     const file = tempFile('line.csv', Buffer.alloc(50 * 1024 * 1024, '1,'));
@@ -109,7 +109,7 @@ describe('memory, measured in a child process', () => {
     expect(result.killed).toBeNull();
     expect(result.message).toBe(`CaptureError: line 1: the line is longer than ${MAX_LINE_LENGTH} characters, far longer than any row of a capture`);
     expect(result.grewMB).toBeLessThan(result.limitMB);
-  });
+  }, PROBE_TIMEOUT_MS * 2);
 
   it(`reads ${MAX_COLUMNS} columns of a few thousand rows in memory that follows the data`, async () => {
     const header = `time,${Array.from({ length: MAX_COLUMNS - 1 }, (_, i) => `c${i}`).join(',')}\n`;
@@ -119,5 +119,5 @@ describe('memory, measured in a child process', () => {
     expect(result.message).toBe('');
     expect(result.rows).toBe(3000);
     expect(result.grewMB).toBeLessThan(result.limitMB);
-  });
+  }, PROBE_TIMEOUT_MS * 2);
 });
