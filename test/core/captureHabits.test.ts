@@ -2,7 +2,11 @@
 
 import { describe, expect, it } from 'vitest';
 import { parseCapture } from '../../core/capture/parseCapture';
-import { exportHabits, type ExportHabit } from '../fixtures/exportHabits';
+import { fitResponse } from '../../core/fit/fitResponse';
+import { RING, exportHabits, type ExportHabit } from '../fixtures/exportHabits';
+
+/** Relative error allowed on the ring frequency fitted on jittered stamps (noise is only the 6-decimal rounding). */
+const FIT_TOLERANCE = 0.01;
 
 /** Relative agreement asked of times and values read back from text written to 7 significant digits. */
 const CLOSE = 1e-6;
@@ -40,4 +44,27 @@ describe('export habits', () => {
     if (habit.pending) it.todo(`${habit.name} (not yet read: ${habit.pending})`);
     else it(habit.name, () => checkHabit(habit));
   }
+});
+
+describe('jittered time stamps', () => {
+  it('are fitted on the times as stamped: the ring frequency comes back', () => {
+    const jittered = habits.filter((h) => h.name.startsWith('jittered'));
+    expect(jittered.length).toBeGreaterThan(0);
+    for (const habit of jittered) {
+      const [channel] = parseCapture(habit.text).channels;
+      const fit = fitResponse({ time: channel.time, values: channel.values, unit: channel.unit });
+      expect(fit.status).not.toBe('failed');
+      expect(Math.abs((fit.omegaD?.value ?? NaN) / RING.omegaD - 1), habit.name).toBeLessThan(FIT_TOLERANCE);
+    }
+  });
+});
+
+describe('bad rows', () => {
+  it('are dropped and counted until too few samples are left; then the capture is refused naming the first data line', () => {
+    const rows = Array.from({ length: 30 }, (_, i) => `${(i + 1) * 1e-6},${i < 12 ? 'N/A' : (i % 7) / 10 + 0.05}`);
+    const text = `Time (s),CH1 (V)\n${rows.join('\n')}\n`;
+    expect(() => parseCapture(text)).toThrow(/^line 2: no channel has at least 20 usable samples/);
+    const kept = parseCapture(text.replaceAll('N/A', '0.5').replace('0.5', 'N/A'));
+    expect(kept.channels[0].dropped).toBe(1);
+  });
 });
