@@ -26,8 +26,9 @@ export function checkColumnCount(count: number, line: number): void {
 }
 
 /**
- * Throws when the last line of bytes[from, to) is too long (`to` is just after an LF; the lines before it are known
- * to be short); `firstLine` is the number of the line starting at `from`.
+ * Throws when the last line of bytes[from, to) is too long (`to` is just after an LF); in a piece of the head only
+ * the last line can be (the others lie within its first HEAD_BYTES), and every line is checked again as text.
+ * `firstLine` is the number of the line starting at `from`.
  */
 export function checkLastLine(bytes: Uint8Array, from: number, to: number, firstLine: number): void {
   if (to - from <= MAX_LINE_LENGTH) return;

@@ -22,6 +22,8 @@
 //   no row of the table's shape follows it (a footer or a later section of another shape, ignored with a warning).
 // - Time must increase strictly (sortTime sorts instead, keeping the first of repeated stamps); at least 20
 //   samples are needed; flat runs at an ADC rail are marked in `clipped` (see detectClipping).
+// - A line over 1 MiB or a table over 1,000 columns is refused naming its line (captureLimits), and so are rows so
+//   much shorter than their table that storing them would take more cells than the file has bytes (ColumnStore).
 
 import { assembleCapture } from './assembleCapture';
 import { ByteRowReader, DECLINED } from './byteRowReader';
