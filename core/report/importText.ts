@@ -72,7 +72,7 @@ export function importRows(s: ImportSummary): ImportRow[] {
     { label: 'time axis', text: timeAxis(s) },
     { label: 'channels', text: s.channels.map(channel).join('; ') },
   ];
-  if (s.droppedRows.length > 0) rows.push({ label: 'dropped rows', text: droppedRows(s) });
+  if (s.droppedRows.length > 0) rows.push({ label: 'rows left out', text: droppedRows(s) });
   if (s.ignoredSections.length > 0 || s.segments.length > 0) rows.push({ label: 'sections', text: sections(s) });
   return rows;
 }
