@@ -47,7 +47,7 @@ function refuseUnreadable(path: string, stats: Stats): void {
   if (stats.isDirectory()) throw new FileError(`'${path}' is a folder, not a capture file`, path);
   if (!stats.isFile()) {
     const what = stats.isFIFO() ? 'a named pipe (FIFO)' : stats.isSocket() ? 'a socket' : 'a device';
-    throw new FileError(`'${path}' is ${what}, not a regular file; save the capture to a file and read that`, path);
+    throw new FileError(`'${path}' is ${what}, not a regular file; save what it gives to a file and read that`, path);
   }
   if (stats.size > MAX_FILE_BYTES) {
     throw new FileError(`'${path}' is ${(stats.size / 2 ** 30).toFixed(1)} GiB; capture files over 2 GiB are not read`, path);

@@ -51,13 +51,13 @@ describe('files that are not plain captures', () => {
     const result = fit(fifo);
     expect(result.signal).toBeNull();
     expect(result.code).toBe(2);
-    expect(result.err).toBe(`ringbench: '${fifo}' is a named pipe (FIFO), not a regular file; save the capture to a file and read that\n`);
+    expect(result.err).toBe(`ringbench: '${fifo}' is a named pipe (FIFO), not a regular file; save what it gives to a file and read that\n`);
     expect(result.out).toBe('');
     expect(result.written).toEqual([]);
   }, CHILD_TIMEOUT_MS * 2);
 
   it.skipIf(process.platform === 'win32')('refuses a device', () => {
-    expect(refusal('/dev/null')).toBe("'/dev/null' is a device, not a regular file; save the capture to a file and read that");
+    expect(refusal('/dev/null')).toBe("'/dev/null' is a device, not a regular file; save what it gives to a file and read that");
   });
 
   it('refuses a folder and a file over 2 GiB with a plain message, reading nothing', () => {
