@@ -67,12 +67,17 @@ function statesANumber(cell: string): boolean {
   return /[:=]\s*\S/.test(cell) || cell.split(/[\s,;]+/).some((word) => word !== '' && slowCellValue(word, false) !== null);
 }
 
-/** A header names every data column, or all but the first when at least 3 remain (an unnamed time column). */
-function looksLikeHeader(cells: string[], dataCount: number): boolean {
-  const named = cells.filter((c) => c.trim() !== '').length;
-  if (cells.length === 0 || (cells.length < dataCount && !(dataCount >= 3 && named === dataCount - 1))) return false;
+/**
+ * A header names every data column, or all but the first when at least 3 remain (an unnamed time column) and the
+ * rows open with an empty field or every name carries a unit: a key/value line above the data is no header.
+ */
+function looksLikeHeader(cells: string[], dataCount: number, shifted: boolean, decimalComma: boolean): boolean {
+  const names = cells.filter((c) => c.trim() !== '');
+  const unnamedFirst =
+    dataCount >= 3 && names.length === dataCount - 1 && (shifted || names.every((n) => parseColumnHeading(n).unitText !== null));
+  if (cells.length === 0 || (cells.length < dataCount && !unnamedFirst)) return false;
   if (cells.length === 1 && statesANumber(cells[0])) return false;
-  return cells.every((c) => c === '' || (slowCellValue(c, false) === null && !isTimestamp(c)));
+  return cells.every((c) => c === '' || (slowCellValue(c, decimalComma) === null && !isTimestamp(c)));
 }
 
 /** A header cell and the unit under it in a units row, if the cell gives none and the one below reads as a unit. */
@@ -167,6 +172,8 @@ const FIXED_DECIMALS = 3;
 /** Preamble keys stating a vertical scale per division or per code, which integer values may be meant to take. */
 const VERTICAL_SCALE_KEY = /per\s*div|\/\s*div|codes?\s*per|vertical\s*(?:scale|gain)|volts?\s*per/i;
 const WHOLE_NUMBER = /^[-+]?\d+$/;
+/** Relative spread of steps allowed for the first rows of a column to read as a time axis (as timeAxis allows). */
+const EVEN_STEP_TOLERANCE = 0.01;
 
 /** True when the cells are whole numbers counting up by one (a sample index or sequence number). */
 function countsUp(cells: (string | undefined)[]): boolean {
@@ -182,14 +189,24 @@ function increases(cells: (string | undefined)[], decimalComma: boolean): boolea
 
 /**
  * Rows such as '0,125' that split at the comma into a whole number and a run of fixed decimals, under a line with
- * no comma: one column written with decimal commas. A whole number counting up ('0,25' '1,30') stays two columns.
+ * no comma: one column written with decimal commas, when a name stands above it or the numbers show it (a whole
+ * part of 0, or decimals opening with 0, which whole numbers never do). A whole number counting up stays two columns.
  */
 function oneColumnWithDecimalCommas(shapes: DataShape[], above: string | undefined): boolean {
   if (shapes[0].delimiter !== ',' || shapes.some((s) => s.cells.length !== 2) || above?.includes(',')) return false;
   const wholes = shapes.map((s) => s.cells[0].trim());
   const decimals = shapes.map((s) => s.cells[1].trim());
   if (!wholes.every((w) => WHOLE_NUMBER.test(w)) || !decimals.every((d) => /^\d+$/.test(d))) return false;
-  return decimals.every((d) => d.length === decimals[0].length) && decimals[0].length >= FIXED_DECIMALS && !countsUp(wholes);
+  if (!decimals.every((d) => d.length === decimals[0].length) || decimals[0].length < FIXED_DECIMALS || countsUp(wholes)) return false;
+  const named = above !== undefined && !statesANumber(above);
+  return named || wholes.some((w) => /^[-+]?0$/.test(w)) || decimals.some((d) => d.startsWith('0'));
+}
+
+/** True when the cells are numbers in equal steps (to 1 % of a step), as a time column's first rows are. */
+function evenSteps(cells: (string | undefined)[], decimalComma: boolean): boolean {
+  const values = cells.map((c) => (c === undefined ? NaN : (slowCellValue(c, decimalComma) ?? NaN)));
+  const step = values[1] - values[0];
+  return step > 0 && values.every((v, k) => k === 0 || Math.abs(v - values[k - 1] - step) <= EVEN_STEP_TOLERANCE * step);
 }
 
 interface HeaderTiming {
@@ -257,14 +274,14 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
     const lastCells = headerCells(last.text, delimiter);
     const before = meaningful[meaningful.length - 2];
     const beforeCells = before ? headerCells(before.text, delimiter) : [];
-    if (isUnitsRow(lastCells) && before && looksLikeHeader(beforeCells, width)) {
+    if (isUnitsRow(lastCells) && before && looksLikeHeader(beforeCells, width, skip === 1, decimalComma)) {
       header = before;
       units = lastCells;
-    } else if (looksLikeHeader(lastCells, width)) {
+    } else if (looksLikeHeader(lastCells, width, skip === 1, decimalComma)) {
       // A line of units only is no header: it gives the units of header-less columns.
       if (isUnitsRow(lastCells)) units = lastCells;
       else header = last;
-    } else if (before && looksLikeHeader(beforeCells, width)) {
+    } else if (before && looksLikeHeader(beforeCells, width, skip === 1, decimalComma)) {
       const below = headerTiming(trimTrailingEmpty(beforeCells), lastCells, last.line, decimalComma);
       if (below.timing.interval !== null) {
         header = before;
@@ -299,7 +316,7 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
     const p = plan(headings[c] ?? '', units?.[c]);
     const counting = countsUp(column(c));
     const indexNamed = INDEX_NAME.test(p.name) || INDEX_NAME.test(units?.[c]?.trim() ?? '');
-    const beforeTime = !header && c === skip && increases(column(c + 1), decimalComma) && !countsUp(column(c + 1));
+    const beforeTime = !header && c === skip && evenSteps(column(c + 1), decimalComma) && !countsUp(column(c + 1));
     const timeNamed = header !== null && (isTimeName(p.name) || readsAsTime(p.reading));
     let kind: ColumnKind = 'value';
     if (c < skip || timing?.cells.has(c)) kind = 'ignored';
