@@ -7,8 +7,11 @@
 //   wall-clock stamps). The delimiter is the one of tab, ';', ',', whitespace giving the most cells; ',' inside a
 //   cell of a ';', tab or whitespace table (or of a quoted field) is a decimal comma.
 // - The non-blank line just above the table is its header when none of its cells is a number (a line of units
-//   such as '(s),(mV)' under the names is read too). Units come from 'name (unit)', 'name [unit]', 'name/unit' or
-//   'time_ns'; values are scaled to SI. Everything above the header is the preamble of key/value lines.
+//   such as '(s),(mV)' under the names is read too; a line of units alone, or one cell holding a number, is no
+//   header; start and increment may sit in header cells or under the names in the row below). Units come from
+//   'name (unit)', 'name [unit]', 'name/unit' or 'time_ns'; values are scaled to SI. Everything above the header is
+//   the preamble of key/value lines. A ',' table of one whole number and fixed decimals per row is one column
+//   written with decimal commas (see layout for when).
 // - Time columns: a column holding wall-clock stamps; a header named time, t, x, sec(onds), timestamp or starting
 //   with 'time', or with a time unit. Each channel uses the nearest time column on its left (time/value pairs).
 //   Without a header, the first of two or more columns is time when strictly increasing (or when sortTime is set);
