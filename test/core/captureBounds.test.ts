@@ -1,8 +1,8 @@
 // Hostile capture files: very wide tables, endless lines and rows far shorter than their table stay within bounded memory.
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
 import { MAX_COLUMNS, MAX_LINE_LENGTH } from '../../core/capture/captureLimits';
 import { ColumnStore } from '../../core/capture/columnStore';
 import { parseCapture, parseCaptureBytes } from '../../core/capture/parseCapture';
@@ -27,8 +27,14 @@ function refusal(text: string): string {
   throw new Error('the capture was read');
 }
 
+/** Folders made by the tests, removed at the end (one holds 50 MB). */
+const made: string[] = [];
+afterAll(() => made.forEach((dir) => rmSync(dir, { recursive: true, force: true })));
+
 function tempFile(name: string, content: string | Buffer): string {
-  const file = path.join(mkdtempSync(path.join(tmpdir(), 'ringbench-bounds-')), name);
+  const dir = mkdtempSync(path.join(tmpdir(), 'ringbench-bounds-'));
+  made.push(dir);
+  const file = path.join(dir, name);
   writeFileSync(file, content);
   return file;
 }

@@ -1,10 +1,10 @@
 // What `ringbench fit` refuses before reading: FIFOs, devices, folders and files over 2 GiB, each at once with exit 2; and a very wide file.
 import { spawnSync } from 'node:child_process';
-import { closeSync, ftruncateSync, mkdtempSync, openSync, readdirSync, writeFileSync } from 'node:fs';
+import { closeSync, ftruncateSync, mkdtempSync, openSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
 import { readFileBytes } from '../../main/io/captureFile';
 import { FileError } from '../../main/io/fileError';
 import { tsxArgs } from '../core/boundsRun';
@@ -15,9 +15,14 @@ const CHILD_TIMEOUT_MS = 20_000;
 /** 2 GiB and one byte: one more than the largest file read. */
 const OVER_LIMIT_BYTES = 2 ** 31 + 1;
 
+/** Folders made by the tests, removed at the end. */
+const made: string[] = [];
+afterAll(() => made.forEach((dir) => rmSync(dir, { recursive: true, force: true })));
+
 /** `ringbench fit <file>` from the sources, in a child process, in an empty folder (to see that nothing is written). */
 function fit(file: string) {
   const cwd = mkdtempSync(path.join(tmpdir(), 'ringbench-fit-'));
+  made.push(cwd);
   const result = spawnSync(process.execPath, tsxArgs(path.join(ROOT, 'main/cli/index.ts'), 'fit', file), {
     cwd,
     encoding: 'utf8',
@@ -38,7 +43,9 @@ function refusal(path: string): string {
 }
 
 function tempDir(): string {
-  return mkdtempSync(path.join(tmpdir(), 'ringbench-bounds-'));
+  const dir = mkdtempSync(path.join(tmpdir(), 'ringbench-bounds-'));
+  made.push(dir);
+  return dir;
 }
 
 const mkfifoMissing = spawnSync('mkfifo', ['--version'], { encoding: 'utf8' }).error !== undefined;
