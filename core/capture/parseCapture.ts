@@ -103,7 +103,8 @@ class StreamingReader implements CaptureReader {
     }
     const text = this.carry === '' ? chunk : this.carry + chunk;
     if (this.terminator === null) {
-      this.terminator = text.includes('\n') ? '\n' : /\r[^]/.test(text) ? '\r' : null;
+      // A CR is known to end lines alone once text other than CR or LF follows it ('CR CR LF' may be split after 'CR CR').
+      this.terminator = text.includes('\n') ? '\n' : /\r[^\r\n]/.test(text) ? '\r' : null;
       if (this.terminator === null) {
         this.carry = text;
         return;

@@ -1,7 +1,7 @@
 // The importer on every export habit of the generator: time axis, channel names and units, rows dropped, warnings.
 
 import { describe, expect, it } from 'vitest';
-import { parseCapture } from '../../core/capture/parseCapture';
+import { createCaptureReader, parseCapture } from '../../core/capture/parseCapture';
 import { fitResponse } from '../../core/fit/fitResponse';
 import { RING, exportHabits, type ExportHabit } from '../fixtures/exportHabits';
 
@@ -66,5 +66,19 @@ describe('bad rows', () => {
     expect(() => parseCapture(text)).toThrow(/^line 2: no channel has at least 20 usable samples/);
     const kept = parseCapture(text.replaceAll('N/A', '0.5').replace('0.5', 'N/A'));
     expect(kept.channels[0].dropped).toBe(1);
+  });
+});
+
+describe('line ends split between pieces', () => {
+  it('read the same when the text is cut just after its first CR, or its first two (CR CR LF)', () => {
+    for (const habit of habits.filter((h) => h.text.includes('\r'))) {
+      const first = habit.text.indexOf('\r');
+      for (const cut of [first + 1, first + 2]) {
+        const reader = createCaptureReader(habit.options);
+        reader.push(habit.text.slice(0, cut));
+        reader.push(habit.text.slice(cut));
+        expect(reader.finish(), `${habit.name}, cut at ${cut}`).toEqual(parseCapture(habit.text, habit.options));
+      }
+    }
   });
 });
