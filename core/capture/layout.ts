@@ -5,6 +5,17 @@ import { isTimestamp, slowCellValue } from './cellValue';
 import { checkColumnCount } from './captureLimits';
 import { columnUnit, isTimeName, isUnitsRow, parseColumnHeading, readsAsTime, unitCellText, type ColumnHeading } from './columnHeader';
 import { sameShape, dataShape, type DataShape } from './dataShape';
+import {
+  INDEX_NAME,
+  converterCodesWarning,
+  countsUp,
+  evenSteps,
+  headerTiming,
+  increases,
+  oneColumnWithDecimalCommas,
+  statesANumber,
+  type HeaderTiming,
+} from './layoutHabits';
 import { isBlankOrComment, readPreamble, type Preamble, type PreambleLine, type StatedTime } from './preamble';
 import { WHITESPACE, splitLine, trimTrailingEmpty } from './splitLine';
 import { readUnitText } from '../units/unitText';
@@ -60,11 +71,6 @@ function headerCells(text: string, delimiter: string): string[] {
     else merged.push(cell);
   }
   return merged;
-}
-
-/** A single cell holding a number among its words ('Sample interval,2e-6', 'Increment 2e-6'): metadata, no name. */
-function statesANumber(cell: string): boolean {
-  return /[:=]\s*\S/.test(cell) || cell.split(/[\s,;]+/).some((word) => word !== '' && slowCellValue(word, false) !== null);
 }
 
 /**
@@ -163,82 +169,6 @@ function chooseInterval(preamble: Preamble, options: CaptureOptions, warnings: s
   }
   const stated = preamble.interval;
   return stated ? { ...stated, source: `'${stated.key}' on line ${stated.line}` } : null;
-}
-
-/** Names of a column that counts samples rather than measuring anything. */
-const INDEX_NAME = /^(?:index|idx|samples?|sample ?(?:no|nr|number|#)|no|nr|#|points?|pt|seq|sequence|counter)\.?$/i;
-/** Fewest digits after a decimal comma for '0,123' to be read as one number rather than two columns (fixed decimals). */
-const FIXED_DECIMALS = 3;
-/** Preamble keys stating a vertical scale per division or per code, which integer values may be meant to take. */
-const VERTICAL_SCALE_KEY = /per\s*div|\/\s*div|codes?\s*per|vertical\s*(?:scale|gain)|volts?\s*per/i;
-const WHOLE_NUMBER = /^[-+]?\d+$/;
-/** Relative spread of steps allowed for the first rows of a column to read as a time axis (as timeAxis allows). */
-const EVEN_STEP_TOLERANCE = 0.01;
-
-/** True when the cells are whole numbers counting up by one (a sample index or sequence number). */
-function countsUp(cells: (string | undefined)[]): boolean {
-  if (!cells.every((c) => c !== undefined && WHOLE_NUMBER.test(c.trim()))) return false;
-  return cells.every((c, k) => k === 0 || Number(c) === Number(cells[k - 1]) + 1);
-}
-
-/** True when the cells are numbers increasing strictly. */
-function increases(cells: (string | undefined)[], decimalComma: boolean): boolean {
-  const values = cells.map((c) => (c === undefined ? null : slowCellValue(c, decimalComma)));
-  return values.every((v, k) => v !== null && !Number.isNaN(v) && (k === 0 || v > (values[k - 1] as number)));
-}
-
-/**
- * Rows such as '0,125' that split at the comma into a whole number and a run of fixed decimals, under a line with
- * no comma: one column written with decimal commas, when a name stands above it or the numbers show it (a whole
- * part of 0, or decimals opening with 0, which whole numbers never do). A whole number counting up stays two columns.
- */
-function oneColumnWithDecimalCommas(shapes: DataShape[], above: string | undefined): boolean {
-  if (shapes[0].delimiter !== ',' || shapes.some((s) => s.cells.length !== 2) || above?.includes(',')) return false;
-  const wholes = shapes.map((s) => s.cells[0].trim());
-  const decimals = shapes.map((s) => s.cells[1].trim());
-  if (!wholes.every((w) => WHOLE_NUMBER.test(w)) || !decimals.every((d) => /^\d+$/.test(d))) return false;
-  if (!decimals.every((d) => d.length === decimals[0].length) || decimals[0].length < FIXED_DECIMALS || countsUp(wholes)) return false;
-  const named = above !== undefined && !statesANumber(above);
-  return named || wholes.some((w) => /^[-+]?0$/.test(w)) || decimals.some((d) => d.startsWith('0'));
-}
-
-/** True when the cells are numbers in equal steps (to 1 % of a step), as a time column's first rows are. */
-function evenSteps(cells: (string | undefined)[], decimalComma: boolean): boolean {
-  const values = cells.map((c) => (c === undefined ? NaN : (slowCellValue(c, decimalComma) ?? NaN)));
-  const step = values[1] - values[0];
-  return step > 0 && values.every((v, k) => k === 0 || Math.abs(v - values[k - 1] - step) <= EVEN_STEP_TOLERANCE * step);
-}
-
-interface HeaderTiming {
-  timing: Preamble;
-  /** Columns that only hold the stated timing. */
-  cells: Set<number>;
-}
-
-/** Start time and increment stated in header cells ('Start = -1e-5') or under the header names in the row below. */
-function headerTiming(headings: string[], below: string[] | null, line: number, decimalComma: boolean): HeaderTiming {
-  const cells = new Set<number>();
-  const timing: Preamble = { metadata: {}, interval: null, offset: null, warnings: [] };
-  headings.forEach((heading, c) => {
-    const text = /[:=]/.test(heading) ? heading : below?.[c] ? `${heading}: ${below[c]}` : null;
-    if (text === null) return;
-    const stated = readPreamble([{ text, line }], '', decimalComma);
-    if (stated.interval === null && stated.offset === null) return;
-    cells.add(c);
-    timing.interval ??= stated.interval;
-    timing.offset ??= stated.offset;
-  });
-  return { timing, cells };
-}
-
-/** A warning for value columns of whole numbers without a unit, under a preamble stating a vertical scale. */
-function converterCodesWarning(columns: ColumnPlan[], shapes: DataShape[], preamble: Preamble): string | null {
-  const key = Object.keys(preamble.metadata).find((k) => VERTICAL_SCALE_KEY.test(k));
-  if (key === undefined) return null;
-  const coded = columns.filter((column, c) => column.kind === 'value' && column.unit === '' && shapes.every((s) => WHOLE_NUMBER.test(s.cells[c]?.trim() ?? '')));
-  if (coded.length === 0) return null;
-  const names = coded.map((c) => `'${c.name}'`).join(', ');
-  return `channel(s) ${names} hold whole numbers and the preamble states a vertical scale ('${key}'): they look like converter codes, and are kept as codes, unscaled`;
 }
 
 /**
