@@ -10,8 +10,7 @@ import type { Comparison } from '../../core/report/comparisonText';
 import { measureCapture, type MeasureResult } from '../../core/workflow/measure';
 import { parseMeasureSettings, type MeasureSettings } from '../../core/workflow/measureSettings';
 import { loadCapture, readFileBytes, type LoadedCapture } from '../io/captureFile';
-import type { CaptureOptions } from '../../core/capture/types';
-import type { MeasurementSettings } from '../../core/report/benchRecord';
+import { readingOptionsOf } from './readingOptions';
 
 export interface LoadedDesign {
   path: string;
@@ -35,28 +34,6 @@ export function loadDesignFile(path: string, cwd: string): LoadedDesign {
 /** The capture file read with the settings' channel, sample interval, time-order rule and stated units. */
 export function loadCaptureFor(file: string, settings: MeasureSettings, cwd: string): LoadedCapture {
   return loadCapture(file, { cwd, ...readingOptionsOf(settings) });
-}
-
-/** How the settings say a capture is read: the importer's options and the channel to take. */
-export function readingOptionsOf(settings: MeasureSettings): CaptureOptions & { channel?: string | number } {
-  const { channel, sampleInterval, sortTime, timeUnit, valueUnit } = parseMeasureSettings(settings);
-  return { channel, sampleInterval, sortTime, timeUnit, valueUnit };
-}
-
-/** A bench record's settings (null where left to the default) as measuring settings. */
-export function settingsOfRecord(s: MeasurementSettings): MeasureSettings {
-  const given = (text: string | null) => text ?? undefined;
-  return {
-    topology: given(s.topology),
-    known: given(s.known),
-    column: given(s.column),
-    sampleInterval: given(s.sampleInterval),
-    from: given(s.from),
-    to: given(s.to),
-    sortTime: s.sortTime,
-    timeUnit: s.timeUnit,
-    valueUnit: s.valueUnit,
-  };
 }
 
 /** Fit one capture file; with a design, its verdict; the cautions from its samples. A part or design that cannot be used throws. */

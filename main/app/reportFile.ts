@@ -13,7 +13,7 @@ import { describeTornTail, readCleanBenchLog } from '../io/benchLog';
 import { decodeUtf8, readFileBytes } from '../io/captureFile';
 import { parseCaptureBytes } from '../../core/capture/parseCapture';
 import { selectChannel } from '../../core/capture/selectChannel';
-import { readingOptionsOf, settingsOfRecord } from './measureFile';
+import { readingOptionsOf, settingsOfRecord } from './readingOptions';
 import { FileError } from '../io/fileError';
 import { writeFileAtomic } from '../io/atomicFile';
 import { VERSION } from '../version';
