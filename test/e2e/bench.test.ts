@@ -9,7 +9,7 @@ import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'nod
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { buildBench, CHROMIUM, hasChromium, inkFraction, launchChromium, outputDir, repoRoot, serveBench, waitForFit, type ServedBench } from './benchHarness';
+import { buildBench, CHROMIUM, dropFile, hasChromium, inkFraction, launchChromium, outputDir, repoRoot, serveBench, waitForFit, type ServedBench } from './benchHarness';
 
 if (!hasChromium) console.warn(`test/e2e/bench.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
 
@@ -109,20 +109,6 @@ async function openThroughInput(page: Page, path: string): Promise<void> {
   const chooser = page.waitForEvent('filechooser');
   await page.click('#open-capture');
   await (await chooser).setFiles(path);
-}
-
-async function dropFile(page: Page, path: string, name: string): Promise<void> {
-  const text = readFileSync(path, 'utf8');
-  await page.evaluate(
-    ({ text, name }) => {
-      const transfer = new DataTransfer();
-      transfer.items.add(new File([text], name, { type: 'text/csv' }));
-      for (const type of ['dragenter', 'dragover', 'drop']) {
-        document.body.dispatchEvent(new DragEvent(type, { dataTransfer: transfer, bubbles: true, cancelable: true }));
-      }
-    },
-    { text, name },
-  );
 }
 
 async function plotInk(browser: Browser, page: Page, name: string): Promise<number> {

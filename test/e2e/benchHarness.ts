@@ -1,7 +1,7 @@
 // Shared by the end-to-end tests and the screenshot script: build, `ringbench serve`, Chromium, pixel checks.
 
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { existsSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { chromium, type Browser, type Page } from 'playwright-core';
@@ -111,4 +111,19 @@ export async function inkFraction(browser: Browser, png: Buffer): Promise<number
   } finally {
     await page.close();
   }
+}
+
+/** Drop a capture file on the window as a person drags it from a folder. */
+export async function dropFile(page: Page, path: string, name: string): Promise<void> {
+  const text = readFileSync(path, 'utf8');
+  await page.evaluate(
+    ({ text, name }) => {
+      const transfer = new DataTransfer();
+      transfer.items.add(new File([text], name, { type: 'text/csv' }));
+      for (const type of ['dragenter', 'dragover', 'drop']) {
+        document.body.dispatchEvent(new DragEvent(type, { dataTransfer: transfer, bubbles: true, cancelable: true }));
+      }
+    },
+    { text, name },
+  );
 }

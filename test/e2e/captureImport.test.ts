@@ -1,28 +1,13 @@
 // End to end: the capture panel shows how the file was read (delimiter, decimal mark, time source), in a real browser.
 
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
-import { buildBench, CHROMIUM, hasChromium, launchChromium, outputDir, repoRoot, serveBench, waitForFit, type ServedBench } from './benchHarness';
+import { buildBench, CHROMIUM, dropFile, hasChromium, launchChromium, outputDir, repoRoot, serveBench, waitForFit, type ServedBench } from './benchHarness';
 
 if (!hasChromium) console.warn(`test/e2e/captureImport.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
-
-/** Drop a capture file on the window as a person drags it from a folder. */
-async function dropFile(page: Page, path: string, name: string): Promise<void> {
-  const text = readFileSync(path, 'utf8');
-  await page.evaluate(
-    ({ text, name }) => {
-      const transfer = new DataTransfer();
-      transfer.items.add(new File([text], name, { type: 'text/csv' }));
-      for (const type of ['dragenter', 'dragover', 'drop']) {
-        document.body.dispatchEvent(new DragEvent(type, { dataTransfer: transfer, bubbles: true, cancelable: true }));
-      }
-    },
-    { text, name },
-  );
-}
 
 describe.skipIf(!hasChromium)('the capture panel in a browser', () => {
   let bench: ServedBench;

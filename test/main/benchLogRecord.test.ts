@@ -1,23 +1,11 @@
 // Building a bench-log record from a measurement: injected clock and id, settings, cautions, checks on labels.
 import { describe, expect, it } from 'vitest';
 import { createBenchRecord } from '../../main/app/benchLogRecord';
-import type { FileMeasurement } from '../../main/app/measureFile';
-import type { ResponseFit } from '../../core/fit/fitResponse';
 import { checkLabel } from '../../main/app/labels';
 import { parseBenchRecord } from '../../core/report/benchRecord';
-import { evaluateCautions } from '../../core/safety/evaluateCautions';
-import type { LoadedCapture } from '../../main/io/captureFile';
-import { sampleFit } from '../fixtures/benchLog/sampleRecord';
+import { sampleMeasurement } from '../fixtures/benchLog/sampleRecord';
 
-const measurement: FileMeasurement = {
-  fit: {} as ResponseFit,
-  summary: sampleFit(),
-  capture: { path: '/bench/sn042.csv', sha256: 'ef'.repeat(32), bytes: 1234, channel: { name: 'CH1' } } as LoadedCapture,
-  design: null,
-  verdict: null,
-  cautions: evaluateCautions({ peakVoltage: 60, capacitance: 1e-6 }),
-  problems: { verdict: null, components: null },
-};
+const measurement = sampleMeasurement();
 
 describe('createBenchRecord', () => {
   const record = createBenchRecord(

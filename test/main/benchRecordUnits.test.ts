@@ -1,23 +1,11 @@
 // The stated units in a bench record's settings: kept when given, absent otherwise, and older records still read.
 import { describe, expect, it } from 'vitest';
 import { createBenchRecord } from '../../main/app/benchLogRecord';
-import type { FileMeasurement } from '../../main/app/measureFile';
-import type { ResponseFit } from '../../core/fit/fitResponse';
 import { parseBenchRecord, type BenchRecord } from '../../core/report/benchRecord';
 import { benchLogRequestProblem } from '../../main/api/guards';
-import { evaluateCautions } from '../../core/safety/evaluateCautions';
-import type { LoadedCapture } from '../../main/io/captureFile';
-import { sampleFit, sampleRecord } from '../fixtures/benchLog/sampleRecord';
+import { sampleMeasurement, sampleRecord } from '../fixtures/benchLog/sampleRecord';
 
-const measurement: FileMeasurement = {
-  fit: {} as ResponseFit,
-  summary: sampleFit(),
-  capture: { path: '/bench/sn042.csv', sha256: 'ef'.repeat(32), bytes: 1234, channel: { name: 'CH1' } } as LoadedCapture,
-  design: null,
-  verdict: null,
-  cautions: evaluateCautions({ peakVoltage: 60, capacitance: 1e-6 }),
-  problems: { verdict: null, components: null },
-};
+const measurement = sampleMeasurement();
 const label = { unit: 'SN042', operator: null, note: null };
 
 /** What the window sends to log a record: the record without its id, time, kind and software. */
