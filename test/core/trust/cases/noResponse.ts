@@ -1,0 +1,5 @@
+// Trust table rows: see trustCase.ts.
+
+import type { TrustCase } from '../trustCase';
+
+export const noResponseCases: TrustCase[] = [];
