@@ -6,6 +6,7 @@ import { fitResultRows, hertz } from '../../core/report/resultRows';
 import { parseSigned } from '../parseInputs';
 import { plainMessage } from '../plainMessage';
 import type { BenchState } from '../benchState';
+import { fitStanding } from '../fitStanding';
 import { transitionView } from './transitionView';
 import type { BenchActions } from '../actions';
 
@@ -19,6 +20,7 @@ const WORDS: Record<string, [symbol: string, words: string]> = {
   Q: ['Q', 'quality factor'],
   finalValue: ['y∞', 'final value'],
   t0: ['t₀', 'event time'],
+  tau: ['τ', 'time constant'],
 };
 
 export function createFitPanel(actions: BenchActions) {
@@ -62,19 +64,27 @@ export function createFitPanel(actions: BenchActions) {
       extra.replaceChildren();
       return;
     }
-    const badge = fit.status === 'converged' ? 'ok' : fit.status === 'failed' ? 'bad' : 'warn';
+    const standing = fitStanding(summary, state.capture?.info.warnings ?? []);
+    const [firstDoubt, ...otherDoubts] = standing.doubts;
     replaceChildren(
       status,
-      h('span', { class: `badge ${badge}`, id: 'fit-state', data: { status: fit.status } }, fit.status === 'converged' ? 'converged' : fit.status === 'failed' ? 'fit failed' : 'stopped at the iteration limit'),
-      h('span', { class: 'regime', id: 'fit-regime', data: { regime: fit.regime } }, fit.regime),
-      h('p', { class: 'muted small' }, fit.regimeEvidence),
-      fit.status !== 'converged' ? h('p', { class: 'error-text' }, fit.message) : null,
+      h(
+        'div',
+        { class: 'fit-standing' },
+        h('span', { class: `badge ${standing.tone}`, id: 'fit-state', data: { status: fit.status, tone: standing.tone } }, standing.label),
+        standing.showRegime ? h('span', { class: 'regime', id: 'fit-regime', data: { regime: fit.regime } }, fit.regime) : null,
+      ),
+      fit.status !== 'converged' ? h('p', { class: 'error-text', id: 'fit-message' }, fit.message) : null,
+      firstDoubt ? h('p', { class: `first-warning ${standing.tone}`, id: 'fit-first-warning' }, firstDoubt, otherDoubts.length ? h('span', { class: 'muted' }, ` (${otherDoubts.length} more below)`) : null) : null,
+      standing.showRegime ? h('p', { class: 'muted small' }, fit.regimeEvidence) : null,
     );
     // R, L and C are shown in the components panel.
     const rows = fitResultRows(summary).filter((row) => WORDS[row.name]);
     const ringHz = summary.omegaD ? quantityRow('fd', 'f_d', 'ring frequency', hertz(summary.omegaD)) : null;
+    table.classList.toggle('untrusted', standing.tone === 'bad');
     replaceChildren(
       table,
+      standing.tone === 'bad' ? h('caption', {}, 'Where the fit stopped: not a measurement') : null,
       h(
         'tbody',
         {},
@@ -102,7 +112,7 @@ export function createFitPanel(actions: BenchActions) {
         fit.decimation ? h('dt', {}, 'Decimation') : null,
         fit.decimation ? h('dd', {}, fit.decimation.note) : null,
       ),
-      fit.warnings.length ? h('ul', { class: 'warnings', id: 'fit-warnings' }, ...fit.warnings.map((w) => h('li', {}, w))) : null,
+      otherDoubts.length ? h('ul', { class: 'warnings', id: 'fit-warnings' }, ...otherDoubts.map((w) => h('li', {}, w))) : null,
     );
   }
 

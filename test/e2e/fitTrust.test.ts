@@ -1,0 +1,53 @@
+// End to end: a fit that is not a measurement never sits beside a green badge, and a refused unit can be stated in the window.
+
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Browser, Page } from 'playwright-core';
+import { buildBench, CHROMIUM, dropFile, hasChromium, launchChromium, outputDir, serveBench, waitForFit, type ServedBench } from './benchHarness';
+import { flatNoiseCapture } from './generatedCaptures';
+
+if (!hasChromium) console.warn(`test/e2e/fitTrust.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
+
+describe.skipIf(!hasChromium)('the fit badge and the unit controls in a browser', () => {
+  let bench: ServedBench;
+  let browser: Browser;
+  let page: Page;
+  let folder: string;
+
+  beforeAll(async () => {
+    buildBench();
+    mkdirSync(outputDir, { recursive: true });
+    folder = mkdtempSync(join(tmpdir(), 'ringbench-trust-'));
+    bench = await serveBench(join(folder, 'bench-log.jsonl'), folder);
+    browser = await launchChromium();
+    page = await (await browser.newContext({ viewport: { width: 1600, height: 1000 }, deviceScaleFactor: 1 })).newPage();
+    await page.goto(bench.url);
+    await waitForFit(page, 'input-filter-step.csv');
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+    await bench?.stop();
+    if (folder) rmSync(folder, { recursive: true, force: true });
+  });
+
+  it('shows a flat, noisy record in red or amber, with no regime and its first warning beside the badge', async () => {
+    const file = join(folder, 'flat-noise.csv');
+    writeFileSync(file, flatNoiseCapture());
+    await dropFile(page, file, 'flat-noise.csv');
+    await waitForFit(page, 'flat-noise.csv');
+    const badge = page.locator('#fit-state');
+    if ((await badge.count()) > 0) {
+      expect(await badge.getAttribute('data-tone')).not.toBe('ok');
+      expect(await badge.evaluate((e) => e.classList.contains('ok'))).toBe(false);
+      const status = await badge.getAttribute('data-status');
+      if (status !== 'converged') expect(await page.locator('#fit-regime').count()).toBe(0);
+      expect(await page.locator('#fit-status #fit-first-warning, #fit-status #fit-message').count()).toBeGreaterThan(0);
+    } else {
+      expect(await page.locator('#fit-status .error-text').innerText()).not.toBe('');
+    }
+    await page.locator('#fit-panel').screenshot({ path: join(outputDir, 'fit-panel-flat-noise.png') });
+  });
+});
