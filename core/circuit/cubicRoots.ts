@@ -35,8 +35,8 @@ export function cubicRoots(c3: number, c2: number, c1: number, c0: number): Comp
   return [{ re: r, im: 0 }, ...quadraticRoots(p, q)].sort((u, v) => Math.abs(u.im) - Math.abs(v.im) || v.im - u.im);
 }
 
-/** Roots of z^2 + p z + q. */
-function quadraticRoots(p: number, q: number): Complex[] {
+/** Roots of z^2 + p z + q, real ones without cancellation. */
+export function quadraticRoots(p: number, q: number): Complex[] {
   const disc = p * p - 4 * q;
   if (disc >= 0) {
     const s = -(p + Math.sign(p || 1) * Math.sqrt(disc)) / 2;

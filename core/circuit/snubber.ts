@@ -1,7 +1,8 @@
 // An RC snubber starting point for a ringing loop, its dissipation, and the predicted damping with it.
 import { quantity, type Quantity } from '../quantity';
-import { cubicRoots, type Complex } from './cubicRoots';
+import { cubicRoots, quadraticRoots, type Complex } from './cubicRoots';
 import { CircuitInputError } from './errors';
+import { loopStepResponse, SETTLING_BAND, type StepMetrics } from './loopStepResponse';
 
 export interface SnubberLoop {
   /** Loop (parasitic) inductance L_p, H. */
@@ -44,10 +45,24 @@ export interface SnubberSuggestion {
   powerPerVoltSquaredHertz: number;
   /** Dissipation at the given voltage and switching frequency, or null when they were not given. */
   powerAt: { voltage: number; frequency: number; power: number } | null;
-  /** The loop without the snubber. */
-  before: LoopDamping;
-  /** The loop with the snubber as a second-order loop (see method); all three poles in rad/s. */
-  predicted: LoopDamping & { method: string; poles: Complex[]; otherPole: number };
+  /** The loop without the snubber, with the node's response to a step of the source. */
+  before: LoopDamping & { step: StepMetrics };
+  /**
+   * The loop with the snubber: the second-order description of its pair (see method), all three poles
+   * in rad/s, and the step response of the whole third-order loop, which is what the node does.
+   */
+  predicted: LoopDamping & {
+    method: string;
+    poles: Complex[];
+    otherPole: number;
+    /** Whether the third pole decays at least DOMINANCE_RATIO times faster than the pair. */
+    pairDominant: boolean;
+    /** Overshoot a second-order loop with the pair's zeta would have (what zeta alone promises), a fraction. */
+    pairOvershoot: number;
+    step: StepMetrics;
+  };
+  /** The settling band of the step metrics, a fraction of the step. */
+  settlingBand: number;
   notes: string[];
 }
 
@@ -55,6 +70,11 @@ export interface SnubberSuggestion {
 const RATIO_LOW = 3;
 /** High end, and the default: the larger capacitor damps harder for more dissipation. */
 const RATIO_HIGH = 4;
+/**
+ * A pole pair dominates when the other pole decays at least this many times faster (the usual rule of
+ * thumb is 5 to 10, common practice, from memory); below it the step response is the third-order one.
+ */
+const DOMINANCE_RATIO = 5;
 
 /**
  * R = sqrt(L_p / C_p), C = 4 C_p by default (3 to 4 C_p is the usual starting range, common practice,
@@ -65,6 +85,9 @@ const RATIO_HIGH = 4;
  *   r m z^3 + (1 + m + rho r m) z^2 + (rho (1 + m) + r m) z + 1 = 0.
  * Its complex (ringing) pair, or when all poles are real its two slowest (the dominant-pole
  * approximation), is reported as the new alpha, omega0; the remaining real pole is given beside it.
+ * What the node does is the step response of the whole loop, v / V_step = (1 + r m z) / cubic
+ * (derived, the same circuit laws), from which the overshoot and the settling time are taken: the
+ * snubber's zero and a slow third pole can leave far more overshoot than the pair's zeta suggests.
  */
 export function suggestSnubber(loop: SnubberLoop, options: SnubberOptions = {}): SnubberSuggestion {
   const ratio = options.capacitanceRatio ?? RATIO_HIGH;
@@ -83,6 +106,12 @@ export function suggestSnubber(loop: SnubberLoop, options: SnubberOptions = {}):
   const zRoots = cubicRoots(r * m, 1 + m + rho * r * m, rho * (1 + m) + r * m, 1);
   const poles = zRoots.map((p) => ({ re: p.re * omegaRef, im: p.im * omegaRef }));
   const { pair, other, method } = ringingPair(poles);
+  const pairDamping = dampingFromPair(pair);
+  const pairDecay = Math.max(...pair.map((p) => Math.abs(p.re)));
+  const pairDominant = Math.abs(other) >= DOMINANCE_RATIO * pairDecay;
+  const step = inSeconds(loopStepResponse([1, r * m], zRoots, r * m).metrics, omegaRef);
+  const bareStep = inSeconds(loopStepResponse([1], quadraticRoots(rho, 1), 1).metrics, omegaRef);
+  const pairOvershoot = secondOrderOvershoot(pairDamping.zeta);
 
   const bareAlpha = Rp / (2 * Lp);
   const notes = [
@@ -90,6 +119,7 @@ export function suggestSnubber(loop: SnubberLoop, options: SnubberOptions = {}):
     'Use a non-inductive resistor rated for the dissipation with margin, and a capacitor rated for the voltage and the ripple current.',
   ];
   if (loop.R === undefined) notes.push('No loop resistance was given: the loop is taken as lossless before the snubber.');
+  if (!pairDominant) notes.push(notDominantNote(other, pairDecay, step.overshoot, pairDamping.zeta, pairOvershoot));
   const powerAt =
     options.voltage !== undefined && options.switchingFrequency !== undefined
       ? { voltage: options.voltage, frequency: options.switchingFrequency, power: C.value * options.voltage ** 2 * options.switchingFrequency }
@@ -100,13 +130,9 @@ export function suggestSnubber(loop: SnubberLoop, options: SnubberOptions = {}):
     capacitanceRange: { min: RATIO_LOW * Cp, max: RATIO_HIGH * Cp },
     powerPerVoltSquaredHertz: C.value,
     powerAt,
-    before: dampingOf(bareAlpha, omegaRef),
-    predicted: {
-      ...dampingFromPair(pair),
-      method,
-      poles,
-      otherPole: other,
-    },
+    before: { ...dampingOf(bareAlpha, omegaRef), step: bareStep },
+    predicted: { ...pairDamping, method, poles, otherPole: other, pairDominant, pairOvershoot, step },
+    settlingBand: SETTLING_BAND,
     notes,
   };
 }
@@ -127,6 +153,27 @@ function ringingPair(poles: Complex[]): { pair: [Complex, Complex]; other: numbe
     other: byDecay[2].re,
     method: 'dominant-pole approximation of the snubbed (third-order) loop: its two slowest real poles, exact roots of the cubic',
   };
+}
+
+/** Overshoot of a second-order step with this zeta: exp(-pi zeta / sqrt(1 - zeta^2)) below 1, else none (handbook relation). */
+function secondOrderOvershoot(zeta: number): number {
+  return zeta < 1 ? Math.exp((-Math.PI * zeta) / Math.sqrt(1 - zeta * zeta)) : 0;
+}
+
+function notDominantNote(other: number, pairDecay: number, overshoot: number, zeta: number, pairOvershoot: number): string {
+  const ratio = Math.abs(other) / pairDecay;
+  const pace = ratio < 1 ? 'more slowly than the pair' : `only ${ratio.toFixed(1)} times faster than the pair`;
+  const percent = (x: number) => `${(x * 100).toFixed(1)} %`;
+  return (
+    `The ringing pair does not dominate the snubbed loop: its third pole decays ${pace}, and the node overshoots ${percent(overshoot)} ` +
+    `where a second-order loop with zeta ${zeta.toPrecision(3)} would overshoot ${percent(pairOvershoot)}. Judge the snubber by the step response, not by zeta.`
+  );
+}
+
+/** Step metrics computed in the scaled time omega_ref t, in seconds. */
+function inSeconds(metrics: StepMetrics, omegaRef: number): StepMetrics {
+  const seconds = (t: number | null) => (t === null ? null : t / omegaRef);
+  return { overshoot: metrics.overshoot, peakTime: seconds(metrics.peakTime), settlingTime: seconds(metrics.settlingTime) };
 }
 
 function dampingFromPair([p1, p2]: [Complex, Complex]): LoopDamping {

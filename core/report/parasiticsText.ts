@@ -39,6 +39,10 @@ export function formatParasiticsText(r: ParasiticsResult): string {
     ? `  dissipation      ${formatEngineering(s.powerAt.power, 'W')} at ${formatEngineering(s.powerAt.voltage, 'V')}, ${formatEngineering(s.powerAt.frequency, 'Hz')} (P = C V^2 f)\n`
     : `  dissipation      ${formatEngineering(s.powerPerVoltSquaredHertz, 'W')} per V^2 Hz (give --voltage and --switching-frequency)\n`;
   text += `  zeta             ${s.before.zeta.toPrecision(3)} without, ${s.predicted.zeta.toPrecision(3)} with the snubber (${s.predicted.method})\n`;
+  const percent = (x: number) => `${(x * 100).toFixed(1)} %`;
+  const settling = (t: number | null) => (t === null ? 'never' : formatEngineering(t, 's'));
+  text += `  step overshoot   ${percent(s.before.step.overshoot)} without, ${percent(s.predicted.step.overshoot)} with the snubber (the whole loop's step response)\n`;
+  text += `  settling (${Math.round(s.settlingBand * 100)} %)   ${settling(s.before.step.settlingTime)} without, ${settling(s.predicted.step.settlingTime)} with the snubber\n`;
   for (const w of r.warnings) text += `  warning: ${w}\n`;
   for (const n of [...r.notes, ...s.notes]) text += `  note: ${n}\n`;
   return text + formatCautionsText(r.cautions);

@@ -2,8 +2,10 @@
 import { describe, expect, it } from 'vitest';
 import { cubicRoots, type Complex } from '../../core/circuit/cubicRoots';
 import { CircuitInputError } from '../../core/circuit/errors';
+import { loopStepResponse } from '../../core/circuit/loopStepResponse';
 import { suggestSnubber } from '../../core/circuit/snubber';
 import { quantity } from '../../core/quantity';
+import { integrateSnubbedStep, sampledStepMetrics } from './snubbedLoopIntegration';
 
 const mul = (a: Complex, b: Complex): Complex => ({ re: a.re * b.re - a.im * b.im, im: a.re * b.im + a.im * b.re });
 const add = (a: Complex, b: Complex): Complex => ({ re: a.re + b.re, im: a.im + b.im });
@@ -101,5 +103,70 @@ describe('suggestSnubber', () => {
 
   it('throws for a non-positive loop inductance', () => {
     expect(() => suggestSnubber({ ...loop, L: quantity(0, null, 'H') })).toThrow(/^loop\.L:/);
+  });
+});
+
+describe('the snubbed loop step response', () => {
+  // The README's switch node: L_p 6.4979 nH, C_p 390.28 pF, R_p 280.1 mOhm (from the sample captures).
+  const readmeLoop = { L: quantity(6.4979e-9, null, 'H'), C: quantity(390.28e-12, null, 'F'), R: quantity(0.2801, null, 'ohm') };
+
+  it.each([
+    { label: 'README switch node, 4 C_p', loop: readmeLoop, ratio: 4 },
+    { label: 'README switch node, 3 C_p', loop: readmeLoop, ratio: 3 },
+    { label: 'lossless gate loop, 4 C_p', loop: { L: quantity(8e-9, null, 'H'), C: quantity(1.5e-9, null, 'F') }, ratio: 4 },
+    { label: 'lossy loop, 10 C_p', loop: { L: quantity(15e-9, null, 'H'), C: quantity(220e-12, null, 'F'), R: quantity(3, null, 'ohm') }, ratio: 10 },
+  ])('$label: overshoot and settling agree with an RK4 integration of the circuit equations (independent, in this test)', ({ loop, ratio }) => {
+    const s = suggestSnubber(loop, { capacitanceRatio: ratio });
+    const Lp = loop.L.value;
+    const Cp = loop.C.value;
+    const interval = Math.sqrt(Lp * Cp) / 200;
+    const samples = integrateSnubbedStep({ Lp, Cp, Rp: loop.R?.value ?? 0, Rs: s.R.value, Cs: s.C.value }, 3 * s.predicted.step.settlingTime!, interval);
+    const numeric = sampledStepMetrics(samples, s.settlingBand);
+    expect(Math.abs(s.predicted.step.overshoot - numeric.overshoot)).toBeLessThan(1e-4);
+    // The sampled last exit lies within one sample interval before the exact one.
+    expect(s.predicted.step.settlingTime! - numeric.settlingTime).toBeGreaterThanOrEqual(-1e-9 * interval);
+    expect(s.predicted.step.settlingTime! - numeric.settlingTime).toBeLessThan(interval * 1.001);
+  });
+
+  it('the README loop: the third pole is slower than the pair, so the node overshoots far more than zeta 0.568 promises, and says so', () => {
+    const s = suggestSnubber(readmeLoop);
+    expect(s.predicted.zeta).toBeCloseTo(0.568, 3);
+    expect(Math.abs(s.predicted.otherPole)).toBeLessThan(s.predicted.alpha);
+    expect(s.predicted.pairDominant).toBe(false);
+    // exp(-pi zeta / sqrt(1 - zeta^2)) at zeta 0.568 (handbook relation for a second-order step).
+    expect(s.predicted.pairOvershoot).toBeCloseTo(Math.exp((-Math.PI * 0.5681) / Math.sqrt(1 - 0.5681 ** 2)), 3);
+    expect(s.predicted.step.overshoot).toBeGreaterThan(0.27);
+    expect(s.predicted.step.overshoot).toBeGreaterThan(2 * s.predicted.pairOvershoot);
+    expect(s.notes.join(' ')).toMatch(/does not dominate.*overshoots 28\.\d %.*would overshoot 11\.\d %/);
+    // The larger capacitor damps harder (C = 3 C_p overshoots more).
+    expect(suggestSnubber(readmeLoop, { capacitanceRatio: 3 }).predicted.step.overshoot).toBeGreaterThan(s.predicted.step.overshoot);
+  });
+
+  it('a pair far slower than the third pole dominates: the step overshoot is close to what its zeta implies, and no note', () => {
+    // A large snubber resistor next to a small capacitor: the snubber branch barely loads the node.
+    const s = suggestSnubber({ L: quantity(10e-9, null, 'H'), C: quantity(1e-9, null, 'F'), characteristicImpedance: quantity(0.4, null, 'ohm') }, { capacitanceRatio: 1 });
+    expect(s.predicted.pairDominant).toBe(true);
+    expect(Math.abs(s.predicted.step.overshoot - s.predicted.pairOvershoot)).toBeLessThan(0.05);
+    expect(s.notes.join(' ')).not.toMatch(/does not dominate/);
+  });
+
+  it('the bare loop: overshoot exp(-pi zeta / sqrt(1 - zeta^2)) (handbook relation), and a lossless loop never settles', () => {
+    const s = suggestSnubber(readmeLoop);
+    const zeta = s.before.zeta;
+    expect(s.before.step.overshoot).toBeCloseTo(Math.exp((-Math.PI * zeta) / Math.sqrt(1 - zeta * zeta)), 6);
+    expect(s.before.step.peakTime!).toBeCloseTo(Math.PI / s.before.omegaD!, 15);
+    const lossless = suggestSnubber({ L: readmeLoop.L, C: readmeLoop.C });
+    expect(lossless.before.step.settlingTime).toBeNull();
+    expect(lossless.before.step.overshoot).toBe(1);
+  });
+
+  it('a repeated pole (real double root) gives finite metrics close to its neighbours', () => {
+    // (s + 1)^2 (s + 4) / 4 with no zero: final value 1.
+    const repeated = loopStepResponse([1], [{ re: -4, im: 0 }, { re: -1, im: 0 }, { re: -1, im: 0 }], 0.25);
+    const near = loopStepResponse([1], [{ re: -4, im: 0 }, { re: -1.001, im: 0 }, { re: -0.999, im: 0 }], 0.25 * 1.001 * 0.999);
+    expect(Number.isFinite(repeated.metrics.settlingTime)).toBe(true);
+    expect(repeated.metrics.overshoot).toBe(0);
+    expect(repeated.metrics.settlingTime!).toBeCloseTo(near.metrics.settlingTime!, 2);
+    expect(repeated.at(0)).toBeCloseTo(0, 6);
   });
 });
