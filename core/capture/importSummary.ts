@@ -2,10 +2,12 @@
 
 /** How the bytes became text: filled by the reader's decoder. */
 export interface TextEncoding {
-  /** 'UTF-8' today. */
+  /** 'UTF-8', 'UTF-16LE', 'UTF-16BE' or 'Windows-1252'. */
   name: string;
   /** True when the text started with a byte-order mark (dropped). */
   byteOrderMark: boolean;
+  /** Why the encoding was chosen when the bytes had to tell ('not valid UTF-8 at line 3'); absent for plain UTF-8. */
+  note?: string;
 }
 
 export type DelimiterName = 'comma' | 'semicolon' | 'tab' | 'whitespace' | 'none';
@@ -64,6 +66,8 @@ export interface ImportSegment {
   firstLine: number;
   lastLine: number;
   rows: number;
+  /** True for the one segment the capture holds (the first, or the one asked for). */
+  read: boolean;
 }
 
 export interface ImportSummary {

@@ -1,7 +1,8 @@
-// Reads capture text (a scope's CSV or text export), or its UTF-8 bytes, into a Capture, whole or streamed in chunks.
+// Reads capture text (a scope's CSV or text export), or a file's bytes, into a Capture, whole or streamed in chunks.
 //
 // How a text is read:
-// - Lines end in LF, CRLF or CR; a UTF-8 byte-order mark is dropped (both noted in the capture's importSummary).
+// - Bytes are UTF-8, UTF-16 (told by its byte-order mark) or, when not valid UTF-8, Windows-1252 (textEncoding).
+// - Lines end in LF, CRLF or CR; a byte-order mark is dropped (both noted in the capture's importSummary).
 //   Blank lines and comments ('#', ';', '%', '//') are skipped anywhere; 'CR CR LF' ends a line like CR LF.
 // - The table starts at the first of 3 rows that split the same way into numbers (or missing-value markers, or
 //   wall-clock stamps). The delimiter is the one of tab, ';', ',', whitespace giving the most cells; ',' inside a
@@ -39,6 +40,7 @@ import { isBlankOrComment, type PreambleLine } from './preamble';
 import { ROW, RowReader, SKIP } from './rowReader';
 import type { LineEnd, TextEncoding } from './importSummary';
 import type { TextSource } from './summarizeImport';
+import { DetectingDecoder, decodeUtf16, utf16Of, utf8LineDecoder, type LineDecoder } from './textEncoding';
 import { CaptureError, type Capture, type CaptureOptions } from './types';
 
 /** Data rows of the same shape needed in a row before the table is taken to have started. */
@@ -71,7 +73,7 @@ class StreamingReader implements CaptureReader {
   private terminator: '\n' | '\r' | null = null;
   private lineEnd: LineEnd | null = null;
   /** Filled as the text is decoded: a byte-order mark is noted here when dropped. */
-  private readonly encoding: TextEncoding = { name: 'UTF-8', byteOrderMark: false };
+  private readonly encoding: TextEncoding;
   private head: PreambleLine[] = [];
   private run: number[] = [];
   private runShape: DataShape | null = null;
@@ -89,8 +91,11 @@ class StreamingReader implements CaptureReader {
 
   constructor(
     private readonly options: CaptureOptions,
-    private readonly decode: Utf8Decoder | null,
-  ) {}
+    private readonly decode: LineDecoder | null,
+    encoding: TextEncoding = { name: 'UTF-8', byteOrderMark: false },
+  ) {
+    this.encoding = decode?.encoding ?? encoding;
+  }
 
   push(chunk: string): void {
     if (this.finished) throw new CaptureError('text pushed after finish()');
@@ -134,7 +139,7 @@ class StreamingReader implements CaptureReader {
     while (pos < complete && this.byteRows === null) {
       const cut = this.layout === null ? lineEndAfter(bytes, pos + HEAD_BYTES, complete) : complete;
       checkLastLine(bytes, pos, cut, this.line + 1);
-      this.push(this.decoder()(bytes.subarray(pos, cut)));
+      this.push(this.decoder().decode(bytes.subarray(pos, cut), this.line + 1));
       pos = cut;
       this.byteRows = this.byteRowReader();
     }
@@ -151,7 +156,7 @@ class StreamingReader implements CaptureReader {
     if (this.carriedBytes.length > 0) {
       const rest = this.carriedBytes;
       this.carriedBytes = new Uint8Array(0);
-      this.push(this.decoder()(rest));
+      this.push(this.decoder().decode(rest, this.line + 1));
     }
     const last = this.carry.endsWith('\r') ? this.carry.slice(0, -1) : this.carry;
     this.carry = '';
@@ -239,7 +244,7 @@ class StreamingReader implements CaptureReader {
       else if (outcome === DECLINED) {
         let end = at;
         while (end > pos && bytes[end - 1] === CR) end--;
-        const text = this.decoder()(bytes.subarray(pos, end));
+        const text = this.decoder().decode(bytes.subarray(pos, end), line);
         (this.rows as RowReader).begin(text);
         this.readRow(text, line, 0, text.length);
       }
@@ -257,7 +262,7 @@ class StreamingReader implements CaptureReader {
     return new ByteRowReader(this.store as ColumnStore, delimiter, layout.decimalComma ? 44 : 46);
   }
 
-  private decoder(): Utf8Decoder {
+  private decoder(): LineDecoder {
     if (this.decode === null) throw new Error('pushBytes needs a reader made with a UTF-8 decoder (createCaptureReader(options, decode))');
     return this.decode;
   }
@@ -293,14 +298,34 @@ class StreamingReader implements CaptureReader {
   }
 }
 
-/** An incremental reader: push the text (or, given a decoder, the bytes) in pieces of any size, then finish(). */
-export function createCaptureReader(options: CaptureOptions = {}, decode: Utf8Decoder | null = null): CaptureReader {
-  return new StreamingReader(options, decode);
+/**
+ * An incremental reader: push the text (or, given a decoder, the bytes) in pieces of any size, then finish().
+ * A UTF-8 function reads UTF-8 bytes; a DetectingDecoder also reads Windows-1252 (UTF-16 needs parseCaptureFileBytes).
+ */
+export function createCaptureReader(options: CaptureOptions = {}, decode: Utf8Decoder | LineDecoder | null = null): CaptureReader {
+  return new StreamingReader(options, typeof decode === 'function' ? utf8LineDecoder(decode) : decode);
 }
 
 /** Reads a whole capture from its UTF-8 bytes: the same capture as parseCapture(decode(bytes)), sooner. */
 export function parseCaptureBytes(bytes: Uint8Array, decode: Utf8Decoder, options: CaptureOptions = {}): Capture {
   const reader = createCaptureReader(options, decode);
+  reader.pushBytes(bytes);
+  return reader.finish();
+}
+
+/**
+ * The one entry for a capture file's bytes as written (read from disk, or dropped in the window): UTF-8 with or
+ * without a byte-order mark (numbers read straight from the bytes), UTF-16 LE or BE, or Windows-1252 / Latin-1 when
+ * the bytes are not valid UTF-8. The encoding found, and why, is in importSummary.encoding. Pure: uses TextDecoder only.
+ */
+export function parseCaptureFileBytes(bytes: Uint8Array, options: CaptureOptions = {}): Capture {
+  const utf16 = utf16Of(bytes);
+  if (utf16 !== null) {
+    const reader = new StreamingReader(options, null, utf16);
+    reader.push(decodeUtf16(bytes, utf16));
+    return reader.finish();
+  }
+  const reader = new StreamingReader(options, new DetectingDecoder());
   reader.pushBytes(bytes);
   return reader.finish();
 }

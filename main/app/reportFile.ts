@@ -10,8 +10,8 @@ import { renderReportMarkdown } from '../../core/report/reportMarkdown';
 import { renderReportCsv } from '../../core/report/reportCsv';
 import { showTime } from '../../core/report/resultRows';
 import { describeTornTail, readCleanBenchLog } from '../io/benchLog';
-import { decodeUtf8, readFileBytes } from '../io/captureFile';
-import { parseCaptureBytes } from '../../core/capture/parseCapture';
+import { readFileBytes } from '../io/captureFile';
+import { parseCaptureFileBytes } from '../../core/capture/parseCapture';
 import { selectChannel } from '../../core/capture/selectChannel';
 import { readingOptionsOf, settingsOfRecord } from './readingOptions';
 import { FileError } from '../io/fileError';
@@ -48,7 +48,7 @@ export function loadReportTraces(records: readonly BenchRecord[]): ReportTraces 
       }
       // Read as it was when logged: the same channel, interval, time order and stated units.
       const { channel: chosen, ...reading } = readingOptionsOf(settingsOfRecord(record.settings));
-      const channel = selectChannel(parseCaptureBytes(bytes, decodeUtf8, reading), chosen);
+      const channel = selectChannel(parseCaptureFileBytes(bytes, reading), chosen);
       result.traces[record.id] = { time: channel.time, values: channel.values, unit: channel.unit, name: channel.name };
     } catch (error) {
       const missing = error instanceof FileError && /no such file/.test(error.message);

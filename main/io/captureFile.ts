@@ -3,7 +3,7 @@
 import { closeSync, constants, fstatSync, openSync, readFileSync, type Stats } from 'node:fs';
 import { createHash } from 'node:crypto';
 import { resolve } from 'node:path';
-import { parseCaptureBytes } from '../../core/capture/parseCapture';
+import { parseCaptureFileBytes } from '../../core/capture/parseCapture';
 import { selectChannel } from '../../core/capture/selectChannel';
 import type { Capture, CaptureOptions, Channel } from '../../core/capture/types';
 import { FileError } from './fileError';
@@ -65,7 +65,7 @@ export function loadCapture(
 ): LoadedCapture {
   const full = resolve(options.cwd ?? process.cwd(), path);
   const bytes = readFileBytes(full);
-  const capture = parseCaptureBytes(bytes, decodeUtf8, options);
+  const capture = parseCaptureFileBytes(bytes, options);
   return {
     path: full,
     sha256: createHash('sha256').update(bytes).digest('hex'),

@@ -1,7 +1,7 @@
 // The importer on every export habit of the generator: time axis, channel names and units, rows dropped, warnings.
 
 import { describe, expect, it } from 'vitest';
-import { createCaptureReader, parseCapture } from '../../core/capture/parseCapture';
+import { createCaptureReader, parseCapture, parseCaptureFileBytes } from '../../core/capture/parseCapture';
 import { fitResponse } from '../../core/fit/fitResponse';
 import { RING, exportHabits, type ExportHabit } from '../fixtures/exportHabits';
 
@@ -16,7 +16,7 @@ function close(actual: number, expected: number, scale: number): boolean {
 }
 
 function checkHabit(habit: ExportHabit): void {
-  const capture = parseCapture(habit.text, habit.options);
+  const capture = habit.bytes ? parseCaptureFileBytes(habit.bytes, habit.options) : parseCapture(habit.text, habit.options);
   const { expected } = habit;
   const warnings = capture.warnings.join('\n');
   expect(capture.channels.map((c) => ({ name: c.name, unit: c.unit })), warnings).toEqual(expected.channels);
@@ -30,6 +30,11 @@ function checkHabit(habit: ExportHabit): void {
   else expect(close(capture.sampleInterval ?? NaN, expected.sampleInterval, 0)).toBe(true);
   expected.firstValues.forEach((v, i) => expect(close(channel.values[i], v, 1e-6), `value ${i}`).toBe(true));
   if (expected.warning) expect(warnings).toMatch(expected.warning);
+  const { note, ...encoding } = expected.encoding ?? { name: 'UTF-8', byteOrderMark: false };
+  const read = capture.importSummary.encoding;
+  expect({ name: read.name, byteOrderMark: read.byteOrderMark }).toEqual(encoding);
+  if (note) expect(read.note).toMatch(note);
+  else if (!habit.bytes) expect(read.note).toBeUndefined();
 }
 
 const habits = exportHabits();

@@ -2,9 +2,9 @@
 
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { createCaptureReader, parseCapture, parseCaptureBytes } from '../../core/capture/parseCapture';
+import { createCaptureReader, parseCapture, parseCaptureBytes, parseCaptureFileBytes } from '../../core/capture/parseCapture';
 import { CaptureError, type Capture } from '../../core/capture/types';
-import { exportHabits } from '../fixtures/exportHabits';
+import { encodeText, exportHabits } from '../fixtures/exportHabits';
 
 /** A case slower than this is treated as a hang (generous: a case takes well under a millisecond). */
 const HANG_MS = 2000;
@@ -208,6 +208,29 @@ describe('the importer on arbitrary input (fast-check)', () => {
         else expect('capture' in bytes && bytes.capture).toEqual(whole.capture);
       }),
       { numRuns: 800, seed: 20267 },
+    );
+  });
+
+  it('every export habit, spoilt or not, reads the same from its UTF-16 or Windows-1252 bytes as from its text', () => {
+    // Windows-1252 writes U+00A0..U+00FF as one byte each; a text with other characters beyond ASCII is not written in it.
+    const inLatin1 = (text: string) => /^[\u0000-\u007f\u00a0-\u00ff]*$/.test(text);
+    const withoutEncoding = (outcome: Outcome) => {
+      if ('error' in outcome) return { error: outcome.error.message };
+      const { encoding: _, ...summary } = outcome.capture.importSummary;
+      return { capture: { ...outcome.capture, importSummary: summary } };
+    };
+    fc.assert(
+      fc.property(
+        fc.oneof(spoiltHabit, fc.constantFrom(...HABITS.map((h) => h.text))),
+        fc.constantFrom('UTF-16LE', 'UTF-16BE', 'Windows-1252' as const),
+        (text, encoding) => {
+          fc.pre(encoding !== 'Windows-1252' || inLatin1(text));
+          const whole = check(text);
+          const encoded = outcomeOf(text, (t) => parseCaptureFileBytes(encodeText(t, encoding)));
+          expect(withoutEncoding(encoded)).toEqual(withoutEncoding(whole));
+        },
+      ),
+      { numRuns: 600, seed: 20268 },
     );
   });
 
