@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { cubicRoots, type Complex } from '../../core/circuit/cubicRoots';
 import { CircuitInputError } from '../../core/circuit/errors';
 import { loopStepResponse } from '../../core/circuit/loopStepResponse';
-import { suggestSnubber } from '../../core/circuit/snubber';
+import { suggestSnubber, type SnubberLoop } from '../../core/circuit/snubber';
 import { quantity } from '../../core/quantity';
 import { integrateSnubbedStep, sampledStepMetrics } from './snubbedLoopIntegration';
 
@@ -110,7 +110,7 @@ describe('the snubbed loop step response', () => {
   // The README's switch node: L_p 6.4979 nH, C_p 390.28 pF, R_p 280.1 mOhm (from the sample captures).
   const readmeLoop = { L: quantity(6.4979e-9, null, 'H'), C: quantity(390.28e-12, null, 'F'), R: quantity(0.2801, null, 'ohm') };
 
-  it.each([
+  it.each<{ label: string; loop: SnubberLoop; ratio: number }>([
     { label: 'README switch node, 4 C_p', loop: readmeLoop, ratio: 4 },
     { label: 'README switch node, 3 C_p', loop: readmeLoop, ratio: 3 },
     { label: 'lossless gate loop, 4 C_p', loop: { L: quantity(8e-9, null, 'H'), C: quantity(1.5e-9, null, 'F') }, ratio: 4 },
