@@ -1,9 +1,8 @@
 // Parameter covariance from a weighted Jacobian: SVD of J^T J with a relative cut-off, why it failed when it does, and the sandwich form.
 
-import { Matrix, SingularValueDecomposition } from 'ml-matrix';
-
 import { FitInputError } from './fitInputError';
 import { DEFAULT_SVD_CUTOFF } from './normalizeFitInput';
+import { boundedSvd } from './boundedSvd';
 
 export interface CovarianceEstimate {
   /** residualVariance * (J^T J)^-1, or null when not estimable or no variance was given. */
@@ -61,19 +60,18 @@ export function covarianceFromJacobian(
   }
   const norm = Array.from({ length: p }, (_, j) => Math.sqrt(gram[j * p + j]));
   if (!norm.every(Number.isFinite)) return empty('covariance not estimable: the Jacobian has non-finite entries (the model is not finite near the solution)');
-  const equilibrated = Matrix.zeros(p, p);
-  for (let a = 0; a < p; a++) {
-    for (let b = a; b < p; b++) {
-      const v = norm[a] > 0 && norm[b] > 0 ? gram[a * p + b] / (norm[a] * norm[b]) : 0;
-      equilibrated.set(a, b, v);
-      equilibrated.set(b, a, v);
-    }
-  }
+  const equilibrated = Array.from({ length: p }, (_, a) =>
+    Array.from({ length: p }, (_, b) => {
+      const [lo, hi] = a <= b ? [a, b] : [b, a];
+      return norm[a] > 0 && norm[b] > 0 ? gram[lo * p + hi] / (norm[a] * norm[b]) : 0;
+    }),
+  );
 
-  const svd = new SingularValueDecomposition(equilibrated);
-  const order = svd.diagonal.map((_, k) => k).sort((u, v) => svd.diagonal[v] - svd.diagonal[u]);
-  const sigma = order.map((k) => svd.diagonal[k]);
-  const vectors = order.map((k) => svd.rightSingularVectors.getColumn(k));
+  const svd = boundedSvd(equilibrated);
+  if (!svd) return empty('covariance not estimable: the Jacobian has non-finite entries (the model is not finite near the solution)');
+  if (!svd.converged) return empty('covariance not estimable: the decomposition of J^T J did not settle');
+  const sigma = svd.values;
+  const vectors = sigma.map((_, k) => svd.V.map((row) => row[k]));
   const kept = sigma.map((s) => s > cutoff * sigma[0]);
 
   if (!kept.every(Boolean)) {
