@@ -9,7 +9,7 @@ import type { Topology } from '../core/circuit/components';
 import type { ParasiticsResult } from '../core/report/parasiticsText';
 import type { Comparison } from '../core/report/comparisonText';
 import type { BenchLogView, DesignEntry, OpenedCapture, SampleEntry } from './bridgeTypes';
-import type { CaptureInfo, FitWindow, TraceData } from './workerProtocol';
+import { FILE_UNITS, type CaptureInfo, type FitWindow, type StatedUnits, type TraceData, type UnitRefusal } from './workerProtocol';
 
 export interface OpenCaptureState {
   /** Worker cache key. */
@@ -20,6 +20,13 @@ export interface OpenCaptureState {
   sample: SampleEntry | null;
   sha256: string;
   bytes: number;
+}
+
+/** A capture the importer refused for a unit: shown with its one-line reason beside the unit choices that fix it. */
+export interface RefusedCapture {
+  opened: OpenedCapture;
+  refusal: UnitRefusal;
+  sample: SampleEntry | null;
 }
 
 export interface ComponentsInput {
@@ -48,6 +55,10 @@ export interface BenchState {
   samples: SampleEntry[];
   designs: DesignEntry[];
   capture: OpenCaptureState | null;
+  /** The capture last chosen, when it could not be read for a unit (then `capture` is null). */
+  refused: RefusedCapture | null;
+  /** The units the user stated for the capture shown or refused; the file's own by default. */
+  statedUnits: StatedUnits;
   trace: TraceData | null;
   fit: ResponseFit | null;
   summary: FitSummary | null;
@@ -86,6 +97,8 @@ export function initialState(face: 'window' | 'browser'): BenchState {
     samples: [],
     designs: [],
     capture: null,
+    refused: null,
+    statedUnits: FILE_UNITS,
     trace: null,
     fit: null,
     summary: null,

@@ -31,6 +31,8 @@ export function buildLogRequest(state: BenchState, form: LogForm): BenchLogReque
       from: userWindow.start === undefined ? null : String(userWindow.start),
       to: userWindow.end === undefined ? null : String(userWindow.end),
       sortTime: false,
+      ...(state.statedUnits.timeUnit ? { timeUnit: state.statedUnits.timeUnit } : {}),
+      ...(state.statedUnits.valueUnit ? { valueUnit: state.statedUnits.valueUnit } : {}),
     },
     fit: components ? { ...summary, components: { topology: components.topology, known: components.known, R: components.R, L: components.L, C: components.C } } : summary,
     verdict,

@@ -2,13 +2,15 @@
 
 import { parseCapture } from '../core/capture/parseCapture';
 import { selectChannel } from '../core/capture/selectChannel';
-import type { Capture, Channel } from '../core/capture/types';
+import type { Capture, CaptureOptions, Channel } from '../core/capture/types';
+import { parseStatedUnit } from '../core/units/unitText';
 import { compareCaptures, type ComparisonSide } from '../core/workflow/compare';
 import { checkAgainstDesign, measureCapture, type MeasureResult } from '../core/workflow/measure';
 import { measureParasitics } from '../core/workflow/parasitics';
 import { plainMessage } from './plainMessage';
 import { describeCapture, traceData } from './traceData';
-import type { CaptureText, WorkerAsk, WorkerReplyValue } from './workerProtocol';
+import { unitRefusal } from './unitRefusal';
+import { FILE_UNITS, type CaptureText, type StatedUnits, type WorkerAsk, type WorkerReplyValue } from './workerProtocol';
 
 export interface HandledReply {
   value: WorkerReplyValue;
@@ -25,11 +27,18 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
   switch (request.type) {
     case 'open': {
       progress('reading the capture');
-      const capture = parseCapture(request.text, { sampleInterval: request.sampleInterval });
+      let capture: Capture;
+      try {
+        capture = parseCapture(request.text, { sampleInterval: request.sampleInterval, ...statedUnits(request.units ?? FILE_UNITS) });
+      } catch (error) {
+        const refusal = unitRefusal(error);
+        if (refusal) return { value: { type: 'open', info: null, refusal }, transfer: [] };
+        throw error;
+      }
       opened.delete(request.captureId);
       opened.set(request.captureId, { name: request.name, capture });
       while (opened.size > KEEP) opened.delete(opened.keys().next().value as string);
-      return { value: { type: 'open', info: describeCapture(capture) }, transfer: [] };
+      return { value: { type: 'open', info: describeCapture(capture), refusal: null }, transfer: [] };
     }
     case 'trace': {
       const { capture } = openedCapture(request.captureId);
@@ -92,6 +101,14 @@ function readSide(side: CaptureText, channel: string | number | undefined, progr
   progress(`reading ${side.name}`);
   const capture = parseCapture(side.text);
   return { file: side.name, channel: selectChannel(capture, channel), captureWarnings: capture.warnings };
+}
+
+/** The importer's options for the units the user stated (the window offers only units that read). */
+function statedUnits(units: StatedUnits): Pick<CaptureOptions, 'timeUnit' | 'valueUnit'> {
+  return {
+    ...(units.timeUnit ? { timeUnit: parseStatedUnit(units.timeUnit, true, 'the time unit') } : {}),
+    ...(units.valueUnit ? { valueUnit: parseStatedUnit(units.valueUnit, false, 'the value unit') } : {}),
+  };
 }
 
 function openedCapture(id: string): { name: string; capture: Capture } {

@@ -41,6 +41,22 @@ export interface TraceData {
   dropped: number;
 }
 
+/** Units the user states for a capture whose file does not state them, or states them wrongly: as typed ('us', 'mV'); '' keeps the file's. */
+export interface StatedUnits {
+  timeUnit: string;
+  valueUnit: string;
+}
+
+/** The file's own units: nothing stated. */
+export const FILE_UNITS: StatedUnits = { timeUnit: '', valueUnit: '' };
+
+/** Why a capture could not be read as written, when stating its time or value unit can fix it. */
+export interface UnitRefusal {
+  unit: 'time' | 'value';
+  /** One line naming the column or line and the unit as written. */
+  message: string;
+}
+
 /** A capture's text as the user chose it (a sample or a file), not kept open in the worker. */
 export interface CaptureText {
   name: string;
@@ -59,7 +75,7 @@ export interface ParasiticsAsk {
 }
 
 export type WorkerRequest =
-  | { id: number; type: 'open'; captureId: string; name: string; text: string; sampleInterval?: number }
+  | { id: number; type: 'open'; captureId: string; name: string; text: string; sampleInterval?: number; units?: StatedUnits }
   | { id: number; type: 'trace'; captureId: string; channel: number }
   | {
       id: number;
@@ -92,7 +108,8 @@ export type MeasuredInWindow = Omit<MeasureResult, 'problems'>;
 export type MeasureReply = ({ result: MeasuredInWindow; fitError: null } | { result: null; fitError: string }) & SideErrors;
 
 export type WorkerReplyValue =
-  | { type: 'open'; info: CaptureInfo }
+  | { type: 'open'; info: CaptureInfo; refusal: null }
+  | { type: 'open'; info: null; refusal: UnitRefusal }
   | { type: 'trace'; trace: TraceData }
   | { type: 'measure'; reply: MeasureReply }
   | { type: 'check'; verdict: Verdict | null; verdictError: string | null }

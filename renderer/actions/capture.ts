@@ -13,6 +13,7 @@ import { clearDesign, loadDesignText } from './design';
 import { measure } from './fitWindow';
 import { drawPlot } from './plotView';
 import { refreshLog } from './benchLog';
+import { FILE_UNITS, type StatedUnits } from '../workerProtocol';
 
 /** First start: the sample the page asks for, else the last capture again, else a bundled sample with its design. */
 export async function start(ctx: ActionContext, requestedSample: string | null): Promise<void> {
@@ -22,7 +23,7 @@ export async function start(ctx: ActionContext, requestedSample: string | null):
   void refreshLog(ctx);
   if (requestedSample) return openSample(ctx, requestedSample);
   const last = await recallCapture();
-  if (last?.kind === 'file') return openCapture(ctx, { name: last.name, text: last.text, path: last.path, sampleId: null }, { channel: last.channel });
+  if (last?.kind === 'file') return openCapture(ctx, { name: last.name, text: last.text, path: last.path, sampleId: null }, { channel: last.channel, units: last.units });
   if (last?.kind === 'sample' && state.samples.some((s) => s.id === last.id)) return openSample(ctx, last.id, last.channel);
   const first = state.samples.find((s) => s.designId !== null) ?? state.samples[0];
   if (first) return openSample(ctx, first.id);
@@ -43,39 +44,79 @@ export async function openDropped(ctx: ActionContext, file: File): Promise<void>
   if (opened) await openCapture(ctx, opened, {});
 }
 
-export async function openCapture(ctx: ActionContext, opened: OpenedCapture, options: { sample?: SampleEntry; design?: NamedText | null; channel?: number }): Promise<void> {
-  const key = `capture-${++ctx.counters.captures}`;
-  // A long fit of the previous capture must not hold this one up.
-  if (ctx.client.busy) ctx.client.cancelAll();
-  const done = await runStep(ctx, `reading ${opened.name}`, async () => {
-    const reply = await ctx.client.request({ type: 'open', captureId: key, name: opened.name, text: opened.text }, (stage) => showProgress(ctx, stage)).catch((error: unknown) => {
-      throw error instanceof FitCancelled ? error : new BenchError(`${opened.name}: ${plainMessage(error)}`);
-    });
-    const digest = await sha256Hex(opened.text);
-    const sample = options.sample ?? null;
-    const byName = sample?.options.column ? reply.info.channels.findIndex((c) => c.name === sample.options.column) : -1;
-    const channel = options.channel ?? (byName >= 0 ? byName : 0);
-    ctx.store.update((s) => {
-      s.capture = { key, opened, info: reply.info, channel: Math.min(channel, reply.info.channels.length - 1), sample, ...digest };
-      forgetMeasurement(s);
-      if (sample) applySampleOptions(s, sample);
-    });
-    return true;
-  });
-  if (!done) return;
+export async function openCapture(
+  ctx: ActionContext,
+  opened: OpenedCapture,
+  options: { sample?: SampleEntry; design?: NamedText | null; channel?: number; units?: StatedUnits },
+): Promise<void> {
+  const read = await readCapture(ctx, opened, options.sample ?? null, options.units ?? FILE_UNITS, options.channel);
+  if (read === 'failed') return;
+  if (options.sample) ctx.store.update((s) => applySampleOptions(s, options.sample as SampleEntry));
   ctx.page.showCaptureName(opened.name);
   if (options.design) await loadDesignText(ctx, options.design, `sample-captures/designs/${options.design.name}`, 'sample');
   else if (options.sample || ctx.store.state.design?.origin === 'sample') clearDesign(ctx);
+  if (read === 'read') await showAndMeasure(ctx);
+}
+
+/** Read the capture shown (or refused) again with the units the user states; its design and known part stay. */
+export async function stateUnits(ctx: ActionContext, units: StatedUnits): Promise<void> {
+  const { capture, refused } = ctx.store.state;
+  const opened = capture?.opened ?? refused?.opened;
+  if (!opened) return;
+  const read = await readCapture(ctx, opened, capture?.sample ?? refused?.sample ?? null, units, capture?.channel);
+  if (read === 'read') await showAndMeasure(ctx);
+}
+
+/**
+ * Read a capture in the worker into the state: 'read', 'refused' for a unit the user can state (the capture panel
+ * then says why and offers the units), or 'failed' with the reason in the window's message.
+ */
+async function readCapture(ctx: ActionContext, opened: OpenedCapture, sample: SampleEntry | null, units: StatedUnits, channel?: number): Promise<'read' | 'refused' | 'failed'> {
+  const key = `capture-${++ctx.counters.captures}`;
+  // A long fit of the previous capture must not hold this one up.
+  if (ctx.client.busy) ctx.client.cancelAll();
+  const read = await runStep(ctx, `reading ${opened.name}`, async () => {
+    const reply = await ctx.client.request({ type: 'open', captureId: key, name: opened.name, text: opened.text, units }, (stage) => showProgress(ctx, stage)).catch((error: unknown) => {
+      throw error instanceof FitCancelled ? error : new BenchError(`${opened.name}: ${plainMessage(error)}`);
+    });
+    if (reply.refusal) {
+      const refusal = reply.refusal;
+      ctx.store.update((s) => {
+        s.capture = null;
+        s.refused = { opened, refusal, sample };
+        s.statedUnits = units;
+        forgetMeasurement(s);
+      });
+      ctx.plot.clear();
+      return 'refused' as const;
+    }
+    const { info } = reply;
+    const digest = await sha256Hex(opened.text);
+    const byName = sample?.options.column ? info.channels.findIndex((c) => c.name === sample.options.column) : -1;
+    const chosen = channel ?? (byName >= 0 ? byName : 0);
+    ctx.store.update((s) => {
+      s.capture = { key, opened, info, channel: Math.min(chosen, info.channels.length - 1), sample, ...digest };
+      s.refused = null;
+      s.statedUnits = units;
+      forgetMeasurement(s);
+    });
+    return 'read' as const;
+  });
+  return read ?? 'failed';
+}
+
+/** Draw the channel read, fit it, and remember the capture for the next start. */
+async function showAndMeasure(ctx: ActionContext): Promise<void> {
   await loadTrace(ctx);
   await measure(ctx);
   const capture = ctx.store.state.capture;
-  if (capture) {
-    void rememberCapture(
-      capture.opened.sampleId
-        ? { kind: 'sample', id: capture.opened.sampleId, channel: capture.channel }
-        : { kind: 'file', name: opened.name, path: opened.path, text: opened.text, channel: capture.channel },
-    );
-  }
+  if (!capture) return;
+  const { opened } = capture;
+  void rememberCapture(
+    opened.sampleId
+      ? { kind: 'sample', id: opened.sampleId, channel: capture.channel }
+      : { kind: 'file', name: opened.name, path: opened.path, text: opened.text, channel: capture.channel, units: ctx.store.state.statedUnits },
+  );
 }
 
 export async function chooseChannel(ctx: ActionContext, index: number): Promise<void> {

@@ -3,9 +3,9 @@
 import type { ComponentsInput } from '../benchState';
 import type { OpenedCapture, ReportFormat } from '../bridgeTypes';
 import type { LogForm } from '../logRequest';
-import type { CaptureText, FitWindow } from '../workerProtocol';
+import type { CaptureText, FitWindow, StatedUnits } from '../workerProtocol';
 import { logMeasurement, refreshLog } from './benchLog';
-import { chooseChannel, openCapture, openDropped, openSample, pickCapture, start } from './capture';
+import { chooseChannel, openCapture, openDropped, openSample, pickCapture, start, stateUnits } from './capture';
 import { runComparison, type CompareSettings } from './compare';
 import { setComponentsInput } from './components';
 import type { ActionContext } from './context';
@@ -25,6 +25,7 @@ export function bindActions(ctx: ActionContext) {
     openDropped: (file: File) => openDropped(ctx, file),
     openCapture: (opened: OpenedCapture) => openCapture(ctx, opened, {}),
     chooseChannel: (index: number) => chooseChannel(ctx, index),
+    stateUnits: (units: StatedUnits) => stateUnits(ctx, units),
     setWindow: (window: FitWindow) => setWindow(ctx, window),
     setComponentsInput: (change: Partial<ComponentsInput>) => setComponentsInput(ctx, change),
     loadDesignFromSamples: (id: string) => loadDesignFromSamples(ctx, id),

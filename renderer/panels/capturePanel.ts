@@ -4,6 +4,7 @@ import { button, card, field, h, replaceChildren, select } from '../dom';
 import { showValue } from '../show';
 import { importRows } from '../../core/report/importText';
 import type { BenchState } from '../benchState';
+import type { StatedUnits, UnitRefusal } from '../workerProtocol';
 import type { BenchActions } from '../actions';
 
 export function createCapturePanel(actions: BenchActions) {
@@ -30,6 +31,23 @@ export function createCapturePanel(actions: BenchActions) {
     }
     sampleSelect.value = state.capture?.opened.sampleId ?? '';
     const capture = state.capture;
+    const refused = state.refused;
+    if (!capture && refused) {
+      replaceChildren(
+        details,
+        h(
+          'dl',
+          { class: 'facts' },
+          h('dt', {}, 'File'),
+          h('dd', { id: 'capture-name', title: refused.opened.path ?? refused.opened.name }, refused.opened.name),
+          h('dt', {}, 'Not read'),
+          h('dd', { class: 'error-text', id: 'capture-refusal', data: { unit: refused.refusal.unit } }, refused.refusal.message),
+          h('dt', {}, 'Units'),
+          h('dd', {}, unitChoices(state, refused.refusal.unit)),
+        ),
+      );
+      return;
+    }
     if (!capture) {
       replaceChildren(details, h('p', { class: 'muted' }, 'No capture open. Open a file, pick a sample, or drop a capture on the window.'));
       return;
@@ -57,6 +75,8 @@ export function createCapturePanel(actions: BenchActions) {
         capture.sample ? h('dd', { class: 'scenario' }, capture.sample.description) : null,
         h('dt', {}, 'Channel'),
         h('dd', {}, channelControl),
+        h('dt', {}, 'Units'),
+        h('dd', {}, unitChoices(state, null)),
         h('dt', {}, 'Samples'),
         h('dd', { id: 'capture-samples' }, channel.samples.toLocaleString('en')),
         h('dt', {}, 'Sample rate'),
@@ -79,8 +99,49 @@ export function createCapturePanel(actions: BenchActions) {
     );
   }
 
+  /** The time and value unit choices; the one a refusal names is marked. Choosing one reads the file again. */
+  function unitChoices(state: BenchState, refusedUnit: UnitRefusal['unit'] | null): HTMLElement {
+    const units = state.statedUnits;
+    const choice = (unit: UnitRefusal['unit'], label: string, options: readonly (readonly [string, string])[], value: string, change: (text: string) => StatedUnits) =>
+      h(
+        'label',
+        { class: `unit-choice${refusedUnit === unit ? ' attention' : ''}` },
+        h('span', {}, label),
+        select(
+          [{ value: '', label: 'as in the file' }, ...options.map(([text, shown]) => ({ value: text, label: shown }))],
+          value,
+          (text) => void actions.stateUnits(change(text)),
+          { id: `${unit}-unit`, attrs: { 'aria-label': `${label} (the unit of the ${unit === 'time' ? 'time column or stated interval' : 'values, every channel'})` } },
+        ),
+      );
+    return h(
+      'div',
+      { class: 'unit-choices' },
+      choice('time', 'Time in', TIME_UNITS, units.timeUnit, (timeUnit) => ({ ...units, timeUnit })),
+      choice('value', 'Values in', VALUE_UNITS, units.valueUnit, (valueUnit) => ({ ...units, valueUnit })),
+    );
+  }
+
   return { root, render };
 }
+
+/** The units a person can state, as the importer reads them and as shown; the same spellings as --time-unit and --value-unit take. */
+const TIME_UNITS = [
+  ['s', 's'],
+  ['ms', 'ms'],
+  ['us', 'µs'],
+  ['ns', 'ns'],
+  ['ps', 'ps'],
+] as const;
+const VALUE_UNITS = [
+  ['V', 'V'],
+  ['mV', 'mV'],
+  ['uV', 'µV'],
+  ['kV', 'kV'],
+  ['A', 'A'],
+  ['mA', 'mA'],
+  ['uA', 'µA'],
+] as const;
 
 function capitalized(text: string): string {
   return text.charAt(0).toUpperCase() + text.slice(1);

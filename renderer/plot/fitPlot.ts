@@ -61,6 +61,15 @@ export class FitPlot {
     return this.redraw();
   }
 
+  /** Show nothing (a capture that could not be read): no samples of the previous one stay on screen. */
+  clear(): Promise<void> {
+    this.input = null;
+    this.derived = { model: null, residual: null, prediction: null };
+    this.bound = false;
+    this.drawing = this.drawing.then(() => plotly().purge(this.root)).catch(() => undefined);
+    return this.drawing;
+  }
+
   /** Redraw with the current theme and size. */
   redraw(): Promise<void> {
     this.drawing = this.drawing.then(() => this.draw()).catch(() => undefined);

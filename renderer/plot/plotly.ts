@@ -18,6 +18,7 @@ export interface PlotlyApi {
   react(root: HTMLElement, data: PlotlyTrace[], layout: PlotlyLayout, config?: Record<string, unknown>): Promise<PlotlyElement>;
   toImage(root: HTMLElement, options: { format: 'png' | 'svg'; width: number; height: number; scale?: number }): Promise<string>;
   relayout(root: HTMLElement, update: Record<string, unknown>): Promise<PlotlyElement>;
+  purge(root: HTMLElement): void;
   Plots: { resize(root: HTMLElement): void };
 }
 

@@ -6,7 +6,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { buildBench, CHROMIUM, dropFile, hasChromium, launchChromium, outputDir, serveBench, waitForFit, type ServedBench } from './benchHarness';
-import { flatNoiseCapture } from './generatedCaptures';
+import { ambiguousMillisecondsCapture, flatNoiseCapture } from './generatedCaptures';
 
 if (!hasChromium) console.warn(`test/e2e/fitTrust.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
 
@@ -15,6 +15,8 @@ describe.skipIf(!hasChromium)('the fit badge and the unit controls in a browser'
   let browser: Browser;
   let page: Page;
   let folder: string;
+  /** The sample's natural frequency as the window showed it on first start, Hz, and its standard error. */
+  let sampleF0: { value: number; stderr: number };
 
   beforeAll(async () => {
     buildBench();
@@ -25,6 +27,7 @@ describe.skipIf(!hasChromium)('the fit badge and the unit controls in a browser'
     page = await (await browser.newContext({ viewport: { width: 1600, height: 1000 }, deviceScaleFactor: 1 })).newPage();
     await page.goto(bench.url);
     await waitForFit(page, 'input-filter-step.csv');
+    sampleF0 = await f0Shown(page);
   });
 
   afterAll(async () => {
@@ -50,4 +53,31 @@ describe.skipIf(!hasChromium)('the fit badge and the unit controls in a browser'
     }
     await page.locator('#fit-panel').screenshot({ path: join(outputDir, 'fit-panel-flat-noise.png') });
   });
+
+  it('shows a file refused for its time unit with the one-line reason, and reads it once the unit is chosen', async () => {
+    const file = join(folder, 'ms.csv');
+    writeFileSync(file, ambiguousMillisecondsCapture());
+    await dropFile(page, file, 'ms.csv');
+    const refusal = page.locator('#capture-refusal');
+    await refusal.waitFor({ timeout: 30_000 });
+    expect(await refusal.getAttribute('data-unit')).toBe('time');
+    expect(await refusal.innerText()).toContain("unit 'MS' is ambiguous");
+    expect(await page.locator('#fit-state').count()).toBe(0);
+    await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-unit-refused.png') });
+    await page.locator('#time-unit').selectOption('ms');
+    await waitForFit(page, 'ms.csv');
+    expect(await page.locator('#capture-refusal').count()).toBe(0);
+    expect(await page.locator('#time-unit').inputValue()).toBe('ms');
+    expect(await page.locator('#import-time-axis').innerText()).toContain('every 400 ns');
+    // The same samples in other units: the same natural frequency as the sample itself.
+    const f0 = await f0Shown(page);
+    expect(Math.abs(f0.value - sampleF0.value)).toBeLessThan(3 * Math.hypot(f0.stderr, sampleF0.stderr));
+    await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-unit-stated.png') });
+  });
 });
+
+/** The natural frequency row of the fit table, as its data attributes carry it. */
+async function f0Shown(page: Page): Promise<{ value: number; stderr: number }> {
+  const row = page.locator('#fit-results tr[data-quantity="f0"]');
+  return { value: Number(await row.getAttribute('data-value')), stderr: Number(await row.getAttribute('data-stderr')) };
+}

@@ -54,6 +54,15 @@ describe('buildLogRequest', () => {
     expect(record).toMatchObject({ unit: 'FILTER-1', operator: null, note: 'first article', capture: { path: 'input-filter-step.csv' } });
   });
 
+  it('logs the units stated in the window, which main accepts and the report reads the capture with', () => {
+    const state = fittedState();
+    state.statedUnits = { timeUnit: 'us', valueUnit: '' };
+    const request = buildLogRequest(state, { unit: 'F3', operator: '', note: '' });
+    expect(request.settings).toMatchObject({ timeUnit: 'us' });
+    expect(request.settings).not.toHaveProperty('valueUnit');
+    expect(benchLogRequestProblem(JSON.parse(JSON.stringify(request)))).toBeNull();
+  });
+
   it.each([
     ['a line break', 'A\nB', /unit must not contain line breaks/],
     ['more than 100 characters', 'x'.repeat(101), /unit must be at most 100 characters/],

@@ -53,7 +53,7 @@ describe('the window and the command line give the same answers', () => {
       const { name, text } = sampleText(entry.file);
       const captureId = `same-${entry.file}`;
       const opened = ask({ type: 'open', captureId, name, text });
-      const channel = opened.info.channels.findIndex((c) => c.name === entry.channel);
+      const channel = opened.info!.channels.findIndex((c) => c.name === entry.channel);
       expect(channel).toBeGreaterThanOrEqual(0);
       const knownPart = { topology: parseTopology(entry.topology), known: parseKnown(entry.known.option) };
       const { reply } = ask({ type: 'measure', captureId, channel, window: {}, knownPart });
