@@ -1,7 +1,7 @@
 // Parasitic loop L, C and R by the added-capacitor method: known capacitors in parallel with the
 // node lower the natural frequency, and 1 / (2 pi f)^2 = L_p (C_p + C_added) is a straight line.
 import { quantity, type Quantity } from '../quantity';
-import { formatEngineering } from '../units/format';
+import { formatEngineering, formatMeasured } from '../units/format';
 import { chiSquareLimit99 } from './chiSquareLimit';
 import { CircuitInputError } from './errors';
 import { checkRingCapture, type RingCaptureSetup } from './measurementChecks';
@@ -22,6 +22,8 @@ export interface AddedCapacitorMeasurement {
   alpha: Quantity;
   /** Sample interval of this capture, s (for the samples-per-period check). */
   sampleInterval?: number;
+  /** The capture's name in messages (a file name). Default 'capture N'. */
+  label?: string;
 }
 
 export interface AddedCapacitorOptions {
@@ -56,6 +58,12 @@ export interface ParasiticExtraction {
 
 /** A frequency ratio squared below this leaves C_p poorly determined (derived: 20 % in C). */
 const MIN_CAPACITANCE_RATIO = 1.2;
+/**
+ * The added capacitance must lower f0 by more than this many combined standard uncertainties: a smaller
+ * drop may be noise, and C_p = C_add / ((f1 / f2)^2 - 1) is then undetermined (its relative uncertainty
+ * passes 1/3, where the first-order propagation no longer holds).
+ */
+const SEPARATION_SIGMAS = 3;
 
 /**
  * L_p and C_p by weighted least squares of y_i = 1 / (2 pi f_i)^2 against x_i = C_added,i + C_probe:
@@ -71,6 +79,7 @@ export function extractParasitics(
   const probeC = options.probeC ?? 0;
   const probeTolerance = options.probeCTolerance ?? 0;
   validate(measurements, options, probeC, probeTolerance);
+  checkSeparation(measurements);
   const warnings: string[] = [];
   const n = measurements.length;
   const x = measurements.map((m) => m.addedC + probeC);
@@ -220,6 +229,41 @@ function bareIndex(measurements: readonly AddedCapacitorMeasurement[]): number {
     if (m.addedC < measurements[best].addedC) best = i;
   });
   return best;
+}
+
+/**
+ * Refuses captures whose f0 rises with added capacitance beyond their uncertainty (the order or the values
+ * are mixed up), and a set whose least- and most-loaded captures are not SEPARATION_SIGMAS apart (the same
+ * capture twice, or a part too small to move the ring): either would print an L_p and C_p with no meaning.
+ */
+function checkSeparation(measurements: readonly AddedCapacitorMeasurement[]): void {
+  const named = measurements.map((m, i) => ({ ...m, name: m.label ?? `capture ${i + 1}` }));
+  const describe = (m: (typeof named)[number]) => `${m.name} (added ${formatEngineering(m.addedC, 'F')}, f0 ${formatMeasured(m.frequency)})`;
+  const combined = (a: AddedCapacitorMeasurement, b: AddedCapacitorMeasurement) => Math.hypot(a.frequency.stderr ?? 0, b.frequency.stderr ?? 0);
+  const fallsClearly = (less: AddedCapacitorMeasurement, more: AddedCapacitorMeasurement) =>
+    less.frequency.value - more.frequency.value > SEPARATION_SIGMAS * combined(less, more);
+  for (const less of named) {
+    for (const more of named) {
+      if (more.addedC <= less.addedC) continue;
+      const u = combined(less, more);
+      const rise = more.frequency.value - less.frequency.value;
+      if (rise > SEPARATION_SIGMAS * u || (u === 0 && rise >= 0)) {
+        throw new CircuitInputError(
+          'measurements',
+          `the natural frequency does not fall as capacitance is added: ${describe(more)} rings above ${describe(less)}; check the order of the captures and the added values`,
+        );
+      }
+    }
+  }
+  const least = named.reduce((a, b) => (b.addedC < a.addedC ? b : a));
+  const most = named.reduce((a, b) => (b.addedC > a.addedC ? b : a));
+  if (!fallsClearly(least, most)) {
+    throw new CircuitInputError(
+      'measurements',
+      `the captures cannot separate L_p and C_p: ${describe(least)} and ${describe(most)} differ by less than ${SEPARATION_SIGMAS} combined ` +
+        'standard uncertainties of f0; the added capacitor must lower f0 clearly (is the same capture given twice?)',
+    );
+  }
 }
 
 function checkSpread(x: number[], capacitance: number): string[] {

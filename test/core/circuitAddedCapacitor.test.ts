@@ -168,6 +168,40 @@ describe('extractParasitics', () => {
     expect(pattern.test(r.warnings.join(' '))).toBe(warns);
   });
 
+  describe('captures that cannot separate L_p and C_p are refused, never printed as a number', () => {
+    const bare = { addedC: 0, frequency: quantity(99.942e6, 12e3, 'Hz'), alpha: quantity(2.16e7, 6e4, 's^-1'), label: 'before.csv' };
+
+    it('the same capture twice (frequencies equal) names both captures and their f0', () => {
+      const call = () => extractParasitics([bare, { ...bare, addedC: 470e-12, label: 'again.csv' }]);
+      expect(call).toThrow(CircuitInputError);
+      expect(call).toThrow(/cannot separate L_p and C_p: before\.csv \(added 0 F, f0 99\.942 MHz ± 12 kHz.*again\.csv \(added 470 pF, f0 99\.942 MHz/);
+    });
+
+    it.each([
+      { label: 'a drop of 2 combined sigma is refused', sigmas: 2, refused: true },
+      { label: 'a drop of 4 combined sigma is measured', sigmas: 4, refused: false },
+    ])('$label (the limit is 3)', ({ sigmas, refused }) => {
+      const drop = sigmas * Math.hypot(12e3, 12e3);
+      const call = () => extractParasitics([bare, { ...bare, addedC: 470e-12, frequency: quantity(99.942e6 - drop, 12e3, 'Hz') }]);
+      if (refused) expect(call).toThrow(/cannot separate/);
+      else expect(call().C.stderr! / call().C.value).toBeLessThan(0.5);
+    });
+
+    it('a frequency that rises with the added capacitance names the two captures', () => {
+      const call = () =>
+        extractParasitics([
+          { ...bare, addedC: 1e-9, label: 'with-1n.csv' },
+          { ...bare, addedC: 0, frequency: quantity(67.3e6, 12e3, 'Hz'), label: 'with-0.csv' },
+        ]);
+      expect(call).toThrow(/does not fall as capacitance is added: with-1n\.csv \(added 1 nF, f0 99\.942 MHz.*rings above with-0\.csv \(added 0 F, f0 67\.300 MHz/);
+    });
+
+    it('without labels the captures are numbered; without uncertainties equal frequencies are still refused', () => {
+      const plain = { addedC: 0, frequency: quantity(50e6, null, 'Hz'), alpha: quantity(1e7, null, 's^-1') };
+      expect(() => extractParasitics([plain, { ...plain, addedC: 1e-9 }])).toThrow(/capture 2 \(added 1 nF, f0 50 MHz \(uncertainty not estimable\)\) rings above capture 1/);
+    });
+  });
+
   const invalid: { label: string; ms: AddedCapacitorMeasurement[]; options?: object; field: string }[] = [
     { label: 'one capture', ms: [measurement(15e-9, 220e-12, 0)], field: 'measurements' },
     { label: 'no distinct added value', ms: [measurement(15e-9, 220e-12, 0), measurement(15e-9, 220e-12, 0)], field: 'measurements' },

@@ -1,0 +1,35 @@
+// parasitics refuses captures that cannot give L_p and C_p (the same capture twice, frequencies rising with
+// the added capacitance) as bad input: exit 2 and one line naming the files and their frequencies.
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { describe, expect, it } from 'vitest';
+import { runCli } from '../../main/cli/program';
+
+const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
+const BEFORE = path.join('sample-captures', 'switch-node-before.csv');
+const AFTER = path.join('sample-captures', 'switch-node-after-470p.csv');
+
+async function run(args: string[]) {
+  let out = '';
+  let err = '';
+  const code = await runCli(args, { out: (t) => (out += t), err: (t) => (err += t), cwd: ROOT, interactive: false });
+  return { code, out, err };
+}
+
+describe('parasitics refusals', () => {
+  it('the same capture twice exits 2 with one line naming the file and its f0, and prints no snubber', async () => {
+    const r = await run(['parasitics', BEFORE, BEFORE, '--added', 'C=470p']);
+    expect(r.code).toBe(2);
+    expect(r.out).toBe('');
+    expect(r.err.trim().split('\n')).toHaveLength(1);
+    expect(r.err).toMatch(/cannot separate L_p and C_p/);
+    expect(r.err.match(/switch-node-before\.csv \(added [^)]*, f0 99\.94\d* MHz/g)).toHaveLength(2);
+  });
+
+  it('captures given in the wrong order (f0 rises with the added capacitance) exit 2 naming both', async () => {
+    const r = await run(['parasitics', AFTER, BEFORE, '--added', 'C=1n', '--json']);
+    expect(r.code).toBe(2);
+    expect(r.out).toBe('');
+    expect(r.err).toMatch(/does not fall as capacitance is added: switch-node-before\.csv \(added 1 nF, f0 99\.94\d* MHz.*switch-node-after-470p\.csv \(added 0 F, f0 67\.3\d* MHz/);
+  });
+});
