@@ -10,7 +10,8 @@ export async function drawPlot(ctx: ActionContext): Promise<void> {
   await ctx.plot.show({
     key: `${capture.key}:${capture.channel}`,
     trace,
-    params: fit && fit.status !== 'failed' ? fit.params : null,
+    // Where an unfinished search stopped is drawn (the badge says it is no measurement); a failed or empty one is not.
+    params: fit && (fit.status === 'converged' || fit.status === 'max-iterations') ? fit.params : null,
     window: fit ? fit.window : null,
     design: design?.design ?? null,
     eventTime: state.eventTime ?? fit?.t0.value ?? 0,
