@@ -10,9 +10,15 @@ import type { ResponseFit } from './responseFit';
 import { classifyRegime } from './regime';
 import { plausibilityWarnings, uncertainOmega0Warning } from './fitWarnings';
 
+/** How the fit's model was chosen: a jump at the event let in, and why a single decay was kept (or ''). */
+export interface ModelChoice {
+  jumpStart: boolean;
+  evidence: string;
+}
+
 /**
  * The result of a fit that reached a residual: alpha, omega0 and what follows from them with standard
- * errors, the levels, the fit statistics and every warning (in order, each once).
+ * errors (or tau alone for a single decay), the levels, the fit statistics and every warning (in order, each once).
  */
 export function assembleFit(
   trace: Trace,
@@ -22,41 +28,40 @@ export function assembleFit(
   cov: ResponseCovariance,
   noise: number,
   warnings: string[],
+  choice: ModelChoice = { jumpStart: false, evidence: '' },
 ): ResponseFit {
   const params = unpackParams(best.layout, best.values, t0Start);
+  const firstOrder = LAYOUTS[best.layout].order === 1;
   const names = cov.names;
   const c = cov.covariance;
   const se = (name: string) => {
     const i = names.indexOf(name);
     return c && i >= 0 ? Math.sqrt(c[i][i]) : null;
   };
-  const ia = names.indexOf('alpha');
-  const iw = names.indexOf('omega0');
   const { alpha, omega0 } = params;
-  const zeta = derived(alpha / omega0, [1 / omega0, -alpha / (omega0 * omega0)], c, ia, iw, '');
-  const q = derived(omega0 / (2 * alpha), [-omega0 / (2 * alpha * alpha), 1 / (2 * alpha)], c, ia, iw, '');
-  const omegaDValue = omega0 > alpha ? Math.sqrt(omega0 * omega0 - alpha * alpha) : null;
-  const omegaD =
-    omegaDValue === null ? null : derived(omegaDValue, [-alpha / omegaDValue, omega0 / omegaDValue], c, ia, iw, 'rad/s');
-  const { regime, evidence } = classifyRegime(zeta);
+  const ring = firstOrder ? null : ringQuantities(alpha, omega0, c, names.indexOf('alpha'), names.indexOf('omega0'));
+  const { regime, evidence } = ring ? classifyRegime(ring.zeta) : { regime: 'first-order' as const, evidence: choice.evidence };
   const rmsResidual = Math.sqrt(best.sse / set.time.length);
   const t0Known = LAYOUTS[best.layout].fitsT0;
-  if (!t0Known) {
+  // A layout with the level before the event holds its t0 at a jump it found; one without has no samples before it.
+  const seesPreEvent = t0Known || LAYOUTS[best.layout].preLevelColumn !== null;
+  if (!seesPreEvent) {
     warnings.push('t0 was not fitted: the record has no flat samples before the event, so t0 is taken as the start of the fit window');
   }
+  if (choice.jumpStart) warnings.push('the response jumps at the event: its initial value was fitted freely and t0 held between the samples either side of the jump');
+  const omegaDValue = ring?.omegaD?.value ?? null;
   warnings.push(...plausibilityWarnings(set, params, omegaDValue, rmsResidual, noise));
-  const omega0Warning = uncertainOmega0Warning(omega0, se('omega0'));
+  const omega0Warning = ring ? uncertainOmega0Warning(omega0, se('omega0')) : null;
   if (omega0Warning) warnings.push(omega0Warning);
+  const seAlpha = se('alpha');
   return {
     status: best.status,
     message: best.message,
     regime,
     regimeEvidence: evidence,
-    alpha: quantity(alpha, se('alpha'), 's^-1'),
-    omega0: quantity(omega0, se('omega0'), 'rad/s'),
-    omegaD: regime === 'underdamped' || omegaD ? omegaD : null,
-    zeta,
-    Q: q,
+    ...(ring ?? { alpha: NOT_APPLICABLE('s^-1'), omega0: NOT_APPLICABLE('rad/s'), omegaD: null, zeta: NOT_APPLICABLE(''), Q: NOT_APPLICABLE('') }),
+    ...(firstOrder ? { tau: quantity(1 / alpha, seAlpha === null ? null : seAlpha / (alpha * alpha), 's') } : {}),
+    ...(choice.jumpStart ? { jumpStart: true } : {}),
     finalValue: quantity(params.yFinal, se('yFinal'), trace.unit),
     t0: quantity(params.t0, t0Known ? se('t0') : null, 's'),
     // A layout without a pre-event level reports y(t0+) there, with no standard error.
@@ -66,20 +71,46 @@ export function assembleFit(
     rmsResidual,
     noiseRms: noise,
     samplesUsed: set.samplesUsed,
-    window: { start: t0Known ? set.window.start : params.t0, end: set.window.end },
+    window: { start: seesPreEvent ? set.window.start : params.t0, end: set.window.end },
     iterations: best.iterations,
     decimation: set.decimation,
     warnings: [...new Set(warnings)],
   };
 }
 
+/** A ring quantity of a fit without a ring (a single decay, no response): NaN with no standard error. */
+const NOT_APPLICABLE = (unit: string) => quantity(NaN, null, unit);
+
+/**
+ * The result when a constant level explains the record as well as any response: status 'no-response',
+ * the level with its standard error (as for white noise) and no ring.
+ */
+export function noResponseFit(set: FitSet, noise: number, warnings: string[], evidence: string, unit: string): ResponseFit {
+  const n = set.values.length;
+  const mean = set.values.reduce((sum, v) => sum + v, 0) / n;
+  const spread = Math.sqrt(set.values.reduce((sum, v) => sum + (v - mean) ** 2, 0) / Math.max(1, n - 1));
+  const level = quantity(mean, spread / Math.sqrt(n), unit);
+  const failed = failedFit(set, noise, warnings, 'no second-order response found');
+  return {
+    ...failed,
+    status: 'no-response',
+    regimeEvidence: evidence,
+    finalValue: level,
+    preLevel: level,
+    t0: NOT_APPLICABLE('s'),
+    // A flat line: the critically damped basis at zero rates with no natural part.
+    params: { t0: set.window.start, yPre: mean, yFinal: mean, alpha: 0, omega0: 0, a: 0, b: 0 },
+    rmsResidual: spread,
+  };
+}
+
 /** The result of a fit that found no response or no finite residual: every value NaN, the reason in `message`. */
 export function failedFit(set: FitSet, noise: number, warnings: string[], message: string): ResponseFit {
-  const nothing = (unit: string) => quantity(NaN, null, unit);
+  const nothing = NOT_APPLICABLE;
   return {
     status: 'failed',
     message,
-    regime: 'underdamped',
+    regime: 'none',
     regimeEvidence: 'no fit',
     alpha: nothing('s^-1'),
     omega0: nothing('rad/s'),
@@ -98,6 +129,19 @@ export function failedFit(set: FitSet, noise: number, warnings: string[], messag
     iterations: 0,
     decimation: set.decimation,
     warnings,
+  };
+}
+
+/** alpha, omega0 and what follows from them (zeta, Q, omega_d where underdamped) with standard errors. */
+function ringQuantities(alpha: number, omega0: number, c: number[][] | null, ia: number, iw: number) {
+  const se = (i: number) => (c && i >= 0 ? Math.sqrt(c[i][i]) : null);
+  const omegaDValue = omega0 > alpha ? Math.sqrt(omega0 * omega0 - alpha * alpha) : null;
+  return {
+    alpha: quantity(alpha, se(ia), 's^-1'),
+    omega0: quantity(omega0, se(iw), 'rad/s'),
+    omegaD: omegaDValue === null ? null : derived(omegaDValue, [-alpha / omegaDValue, omega0 / omegaDValue], c, ia, iw, 'rad/s'),
+    zeta: derived(alpha / omega0, [1 / omega0, -alpha / (omega0 * omega0)], c, ia, iw, ''),
+    Q: derived(omega0 / (2 * alpha), [-omega0 / (2 * alpha * alpha), 1 / (2 * alpha)], c, ia, iw, ''),
   };
 }
 

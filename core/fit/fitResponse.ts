@@ -3,15 +3,17 @@
 import { estimateNoise, quantisationStep, recordNoise } from './noise';
 import { detectEvent } from './eventDetection';
 import { rateCandidates } from './startingRates';
-import { LAYOUTS, layoutsFor } from './responseModel';
+import { firstOrderLayoutFor, LAYOUTS, layoutsFor } from './responseModel';
 import { firstSampleTime, MIN_FIT_SAMPLES, prepareFitSet, uniformValues } from './fitSet';
 import { attemptValue } from './attempt';
 import { searchLayouts } from './layoutSearch';
-import { chooseByInformation } from './modelSelection';
+import { chooseByInformation, explainRecord } from './modelSelection';
+import { fitFirstOrder } from './firstOrderFit';
+import { fitJumpStart, showsJump } from './jumpStart';
 import { refitAwayFromRails } from './railGuard';
 import { subCodeNoiseWarning } from './fitWarnings';
 import { responseCovariance } from './responseCovariance';
-import { assembleFit, failedFit } from './assembleFit';
+import { assembleFit, failedFit, noResponseFit } from './assembleFit';
 import { FitInputError } from './fitInputError';
 import type { Trace } from './trace';
 import type { ResponseFit, ResponseFitOptions } from './responseFit';
@@ -20,7 +22,9 @@ export type { Trace } from './trace';
 export type { Regime, ResponseFit, ResponseFitOptions } from './responseFit';
 
 export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): ResponseFit {
-  const continuity = options.continuity ?? 'continuous';
+  // The continuous layouts are fitted first; a jump at the event is looked for once they are (jumpStart.ts).
+  const continuity = 'continuous';
+  const jumpOption = options.continuity ?? 'auto';
   const window = options.window ?? {};
   let set = prepareFitSet(trace, window);
   if (set.time.length < MIN_FIT_SAMPLES) {
@@ -52,9 +56,23 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
     }
   }
 
+  const hasPreEvent = LAYOUTS[best.layout].preLevelColumn !== null;
+  let jumpStart = false;
+  if (hasPreEvent && jumpOption !== 'continuous') {
+    const free = fitJumpStart(set, best, candidates, t0Start, noise, jumpOption === 'free');
+    if (free && (jumpOption === 'free' || showsJump(best, free, set, noise))) {
+      ({ attempt: best, t0: t0Start } = free);
+      jumpStart = true;
+    }
+  }
+  const firstOrder = fitFirstOrder(set, firstOrderLayoutFor({ hasPreEvent, continuity: jumpStart ? 'free' : 'continuous' }), t0Start);
+  const explanation = explainRecord(best, firstOrder, set, t0Start);
+  if (explanation.choice === 'none') return noResponseFit(set, noise, warnings, explanation.evidence, trace.unit);
+  if (explanation.choice === 'first-order' && firstOrder) best = firstOrder;
+
   // The raw samples' own noise: the rail guard's margin and the dither test are about single samples.
   const sampleNoise = estimateNoise(trace.values);
-  const guarded = refitAwayFromRails(trace, best, t0Start, window, sampleNoise);
+  const guarded = LAYOUTS[best.layout].order === 2 ? refitAwayFromRails(trace, best, t0Start, window, sampleNoise) : null;
   if (guarded) {
     ({ set, best } = guarded);
     warnings.push(guarded.warning);
@@ -65,5 +83,5 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   const dof = set.time.length - best.values.length;
   const cov = responseCovariance(set, best.layout, best.values, t0Start, best.sse / Math.max(1, dof));
   warnings.push(...best.warnings, ...cov.warnings);
-  return assembleFit(trace, set, best, t0Start, cov, noise, warnings);
+  return assembleFit(trace, set, best, t0Start, cov, noise, warnings, { jumpStart, evidence: explanation.evidence });
 }

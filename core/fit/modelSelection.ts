@@ -1,8 +1,10 @@
-// Chooses among the layouts' best attempts by the Bayesian information criterion over the effective sample count.
+// Chooses among the layouts' best attempts by the Bayesian information criterion over the effective
+// sample count, and whether a ring, a single decay or nothing at all explains the record.
 
 import type { FitSet } from './fitSet';
-import { layoutValues } from './responseModel';
+import { LAYOUTS, layoutValues } from './responseModel';
 import type { Attempt } from './attempt';
+import { nestedFTestTail } from './significance';
 
 /** Smallest residual sum of squares the criterion takes the logarithm of (a perfect fit stays finite). */
 const MIN_SSE = 1e-300;
@@ -14,11 +16,84 @@ const MIN_SSE = 1e-300;
  * (an autoregression of order one; no single source, common practice).
  */
 export function chooseByInformation(attempts: Attempt[], set: FitSet, t0Start: number): Attempt {
+  const n = effectiveSamples(attempts, set, t0Start);
+  const bic = (a: Attempt) => information(a.sse, a.values.length, n);
+  return [...attempts].sort((x, y) => bic(x) - bic(y))[0];
+}
+
+/** The Bayesian information criterion of a least-squares fit with p parameters over n effective samples. */
+export function information(sse: number, parameters: number, n: number): number {
+  return n * Math.log(Math.max(sse, MIN_SSE)) + parameters * Math.log(n);
+}
+
+/** Independent samples in the set: n (1 - rho) / (1 + rho), rho from the closest attempt's residuals. */
+export function effectiveSamples(attempts: Attempt[], set: FitSet, t0Start: number): number {
   const closest = attempts.reduce((x, y) => (y.sse < x.sse ? y : x));
   const rho = Math.max(0, lagOneCorrelation(set, closest, t0Start));
-  const n = (set.time.length * (1 - rho)) / (1 + rho);
-  const bic = (a: Attempt) => n * Math.log(Math.max(a.sse, MIN_SSE)) + a.values.length * Math.log(n);
-  return [...attempts].sort((x, y) => bic(x) - bic(y))[0];
+  return (set.time.length * (1 - rho)) / (1 + rho);
+}
+
+/**
+ * A richer model is accepted only when noise alone would lower the residual as much less often than
+ * this (the F-test's level, after the search correction below).
+ */
+const SIGNIFICANCE_LEVEL = 1e-3;
+
+/** What explains a record: the ring, a single decay, or nothing but a constant level. */
+export interface Explanation {
+  choice: 'second-order' | 'first-order' | 'none';
+  /** The comparison behind the choice, in words. */
+  evidence: string;
+}
+
+/**
+ * Whether the record holds a ring, a single decay, or no response. A richer model must win on both the
+ * information criterion (the BIC above) and an F-test of the nested residuals (significance.ts) at
+ * SIGNIFICANCE_LEVEL. Against a constant level the response's event time and rates were searched over the
+ * whole record, so the smallest of many chances is being looked at: the F-test's tail is multiplied by
+ * the number of independent samples (Bonferroni over the places a response could be put, as the false-alarm
+ * probability of the largest of N periodogram peaks, 1 - (1 - p)^N < N p: Scargle, ApJ 263, 835, 1982;
+ * from memory). A ring must also beat the single decay, which is nested in it (omega0 = alpha with no
+ * slope term); the single decay is kept when it explains the record as well.
+ */
+export function explainRecord(ring: Attempt, firstOrder: Attempt | null, set: FitSet, t0Start: number): Explanation {
+  const n = set.time.length;
+  const fitted = [ring, ...(firstOrder && Number.isFinite(firstOrder.sse) ? [firstOrder] : [])];
+  const nEff = effectiveSamples(fitted, set, t0Start);
+  const constantSse = sumOfSquaresAboutMean(set.values);
+  const test = (simpleSse: number, simpleParameters: number, rich: Attempt, searched: number) => {
+    const fits = { simpleSse, simpleParameters, richSse: rich.sse, richParameters: rich.values.length, effectiveSamples: nEff };
+    const p = Math.min(1, searched * nestedFTestTail(fits, n));
+    const better = information(rich.sse, rich.values.length, nEff) < information(simpleSse, simpleParameters, nEff);
+    return { p, accepted: better && p < SIGNIFICANCE_LEVEL };
+  };
+  const pText = (p: number) => (p < 1e-6 ? 'p < 1e-6' : `p = ${p.toPrecision(2)}`);
+  let response = ring;
+  let evidence = '';
+  if (fitted.length > 1 && firstOrder) {
+    const ringOverDecay = test(firstOrder.sse, firstOrder.values.length, ring, 1);
+    if (!ringOverDecay.accepted) {
+      response = firstOrder;
+      evidence = `a single decay explains the record as well as a ring (F-test of the ring against it: ${pText(ringOverDecay.p)})`;
+    }
+  }
+  const overConstant = test(constantSse, 1, response, nEff);
+  if (!overConstant.accepted) {
+    return {
+      choice: 'none',
+      evidence: `a constant level explains the record: the best response fit lowers the residual by ${(100 * (1 - response.sse / constantSse)).toFixed(2)} % (F-test against the constant with the search counted: ${pText(overConstant.p)}; accepted below ${SIGNIFICANCE_LEVEL})`,
+    };
+  }
+  return { choice: LAYOUTS[response.layout].order === 1 ? 'first-order' : 'second-order', evidence };
+}
+
+function sumOfSquaresAboutMean(values: ArrayLike<number>): number {
+  let mean = 0;
+  for (let i = 0; i < values.length; i++) mean += values[i];
+  mean /= values.length;
+  let sum = 0;
+  for (let i = 0; i < values.length; i++) sum += (values[i] - mean) ** 2;
+  return sum;
 }
 
 function lagOneCorrelation(set: FitSet, attempt: Attempt, t0Start: number): number {

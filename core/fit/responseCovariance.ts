@@ -1,6 +1,7 @@
 // Covariance of the response parameters: Jacobian at the solution, as a sandwich over the residuals' noise model when they are correlated.
 
 import { covarianceFromJacobian, sandwichCovariance } from './covariance';
+import { widenByZetaProfile } from './profileWidening';
 import { LAYOUTS, layoutValues, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
 
@@ -18,7 +19,8 @@ function responseJacobian(set: FitSet, layout: ParameterLayout, values: readonly
   const { names, index } = LAYOUTS[layout];
   const n = set.time.length;
   const rows = Array.from({ length: n }, () => new Float64Array(values.length));
-  const rate = values[index.omega0];
+  // A first-order layout has no omega0: its rate is alpha.
+  const rate = values[index.omega0 ?? index.alpha];
   for (let j = 0; j < values.length; j++) {
     const floor = names[j] === 't0' ? 1 / rate : names[j] === 'b' ? set.range * rate : names[j].startsWith('y') || names[j] === 'a' ? set.range : rate;
     const h = 1e-6 * Math.max(Math.abs(names[j] === 't0' ? 0 : values[j]), floor);
@@ -135,7 +137,23 @@ function correlatedCovariance(
   return sandwichCovariance(bread, shape.map((row) => row.map((v) => scale * v)));
 }
 
+/**
+ * The covariance of the fitted parameters: the local one (white or sandwich), widened along zeta's profile
+ * where the fit is not clearly underdamped (there the residual is far from a parabola in the damping).
+ */
 export function responseCovariance(
+  set: FitSet,
+  layout: ParameterLayout,
+  values: readonly number[],
+  t0Fixed: number,
+  residualVariance: number,
+): ResponseCovariance {
+  const local = localCovariance(set, layout, values, t0Fixed, residualVariance);
+  return widenByZetaProfile(local, set, layout, values, t0Fixed, residualVariance);
+}
+
+/** The Jacobian's covariance at the solution, as a sandwich when the residuals are correlated. */
+function localCovariance(
   set: FitSet,
   layout: ParameterLayout,
   values: readonly number[],
@@ -155,12 +173,11 @@ export function responseCovariance(
   const noise = bread ? residualNoiseModel(residuals) : null;
   if (!bread || !plain || !noise) return { names, covariance: plain, correlation: estimate.correlation, inflation: 1, warnings };
   const { covariance, correlation } = correlatedCovariance(J, bread, residuals, noise);
-  const ratios = [index.alpha, index.omega0].map((j) => covariance[j][j] / plain[j][j]);
+  const rates = ['alpha', 'omega0'].filter((name) => name in index);
+  const ratios = rates.map((name) => covariance[index[name]][index[name]] / plain[index[name]][index[name]]);
   if (Math.max(...ratios) > WARN_INFLATION) {
-    const [alpha, omega0] = ratios.map((r) => Math.sqrt(r).toFixed(2));
-    warnings.push(
-      `the residuals are correlated (noise bandwidth-limited or model mismatch): uncertainties widened by ${alpha}x (alpha) and ${omega0}x (omega0)`,
-    );
+    const widened = rates.map((name, k) => `${Math.sqrt(ratios[k]).toFixed(2)}x (${name})`).join(' and ');
+    warnings.push(`the residuals are correlated (noise bandwidth-limited or model mismatch): uncertainties widened by ${widened}`);
   }
   return { names, covariance, correlation, inflation: Math.max(...ratios), warnings };
 }

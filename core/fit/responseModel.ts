@@ -8,7 +8,9 @@
 // basis column of each linear parameter from the damped basis, and unpacks a fitted vector. Everything
 // reads parameters by name, so no other module depends on where a parameter sits in the vector.
 // The steps around the descriptors (refine.ts scales the solver by omega0, candidateRanking.ts and
-// halfPeriodShift.ts work on a ring) expect 'alpha' and 'omega0' among the nonlinear parameters.
+// halfPeriodShift.ts work on a ring) expect 'alpha' and 'omega0' among the nonlinear parameters of a
+// second-order layout. A first-order layout has 'alpha' (1 / tau) alone: its model is the critically
+// damped basis with omega0 = alpha and no slope term, and firstOrderFit.ts fits it.
 
 import { fillDampedBasis, type BlockAverage, type ResponseParams } from '../response/secondOrder';
 import type { Continuity } from './responseFit';
@@ -22,6 +24,8 @@ export interface RecordShape {
 
 /** What the fit needs to know about one layout. */
 export interface LayoutDescriptor {
+  /** 2 for a ring's layouts (alpha and omega0), 1 for a single decay (alpha = 1 / tau, omega0 held equal to it). */
+  readonly order: 1 | 2;
   /** Parameters the solver varies, in the order of the parameter vector. */
   readonly nonlinear: readonly string[];
   /** Parameters solved by linear least squares for given nonlinear ones; they follow the nonlinear ones. */
@@ -48,6 +52,7 @@ export interface LayoutDescriptor {
 }
 
 interface LayoutSpec<N extends string, L extends string> {
+  order?: 1 | 2;
   nonlinear: readonly N[];
   linear: readonly L[];
   appliesTo(record: RecordShape): boolean;
@@ -62,6 +67,7 @@ function defineLayout<const N extends string, const L extends string>(spec: Layo
   const index = Object.fromEntries(names.map((name, i) => [name, i])) as Record<N | L, number>;
   const preLevel = (spec.linear as readonly string[]).indexOf('yPre');
   return {
+    order: spec.order ?? 2,
     nonlinear: spec.nonlinear,
     linear: spec.linear,
     names,
@@ -170,16 +176,102 @@ const free = defineLayout({
 });
 
 /**
+ * A first-order step, continuous at t0: y = yFinal + (yPre - yFinal) e^(-alpha tau), tau = 1 / alpha the
+ * time constant (an RC or RL circuit's capacitor voltage or inductor current).
+ */
+const firstOrder = defineLayout({
+  order: 1,
+  nonlinear: ['alpha', 't0'],
+  linear: ['yPre', 'yFinal'],
+  appliesTo: ({ hasPreEvent, continuity }) => hasPreEvent && continuity === 'continuous',
+  fillColumns: ({ yPre, yFinal }, _alpha, ec) => {
+    for (let i = 0; i < ec.length; i++) {
+      yPre[i] = ec[i];
+      yFinal[i] = 1 - ec[i];
+    }
+  },
+  unpack: (value) => ({
+    alpha: value('alpha'),
+    omega0: value('alpha'),
+    t0: value('t0'),
+    yPre: value('yPre'),
+    yFinal: value('yFinal'),
+    a: value('yPre') - value('yFinal'),
+    b: 0,
+  }),
+});
+
+/** A first-order decay that jumps at the event (a capacitor's current, an inductor's voltage); t0 held at the detected event. */
+const firstOrderJump = defineLayout({
+  order: 1,
+  nonlinear: ['alpha'],
+  linear: ['yPre', 'yFinal', 'a'],
+  appliesTo: ({ hasPreEvent, continuity }) => hasPreEvent && continuity === 'free',
+  fillColumns: ({ yPre, yFinal, a }, _alpha, ec) => {
+    yPre.fill(0);
+    yFinal.fill(1);
+    a.set(ec);
+  },
+  unpack: (value, fixedT0) => ({
+    alpha: value('alpha'),
+    omega0: value('alpha'),
+    t0: fixedT0,
+    yPre: value('yPre'),
+    yFinal: value('yFinal'),
+    a: value('a'),
+    b: 0,
+  }),
+});
+
+/** A first-order decay already under way at the first sample; t0 held at the start of the window. */
+const firstOrderFree = defineLayout({
+  order: 1,
+  nonlinear: ['alpha'],
+  linear: ['yFinal', 'a'],
+  appliesTo: ({ hasPreEvent }) => !hasPreEvent,
+  fillColumns: ({ yFinal, a }, _alpha, ec) => {
+    yFinal.fill(1);
+    a.set(ec);
+  },
+  unpack: (value, fixedT0) => ({
+    alpha: value('alpha'),
+    omega0: value('alpha'),
+    t0: fixedT0,
+    yPre: value('yFinal') + value('a'),
+    yFinal: value('yFinal'),
+    a: value('a'),
+    b: 0,
+  }),
+});
+
+/**
  * Every layout, simpler before richer: among the layouts that apply to a record, a later one also
  * starts from the first one's solution.
  */
-export const LAYOUTS = { smooth, step, 'free-pre': freePre, free } satisfies Record<string, LayoutDescriptor>;
+export const LAYOUTS = {
+  smooth,
+  step,
+  'free-pre': freePre,
+  free,
+  'first-order': firstOrder,
+  'first-order-jump': firstOrderJump,
+  'first-order-free': firstOrderFree,
+} satisfies Record<string, LayoutDescriptor>;
 
 export type ParameterLayout = keyof typeof LAYOUTS;
 
-/** The layouts that apply to a record, in the order they are tried. */
+/** The second-order layouts that apply to a record, in the order they are tried. */
 export function layoutsFor(record: RecordShape): ParameterLayout[] {
-  return (Object.keys(LAYOUTS) as ParameterLayout[]).filter((layout) => LAYOUTS[layout].appliesTo(record));
+  return layoutsOfOrder(2, record);
+}
+
+/** The first-order layout that applies to a record (one for each record shape). */
+export function firstOrderLayoutFor(record: RecordShape): ParameterLayout {
+  return layoutsOfOrder(1, record)[0];
+}
+
+function layoutsOfOrder(order: 1 | 2, record: RecordShape): ParameterLayout[] {
+  return (Object.keys(LAYOUTS) as ParameterLayout[]).filter((layout) => LAYOUTS[layout].order === order && LAYOUTS[layout].appliesTo(record));
 }
 
 /** Names of every parameter of each layout, in the order of its parameter vector. */

@@ -1,6 +1,10 @@
 // The generic least-squares contract: a model, data, a start, and a result that is data.
 
-export type FitStatus = 'converged' | 'max-iterations' | 'failed';
+/**
+ * 'no-response' is the response fit's own: neither a second-order nor a first-order response explains
+ * the record better than a constant level (by the information criterion and an F-test).
+ */
+export type FitStatus = 'converged' | 'max-iterations' | 'failed' | 'no-response';
 
 export interface CurveModel {
   /** Parameter names, in the order of the parameter vector. */

@@ -1,0 +1,94 @@
+// A response that jumps at the event (a capacitor's current, an inductor's voltage): its free-start fit,
+// and whether the record shows the jump.
+
+import { solveAmplitudes, Workspace } from './amplitudes';
+import { attemptT0, attemptValue, type Attempt } from './attempt';
+import { searchLayouts } from './layoutSearch';
+import { effectiveSamples, information } from './modelSelection';
+import { refine } from './refine';
+import { unpackParams } from './responseModel';
+import type { FitSet } from './fitSet';
+import type { RateCandidate } from './startingRates';
+
+/** Event times tried either side of the detected event and the continuous fit's t0, in set values. */
+const SCAN_VALUES = 4;
+/** At most this many event times are tried (a very long block-averaged record is scanned more coarsely). */
+const MAX_SCAN_POSITIONS = 2000;
+/**
+ * A jump is taken as found only when it exceeds this many noise levels of one value: far beyond what
+ * the first sample's noise could make (one sample in 10^6 lies 5 sigma out; common practice).
+ */
+const JUMP_NOISE = 5;
+
+/** The free-start fit and the event time it holds (between the last sample before the jump and the first after it). */
+export interface JumpStartFit {
+  attempt: Attempt;
+  t0: number;
+  /** y(t0+) - yPre of the fit. */
+  jump: number;
+}
+
+/**
+ * The response fitted from any initial value at the event. With a jump, the event lies anywhere between
+ * two samples (every place there fits alike), so t0 is held: event times one raw sample apart around the
+ * detected event are tried with the continuous fit's rates, and the best is fitted from its rates and
+ * from the ranked starts. Unless the free start is asked for (`stated`), null when even the best of
+ * those event times does not beat the continuous fit on the information criterion: no jump to fit.
+ */
+export function fitJumpStart(
+  set: FitSet,
+  continuous: Attempt,
+  candidates: RateCandidate[],
+  t0Start: number,
+  noise: number,
+  stated: boolean,
+): JumpStartFit | null {
+  const rates = { alpha: attemptValue(continuous, 'alpha'), omega0: attemptValue(continuous, 'omega0') };
+  const { t0, sse } = bestEventTime(set, rates, t0Start, attemptT0(continuous, t0Start));
+  if (!stated && !beatsContinuous(continuous, sse, continuous.values.length + 1, set, t0)) return null;
+  const tried = [
+    refine(set, 'free-pre', { ...rates, source: 'continuous fit' }, t0),
+    ...searchLayouts(set, ['free-pre'], candidates, t0, noise),
+  ].filter((a) => Number.isFinite(a.sse));
+  if (tried.length === 0) return null;
+  const attempt = tried.reduce((x, y) => (y.sse < x.sse ? y : x));
+  const p = unpackParams('free-pre', attempt.values, t0);
+  return { attempt, t0, jump: p.yFinal + p.a - p.yPre };
+}
+
+/** The held event time, among places one raw sample apart around both estimates, that leaves the least residual. */
+function bestEventTime(set: FitSet, rates: { alpha: number; omega0: number }, detected: number, fitted: number): { t0: number; sse: number } {
+  const rawStep = set.block?.spacing ?? set.dt;
+  const reach = SCAN_VALUES * set.dt;
+  const to = Math.max(detected, fitted) + reach;
+  const steps = Math.ceil((detected - Math.min(detected, fitted) + reach) / rawStep);
+  const step = Math.max(rawStep, (to - detected + steps * rawStep) / MAX_SCAN_POSITIONS);
+  const workspace = new Workspace(set.time.length);
+  let best = detected;
+  let bestSse = Infinity;
+  // Half a step off the sample grid: between two samples, not on one.
+  for (let t = detected - steps * rawStep + step / 2; t <= to; t += step) {
+    const { sse } = solveAmplitudes('free-pre', set.time, set.values, rates.alpha, rates.omega0, t, workspace, set.block);
+    if (sse < bestSse) {
+      bestSse = sse;
+      best = t;
+    }
+  }
+  return { t0: best, sse: bestSse };
+}
+
+/**
+ * Whether the record shows a jump at the event: the jump must stand far out of the noise, and the free
+ * start must win on the information criterion with its event time counted as a parameter (it was
+ * searched for, as the continuous fits fit theirs).
+ */
+export function showsJump(continuous: Attempt, free: JumpStartFit, set: FitSet, noise: number): boolean {
+  if (!(Math.abs(free.jump) > JUMP_NOISE * noise)) return false;
+  return beatsContinuous(continuous, free.attempt.sse, free.attempt.values.length + 1, set, free.t0);
+}
+
+/** Whether a free-start residual with that many parameters beats the continuous fit on the information criterion. */
+function beatsContinuous(continuous: Attempt, sse: number, parameters: number, set: FitSet, t0: number): boolean {
+  const n = effectiveSamples([continuous], set, t0);
+  return information(sse, parameters, n) < information(continuous.sse, continuous.values.length, n);
+}
