@@ -1,17 +1,14 @@
 // Turns the stored columns and the layout into a Capture: time axes, per-channel dropping, clipping, interval.
 
 import { formatEngineering } from '../units/format';
+import { MIN_SAMPLES } from './captureLimits';
 import { detectClipping, type Clipping } from './detectClipping';
-import type { ColumnStore } from './columnStore';
 import { nameChannels, type ColumnPlan, type Layout } from './layout';
 import type { RowDrop } from './importSummary';
-import type { LineMap } from './lineMap';
+import type { RowLines, StoredRows } from './segments';
 import { summarizeImport, type KeptChannel, type TextSource } from './summarizeImport';
 import { findOrderProblem, rebuildAxis, sortByTime, uniformInterval } from './timeAxis';
 import { CaptureError, type Capture, type CaptureOptions, type Channel } from './types';
-
-/** Fewest usable samples a channel needs to be kept. */
-export const MIN_SAMPLES = 20;
 
 interface Axis {
   /** Time of each output row, s. */
@@ -39,7 +36,7 @@ function label(column: ColumnPlan): string {
 }
 
 /** A headerless first column is time when strictly increasing (or to be sorted); otherwise it is a channel. */
-function resolveFirstColumn(layout: Layout, store: ColumnStore, lines: LineMap, options: CaptureOptions): void {
+function resolveFirstColumn(layout: Layout, store: StoredRows, lines: RowLines, options: CaptureOptions): void {
   // The first column that is not ignored (a leading empty field or a sample index may come before it).
   const index = layout.columns.findIndex((c) => c.kind === 'maybe-time');
   if (index < 0) return;
@@ -64,7 +61,7 @@ function resolveFirstColumn(layout: Layout, store: ColumnStore, lines: LineMap, 
   }
 }
 
-function columnAxis(index: number, layout: Layout, store: ColumnStore, lines: LineMap, options: CaptureOptions, warnings: string[]): Axis {
+function columnAxis(index: number, layout: Layout, store: StoredRows, lines: RowLines, options: CaptureOptions, warnings: string[]): Axis {
   const column = layout.columns[index];
   const time = scaled(store.column(index), column.scale);
   const problem = findOrderProblem(time);
@@ -149,8 +146,8 @@ function clippingWarning(channel: Channel, clipping: Clipping): string | null {
 
 export function assembleCapture(
   layout: Layout,
-  store: ColumnStore,
-  lines: LineMap,
+  store: StoredRows,
+  lines: RowLines,
   options: CaptureOptions,
   footer: string[],
   source: TextSource,

@@ -1,4 +1,4 @@
-// What a capture may hold (line length, columns), and the checks that refuse more before it is decoded, split or stored.
+// What a capture may hold (line length, columns, fewest samples), and the checks that refuse more before it is decoded, split or stored.
 
 import { CaptureError } from './types';
 
@@ -12,6 +12,8 @@ export const MAX_LINE_LENGTH = 1 << 20;
  * every segment of a segmented record exported side by side; a wider file is some other table.
  */
 export const MAX_COLUMNS = 1000;
+/** Fewest usable samples a channel (and a segment) needs to be kept. */
+export const MIN_SAMPLES = 20;
 const LF = 10;
 const CR = 13;
 

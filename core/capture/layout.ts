@@ -258,7 +258,7 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
     const { unit, scale } =
       kind === 'maybe-time' || kind === 'ignored'
         ? { unit: '', scale: 1 }
-        : columnUnit(p, p.heading || p.name, kind !== 'value', options, header?.line ?? null, warnings);
+        : columnUnit(p, p.heading || p.name, kind !== 'value', options, header?.line ?? (units && last ? last.line : null), warnings);
     columns.push({ kind, heading: p.heading, name: p.name, unit, scale, timeColumn: null });
   }
   assignTimeColumns(columns);

@@ -23,7 +23,11 @@
 //   never a per-division scale), t0 from a numeric 't0', 'x origin' or 'start time' key, else 0.
 // - Empty, NaN, inf, '****', '----' and overrange (|x| >= 9.9e37) cells are dropped per channel and counted; a line
 //   repeating the header is skipped with a warning. Any other text in the table is an error naming its line, unless
-//   no row of the table's shape follows it (a footer or a later section of another shape, ignored with a warning).
+//   no row of the table's shape follows it (a footer or a later section of another shape: left out, listed in
+//   importSummary.ignoredSections), or the time goes back there to start another segment.
+// - Segments: blocks of the same shape whose time restarts where the first block's did (after a line of text, a
+//   blank line and the header, or nothing), or blocks after lines of text in a table without a time column, each of
+//   at least 20 rows, are repeated acquisitions: the first is read, or the one `segment` names (see segments).
 // - Time must increase strictly (sortTime sorts instead, keeping the first of repeated stamps); at least 20
 //   samples are needed; flat runs at an ADC rail are marked in `clipped` (see detectClipping).
 // - A line over 1 MiB or a table over 1,000 columns is refused naming its line (captureLimits), and so are rows so
@@ -41,6 +45,8 @@ import { ROW, RowReader, SKIP } from './rowReader';
 import type { LineEnd, TextEncoding } from './importSummary';
 import type { TextSource } from './summarizeImport';
 import { DetectingDecoder, decodeUtf16, utf16Of, utf8LineDecoder, type LineDecoder } from './textEncoding';
+import { chooseSegment, findSegments, linesOfSpan, rowsOfSpan } from './segments';
+import { TrailingSections } from './trailingSections';
 import { CaptureError, type Capture, type CaptureOptions } from './types';
 
 /** Data rows of the same shape needed in a row before the table is taken to have started. */
@@ -81,10 +87,14 @@ class StreamingReader implements CaptureReader {
   private store: ColumnStore | null = null;
   private rows: RowReader | null = null;
   private readonly lines = new LineMap();
+  /** The first line after the rows that is not data: a later section, or a segment's separator when rows follow. */
   private pending: { line: number; message: string; text: string } | null = null;
   private pendingCount = 0;
-  /** Lines inside the table that repeat its header: skipped, counted. */
-  private repeatedHeader: { line: number; count: number } | null = null;
+  private readonly trailing = new TrailingSections();
+  /** Lines between rows of the table where its time goes back: each a segment's separator (or junk, if no segment starts there). */
+  private readonly separators: { row: number; line: number; message: string }[] = [];
+  /** Lines inside the table that repeat its header: skipped, counted; `rows` are the rows right after them. */
+  private repeatedHeader: { line: number; count: number; rows: number[] } | null = null;
   private byteRows: ByteRowReader | null = null;
   /** Bytes after the last complete line pushed. */
   private carriedBytes: Uint8Array = new Uint8Array(0);
@@ -169,15 +179,27 @@ class StreamingReader implements CaptureReader {
       if (this.run.length === 0) throw new CaptureError(`no rows of numbers found in ${this.line} line(s)`);
       this.startTable();
     }
+    const layout = this.layout as Layout;
+    const store = this.store as ColumnStore;
+    const separatorRows = [...this.separators.map((s) => s.row), ...(this.repeatedHeader?.rows ?? [])];
+    const spans = findSegments(layout, store, separatorRows);
+    if (spans === null && this.separators.length > 0) throw new CaptureError(this.separators[0].message, this.separators[0].line);
+    const { span, index } = chooseSegment(spans, store.length, this.options.segment);
     const footer =
       this.pending === null
         ? []
         : [`${this.pendingCount} line(s) after the last data row were ignored (from line ${this.pending.line}: '${this.pending.text}')`];
-    if (this.repeatedHeader) {
-      footer.unshift(`${this.repeatedHeader.count} line(s) repeating the header were skipped (first on line ${this.repeatedHeader.line})`);
+    const headers = this.repeatedHeader;
+    // A header repeated at the start of each segment is part of the segments' layout, not worth a warning.
+    if (headers && !(spans && headers.rows.every((row) => spans.some((s) => s.start === row)))) {
+      footer.unshift(`${headers.count} line(s) repeating the header were skipped (first on line ${headers.line})`);
     }
-    const source: TextSource = { encoding: this.encoding, lineEnd: this.lineEnd };
-    return assembleCapture(this.layout as Layout, this.store as ColumnStore, this.lines, this.options, footer, source);
+    const segments = (spans ?? []).map((s, k) => ({ firstLine: this.lines.lineOf(s.start), lastLine: this.lines.lineOf(s.end - 1), rows: s.end - s.start, read: k === index }));
+    const source: TextSource = { encoding: this.encoding, lineEnd: this.lineEnd, ignoredSections: this.trailing.list(), segments };
+    const lines = linesOfSpan(this.lines, span);
+    const read = spans === null ? layout : { ...layout, firstDataLine: lines.lineOf(0) };
+    if (spans !== null) footer.push(`the file holds ${spans.length} segments (repeated acquisitions); segment ${index + 1} was read`);
+    return assembleCapture(read, rowsOfSpan(store, span), lines, this.options, footer, source);
   }
 
   /** One line, text[start, end) without its terminator. */
@@ -195,7 +217,7 @@ class StreamingReader implements CaptureReader {
 
   private readRow(text: string, line: number, start: number, end: number): void {
     if (this.pending) {
-      this.readAfterBreak(text.slice(start, end));
+      this.readAfterBreak(text, line, start, end);
       return;
     }
     const rows = this.rows as RowReader;
@@ -207,22 +229,50 @@ class StreamingReader implements CaptureReader {
     }
     const header = (this.layout as Layout).headerText;
     if (header !== null && text.slice(start, end).trim() === header.trim()) {
-      this.repeatedHeader ??= { line, count: 0 };
+      this.repeatedHeader ??= { line, count: 0, rows: [] };
       this.repeatedHeader.count++;
+      this.repeatedHeader.rows.push((this.store as ColumnStore).length);
       return;
     }
     const shown = text.slice(start, Math.min(end, start + 60)).trim();
-    this.pending ??= { line, message: outcome as string, text: shown };
-    this.pendingCount++;
+    this.pending = { line, message: outcome as string, text: shown };
+    this.pendingCount = 1;
+    this.trailing.add(line, text.slice(start, end), null);
   }
 
-  /** After a line that is not data: a row of the table's shape means junk inside the table; else a later section, left out. */
-  private readAfterBreak(text: string): void {
-    if (isBlankOrComment(text)) return;
-    const shape = dataShape(text);
+  /**
+   * After a line that is not data: a row of the table's shape starts a new segment when the time goes back there (or
+   * the table has no time column: judged at the end), else it means junk inside the table; other lines are a later
+   * section, left out.
+   */
+  private readAfterBreak(text: string, line: number, start: number, end: number): void {
+    const lineText = text.slice(start, end);
+    if (isBlankOrComment(lineText)) {
+      this.trailing.gap();
+      return;
+    }
+    const shape = dataShape(lineText);
     const pending = this.pending as NonNullable<typeof this.pending>;
-    if (shape && this.runShape && sameShape(shape, this.runShape)) throw new CaptureError(pending.message, pending.line);
+    if (shape && this.runShape && sameShape(shape, this.runShape)) {
+      if ((this.rows as RowReader).read(start, end) !== ROW || !this.timeGoesBack()) throw new CaptureError(pending.message, pending.line);
+      this.separators.push({ row: (this.store as ColumnStore).length - 1, line: pending.line, message: pending.message });
+      this.pending = null;
+      this.pendingCount = 0;
+      this.trailing.clear();
+      this.rowStored(line);
+      return;
+    }
     this.pendingCount++;
+    this.trailing.add(line, lineText, shape);
+  }
+
+  /** True when the last stored row's time is not after the row before it, or the table has no time column. */
+  private timeGoesBack(): boolean {
+    const store = this.store as ColumnStore;
+    const index = (this.layout as Layout).columns.findIndex((c) => c.kind === 'time' || c.kind === 'maybe-time');
+    if (index < 0) return true;
+    const n = store.length;
+    return n >= 2 && store.columns[index][n - 1] <= store.columns[index][n - 2];
   }
 
   private rowStored(line: number): void {

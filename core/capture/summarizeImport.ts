@@ -1,15 +1,18 @@
 // Builds the import summary from what the reader decided: the text's encoding and line end, the layout, the axes.
 
 import { formatEngineering } from '../units/format';
-import type { DelimiterName, ImportSummary, LineEnd, RowDrop, TextEncoding, TimeSource } from './importSummary';
+import type { DelimiterName, IgnoredSection, ImportSegment, ImportSummary, LineEnd, RowDrop, TextEncoding, TimeSource } from './importSummary';
 import type { ColumnPlan, Layout } from './layout';
-import type { LineMap } from './lineMap';
+import type { RowLines } from './segments';
 import type { Channel } from './types';
 
-/** What the decoder found about the text itself. */
+/** What the reader found about the text itself: its decoding, and the parts of it beside the table read. */
 export interface TextSource {
   encoding: TextEncoding;
   lineEnd: LineEnd | null;
+  ignoredSections: IgnoredSection[];
+  /** Every segment of a segmented table, the one read marked; empty for a table of one block. */
+  segments: ImportSegment[];
 }
 
 /** A time axis as the assembler built it. */
@@ -70,7 +73,7 @@ function steps(axis: ImportedAxis): { mean: number; jitter: number | null } {
 }
 
 /** Rows of a column axis that have no time (empty or unreadable time cell): left out of every channel on it. */
-function timelessRows(axis: ImportedAxis, lines: LineMap): RowDrop | null {
+function timelessRows(axis: ImportedAxis, lines: RowLines): RowDrop | null {
   let count = 0;
   let first: number | null = null;
   axis.time.forEach((t, k) => {
@@ -82,7 +85,7 @@ function timelessRows(axis: ImportedAxis, lines: LineMap): RowDrop | null {
   return count === 0 ? null : { reason: 'no readable time', count, firstLine: first === null ? null : lines.lineOf(first) };
 }
 
-export function summarizeImport(source: TextSource, layout: Layout, rows: number, kept: KeptChannel[], lines: LineMap, warnings: string[]): ImportSummary {
+export function summarizeImport(source: TextSource, layout: Layout, rows: number, kept: KeptChannel[], lines: RowLines, warnings: string[]): ImportSummary {
   const axes = [...new Set(kept.map((k) => k.axis))];
   const droppedRows: RowDrop[] = [];
   for (const axis of axes) {
@@ -110,8 +113,8 @@ export function summarizeImport(source: TextSource, layout: Layout, rows: number
       clipped: channel.clipped.reduce((sum, flag) => sum + flag, 0),
     })),
     droppedRows,
-    ignoredSections: [],
-    segments: [],
+    ignoredSections: source.ignoredSections.map((x) => ({ ...x })),
+    segments: source.segments.map((x) => ({ ...x })),
     warnings: [...warnings],
   };
 }

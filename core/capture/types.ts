@@ -55,6 +55,11 @@ export interface CaptureOptions {
   timeUnit?: StatedUnit;
   /** Unit of the channels' values, over the file's (a note when it differs). */
   valueUnit?: StatedUnit;
+  /**
+   * Which segment of a file of repeated acquisitions to read, 1-based. Default: the first. A number naming no
+   * segment is a CaptureError giving the count.
+   */
+  segment?: number;
 }
 
 /** Invalid capture text: the message says what was wrong; `line` is 1-based when known. */

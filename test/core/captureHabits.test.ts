@@ -30,6 +30,11 @@ function checkHabit(habit: ExportHabit): void {
   else expect(close(capture.sampleInterval ?? NaN, expected.sampleInterval, 0)).toBe(true);
   expected.firstValues.forEach((v, i) => expect(close(channel.values[i], v, 1e-6), `value ${i}`).toBe(true));
   if (expected.warning) expect(warnings).toMatch(expected.warning);
+  const summary = capture.importSummary;
+  expect(summary.segments.map(({ firstLine, lastLine, read }) => ({ firstLine, lastLine, read }))).toEqual(expected.segments ?? []);
+  const ignored = expected.ignoredSections ?? [];
+  expect(summary.ignoredSections.map(({ firstLine, lastLine }) => ({ firstLine, lastLine }))).toEqual(ignored.map(({ firstLine, lastLine }) => ({ firstLine, lastLine })));
+  ignored.forEach((section, k) => expect(summary.ignoredSections[k].reason).toMatch(section.reason));
   const { note, ...encoding } = expected.encoding ?? { name: 'UTF-8', byteOrderMark: false };
   const read = capture.importSummary.encoding;
   expect({ name: read.name, byteOrderMark: read.byteOrderMark }).toEqual(encoding);
