@@ -22,6 +22,8 @@ export interface MeasurementSettings {
   /** Given only when stated (records written before these options have neither). */
   timeUnit?: string;
   valueUnit?: string;
+  /** The segment read, given only when asked for (--segment). */
+  segment?: string;
 }
 
 /** Cautions as logged: the standing advice and deferral are the same for every record and left out. */

@@ -22,7 +22,8 @@ function plural(count: number, one: string): string {
 }
 
 function readAs(s: ImportSummary): string {
-  const encoding = s.encoding.byteOrderMark ? `${s.encoding.name} with byte-order mark` : s.encoding.name;
+  const named = s.encoding.byteOrderMark ? `${s.encoding.name} with byte-order mark` : s.encoding.name;
+  const encoding = s.encoding.note ? `${named} (${s.encoding.note})` : named;
   const decimal = s.decimalMark === ',' ? 'decimal comma' : 'decimal point';
   return [encoding, DELIMITER_TEXT[s.delimiter], decimal, s.lineEnd === null ? 'one line' : LINE_END_TEXT[s.lineEnd]].join(', ');
 }
@@ -60,7 +61,7 @@ function droppedRows(s: ImportSummary): string {
 
 function sections(s: ImportSummary): string {
   const parts = s.ignoredSections.map((x) => `lines ${x.firstLine}-${x.lastLine} ignored (${x.reason})`);
-  if (s.segments.length > 0) parts.push(`${plural(s.segments.length, 'segment')}: ${s.segments.map((g) => `lines ${g.firstLine}-${g.lastLine}`).join(', ')}`);
+  if (s.segments.length > 0) parts.push(`${plural(s.segments.length, 'segment')}: ${s.segments.map((g) => `lines ${g.firstLine}-${g.lastLine}${g.read ? ' (read)' : ''}`).join(', ')}`);
   return parts.join('; ');
 }
 

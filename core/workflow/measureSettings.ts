@@ -26,6 +26,8 @@ export interface MeasureSettings {
   timeUnit?: string;
   /** Unit of the chosen channel's values, e.g. 'mV'. Default: the file's, else as written. */
   valueUnit?: string;
+  /** Which segment of a file of repeated acquisitions to read, 1-based, e.g. '2'. Default: the first. */
+  segment?: string;
 }
 
 export interface ParsedMeasureSettings {
@@ -34,6 +36,8 @@ export interface ParsedMeasureSettings {
   sortTime: boolean;
   timeUnit?: StatedUnit;
   valueUnit?: StatedUnit;
+  /** As typed; the importer refuses a number naming no segment, giving the count. */
+  segment?: number;
   window: FitWindow;
   knownPart?: KnownPartRequest;
 }
@@ -53,8 +57,16 @@ export function parseMeasureSettings(settings: MeasureSettings): ParsedMeasureSe
   if (settings.sampleInterval !== undefined) parsed.sampleInterval = parseTime(settings.sampleInterval, '--sample-interval');
   if (settings.timeUnit !== undefined) parsed.timeUnit = parseStatedUnit(settings.timeUnit, true, '--time-unit');
   if (settings.valueUnit !== undefined) parsed.valueUnit = parseStatedUnit(settings.valueUnit, false, '--value-unit');
+  if (settings.segment !== undefined) parsed.segment = parseSegmentNumber(settings.segment);
   if (settings.topology !== undefined && settings.known !== undefined) {
     parsed.knownPart = { topology: parseTopology(settings.topology), known: parseKnown(settings.known) };
   }
   return parsed;
+}
+
+/** --segment: a number (the importer, which knows how many segments the file holds, refuses one naming none). */
+function parseSegmentNumber(text: string): number {
+  const n = /^\s*[-+]?\d+(?:\.\d*)?\s*$/.test(text) ? Number(text) : NaN;
+  if (!Number.isFinite(n)) throw new UsageError(`--segment: '${text}' is not a segment number (1, 2, ...)`);
+  return n;
 }

@@ -41,6 +41,7 @@ export function createBenchRecord(m: FileMeasurement, label: MeasurementLabel, o
       sortTime: options.sortTime ?? false,
       ...(options.timeUnit === undefined ? {} : { timeUnit: options.timeUnit }),
       ...(options.valueUnit === undefined ? {} : { valueUnit: options.valueUnit }),
+      ...(options.segment === undefined ? {} : { segment: options.segment }),
     },
     fit: m.summary,
     verdict: m.verdict,

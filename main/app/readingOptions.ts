@@ -7,8 +7,8 @@ import { parseMeasureSettings, type MeasureSettings } from '../../core/workflow/
 
 /** How the settings say a capture is read: the importer's options and the channel to take. */
 export function readingOptionsOf(settings: MeasureSettings): CaptureOptions & { channel?: string | number } {
-  const { channel, sampleInterval, sortTime, timeUnit, valueUnit } = parseMeasureSettings(settings);
-  return { channel, sampleInterval, sortTime, timeUnit, valueUnit };
+  const { channel, sampleInterval, sortTime, timeUnit, valueUnit, segment } = parseMeasureSettings(settings);
+  return { channel, sampleInterval, sortTime, timeUnit, valueUnit, segment };
 }
 
 /** A bench record's settings (null where left to the default) as measuring settings. */
@@ -24,5 +24,6 @@ export function settingsOfRecord(s: MeasurementSettings): MeasureSettings {
     sortTime: s.sortTime,
     timeUnit: s.timeUnit,
     valueUnit: s.valueUnit,
+    segment: s.segment,
   };
 }

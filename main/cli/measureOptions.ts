@@ -9,7 +9,7 @@ export interface MeasureCommandOptions extends MeasureSettings {
   json?: boolean;
 }
 
-/** --column, --sample-interval, --time-unit, --value-unit, --from, --to, --sort-time. */
+/** --column, --sample-interval, --time-unit, --value-unit, --from, --to, --sort-time, --segment. */
 export function addCaptureOptions(command: Command): Command {
   return command
     .option('--column <name|index>', 'channel to fit: its name or 0-based index (default: the first)')
@@ -18,7 +18,8 @@ export function addCaptureOptions(command: Command): Command {
     .option('--value-unit <unit>', "unit of the channel's values, over the file's, e.g. mV")
     .option('--from <time>', 'start of the fit window (default: found from the data)')
     .option('--to <time>', 'end of the fit window (default: found from the data)')
-    .option('--sort-time', 'sort out-of-order time stamps instead of failing');
+    .option('--sort-time', 'sort out-of-order time stamps instead of failing')
+    .option('--segment <n>', 'in a file of repeated acquisitions (segments), read segment n (1 = the first, the default)');
 }
 
 /** --topology and --known: derive R, L and C from the fit. */
@@ -33,6 +34,6 @@ export function addComponentOptions(command: Command): Command {
 
 /** The measuring settings alone, without --json and command-specific options. */
 export function measureSettingsOf(options: MeasureCommandOptions): MeasureSettings {
-  const { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime } = options;
-  return { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime };
+  const { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime, segment } = options;
+  return { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime, segment };
 }
