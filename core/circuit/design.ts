@@ -23,10 +23,13 @@ export interface ComponentSpec {
  *   Series: a voltage source driving R-L-C (V). Parallel: a current source into R || L || C (A).
  * natural: the source is zero after the event; the capacitor voltage (V) and the inductor current (A,
  *   series: the loop current charging C; parallel: node to ground through L) are given at the event.
+ * levelTolerance: how far the probed levels may sit from the design's, relative (0.05 = 5 %, read as a
+ *   rectangular half-width like the component tolerances); absent: the verdict's default (see verdict.ts).
  */
-export type DesignSource =
+export type DesignSource = (
   | { kind: 'step'; amplitude: number; initialLevel: number }
-  | { kind: 'natural'; capacitorVoltage: number; inductorCurrent: number };
+  | { kind: 'natural'; capacitorVoltage: number; inductorCurrent: number }
+) & { levelTolerance?: number };
 
 export interface Design {
   format: typeof DESIGN_FORMAT;
@@ -102,11 +105,7 @@ function readComponents(value: unknown): Record<ComponentName, ComponentSpec> {
     allowOnly(spec, path, ['value', 'tolerance']);
     const v = measure(spec.value, `${path}.value`, COMPONENT_UNITS[name]);
     if (!(v > 0)) throw new DesignError(`${path}.value`, `must be positive, got ${v}`);
-    const tolerance = spec.tolerance ?? 0;
-    if (typeof tolerance !== 'number' || !Number.isFinite(tolerance) || tolerance < 0 || tolerance >= 1) {
-      throw new DesignError(`${path}.tolerance`, 'must be a number between 0 and 1 (0.05 = 5 %)');
-    }
-    result[name] = { value: v, tolerance };
+    result[name] = { value: v, tolerance: fraction(spec.tolerance ?? 0, `${path}.tolerance`) };
   }
   return result;
 }
@@ -114,21 +113,30 @@ function readComponents(value: unknown): Record<ComponentName, ComponentSpec> {
 function readSource(value: unknown, topology: Topology): DesignSource {
   const node = object(value, 'source');
   const kind = oneOf(node.kind, 'source.kind', ['step', 'natural'] as const);
+  const levelTolerance = node.levelTolerance === undefined ? {} : { levelTolerance: fraction(node.levelTolerance, 'source.levelTolerance') };
   if (kind === 'step') {
-    allowOnly(node, 'source', ['kind', 'amplitude', 'initialLevel']);
+    allowOnly(node, 'source', ['kind', 'amplitude', 'initialLevel', 'levelTolerance']);
     const unit = topology === 'series' ? 'V' : 'A';
     const amplitude = measure(node.amplitude, 'source.amplitude', unit);
     if (amplitude === 0) throw new DesignError('source.amplitude', 'must not be zero (a step of nothing)');
     const initialLevel = node.initialLevel === undefined ? 0 : measure(node.initialLevel, 'source.initialLevel', unit);
-    return { kind, amplitude, initialLevel };
+    return { kind, amplitude, initialLevel, ...levelTolerance };
   }
-  allowOnly(node, 'source', ['kind', 'capacitorVoltage', 'inductorCurrent']);
+  allowOnly(node, 'source', ['kind', 'capacitorVoltage', 'inductorCurrent', 'levelTolerance']);
   const capacitorVoltage = node.capacitorVoltage === undefined ? 0 : measure(node.capacitorVoltage, 'source.capacitorVoltage', 'V');
   const inductorCurrent = node.inductorCurrent === undefined ? 0 : measure(node.inductorCurrent, 'source.inductorCurrent', 'A');
   if (capacitorVoltage === 0 && inductorCurrent === 0) {
     throw new DesignError('source', 'a natural response needs a capacitorVoltage or an inductorCurrent other than zero');
   }
-  return { kind, capacitorVoltage, inductorCurrent };
+  return { kind, capacitorVoltage, inductorCurrent, ...levelTolerance };
+}
+
+/** A relative tolerance: a number in [0, 1). */
+function fraction(value: unknown, path: string): number {
+  if (typeof value !== 'number' || !Number.isFinite(value) || value < 0 || value >= 1) {
+    throw new DesignError(path, 'must be a number between 0 and 1 (0.05 = 5 %)');
+  }
+  return value;
 }
 
 function object(value: unknown, path: string): Json {

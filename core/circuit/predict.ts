@@ -25,10 +25,37 @@ export function predictResponse(design: Design, t0 = 0): ResponseParams {
  *   parallel: C dv/dt = i_s - v / R - i_L, L di_L/dt = v
  */
 export function responseForValues(design: Design, values: Values, t0 = 0): ResponseParams {
-  const { R, L, C } = values;
   const relations = responseRelations(design.topology);
   const alpha = evaluatePowerLaw(relations.alpha, values);
   const omega0 = evaluatePowerLaw(relations.omega0, values);
+  const { y0, slope, yFinal } = initialState(design, values);
+  const { a, b } = coefficientsFromInitial(y0, slope, yFinal, alpha);
+  return { t0, yPre: y0, yFinal, alpha, omega0, a, b };
+}
+
+/** The levels a design states for its probe: before the event, at the end, and the size of the response between. */
+export interface DesignLevels {
+  preLevel: number;
+  finalValue: number;
+  /** sqrt((y(t0+) - y_final)^2 + (y'(t0+) / omega0)^2): the amplitude a lossless ring from that start would have. */
+  swing: number;
+}
+
+/** The design's levels at its nominal values (the circuit settles at the old source level before a step). */
+export function designLevels(design: Design): DesignLevels {
+  const values = nominalValues(design);
+  const { y0, slope, yFinal } = initialState(design, values);
+  return { preLevel: y0, finalValue: yFinal, swing: responseSwing(y0 - yFinal, slope, evaluatePowerLaw(responseRelations(design.topology).omega0, values)) };
+}
+
+/** The swing of a response from its natural part at t0+ and its slope there (see DesignLevels). */
+export function responseSwing(natural: number, slope: number, omega0: number): number {
+  return Math.hypot(natural, slope / omega0);
+}
+
+/** The probed value and its slope just after the event, and the final value, by KVL or KCL (see responseForValues). */
+function initialState(design: Design, values: Values): { y0: number; slope: number; yFinal: number } {
+  const { R, L, C } = values;
   const s = design.source;
   const drive = s.kind === 'step' ? s.initialLevel + s.amplitude : 0;
   let vC: number;
@@ -43,22 +70,15 @@ export function responseForValues(design: Design, values: Values, t0 = 0): Respo
     vC = 0;
     iL = s.initialLevel;
   }
-  let y0: number;
-  let slope: number;
-  let yFinal: number;
   if (design.topology === 'series') {
     const diDt = (drive - R * iL - vC) / L;
-    if (design.probe === 'capacitor-voltage') [y0, slope, yFinal] = [vC, iL / C, drive];
-    else if (design.probe === 'inductor-current') [y0, slope, yFinal] = [iL, diDt, 0];
-    else [y0, slope, yFinal] = [R * iL, R * diDt, 0];
-  } else if (design.probe === 'inductor-current') {
-    [y0, slope, yFinal] = [iL, vC / L, drive];
-  } else {
-    // The resistor shares the node voltage with the capacitor.
-    [y0, slope, yFinal] = [vC, (drive - vC / R - iL) / C, 0];
+    if (design.probe === 'capacitor-voltage') return { y0: vC, slope: iL / C, yFinal: drive };
+    if (design.probe === 'inductor-current') return { y0: iL, slope: diDt, yFinal: 0 };
+    return { y0: R * iL, slope: R * diDt, yFinal: 0 };
   }
-  const { a, b } = coefficientsFromInitial(y0, slope, yFinal, alpha);
-  return { t0, yPre: y0, yFinal, alpha, omega0, a, b };
+  if (design.probe === 'inductor-current') return { y0: iL, slope: vC / L, yFinal: drive };
+  // The resistor shares the node voltage with the capacitor.
+  return { y0: vC, slope: (drive - vC / R - iL) / C, yFinal: 0 };
 }
 
 export interface ToleranceBandOptions {

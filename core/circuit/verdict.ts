@@ -1,11 +1,11 @@
-// A built board against its design: each response quantity in or out of tolerance, the waveform
-// difference, and the single component change that best explains what moved.
+// A built board against its design: each response quantity and level in or out of tolerance, the
+// waveform difference, and the single change (a component, or the source's step) that best explains it.
 import { quantity, type Quantity } from '../quantity';
-import { evaluateResponse } from '../response/secondOrder';
+import { evaluateResponse, type ResponseParams } from '../response/secondOrder';
 import { componentsFromResponse } from './components';
-import type { Design } from './design';
+import type { Design, DesignSource } from './design';
 import { CircuitInputError } from './errors';
-import { predictResponse } from './predict';
+import { designLevels, predictResponse, probeUnit, responseSwing, type DesignLevels } from './predict';
 import {
   COMPONENT_NAMES,
   COMPONENT_UNITS,
@@ -30,6 +30,12 @@ export interface FittedResponse {
   /** Fit window; the RMS difference is taken over it. Default: the whole record. */
   window?: { start: number; end: number };
   correlation?: { names: string[]; matrix: number[][] } | null;
+  /** The fitted model; its levels and its start are checked against the design's. Absent: no level rows. */
+  params?: ResponseParams;
+  /** Fitted level before the event with its standard error. Default: params.yPre, no standard error. */
+  preLevel?: Quantity;
+  /** Fitted final value with its standard error. Default: params.yFinal, no standard error. */
+  finalValue?: Quantity;
 }
 
 export interface CheckOptions {
@@ -49,12 +55,16 @@ export interface VerdictQuantity {
 }
 
 export interface LikelyCause {
-  component: ComponentName;
+  /** A component, or 'source' when the levels are off: the source's step (or initial state) differs from the design's. */
+  component: ComponentName | 'source';
   /** Relative change from the design value (0.1 = 10 % higher). */
   change: number;
   /** The value the change implies, SI base units (stderr null: a diagnostic, not a measurement). */
   impliedValue: Quantity;
-  /** Fraction of the squared log deviation of (alpha, omega0) this change accounts for, 0 to 1. */
+  /**
+   * Fraction of the deviation this change accounts for, 0 to 1: of the squared log deviation of (alpha,
+   * omega0) for a component, of the squared level deviations in design uncertainties for the source.
+   */
   explains: number;
 }
 
@@ -70,6 +80,14 @@ export interface Verdict {
 }
 
 const DEFAULT_MARGIN = 2;
+/**
+ * Level tolerance when the design states none: room for a scope's DC gain error of a few % of full scale,
+ * a probe's attenuation tolerance and the source's own setting (common practice, from memory), while a
+ * step of another size (48 V designed, 12 V built) is far outside it.
+ */
+const DEFAULT_LEVEL_TOLERANCE = 0.1;
+/** A single change explaining less than this share of the deviation is reported with a note saying so. */
+const EXPLAINS_WELL = 0.8;
 /** Preference among equal tolerances when choosing the known component: capacitors are usually the best known. */
 const KNOWN_PREFERENCE: ComponentName[] = ['C', 'L', 'R'];
 
@@ -78,7 +96,11 @@ const KNOWN_PREFERENCE: ComponentName[] = ['C', 'L', 'R'];
  * u_design propagated to first order from the component tolerances read as rectangular half-widths
  * (u = tol / sqrt(3), GUM 4.3.7). With a precise fit, a value at the edge of a worst-case tolerance
  * sits at sqrt(3) = 1.73 sigma, so the rule accepts up to about 1.15 times the tolerance half-width.
- * The board passes when every quantity is in tolerance.
+ * The levels (before the event, final, and the swing when those two are equal) follow the same rule with
+ * u_design = levelTolerance / sqrt(3) times the larger of the level and the swing. The board passes when
+ * every quantity is in tolerance. The likely cause names the source when a level is out, else the
+ * component; R, L and C are derived taking a part other than the likely cause at its design value, so
+ * the table shows the change where the cause puts it.
  */
 export function checkDesign(
   design: Design,
@@ -108,7 +130,14 @@ export function checkDesign(
   if (fit.alpha.stderr === null || fit.omega0.stderr === null) notes.push('Some fitted uncertainties are unknown: the margins use the design tolerance alone.');
 
   const physical = fit.alpha.value > 0 && fit.omega0.value > 0;
-  const known = options.knownComponent === undefined ? tightestComponent(design) : options.knownComponent;
+  const sensitivities = {
+    alpha: { ...relations.alpha.exponents },
+    omega0: { ...relations.omega0.exponents },
+  };
+  const componentCause = physical ? explainDeviation(quantities[0], quantities[1], sensitivities, values) : null;
+  const rateOut = quantities.slice(0, 2).some((q) => !q.inTolerance);
+  const known =
+    options.knownComponent === undefined ? tightestComponent(design, rateOut ? componentCause?.component : undefined) : options.knownComponent;
   if (known !== null && physical) {
     const spec = design.components[known];
     const derived = componentsFromResponse(fit.alpha, fit.omega0, design.topology, { name: known, value: spec.value, tolerance: spec.tolerance }, alphaOmega0Correlation(fit.correlation));
@@ -119,16 +148,30 @@ export function checkDesign(
     notes.push(`R, L, C from the fit take ${known} at its design value (${known} has the tightest tolerance unless chosen).`);
   }
   if (!physical) notes.push('The fitted alpha or omega0 is not positive: no components or likely cause can be derived.');
+  const shapeOut = quantities.some((q) => !q.inTolerance);
+  if (shapeOut && componentCause) {
+    if (componentCause.explains < EXPLAINS_WELL) notes.push('No single component explains the deviation well: more than one part may have moved, or the topology differs.');
+    if (componentCause.component === known) {
+      notes.push(`The likely cause is ${known}, the part taken at its design value to derive the others: their rows carry its change.`);
+    }
+  }
 
-  const sensitivities = {
-    alpha: { ...relations.alpha.exponents },
-    omega0: { ...relations.omega0.exponents },
-  };
-  const deviated = quantities.slice(0, 2).some((q) => !q.inTolerance);
-  let likelyCause: LikelyCause | null = null;
-  if (physical && deviated) {
-    likelyCause = explainDeviation(quantities[0], quantities[1], sensitivities, values);
-    if (likelyCause.explains < 0.8) notes.push('No single component explains the deviation well: more than one part may have moved, or the topology differs.');
+  const levels = levelQuantities(design, fit, limit);
+  quantities.push(...levels.rows);
+  notes.push(...levels.notes);
+  const levelOut = levels.rows.some((q) => !q.inTolerance);
+  let likelyCause = shapeOut ? componentCause : null;
+  if (levelOut) {
+    likelyCause = sourceCause(design, levels.rows);
+    if (likelyCause.explains < EXPLAINS_WELL) {
+      notes.push('The levels are not the design\'s scaled by one source step: an offset (probe or source) or a different initial state is more likely.');
+    }
+    if (shapeOut && componentCause) {
+      notes.push(
+        `The response's shape differs too: ${componentCause.component} about ${(Math.abs(componentCause.change) * 100).toFixed(1)} % ` +
+          `${componentCause.change >= 0 ? 'high' : 'low'} explains ${(componentCause.explains * 100).toFixed(0)} % of the alpha and omega0 deviation.`,
+      );
+    }
   }
 
   return {
@@ -148,10 +191,80 @@ function compare(name: string, design: Quantity, measured: Quantity, limit: numb
   return { name, design, measured, marginSigma, inTolerance: marginSigma <= limit };
 }
 
-function tightestComponent(design: Design): ComponentName {
-  return KNOWN_PREFERENCE.reduce((best, name) =>
+/** The component with the tightest tolerance, leaving out `except` (the likely cause: it did not stay at its design value). */
+function tightestComponent(design: Design, except?: ComponentName | 'source'): ComponentName {
+  return KNOWN_PREFERENCE.filter((name) => name !== except).reduce((best, name) =>
     design.components[name].tolerance < design.components[best].tolerance ? name : best,
   );
+}
+
+const LEVEL_NAMES: Record<keyof DesignLevels, string> = { preLevel: 'initial level', finalValue: 'final value', swing: 'swing' };
+
+/**
+ * The measured levels against the design's: before the event and final; with the swing too when the
+ * design's two levels are equal (a current or a resistor voltage, whose levels do not show the step).
+ */
+function levelQuantities(design: Design, fit: FittedResponse, limit: number): { rows: VerdictQuantity[]; notes: string[] } {
+  const p = fit.params;
+  if (!p) return { rows: [], notes: [] };
+  const unit = probeUnit(design);
+  const expected = designLevels(design);
+  const tolerance = design.source.levelTolerance ?? DEFAULT_LEVEL_TOLERANCE;
+  const u = toleranceToRelativeUncertainty(tolerance);
+  const designed = (value: number) => quantity(value, u * Math.max(Math.abs(value), expected.swing), unit);
+  const measuredSwing = quantity(responseSwing(p.a, p.b - p.alpha * p.a, p.omega0), null, unit);
+  const rows = [
+    compare(LEVEL_NAMES.preLevel, designed(expected.preLevel), fit.preLevel ?? quantity(p.yPre, null, unit), limit),
+    compare(LEVEL_NAMES.finalValue, designed(expected.finalValue), fit.finalValue ?? quantity(p.yFinal, null, unit), limit),
+  ];
+  const showsStep = expected.preLevel !== expected.finalValue;
+  if (!showsStep) rows.push(compare(LEVEL_NAMES.swing, quantity(expected.swing, u * expected.swing, unit), measuredSwing, limit));
+  const stated = design.source.levelTolerance === undefined ? `${DEFAULT_LEVEL_TOLERANCE * 100} % (the design states no source.levelTolerance)` : `${tolerance * 100} % (source.levelTolerance)`;
+  const notes = [
+    `Levels in tolerance: within ${limit} sigma, the design's level uncertainty from ${stated} of the larger of the level and the swing, rectangular.`,
+  ];
+  if (!showsStep) notes.push('The swing, sqrt(a^2 + (slope / omega0)^2) at the event, has no fitted standard error: its margin uses the level tolerance alone.');
+  return { rows: rows.filter((q) => Number.isFinite(q.measured.value)), notes };
+}
+
+/**
+ * The source's step (or initial state) scaled by k: the levels are affine in k, so k follows by weighted
+ * least squares over the level rows (weights 1 / u_design^2); `explains` is the share of the weighted
+ * squared level deviation that the scaled source accounts for.
+ */
+function sourceCause(design: Design, rows: readonly VerdictQuantity[]): LikelyCause {
+  const at = (k: number) => designLevels({ ...design, source: scaledSource(design.source, k) });
+  const base = at(1);
+  const doubled = at(2);
+  let dg = 0;
+  let gg = 0;
+  let dd = 0;
+  const terms = rows.map((q) => {
+    const name = levelKey(q.name);
+    const w = 1 / (q.design.stderr ?? 1) ** 2;
+    const d = q.measured.value - base[name];
+    const g = doubled[name] - base[name];
+    dg += w * d * g;
+    gg += w * g * g;
+    dd += w * d * d;
+    return { w, d, g };
+  });
+  const change = gg > 0 ? dg / gg : 0;
+  const left = terms.reduce((sum, { w, d, g }) => sum + w * (d - change * g) ** 2, 0);
+  const s = design.source;
+  const stated = s.kind === 'step' ? s.amplitude : s.capacitorVoltage !== 0 ? s.capacitorVoltage : s.inductorCurrent;
+  const unit = s.kind === 'step' ? (design.topology === 'series' ? 'V' : 'A') : s.capacitorVoltage !== 0 ? 'V' : 'A';
+  return { component: 'source', change, impliedValue: quantity(stated * (1 + change), null, unit), explains: dd > 0 ? Math.max(0, 1 - left / dd) : 1 };
+}
+
+function scaledSource(source: DesignSource, k: number): DesignSource {
+  return source.kind === 'step'
+    ? { ...source, amplitude: source.amplitude * k }
+    : { ...source, capacitorVoltage: source.capacitorVoltage * k, inductorCurrent: source.inductorCurrent * k };
+}
+
+function levelKey(rowName: string): keyof DesignLevels {
+  return (Object.keys(LEVEL_NAMES) as (keyof DesignLevels)[]).find((key) => LEVEL_NAMES[key] === rowName)!;
 }
 
 

@@ -30,6 +30,14 @@ describe('parseDesign', () => {
     expect(d.probe).toBe('capacitor-voltage');
   });
 
+  it('reads the source level tolerance of either kind, and writes it back', () => {
+    const step = parseDesign(withChange((d) => (d.source.levelTolerance = 0.05)));
+    expect(step.source).toEqual({ kind: 'step', amplitude: 48, initialLevel: 0, levelTolerance: 0.05 });
+    expect(parseDesign(serializeDesign(step))).toEqual(step);
+    const natural = parseDesign(withChange((d) => (d.source = { kind: 'natural', capacitorVoltage: 20, levelTolerance: 0.02 })));
+    expect(natural.source.levelTolerance).toBe(0.02);
+  });
+
   it('reads a natural source, a missing tolerance as 0, and resistor markings such as 4k7', () => {
     const d = parseDesign(
       withChange((x) => {
@@ -72,6 +80,7 @@ describe('parseDesign', () => {
     { label: 'a zero step', text: withChange((d) => (d.source.amplitude = 0)), path: 'source.amplitude', message: /not be zero/ },
     { label: 'a natural source at rest', text: withChange((d) => (d.source = { kind: 'natural' })), path: 'source', message: /needs/ },
     { label: 'a step field on a natural source', text: withChange((d) => (d.source = { kind: 'natural', capacitorVoltage: 5, amplitude: 3 })), path: 'source.amplitude', message: /unknown field/ },
+    { label: 'a level tolerance of 100 %', text: withChange((d) => (d.source.levelTolerance = 1)), path: 'source.levelTolerance', message: /between 0 and 1/ },
     { label: 'an unknown top-level field', text: withChange((d) => (d.colour = 'red')), path: 'colour', message: /unknown field/ },
   ];
   it.each(faults)('throws DesignError at "$path" for $label', ({ text, path, message }) => {

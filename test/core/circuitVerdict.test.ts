@@ -1,9 +1,10 @@
 // checkDesign: the in/out rule, derived components, the RMS difference and the likely cause.
 import { describe, expect, it } from 'vitest';
 import type { Design } from '../../core/circuit/design';
-import { predictResponse } from '../../core/circuit/predict';
+import { predictResponse, responseForValues } from '../../core/circuit/predict';
 import type { Topology } from '../../core/circuit/relations';
 import { checkDesign, type FittedResponse } from '../../core/circuit/verdict';
+import type { Probe } from '../../core/circuit/design';
 import { quantity } from '../../core/quantity';
 import { evaluateResponse } from '../../core/response/secondOrder';
 
@@ -152,5 +153,107 @@ describe('checkDesign', () => {
     const v = checkDesign(d, { ...fit, alpha: quantity(fit.alpha.value, null, 's^-1') }, { time, values: new Float64Array(time.length) });
     expect(v.notes.join(' ')).toMatch(/unknown/);
     expect(v.quantities[0].marginSigma).toBeCloseTo(0, 9);
+  });
+});
+
+describe('checkDesign: the levels and the source step', () => {
+  /** The design of the gate loop with another probe, source and level tolerance. */
+  function designWith(probe: Probe, amplitude: number, levelTolerance?: number): Design {
+    const d = makeDesign(GATE.topology, GATE.R, GATE.L, GATE.C, TOL);
+    return { ...d, probe, source: { kind: 'step', amplitude, initialLevel: 0, ...(levelTolerance === undefined ? {} : { levelTolerance }) } };
+  }
+
+  /** A fit of the board as built, driven by `amplitude`, levels with relative standard errors of 1e-4. */
+  function builtFit(probe: Probe, amplitude: number): FittedResponse {
+    const built = designWith(probe, amplitude);
+    const params = responseForValues(built, { R: GATE.R, L: GATE.L, C: GATE.C });
+    const unit = probe === 'inductor-current' ? 'A' : 'V';
+    const level = (v: number) => quantity(v, 1e-4 * Math.max(Math.abs(v), 1e-3), unit);
+    return { ...fitOf(GATE.topology, GATE.R, GATE.L, GATE.C), params, preLevel: level(params.yPre), finalValue: level(params.yFinal) };
+  }
+
+  const zeros = { time, values: new Float64Array(time.length) };
+
+  it('a 48 V design against a 12 V capture fails on the final value, and names the source step as the cause', () => {
+    const v = checkDesign(designWith('capacitor-voltage', 48), builtFit('capacitor-voltage', 12), zeros);
+    const byName = Object.fromEntries(v.quantities.map((q) => [q.name, q]));
+    expect(v.pass).toBe(false);
+    expect(byName['final value'].inTolerance).toBe(false);
+    expect(byName['initial level'].inTolerance).toBe(true);
+    for (const name of ['alpha', 'omega0', 'zeta', 'Q', 'R', 'L']) expect(byName[name].inTolerance).toBe(true);
+    expect(v.likelyCause!.component).toBe('source');
+    expect(v.likelyCause!.change).toBeCloseTo(-0.75, 6);
+    expect(v.likelyCause!.impliedValue.value).toBeCloseTo(12, 6);
+    expect(v.likelyCause!.impliedValue.unit).toBe('V');
+    expect(v.likelyCause!.explains).toBeCloseTo(1, 6);
+  });
+
+  it('the same board driven as designed passes, levels included', () => {
+    const v = checkDesign(designWith('capacitor-voltage', 12), builtFit('capacitor-voltage', 12), zeros);
+    expect(v.pass).toBe(true);
+    expect(v.likelyCause).toBeNull();
+    expect(v.quantities.map((q) => q.name)).toEqual(['alpha', 'omega0', 'zeta', 'Q', 'R', 'L', 'initial level', 'final value']);
+  });
+
+  it('a current probe, whose levels are both zero, fails on the swing (the peak current scales with the step)', () => {
+    const v = checkDesign(designWith('inductor-current', 48), builtFit('inductor-current', 12), zeros);
+    const swing = v.quantities.find((q) => q.name === 'swing')!;
+    expect(swing.inTolerance).toBe(false);
+    // Series step into a loop at rest: i(0+) = 0, di/dt(0+) = V / L, so the swing is V / (L omega0) = V sqrt(C / L) (derived, KVL).
+    expect(swing.design.value).toBeCloseTo(48 * Math.sqrt(GATE.C / GATE.L), 9);
+    expect(swing.measured.value).toBeCloseTo(12 * Math.sqrt(GATE.C / GATE.L), 9);
+    expect(v.pass).toBe(false);
+    expect(v.likelyCause!.component).toBe('source');
+    expect(v.likelyCause!.change).toBeCloseTo(-0.75, 6);
+  });
+
+  it.each([
+    { label: '8 % low passes the default 10 % level tolerance', amplitude: 12 * 0.92, tolerance: undefined, pass: true },
+    { label: '8 % low fails a stated 5 %', amplitude: 12 * 0.92, tolerance: 0.05, pass: false },
+    { label: '15 % low fails the default', amplitude: 12 * 0.85, tolerance: undefined, pass: false },
+  ])('$label', ({ amplitude, tolerance, pass }) => {
+    const v = checkDesign(designWith('capacitor-voltage', 12, tolerance), builtFit('capacitor-voltage', amplitude), zeros);
+    expect(v.pass).toBe(pass);
+    expect(v.notes.join(' ')).toMatch(tolerance === undefined ? /10 % \(the design states no source\.levelTolerance\)/ : /5 % \(source\.levelTolerance\)/);
+  });
+
+  it('an offset (both levels moved alike) is not read as a different step', () => {
+    const fit = builtFit('capacitor-voltage', 12);
+    const shifted = { ...fit, preLevel: quantity(2, 1e-3, 'V'), finalValue: quantity(14, 1e-3, 'V') };
+    const v = checkDesign(designWith('capacitor-voltage', 12), shifted, zeros);
+    expect(v.pass).toBe(false);
+    expect(v.likelyCause!.component).toBe('source');
+    expect(v.likelyCause!.explains).toBeLessThan(0.8);
+    expect(v.notes.join(' ')).toMatch(/offset/);
+  });
+
+  it('without the fitted model there are no level rows (nothing to compare)', () => {
+    const v = checkDesign(designWith('capacitor-voltage', 48), fitOf(GATE.topology, GATE.R, GATE.L, GATE.C), zeros);
+    expect(v.quantities.some((q) => q.name === 'final value')).toBe(false);
+  });
+});
+
+describe('checkDesign: the likely cause agrees with the table', () => {
+  it.each([
+    { component: 'C' as Name, change: 0.3 },
+    { component: 'L' as Name, change: -0.25 },
+    { component: 'R' as Name, change: 0.4 },
+  ])('$component moved by $change: its own row is out, and the part taken as known is another', ({ component, change }) => {
+    const d = makeDesign(GATE.topology, GATE.R, GATE.L, GATE.C, TOL);
+    const built = { ...GATE, [component]: GATE[component] * (1 + change) };
+    const v = checkDesign(d, fitOf(GATE.topology, built.R, built.L, built.C), { time, values: new Float64Array(time.length) });
+    expect(v.likelyCause!.component).toBe(component);
+    const row = v.quantities.find((q) => q.name === component)!;
+    expect(row).toBeDefined();
+    expect(row.inTolerance).toBe(false);
+    expect(row.measured.value / built[component] - 1).toBeCloseTo(0, 6);
+    for (const other of v.quantities.filter((q) => ['R', 'L', 'C'].includes(q.name) && q.name !== component)) expect(other.inTolerance).toBe(true);
+  });
+
+  it('a known part chosen by hand that is the likely cause is said to carry its change into the other rows', () => {
+    const d = makeDesign(GATE.topology, GATE.R, GATE.L, GATE.C, TOL);
+    const v = checkDesign(d, fitOf(GATE.topology, GATE.R, GATE.L, GATE.C * 1.3), { time, values: new Float64Array(time.length) }, { knownComponent: 'C' });
+    expect(v.likelyCause!.component).toBe('C');
+    expect(v.notes.join(' ')).toMatch(/likely cause is C, the part taken at its design value/);
   });
 });
