@@ -14,26 +14,70 @@ const MAX_ITERATIONS = 60;
 const MIN_SCALED_RATE = 1e-9;
 /** A start can hold a vanishing alpha (an almost undamped ring); the solver needs it inside its bounds. */
 const MIN_SCALED_START_ALPHA = 1e-6;
+/**
+ * Lower bound of the scaled product of the time constants, (omega0 start / omega0)^2: omega0 at most 1000
+ * times its start. Towards it the fast root runs off to infinity (the single-decay limit); the bound keeps
+ * the split of the two roots in the response's basis (alpha - sqrt(alpha^2 - omega0^2)) well above rounding.
+ */
+const MIN_SCALED_PRODUCT = 1e-6;
 /** How many recent parameter vectors' models are kept (the solver revisits the last few). */
 const MODEL_CACHE_SIZE = 4;
 
+export interface RefineOptions {
+  /** Hold zeta = alpha / omega0 at this value and fit the rest (a point of zeta's profile). */
+  fixedZeta?: number;
+}
+
+/** The solver's variables for the rates and how they map back to alpha and omega0. */
+interface RateCoordinates {
+  names: string[];
+  start: number[];
+  min: number[];
+  toRates(u: readonly number[]): { alpha: number; omega0: number };
+}
+
 /**
- * Levenberg-Marquardt over the nonlinear parameters only (alpha, omega0 and t0 where fitted), scaled
- * to order one; for each trial the levels and amplitudes follow by linear least squares (variable
+ * Rates scaled by the starting omega0 for a ring. For an overdamped start, the sum and the product of the
+ * two time constants, 2 alpha / omega0^2 and 1 / omega0^2 (scaled): the valley towards a single decay, where
+ * alpha and omega0 both run off to infinity, is a straight line to a finite point in them, so the solver
+ * walks it instead of crawling. With zeta held, omega0 alone.
+ */
+function rateCoordinates(start: RateCandidate, options: RefineOptions): RateCoordinates {
+  const rate = start.omega0;
+  const { fixedZeta } = options;
+  if (fixedZeta !== undefined) {
+    return { names: ['omega0'], start: [1], min: [MIN_SCALED_RATE], toRates: ([w]) => ({ alpha: fixedZeta * w * rate, omega0: w * rate }) };
+  }
+  const zeta = start.alpha / start.omega0;
+  if (zeta > 1) {
+    return {
+      names: ['timeSum', 'timeProduct'],
+      start: [2 * zeta, 1],
+      min: [MIN_SCALED_RATE, MIN_SCALED_PRODUCT],
+      toRates: ([sum, product]) => ({ alpha: (sum * rate) / (2 * product), omega0: rate / Math.sqrt(product) }),
+    };
+  }
+  return {
+    names: ['alpha', 'omega0'],
+    start: [Math.max(zeta, MIN_SCALED_START_ALPHA), 1],
+    min: [MIN_SCALED_RATE, MIN_SCALED_RATE],
+    toRates: ([alpha, omega0]) => ({ alpha: alpha * rate, omega0: omega0 * rate }),
+  };
+}
+
+/**
+ * Levenberg-Marquardt over the nonlinear parameters only (the rates and t0 where fitted), scaled to
+ * order one; for each trial the levels and amplitudes follow by linear least squares (variable
  * projection, Golub and Pereyra 1973), so the solver never wanders in the linear directions.
  * The solver sees sample indices as its x, so each parameter vector costs one pass over the data.
  */
-export function refine(set: FitSet, layout: ParameterLayout, start: RateCandidate, t0Start: number): Attempt {
-  const { nonlinear } = LAYOUTS[layout];
+export function refine(set: FitSet, layout: ParameterLayout, start: RateCandidate, t0Start: number, options: RefineOptions = {}): Attempt {
+  const fitsT0 = LAYOUTS[layout].fitsT0;
   const rate = start.omega0;
-  // Rates are scaled by the starting omega0, and t0 enters as 1 + (t0 - t0Start) omega0, so that every
-  // solver variable starts near 1.
-  const toPhysical = (u: readonly number[]) => nonlinear.map((name, j) => (name === 't0' ? t0Start + (u[j] - 1) / rate : u[j] * rate));
-  const physical = (u: readonly number[]) => {
-    const values = toPhysical(u);
-    const at = (name: string) => values[nonlinear.indexOf(name)];
-    return { values, alpha: at('alpha'), omega0: at('omega0'), t0: nonlinear.includes('t0') ? at('t0') : t0Start };
-  };
+  const rates = rateCoordinates(start, options);
+  const k = rates.names.length;
+  // t0 enters as 1 + (t0 - t0Start) omega0, so that every solver variable starts near 1.
+  const physical = (u: readonly number[]) => ({ ...rates.toRates(u.slice(0, k)), t0: fitsT0 ? t0Start + (u[k] - 1) / rate : t0Start });
   const workspace = new Workspace(set.time.length);
   // The solver asks point by point, alternating between two vectors for central differences,
   // so the model is kept for the last few parameter vectors it was asked about.
@@ -50,23 +94,28 @@ export function refine(set: FitSet, layout: ParameterLayout, start: RateCandidat
     return entry.model;
   };
   const model = {
-    names: [...nonlinear],
+    names: fitsT0 ? [...rates.names, 't0'] : rates.names,
     evaluate: (u: readonly number[], index: number) => modelFor(u)[index],
   };
   const indices = Float64Array.from(set.time, (_, i) => i);
-  const min = nonlinear.map((name) => (name === 't0' ? -Infinity : MIN_SCALED_RATE));
-  const scaledStart: Record<string, number> = { alpha: Math.max(start.alpha / rate, MIN_SCALED_START_ALPHA), omega0: start.omega0 / rate, t0: 1 };
-  const initial = nonlinear.map((name) => scaledStart[name]);
+  const min = fitsT0 ? [...rates.min, -Infinity] : rates.min;
+  const initial = fitsT0 ? [...rates.start, 1] : rates.start;
   const result = fitCurve(model, { x: indices, y: set.values }, initial, { min, maxIterations: MAX_ITERATIONS });
-  const { values, alpha, omega0, t0 } = physical(result.parameters.map((p) => p.value));
+  const { alpha, omega0, t0 } = physical(result.parameters.map((p) => p.value));
   const linear = solveAmplitudes(layout, set.time, set.values, alpha, omega0, t0, workspace, set.block);
+  const named: Record<string, number> = { alpha, omega0, t0 };
   return {
     layout,
-    values: [...values, ...linear.coefficients],
+    values: [...LAYOUTS[layout].nonlinear.map((name) => named[name]), ...linear.coefficients],
     sse: Number.isFinite(linear.sse) ? linear.sse : Infinity,
     ...stallAsConvergence(result.status, result.message),
     iterations: result.iterations,
-    warnings: result.warnings.filter((w) => !/covariance/i.test(w)),
+    warnings: [
+      ...result.warnings.filter((w) => !/covariance|^time(Sum|Product) /i.test(w)),
+      ...(rates.names.includes('timeProduct') && result.parameters[1].atBound
+        ? ['the fast root ran to the solver\'s limit (omega0 1000 times its start): a single decay fits the record about as well']
+        : []),
+    ],
   };
 }
 

@@ -1,7 +1,7 @@
 // Covariance of the response parameters: Jacobian at the solution, as a sandwich over the residuals' noise model when they are correlated.
 
 import { covarianceFromJacobian, sandwichCovariance } from './covariance';
-import { widenByZetaProfile } from './profileWidening';
+import { widenAlongZetaProfile } from './profileWidening';
 import { LAYOUTS, layoutValues, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
 
@@ -149,7 +149,17 @@ export function responseCovariance(
   residualVariance: number,
 ): ResponseCovariance {
   const local = localCovariance(set, layout, values, t0Fixed, residualVariance);
-  return widenByZetaProfile(local, set, layout, values, t0Fixed, residualVariance);
+  if (!local.covariance) return local;
+  // The profile's levels are in residual variances, raised as the correlated residuals raise the variances.
+  const widened = widenAlongZetaProfile(set, layout, values, t0Fixed, residualVariance * Math.max(1, local.inflation), local.covariance);
+  if (!widened) return local;
+  const c = widened.covariance;
+  return {
+    ...local,
+    covariance: c,
+    correlation: c ? c.map((row, a) => row.map((v, b) => (a === b ? 1 : v / Math.sqrt(c[a][a] * c[b][b])))) : null,
+    warnings: [...local.warnings, ...widened.warnings],
+  };
 }
 
 /** The Jacobian's covariance at the solution, as a sandwich when the residuals are correlated. */
