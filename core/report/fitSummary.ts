@@ -5,6 +5,7 @@ import type { Quantity } from '../quantity';
 import type { ResponseParams } from '../response/secondOrder';
 import type { TransitionSummary } from '../circuit/transitionSummary';
 import type { ImportSummary } from '../capture/importSummary';
+import type { EventTrainSummary } from './eventTrainSummary';
 
 export interface ComponentSet {
   R: Quantity;
@@ -40,6 +41,8 @@ export interface FitSummary {
   transitions?: TransitionSummary;
   /** What the importer inferred from the capture file (absent where the capture did not come through the importer). */
   import?: ImportSummary;
+  /** Present when the record holds several events (a square wave or a pulse train): each, the one fitted above, and their combination. */
+  events?: EventTrainSummary;
 }
 
 export function summarizeFit(

@@ -2,6 +2,7 @@
 
 import { formatEngineering } from '../units/format';
 import type { FitSummary } from './fitSummary';
+import { formatEventsText } from './eventsText';
 import { importRows } from './importText';
 import { fitResultRows, fitTransitionRows, transitionNote } from './resultRows';
 
@@ -29,6 +30,7 @@ export function formatFitText(s: FitSummary): string {
   text += line('residual rms', `${formatEngineering(s.rmsResidual, s.finalValue.unit)} (noise ${formatEngineering(s.noiseRms, s.finalValue.unit)})`);
   text += line('samples used', `${s.samplesUsed}${s.decimation ? ` (${s.decimation.note})` : ''}`);
   text += line('fit window', `${formatEngineering(s.window.start, 's')} to ${formatEngineering(s.window.end, 's')}`);
+  if (s.events) text += formatEventsText(s.events);
   for (const w of s.warnings) text += `  warning: ${w}\n`;
   for (const w of s.transitions?.warnings ?? []) text += `  warning: transitions: ${w}\n`;
   return text;

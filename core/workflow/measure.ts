@@ -15,6 +15,7 @@ import { summarizeFit, type FitSummary } from '../report/fitSummary';
 import { cautionInputsFromCapture, type CautionComponents } from '../safety/cautionInputs';
 import { evaluateCautions, type CautionResult } from '../safety/evaluateCautions';
 import { deriveComponents, type KnownPartRequest } from './measuredComponents';
+import { fitEvents } from './events';
 
 /** A fit window, s; an edge left out is found from the data. */
 export interface FitWindow {
@@ -36,6 +37,8 @@ export interface MeasureRequest {
   design?: Design;
   /** The event time to place the design's prediction at when the window was set by hand, s. Default: the fit's t0. */
   eventTime?: number;
+  /** Which event of a record holding several to measure, 1-based (see fitEvents). Default: the first complete one. */
+  event?: number;
 }
 
 export interface MeasureResult {
@@ -93,7 +96,7 @@ function warnIfImplausible(summary: FitSummary, channel: Channel): void {
  * fit that cannot run throws; a bad design or known part for this capture is a problem in the result.
  */
 export function measureCapture(request: MeasureRequest): MeasureResult {
-  const { fit, summary } = fitChannel(request.file, request.channel, request.window, request.captureWarnings);
+  const { fit, summary } = fitEvents(request);
   if (request.importSummary) summary.import = request.importSummary;
   const { knownPart, design } = request;
   const components = knownPart ? attempt(() => deriveComponents(fit, knownPart)) : NOT_ASKED;

@@ -28,6 +28,8 @@ export interface MeasureSettings {
   valueUnit?: string;
   /** Which segment of a file of repeated acquisitions to read, 1-based, e.g. '2'. Default: the first. */
   segment?: string;
+  /** Which event to measure in a record holding several, 1-based, e.g. '2'. Default: the first complete one. */
+  event?: string;
 }
 
 export interface ParsedMeasureSettings {
@@ -40,6 +42,7 @@ export interface ParsedMeasureSettings {
   segment?: number;
   window: FitWindow;
   knownPart?: KnownPartRequest;
+  event?: number;
 }
 
 export function parseMeasureSettings(settings: MeasureSettings): ParsedMeasureSettings {
@@ -58,10 +61,18 @@ export function parseMeasureSettings(settings: MeasureSettings): ParsedMeasureSe
   if (settings.timeUnit !== undefined) parsed.timeUnit = parseStatedUnit(settings.timeUnit, true, '--time-unit');
   if (settings.valueUnit !== undefined) parsed.valueUnit = parseStatedUnit(settings.valueUnit, false, '--value-unit');
   if (settings.segment !== undefined) parsed.segment = parseSegmentNumber(settings.segment);
+  if (settings.event !== undefined) parsed.event = parseEventNumber(settings.event);
   if (settings.topology !== undefined && settings.known !== undefined) {
     parsed.knownPart = { topology: parseTopology(settings.topology), known: parseKnown(settings.known) };
   }
   return parsed;
+}
+
+/** --event: a whole number from 1 (the events are counted from 1 in time order). */
+function parseEventNumber(text: string): number {
+  const n = /^\s*\d+\s*$/.test(text) ? Number(text) : NaN;
+  if (!Number.isSafeInteger(n) || n < 1) throw new UsageError(`--event: '${text}' is not an event number (1, 2, ...)`);
+  return n;
 }
 
 /** --segment: a number (the importer, which knows how many segments the file holds, refuses one naming none). */

@@ -1,0 +1,163 @@
+// Several events in one record (a square wave or a pulse train driving the circuit): each ring fitted on
+// its own window, one chosen as the measurement, and the complete ones combined with a test of their spread.
+
+import type { Channel } from '../capture/types';
+import { summarizeTransitions } from '../circuit/transitionSummary';
+import { combineEstimates, type CombinedValue } from '../fit/eventCombination';
+import { findEventTrain, type EventSpan } from '../fit/eventTrain';
+import { fitResponse, type ResponseFit } from '../fit/fitResponse';
+import { FitInputError } from '../fit/fitInputError';
+import { estimateNoise } from '../fit/noise';
+import { UsageError } from '../inputError';
+import { quantity, type Quantity } from '../quantity';
+import type { CombinedEstimate, EventEntry, EventTrainSummary } from '../report/eventTrainSummary';
+import { summarizeFit, type FitSummary } from '../report/fitSummary';
+
+export interface EventsRequest {
+  file: string;
+  channel: Channel;
+  window?: { start?: number; end?: number };
+  captureWarnings?: readonly string[];
+  /** The event to report as the measurement, 1-based. Default: the first complete one that converged. */
+  event?: number;
+}
+
+/** A ring seen for this many time constants before the next event is complete even if not yet in the noise (e^-3 = 5 %). */
+const COMPLETE_TIME_CONSTANTS = 3;
+/**
+ * The combination is inconsistent when either spread (alpha's or omega0's) is this unlikely with the
+ * stated errors: 1 % shared over the two tests, so honest errors are flagged once in a hundred records.
+ */
+const SPREAD_P_LIMIT = 0.005;
+/** An event's fit leaving a residual this many times the noise is a misfit (white noise alone gives about 1). */
+const MISFIT_RESIDUAL = 3;
+
+/**
+ * The fit of a channel, event by event when the record holds several. The default measurement is the
+ * first complete event, not the combination: its fit is one model of one ring, so the plot, the fit window
+ * and the residual describe what was fitted, and a changing circuit shows as events that disagree rather
+ * than as one average; the combination (a tighter alpha and omega0, and the test that the events agree) is
+ * reported beside it. An event's fit starts inside its response, so it has no step metrics. A record with
+ * one event is fitted whole, as before; --event N beyond the events found is bad input.
+ */
+export function fitEvents(request: EventsRequest): { fit: ResponseFit; summary: FitSummary } {
+  const { channel, file } = request;
+  const trace = { time: channel.time, values: channel.values, clipped: channel.clipped, unit: channel.unit, name: channel.name };
+  const { first, spans } = eventsOf(channel, request.window ?? {});
+  const count = Math.max(1, spans.length);
+  if (request.event !== undefined && request.event > count) {
+    throw new UsageError(`--event ${request.event}: the record holds ${count} event${count === 1 ? '' : 's'}`);
+  }
+  if (spans.length < 2) {
+    const whole = fitResponse(trace, { window: request.window ?? {} });
+    const summary = summarizeFit(file, channel.name, whole, undefined, [...(request.captureWarnings ?? [])]);
+    summary.transitions = summarizeTransitions(channel, whole);
+    return { fit: whole, summary };
+  }
+
+  const fits = spans.map((span) => fitSpan(trace, channel.time, first, span));
+  const list = spans.map((span, i) => entryOf(i + 1, span, fits[i], channel.time, first));
+  const chosen = request.event ?? defaultEvent(list);
+  const fit = fits[chosen - 1];
+  if (!fit) throw new FitInputError('window', `event ${chosen} holds too few samples to fit: ${list[chosen - 1].message}`);
+  const summary = summarizeFit(file, channel.name, fit, undefined, [...(request.captureWarnings ?? [])]);
+  const events: EventTrainSummary = { chosen, chosenBy: request.event === undefined ? 'default' : 'request', list, ...combine(list) };
+  summary.events = events;
+  // No step metrics: the event's fit starts inside its response, so no level before it is known.
+  return { fit, summary };
+}
+
+/** The events inside the window, in sample indices counted from `first`, the window's first sample. */
+function eventsOf(channel: Channel, window: { start?: number; end?: number }): { first: number; spans: EventSpan[] } {
+  const { time, values } = channel;
+  let first = 0;
+  while (first < time.length && time[first] < (window.start ?? -Infinity)) first++;
+  let last = first;
+  while (last < time.length && time[last] <= (window.end ?? Infinity)) last++;
+  const inWindow = values.subarray(first, last);
+  return { first, spans: findEventTrain(inWindow, estimateNoise(inWindow)) };
+}
+
+/**
+ * The fit of one event's natural response, or null when its window holds too few samples. A fit that leaves
+ * a residual of several noise levels has not found one ring (an event the search missed shares its window):
+ * it is no answer.
+ */
+function fitSpan(trace: Parameters<typeof fitResponse>[0], time: Float64Array, first: number, span: EventSpan): ResponseFit | null {
+  try {
+    const fit = fitResponse(trace, { window: { start: time[first + span.start], end: time[first + span.end - 1] } });
+    const excess = fit.rmsResidual / fit.noiseRms;
+    if (fit.status !== 'converged' || !(excess > MISFIT_RESIDUAL)) return fit;
+    return { ...fit, status: 'failed', message: `the residual is ${excess.toFixed(1)} times the noise: the window holds more than this event's ring` };
+  } catch (error) {
+    if (error instanceof FitInputError) return null;
+    throw error;
+  }
+}
+
+function entryOf(index: number, span: EventSpan, fit: ResponseFit | null, time: Float64Array, first: number): EventEntry {
+  const onset = time[first + span.onset];
+  const end = time[first + span.end - 1];
+  const converged = fit !== null && fit.status === 'converged';
+  const longEnough = converged && fit.alpha.value * (end - onset) >= COMPLETE_TIME_CONSTANTS;
+  return {
+    index,
+    onset,
+    start: time[first + span.start],
+    end,
+    hasOnset: span.hasOnset,
+    complete: span.hasOnset && (span.settledAtEnd || longEnough),
+    status: fit ? fit.status : 'not fitted',
+    message: fit ? fit.message : 'too few samples between this event and the next',
+    alpha: converged ? fit.alpha : null,
+    omega0: converged ? fit.omega0 : null,
+    zeta: converged ? fit.zeta : null,
+    Q: converged ? fit.Q : null,
+  };
+}
+
+/** The first complete event that converged; else the first that converged; else the first complete one. */
+function defaultEvent(list: EventEntry[]): number {
+  const pick = list.find((e) => e.complete && e.status === 'converged') ?? list.find((e) => e.status === 'converged') ?? list.find((e) => e.complete) ?? list[0];
+  return pick.index;
+}
+
+/** The weighted mean of the complete events that converged, with the chi-square of their spread. */
+function combine(list: EventEntry[]): { combined: CombinedEstimate | null; combinedNote: string } {
+  const used = list.filter((e) => e.complete && e.alpha && e.omega0);
+  const alpha = combineEstimates(used.map((e) => e.alpha as Quantity));
+  const omega0 = combineEstimates(used.map((e) => e.omega0 as Quantity));
+  if (!alpha || !omega0) {
+    return { combined: null, combinedNote: `not combined: ${used.length} complete event${used.length === 1 ? '' : 's'} with a converged fit and standard errors, two are needed` };
+  }
+  const worst = Math.min(alpha.pValue, omega0.pValue);
+  const consistent = worst >= SPREAD_P_LIMIT;
+  const zeta = ratio(alpha.value, omega0.value);
+  const Q = quantity(1 / (2 * zeta.value), zeta.stderr === null ? null : zeta.stderr / (2 * zeta.value ** 2), '');
+  return {
+    combined: {
+      status: consistent ? 'converged' : 'inconsistent',
+      message: consistent
+        ? 'the events agree within their stated errors'
+        : `the events disagree by more than their stated errors allow (p ${worst.toPrecision(2)} < ${SPREAD_P_LIMIT}): the circuit changed between them or an event is misfitted; errors scaled by the spread`,
+      events: used.map((e) => e.index),
+      alpha: alpha.value,
+      omega0: omega0.value,
+      zeta,
+      Q,
+      consistency: { alpha: spreadOf(alpha), omega0: spreadOf(omega0), pLimit: SPREAD_P_LIMIT },
+    },
+    combinedNote: '',
+  };
+}
+
+function spreadOf(c: CombinedValue) {
+  return { chiSquare: c.chiSquare, dof: c.dof, pValue: c.pValue, scale: c.scale };
+}
+
+/** a / b with first-order error propagation (the events' alpha and omega0 are nearly uncorrelated in a ringdown fit). */
+function ratio(a: Quantity, b: Quantity): Quantity {
+  const value = a.value / b.value;
+  const stderr = a.stderr === null || b.stderr === null ? null : Math.abs(value) * Math.hypot(a.stderr / a.value, b.stderr / b.value);
+  return quantity(value, stderr, '');
+}
