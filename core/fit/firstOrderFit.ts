@@ -2,9 +2,39 @@
 
 import { fitCurve } from './fitCurve';
 import { solveAmplitudes, Workspace } from './amplitudes';
-import { LAYOUTS, type ParameterLayout } from './responseModel';
+import { firstOrderLayoutFor, LAYOUTS, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
-import type { Attempt } from './attempt';
+import { attemptT0, attemptValue, type Attempt } from './attempt';
+import { jumpOf, scanEventTime, showsJump } from './jumpStart';
+
+/** A first-order attempt and the event time a layout that holds t0 is held at. */
+export interface FirstOrderFit {
+  attempt: Attempt;
+  t0: number;
+}
+
+/**
+ * The first-order fit that suits the record: from the first sample when no level precedes the event,
+ * with a free start when a jump was found or stated; else continuous, unless the single decay itself
+ * jumps (an RC circuit's charging current: a ring's continuous fit takes that jump for an unresolved
+ * fast root, so the jump is looked for here too). A jump's event time is held between the samples
+ * either side of it, found with the decay's own rate.
+ */
+export function fitFirstOrderRecord(set: FitSet, record: { hasPreEvent: boolean; jumpStart: boolean }, t0Start: number, noise: number): FirstOrderFit | null {
+  if (!record.hasPreEvent) {
+    const fromStart = fitFirstOrder(set, firstOrderLayoutFor({ hasPreEvent: false, continuity: 'continuous' }), t0Start);
+    return fromStart && { attempt: fromStart, t0: t0Start };
+  }
+  // The decay's own fit at the given event time gives the rate the jump's place is looked for with.
+  const first = fitFirstOrder(set, record.jumpStart ? 'first-order-jump' : 'first-order', t0Start);
+  if (!first) return null;
+  const rate = attemptValue(first, 'alpha');
+  const { t0 } = scanEventTime(set, 'first-order-jump', { alpha: rate, omega0: rate }, t0Start, attemptT0(first, t0Start));
+  const jumping = fitFirstOrder(set, 'first-order-jump', t0);
+  if (record.jumpStart) return jumping && jumping.sse < first.sse ? { attempt: jumping, t0 } : { attempt: first, t0: t0Start };
+  if (jumping && showsJump(first, { attempt: jumping, t0, jump: jumpOf(jumping, t0) }, set, noise)) return { attempt: jumping, t0 };
+  return { attempt: first, t0: t0Start };
+}
 
 /** One nonlinear parameter and t0 converge in a few dozen steps from a start within a factor of 2. */
 const MAX_ITERATIONS = 100;

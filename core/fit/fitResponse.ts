@@ -3,12 +3,12 @@
 import { estimateNoise, quantisationStep, recordNoise } from './noise';
 import { detectEvent } from './eventDetection';
 import { rateCandidates } from './startingRates';
-import { firstOrderLayoutFor, LAYOUTS, layoutsFor } from './responseModel';
+import { LAYOUTS, layoutsFor } from './responseModel';
 import { firstSampleTime, MIN_FIT_SAMPLES, prepareFitSet, uniformValues } from './fitSet';
 import { attemptValue } from './attempt';
 import { searchLayouts } from './layoutSearch';
 import { chooseByInformation, explainRecord } from './modelSelection';
-import { fitFirstOrder } from './firstOrderFit';
+import { fitFirstOrderRecord } from './firstOrderFit';
 import { fitJumpStart, showsJump } from './jumpStart';
 import { refitAwayFromRails } from './railGuard';
 import { subCodeNoiseWarning } from './fitWarnings';
@@ -65,10 +65,13 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
       jumpStart = true;
     }
   }
-  const firstOrder = fitFirstOrder(set, firstOrderLayoutFor({ hasPreEvent, continuity: jumpStart ? 'free' : 'continuous' }), t0Start);
-  const explanation = explainRecord(best, firstOrder, set, t0Start);
+  const firstOrder = fitFirstOrderRecord(set, { hasPreEvent, jumpStart }, t0Start, noise);
+  const explanation = explainRecord(best, t0Start, firstOrder, set);
   if (explanation.choice === 'none') return noResponseFit(set, noise, warnings, explanation.evidence, trace.unit);
-  if (explanation.choice === 'first-order' && firstOrder) best = firstOrder;
+  if (explanation.choice === 'first-order' && firstOrder) {
+    ({ attempt: best, t0: t0Start } = firstOrder);
+    jumpStart = !LAYOUTS[best.layout].fitsT0 && hasPreEvent;
+  }
 
   // The raw samples' own noise: the rail guard's margin and the dither test are about single samples.
   const sampleNoise = estimateNoise(trace.values);

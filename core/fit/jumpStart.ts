@@ -6,7 +6,7 @@ import { attemptT0, attemptValue, type Attempt } from './attempt';
 import { searchLayouts } from './layoutSearch';
 import { effectiveSamples, information } from './modelSelection';
 import { refine } from './refine';
-import { unpackParams } from './responseModel';
+import { unpackParams, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
 import type { RateCandidate } from './startingRates';
 
@@ -44,7 +44,7 @@ export function fitJumpStart(
   stated: boolean,
 ): JumpStartFit | null {
   const rates = { alpha: attemptValue(continuous, 'alpha'), omega0: attemptValue(continuous, 'omega0') };
-  const { t0, sse } = bestEventTime(set, rates, t0Start, attemptT0(continuous, t0Start));
+  const { t0, sse } = scanEventTime(set, 'free-pre', rates, t0Start, attemptT0(continuous, t0Start));
   if (!stated && !beatsContinuous(continuous, sse, continuous.values.length + 1, set, t0)) return null;
   const tried = [
     refine(set, 'free-pre', { ...rates, source: 'continuous fit' }, t0),
@@ -52,12 +52,20 @@ export function fitJumpStart(
   ].filter((a) => Number.isFinite(a.sse));
   if (tried.length === 0) return null;
   const attempt = tried.reduce((x, y) => (y.sse < x.sse ? y : x));
-  const p = unpackParams('free-pre', attempt.values, t0);
-  return { attempt, t0, jump: p.yFinal + p.a - p.yPre };
+  return { attempt, t0, jump: jumpOf(attempt, t0) };
 }
 
-/** The held event time, among places one raw sample apart around both estimates, that leaves the least residual. */
-function bestEventTime(set: FitSet, rates: { alpha: number; omega0: number }, detected: number, fitted: number): { t0: number; sse: number } {
+/**
+ * The event time to hold a jumping layout at: among places one raw sample apart around the detected event
+ * and a continuous fit's t0, the one that leaves the least residual at the given rates.
+ */
+export function scanEventTime(
+  set: FitSet,
+  layout: ParameterLayout,
+  rates: { alpha: number; omega0: number },
+  detected: number,
+  fitted: number,
+): { t0: number; sse: number } {
   const rawStep = set.block?.spacing ?? set.dt;
   const reach = SCAN_VALUES * set.dt;
   const to = Math.max(detected, fitted) + reach;
@@ -68,7 +76,7 @@ function bestEventTime(set: FitSet, rates: { alpha: number; omega0: number }, de
   let bestSse = Infinity;
   // Half a step off the sample grid: between two samples, not on one.
   for (let t = detected - steps * rawStep + step / 2; t <= to; t += step) {
-    const { sse } = solveAmplitudes('free-pre', set.time, set.values, rates.alpha, rates.omega0, t, workspace, set.block);
+    const { sse } = solveAmplitudes(layout, set.time, set.values, rates.alpha, rates.omega0, t, workspace, set.block);
     if (sse < bestSse) {
       bestSse = sse;
       best = t;
@@ -85,6 +93,12 @@ function bestEventTime(set: FitSet, rates: { alpha: number; omega0: number }, de
 export function showsJump(continuous: Attempt, free: JumpStartFit, set: FitSet, noise: number): boolean {
   if (!(Math.abs(free.jump) > JUMP_NOISE * noise)) return false;
   return beatsContinuous(continuous, free.attempt.sse, free.attempt.values.length + 1, set, free.t0);
+}
+
+/** y(t0+) - yPre of an attempt of a layout with a level before the event, held at t0. */
+export function jumpOf(attempt: Attempt, t0: number): number {
+  const p = unpackParams(attempt.layout, attempt.values, t0);
+  return p.yFinal + p.a - p.yPre;
 }
 
 /** Whether a free-start residual with that many parameters beats the continuous fit on the information criterion. */

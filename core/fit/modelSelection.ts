@@ -56,10 +56,11 @@ export interface Explanation {
  * from memory). A ring must also beat the single decay, which is nested in it (omega0 = alpha with no
  * slope term); the single decay is kept when it explains the record as well.
  */
-export function explainRecord(ring: Attempt, firstOrder: Attempt | null, set: FitSet, t0Start: number): Explanation {
+export function explainRecord(ring: Attempt, t0Start: number, decay: { attempt: Attempt; t0: number } | null, set: FitSet): Explanation {
   const n = set.time.length;
-  const fitted = [ring, ...(firstOrder && Number.isFinite(firstOrder.sse) ? [firstOrder] : [])];
-  const nEff = effectiveSamples(fitted, set, t0Start);
+  const firstOrder = decay && Number.isFinite(decay.attempt.sse) ? decay.attempt : null;
+  const closer = firstOrder && decay && firstOrder.sse < ring.sse ? decay : { attempt: ring, t0: t0Start };
+  const nEff = effectiveSamples([closer.attempt], set, closer.t0);
   const constantSse = sumOfSquaresAboutMean(set.values);
   const test = (simpleSse: number, simpleParameters: number, rich: Attempt, searched: number) => {
     const fits = { simpleSse, simpleParameters, richSse: rich.sse, richParameters: rich.values.length, effectiveSamples: nEff };
@@ -70,7 +71,7 @@ export function explainRecord(ring: Attempt, firstOrder: Attempt | null, set: Fi
   const pText = (p: number) => (p < 1e-6 ? 'p < 1e-6' : `p = ${p.toPrecision(2)}`);
   let response = ring;
   let evidence = '';
-  if (fitted.length > 1 && firstOrder) {
+  if (firstOrder) {
     const ringOverDecay = test(firstOrder.sse, firstOrder.values.length, ring, 1);
     if (!ringOverDecay.accepted) {
       response = firstOrder;

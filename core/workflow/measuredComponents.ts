@@ -2,6 +2,7 @@
 
 import { componentsFromResponse, type KnownComponent, type Topology } from '../circuit/components';
 import { COMPONENT_UNITS } from '../circuit/relations';
+import { CircuitInputError } from '../circuit/errors';
 import { toleranceToRelativeUncertainty } from '../circuit/tolerance';
 import { alphaOmega0Correlation } from '../fit/correlation';
 import type { ResponseFit } from '../fit/fitResponse';
@@ -26,8 +27,17 @@ export function describeKnownPart(known: KnownComponent): string {
   return `${known.name} = ${formatEngineering(known.value, COMPONENT_UNITS[known.name])}${tolerance}`;
 }
 
-/** The other two parts from alpha, omega0 and the known one (a CircuitInputError when the rates are not positive). */
-export function deriveComponents(fit: Pick<ResponseFit, 'alpha' | 'omega0' | 'correlation'>, request: KnownPartRequest): NonNullable<FitSummary['components']> {
+/**
+ * The other two parts from alpha, omega0 and the known one (a CircuitInputError when the rates are not
+ * positive, or when the response is first order: one time constant cannot give two parts).
+ */
+export function deriveComponents(
+  fit: Pick<ResponseFit, 'alpha' | 'omega0' | 'correlation'> & { regime?: string },
+  request: KnownPartRequest,
+): NonNullable<FitSummary['components']> {
+  if (fit.regime === 'first-order') {
+    throw new CircuitInputError('known', 'the response is first order (one time constant, tau): R, L and C need a second-order response, so only tau is reported');
+  }
   return {
     topology: request.topology,
     known: describeKnownPart(request.known),

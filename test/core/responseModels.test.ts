@@ -1,0 +1,67 @@
+// The response fit's other explanations of a record: no response at all, a single decay, a start that jumps.
+import { describe, expect, it } from 'vitest';
+import { fitResponse } from '../../core/fit/fitResponse';
+import { deriveComponents } from '../../core/workflow/measuredComponents';
+import { CircuitInputError } from '../../core/circuit/errors';
+import { firstOrderShape, generatedTrace, secondOrderShape } from './trust/responseRecords';
+
+const rcStep = () =>
+  generatedTrace({ seed: 31, samples: 1500, dt: 1e-9, noise: 0.02 }, firstOrderShape({ t0: 200e-9, yPre: 0, yStart: 0, yFinal: 5, tau: 150e-9 }));
+
+describe('a record with no response', () => {
+  it('ends with status no-response and says so, with the level and no ring', () => {
+    const fit = fitResponse(generatedTrace({ seed: 32, samples: 2000, dt: 1e-9, noise: 0.01 }, (time) => time.map(() => 3.3)));
+    expect(fit.status).toBe('no-response');
+    expect(fit.message).toBe('no second-order response found');
+    expect(fit.regimeEvidence).toMatch(/constant level explains the record/);
+    expect(fit.finalValue.value).toBeCloseTo(3.3, 2);
+    expect(fit.omega0.value).toBeNaN();
+    expect(fit.tau).toBeUndefined();
+  });
+});
+
+describe('a first-order record (an RC step)', () => {
+  it('is fitted as a single decay: tau with its standard error, no ring quantities', () => {
+    const fit = fitResponse(rcStep());
+    expect(fit.status).toBe('converged');
+    expect(fit.regime).toBe('first-order');
+    // Truth 150 ns (the generator's tau); within 3 standard errors.
+    expect(fit.tau?.unit).toBe('s');
+    expect(Math.abs((fit.tau?.value ?? NaN) - 150e-9)).toBeLessThan(3 * (fit.tau?.stderr ?? 0));
+    for (const ring of [fit.alpha, fit.omega0, fit.zeta, fit.Q]) expect(ring).toMatchObject({ value: NaN, stderr: null });
+    expect(fit.omegaD).toBeNull();
+    const json = JSON.parse(JSON.stringify(fit));
+    expect(json.tau.value).toBeCloseTo(150e-9, 8);
+    expect(json.omega0.value).toBeNull();
+  });
+  it('gives no R, L or C: one time constant cannot give two parts', () => {
+    const fit = fitResponse(rcStep());
+    expect(() => deriveComponents(fit, { topology: 'series', known: { name: 'C', value: 1e-9 } })).toThrow(CircuitInputError);
+    expect(() => deriveComponents(fit, { topology: 'series', known: { name: 'C', value: 1e-9 } })).toThrow(/only tau is reported/);
+  });
+});
+
+describe('a response that jumps at the event', () => {
+  // A capacitor's current after a current step: I e^(-alpha t) (cos omega_d t - (alpha / omega_d) sin omega_d t).
+  const alpha = 2e6;
+  const omega0 = 2 * Math.PI * 5e6;
+  const trace = generatedTrace({ seed: 33, samples: 2000, dt: 1e-9, noise: 0.01 }, secondOrderShape({ t0: 200e-9, yPre: 0, yFinal: 0, alpha, omega0, a: 1, b: -alpha }));
+  const within3Sigma = (q: { value: number; stderr: number | null }, truth: number) => Math.abs(q.value - truth) <= 3 * (q.stderr ?? 0);
+
+  it('is found without being told, and alpha and omega0 are right', () => {
+    const fit = fitResponse(trace);
+    expect(fit.jumpStart).toBe(true);
+    expect(fit.warnings.join(' ')).toMatch(/jumps at the event/);
+    expect(within3Sigma(fit.alpha, alpha)).toBe(true);
+    expect(within3Sigma(fit.omega0, omega0)).toBe(true);
+  });
+  it('is fitted the same when stated', () => {
+    const fit = fitResponse(trace, { continuity: 'free' });
+    expect(fit.jumpStart).toBe(true);
+    expect(within3Sigma(fit.alpha, alpha)).toBe(true);
+  });
+  it('is not looked for when the quantity is stated continuous', () => {
+    const fit = fitResponse(trace, { continuity: 'continuous' });
+    expect(fit.jumpStart).toBeUndefined();
+  });
+});
