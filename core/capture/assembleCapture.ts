@@ -113,7 +113,7 @@ function buildChannel(column: ColumnPlan, values: Float64Array, axis: Axis): { c
   for (; usable < n; usable++) {
     const v = values[order ? order[usable] : usable];
     if (v !== v || time[usable] !== time[usable]) break;
-    out[usable] = v * column.scale;
+    out[usable] = v * column.scale + column.offset;
   }
   if (usable < n) {
     for (let k = usable; k < n; k++) {
@@ -128,7 +128,7 @@ function buildChannel(column: ColumnPlan, values: Float64Array, axis: Axis): { c
       const t = axis.time[k];
       if (v !== v || t !== t) continue;
       time[j] = t;
-      out[j++] = v * column.scale;
+      out[j++] = v * column.scale + column.offset;
     }
   }
   const clipping = detectClipping(out);

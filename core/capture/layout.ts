@@ -7,7 +7,6 @@ import { columnUnit, isTimeName, isUnitsRow, parseColumnHeading, readsAsTime, un
 import { sameShape, dataShape, type DataShape } from './dataShape';
 import {
   INDEX_NAME,
-  converterCodesWarning,
   countsUp,
   evenSteps,
   headerTiming,
@@ -16,6 +15,7 @@ import {
   statesANumber,
   type HeaderTiming,
 } from './layoutHabits';
+import { readConverterCodes } from './converterCodes';
 import { isBlankOrComment, readPreamble, type Preamble, type PreambleLine, type StatedTime } from './preamble';
 import { WHITESPACE, splitLine, trimTrailingEmpty } from './splitLine';
 import { readUnitText } from '../units/unitText';
@@ -35,6 +35,8 @@ export interface ColumnPlan {
   name: string;
   unit: string;
   scale: number;
+  /** Added after scaling (SI): non-zero only for converter codes converted with a stated offset. */
+  offset: number;
   /** For value columns: index of the time column they are sampled on, or null for an axis from the interval. */
   timeColumn: number | null;
 }
@@ -259,7 +261,7 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
       kind === 'maybe-time' || kind === 'ignored'
         ? { unit: '', scale: 1 }
         : columnUnit(p, p.heading || p.name, kind !== 'value', options, header?.line ?? (units && last ? last.line : null), warnings);
-    columns.push({ kind, heading: p.heading, name: p.name, unit, scale, timeColumn: null });
+    columns.push({ kind, heading: p.heading, name: p.name, unit, scale, offset: 0, timeColumn: null });
   }
   assignTimeColumns(columns);
   nameChannels(columns, header !== null);
@@ -268,7 +270,7 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
   preamble.interval ??= timing?.timing.interval ?? null;
   preamble.offset ??= timing?.timing.offset ?? null;
   warnings.unshift(...preamble.warnings);
-  const codes = converterCodesWarning(columns, shapes, preamble);
+  const codes = readConverterCodes(columns, shapes, preamble, decimalComma);
   if (codes !== null) warnings.push(codes);
   const interval = chooseInterval(preamble, options, warnings);
   const firstDataLine = head[runStart].line;

@@ -1,4 +1,4 @@
-// Export habits a layout recognises: sample-count columns, timing stated in the header, one decimal-comma column, converter codes.
+// Export habits a layout recognises: sample-count columns, timing stated in the header, one decimal-comma column.
 
 import { slowCellValue } from './cellValue';
 import type { DataShape } from './dataShape';
@@ -13,8 +13,6 @@ export function statesANumber(cell: string): boolean {
 export const INDEX_NAME = /^(?:index|idx|samples?|sample ?(?:no|nr|number|#)|no|nr|#|points?|pt|seq|sequence|counter)\.?$/i;
 /** Fewest digits after a decimal comma for '0,123' to be read as one number rather than two columns (fixed decimals). */
 const FIXED_DECIMALS = 3;
-/** Preamble keys stating a vertical scale per division or per code, which integer values may be meant to take. */
-const VERTICAL_SCALE_KEY = /per\s*div|\/\s*div|codes?\s*per|vertical\s*(?:scale|gain)|volts?\s*per/i;
 /** A whole number as counters and converter codes are written. */
 const WHOLE_NUMBER = /^[-+]?\d+$/;
 /** Relative spread of steps allowed for the first rows of a column to read as a time axis (as timeAxis allows). */
@@ -74,21 +72,4 @@ export function headerTiming(headings: string[], below: string[] | null, line: n
     timing.offset ??= stated.offset;
   });
   return { timing, cells };
-}
-
-/** What converterCodesWarning needs of a planned column. */
-export interface CodedColumn {
-  kind: string;
-  name: string;
-  unit: string;
-}
-
-/** A warning for value columns of whole numbers without a unit, under a preamble stating a vertical scale. */
-export function converterCodesWarning(columns: CodedColumn[], shapes: DataShape[], preamble: Preamble): string | null {
-  const key = Object.keys(preamble.metadata).find((k) => VERTICAL_SCALE_KEY.test(k));
-  if (key === undefined) return null;
-  const coded = columns.filter((column, c) => column.kind === 'value' && column.unit === '' && shapes.every((s) => WHOLE_NUMBER.test(s.cells[c]?.trim() ?? '')));
-  if (coded.length === 0) return null;
-  const names = coded.map((c) => `'${c.name}'`).join(', ');
-  return `channel(s) ${names} hold whole numbers and the preamble states a vertical scale ('${key}'): they look like converter codes, and are kept as codes, unscaled`;
 }
