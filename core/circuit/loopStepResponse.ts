@@ -3,10 +3,14 @@ import type { Complex } from './cubicRoots';
 
 /** The settling band, a fraction of the step: the same 2 % the transition metrics use. */
 export const SETTLING_BAND = 0.02;
-/** Grid points per shortest pole time constant 1 / |p| while searching the peak and the last band exit. */
+/** Grid points per shortest pole time constant 1 / |p| while scanning for the peak and the last band exit. */
 const POINTS_PER_TIME_CONSTANT = 16;
-/** Most grid points one search may use (a slow pole beside a fast one): the grid coarsens above it. */
-const MAX_GRID_POINTS = 400_000;
+/** Most grid points over the whole span: the grid never gets finer than span / this. */
+const MAX_GRID_POINTS = 2_000_000;
+/** A term below this share of all the terms no longer sets the grid step. */
+const NEGLIGIBLE_TERM = 1e-9;
+/** How low a sampled peak can read at POINTS_PER_TIME_CONSTANT, a share of the terms: (1/16)^2 / 2 = 0.002, doubled. */
+const GRID_PEAK_ERROR = 4e-3;
 /** Refinement steps of the peak (golden section) and of the band exit (bisection): far below the grid. */
 const REFINE_STEPS = 60;
 /** Relative split of a repeated pole: its residues stay finite, cancellation costs about eps / split = 1e-9. */
@@ -62,29 +66,47 @@ function splitRepeated(poles: readonly Complex[]): Complex[] {
 
 function stepMetrics(at: (t: number) => number, poles: readonly Complex[], residues: readonly Complex[]): StepMetrics {
   if (poles.some((p) => !(p.re < 0))) {
-    // A lossless pair rings for ever: peak 2 (derived, y = 1 - cos), never settled.
+    // Only a lossless LC pair has a pole that does not decay here: y = 1 - cos, peak 2, never settled (derived).
     return { overshoot: 1, peakTime: Math.PI / Math.max(...poles.map((p) => Math.abs(p.im))), settlingTime: null };
   }
-  // Past `end` every term is below band / n, so the response cannot leave the band again.
-  const end = Math.max(...poles.map((p, k) => Math.log((poles.length * Math.hypot(residues[k].re, residues[k].im)) / SETTLING_BAND) / -p.re), 0);
-  const fastest = Math.max(...poles.map((p) => Math.hypot(p.re, p.im)));
-  const points = Math.min(MAX_GRID_POINTS, Math.ceil(end * fastest * POINTS_PER_TIME_CONSTANT) + 2);
-  const step = end / (points - 1);
-  let peakIndex = 0;
-  let peak = -Infinity;
-  let lastOutside = 0;
-  for (let i = 0; i < points; i++) {
-    const y = at(i * step);
-    if (y > peak) [peak, peakIndex] = [y, i];
-    if (Math.abs(y - 1) > SETTLING_BAND) lastOutside = i;
-  }
-  const peakTime = goldenMaximum(at, Math.max(0, (peakIndex - 1) * step), (peakIndex + 1) * step);
-  const overshoot = Math.max(0, at(peakTime) - 1);
-  return {
-    overshoot,
-    peakTime: overshoot > 0 ? peakTime : null,
-    settlingTime: bandExit(at, lastOutside * step, (lastOutside + 1) * step),
+  const sizes = residues.map((r) => Math.hypot(r.re, r.im));
+  const total = sizes.reduce((a, b) => a + b, 0);
+  /** Bound on |y(t) - 1|: the sum of the terms' envelopes, falling for ever. */
+  const envelope = (t: number) => poles.reduce((sum, p, k) => sum + sizes[k] * Math.exp(p.re * t), 0);
+  /** Grid step at t: resolves the fastest pole whose term still matters, so a fast pole that died out costs nothing. */
+  const stepAt = (t: number) => {
+    const fastest = poles.reduce((f, p, k) => (sizes[k] * Math.exp(p.re * t) > NEGLIGIBLE_TERM * total ? Math.max(f, Math.hypot(p.re, p.im)) : f), 0);
+    return fastest > 0 ? 1 / (fastest * POINTS_PER_TIME_CONSTANT) : Infinity;
   };
+  // Past `end` every term is below band / n, so the response cannot leave the band again.
+  const end = Math.max(...poles.map((p, k) => Math.log((poles.length * sizes[k]) / SETTLING_BAND) / -p.re), 0);
+  const slowest = Math.min(...poles.map((p) => Math.hypot(p.re, p.im)));
+  const stepFloor = Math.min(end / MAX_GRID_POINTS, 1 / (slowest * POINTS_PER_TIME_CONSTANT));
+  const nextStep = (t: number) => Math.max(stepFloor, Math.min(stepAt(t), 1 / (slowest * POINTS_PER_TIME_CONSTANT)));
+
+  // The peak: every local maximum on the grid that may hold it is refined (a sampled peak reads low by up
+  // to GRID_PEAK_ERROR of the terms), until the envelope shows nothing later can rise above the best.
+  let best = { value: at(0), time: 0 };
+  let [before, here, t] = [-Infinity, best.value, 0];
+  while (t < end && 1 + envelope(t) > Math.max(best.value, 1)) {
+    const h = nextStep(t);
+    const after = at(t + h);
+    if (here >= before && here > after && here > best.value - GRID_PEAK_ERROR * total) {
+      const time = goldenMaximum(at, Math.max(0, t - h), t + h);
+      if (at(time) > best.value) best = { value: at(time), time };
+    }
+    [before, here, t] = [here, after, t + h];
+  }
+  const overshoot = Math.max(0, best.value - 1);
+
+  // The last exit from the band: scan back from `end` to the first instant outside it.
+  let outside = end;
+  let inside = end;
+  while (outside > 0 && Math.abs(at(outside) - 1) <= SETTLING_BAND) {
+    inside = outside;
+    outside = Math.max(0, outside - nextStep(outside));
+  }
+  return { overshoot, peakTime: overshoot > 0 ? best.time : null, settlingTime: bandExit(at, outside, inside) };
 }
 
 function goldenMaximum(f: (t: number) => number, lo: number, hi: number): number {

@@ -160,6 +160,14 @@ describe('the snubbed loop step response', () => {
     expect(lossless.before.step.overshoot).toBe(1);
   });
 
+  it.each([1e-4, 1e-2, 0.28, 3, 50])('the bare loop with R_p = %s ohm: overshoot exp(-pi zeta / sqrt(1 - zeta^2)) from Q 0.1 to 40000 (handbook relation)', (Rp) => {
+    const s = suggestSnubber({ L: readmeLoop.L, C: readmeLoop.C, R: quantity(Rp, null, 'ohm') });
+    const zeta = s.before.zeta;
+    const expected = zeta < 1 ? Math.exp((-Math.PI * zeta) / Math.sqrt(1 - zeta * zeta)) : 0;
+    expect(Math.abs(s.before.step.overshoot - expected)).toBeLessThan(1e-7);
+    expect(s.before.step.settlingTime!).toBeGreaterThan(0);
+  });
+
   it('a repeated pole (real double root) gives finite metrics close to its neighbours', () => {
     // (s + 1)^2 (s + 4) / 4 with no zero: final value 1.
     const repeated = loopStepResponse([1], [{ re: -4, im: 0 }, { re: -1, im: 0 }, { re: -1, im: 0 }], 0.25);
