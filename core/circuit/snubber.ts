@@ -88,6 +88,9 @@ const DOMINANCE_RATIO = 5;
  * What the node does is the step response of the whole loop, v / V_step = (1 + r m z) / cubic
  * (derived, the same circuit laws), from which the overshoot and the settling time are taken: the
  * snubber's zero and a slow third pole can leave far more overshoot than the pair's zeta suggests.
+ * R and C stay at the common-practice starting point rather than being chosen for an overshoot target:
+ * less overshoot takes a larger C, and the dissipation grows with C, a trade the user weighs with the
+ * real overshoot in hand (capacitanceRatio sets C).
  */
 export function suggestSnubber(loop: SnubberLoop, options: SnubberOptions = {}): SnubberSuggestion {
   const ratio = options.capacitanceRatio ?? RATIO_HIGH;
