@@ -122,7 +122,7 @@ export function suggestSnubber(loop: SnubberLoop, options: SnubberOptions = {}):
     'Use a non-inductive resistor rated for the dissipation with margin, and a capacitor rated for the voltage and the ripple current.',
   ];
   if (loop.R === undefined) notes.push('No loop resistance was given: the loop is taken as lossless before the snubber.');
-  if (!pairDominant) notes.push(notDominantNote(other, pairDecay, step.overshoot, pairDamping.zeta, pairOvershoot));
+  if (!pairDominant) notes.push(notDominantNote(pair[0].im !== 0, other, pairDecay, step.overshoot, pairDamping.zeta, pairOvershoot));
   const powerAt =
     options.voltage !== undefined && options.switchingFrequency !== undefined
       ? { voltage: options.voltage, frequency: options.switchingFrequency, power: C.value * options.voltage ** 2 * options.switchingFrequency }
@@ -163,12 +163,12 @@ function secondOrderOvershoot(zeta: number): number {
   return zeta < 1 ? Math.exp((-Math.PI * zeta) / Math.sqrt(1 - zeta * zeta)) : 0;
 }
 
-function notDominantNote(other: number, pairDecay: number, overshoot: number, zeta: number, pairOvershoot: number): string {
+function notDominantNote(ringing: boolean, other: number, pairDecay: number, overshoot: number, zeta: number, pairOvershoot: number): string {
   const ratio = Math.abs(other) / pairDecay;
   const pace = ratio < 1 ? 'more slowly than the pair' : `only ${ratio.toFixed(1)} times faster than the pair`;
   const percent = (x: number) => `${(x * 100).toFixed(1)} %`;
   return (
-    `The ringing pair does not dominate the snubbed loop: its third pole decays ${pace}, and the node overshoots ${percent(overshoot)} ` +
+    `The ${ringing ? 'ringing' : 'slowest'} pole pair does not dominate the snubbed loop: its third pole decays ${pace}, and the node overshoots ${percent(overshoot)} ` +
     `where a second-order loop with zeta ${zeta.toPrecision(3)} would overshoot ${percent(pairOvershoot)}. Judge the snubber by the step response, not by zeta.`
   );
 }

@@ -137,7 +137,7 @@ describe('the snubbed loop step response', () => {
     expect(s.predicted.pairOvershoot).toBeCloseTo(Math.exp((-Math.PI * 0.5681) / Math.sqrt(1 - 0.5681 ** 2)), 3);
     expect(s.predicted.step.overshoot).toBeGreaterThan(0.27);
     expect(s.predicted.step.overshoot).toBeGreaterThan(2 * s.predicted.pairOvershoot);
-    expect(s.notes.join(' ')).toMatch(/does not dominate.*overshoots 28\.\d %.*would overshoot 11\.\d %/);
+    expect(s.notes.join(' ')).toMatch(/ringing pole pair does not dominate.*overshoots 28\.\d %.*would overshoot 11\.\d %/);
     // The larger capacitor damps harder (C = 3 C_p overshoots more).
     expect(suggestSnubber(readmeLoop, { capacitanceRatio: 3 }).predicted.step.overshoot).toBeGreaterThan(s.predicted.step.overshoot);
   });
