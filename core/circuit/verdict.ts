@@ -156,7 +156,7 @@ export function checkDesign(
     }
   }
 
-  const levels = levelQuantities(design, fit, limit);
+  const levels = levelQuantities(design, fit, limit, measured.time.length > 0 && (fit.t0?.value ?? 0) < measured.time[0]);
   quantities.push(...levels.rows);
   notes.push(...levels.notes);
   const levelOut = levels.rows.some((q) => !q.inTolerance);
@@ -204,7 +204,7 @@ const LEVEL_NAMES: Record<keyof DesignLevels, string> = { preLevel: 'initial lev
  * The measured levels against the design's: before the event and final; with the swing too when the
  * design's two levels are equal (a current or a resistor voltage, whose levels do not show the step).
  */
-function levelQuantities(design: Design, fit: FittedResponse, limit: number): { rows: VerdictQuantity[]; notes: string[] } {
+function levelQuantities(design: Design, fit: FittedResponse, limit: number, startsAfterEvent: boolean): { rows: VerdictQuantity[]; notes: string[] } {
   const p = fit.params;
   if (!p) return { rows: [], notes: [] };
   const unit = probeUnit(design);
@@ -214,7 +214,7 @@ function levelQuantities(design: Design, fit: FittedResponse, limit: number): { 
   const designed = (value: number) => quantity(value, u * Math.max(Math.abs(value), expected.swing), unit);
   const measuredSwing = quantity(responseSwing(p.a, p.b - p.alpha * p.a, p.omega0), null, unit);
   const rows = [
-    compare(LEVEL_NAMES.preLevel, designed(expected.preLevel), fit.preLevel ?? quantity(p.yPre, null, unit), limit),
+    ...(startsAfterEvent ? [] : [compare(LEVEL_NAMES.preLevel, designed(expected.preLevel), fit.preLevel ?? quantity(p.yPre, null, unit), limit)]),
     compare(LEVEL_NAMES.finalValue, designed(expected.finalValue), fit.finalValue ?? quantity(p.yFinal, null, unit), limit),
   ];
   const showsStep = expected.preLevel !== expected.finalValue;
@@ -223,6 +223,7 @@ function levelQuantities(design: Design, fit: FittedResponse, limit: number): { 
   const notes = [
     `Levels in tolerance: within ${limit} sigma, the design's level uncertainty from ${stated} of the larger of the level and the swing, rectangular.`,
   ];
+  if (startsAfterEvent) notes.push('The record starts after the event: the level before it is not observed, so it is not checked.');
   if (!showsStep) notes.push('The swing, sqrt(a^2 + (slope / omega0)^2) at the event, has no fitted standard error: its margin uses the level tolerance alone.');
   return { rows: rows.filter((q) => Number.isFinite(q.measured.value)), notes };
 }

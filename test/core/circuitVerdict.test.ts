@@ -227,6 +227,14 @@ describe('checkDesign: the levels and the source step', () => {
     expect(v.notes.join(' ')).toMatch(/offset/);
   });
 
+  it('a record that starts after the event does not check the level before it (not observed)', () => {
+    const fit = { ...builtFit('capacitor-voltage', 12), t0: quantity(-1e-9, 1e-12, 's'), preLevel: quantity(30, 1, 'V') };
+    const v = checkDesign(designWith('capacitor-voltage', 12), fit, zeros);
+    expect(v.quantities.some((q) => q.name === 'initial level')).toBe(false);
+    expect(v.pass).toBe(true);
+    expect(v.notes.join(' ')).toMatch(/starts after the event/);
+  });
+
   it('without the fitted model there are no level rows (nothing to compare)', () => {
     const v = checkDesign(designWith('capacitor-voltage', 48), fitOf(GATE.topology, GATE.R, GATE.L, GATE.C), zeros);
     expect(v.quantities.some((q) => q.name === 'final value')).toBe(false);
