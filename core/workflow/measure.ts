@@ -78,6 +78,10 @@ export function checkAgainstDesign(design: Design, fit: ResponseFit | FitSummary
   if (channel.unit !== '' && channel.unit !== expected) {
     throw new UsageError(`the design probes ${design.probe} (${expected}) but channel '${channel.name}' of ${file} is in ${channel.unit}`);
   }
+  // An event's fit starts inside its ring (no level before it): the design's levels and event time need a whole event.
+  if ('events' in fit && fit.events) {
+    throw new UsageError(`${file} holds ${fit.events.list.length} events: a design is checked against one; set the fit window (--from, --to) around it`);
+  }
   const t0 = eventTime === undefined ? fit.t0 : { ...fit.t0, value: eventTime };
   return checkDesign(design, { ...fit, t0 }, { time: channel.time, values: channel.values });
 }

@@ -24,6 +24,10 @@ beforeAll(() => {
   const channel = pulseTrainChannel({ seed: 11, alpha: 0.05 * 2 * Math.PI * F0, omega0: 2 * Math.PI * F0, dt: DT, samples: 3500, events: [100, 1000, 1900].map((i) => i * DT), drive: 'square', amplitude: 5, noise: 0.05 });
   const rows = Array.from(channel.time, (t, i) => `${t.toExponential(6)},${channel.values[i].toFixed(5)}`);
   writeFileSync(path.join(folder, 'train.csv'), `Time (s),CH1 (V)\n${rows.join('\n')}\n`);
+  // The same circuit as a design: L = 1 uH, C = 1 / (omega0^2 L), R = 2 alpha L.
+  const components = { R: { value: '628.3m', tolerance: 0.05 }, L: { value: '1u', tolerance: 0.05 }, C: { value: '25.33n', tolerance: 0.05 } };
+  const design = { format: 'ringbench-design', version: 1, name: 'train', topology: 'series', components, source: { kind: 'step', amplitude: '5', initialLevel: 0 }, probe: 'capacitor-voltage' };
+  writeFileSync(path.join(folder, 'train.json'), JSON.stringify(design));
 });
 
 afterAll(() => rmSync(folder, { recursive: true, force: true }));
@@ -59,4 +63,12 @@ describe('fit on a record of several events', () => {
       expect(err).toMatch(message);
     },
   );
+
+  it('check refuses a design against several events: one line, exit 2, asking for a window around one', async () => {
+    const { code, out, err } = await run(['check', 'train.csv', '--design', 'train.json']);
+    expect(code).toBe(2);
+    expect(out).toBe('');
+    expect(err.trim().split('\n')).toHaveLength(1);
+    expect(err).toMatch(/train\.csv holds 3 events: a design is checked against one; set the fit window \(--from, --to\) around it/);
+  });
 });
