@@ -8,7 +8,14 @@ export interface EventEstimate {
   index: number;
   /** True when enough flat samples precede the event to fit t0 and the pre-event level. */
   hasPreEvent: boolean;
+  /**
+   * First sample surely inside the response: the first clear departure from the starting level when the
+   * record starts quietly, 0 when it moves from its first sample. A fit without an event may start here.
+   */
+  responseFrom: number;
 }
+
+const NO_EVENT: EventEstimate = { index: 0, hasPreEvent: false, responseFrom: 0 };
 
 /** Fewest flat samples before the event for t0 and the pre-event level to be fitted. */
 const MIN_PRE_EVENT = 10;
@@ -36,7 +43,9 @@ function detectEventAt(values: ArrayLike<number>, noise: number, step: number, r
     const blockStep = size === 1 ? step : 0;
     const found = detectAtScale(y, blockNoise, blockStep, Math.max(2, Math.ceil(MIN_PRE_EVENT / size)));
     if (found.peak < CONFIDENT_PEAK * blockNoise + 2 * blockStep) continue;
-    if (found.hasPreEvent) return { index: found.onset * size, hasPreEvent: true };
+    // The last sample of the first block that stands clear: the response has begun by then.
+    const responseFrom = found.first * size + size - 1;
+    if (found.hasPreEvent) return { index: found.onset * size, hasPreEvent: true, responseFrom };
     // A stretch before the onset that is not flat at this noise level may be noise the estimate read low
     // (a bandwidth-limited front end): its own spread, where clearly larger, is tried once.
     const before = found.onset * size;
@@ -44,7 +53,8 @@ function detectEventAt(values: ArrayLike<number>, noise: number, step: number, r
       const spread = robustSpread(Array.prototype.slice.call(values, 0, before) as number[]);
       if (spread > NOISE_RETRY_GATE * noise) return detectEventAt(values, Math.min(spread, NOISE_RETRY_CAP * noise), step, false);
     }
-    return { index: 0, hasPreEvent: false };
+    // A level too short to fit before the departure: the response surely runs from the departure on.
+    return { index: 0, hasPreEvent: false, responseFrom: found.quietStart || found.onset > 0 ? responseFrom : 0 };
   }
   return detectByEnergy(values, noise);
 }
@@ -79,9 +89,10 @@ function detectByEnergy(values: ArrayLike<number>, noise: number): EventEstimate
     while (onset > 0 && energy[onset - 1] > 4 * spread) onset--;
     const minFlat = Math.max(2, Math.ceil(MIN_PRE_EVENT / size));
     const flat = energy.subarray(0, onset).every((e) => e <= 5 * spread);
-    return onset >= minFlat && flat ? { index: onset * size, hasPreEvent: true } : { index: 0, hasPreEvent: false };
+    const responseFrom = flat && onset > 0 ? (first + 1) * size - 1 : 0;
+    return { index: onset >= minFlat && flat ? onset * size : 0, hasPreEvent: onset >= minFlat && flat, responseFrom };
   }
-  return { index: 0, hasPreEvent: false };
+  return NO_EVENT;
 }
 
 /** The event test on one sequence (samples or block means) with its own noise level and minimum flat stretch. */
@@ -90,7 +101,7 @@ function detectAtScale(
   noise: number,
   step: number,
   minFlat: number,
-): { onset: number; hasPreEvent: boolean; peak: number } {
+): { onset: number; first: number; hasPreEvent: boolean; quietStart: boolean; peak: number } {
   const n = values.length;
   const head = Math.max(minFlat, Math.floor(n * HEAD_FRACTION));
   const baseline = median(Array.prototype.slice.call(values, 0, head));
@@ -105,27 +116,45 @@ function detectAtScale(
       break;
     }
   }
-  if (first < 0) return { onset: 0, hasPreEvent: false, peak };
+  if (first < 0) return { onset: 0, first: 0, hasPreEvent: false, quietStart: false, peak };
   // The record starts flat unless its first samples move: one sample in the noise's tail does not count.
   let outside = 0;
   for (let i = 0; i < Math.min(first, minFlat); i++) if (Math.abs(values[i] - baseline) > quiet) outside++;
-  const onset = hingeOnset(values, first);
-  return { onset, hasPreEvent: outside <= 1 && onset >= minFlat, peak };
+  const quietStart = outside <= 1;
+  const onset = hingeOnset(values, quietStart ? departureReach(values, first, baseline, quiet) : 0, first);
+  return { onset, first, hasPreEvent: quietStart && onset >= minFlat, quietStart, peak };
 }
 
 /** Longest stretch the onset search fits at once; longer ones are fitted on block means. */
 const HINGE_POINTS = 400;
+/**
+ * A departure from rest (quadratic) crosses 4 noise levels on its way to 8 after at most 1 / (sqrt 2 - 1) = 2.4
+ * times its climb between the two; a linear one after at most once that climb. Four climbs back cover both
+ * with room for a noisy last quiet sample.
+ */
+const CLIMBS_BACK = 4;
 
 /**
- * Where the record leaves its starting level, from the samples before the first clear excursion
+ * Where the onset search begins: CLIMBS_BACK climbs (from the last quiet sample to the first clear one)
+ * before the last quiet sample, and MIN_PRE_EVENT more for the level. Band-limited noise wanders over a
+ * long flat stretch, and a slow departure fitted over all of it would start at the record's start.
+ */
+function departureReach(values: ArrayLike<number>, first: number, baseline: number, quiet: number): number {
+  let last = first - 1;
+  while (last > 0 && Math.abs(values[last] - baseline) > quiet) last--;
+  return Math.max(0, last - CLIMBS_BACK * (first - last) - MIN_PRE_EVENT);
+}
+
+/**
+ * Where the record leaves its starting level, from the samples `from` to the first clear excursion
  * (index `first`): least squares of a level followed by a linear or a quadratic departure (a response
  * starts with a slope, or from rest), over every break point. Walking back to the last quiet sample
  * instead would place a slow start late by the time it takes to climb out of the noise.
  */
-function hingeOnset(values: ArrayLike<number>, first: number): number {
-  const size = Math.max(1, Math.ceil((first + 1) / HINGE_POINTS));
+function hingeOnset(values: ArrayLike<number>, start: number, first: number): number {
+  const size = Math.max(1, Math.ceil((first + 1 - start) / HINGE_POINTS));
   // The blocks end with the sample that crossed the threshold: the departure must be in the fit.
-  const from = (first + 1) % size;
+  const from = start + ((first + 1 - start) % size);
   const y = blockMeans(values, from, first + 1, size, Infinity);
   const n = y.length;
   if (n < 3) return first;

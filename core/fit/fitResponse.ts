@@ -1,11 +1,10 @@
 // Fits the second-order response to one trace: runs the fit's steps in order; each step is its own module.
 
 import { estimateNoise, quantisationStep, recordNoise } from './noise';
-import { detectEvent } from './eventDetection';
+import { locateResponse, settleEvent } from './responseStart';
 import { rateCandidates } from './startingRates';
 import { LAYOUTS, layoutsFor } from './responseModel';
 import { firstSampleTime, MIN_FIT_SAMPLES, prepareFitSet, uniformValues } from './fitSet';
-import { attemptValue } from './attempt';
 import { searchLayouts } from './layoutSearch';
 import { chooseByInformation, explainRecord } from './modelSelection';
 import { fitFirstOrderRecord } from './firstOrderFit';
@@ -25,18 +24,19 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   // The continuous layouts are fitted first; a jump at the event is looked for once they are (jumpStart.ts).
   const continuity = 'continuous';
   const jumpOption = options.continuity ?? 'auto';
-  const window = options.window ?? {};
+  let window = options.window ?? {};
   let set = prepareFitSet(trace, window);
   if (set.time.length < MIN_FIT_SAMPLES) {
     throw new FitInputError('trace', `only ${set.time.length} usable samples in the fit window; at least ${MIN_FIT_SAMPLES} are needed`);
   }
   const noise = recordNoise(set.values);
   const step = quantisationStep(set.values);
-  // A window start the caller chose is taken as the start of the response.
-  const event = options.window?.start !== undefined ? { index: 0, hasPreEvent: false } : detectEvent(set.values, noise, step);
-  // Without a pre-event stretch the response is taken from the first sample on.
+  // The event is looked for inside any window; without a level before it the fit starts where the response surely runs.
+  const start = locateResponse(trace, set, window, noise, step);
+  ({ set, window } = start);
+  const event = start.event;
   let t0Start = event.hasPreEvent ? set.time[event.index] : firstSampleTime(set);
-  const warnings: string[] = [...set.warnings];
+  const warnings: string[] = [...set.warnings, ...start.warnings];
   const uniform = uniformValues(set);
   const eventOnGrid = Math.round((t0Start - set.time[0]) / set.dt);
   const candidates = rateCandidates(uniform, eventOnGrid, uniform.length, set.dt);
@@ -45,15 +45,11 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   if (attempts.length === 0) return failedFit(set, noise, warnings, 'no damped response was found in the data (no usable starting values)');
   let best = chooseByInformation(attempts, set, t0Start);
   if (!Number.isFinite(best.sse)) return failedFit(set, noise, warnings, 'the solver did not reach a finite residual');
-  if (LAYOUTS[best.layout].fitsT0 && attemptValue(best, 't0') <= firstSampleTime(set)) {
-    // The event was placed at or before the first sample: no sample sees the level before it.
-    const recordStart = firstSampleTime(set);
-    const fromStart = searchLayouts(set, layoutsFor({ hasPreEvent: false, continuity }), candidates, recordStart, noise);
-    const fromStartBest = fromStart.length > 0 ? chooseByInformation(fromStart, set, recordStart) : null;
-    if (fromStartBest && Number.isFinite(fromStartBest.sse)) {
-      best = fromStartBest;
-      t0Start = recordStart;
-    }
+  // An event placed at or before the first sample, one the record does not clearly hold, or a level too short to fit: fitted without them.
+  const settled = settleEvent(trace, set, window, best, event, candidates, noise);
+  if (settled) {
+    ({ set, window, best, t0Start } = settled);
+    warnings.push(settled.warning);
   }
 
   const hasPreEvent = LAYOUTS[best.layout].preLevelColumn !== null;

@@ -166,7 +166,7 @@ export function uniformValues(set: FitSet): Float64Array {
   return out;
 }
 
-/** Time of the first sample the set holds: the first of the first block when the set is block means. */
-export function firstSampleTime(set: FitSet): number {
-  return set.block ? set.time[0] - ((set.block.samples - 1) / 2) * set.block.spacing : set.time[0];
+/** Time of the first sample behind the set's point `index` (default the first): the first of its block when the set is block means. */
+export function firstSampleTime(set: FitSet, index = 0): number {
+  return set.block ? set.time[index] - ((set.block.samples - 1) / 2) * set.block.spacing : set.time[index];
 }

@@ -1,10 +1,12 @@
-// Clipped-rail guard: leaves out the samples the fit puts near a clipped rail (their noise is cut off there) and fits again.
+// Clipped-rail guard: leaves out the samples the fit puts near a clipped rail (their noise is cut off there) and fits
+// again; tells a record whose level before the event sits at a rail.
 
 import type { Trace } from './trace';
 import { MIN_FIT_SAMPLES, prepareFitSet, type FitSet } from './fitSet';
 import { layoutValues } from './responseModel';
 import { attemptT0, attemptValue, type Attempt } from './attempt';
 import { refine } from './refine';
+import { quantisationStep } from './noise';
 
 /** Samples whose fitted value lies within this many noise levels of a rail are left out. */
 const RAIL_MARGIN = 3;
@@ -67,4 +69,55 @@ function guardRails(
     set,
     warning: `${added} more samples were left out because the fit puts them within ${RAIL_MARGIN} noise levels of a clipped rail (their noise is cut off there)`,
   };
+}
+
+/** Fewest samples before the departure for a pile-up at a rail to be told from the noise's tail. */
+const MIN_RAIL_HEAD = 20;
+/** Fewest samples exactly at the extreme that make a pile-up. */
+const MIN_PILE = 3;
+/**
+ * With samples inward of it, the extreme is a rail once it holds this share of the head and at least as
+ * many as the next value inward: a normal level's tail one code out holds less than its neighbour.
+ */
+const PILE_SHARE = 0.1;
+/**
+ * A head held on one code is a level inside that code unless the noise spreads samples over codes: with
+ * noise of half a code, 20 samples all on one code happen with probability 0.68^20 < 1e-3.
+ */
+const SPREAD_CODES = 0.5;
+
+/**
+ * How many samples of the record's head (`head`: the unclipped samples before the response surely runs)
+ * sit at the record's highest or lowest value (`values`: every unclipped sample of the window) because
+ * the level before the event lies at or beyond a converter rail: those samples are censored, not a flat
+ * pre-event stretch. 0 when the head is not at a rail. `noise` is the record's noise level.
+ */
+export function railHeadCount(head: ArrayLike<number>, values: ArrayLike<number>, noise: number): number {
+  if (head.length < MIN_RAIL_HEAD) return 0;
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let i = 0; i < values.length; i++) {
+    lo = Math.min(lo, values[i]);
+    hi = Math.max(hi, values[i]);
+  }
+  const step = quantisationStep(values);
+  return Math.max(pileAt(head, lo, 1, step, noise), pileAt(head, hi, -1, step, noise));
+}
+
+/** Samples of the head on `rail` when they pile up there (inward: +1 above a bottom rail, -1 below a top one), else 0. */
+function pileAt(head: ArrayLike<number>, rail: number, inward: 1 | -1, step: number, noise: number): number {
+  let onRail = 0;
+  let next = Infinity;
+  for (let i = 0; i < head.length; i++) {
+    const distance = inward * (head[i] - rail);
+    if (distance === 0) onRail++;
+    else next = Math.min(next, distance);
+  }
+  if (onRail < MIN_PILE) return 0;
+  // The whole head on the rail's code: a level inside that code unless the noise would spread it over codes.
+  if (onRail === head.length) return step > 0 && noise >= SPREAD_CODES * step ? onRail : 0;
+  if (onRail < PILE_SHARE * head.length) return 0;
+  let besideRail = 0;
+  for (let i = 0; i < head.length; i++) if (inward * (head[i] - rail) === next) besideRail++;
+  return onRail >= besideRail ? onRail : 0;
 }

@@ -1,0 +1,152 @@
+// Where the fit starts: at the event the record holds, or, with no level before it to fit, where the response surely runs.
+
+import type { Trace } from './trace';
+import { detectEvent, type EventEstimate } from './eventDetection';
+import { firstSampleTime, MIN_FIT_SAMPLES, prepareFitSet, type FitSet } from './fitSet';
+import { railHeadCount } from './railGuard';
+import { attemptValue, type Attempt } from './attempt';
+import { refine } from './refine';
+import { LAYOUTS, layoutValues } from './responseModel';
+import { searchLayouts } from './layoutSearch';
+import { effectiveSamples, information } from './modelSelection';
+import type { RateCandidate } from './startingRates';
+import { FitInputError } from './fitInputError';
+import { estimateNoise } from './noise';
+
+type FitWindow = { start?: number; end?: number };
+
+/** The layout without an event: t0 held at the first sample, the initial state free. */
+const NO_EVENT_LAYOUT = 'free';
+
+/**
+ * A fit with an event and one without are told apart when their Bayesian information criteria differ by
+ * more than this (very strong evidence on the 2 ln B scale: Kass and Raftery, JASA 90, 773, 1995; from memory).
+ */
+const CLEAR_EVIDENCE = 10;
+
+const NOT_MEASURED = 't0 is that sample, not a measured event';
+
+export interface ResponseStart {
+  set: FitSet;
+  window: FitWindow;
+  event: EventEstimate;
+  warnings: string[];
+}
+
+/**
+ * The event in the fit set (of the caller's window or the whole record). A level before it that sits at a
+ * converter rail is censored, not flat: those samples are left out, and the fit starts, without an event,
+ * at the first sample surely inside the response (the window's start moves there, so every later fit set
+ * starts there too).
+ */
+export function locateResponse(trace: Trace, set: FitSet, window: FitWindow, noise: number, step: number): ResponseStart {
+  const event = detectEvent(set.values, noise, step);
+  if (event.responseFrom === 0) return { set, window, event, warnings: [] };
+  const departure = firstSampleTime(set, event.responseFrom);
+  const onRail = railHeadCount(unclippedValues(trace, window, departure), unclippedValues(trace, window, Infinity), noise);
+  if (onRail === 0) return { set, window, event, warnings: [] };
+  const moved = setFrom(trace, window, departure);
+  if (moved.set.time.length < MIN_FIT_SAMPLES) {
+    throw new FitInputError('trace', `only ${moved.set.time.length} usable samples follow where the response leaves the converter's rail; at least ${MIN_FIT_SAMPLES} are needed`);
+  }
+  const warning = `the level before the event sits at a converter rail: ${onRail} samples there are censored (the true level lies beyond the rail) and were left out; fitted without an event from where the response leaves the rail (${NOT_MEASURED})`;
+  return { ...moved, event: { index: 0, hasPreEvent: false, responseFrom: 0 }, warnings: [warning] };
+}
+
+/** The fit's state once settleEvent has decided. */
+export interface SettledStart {
+  set: FitSet;
+  window: FitWindow;
+  best: Attempt;
+  t0Start: number;
+  warning: string;
+}
+
+/**
+ * Whether the record holds the event the fit placed, or was caught with the response in progress: a ring
+ * caught near a peak looks flat for a while, and a response from rest is even about its start. The fit
+ * with the event is kept only when it explains the record clearly better than one from the first sample
+ * without an event; when that one explains it clearly better, the record starts inside the response;
+ * when neither does, the fit runs without an event from the first sample surely inside the response.
+ * A fit already without an event moves there too when it misses the samples before the departure (a level
+ * too short to fit). Null when the fit stands.
+ */
+export function settleEvent(
+  trace: Trace,
+  set: FitSet,
+  window: FitWindow,
+  best: Attempt,
+  event: EventEstimate,
+  candidates: RateCandidate[],
+  noise: number,
+): SettledStart | null {
+  const recordStart = firstSampleTime(set);
+  const rates = { alpha: attemptValue(best, 'alpha'), omega0: attemptValue(best, 'omega0'), source: 'fit before' };
+  if (!LAYOUTS[best.layout].fitsT0) {
+    if (event.responseFrom === 0 || !headMisfit(set, best, recordStart, event.responseFrom)) return null;
+    return fromDeparture(trace, set, window, event, rates, SHORT_LEVEL);
+  }
+  const inProgress = `the record starts inside the response (it is explained better without an event in it): fitted from the first sample with the initial state free (${NOT_MEASURED})`;
+  if (attemptValue(best, 't0') <= recordStart) {
+    // The event was placed at or before the first sample: no sample sees the level before it.
+    const searched = searchLayouts(set, [NO_EVENT_LAYOUT], candidates, recordStart, noise);
+    const fromStart = [...searched, refine(set, NO_EVENT_LAYOUT, rates, recordStart)].reduce((x, y) => (y.sse < x.sse ? y : x));
+    return Number.isFinite(fromStart.sse) ? { set, window, best: fromStart, t0Start: recordStart, warning: inProgress } : null;
+  }
+  const fromStart = refine(set, NO_EVENT_LAYOUT, rates, recordStart);
+  if (!Number.isFinite(fromStart.sse)) return null;
+  const n = effectiveSamples([best, fromStart], set, recordStart);
+  const gap = information(fromStart.sse, fromStart.values.length, n) - information(best.sse, best.values.length, n);
+  if (gap > CLEAR_EVIDENCE) return null;
+  if (gap < -CLEAR_EVIDENCE) return { set, window, best: fromStart, t0Start: recordStart, warning: inProgress };
+  return fromDeparture(trace, set, window, event, rates, UNDECIDED);
+}
+
+const SHORT_LEVEL = `too few flat samples precede the response to fit the level before it: fitted without an event from the first clear departure from the starting level (${NOT_MEASURED})`;
+const UNDECIDED = `the record does not show clearly whether it holds the event or starts inside the response: fitted without an event from the first clear departure from the starting level (${NOT_MEASURED})`;
+
+/** The fit without an event from the first sample surely inside the response (null when too little is left there). */
+function fromDeparture(trace: Trace, set: FitSet, window: FitWindow, event: EventEstimate, rates: RateCandidate, warning: string): SettledStart | null {
+  if (event.responseFrom === 0) return null;
+  const moved = setFrom(trace, window, firstSampleTime(set, event.responseFrom));
+  if (moved.set.time.length < MIN_FIT_SAMPLES) return null;
+  const start = firstSampleTime(moved.set);
+  const after = refine(moved.set, NO_EVENT_LAYOUT, rates, start);
+  return Number.isFinite(after.sse) ? { ...moved, best: after, t0Start: start, warning } : null;
+}
+
+/** The residual over the samples before the departure may exceed its expectation by this many of its standard deviations. */
+const HEAD_MISFIT_SIGMAS = 4;
+
+/**
+ * Whether a fit from the first sample without an event misses the samples before the clear departure: a
+ * short level before the event, which that fit bends through. Their residual sum of squares against
+ * noise^2 (k + 4 sqrt(2k)) for k samples (the chi-square's mean and 4 of its standard deviations). The
+ * noise is read from first differences: a head inside the response would read high in its spread, and
+ * band-limited noise reading low only moves the fit to the departure, which is right either way.
+ */
+function headMisfit(set: FitSet, fit: Attempt, t0: number, headEnd: number): boolean {
+  const noise = estimateNoise(set.values);
+  const model = layoutValues(fit.layout, fit.values, t0, set.time.subarray(0, headEnd), set.block);
+  let sum = 0;
+  for (let i = 0; i < headEnd; i++) sum += (set.values[i] - model[i]) ** 2;
+  return sum > noise * noise * (headEnd + HEAD_MISFIT_SIGMAS * Math.sqrt(2 * headEnd));
+}
+
+/** The fit set of the window with its start moved to `start`, s. */
+function setFrom(trace: Trace, window: FitWindow, start: number): { set: FitSet; window: FitWindow } {
+  const moved = { ...window, start };
+  return { set: prepareFitSet(trace, moved), window: moved };
+}
+
+/** The unclipped samples of the window before `end`, s. */
+function unclippedValues(trace: Trace, window: FitWindow, end: number): Float64Array {
+  const { time, values, clipped } = trace;
+  const from = window.start ?? -Infinity;
+  const to = window.end ?? Infinity;
+  const out: number[] = [];
+  for (let i = 0; i < time.length; i++) {
+    if (time[i] >= from && time[i] <= to && time[i] < end && !(clipped && clipped[i]) && Number.isFinite(values[i])) out.push(values[i]);
+  }
+  return Float64Array.from(out);
+}

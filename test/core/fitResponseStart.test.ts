@@ -1,0 +1,63 @@
+// Where the response fit starts: the event found inside a hand-set window, a record caught in progress and one whose
+// level before the event sits at a converter rail fitted without an event (t0 not reported as measured), the rail test.
+
+import { describe, expect, it } from 'vitest';
+import { fitResponse } from '../../core/fit/fitResponse';
+import { railHeadCount } from '../../core/fit/railGuard';
+import { createRandom } from '../../core/random';
+import { makeRecord, sampleCaptureTrace, type RecordSpec } from './trust/startRecords';
+
+const NOT_MEASURED = /not a measured event/;
+
+describe('a hand-set window that holds the event', () => {
+  it('finds the event inside it and gives the automatic answer (switch-node-before.csv from -30 ns)', () => {
+    const { trace } = sampleCaptureTrace('switch-node-before.csv');
+    const automatic = fitResponse(trace);
+    const windowed = fitResponse(trace, { window: { start: -30e-9 } });
+    expect(windowed.status).toBe('converged');
+    expect(windowed.t0.stderr).not.toBeNull();
+    expect(Math.abs(windowed.t0.value - automatic.t0.value)).toBeLessThan(automatic.t0.stderr as number);
+    expect(Math.abs(windowed.omega0.value - automatic.omega0.value)).toBeLessThan(automatic.omega0.stderr as number);
+  });
+});
+
+describe('a record caught with its ringdown in progress', () => {
+  // The starting phases at which an event used to be placed inside the record, near a peak.
+  const RINGDOWN: Omit<RecordSpec, 'eventAt' | 'seed'> = { zeta: 0.03, omega0: 2 * Math.PI * 20e6, samples: 2000, perPeriod: 50, kind: 'ringdown', snrDb: 35, noise: { kind: 'white' } };
+  it.each([2, 6])('from %d/8 of a period before the record: fitted without an event, t0 not reported as measured', (eighths) => {
+    const fit = fitResponse(makeRecord({ ...RINGDOWN, eventAt: -((eighths / 8) * 50 + 3.3), seed: 4400 + eighths }).trace);
+    expect(fit.t0.stderr).toBeNull();
+    expect(fit.warnings.join(' ')).toMatch(NOT_MEASURED);
+  });
+});
+
+describe('a level before the event at a converter rail', () => {
+  it('is left out as censored, never fitted as the level before the event', () => {
+    const spec: RecordSpec = { zeta: 0.2, omega0: 2 * Math.PI * 5e6, samples: 2000, perPeriod: 40, eventAt: 300.4, kind: 'step', snrDb: 40, noise: { kind: 'white' }, preLevel: -0.1, height: 1.1, converter: { codes: 256, bottom: 0, top: 1.7 }, seed: 7701 };
+    const fit = fitResponse(makeRecord(spec).trace);
+    expect(fit.warnings.join(' ')).toMatch(/converter rail/);
+    expect(fit.t0.stderr).toBeNull();
+    expect(fit.preLevel.stderr).toBeNull();
+    expect(fit.t0.value).toBeGreaterThan(300.4 / (5e6 * 40));
+  });
+});
+
+describe('railHeadCount', () => {
+  const random = createRandom(77);
+  const codes = (level: number, rms: number, n: number) => Array.from({ length: n }, () => Math.max(0, Math.round(level + rms * random.normal())));
+  const response = Array.from({ length: 200 }, (_, i) => Math.round(40 + 10 * Math.sin(i / 5)));
+
+  it('finds no rail in a level a few codes above the lowest value, nor in a noiseless flat one', () => {
+    const head = codes(20, 0.4, 200);
+    expect(railHeadCount(head, [...head, ...response], 0.4)).toBe(0);
+    const flat = new Array(200).fill(20);
+    expect(railHeadCount(flat, [...flat, ...response], 0.2)).toBe(0);
+  });
+
+  it('finds the samples piled up at the lowest code when the level sits on it or beyond it', () => {
+    const atRail = codes(0, 2, 200);
+    expect(railHeadCount(atRail, [...atRail, ...response], 2)).toBe(atRail.filter((v) => v === 0).length);
+    const beyond = new Array(200).fill(0);
+    expect(railHeadCount(beyond, [...beyond, ...response], 2)).toBe(200);
+  });
+});
