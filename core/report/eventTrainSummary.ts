@@ -15,7 +15,7 @@ export interface EventEntry {
   hasOnset: boolean;
   /** Seen from its onset until its ring died into the noise or three time constants passed; only complete events are combined. */
   complete: boolean;
-  /** The fit's status, or 'not fitted' when its window holds too few samples. */
+  /** The fit's status, or 'not fitted' (too few samples in its window, or beyond the first 16 events); `message` says why. */
   status: string;
   message: string;
   alpha: Quantity | null;

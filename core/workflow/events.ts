@@ -29,6 +29,9 @@ const COMPLETE_TIME_CONSTANTS = 3;
  * stated errors: 1 % shared over the two tests, so honest errors are flagged once in a hundred records.
  */
 const SPREAD_P_LIMIT = 0.005;
+/** Events fitted at most (besides one asked for): a long record of a fast square wave holds hundreds, and each fit takes a while. */
+const MAX_FITTED_EVENTS = 16;
+const UNFITTED = `only the first ${MAX_FITTED_EVENTS} events are fitted (--event N fits another)`;
 /** An event's fit leaving a residual this many times the noise is a misfit (white noise alone gives about 1). */
 const MISFIT_RESIDUAL = 3;
 
@@ -55,11 +58,11 @@ export function fitEvents(request: EventsRequest): { fit: ResponseFit; summary: 
     return { fit: whole, summary };
   }
 
-  const fits = spans.map((span) => fitSpan(trace, channel.time, first, span));
+  const fits = spans.map((span, i) => (i < MAX_FITTED_EVENTS || i + 1 === request.event ? fitSpan(trace, channel.time, first, span) : UNFITTED));
   const list = spans.map((span, i) => entryOf(i + 1, span, fits[i], channel.time, first));
   const chosen = request.event ?? defaultEvent(list);
   const fit = fits[chosen - 1];
-  if (!fit) throw new FitInputError('window', `event ${chosen} holds too few samples to fit: ${list[chosen - 1].message}`);
+  if (typeof fit === 'string') throw new FitInputError('window', `event ${chosen} cannot be fitted: ${list[chosen - 1].message}`);
   const summary = summarizeFit(file, channel.name, fit, undefined, [...(request.captureWarnings ?? [])]);
   const events: EventTrainSummary = { chosen, chosenBy: request.event === undefined ? 'default' : 'request', list, ...combine(list) };
   summary.events = events;
@@ -79,26 +82,26 @@ function eventsOf(channel: Channel, window: { start?: number; end?: number }): {
 }
 
 /**
- * The fit of one event's natural response, or null when its window holds too few samples. A fit that leaves
+ * The fit of one event's natural response, or why there is none (its window holds too few samples). A fit that leaves
  * a residual of several noise levels has not found one ring (an event the search missed shares its window):
  * it is no answer.
  */
-function fitSpan(trace: Parameters<typeof fitResponse>[0], time: Float64Array, first: number, span: EventSpan): ResponseFit | null {
+function fitSpan(trace: Parameters<typeof fitResponse>[0], time: Float64Array, first: number, span: EventSpan): ResponseFit | string {
   try {
     const fit = fitResponse(trace, { window: { start: time[first + span.start], end: time[first + span.end - 1] } });
     const excess = fit.rmsResidual / fit.noiseRms;
     if (fit.status !== 'converged' || !(excess > MISFIT_RESIDUAL)) return fit;
     return { ...fit, status: 'failed', message: `the residual is ${excess.toFixed(1)} times the noise: the window holds more than this event's ring` };
   } catch (error) {
-    if (error instanceof FitInputError) return null;
+    if (error instanceof FitInputError) return 'too few samples between this event and the next';
     throw error;
   }
 }
 
-function entryOf(index: number, span: EventSpan, fit: ResponseFit | null, time: Float64Array, first: number): EventEntry {
+function entryOf(index: number, span: EventSpan, fit: ResponseFit | string, time: Float64Array, first: number): EventEntry {
   const onset = time[first + span.onset];
   const end = time[first + span.end - 1];
-  const converged = fit !== null && fit.status === 'converged';
+  const converged = typeof fit !== 'string' && fit.status === 'converged';
   const longEnough = converged && fit.alpha.value * (end - onset) >= COMPLETE_TIME_CONSTANTS;
   return {
     index,
@@ -107,8 +110,8 @@ function entryOf(index: number, span: EventSpan, fit: ResponseFit | null, time: 
     end,
     hasOnset: span.hasOnset,
     complete: span.hasOnset && (span.settledAtEnd || longEnough),
-    status: fit ? fit.status : 'not fitted',
-    message: fit ? fit.message : 'too few samples between this event and the next',
+    status: typeof fit === 'string' ? 'not fitted' : fit.status,
+    message: typeof fit === 'string' ? fit : fit.message,
     alpha: converged ? fit.alpha : null,
     omega0: converged ? fit.omega0 : null,
     zeta: converged ? fit.zeta : null,
@@ -116,9 +119,10 @@ function entryOf(index: number, span: EventSpan, fit: ResponseFit | null, time: 
   };
 }
 
-/** The first complete event that converged; else the first that converged; else the first complete one. */
+/** The first complete event that converged; else the first that converged; else the first that was fitted. */
 function defaultEvent(list: EventEntry[]): number {
-  const pick = list.find((e) => e.complete && e.status === 'converged') ?? list.find((e) => e.status === 'converged') ?? list.find((e) => e.complete) ?? list[0];
+  const pick =
+    list.find((e) => e.complete && e.status === 'converged') ?? list.find((e) => e.status === 'converged') ?? list.find((e) => e.status !== 'not fitted') ?? list[0];
   return pick.index;
 }
 
