@@ -8,13 +8,13 @@ import type { CautionResult } from '../core/safety/evaluateCautions';
 import type { Topology } from '../core/circuit/components';
 import type { ParasiticsResult } from '../core/report/parasiticsText';
 import type { Comparison } from '../core/report/comparisonText';
-import type { BenchLogView, DesignEntry, OpenedCapture, SampleEntry } from './bridgeTypes';
+import type { BenchLogView, DesignEntry, OpenedFile, SampleEntry } from './bridgeTypes';
 import { FILE_UNITS, type CaptureInfo, type FitWindow, type StatedUnits, type TraceData, type UnitRefusal } from './workerProtocol';
 
 export interface OpenCaptureState {
   /** Worker cache key. */
   key: string;
-  opened: OpenedCapture;
+  opened: OpenedFile;
   info: CaptureInfo;
   channel: number;
   sample: SampleEntry | null;
@@ -24,7 +24,7 @@ export interface OpenCaptureState {
 
 /** A capture the importer refused for a unit: shown with its one-line reason beside the unit choices that fix it. */
 export interface RefusedCapture {
-  opened: OpenedCapture;
+  opened: OpenedFile;
   refusal: UnitRefusal;
   sample: SampleEntry | null;
 }

@@ -16,7 +16,12 @@ import type {
   ApiResult,
 } from '../core/bench/benchApiTypes';
 
+import type { CaptureContent } from './workerProtocol';
+
 export * from '../core/bench/benchApiTypes';
+
+/** A capture file the user chose: its bytes as written (a browser upload) or the text main read for the window. */
+export type OpenedFile = Omit<OpenedCapture, 'text'> & CaptureContent;
 
 /** The calls both faces answer (HTTP in the browser bench, IPC in the window). */
 export type BenchCalls = BenchApi;
@@ -43,9 +48,9 @@ export interface PreloadApi {
 export interface Bridge extends BenchCalls {
   face: 'window' | 'browser';
   /** Let the user choose a capture file; null when cancelled. */
-  pickCapture(): Promise<OpenedCapture | null>;
+  pickCapture(): Promise<OpenedFile | null>;
   /** A file dropped on the window. */
-  openDropped(file: File): Promise<OpenedCapture>;
+  openDropped(file: File): Promise<OpenedFile>;
   pickDesign(): Promise<NamedText | null>;
   /** Save through a dialog (window) or as a download (browser); the path when known. */
   saveFile(request: SaveRequest, mime: string): Promise<string | null>;

@@ -1,6 +1,7 @@
 // Files in the browser bench: choosing one through a file input, saving one as a download.
 
 import type { NamedText } from './bridgeTypes';
+import type { CaptureFile } from './workerProtocol';
 
 /** Let the user choose one file; resolves null when the dialog is dismissed without a choice. */
 export function chooseFile(input: HTMLInputElement): Promise<File | null> {
@@ -26,6 +27,11 @@ export function chooseFile(input: HTMLInputElement): Promise<File | null> {
 
 export async function readFileText(file: File): Promise<NamedText> {
   return { name: file.name, text: await file.text() };
+}
+
+/** A capture file's bytes as written: the importer finds their encoding (UTF-8, UTF-16, Windows-1252). */
+export async function readFileBytes(file: File): Promise<CaptureFile> {
+  return { name: file.name, bytes: await file.arrayBuffer() };
 }
 
 /** Start a download of `content` (text, or base64 for binary) named `name`. */

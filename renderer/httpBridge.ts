@@ -1,8 +1,8 @@
 // The bridge of the browser bench: the bench API over loopback HTTP with the launch token.
 
 import { BenchError, unwrap } from './benchError';
-import { chooseFile, downloadFile, readFileText } from './browserFiles';
-import type { ApiResult, Bridge, OpenedCapture } from './bridgeTypes';
+import { chooseFile, downloadFile, readFileBytes, readFileText } from './browserFiles';
+import type { ApiResult, Bridge, OpenedFile } from './bridgeTypes';
 
 export function createHttpBridge(token: string, captureInput: HTMLInputElement, designInput: HTMLInputElement): Bridge {
   async function call<T>(method: string, ...args: unknown[]): Promise<T> {
@@ -25,7 +25,7 @@ export function createHttpBridge(token: string, captureInput: HTMLInputElement, 
     }
     return unwrap(result);
   }
-  const upload = async (file: File): Promise<OpenedCapture> => ({ ...(await readFileText(file)), path: null, sampleId: null });
+  const upload = async (file: File): Promise<OpenedFile> => ({ ...(await readFileBytes(file)), path: null, sampleId: null });
   return {
     face: 'browser',
     listSamples: () => call('listSamples'),

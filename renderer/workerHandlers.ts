@@ -1,6 +1,6 @@
 // The fit worker's requests answered with core/workflow: no `self`, no DOM, so node tests call it directly.
 
-import { parseCapture } from '../core/capture/parseCapture';
+import { parseCapture, parseCaptureFileBytes } from '../core/capture/parseCapture';
 import { selectChannel } from '../core/capture/selectChannel';
 import type { Capture, CaptureOptions, Channel } from '../core/capture/types';
 import { parseStatedUnit } from '../core/units/unitText';
@@ -10,7 +10,7 @@ import { measureParasitics } from '../core/workflow/parasitics';
 import { plainMessage } from './plainMessage';
 import { describeCapture, traceData } from './traceData';
 import { unitRefusal } from './unitRefusal';
-import { FILE_UNITS, type CaptureText, type StatedUnits, type WorkerAsk, type WorkerReplyValue } from './workerProtocol';
+import { FILE_UNITS, type CaptureContent, type CaptureFile, type StatedUnits, type WorkerAsk, type WorkerReplyValue } from './workerProtocol';
 
 export interface HandledReply {
   value: WorkerReplyValue;
@@ -29,7 +29,7 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
       progress('reading the capture');
       let capture: Capture;
       try {
-        capture = parseCapture(request.text, { sampleInterval: request.sampleInterval, ...statedUnits(request.units ?? FILE_UNITS) });
+        capture = readContent(request.content, { sampleInterval: request.sampleInterval, ...statedUnits(request.units ?? FILE_UNITS) });
       } catch (error) {
         const refusal = unitRefusal(error);
         if (refusal) return { value: { type: 'open', info: null, refusal }, transfer: [] };
@@ -96,10 +96,15 @@ function attempt<T>(run: () => T): Attempt<T> {
   }
 }
 
-/** A capture text read for a one-off use case, as the command line reads a file. */
-function readSide(side: CaptureText, channel: string | number | undefined, progress: (stage: string) => void): ComparisonSide {
+/** A capture read from its bytes as written (any encoding the importer knows), or from text main decoded. */
+function readContent(content: CaptureContent, options: CaptureOptions = {}): Capture {
+  return content.bytes ? parseCaptureFileBytes(new Uint8Array(content.bytes), options) : parseCapture(content.text, options);
+}
+
+/** A capture file read for a one-off use case, as the command line reads a file. */
+function readSide(side: CaptureFile, channel: string | number | undefined, progress: (stage: string) => void): ComparisonSide {
   progress(`reading ${side.name}`);
-  const capture = parseCapture(side.text);
+  const capture = readContent(side);
   return { file: side.name, channel: selectChannel(capture, channel), captureWarnings: capture.warnings };
 }
 

@@ -57,15 +57,20 @@ export interface UnitRefusal {
   message: string;
 }
 
-/** A capture's text as the user chose it (a sample or a file), not kept open in the worker. */
-export interface CaptureText {
-  name: string;
-  text: string;
+/** A capture file's content: its bytes as written (the importer finds the encoding), or text main has already decoded. */
+export type CaptureContent = { text: string; bytes?: undefined } | { bytes: ArrayBuffer; text?: undefined };
+
+/** Just the content of a file (or of anything that carries one), to send to the worker without its other fields. */
+export function contentOf(file: CaptureContent): CaptureContent {
+  return file.bytes ? { bytes: file.bytes } : { text: file.text };
 }
+
+/** A capture file as the user chose it (a sample or a file), not kept open in the worker. */
+export type CaptureFile = { name: string } & CaptureContent;
 
 /** The added-capacitor run as the window asks for it: typed values already read (SI units, relative tolerances). */
 export interface ParasiticsAsk {
-  captures: (CaptureText & { addedC: number })[];
+  captures: (CaptureFile & { addedC: number })[];
   addedTolerance: number;
   probeC?: number;
   probeCTolerance?: number;
@@ -75,7 +80,7 @@ export interface ParasiticsAsk {
 }
 
 export type WorkerRequest =
-  | { id: number; type: 'open'; captureId: string; name: string; text: string; sampleInterval?: number; units?: StatedUnits }
+  | { id: number; type: 'open'; captureId: string; name: string; content: CaptureContent; sampleInterval?: number; units?: StatedUnits }
   | { id: number; type: 'trace'; captureId: string; channel: number }
   | {
       id: number;
@@ -90,7 +95,7 @@ export type WorkerRequest =
     }
   | { id: number; type: 'check'; captureId: string; channel: number; design: Design; fit: FitSummary; eventTime?: number }
   | ({ id: number; type: 'parasitics' } & ParasiticsAsk)
-  | { id: number; type: 'compare'; before: CaptureText; after: CaptureText; channel?: string | number; knownPart?: KnownPartRequest };
+  | { id: number; type: 'compare'; before: CaptureFile; after: CaptureFile; channel?: string | number; knownPart?: KnownPartRequest };
 
 /** A request before the client numbers it (Omit distributed over the variants, so each keeps its fields). */
 export type WorkerAsk = WithoutId<WorkerRequest>;

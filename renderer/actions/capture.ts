@@ -1,7 +1,7 @@
 // The capture panel's actions: the first start, opening a sample, a file or a dropped file, and choosing the channel.
 
 import { BenchError } from '../benchError';
-import type { NamedText, OpenedCapture, SampleEntry } from '../bridgeTypes';
+import type { NamedText, OpenedFile, SampleEntry } from '../bridgeTypes';
 import { FitCancelled } from '../fitClient';
 import { rememberCapture, recallCapture } from '../lastCapture';
 import { plainMessage } from '../plainMessage';
@@ -13,7 +13,7 @@ import { clearDesign, loadDesignText } from './design';
 import { measure } from './fitWindow';
 import { drawPlot } from './plotView';
 import { refreshLog } from './benchLog';
-import { FILE_UNITS, type StatedUnits } from '../workerProtocol';
+import { contentOf, FILE_UNITS, type StatedUnits } from '../workerProtocol';
 
 /** First start: the sample the page asks for, else the last capture again, else a bundled sample with its design. */
 export async function start(ctx: ActionContext, requestedSample: string | null): Promise<void> {
@@ -23,7 +23,7 @@ export async function start(ctx: ActionContext, requestedSample: string | null):
   void refreshLog(ctx);
   if (requestedSample) return openSample(ctx, requestedSample);
   const last = await recallCapture();
-  if (last?.kind === 'file') return openCapture(ctx, { name: last.name, text: last.text, path: last.path, sampleId: null }, { channel: last.channel, units: last.units });
+  if (last?.kind === 'file') return openCapture(ctx, { name: last.name, path: last.path, sampleId: null, ...contentOf(last) }, { channel: last.channel, units: last.units });
   if (last?.kind === 'sample' && state.samples.some((s) => s.id === last.id)) return openSample(ctx, last.id, last.channel);
   const first = state.samples.find((s) => s.designId !== null) ?? state.samples[0];
   if (first) return openSample(ctx, first.id);
@@ -46,7 +46,7 @@ export async function openDropped(ctx: ActionContext, file: File): Promise<void>
 
 export async function openCapture(
   ctx: ActionContext,
-  opened: OpenedCapture,
+  opened: OpenedFile,
   options: { sample?: SampleEntry; design?: NamedText | null; channel?: number; units?: StatedUnits },
 ): Promise<void> {
   const read = await readCapture(ctx, opened, options.sample ?? null, options.units ?? FILE_UNITS, options.channel);
@@ -71,12 +71,12 @@ export async function stateUnits(ctx: ActionContext, units: StatedUnits): Promis
  * Read a capture in the worker into the state: 'read', 'refused' for a unit the user can state (the capture panel
  * then says why and offers the units), or 'failed' with the reason in the window's message.
  */
-async function readCapture(ctx: ActionContext, opened: OpenedCapture, sample: SampleEntry | null, units: StatedUnits, channel?: number): Promise<'read' | 'refused' | 'failed'> {
+async function readCapture(ctx: ActionContext, opened: OpenedFile, sample: SampleEntry | null, units: StatedUnits, channel?: number): Promise<'read' | 'refused' | 'failed'> {
   const key = `capture-${++ctx.counters.captures}`;
   // A long fit of the previous capture must not hold this one up.
   if (ctx.client.busy) ctx.client.cancelAll();
   const read = await runStep(ctx, `reading ${opened.name}`, async () => {
-    const reply = await ctx.client.request({ type: 'open', captureId: key, name: opened.name, text: opened.text, units }, (stage) => showProgress(ctx, stage)).catch((error: unknown) => {
+    const reply = await ctx.client.request({ type: 'open', captureId: key, name: opened.name, content: contentOf(opened), units }, (stage) => showProgress(ctx, stage)).catch((error: unknown) => {
       throw error instanceof FitCancelled ? error : new BenchError(`${opened.name}: ${plainMessage(error)}`);
     });
     if (reply.refusal) {
@@ -91,7 +91,7 @@ async function readCapture(ctx: ActionContext, opened: OpenedCapture, sample: Sa
       return 'refused' as const;
     }
     const { info } = reply;
-    const digest = await sha256Hex(opened.text);
+    const digest = await sha256Hex(opened);
     const byName = sample?.options.column ? info.channels.findIndex((c) => c.name === sample.options.column) : -1;
     const chosen = channel ?? (byName >= 0 ? byName : 0);
     ctx.store.update((s) => {
@@ -115,7 +115,7 @@ async function showAndMeasure(ctx: ActionContext): Promise<void> {
   void rememberCapture(
     opened.sampleId
       ? { kind: 'sample', id: opened.sampleId, channel: capture.channel }
-      : { kind: 'file', name: opened.name, path: opened.path, text: opened.text, channel: capture.channel, units: ctx.store.state.statedUnits },
+      : { kind: 'file', name: opened.name, path: opened.path, ...contentOf(opened), channel: capture.channel, units: ctx.store.state.statedUnits },
   );
 }
 

@@ -4,7 +4,7 @@ import { parseChannel, parseKnown, parseTopology } from '../../core/workflow/use
 import { BenchError } from '../benchError';
 import { FitCancelled } from '../fitClient';
 import { plainMessage } from '../plainMessage';
-import type { CaptureText, WorkerAsk } from '../workerProtocol';
+import type { CaptureFile, WorkerAsk } from '../workerProtocol';
 import { showProgress, type ActionContext } from './context';
 
 /** The panel's choices as typed: the channel (empty for the first) and an optional known part with its topology. */
@@ -15,14 +15,14 @@ export interface CompareSettings {
 }
 
 /** The request for the worker; a missing capture or bad text throws in plain words. */
-export function compareAsk(before: CaptureText | null, after: CaptureText | null, settings: CompareSettings): Extract<WorkerAsk, { type: 'compare' }> {
+export function compareAsk(before: CaptureFile | null, after: CaptureFile | null, settings: CompareSettings): Extract<WorkerAsk, { type: 'compare' }> {
   if (!before || !after) throw new BenchError(`choose the ${before ? 'after' : 'before'} capture first`);
   const channel = settings.channelText.trim() === '' ? undefined : parseChannel(settings.channelText);
   const knownPart = settings.knownText.trim() === '' ? undefined : { topology: parseTopology(settings.topologyText), known: parseKnown(settings.knownText) };
   return { type: 'compare', before, after, channel, knownPart };
 }
 
-export async function runComparison(ctx: ActionContext, before: CaptureText | null, after: CaptureText | null, settings: CompareSettings): Promise<void> {
+export async function runComparison(ctx: ActionContext, before: CaptureFile | null, after: CaptureFile | null, settings: CompareSettings): Promise<void> {
   ctx.store.update((s) => {
     s.comparison = null;
     s.comparisonError = null;

@@ -4,13 +4,14 @@ import { parsePositiveValue, parseTolerance } from '../../core/workflow/userValu
 import { BenchError } from '../benchError';
 import { FitCancelled } from '../fitClient';
 import { plainMessage } from '../plainMessage';
-import type { ParasiticsAsk } from '../workerProtocol';
+import type { CaptureContent, ParasiticsAsk } from '../workerProtocol';
 import { showProgress, type ActionContext } from './context';
 
 /** One capture of the set as the panel holds it; the first is the bare loop. */
 export interface ExtractionRow {
   name: string;
-  text: string;
+  /** The capture file's content; null until one is chosen. */
+  content: CaptureContent | null;
   addedText: string;
 }
 
@@ -29,9 +30,9 @@ export function parasiticsAsk(rows: readonly ExtractionRow[], settings: Extracti
   const optional = (text: string, what: string, unit: string) => parsePositiveValue(text.trim() === '' ? undefined : text, what, unit);
   const captures = rows.map((row, i) => {
     const where = `capture ${i + 1}`;
-    if (!row.text) throw new BenchError(`${where}: choose a capture file`);
+    if (!row.content) throw new BenchError(`${where}: choose a capture file`);
     const addedC = i === 0 ? 0 : parsePositiveValue(row.addedText, `${where}: added C`, 'F');
-    return { name: row.name, text: row.text, addedC: addedC ?? 0 };
+    return { name: row.name, ...row.content, addedC: addedC ?? 0 };
   });
   return {
     captures,

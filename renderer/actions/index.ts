@@ -1,9 +1,9 @@
 // Every action of the window bound to one context: what the panels and the page entry call.
 
 import type { ComponentsInput } from '../benchState';
-import type { OpenedCapture, ReportFormat } from '../bridgeTypes';
+import type { OpenedFile, ReportFormat } from '../bridgeTypes';
 import type { LogForm } from '../logRequest';
-import type { CaptureText, FitWindow, StatedUnits } from '../workerProtocol';
+import type { CaptureFile, FitWindow, StatedUnits } from '../workerProtocol';
 import { logMeasurement, refreshLog } from './benchLog';
 import { chooseChannel, openCapture, openDropped, openSample, pickCapture, start, stateUnits } from './capture';
 import { runComparison, type CompareSettings } from './compare';
@@ -13,7 +13,7 @@ import { clearDesign, loadDesignFromSamples, pickDesign, saveDesign, useEditedDe
 import { exportPlot, exportReport } from './export';
 import { runExtraction, type ExtractionRow, type ExtractionSettings } from './extraction';
 import { setWindow } from './fitWindow';
-import { pickCaptureText, readSampleText } from './pickCaptures';
+import { pickCaptureFile, readSampleText } from './pickCaptures';
 
 export type BenchActions = ReturnType<typeof bindActions>;
 
@@ -23,7 +23,7 @@ export function bindActions(ctx: ActionContext) {
     openSample: (id: string) => openSample(ctx, id),
     pickCapture: () => pickCapture(ctx),
     openDropped: (file: File) => openDropped(ctx, file),
-    openCapture: (opened: OpenedCapture) => openCapture(ctx, opened, {}),
+    openCapture: (opened: OpenedFile) => openCapture(ctx, opened, {}),
     chooseChannel: (index: number) => chooseChannel(ctx, index),
     stateUnits: (units: StatedUnits) => stateUnits(ctx, units),
     setWindow: (window: FitWindow) => setWindow(ctx, window),
@@ -37,10 +37,10 @@ export function bindActions(ctx: ActionContext) {
     logMeasurement: (form: LogForm) => logMeasurement(ctx, form),
     exportReport: (format: ReportFormat) => exportReport(ctx, format),
     exportPlot: (format: 'png' | 'svg') => exportPlot(ctx, format),
-    pickCaptureText: () => pickCaptureText(ctx),
+    pickCaptureFile: () => pickCaptureFile(ctx),
     readSampleText: (id: string) => readSampleText(ctx, id),
     runExtraction: (rows: readonly ExtractionRow[], settings: ExtractionSettings) => runExtraction(ctx, rows, settings),
-    runComparison: (before: CaptureText | null, after: CaptureText | null, settings: CompareSettings) => runComparison(ctx, before, after, settings),
+    runComparison: (before: CaptureFile | null, after: CaptureFile | null, settings: CompareSettings) => runComparison(ctx, before, after, settings),
     dismissError: () => ctx.store.update((s) => (s.error = null)),
   };
 }

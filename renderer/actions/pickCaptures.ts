@@ -1,9 +1,9 @@
 // Captures chosen for a use case over several captures (extraction rows, before / after): read, not opened in the plot.
 
-import type { OpenedCapture } from '../bridgeTypes';
+import type { OpenedCapture, OpenedFile } from '../bridgeTypes';
 import { runStep, type ActionContext } from './context';
 
-export function pickCaptureText(ctx: ActionContext): Promise<OpenedCapture | null> {
+export function pickCaptureFile(ctx: ActionContext): Promise<OpenedFile | null> {
   return runStep(ctx, 'opening a capture', () => ctx.bridge.pickCapture());
 }
 

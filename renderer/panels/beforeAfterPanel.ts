@@ -5,25 +5,25 @@ import { showCompact, showValue } from '../show';
 import type { Comparison, QuantityChange } from '../../core/report/comparisonText';
 import type { BenchState } from '../benchState';
 import type { BenchActions } from '../actions';
-import type { CaptureText } from '../workerProtocol';
+import { contentOf, type CaptureFile } from '../workerProtocol';
 
 const SYMBOLS: Record<string, string> = { alpha: 'α', omega0: 'ω₀', f0: 'f₀', zeta: 'ζ', Q: 'Q', R: 'R', L: 'L', C: 'C' };
 const VERDICT_WORDS = { changed: 'Changed', 'no significant change': 'No significant change', undetermined: 'Cannot tell' } as const;
 
 export function createBeforeAfterPanel(actions: BenchActions) {
   const { root, body } = card('Before / after', 'before-after-panel');
-  const chosen: Record<'before' | 'after', CaptureText | null> = { before: null, after: null };
+  const chosen: Record<'before' | 'after', CaptureFile | null> = { before: null, after: null };
   let samplesShown = '';
   const sides = (['before', 'after'] as const).map((side) => {
     const name = h('span', { class: 'row-name', id: `${side}-name` }, 'no capture chosen');
     const sample = h('select', { id: `${side}-sample`, attrs: { 'aria-label': `${side} sample` } });
-    const take = (opened: CaptureText | null) => {
+    const take = (opened: CaptureFile | null) => {
       if (!opened) return;
-      chosen[side] = { name: opened.name, text: opened.text };
+      chosen[side] = { name: opened.name, ...contentOf(opened) };
       name.textContent = opened.name;
     };
     sample.addEventListener('change', async () => sample.value && take(await actions.readSampleText(sample.value)));
-    const file = button('File…', async () => take(await actions.pickCaptureText()), { id: `${side}-file` });
+    const file = button('File…', async () => take(await actions.pickCaptureFile()), { id: `${side}-file` });
     return { sample, row: h('div', { class: 'compare-side' }, h('span', { class: 'side-label' }, side === 'before' ? 'Before' : 'After'), sample, file, name) };
   });
   const channel = textInput('', { id: 'compare-channel', attrs: { placeholder: 'first', 'aria-label': 'Channel in both captures' } });

@@ -9,6 +9,7 @@ import type { BenchState } from '../benchState';
 import type { BenchActions } from '../actions';
 import type { ExtractionRow } from '../actions/extraction';
 import { cautionView } from './cautionView';
+import { contentOf } from '../workerProtocol';
 import { TOLERANCE_HINT, TOLERANCE_RULE } from './toleranceHint';
 
 interface RowControls extends ExtractionRow {
@@ -36,10 +37,10 @@ export function createParasiticPanel(actions: BenchActions) {
     const controls: RowControls = { ...row, element: h('div') };
     added.addEventListener('input', () => (controls.addedText = added.value));
     const choose = button('Choose…', async () => {
-      const opened = await actions.pickCaptureText();
+      const opened = await actions.pickCaptureFile();
       if (opened) {
         controls.name = opened.name;
-        controls.text = opened.text;
+        controls.content = contentOf(opened);
         name.textContent = opened.name;
       }
     });
@@ -67,9 +68,9 @@ export function createParasiticPanel(actions: BenchActions) {
   const useSet = button('Use the sample set', () => void loadSampleSet(), { id: 'use-sample-set', title: 'The bundled switch-node captures with 0, 470 pF and 1 nF added' });
   const useCurrent = button('Add the open capture', () => {
     if (!state?.capture) return;
-    addRow({ name: state.capture.opened.name, text: state.capture.opened.text, addedText: '' });
+    addRow({ name: state.capture.opened.name, content: contentOf(state.capture.opened), addedText: '' });
   }, { id: 'add-current' });
-  const addEmpty = button('Add a capture', () => addRow({ name: '', text: '', addedText: '' }), { id: 'add-extraction-row' });
+  const addEmpty = button('Add a capture', () => addRow({ name: '', content: null, addedText: '' }), { id: 'add-extraction-row' });
 
   async function loadSampleSet(): Promise<void> {
     const set = (state?.samples ?? []).filter((s) => s.addedCapacitor !== null).sort((a, b) => (a.addedCapacitor?.added ?? 0) - (b.addedCapacitor?.added ?? 0));
@@ -78,7 +79,7 @@ export function createParasiticPanel(actions: BenchActions) {
       const opened = await actions.readSampleText(sample.id);
       if (!opened) return;
       const added = sample.addedCapacitor?.added ?? 0;
-      addRow({ name: sample.file, text: opened.text, addedText: added === 0 ? '' : formatEngineering(added, 'F').replace(/\s+/g, '') });
+      addRow({ name: sample.file, content: contentOf(opened), addedText: added === 0 ? '' : formatEngineering(added, 'F').replace(/\s+/g, '') });
     }
   }
 

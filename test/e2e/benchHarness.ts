@@ -113,17 +113,18 @@ export async function inkFraction(browser: Browser, png: Buffer): Promise<number
   }
 }
 
-/** Drop a capture file on the window as a person drags it from a folder. */
+/** Drop a capture file on the window as a person drags it from a folder (its bytes as written, any encoding). */
 export async function dropFile(page: Page, path: string, name: string): Promise<void> {
-  const text = readFileSync(path, 'utf8');
+  const base64 = readFileSync(path).toString('base64');
   await page.evaluate(
-    ({ text, name }) => {
+    ({ base64, name }) => {
+      const bytes = Uint8Array.from(atob(base64), (c) => c.charCodeAt(0));
       const transfer = new DataTransfer();
-      transfer.items.add(new File([text], name, { type: 'text/csv' }));
+      transfer.items.add(new File([bytes], name, { type: 'text/csv' }));
       for (const type of ['dragenter', 'dragover', 'drop']) {
         document.body.dispatchEvent(new DragEvent(type, { dataTransfer: transfer, bubbles: true, cancelable: true }));
       }
     },
-    { text, name },
+    { base64, name },
   );
 }

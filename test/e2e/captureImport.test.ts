@@ -1,7 +1,7 @@
 // End to end: the capture panel shows how the file was read (delimiter, decimal mark, time source), in a real browser.
 
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
@@ -47,5 +47,23 @@ describe.skipIf(!hasChromium)('the capture panel in a browser', () => {
     await waitForFit(page, 'pulse-jig-discharge.csv');
     expect(await page.locator('#import-time-axis').innerText()).toBe("interval 40 ns from 'Sample Interval' on line 2");
     expect(await page.locator('#import-import').innerText()).toContain('one column');
+  });
+
+  it('reads a dropped file from its bytes: UTF-16 with a byte-order mark, and a Windows-1252 micro sign', async () => {
+    const text = readFileSync(join(repoRoot, 'sample-captures/input-filter-step.csv'), 'utf8');
+    const utf16 = join(folder, 'utf16.csv');
+    writeFileSync(utf16, Buffer.from(`\ufeff${text}`, 'utf16le'));
+    await dropFile(page, utf16, 'utf16.csv');
+    await waitForFit(page, 'utf16.csv');
+    expect(await page.locator('#import-import').innerText()).toContain('UTF-16LE');
+    expect(await page.locator('#capture-samples').innerText()).toBe('2,500');
+    const [, ...rows] = text.trim().split('\n');
+    const micro = join(folder, 'micro.csv');
+    writeFileSync(micro, Buffer.from(['Time (\u00b5s),CH1 (V)', ...rows.map((row) => row.replace(/^[^,]+/, (t) => String(Number(t) * 1e6)))].join('\r\n'), 'latin1'));
+    await dropFile(page, micro, 'micro.csv');
+    await waitForFit(page, 'micro.csv');
+    expect(await page.locator('#import-import').innerText()).toContain('Windows-1252');
+    expect(await page.locator('#import-time-axis').innerText()).toBe("column 'Time (\u00b5s)' in µs, every 400 ns");
+    await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-windows-1252.png') });
   });
 });

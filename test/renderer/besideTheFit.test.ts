@@ -36,7 +36,7 @@ function growingOscillation(): string {
 
 describe('a design or known-part problem beside the fit', () => {
   it('keeps the fit and its cautions when the design probes another unit than the channel', () => {
-    ask({ type: 'open', captureId: 'wrong-unit', name: 'input-filter-step.csv', text: readFileSync(path.join(SAMPLES, 'input-filter-step.csv'), 'utf8') });
+    ask({ type: 'open', captureId: 'wrong-unit', name: 'input-filter-step.csv', content: { text: readFileSync(path.join(SAMPLES, 'input-filter-step.csv'), 'utf8') } });
     const design = currentProbeDesign();
     const plain = ask({ type: 'measure', captureId: 'wrong-unit', channel: 0, window: {} }).reply;
     const { reply } = ask({ type: 'measure', captureId: 'wrong-unit', channel: 0, window: {}, design, knownPart: KNOWN_C });
@@ -57,7 +57,7 @@ describe('a design or known-part problem beside the fit', () => {
   });
 
   it('keeps the fit when the known part cannot give components, and weighs the cautions without parts', () => {
-    ask({ type: 'open', captureId: 'growing', name: 'growing.csv', text: growingOscillation() });
+    ask({ type: 'open', captureId: 'growing', name: 'growing.csv', content: { text: growingOscillation() } });
     const plain = ask({ type: 'measure', captureId: 'growing', channel: 0, window: {} }).reply;
     const { reply } = ask({ type: 'measure', captureId: 'growing', channel: 0, window: {}, knownPart: KNOWN_C });
     expect(reply.fitError).toBeNull();

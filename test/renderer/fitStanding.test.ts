@@ -30,7 +30,7 @@ describe('fitStanding', () => {
   });
 
   it('never shows green beside the fit of a flat, noisy record', () => {
-    handleWorkerRequest({ type: 'open', captureId: 'flat', name: 'flat-noise.csv', text: flatNoiseCapture() }, () => undefined);
+    handleWorkerRequest({ type: 'open', captureId: 'flat', name: 'flat-noise.csv', content: { text: flatNoiseCapture() } }, () => undefined);
     const reply = handleWorkerRequest({ type: 'measure', captureId: 'flat', channel: 0, window: {} }, () => undefined).value as Extract<WorkerReplyValue, { type: 'measure' }>;
     const summary = reply.reply.result?.summary;
     if (summary) expect(fitStanding(summary, []).tone).not.toBe('ok');

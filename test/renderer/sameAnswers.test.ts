@@ -52,7 +52,7 @@ describe('the window and the command line give the same answers', () => {
       const cli = await cliJson(['fit', path.join('sample-captures', entry.file), '--column', entry.channel, '--topology', entry.topology, '--known', entry.known.option, '--json']);
       const { name, text } = sampleText(entry.file);
       const captureId = `same-${entry.file}`;
-      const opened = ask({ type: 'open', captureId, name, text });
+      const opened = ask({ type: 'open', captureId, name, content: { text } });
       const channel = opened.info!.channels.findIndex((c) => c.name === entry.channel);
       expect(channel).toBeGreaterThanOrEqual(0);
       const knownPart = { topology: parseTopology(entry.topology), known: parseKnown(entry.known.option) };
