@@ -1,10 +1,13 @@
 // The command line on a file of repeated acquisitions: the first segment by default, --segment N another, a bad N refused with the count.
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
+import { parseCapture } from '../../core/capture/parseCapture';
 import { createRandom } from '../../core/random';
+import { loadReportTraces } from '../../main/app/reportFile';
 import { runCli } from '../../main/cli/program';
+import { readBenchLog } from '../../main/io/benchLog';
 import type { CliIo } from '../../main/cli/io';
 
 const dir = mkdtempSync(path.join(tmpdir(), 'ringbench-segments-'));
@@ -80,4 +83,18 @@ describe('fit --segment', () => {
       expect(err).toMatch(bad === 'two' ? /--segment: 'two' is not a segment number/ : /the file has 2 segments; segments count from 1/);
     });
   }
+});
+
+describe('log add --segment', () => {
+  it("keeps the segment in the record's settings, and the report reads that segment again", async () => {
+    const file = segmentedFile();
+    const { code, err } = await run(['log', 'add', file, '--segment', '2', '--log', 'bench.jsonl', '--unit', 'SN7', '--json']);
+    expect(err).toBe('');
+    expect(code).toBe(0);
+    const [record] = readBenchLog(path.join(dir, 'bench.jsonl')).records;
+    expect(record.settings.segment).toBe('2');
+    const trace = loadReportTraces([record]).traces[record.id];
+    const second = parseCapture(readFileSync(file, 'utf8'), { segment: 2 }).channels[0];
+    expect(Array.from(trace.values)).toEqual(Array.from(second.values));
+  });
 });
