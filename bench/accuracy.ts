@@ -1,19 +1,21 @@
 // `npm run bench:accuracy`: Monte Carlo RMS error of omega_d and alpha against the Cramér-Rao bound, and coverage of the reported 95 % intervals.
 //
-// Usage: tsx bench/accuracy.ts [--runs 200] [--samples 2000] [--seed 1] [--workers <cores>] [--cases all|white|low-pass|<ids>]
+// Usage: tsx bench/accuracy.ts [--runs 200] [--samples 2000] [--seed 1] [--workers <cores>] [--cases all|white|low-pass|overdamped|<ids>]
 
 import { spawn } from 'node:child_process';
 import { cpus } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
-import { accuracyCases, caseLabel, LOW_PASS_RHO, quantizationRms, type AccuracyCase } from './accuracyCases';
+import { accuracyCases, caseLabel, isOverdamped, LOW_PASS_RHO, quantizationRms, type AccuracyCase } from './accuracyCases';
 import type { CaseSummary } from './accuracyWorker';
 import { fixed, formatTable, goalLine, machineLine } from './table';
 
 const HERE = path.dirname(fileURLToPath(import.meta.url));
 const RATIO_GOAL = 1.25;
 const COVERAGE_GOAL: [number, number] = [0.92, 0.98];
+/** Overdamped cases: among converged runs the 95 % intervals hold the truth at least this often. */
+const OVERDAMPED_COVERAGE_GOAL = 0.9;
 
 /** Runs each case in its own child process, `workers` at a time. */
 async function runCases(cases: AccuracyCase[], samples: number, runs: number, seed: number, workers: number): Promise<CaseSummary[]> {
@@ -47,7 +49,7 @@ function inRange(x: number, [lo, hi]: [number, number]): boolean {
 function printWhite(cases: AccuracyCase[], results: CaseSummary[]): string[] {
   const misses: string[] = [];
   const rows = results
-    .filter((r) => cases[r.id].noise === 'white')
+    .filter((r) => isRing(cases[r.id]))
     .map((r) => {
       const c = cases[r.id];
       const wd = r.omegaD.rms / (r.bound.white.omegaD as number);
@@ -161,13 +163,64 @@ function printCorrelated(cases: AccuracyCase[], results: CaseSummary[]): string[
   return misses;
 }
 
-/** `--cases`: all, white, low-pass, or comma-separated case ids (0-based, in the order of accuracyCases). */
+/** A ring case with white noise, judged against the bound on omega_d and alpha. */
+function isRing(c: AccuracyCase): boolean {
+  return c.noise === 'white' && !isOverdamped(c);
+}
+
+/** Overdamped steps: coverage among converged runs, a single decay reported apart, and any regime stated wrongly. */
+function printOverdamped(cases: AccuracyCase[], results: CaseSummary[]): string[] {
+  const misses: string[] = [];
+  const rows = results
+    .filter((r) => r.overdamped !== null)
+    .map((r) => {
+      const c = cases[r.id];
+      const o = r.overdamped!;
+      const covers = [o.alpha.coverage, o.omega0.coverage, o.zeta.coverage].map((x) => (o.secondOrder > 0 ? x : 1));
+      if (covers.some((x) => x < OVERDAMPED_COVERAGE_GOAL) || o.slowRoot.coverage < OVERDAMPED_COVERAGE_GOAL) {
+        misses.push(`${caseLabel(c)}: converged coverage ${covers.map(percent).join(' / ')} % (alpha / omega0 / zeta), ${percent(o.slowRoot.coverage)} % (slow root)`);
+      }
+      if (o.wrongRegime > 0) misses.push(`${caseLabel(c)}: ${o.wrongRegime} run(s) in the wrong regime with 2 sigma to spare`);
+      const share = (x: number) => (o.secondOrder > 0 ? percent(x) : '-');
+      return [
+        caseLabel(c),
+        String(r.runs - r.notConverged),
+        String(o.secondOrder),
+        String(o.firstOrder),
+        String(r.notConverged),
+        share(o.alpha.coverage),
+        share(o.omega0.coverage),
+        share(o.zeta.coverage),
+        percent(o.slowRoot.coverage),
+        fixed(o.slowRoot.rms / o.slowRoot.meanStderr),
+        String(o.wrongRegime),
+        Object.entries(o.regimes)
+          .map(([regime, n]) => `${regime} ${n}`)
+          .join(', '),
+        r.msPerFit.toFixed(0),
+      ];
+    });
+  if (rows.length === 0) return misses;
+  console.log(
+    formatTable(
+      ['case', 'converged', 'second order', 'single decay', 'not converged', 'cover alpha %', 'cover omega0 %', 'cover zeta %', 'cover slow root %', 'slow root RMS/se', 'wrong regime', 'regimes', 'ms/fit'],
+      rows,
+    ),
+  );
+  console.log(
+    'Over converged runs: second order, a regime with zeta; single decay, the first-order fit (regime first-order, tau); cover: value ± 1.96 stderr holds the truth, alpha / omega0 / zeta among the second-order runs, the slow root (alpha - sqrt(alpha^2 - omega0^2), or 1/tau) among all; wrong regime: a regime other than overdamped with zeta more than 2 stderr from the truth.',
+  );
+  return misses;
+}
+
+/** `--cases`: all, white, low-pass, overdamped, or comma-separated case ids (0-based, in the order of accuracyCases). */
 function selectCases(cases: AccuracyCase[], spec: string): AccuracyCase[] {
   if (spec === 'all') return cases;
   if (spec === 'white' || spec === 'low-pass') return cases.filter((c) => c.noise === spec);
+  if (spec === 'overdamped') return cases.filter(isOverdamped);
   const ids = spec.split(',').map(Number);
   const unknown = ids.filter((id) => !cases.some((c) => c.id === id));
-  if (unknown.length) throw new Error(`--cases: no case ${unknown.join(', ')} (ids 0..${cases.length - 1}, or all, white, low-pass)`);
+  if (unknown.length) throw new Error(`--cases: no case ${unknown.join(', ')} (ids 0..${cases.length - 1}, or all, white, low-pass, overdamped)`);
   return cases.filter((c) => ids.includes(c.id));
 }
 
@@ -190,7 +243,7 @@ async function main(): Promise<void> {
   const chosen = selectCases(cases, values.cases);
   console.log(`Ringbench accuracy benchmark: ${machineLine(cpus(), process.version, new Date())}`);
   console.log(
-    `${runs} seeded records per case, ${samples} samples each: a 0 -> 1 V step of a gate-drive loop, omega0 = 2 pi 1 MHz, 10 % pre-trigger, record 6/alpha after the event.`,
+    `${runs} seeded records per case, ${samples} samples each: a 0 -> 1 V step of a gate-drive loop, omega0 = 2 pi 1 MHz, 10 % pre-trigger, record 6 decay times of the slowest root after the event.`,
   );
   console.log('SNR = 20 log10(step height / noise rms). 8-bit: 256 codes over 3 V, adding q/sqrt(12) = ' + `${(quantizationRms() * 1e3).toFixed(2)} mV rms of quantization error.`);
   console.log('CRB: Fisher information of the fit\'s zero-slope layout (alpha, omega0, t0, yPre, yFinal) for the analog noise; coverage: value ± 1.96 stderr holds the truth.');
@@ -200,9 +253,12 @@ async function main(): Promise<void> {
   const misses = printWhite(cases, results);
   console.log(`\nBandwidth-limited noise (first-order low-pass, neighbour correlation ${LOW_PASS_RHO}; the ring itself is well inside the band)`);
   misses.push(...printCorrelated(cases, results));
+  console.log('\nOverdamped steps (white noise; the fast root barely in the record)');
+  const overdampedMisses = printOverdamped(cases, results);
+  misses.push(...overdampedMisses);
 
   console.log('\nGoals');
-  const white = results.filter((r) => cases[r.id].noise === 'white');
+  const white = results.filter((r) => isRing(cases[r.id]));
   const efficient = white.filter((r) => r.omegaD.rms <= RATIO_GOAL * (r.bound.white.omegaD as number) && r.alpha.rms <= RATIO_GOAL * r.bound.white.alpha);
   const covered = white.filter((r) => inRange(r.omegaD.coverage, COVERAGE_GOAL) && inRange(r.alpha.coverage, COVERAGE_GOAL));
   const correlated = results.filter((r) => cases[r.id].noise === 'low-pass');
@@ -219,6 +275,14 @@ async function main(): Promise<void> {
       calibrated.length === correlated.length,
       'filtered noise: reported stderr widens to the real spread (se/RMS 0.8..1.25) and coverage stays 92..98 %',
       `${calibrated.length} of ${correlated.length} cases`,
+    ),
+  );
+  const overdamped = results.filter((r) => r.overdamped !== null);
+  console.log(
+    goalLine(
+      overdampedMisses.length === 0,
+      `overdamped: converged runs cover the truth at least ${percent(OVERDAMPED_COVERAGE_GOAL)} % of the time, none in the wrong regime with 2 sigma to spare`,
+      `${overdamped.length} case(s)`,
     ),
   );
   for (const m of misses) console.log(`  miss: ${m}`);

@@ -16,7 +16,7 @@ export interface AccuracyCase {
 
 /** Neighbour correlation of the filtered noise: a corner at -ln(0.8) / (2 pi) = 3.6 % of the sample rate. */
 export const LOW_PASS_RHO = 0.8;
-/** The step: 0 V to 1 V, omega0 = 2 pi 1 MHz, 10 % of the record before the event, record 6 / alpha after it. */
+/** The step: 0 V to 1 V, omega0 = 2 pi 1 MHz, 10 % of the record before the event, record 6 decay times of the slowest root after it. */
 const OMEGA0 = 2 * Math.PI * 1e6;
 const STEP = 1;
 const PRE_TRIGGER = 0.1;
@@ -30,7 +30,21 @@ export function accuracyCases(): AccuracyCase[] {
   for (const quantized of [false, true])
     for (const zeta of [0.02, 0.1, 0.3, 0.7]) for (const snrDb of [20, 30, 40]) cases.push({ zeta, snrDb, quantized, noise: 'white' });
   for (const zeta of [0.1, 0.3]) cases.push({ zeta, snrDb: 30, quantized: false, noise: 'low-pass' });
+  // Heavily overdamped steps, where the fast root is barely in the record (appended: earlier ids stay).
+  for (const zeta of OVERDAMPED_ZETAS) cases.push({ zeta, snrDb: 30, quantized: false, noise: 'white' });
   return cases.map((c, id) => ({ id, ...c }));
+}
+
+/** The overdamped cases' damping ratios: the fast root 14 and 98 times the slow one. */
+const OVERDAMPED_ZETAS = [2, 5];
+
+export function isOverdamped(c: AccuracyCase): boolean {
+  return c.zeta > 1;
+}
+
+/** Decay rate of the slowest root: alpha below critical damping, alpha - sqrt(alpha^2 - omega0^2) above it. */
+export function slowestRate(alpha: number, omega0: number): number {
+  return alpha <= omega0 ? alpha : alpha - Math.sqrt(alpha * alpha - omega0 * omega0);
 }
 
 export function caseLabel(c: AccuracyCase): string {
@@ -46,7 +60,7 @@ export interface SyntheticRecord {
 /** The record's time axis and true parameters (the same for every run of a case). */
 export function caseTruth(c: AccuracyCase, samples: number): { time: Float64Array; truth: ResponseParams; noiseRms: number } {
   const alpha = c.zeta * OMEGA0;
-  const duration = 6 / alpha / (1 - PRE_TRIGGER);
+  const duration = 6 / slowestRate(alpha, OMEGA0) / (1 - PRE_TRIGGER);
   const dt = duration / samples;
   const time = Float64Array.from({ length: samples }, (_, i) => i * dt);
   // Off the sample grid, as a real trigger is.

@@ -40,7 +40,7 @@ export function assembleFit(
   };
   const { alpha, omega0 } = params;
   const ring = firstOrder ? null : ringQuantities(alpha, omega0, c, names.indexOf('alpha'), names.indexOf('omega0'));
-  const { regime, evidence } = ring ? classifyRegime(ring.zeta) : { regime: 'first-order' as const, evidence: choice.evidence };
+  const { regime, evidence } = ring ? classifyRegime(ring.zeta, cov.zetaInterval) : { regime: 'first-order' as const, evidence: choice.evidence };
   const rmsResidual = Math.sqrt(best.sse / set.time.length);
   const t0Known = LAYOUTS[best.layout].fitsT0;
   // A layout with the level before the event holds its t0 at a jump it found; one without has no samples before it.

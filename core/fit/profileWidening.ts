@@ -9,6 +9,8 @@ import { zetaProfile } from './zetaProfile';
 const CLEAR_RING_SIGMAS = 3;
 /** Singular values of the equilibrated covariance below this share of the largest are taken as zero. */
 const RANK_CUTOFF = 1e-12;
+/** The level of the interval handed on for the regime: the regime's own rule (regime.ts) claims one 2 standard errors clear of 1. */
+const REGIME_SIGMAS = 2;
 /** A widening of zeta's standard error beyond this factor is worth a warning. */
 const WARN_WIDENING = 1.5;
 
@@ -29,17 +31,18 @@ export function widenAlongZetaProfile(
   t0Fixed: number,
   variance: number,
   covariance: number[][],
-): { covariance: number[][] | null; warnings: string[] } | null {
+): { covariance: number[][] | null; zetaInterval: { low: number; high: number }; warnings: string[] } | null {
   const { index } = LAYOUTS[layout];
   if (index.alpha === undefined || index.omega0 === undefined) return null;
   const zeta = values[index.alpha] / values[index.omega0];
   const localSe = zetaStderr(values, covariance, index.alpha, index.omega0);
   if (!(localSe >= 0) || zeta + CLEAR_RING_SIGMAS * localSe < 1) return null;
   const profile = zetaProfile(set, layout, values, t0Fixed, variance);
-  const twoSigma = profile.interval.find((i) => i.sigmas === 2) ?? profile.interval[0];
+  const twoSigma = profile.interval.find((i) => i.sigmas === REGIME_SIGMAS) ?? profile.interval[0];
   if (profile.unbounded) {
     return {
       covariance: null,
+      zetaInterval: { low: twoSigma.low, high: twoSigma.high },
       warnings: [
         `the fast root is not resolved: every zeta above ${twoSigma.low.toPrecision(3)}, up to a single decay, fits the record within 2 standard errors; alpha, omega0 and zeta have no finite uncertainty (the slow decay is what the record measures)`,
       ],
@@ -60,7 +63,7 @@ export function widenAlongZetaProfile(
       `the residual along zeta is far from a parabola (the fast root is barely resolved): the uncertainties of alpha, omega0 and zeta were widened to the profile's reach, zeta ${twoSigma.low.toPrecision(3)} to ${twoSigma.high.toPrecision(3)} at 2 standard errors`,
     );
   }
-  return { covariance: widened, warnings };
+  return { covariance: widened, zetaInterval: { low: twoSigma.low, high: twoSigma.high }, warnings };
 }
 
 /** Standard error of zeta = alpha / omega0 to first order. */

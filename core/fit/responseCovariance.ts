@@ -11,6 +11,8 @@ export interface ResponseCovariance {
   correlation: number[][] | null;
   /** Largest ratio, over alpha and omega0, of the variance allowing for correlated residuals to that for white ones (1 when the residuals look white). */
   inflation: number;
+  /** Zeta's interval at 2 standard errors read from its residual profile, where the profile was walked (profileWidening.ts). */
+  zetaInterval?: { low: number; high: number };
   warnings: string[];
 }
 
@@ -158,6 +160,7 @@ export function responseCovariance(
     ...local,
     covariance: c,
     correlation: c ? c.map((row, a) => row.map((v, b) => (a === b ? 1 : v / Math.sqrt(c[a][a] * c[b][b])))) : null,
+    zetaInterval: widened.zetaInterval,
     warnings: [...local.warnings, ...widened.warnings],
   };
 }
