@@ -6,6 +6,7 @@ import { formatMeasured, formatWithUncertainty } from '../units/format';
 import type { Quantity } from '../quantity';
 import type { CautionResult } from '../safety/evaluateCautions';
 import type { FitSummary } from './fitSummary';
+import { fitStateText } from './resultRows';
 
 export interface QuantityChange {
   name: string;
@@ -39,8 +40,8 @@ export interface Comparison {
 }
 
 export function formatComparisonText(c: Comparison): string {
-  let text = `before  ${c.before.file} (${c.before.channel}): ${c.before.status}, ${c.before.regime}\n`;
-  text += `after   ${c.after.file} (${c.after.channel}): ${c.after.status}, ${c.after.regime}\n`;
+  let text = `before  ${c.before.file} (${c.before.channel}): ${fitStateText(c.before)}\n`;
+  text += `after   ${c.after.file} (${c.after.channel}): ${fitStateText(c.after)}\n`;
   const width = Math.max(24, ...c.quantities.flatMap((q) => [formatMeasured(q.before).length, formatMeasured(q.after).length])) + 2;
   if (c.quantities.length) text += `  ${'quantity'.padEnd(8)} ${'before'.padEnd(width)} ${'after'.padEnd(width)} change (relative), in combined standard uncertainties\n`;
   for (const q of c.quantities) {

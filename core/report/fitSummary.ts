@@ -6,6 +6,7 @@ import type { ResponseParams } from '../response/secondOrder';
 import type { TransitionSummary } from '../circuit/transitionSummary';
 import type { ImportSummary } from '../capture/importSummary';
 import type { EventTrainSummary } from './eventTrainSummary';
+import type { FitStatus } from '../fit/types';
 
 export interface ComponentSet {
   R: Quantity;
@@ -18,13 +19,16 @@ export interface FitSummary {
   channel: string;
   status: ResponseFit['status'];
   message: string;
-  regime: ResponseFit['regime'];
-  regimeEvidence: string;
+  /** The damping regime and why; absent when the fit failed (see fitSucceeded). */
+  regime?: ResponseFit['regime'];
+  regimeEvidence?: string;
   alpha: Quantity;
   omega0: Quantity;
   omegaD?: Quantity;
   zeta: Quantity;
   Q: Quantity;
+  /** Time constant of a first-order response, s; absent for a second-order one. */
+  tau?: Quantity;
   finalValue: Quantity;
   t0: Quantity;
   components?: ComponentSet & { topology: string; known: string };
@@ -45,6 +49,19 @@ export interface FitSummary {
   events?: EventTrainSummary;
 }
 
+/**
+ * The one rule every face applies: only a converged fit is an answer. Any other status (the iteration
+ * limit, a failure, no response found) is a failed fit: exit 1, no verdict, no regime.
+ */
+export function fitSucceeded(fit: { status: FitStatus }): boolean {
+  return fit.status === 'converged';
+}
+
+/** Every warning the fit's text shows, the transition metrics' last. */
+export function fitWarnings(s: Pick<FitSummary, 'warnings' | 'transitions'>): string[] {
+  return [...s.warnings, ...(s.transitions?.warnings ?? []).map((w) => `transitions: ${w}`)];
+}
+
 export function summarizeFit(
   file: string,
   channel: string,
@@ -57,8 +74,7 @@ export function summarizeFit(
     channel,
     status: fit.status,
     message: fit.message,
-    regime: fit.regime,
-    regimeEvidence: fit.regimeEvidence,
+    ...(fitSucceeded(fit) ? { regime: fit.regime, regimeEvidence: fit.regimeEvidence } : {}),
     alpha: fit.alpha,
     omega0: fit.omega0,
     zeta: fit.zeta,
@@ -75,6 +91,7 @@ export function summarizeFit(
     warnings: [...extraWarnings, ...fit.warnings],
   };
   if (fit.omegaD) summary.omegaD = fit.omegaD;
+  if (fit.tau) summary.tau = fit.tau;
   if (components) summary.components = components;
   return summary;
 }

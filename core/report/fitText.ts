@@ -1,10 +1,10 @@
 // A fit summary as the readable table the command line prints.
 
 import { formatEngineering } from '../units/format';
-import type { FitSummary } from './fitSummary';
+import { fitWarnings, type FitSummary } from './fitSummary';
 import { formatEventsText } from './eventsText';
 import { importRows } from './importText';
-import { fitResultRows, fitTransitionRows, transitionNote } from './resultRows';
+import { fitResultRows, fitTransitionRows, regimeTag, transitionNote } from './resultRows';
 
 /** Width of the label column: the longest label ('residual rms', 'samples used') and a space. */
 const LABEL_WIDTH = 16;
@@ -18,7 +18,7 @@ export function formatFitText(s: FitSummary): string {
   // What the importer inferred comes first: a misread file explains any result below it.
   for (const row of s.import ? importRows(s.import) : []) text += line(row.label, row.text);
   text += line('status', `${s.status}${s.status === 'converged' ? '' : `: ${s.message}`}`);
-  text += line('regime', `${s.regime} (${s.regimeEvidence})`);
+  if (regimeTag(s) !== null) text += line('regime', `${s.regime} (${s.regimeEvidence})`);
   for (const row of fitResultRows(s)) {
     // The components' basis heads their rows.
     if (row.name === 'components.R' && s.components) text += line('components', `${s.components.topology}, known ${s.components.known}`);
@@ -31,8 +31,7 @@ export function formatFitText(s: FitSummary): string {
   text += line('samples used', `${s.samplesUsed}${s.decimation ? ` (${s.decimation.note})` : ''}`);
   text += line('fit window', `${formatEngineering(s.window.start, 's')} to ${formatEngineering(s.window.end, 's')}`);
   if (s.events) text += formatEventsText(s.events);
-  for (const w of s.warnings) text += `  warning: ${w}\n`;
-  for (const w of s.transitions?.warnings ?? []) text += `  warning: transitions: ${w}\n`;
+  for (const w of fitWarnings(s)) text += `  warning: ${w}\n`;
   return text;
 }
 

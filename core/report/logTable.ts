@@ -1,8 +1,11 @@
 // The bench log as the table `ringbench log list` prints: one line per measurement.
 
 import type { BenchRecord } from './benchRecord';
-import { briefValue } from './resultRows';
+import { briefValue, regimeTag } from './resultRows';
 import { recordStatus } from './yieldSummary';
+
+/** The regime cell of a failed fit, which has none. */
+const NONE = '-';
 
 const COLUMNS = ['time', 'unit', 'regime', 'f0', 'zeta', 'verdict'] as const;
 
@@ -10,7 +13,7 @@ export function formatLogTable(records: readonly BenchRecord[]): string {
   const rows = records.map((r) => [
     r.time.slice(0, 19).replace('T', ' '),
     printable(r.unit),
-    r.fit.regime,
+    regimeTag(r.fit) ?? NONE,
     briefValue(r.fit, 'f0'),
     briefValue(r.fit, 'zeta'),
     recordStatus(r),

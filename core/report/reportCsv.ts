@@ -2,7 +2,7 @@
 
 import type { BenchRecord } from './benchRecord';
 import { csvCell } from './escape';
-import { RESULT_ROWS, TRANSITION_ROWS, fitTransitionRows, rowQuantity } from './resultRows';
+import { RESULT_ROWS, TRANSITION_ROWS, fitTransitionRows, regimeTag, rowQuantity } from './resultRows';
 import { recordStatus } from './yieldSummary';
 
 const HEADER = [
@@ -25,7 +25,7 @@ export function renderReportCsv(records: readonly BenchRecord[]): string {
       return [t?.model?.value ?? null, t?.model?.stderr ?? null, t?.measured ?? null];
     });
     const row: (string | number | null)[] = [
-      r.id, r.time, r.unit, r.operator, r.note, fit.file, fit.channel, fit.finalValue.unit, fit.status, fit.regime,
+      r.id, r.time, r.unit, r.operator, r.note, fit.file, fit.channel, fit.finalValue.unit, fit.status, regimeTag(fit),
       ...quantities.flatMap((q) => [q?.value ?? null, q?.stderr ?? null]),
       ...transitionCells,
       transitions.length ? (fit.transitions?.levelMethod ?? null) : null,

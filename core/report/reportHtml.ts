@@ -9,7 +9,7 @@ import type { Verdict } from '../circuit/verdict';
 import { escapeHtml as e } from './escape';
 import { importRows } from './importText';
 import { renderMeasurementPlot, type ReportTrace } from './overlay';
-import { briefValue, fitResultRows, fitTransitionRows, marginText, showTime, transitionNote } from './resultRows';
+import { briefValue, fitResultRows, fitTransitionRows, marginText, regimeTag, showTime, transitionNote } from './resultRows';
 import { reproduceCommand } from './reproduce';
 import { REPORT_CSS } from './reportStyle';
 import { YIELD_RULE, recordStatus, summarizeYield, type UnitStatus, type UnitSummary, type YieldSummary } from './yieldSummary';
@@ -126,7 +126,7 @@ function measurement(record: BenchRecord, id: string, options: ReportOptions): s
   for (const note of notes) html += `<p class="notice">${e(note)}</p>`;
   if (fit.status !== 'converged') html += `<p class="notice">Fit status ${e(fit.status)}: ${e(fit.message)}</p>`;
   html += figure;
-  html += `<div class="block"><h4>Fit: ${e(fit.regime)}</h4>${resultsTable(record)}</div>`;
+  html += `<div class="block"><h4>Fit: ${e(regimeTag(fit) ?? fit.status)}</h4>${resultsTable(record)}</div>`;
   html += transitionsBlock(fit);
   html += importBlock(fit);
   html += `<div class="block">${record.verdict ? verdictBlock(record.verdict, record.design?.name ?? 'design', fit.finalValue.unit) : '<h4>Verdict</h4><p class="fineprint">Not checked against a design.</p>'}</div>`;

@@ -5,7 +5,7 @@ import { DEFERRAL, STANDING_ADVICE, STANDING_ADVICE_SOURCE } from '../safety/sta
 import type { BenchRecord } from './benchRecord';
 import { escapeMarkdown as m } from './escape';
 import { importRows } from './importText';
-import { fitResultRows, fitTransitionRows, marginText, showTime, transitionNote } from './resultRows';
+import { fitResultRows, fitStateText, fitTransitionRows, marginText, showTime, transitionNote } from './resultRows';
 import { reproduceCommand } from './reproduce';
 import { YIELD_RULE, recordStatus, summarizeYield } from './yieldSummary';
 
@@ -52,7 +52,7 @@ function measurement(record: BenchRecord, notes: string[]): string[] {
   const byline = [record.operator && `operator ${record.operator}`, record.note].filter((x): x is string => Boolean(x));
   if (byline.length) lines.push(m(byline.join(' · ')), '');
   for (const note of notes) lines.push(`> ${m(note)}`, '');
-  lines.push(`Fit: ${m(fit.status)}, ${m(fit.regime)}.`, '', '| Quantity | Value |', '| --- | --- |');
+  lines.push(`Fit: ${m(fitStateText(fit))}.`, '', '| Quantity | Value |', '| --- | --- |');
   for (const row of fitResultRows(fit)) lines.push(`| ${m(row.symbol)} | ${m(row.text)} |`);
   const transitions = fitTransitionRows(fit);
   const note = transitionNote(fit);

@@ -3,7 +3,7 @@
 
 import type { Quantity } from '../quantity';
 import { formatEngineering, formatMeasured } from '../units/format';
-import type { FitSummary } from './fitSummary';
+import { fitSucceeded, type FitSummary } from './fitSummary';
 import type { VerdictQuantity } from '../circuit/verdict';
 
 export interface ResultRowSpec {
@@ -15,8 +15,8 @@ export interface ResultRowSpec {
   unit: string | null;
   /** CSV column of the value in SI base units; its uncertainty goes in `<column>_stderr`. */
   column: string;
-  /** Present only for some fits: omega_d for an underdamped one, R, L, C when components were derived. */
-  optional?: 'underdamped' | 'components';
+  /** Present only for some fits: omega_d for an underdamped one, tau for a first-order one, R, L, C when components were derived. */
+  optional?: 'underdamped' | 'first-order' | 'components';
   /** A row computed from another (f0 from omega0) rather than stored in the summary. */
   derived?: { from: string; convert: (q: Quantity) => Quantity };
 }
@@ -37,6 +37,7 @@ export const RESULT_ROWS = [
   { name: 'f0', symbol: 'f0', unit: 'Hz', column: 'f0_hz', derived: { from: 'omega0', convert: hertz } },
   { name: 'zeta', symbol: 'zeta', unit: '', column: 'zeta' },
   { name: 'Q', symbol: 'Q', unit: '', column: 'Q' },
+  { name: 'tau', symbol: 'tau', unit: 's', column: 'tau_s', optional: 'first-order' },
   { name: 'finalValue', symbol: 'final value', unit: null, column: 'final_value' },
   { name: 't0', symbol: 't0', unit: 's', column: 't0_s' },
   { name: 'components.R', symbol: 'R', unit: 'ohm', column: 'R_ohm', optional: 'components' },
@@ -46,7 +47,10 @@ export const RESULT_ROWS = [
 
 export type ResultRowName = (typeof RESULT_ROWS)[number]['name'];
 
-/** The rows this fit has, in table order: omega_d only when underdamped, R, L, C only with components. */
+/**
+ * The rows this fit has, in table order: omega_d only when underdamped, tau only when first-order, R, L, C
+ * only with components; a quantity that does not apply (the alpha of a first-order fit: NaN) is left out.
+ */
 export function fitResultRows(fit: FitSummary): ResultRow[] {
   return RESULT_ROWS.flatMap((spec: ResultRowSpec) => {
     const q = rowQuantity(spec, fit);
@@ -54,10 +58,10 @@ export function fitResultRows(fit: FitSummary): ResultRow[] {
   });
 }
 
-/** The quantity of one row for this fit, or undefined when the fit has none. */
+/** The quantity of one row for this fit, or undefined when the fit has none or it does not apply (NaN, null after JSON). */
 export function rowQuantity(spec: ResultRowSpec, fit: FitSummary): Quantity | undefined {
   const source = valueAtPath(fit, spec.derived?.from ?? spec.name) as Quantity | null | undefined;
-  if (source === undefined || source === null) return undefined;
+  if (source === undefined || source === null || source.value === null || Number.isNaN(source.value)) return undefined;
   return spec.derived ? spec.derived.convert(source) : source;
 }
 
@@ -112,6 +116,17 @@ export function transitionNote(fit: FitSummary): string | null {
   const t = fit.transitions;
   if (!t) return null;
   return t.reason === null ? `state levels: ${t.levelMethod}; peak and settling times from t0` : `not measured: ${t.reason}`;
+}
+
+/** The damping regime of a fit; null when the fit failed (records logged before that rule may still carry one). */
+export function regimeTag(fit: Pick<FitSummary, 'status' | 'regime'>): NonNullable<FitSummary['regime']> | null {
+  return fitSucceeded(fit) ? (fit.regime ?? null) : null;
+}
+
+/** 'converged, underdamped', or the status alone when the fit failed. */
+export function fitStateText(fit: Pick<FitSummary, 'status' | 'regime'>): string {
+  const regime = regimeTag(fit);
+  return regime === null ? fit.status : `${fit.status}, ${regime}`;
 }
 
 /** The value alone of the named row ('f0', 'zeta'), or '-' when this fit has none. */

@@ -4,6 +4,11 @@ import type { Verdict } from '../circuit/verdict';
 import { formatEngineering, formatMeasured } from '../units/format';
 import { marginText } from './resultRows';
 
+/** The verdict line when the fit failed: a failed fit is no measurement, so nothing is judged. */
+export function formatNoVerdictText(status: string, designName: string): string {
+  return `  verdict          none: the fit failed (${status}), so nothing was checked against '${designName}'\n`;
+}
+
 export function formatVerdictText(verdict: Verdict, designName: string): string {
   let text = `  verdict          ${verdict.pass ? 'PASS' : 'FAIL'} against '${designName}'\n`;
   for (const q of verdict.quantities) {

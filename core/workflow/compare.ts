@@ -5,7 +5,7 @@ import { componentsFromResponse } from '../circuit/components';
 import { alphaOmega0Correlation } from '../fit/correlation';
 import { quantity, type Quantity } from '../quantity';
 import { hertz } from '../report/resultRows';
-import type { FitSummary } from '../report/fitSummary';
+import { fitSucceeded, type FitSummary } from '../report/fitSummary';
 import type { ChangeVerdict, Comparison, QuantityChange } from '../report/comparisonText';
 import { measureCapture, type MeasureRequest, type MeasureResult } from './measure';
 import type { KnownPartRequest } from './measuredComponents';
@@ -43,7 +43,7 @@ export function compareMeasurements(before: MeasureResult, after: MeasureResult,
   const notes = [
     `A difference is significant when it exceeds ${COVERAGE_FACTOR} combined standard uncertainties (about 95 %, GUM 6.3.3); the verdict tests alpha and omega0 jointly, with each fit's correlation, at 95 % (chi-square, 2 degrees of freedom).`,
   ];
-  const failed = [a, b].find((s) => s.status === 'failed');
+  const failed = [a, b].find((s) => !fitSucceeded(s));
   const quantities = failed ? [] : rateChanges(a, b);
   if (!failed && knownPart) {
     quantities.push(...componentChanges(a, b, knownPart));
@@ -51,7 +51,7 @@ export function compareMeasurements(before: MeasureResult, after: MeasureResult,
   }
   const joint = failed ? null : jointChiSquare(a, b);
   const { verdict, reason } = failed
-    ? { verdict: 'undetermined' as const, reason: `the fit of ${failed.file} failed: ${failed.message}` }
+    ? { verdict: 'undetermined' as const, reason: `the fit of ${failed.file} failed (${failed.status}): ${failed.message}` }
     : judge(joint, quantities);
   return { before: a, after: b, beforeCautions: before.cautions, afterCautions: after.cautions, quantities, jointChiSquare: joint, verdict, reason, coverageFactor: COVERAGE_FACTOR, notes };
 }

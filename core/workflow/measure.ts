@@ -11,7 +11,7 @@ import { summarizeTransitions } from '../circuit/transitionSummary';
 import { checkDesign, type Verdict } from '../circuit/verdict';
 import { fitResponse, type ResponseFit } from '../fit/fitResponse';
 import { InputError, UsageError } from '../inputError';
-import { summarizeFit, type FitSummary } from '../report/fitSummary';
+import { fitSucceeded, summarizeFit, type FitSummary } from '../report/fitSummary';
 import { cautionInputsFromCapture, type CautionComponents } from '../safety/cautionInputs';
 import { evaluateCautions, type CautionResult } from '../safety/evaluateCautions';
 import { deriveComponents, type KnownPartRequest } from './measuredComponents';
@@ -107,7 +107,7 @@ export function measureCapture(request: MeasureRequest): MeasureResult {
   if (components.value) summary.components = components.value;
   warnIfImplausible(summary, request.channel);
   const verdict =
-    design && summary.status !== 'failed' ? attempt(() => checkAgainstDesign(design, summary, request.channel, request.file, request.eventTime)) : NOT_ASKED;
+    design && fitSucceeded(summary) ? attempt(() => checkAgainstDesign(design, summary, request.channel, request.file, request.eventTime)) : NOT_ASKED;
   const cautions = weighCautions(request.channel, { design, components: summary.components });
   return { fit, summary, verdict: verdict.value, cautions, problems: { verdict: verdict.error, components: components.error } };
 }

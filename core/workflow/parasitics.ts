@@ -5,7 +5,7 @@ import type { Channel } from '../capture/types';
 import { extractParasitics } from '../circuit/addedCapacitor';
 import { suggestSnubber } from '../circuit/snubber';
 import { UsageError } from '../inputError';
-import { hertz } from '../report/resultRows';
+import { fitStateText, hertz, regimeTag } from '../report/resultRows';
 import type { ParasiticsResult } from '../report/parasiticsText';
 import { cautionInputsFromCapture } from '../safety/cautionInputs';
 import { evaluateCautions, type CautionInputs } from '../safety/evaluateCautions';
@@ -42,8 +42,8 @@ export function measureParasitics(request: ParasiticsRequest, progress: (stage: 
     progress(`fitting capture ${i + 1} of ${captures.length}`);
     return fitChannel(capture.file, capture.channel, {}, capture.captureWarnings).summary;
   });
-  const failed = fits.find((f) => f.status === 'failed' || f.regime !== 'underdamped');
-  if (failed) throw new UsageError(`${failed.file}: no ringing found to measure (${failed.status}, ${failed.regime}); the method needs an underdamped ring in every capture`);
+  const failed = fits.find((f) => regimeTag(f) !== 'underdamped');
+  if (failed) throw new UsageError(`${failed.file}: no ringing found to measure (${fitStateText(failed)}); the method needs an underdamped ring in every capture`);
   // The method needs the undamped natural frequency f0 = omega0 / 2 pi, not the ring frequency.
   const rows = fits.map((fit, i) => ({ file: fit.file, addedC: captures[i].addedC, frequency: hertz(fit.omega0), alpha: fit.alpha }));
   const extraction = extractParasitics(

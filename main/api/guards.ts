@@ -5,6 +5,9 @@ import type { BenchLogRequest, SaveRequest } from '../../core/bench/benchApiType
 import { API_METHODS, type ApiMethod } from './apiMethods';
 import { importSummaryProblem } from './importSummaryGuard';
 import { RESULT_ROWS, TRANSITION_ROWS, valueAtPath, type ResultRowSpec } from '../../core/report/resultRows';
+import { fitSucceeded } from '../../core/report/fitSummary';
+import type { FitStatus } from '../../core/fit/types';
+import type { Regime } from '../../core/fit/responseFit';
 
 type Json = Record<string, unknown>;
 
@@ -77,8 +80,9 @@ export function benchLogRequestProblem(value: unknown): string | null {
 }
 
 const LOG_REQUEST_KEYS = ['unit', 'operator', 'note', 'capture', 'settings', 'fit', 'verdict', 'design', 'cautions'];
-const FIT_STATUSES = ['converged', 'max-iterations', 'failed'];
-const REGIMES = ['underdamped', 'critically damped', 'overdamped'];
+/** Every status a fit can end in, and every regime a converged fit can have ('none' is a failed fit's), as records so that a new one fails to compile until it is listed here. */
+const FIT_STATUSES = Object.keys({ converged: true, 'max-iterations': true, failed: true, 'no-response': true } satisfies Record<FitStatus, true>);
+const REGIMES = Object.keys({ underdamped: true, 'critically damped': true, overdamped: true, 'first-order': true } satisfies Record<Exclude<Regime, 'none'>, true>);
 /** The quantities a fit summary stores (derived rows such as f0 are not sent), from the one row table. */
 const FIT_QUANTITY_ROWS: readonly ResultRowSpec[] = RESULT_ROWS.filter((row: ResultRowSpec) => !row.derived);
 
@@ -86,7 +90,11 @@ function fitSummaryProblem(value: unknown): string | null {
   if (!isObject(value)) return 'must be a fit summary';
   if (!isText(value.file) || !isText(value.channel)) return 'file and channel must be text';
   if (!FIT_STATUSES.includes(value.status as string)) return `status must be one of ${FIT_STATUSES.join(', ')}`;
-  if (!REGIMES.includes(value.regime as string)) return `regime must be one of ${REGIMES.join(', ')}`;
+  if (!fitSucceeded({ status: value.status as FitStatus })) {
+    if (value.regime !== undefined || value.regimeEvidence !== undefined) return 'a fit that did not converge has no regime';
+  } else if (!REGIMES.includes(value.regime as string) || !isText(value.regimeEvidence)) {
+    return `regime must be one of ${REGIMES.join(', ')}, with its evidence`;
+  }
   for (const row of FIT_QUANTITY_ROWS) {
     const field = valueAtPath(value, row.name);
     if (row.optional && field === undefined) continue;

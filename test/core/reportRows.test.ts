@@ -1,6 +1,7 @@
 // The one table of result rows: which rows a fit has, how they read, and that every face follows it.
 import { describe, expect, it } from 'vitest';
-import { RESULT_ROWS, TRANSITION_ROWS, briefValue, fitResultRows, fitTransitionRows, hertz, rowQuantity } from '../../core/report/resultRows';
+import { RESULT_ROWS, TRANSITION_ROWS, briefValue, fitResultRows, fitStateText, fitTransitionRows, hertz, regimeTag, rowQuantity } from '../../core/report/resultRows';
+import { renderReportHtml } from '../../core/report/reportHtml';
 import { formatFitText } from '../../core/report/fitText';
 import { renderReportCsv } from '../../core/report/reportCsv';
 import { renderReportMarkdown } from '../../core/report/reportMarkdown';
@@ -13,16 +14,37 @@ const withComponents = sampleFit({
   components: { topology: 'series', known: 'C=2.2n', R: q(1.94, 0.01, 'ohm'), L: q(11.2e-9, 0.1e-9, 'H'), C: q(2.2e-9, 0, 'F') },
 });
 const overdamped = sampleFit({ regime: 'overdamped', omegaD: undefined });
+/** A first-order fit: a time constant, and no ring (alpha ... Q do not apply: NaN, no standard error). */
+const firstOrder = sampleFit({
+  regime: 'first-order',
+  omegaD: undefined,
+  tau: q(2e-6, 1e-8, 's'),
+  alpha: q(NaN, null, 's^-1'),
+  omega0: q(NaN, null, 'rad/s'),
+  zeta: q(NaN, null, ''),
+  Q: q(NaN, null, ''),
+});
+/** A fit that stopped at the iteration limit, as a log record from before the rule still carries its regime. */
+const stopped = sampleFit({ status: 'max-iterations', message: 'stopped after 60 iterations without meeting the tolerance' });
 
 describe('the result row table', () => {
   it('names every row by its key path in the fit summary, or by what it is derived from', () => {
-    for (const spec of RESULT_ROWS) expect(rowQuantity(spec, withComponents), spec.name).toBeDefined();
+    for (const spec of RESULT_ROWS) expect(rowQuantity(spec, spec.name === 'tau' ? firstOrder : withComponents), spec.name).toBeDefined();
     expect(new Set(RESULT_ROWS.map((r) => r.column)).size).toBe(RESULT_ROWS.length);
   });
 
   it('has omega_d only when underdamped and R, L, C only with components', () => {
     expect(fitResultRows(withComponents).map((r) => r.symbol)).toEqual(['alpha', 'omega0', 'omega_d', 'f0', 'zeta', 'Q', 'final value', 't0', 'R', 'L', 'C']);
     expect(fitResultRows(overdamped).map((r) => r.symbol)).toEqual(['alpha', 'omega0', 'f0', 'zeta', 'Q', 'final value', 't0']);
+  });
+
+  it('has tau only for a first-order fit, and leaves out the rates that do not apply to it (NaN, or null after JSON)', () => {
+    expect(fitResultRows(firstOrder).map((r) => r.symbol)).toEqual(['tau', 'final value', 't0']);
+    expect(fitResultRows(firstOrder)[0].text).toBe('2.000 µs ± 10 ns (0.5 %)');
+    const throughJson = JSON.parse(JSON.stringify(firstOrder)) as typeof firstOrder;
+    expect(throughJson.alpha.value).toBeNull();
+    expect(fitResultRows(throughJson).map((r) => r.symbol)).toEqual(['tau', 'final value', 't0']);
+    expect(briefValue(firstOrder, 'zeta')).toBe('-');
   });
 
   it('formats a row as value ± stderr and, briefly, as the value alone, in engineering notation', () => {
@@ -87,5 +109,38 @@ describe('every face reads the table', () => {
 
   it('the log table: f0 and zeta as brief values', () => {
     expect(formatLogTable([sampleRecord({ fit: overdamped })])).toMatch(/overdamped\s+32 MHz\s+0\.119\s/);
+  });
+});
+
+describe('a failed fit has no regime in any report', () => {
+  it("is a converged fit's only, and the state reads the status alone otherwise (comparisons, Markdown)", () => {
+    expect(regimeTag(withComponents)).toBe('underdamped');
+    expect(regimeTag(stopped)).toBeNull();
+    expect(fitStateText(withComponents)).toBe('converged, underdamped');
+    expect(fitStateText(stopped)).toBe('max-iterations');
+  });
+
+  it('the command line text: the status with its message, no regime line', () => {
+    const text = formatFitText(stopped);
+    expect(text).toContain('  status           max-iterations: stopped after 60 iterations without meeting the tolerance\n');
+    expect(text).not.toMatch(/regime|underdamped/);
+  });
+
+  it('the log table and the CSV: an empty regime', () => {
+    expect(formatLogTable([sampleRecord({ fit: stopped })])).toMatch(/SN042\s+-\s+32 MHz/);
+    const [header, line] = renderReportCsv([sampleRecord({ fit: stopped, note: null })]).split('\r\n');
+    const cells = line.split(',');
+    const columns = header.split(',');
+    expect(cells[columns.indexOf('status')]).toBe('max-iterations');
+    expect(cells[columns.indexOf('regime')]).toBe('');
+  });
+
+  it('the Markdown and HTML reports: the status, no regime', () => {
+    const records = [sampleRecord({ fit: stopped })];
+    expect(renderReportMarkdown(records)).toContain('Fit: max-iterations.');
+    expect(renderReportMarkdown(records)).not.toContain('underdamped');
+    const html = renderReportHtml(records, { logPath: '/bench/bench.jsonl', generatedAt: '2025-03-14T12:00:00.000Z', software: { name: 'ringbench', version: '0.1.0' } });
+    expect(html).toContain('<h4>Fit: max-iterations</h4>');
+    expect(html).not.toContain('underdamped');
   });
 });

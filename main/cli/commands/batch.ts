@@ -1,5 +1,6 @@
 // `ringbench batch DIR`: fit every capture of a folder, one result each; a bad file does not stop the rest.
-// Exit 0 when every file was fitted (and in tolerance), 1 when any file failed, else 3 when any unit was out of tolerance.
+// Exit 0 when every fit converged (and was in tolerance), 1 when any file could not be read or its fit failed
+// (any status but converged), else 3 when any unit was out of tolerance.
 
 import type { Command } from 'commander';
 import { readdirSync, statSync } from 'node:fs';
@@ -10,7 +11,8 @@ import { addCaptureOptions, addComponentOptions, measureSettingsOf } from '../me
 import { appendBenchLog, requireLogFolder } from '../../io/benchLog';
 import { createBenchRecord } from '../../app/benchLogRecord';
 import { loadDesignFile, measureFile, type FileMeasurement } from '../../app/measureFile';
-import { briefValue } from '../../../core/report/resultRows';
+import { briefValue, regimeTag } from '../../../core/report/resultRows';
+import { fitSucceeded, fitWarnings } from '../../../core/report/fitSummary';
 import { EXIT, messageFor } from '../errors';
 import { UsageError } from '../../../core/inputError';
 import { FileError } from '../../io/fileError';
@@ -43,13 +45,13 @@ export function listCaptureFiles(folder: string): string[] {
 export function registerBatchCommand(program: Command, ctx: CommandContext): void {
   const command = program
     .command('batch')
-    .description('fit every capture (*.csv, *.txt, *.dat) of a folder; exit 1 when a file failed, 3 when a unit was out of tolerance')
+    .description('fit every capture (*.csv, *.txt, *.dat) of a folder; exit 1 when a file could not be read or its fit failed, 3 when a unit was out of tolerance')
     .argument('<dir>', 'folder of capture files')
     .option('--design <file>', 'design file to check every unit against (instead of --topology/--known)');
   addCaptureOptions(addComponentOptions(command))
-    .option('--log <path>', 'append each result to this bench log, the unit id taken from the file name')
+    .option('--log <path>', 'append each converged result to this bench log, the unit id taken from the file name')
     .option('--operator <name>', 'who measured (with --log)')
-    .option('--json', 'print a JSON array, one object per file ({ file, error } for a file that failed)')
+    .option('--json', 'print a JSON array, one fit summary per file with its status and warnings ({ file, error } for a file that could not be read)')
     .action((dir: string, options: BatchOptions) => {
       const folder = resolve(ctx.io.cwd, dir);
       if (options.design && (options.topology !== undefined || options.known !== undefined)) {
@@ -67,7 +69,7 @@ export function registerBatchCommand(program: Command, ctx: CommandContext): voi
         if (ctx.io.interactive) ctx.io.err(`[${i + 1}/${files.length}] ${name}\n`);
         try {
           const measurement = measureFile(join(folder, name), settings, ctx.io.cwd, design);
-          if (logPath && measurement.summary.status !== 'failed') {
+          if (logPath && fitSucceeded(measurement.summary)) {
             const record = createBenchRecord(measurement, { unit: basename(name, extname(name)), operator, note: null }, settings);
             appendBenchLog(logPath, record);
           }
@@ -78,7 +80,7 @@ export function registerBatchCommand(program: Command, ctx: CommandContext): voi
       });
 
       ctx.io.out(options.json ? `${JSON.stringify(entries.map(jsonOf))}\n` : formatBatchTable(entries));
-      const failed = entries.some((e) => e.error !== undefined || e.measurement?.summary.status === 'failed');
+      const failed = entries.some((e) => !e.measurement || !fitSucceeded(e.measurement.summary));
       const outOfTolerance = entries.some((e) => e.measurement?.verdict && !e.measurement.verdict.pass);
       ctx.setExitCode(failed ? EXIT.failure : outOfTolerance ? EXIT.outOfTolerance : EXIT.ok);
     });
@@ -91,14 +93,15 @@ function jsonOf(entry: BatchEntry): object {
 }
 
 function formatBatchTable(entries: BatchEntry[]): string {
-  const header = ['file', 'status', 'regime', 'f0', 'zeta', 'Q', 'verdict', 'cautions'];
+  const header = ['file', 'status', 'warnings', 'regime', 'f0', 'zeta', 'Q', 'verdict', 'cautions'];
   const rows = entries.map((entry) => {
     if (!entry.measurement) return [entry.file, `error: ${entry.error}`];
     const { summary: s, verdict, cautions } = entry.measurement;
     return [
       entry.file,
       s.status,
-      s.regime,
+      String(fitWarnings(s).length),
+      regimeTag(s) ?? '-',
       briefValue(s, 'f0'),
       briefValue(s, 'zeta'),
       briefValue(s, 'Q'),

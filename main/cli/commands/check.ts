@@ -5,7 +5,8 @@ import type { CommandContext } from '../commandContext';
 import { addCaptureOptions, measureSettingsOf, type MeasureCommandOptions } from '../measureOptions';
 import { loadDesignFile, measureFile } from '../../app/measureFile';
 import { formatFitText } from '../../../core/report/fitText';
-import { formatVerdictText } from '../../../core/report/verdictText';
+import { formatNoVerdictText, formatVerdictText } from '../../../core/report/verdictText';
+import { fitSucceeded } from '../../../core/report/fitSummary';
 import { formatCautionsText } from '../../../core/safety/cautionText';
 import { EXIT } from '../errors';
 
@@ -28,11 +29,13 @@ export function registerCheckCommand(program: Command, ctx: CommandContext): voi
         ctx.io.out(`${JSON.stringify({ ...m.summary, design: design.design.name, verdict: m.verdict, cautions: m.cautions })}\n`);
       } else {
         let text = formatFitText(m.summary);
-        if (m.verdict) text += formatVerdictText(m.verdict, design.design.name);
+        // A failed fit is no measurement: it gets no verdict (measureCapture gives none), and says so.
+        if (!fitSucceeded(m.summary)) text += formatNoVerdictText(m.summary.status, design.design.name);
+        else if (m.verdict) text += formatVerdictText(m.verdict, design.design.name);
         text += formatCautionsText(m.cautions);
         ctx.io.out(text);
       }
-      if (m.summary.status === 'failed' || !m.verdict) ctx.setExitCode(EXIT.failure);
+      if (!fitSucceeded(m.summary) || !m.verdict) ctx.setExitCode(EXIT.failure);
       else if (!m.verdict.pass) ctx.setExitCode(EXIT.outOfTolerance);
     });
 }

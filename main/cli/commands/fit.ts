@@ -5,6 +5,7 @@ import type { Command } from 'commander';
 import type { CommandContext } from '../commandContext';
 import { measureFile } from '../../app/measureFile';
 import { formatFitText } from '../../../core/report/fitText';
+import { fitSucceeded } from '../../../core/report/fitSummary';
 import { formatCautionsText } from '../../../core/safety/cautionText';
 import { addCaptureOptions, addComponentOptions, measureSettingsOf, type MeasureCommandOptions } from '../measureOptions';
 import { EXIT } from '../errors';
@@ -19,6 +20,6 @@ export function registerFitCommand(program: Command, ctx: CommandContext): void 
     .action((file: string, options: MeasureCommandOptions) => {
       const { summary, cautions } = measureFile(file, measureSettingsOf(options), ctx.io.cwd);
       ctx.io.out(options.json ? `${JSON.stringify({ ...summary, cautions })}\n` : formatFitText(summary) + formatCautionsText(cautions));
-      if (summary.status === 'failed') ctx.setExitCode(EXIT.failure);
+      if (!fitSucceeded(summary)) ctx.setExitCode(EXIT.failure);
     });
 }

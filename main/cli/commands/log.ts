@@ -9,6 +9,7 @@ import { createBenchRecord } from '../../app/benchLogRecord';
 import { loadDesignFile, measureFile } from '../../app/measureFile';
 import { checkLabel } from '../../app/labels';
 import { formatFitText } from '../../../core/report/fitText';
+import { fitSucceeded } from '../../../core/report/fitSummary';
 import { formatVerdictText } from '../../../core/report/verdictText';
 import { formatLogTable } from '../../../core/report/logTable';
 import { formatCautionsText } from '../../../core/safety/cautionText';
@@ -50,9 +51,9 @@ export function registerLogCommand(program: Command, ctx: CommandContext): void 
       const design = options.design === undefined ? null : loadDesignFile(options.design, ctx.io.cwd);
       const settings = measureSettingsOf(options);
       const measurement = measureFile(file, settings, ctx.io.cwd, design);
-      if (measurement.summary.status === 'failed') {
+      if (!fitSucceeded(measurement.summary)) {
         ctx.io.out(options.json ? `${JSON.stringify({ logged: null, fit: measurement.summary })}\n` : formatFitText(measurement.summary));
-        ctx.io.err(`ringbench: the fit failed, nothing was logged: ${measurement.summary.message}\n`);
+        ctx.io.err(`ringbench: the fit failed (${measurement.summary.status}), nothing was logged: ${measurement.summary.message}\n`);
         ctx.setExitCode(EXIT.failure);
         return;
       }
