@@ -81,8 +81,8 @@ const MIN_PILE = 3;
  */
 const PILE_SHARE = 0.1;
 /**
- * A head held on one code is a level inside that code unless the noise spreads samples over codes: with
- * noise of half a code, 20 samples all on one code happen with probability 0.68^20 < 1e-3.
+ * A level inside a code spreads its samples over the codes beside it once the noise is half a code (16 % on
+ * each side; 20 samples all on one code with probability 0.68^20 < 1e-3), so a pile on one side is a rail.
  */
 const SPREAD_CODES = 0.5;
 
@@ -113,9 +113,10 @@ function pileAt(head: ArrayLike<number>, rail: number, inward: 1 | -1, step: num
     if (distance === 0) onRail++;
     else next = Math.min(next, distance);
   }
-  if (onRail < MIN_PILE) return 0;
-  // The whole head on the rail's code: a level inside that code unless the noise would spread it over codes.
-  if (onRail === head.length) return step > 0 && noise >= SPREAD_CODES * step ? onRail : 0;
+  // Noise below half a code leaves a level inside one code there: a pile on the extreme is no sign of a rail.
+  if (onRail < MIN_PILE || (step > 0 && noise < SPREAD_CODES * step)) return 0;
+  // The whole head on one value: with noise over codes only a rail holds it there; unquantised, a noiseless level.
+  if (onRail === head.length) return step > 0 ? onRail : 0;
   if (onRail < PILE_SHARE * head.length) return 0;
   let besideRail = 0;
   for (let i = 0; i < head.length; i++) if (inward * (head[i] - rail) === next) besideRail++;

@@ -52,6 +52,9 @@ describe('railHeadCount', () => {
     expect(railHeadCount(head, [...head, ...response], 0.4)).toBe(0);
     const flat = new Array(200).fill(20);
     expect(railHeadCount(flat, [...flat, ...response], 0.2)).toBe(0);
+    // Noise of a fifth of a code: the level's code is the lowest value with a few samples one code above it.
+    const quiet = [...new Array(197).fill(20), 21, 21, 21];
+    expect(railHeadCount(quiet, [...quiet, ...response], 0.2)).toBe(0);
   });
 
   it('finds the samples piled up at the lowest code when the level sits on it or beyond it', () => {
