@@ -156,13 +156,27 @@ export function checkDesign(
     }
   }
 
-  const levels = levelQuantities(design, fit, limit, measured.time.length > 0 && (fit.t0?.value ?? 0) < measured.time[0]);
-  quantities.push(...levels.rows);
-  notes.push(...levels.notes);
-  const levelOut = levels.rows.some((q) => !q.inTolerance);
+  const startsAfterEvent = measured.time.length > 0 && (fit.t0?.value ?? 0) < measured.time[0];
+  const observed = observedLevels(design, fit, startsAfterEvent);
+  const levels = observed ? levelRows(design, observed, limit) : [];
+  quantities.push(...levels);
+  if (observed) notes.push(...levelNotes(design, limit, startsAfterEvent, levels));
   let likelyCause = shapeOut ? componentCause : null;
-  if (levelOut) {
-    likelyCause = sourceCause(design, levels.rows);
+  if (observed && levels.some((q) => !q.inTolerance)) {
+    // The levels may follow the part that moved (a coil current's swing goes as sqrt(C / L)): the source is
+    // named only when the levels are still out with that part at its implied value.
+    const moved =
+      shapeOut && componentCause && componentCause.explains >= EXPLAINS_WELL && componentCause.component !== 'source'
+        ? withComponent(design, componentCause.component, 1 + componentCause.change)
+        : design;
+    const movedRows = moved === design ? levels : levelRows(moved, observed, limit);
+    if (moved !== design && movedRows.every((q) => q.inTolerance)) {
+      notes.push(`The levels move with ${componentCause!.component}: at its implied value they are in tolerance.`);
+    } else {
+      likelyCause = sourceCause(moved, movedRows);
+    }
+  }
+  if (likelyCause?.component === 'source') {
     if (likelyCause.explains < EXPLAINS_WELL) {
       notes.push('The levels are not the design\'s scaled by one source step: an offset (probe or source) or a different initial state is more likely.');
     }
@@ -200,32 +214,76 @@ function tightestComponent(design: Design, except?: ComponentName | 'source'): C
 
 const LEVEL_NAMES: Record<keyof DesignLevels, string> = { preLevel: 'initial level', finalValue: 'final value', swing: 'swing' };
 
-/**
- * The measured levels against the design's: before the event and final; with the swing too when the
- * design's two levels are equal (a current or a resistor voltage, whose levels do not show the step).
- */
-function levelQuantities(design: Design, fit: FittedResponse, limit: number, startsAfterEvent: boolean): { rows: VerdictQuantity[]; notes: string[] } {
+/** The fit's levels in the probe's unit; the one before the event is null when the record starts after it. */
+interface ObservedLevels {
+  preLevel: Quantity | null;
+  finalValue: Quantity;
+  swing: Quantity;
+}
+
+function observedLevels(design: Design, fit: FittedResponse, startsAfterEvent: boolean): ObservedLevels | null {
   const p = fit.params;
-  if (!p) return { rows: [], notes: [] };
+  if (!p) return null;
+  const unit = probeUnit(design);
+  return {
+    preLevel: startsAfterEvent ? null : (fit.preLevel ?? quantity(p.yPre, null, unit)),
+    finalValue: fit.finalValue ?? quantity(p.yFinal, null, unit),
+    swing: quantity(responseSwing(p.a, p.b - p.alpha * p.a, p.omega0), null, unit),
+  };
+}
+
+/**
+ * The observed levels against the design's: before the event and final; with the swing too when the
+ * design's two levels are equal (a current or a resistor voltage, whose levels do not show the step).
+ * The design's uncertainty: the level tolerance of the larger of the level and the swing, and the
+ * component tolerances carried through to first order, all rectangular.
+ */
+function levelRows(design: Design, observed: ObservedLevels, limit: number): VerdictQuantity[] {
   const unit = probeUnit(design);
   const expected = designLevels(design);
-  const tolerance = design.source.levelTolerance ?? DEFAULT_LEVEL_TOLERANCE;
-  const u = toleranceToRelativeUncertainty(tolerance);
-  const designed = (value: number) => quantity(value, u * Math.max(Math.abs(value), expected.swing), unit);
-  const measuredSwing = quantity(responseSwing(p.a, p.b - p.alpha * p.a, p.omega0), null, unit);
-  const rows = [
-    ...(startsAfterEvent ? [] : [compare(LEVEL_NAMES.preLevel, designed(expected.preLevel), fit.preLevel ?? quantity(p.yPre, null, unit), limit)]),
-    compare(LEVEL_NAMES.finalValue, designed(expected.finalValue), fit.finalValue ?? quantity(p.yFinal, null, unit), limit),
-  ];
-  const showsStep = expected.preLevel !== expected.finalValue;
-  if (!showsStep) rows.push(compare(LEVEL_NAMES.swing, quantity(expected.swing, u * expected.swing, unit), measuredSwing, limit));
+  const u = toleranceToRelativeUncertainty(levelTolerance(design));
+  const spread = componentSpread(design, expected);
+  const designed = (key: keyof DesignLevels) => {
+    const scale = key === 'swing' ? expected.swing : Math.max(Math.abs(expected[key]), expected.swing);
+    return quantity(expected[key], Math.hypot(u * scale, spread[key]), unit);
+  };
+  const rows: VerdictQuantity[] = [];
+  if (observed.preLevel) rows.push(compare(LEVEL_NAMES.preLevel, designed('preLevel'), observed.preLevel, limit));
+  rows.push(compare(LEVEL_NAMES.finalValue, designed('finalValue'), observed.finalValue, limit));
+  if (expected.preLevel === expected.finalValue) rows.push(compare(LEVEL_NAMES.swing, designed('swing'), observed.swing, limit));
+  return rows.filter((q) => Number.isFinite(q.measured.value));
+}
+
+/** How far each level moves when each part moves by its standard uncertainty, in quadrature (first order). */
+function componentSpread(design: Design, expected: DesignLevels): DesignLevels {
+  const squares = { preLevel: 0, finalValue: 0, swing: 0 };
+  for (const name of COMPONENT_NAMES) {
+    const moved = designLevels(withComponent(design, name, 1 + toleranceToRelativeUncertainty(design.components[name].tolerance)));
+    for (const key of Object.keys(squares) as (keyof DesignLevels)[]) squares[key] += (moved[key] - expected[key]) ** 2;
+  }
+  return { preLevel: Math.sqrt(squares.preLevel), finalValue: Math.sqrt(squares.finalValue), swing: Math.sqrt(squares.swing) };
+}
+
+function withComponent(design: Design, name: ComponentName, factor: number): Design {
+  const components = { ...design.components, [name]: { ...design.components[name], value: design.components[name].value * factor } };
+  return { ...design, components };
+}
+
+function levelTolerance(design: Design): number {
+  return design.source.levelTolerance ?? DEFAULT_LEVEL_TOLERANCE;
+}
+
+function levelNotes(design: Design, limit: number, startsAfterEvent: boolean, rows: readonly VerdictQuantity[]): string[] {
+  const tolerance = levelTolerance(design);
   const stated = design.source.levelTolerance === undefined ? `${DEFAULT_LEVEL_TOLERANCE * 100} % (the design states no source.levelTolerance)` : `${tolerance * 100} % (source.levelTolerance)`;
   const notes = [
-    `Levels in tolerance: within ${limit} sigma, the design's level uncertainty from ${stated} of the larger of the level and the swing, rectangular.`,
+    `Levels in tolerance: within ${limit} sigma, the design's level uncertainty from ${stated} of the larger of the level and the swing and from the component tolerances, rectangular.`,
   ];
   if (startsAfterEvent) notes.push('The record starts after the event: the level before it is not observed, so it is not checked.');
-  if (!showsStep) notes.push('The swing, sqrt(a^2 + (slope / omega0)^2) at the event, has no fitted standard error: its margin uses the level tolerance alone.');
-  return { rows: rows.filter((q) => Number.isFinite(q.measured.value)), notes };
+  if (rows.some((q) => q.name === LEVEL_NAMES.swing)) {
+    notes.push('The swing, sqrt(a^2 + (slope / omega0)^2) at the event, has no fitted standard error: its margin uses the design uncertainty alone.');
+  }
+  return notes;
 }
 
 /**

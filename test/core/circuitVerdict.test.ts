@@ -235,6 +235,25 @@ describe('checkDesign: the levels and the source step', () => {
     expect(v.notes.join(' ')).toMatch(/starts after the event/);
   });
 
+  it("a coil current's swing follows C (sqrt(C / L)): a moved C is the cause, not the source", () => {
+    // A parallel tank released from a charged capacitor, probed on the coil current.
+    const tank = (C: number): Design => ({
+      ...makeDesign('parallel', 150, 15e-6, C, { R: 0.1, L: 0.1, C: 0.05 }),
+      source: { kind: 'natural', capacitorVoltage: 24, inductorCurrent: 0 },
+      probe: 'inductor-current',
+    });
+    const params = responseForValues(tank(220e-9), { R: 150, L: 15e-6, C: 220e-9 });
+    const fit = { ...fitOf('parallel', 150, 15e-6, 220e-9), params, preLevel: quantity(0, 1e-4, 'A'), finalValue: quantity(0, 1e-4, 'A') };
+    const v = checkDesign(tank(330e-9), fit, zeros);
+    const byName = Object.fromEntries(v.quantities.map((q) => [q.name, q]));
+    expect(byName.swing.inTolerance).toBe(false);
+    // Released from v_C = V with i_L = 0: di_L/dt = V / L, so the swing is V / (L omega0) = V sqrt(C / L) (derived, KCL).
+    expect(byName.swing.measured.value).toBeCloseTo(24 * Math.sqrt(220e-9 / 15e-6), 9);
+    expect(v.likelyCause!.component).toBe('C');
+    expect(byName.C.inTolerance).toBe(false);
+    expect(v.notes.join(' ')).toMatch(/levels move with C/);
+  });
+
   it('without the fitted model there are no level rows (nothing to compare)', () => {
     const v = checkDesign(designWith('capacitor-voltage', 48), fitOf(GATE.topology, GATE.R, GATE.L, GATE.C), zeros);
     expect(v.quantities.some((q) => q.name === 'final value')).toBe(false);
