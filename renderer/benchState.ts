@@ -9,7 +9,7 @@ import type { Topology } from '../core/circuit/components';
 import type { ParasiticsResult } from '../core/report/parasiticsText';
 import type { Comparison } from '../core/report/comparisonText';
 import type { BenchLogView, DesignEntry, OpenedFile, SampleEntry } from './bridgeTypes';
-import { FILE_UNITS, type CaptureInfo, type FitWindow, type StatedUnits, type TraceData, type UnitRefusal } from './workerProtocol';
+import { FILE_UNITS, type CaptureInfo, type CaptureReading, type FitWindow, type TraceData, type UnitRefusal } from './workerProtocol';
 
 export interface OpenCaptureState {
   /** Worker cache key. */
@@ -57,8 +57,8 @@ export interface BenchState {
   capture: OpenCaptureState | null;
   /** The capture last chosen, when it could not be read for a unit (then `capture` is null). */
   refused: RefusedCapture | null;
-  /** The units the user stated for the capture shown or refused; the file's own by default. */
-  statedUnits: StatedUnits;
+  /** How the capture shown (or refused) was asked to be read: the units stated (the file's own by default) and the segment. */
+  reading: CaptureReading;
   trace: TraceData | null;
   fit: ResponseFit | null;
   summary: FitSummary | null;
@@ -98,7 +98,7 @@ export function initialState(face: 'window' | 'browser'): BenchState {
     designs: [],
     capture: null,
     refused: null,
-    statedUnits: FILE_UNITS,
+    reading: { units: FILE_UNITS },
     trace: null,
     fit: null,
     summary: null,

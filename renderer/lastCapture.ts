@@ -1,10 +1,10 @@
-// Remembers the last capture opened (a sample by id, or a file's content and the units stated for it) so the next start reopens it.
+// Remembers the last capture opened (a sample by id, or a file's content and how it was read) so the next start reopens it.
 
-import type { CaptureContent, StatedUnits } from './workerProtocol';
+import type { CaptureContent, CaptureReading } from './workerProtocol';
 
 export type RememberedCapture =
   | { kind: 'sample'; id: string; channel: number }
-  | ({ kind: 'file'; name: string; path: string | null; channel: number; units?: StatedUnits } & CaptureContent);
+  | ({ kind: 'file'; name: string; path: string | null; channel: number; reading?: CaptureReading } & CaptureContent);
 
 const DB = 'ringbench';
 const STORE = 'last-capture';

@@ -3,6 +3,7 @@
 import type { BenchState } from './benchState';
 import type { BenchLogRequest } from './bridgeTypes';
 import { BenchError } from './benchError';
+import { segmentRead } from './traceData';
 
 export interface LogForm {
   unit: string;
@@ -15,6 +16,8 @@ export function buildLogRequest(state: BenchState, form: LogForm): BenchLogReque
   if (!capture || !summary) throw new BenchError('there is no fitted measurement to log: open a capture first');
   if (form.unit.trim() === '') throw new BenchError('give the unit under test a name or serial number before logging');
   const channel = capture.info.channels[capture.channel];
+  const { units } = state.reading;
+  const segment = segmentRead(capture.info);
   const input = state.componentsInput;
   const knownOption = components ? `${input.knownName}=${input.knownText.trim()}${input.toleranceText.trim() ? `,${input.toleranceText.trim().replace(/\s*%?$/, '%')}` : ''}` : null;
   const { advice: _advice, adviceSource: _source, deferral: _deferral, ...logged } = cautions ?? { fired: [], energies: {}, advice: [], adviceSource: '', deferral: '' };
@@ -31,8 +34,9 @@ export function buildLogRequest(state: BenchState, form: LogForm): BenchLogReque
       from: userWindow.start === undefined ? null : String(userWindow.start),
       to: userWindow.end === undefined ? null : String(userWindow.end),
       sortTime: false,
-      ...(state.statedUnits.timeUnit ? { timeUnit: state.statedUnits.timeUnit } : {}),
-      ...(state.statedUnits.valueUnit ? { valueUnit: state.statedUnits.valueUnit } : {}),
+      ...(units.timeUnit ? { timeUnit: units.timeUnit } : {}),
+      ...(units.valueUnit ? { valueUnit: units.valueUnit } : {}),
+      ...(segment > 1 ? { segment: String(segment) } : {}),
     },
     fit: components ? { ...summary, components: { topology: components.topology, known: components.known, R: components.R, L: components.L, C: components.C } } : summary,
     verdict,

@@ -48,3 +48,8 @@ function typicalInterval(time: Float64Array): number {
   const steps = Array.from({ length: n }, (_, i) => time[i + 1] - time[i]).sort((a, b) => a - b);
   return steps[n >> 1];
 }
+
+/** The segment of a file of repeated acquisitions that the capture holds, 1-based (1 for a file of one). */
+export function segmentRead(info: CaptureInfo): number {
+  return info.import.segments.findIndex((segment) => segment.read) + 1 || 1;
+}

@@ -29,7 +29,7 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
       progress('reading the capture');
       let capture: Capture;
       try {
-        capture = readContent(request.content, { sampleInterval: request.sampleInterval, ...statedUnits(request.units ?? FILE_UNITS) });
+        capture = readContent(request.content, { sampleInterval: request.sampleInterval, segment: request.reading?.segment, ...statedUnits(request.reading?.units ?? FILE_UNITS) });
       } catch (error) {
         const refusal = unitRefusal(error);
         if (refusal) return { value: { type: 'open', info: null, refusal }, transfer: [] };

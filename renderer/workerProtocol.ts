@@ -50,6 +50,13 @@ export interface StatedUnits {
 /** The file's own units: nothing stated. */
 export const FILE_UNITS: StatedUnits = { timeUnit: '', valueUnit: '' };
 
+/** How the user asks a capture file to be read: the units stated, and which segment of repeated acquisitions (1-based). */
+export interface CaptureReading {
+  units: StatedUnits;
+  /** Default: the first. */
+  segment?: number;
+}
+
 /** Why a capture could not be read as written, when stating its time or value unit can fix it. */
 export interface UnitRefusal {
   unit: 'time' | 'value';
@@ -80,7 +87,7 @@ export interface ParasiticsAsk {
 }
 
 export type WorkerRequest =
-  | { id: number; type: 'open'; captureId: string; name: string; content: CaptureContent; sampleInterval?: number; units?: StatedUnits }
+  | { id: number; type: 'open'; captureId: string; name: string; content: CaptureContent; sampleInterval?: number; reading?: CaptureReading }
   | { id: number; type: 'trace'; captureId: string; channel: number }
   | {
       id: number;

@@ -13,7 +13,8 @@ import { clearDesign, loadDesignText } from './design';
 import { measure } from './fitWindow';
 import { drawPlot } from './plotView';
 import { refreshLog } from './benchLog';
-import { contentOf, FILE_UNITS, type StatedUnits } from '../workerProtocol';
+import { contentOf, FILE_UNITS, type CaptureReading, type StatedUnits } from '../workerProtocol';
+import { segmentRead } from '../traceData';
 
 /** First start: the sample the page asks for, else the last capture again, else a bundled sample with its design. */
 export async function start(ctx: ActionContext, requestedSample: string | null): Promise<void> {
@@ -23,7 +24,7 @@ export async function start(ctx: ActionContext, requestedSample: string | null):
   void refreshLog(ctx);
   if (requestedSample) return openSample(ctx, requestedSample);
   const last = await recallCapture();
-  if (last?.kind === 'file') return openCapture(ctx, { name: last.name, path: last.path, sampleId: null, ...contentOf(last) }, { channel: last.channel, units: last.units });
+  if (last?.kind === 'file') return openCapture(ctx, { name: last.name, path: last.path, sampleId: null, ...contentOf(last) }, { channel: last.channel, reading: last.reading });
   if (last?.kind === 'sample' && state.samples.some((s) => s.id === last.id)) return openSample(ctx, last.id, last.channel);
   const first = state.samples.find((s) => s.designId !== null) ?? state.samples[0];
   if (first) return openSample(ctx, first.id);
@@ -47,9 +48,9 @@ export async function openDropped(ctx: ActionContext, file: File): Promise<void>
 export async function openCapture(
   ctx: ActionContext,
   opened: OpenedFile,
-  options: { sample?: SampleEntry; design?: NamedText | null; channel?: number; units?: StatedUnits },
+  options: { sample?: SampleEntry; design?: NamedText | null; channel?: number; reading?: CaptureReading },
 ): Promise<void> {
-  const read = await readCapture(ctx, opened, options.sample ?? null, options.units ?? FILE_UNITS, options.channel);
+  const read = await readCapture(ctx, opened, options.sample ?? null, options.reading ?? { units: FILE_UNITS }, options.channel);
   if (read === 'failed') return;
   if (options.sample) ctx.store.update((s) => applySampleOptions(s, options.sample as SampleEntry));
   ctx.page.showCaptureName(opened.name);
@@ -58,12 +59,23 @@ export async function openCapture(
   if (read === 'read') await showAndMeasure(ctx);
 }
 
-/** Read the capture shown (or refused) again with the units the user states; its design and known part stay. */
-export async function stateUnits(ctx: ActionContext, units: StatedUnits): Promise<void> {
+/** Read the capture shown (or refused) again with the units the user states, in the same segment. */
+export function stateUnits(ctx: ActionContext, units: StatedUnits): Promise<void> {
+  const capture = ctx.store.state.capture;
+  return readAgain(ctx, { units, segment: capture ? segmentRead(capture.info) : undefined });
+}
+
+/** Read another segment of a file of repeated acquisitions, in the units stated. */
+export function chooseSegment(ctx: ActionContext, segment: number): Promise<void> {
+  return readAgain(ctx, { units: ctx.store.state.reading.units, segment });
+}
+
+/** Read the capture shown (or refused) again another way; its design and known part stay. */
+async function readAgain(ctx: ActionContext, reading: CaptureReading): Promise<void> {
   const { capture, refused } = ctx.store.state;
   const opened = capture?.opened ?? refused?.opened;
   if (!opened) return;
-  const read = await readCapture(ctx, opened, capture?.sample ?? refused?.sample ?? null, units, capture?.channel);
+  const read = await readCapture(ctx, opened, capture?.sample ?? refused?.sample ?? null, reading, capture?.channel);
   if (read === 'read') await showAndMeasure(ctx);
 }
 
@@ -71,12 +83,12 @@ export async function stateUnits(ctx: ActionContext, units: StatedUnits): Promis
  * Read a capture in the worker into the state: 'read', 'refused' for a unit the user can state (the capture panel
  * then says why and offers the units), or 'failed' with the reason in the window's message.
  */
-async function readCapture(ctx: ActionContext, opened: OpenedFile, sample: SampleEntry | null, units: StatedUnits, channel?: number): Promise<'read' | 'refused' | 'failed'> {
+async function readCapture(ctx: ActionContext, opened: OpenedFile, sample: SampleEntry | null, reading: CaptureReading, channel?: number): Promise<'read' | 'refused' | 'failed'> {
   const key = `capture-${++ctx.counters.captures}`;
   // A long fit of the previous capture must not hold this one up.
   if (ctx.client.busy) ctx.client.cancelAll();
   const read = await runStep(ctx, `reading ${opened.name}`, async () => {
-    const reply = await ctx.client.request({ type: 'open', captureId: key, name: opened.name, content: contentOf(opened), units }, (stage) => showProgress(ctx, stage)).catch((error: unknown) => {
+    const reply = await ctx.client.request({ type: 'open', captureId: key, name: opened.name, content: contentOf(opened), reading }, (stage) => showProgress(ctx, stage)).catch((error: unknown) => {
       throw error instanceof FitCancelled ? error : new BenchError(`${opened.name}: ${plainMessage(error)}`);
     });
     if (reply.refusal) {
@@ -84,7 +96,7 @@ async function readCapture(ctx: ActionContext, opened: OpenedFile, sample: Sampl
       ctx.store.update((s) => {
         s.capture = null;
         s.refused = { opened, refusal, sample };
-        s.statedUnits = units;
+        s.reading = reading;
         forgetMeasurement(s);
       });
       ctx.plot.clear();
@@ -97,7 +109,7 @@ async function readCapture(ctx: ActionContext, opened: OpenedFile, sample: Sampl
     ctx.store.update((s) => {
       s.capture = { key, opened, info, channel: Math.min(chosen, info.channels.length - 1), sample, ...digest };
       s.refused = null;
-      s.statedUnits = units;
+      s.reading = reading;
       forgetMeasurement(s);
     });
     return 'read' as const;
@@ -115,7 +127,7 @@ async function showAndMeasure(ctx: ActionContext): Promise<void> {
   void rememberCapture(
     opened.sampleId
       ? { kind: 'sample', id: opened.sampleId, channel: capture.channel }
-      : { kind: 'file', name: opened.name, path: opened.path, ...contentOf(opened), channel: capture.channel, units: ctx.store.state.statedUnits },
+      : { kind: 'file', name: opened.name, path: opened.path, ...contentOf(opened), channel: capture.channel, reading: ctx.store.state.reading },
   );
 }
 

@@ -5,7 +5,7 @@ import type { OpenedFile, ReportFormat } from '../bridgeTypes';
 import type { LogForm } from '../logRequest';
 import type { CaptureFile, FitWindow, StatedUnits } from '../workerProtocol';
 import { logMeasurement, refreshLog } from './benchLog';
-import { chooseChannel, openCapture, openDropped, openSample, pickCapture, start, stateUnits } from './capture';
+import { chooseChannel, chooseSegment, openCapture, openDropped, openSample, pickCapture, start, stateUnits } from './capture';
 import { runComparison, type CompareSettings } from './compare';
 import { setComponentsInput } from './components';
 import type { ActionContext } from './context';
@@ -26,6 +26,7 @@ export function bindActions(ctx: ActionContext) {
     openCapture: (opened: OpenedFile) => openCapture(ctx, opened, {}),
     chooseChannel: (index: number) => chooseChannel(ctx, index),
     stateUnits: (units: StatedUnits) => stateUnits(ctx, units),
+    chooseSegment: (segment: number) => chooseSegment(ctx, segment),
     setWindow: (window: FitWindow) => setWindow(ctx, window),
     setComponentsInput: (change: Partial<ComponentsInput>) => setComponentsInput(ctx, change),
     loadDesignFromSamples: (id: string) => loadDesignFromSamples(ctx, id),

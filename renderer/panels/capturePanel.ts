@@ -4,7 +4,8 @@ import { button, card, field, h, replaceChildren, select } from '../dom';
 import { showValue } from '../show';
 import { importRows } from '../../core/report/importText';
 import type { BenchState } from '../benchState';
-import type { StatedUnits, UnitRefusal } from '../workerProtocol';
+import type { CaptureInfo, StatedUnits, UnitRefusal } from '../workerProtocol';
+import { segmentRead } from '../traceData';
 import type { BenchActions } from '../actions';
 
 export function createCapturePanel(actions: BenchActions) {
@@ -77,6 +78,8 @@ export function createCapturePanel(actions: BenchActions) {
         h('dd', {}, channelControl),
         h('dt', {}, 'Units'),
         h('dd', {}, unitChoices(state, null)),
+        info.import.segments.length > 1 ? h('dt', {}, 'Segment') : null,
+        info.import.segments.length > 1 ? h('dd', {}, segmentChoice(info)) : null,
         h('dt', {}, 'Samples'),
         h('dd', { id: 'capture-samples' }, channel.samples.toLocaleString('en')),
         h('dt', {}, 'Sample rate'),
@@ -99,9 +102,20 @@ export function createCapturePanel(actions: BenchActions) {
     );
   }
 
+  /** Which of the file's repeated acquisitions is read and fitted. */
+  function segmentChoice(info: CaptureInfo): HTMLSelectElement {
+    const { segments } = info.import;
+    return select(
+      segments.map((segment, i) => ({ value: String(i + 1), label: `${i + 1} of ${segments.length}: lines ${segment.firstLine}–${segment.lastLine}, ${segment.rows.toLocaleString('en')} rows` })),
+      String(segmentRead(info)),
+      (value) => void actions.chooseSegment(Number(value)),
+      { id: 'segment-select', attrs: { 'aria-label': 'Segment (one of the repeated acquisitions in the file)' } },
+    );
+  }
+
   /** The time and value unit choices; the one a refusal names is marked. Choosing one reads the file again. */
   function unitChoices(state: BenchState, refusedUnit: UnitRefusal['unit'] | null): HTMLElement {
-    const units = state.statedUnits;
+    const { units } = state.reading;
     const choice = (unit: UnitRefusal['unit'], label: string, options: readonly (readonly [string, string])[], value: string, change: (text: string) => StatedUnits) =>
       h(
         'label',

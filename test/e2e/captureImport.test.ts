@@ -5,6 +5,7 @@ import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'nod
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
+import { twoSegmentCapture } from './generatedCaptures';
 import { buildBench, CHROMIUM, dropFile, hasChromium, launchChromium, outputDir, repoRoot, serveBench, waitForFit, type ServedBench } from './benchHarness';
 
 if (!hasChromium) console.warn(`test/e2e/captureImport.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
@@ -65,5 +66,24 @@ describe.skipIf(!hasChromium)('the capture panel in a browser', () => {
     expect(await page.locator('#import-import').innerText()).toContain('Windows-1252');
     expect(await page.locator('#import-time-axis').innerText()).toBe("column 'Time (\u00b5s)' in µs, every 400 ns");
     await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-windows-1252.png') });
+  });
+
+  it('offers the segments of a file of repeated acquisitions and fits the one chosen', async () => {
+    const file = join(folder, 'two-segments.csv');
+    writeFileSync(file, twoSegmentCapture());
+    await dropFile(page, file, 'two-segments.csv');
+    await waitForFit(page, 'two-segments.csv');
+    const choice = page.locator('#segment-select');
+    expect(await choice.inputValue()).toBe('1');
+    expect(await choice.locator('option').count()).toBe(2);
+    const finalValue = async () => Number(await page.locator('#fit-results tr[data-quantity="finalValue"]').getAttribute('data-value'));
+    const first = await finalValue();
+    const fits = Number(await page.locator('#fit-panel').getAttribute('data-fit-count'));
+    await choice.selectOption('2');
+    await page.waitForFunction((n) => Number(document.querySelector('#fit-panel')?.getAttribute('data-fit-count')) > n && document.querySelector('#progress')?.textContent === '', fits, { timeout: 90_000 });
+    expect(await page.locator('#segment-select').inputValue()).toBe('2');
+    // The second acquisition is the first at half the amplitude.
+    expect((await finalValue()) / first).toBeCloseTo(0.5, 3);
+    await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-segments.png') });
   });
 });

@@ -24,3 +24,13 @@ export function ambiguousMillisecondsCapture(): string {
   });
   return `${['Time (MS),CH1 (V)', ...scaled].join('\n')}\n`;
 }
+
+/** The input filter sample twice in one file, as repeated acquisitions: the second at half the amplitude, after a blank line and the header. */
+export function twoSegmentCapture(): string {
+  const [header, ...rows] = readFileSync(join(repoRoot, 'sample-captures/input-filter-step.csv'), 'utf8').trim().split('\n');
+  const halved = rows.map((row) => {
+    const [t, v] = row.split(',');
+    return `${t},${(Number(v) / 2).toFixed(6)}`;
+  });
+  return `${[header, ...rows, '', header, ...halved].join('\n')}\n`;
+}

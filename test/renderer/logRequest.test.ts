@@ -56,7 +56,7 @@ describe('buildLogRequest', () => {
 
   it('logs the units stated in the window, which main accepts and the report reads the capture with', () => {
     const state = fittedState();
-    state.statedUnits = { timeUnit: 'us', valueUnit: '' };
+    state.reading = { units: { timeUnit: 'us', valueUnit: '' } };
     const request = buildLogRequest(state, { unit: 'F3', operator: '', note: '' });
     expect(request.settings).toMatchObject({ timeUnit: 'us' });
     expect(request.settings).not.toHaveProperty('valueUnit');

@@ -8,7 +8,7 @@ import type { StatedUnits, WorkerReplyValue } from '../../renderer/workerProtoco
 import { ambiguousMillisecondsCapture } from '../e2e/generatedCaptures';
 
 function open(text: string, units?: StatedUnits) {
-  return handleWorkerRequest({ type: 'open', captureId: 'units', name: 'ms.csv', content: { text }, units }, () => undefined).value as Extract<WorkerReplyValue, { type: 'open' }>;
+  return handleWorkerRequest({ type: 'open', captureId: 'units', name: 'ms.csv', content: { text }, reading: units && { units } }, () => undefined).value as Extract<WorkerReplyValue, { type: 'open' }>;
 }
 
 describe('stating a unit in the window', () => {
