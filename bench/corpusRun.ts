@@ -32,9 +32,21 @@ function sigmas(estimate: number, stderr: number | null, truth: number): number 
   return stderr === null || !(stderr > 0) ? null : (estimate - truth) / stderr;
 }
 
-/** Success: alpha and omega0 within 3 standard errors of the truth, and omega0 within 2 % when zeta < 1. */
+/**
+ * Success: alpha and omega0 within 3 standard errors of the truth, and omega0 within 2 % when zeta < 1; a
+ * single decay (an overdamped record whose fast root the data cannot show) must have tau within 3 standard
+ * errors of the slowest time constant, 1 / (alpha - sqrt(alpha^2 - omega0^2)).
+ */
 export function judgeFit(fit: ResponseFit, truth: CorpusTruth): { reasons: string[]; alphaSigmas: number | null; omega0Sigmas: number | null; omega0Percent: number } {
   const reasons: string[] = [];
+  if (fit.regime === 'first-order' && fit.tau) {
+    const slowest = 1 / (truth.alpha - Math.sqrt(Math.max(0, truth.alpha ** 2 - truth.omega0 ** 2)));
+    const tauSigmas = sigmas(fit.tau.value, fit.tau.stderr, slowest);
+    if (truth.alpha < truth.omega0) reasons.push('a ring read as a single decay');
+    if (tauSigmas === null) reasons.push('no uncertainty');
+    else if (Math.abs(tauSigmas) > 3) reasons.push('tau beyond 3 se');
+    return { reasons, alphaSigmas: null, omega0Sigmas: null, omega0Percent: NaN };
+  }
   const alphaSigmas = sigmas(fit.alpha.value, fit.alpha.stderr, truth.alpha);
   const omega0Sigmas = sigmas(fit.omega0.value, fit.omega0.stderr, truth.omega0);
   const omega0Percent = (100 * (fit.omega0.value - truth.omega0)) / truth.omega0;

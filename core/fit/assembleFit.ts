@@ -14,6 +14,8 @@ import { plausibilityWarnings, uncertainOmega0Warning } from './fitWarnings';
 export interface ModelChoice {
   jumpStart: boolean;
   evidence: string;
+  /** For a single decay: the time constant of the record's tail alone (tailTimeConstant), s. */
+  tailTimeConstant?: number;
 }
 
 /**
@@ -60,7 +62,7 @@ export function assembleFit(
     regime,
     regimeEvidence: evidence,
     ...(ring ?? { alpha: NOT_APPLICABLE('s^-1'), omega0: NOT_APPLICABLE('rad/s'), omegaD: null, zeta: NOT_APPLICABLE(''), Q: NOT_APPLICABLE('') }),
-    ...(firstOrder ? { tau: quantity(1 / alpha, seAlpha === null ? null : seAlpha / (alpha * alpha), 's') } : {}),
+    ...(firstOrder ? { tau: decayTime(alpha, seAlpha, choice.tailTimeConstant) } : {}),
     ...(choice.jumpStart ? { jumpStart: true } : {}),
     finalValue: quantity(params.yFinal, se('yFinal'), trace.unit),
     t0: quantity(params.t0, t0Known ? se('t0') : null, 's'),
@@ -130,6 +132,21 @@ export function failedFit(set: FitSet, noise: number, warnings: string[], messag
     decimation: set.decimation,
     warnings,
   };
+}
+
+/**
+ * tau = 1 / alpha of a single decay. The record may hold a second, faster root it cannot resolve (a zeta of
+ * 1.2 at 20 dB fits a single decay as well as a ring); that root's share pulls tau over the whole record
+ * away from the slowest time constant (17 %, 5 standard errors, in that case), while the tail, where the
+ * faster root has died out, still reads the slowest one. The distance between the two is added to the
+ * standard error in quadrature: the spread between the readings the data allow (as in the unconditional
+ * variance of Burnham and Anderson, Model Selection and Multimodel Inference, 2002, 4.3.2; from memory).
+ */
+function decayTime(alpha: number, seAlpha: number | null, tailTimeConstant: number | undefined): Quantity {
+  const tau = 1 / alpha;
+  if (seAlpha === null) return quantity(tau, null, 's');
+  const spread = tailTimeConstant !== undefined && Number.isFinite(tailTimeConstant) ? tau - tailTimeConstant : 0;
+  return quantity(tau, Math.hypot(seAlpha / (alpha * alpha), spread), 's');
 }
 
 /** alpha, omega0 and what follows from them (zeta, Q, omega_d where underdamped) with standard errors. */

@@ -113,3 +113,23 @@ function refineFirstOrder(set: FitSet, layout: ParameterLayout, rate: number, t0
     warnings: result.warnings.filter((w) => !/covariance/i.test(w)),
   };
 }
+
+/** The tail starts this many fitted time constants after the event: a second root 3 times faster is down to e^-3 of its share there. */
+const TAIL_START_TAUS = 1;
+/** Fewest values a tail fit runs on. */
+const MIN_TAIL_VALUES = 20;
+
+/**
+ * The time constant of the record's tail alone (from one fitted tau after the event): a sum of two decays
+ * reads slower there than over the whole record, a single one the same to within the tail's noise.
+ */
+export function tailTimeConstant(set: FitSet, decay: Attempt, t0: number): { tau: number } | null {
+  const tau = 1 / attemptValue(decay, 'alpha');
+  const from = set.time.findIndex((t) => t >= attemptT0(decay, t0) + TAIL_START_TAUS * tau);
+  if (from < 0 || set.time.length - from < MIN_TAIL_VALUES) return null;
+  const time = set.time.subarray(from);
+  const values = set.values.subarray(from);
+  const tail: FitSet = { ...set, time, values, window: { start: time[0], end: set.window.end }, samplesUsed: time.length };
+  const fit = fitFirstOrder(tail, 'first-order-free', time[0]);
+  return fit && { tau: 1 / attemptValue(fit, 'alpha') };
+}

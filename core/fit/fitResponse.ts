@@ -7,7 +7,7 @@ import { LAYOUTS, layoutsFor } from './responseModel';
 import { firstSampleTime, MIN_FIT_SAMPLES, prepareFitSet, uniformValues } from './fitSet';
 import { searchLayouts } from './layoutSearch';
 import { chooseByInformation, explainRecord } from './modelSelection';
-import { fitFirstOrderRecord } from './firstOrderFit';
+import { fitFirstOrderRecord, tailTimeConstant } from './firstOrderFit';
 import { fitJumpStart, showsJump } from './jumpStart';
 import { refitAwayFromRails } from './railGuard';
 import { subCodeNoiseWarning } from './fitWarnings';
@@ -64,7 +64,9 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   const firstOrder = fitFirstOrderRecord(set, { hasPreEvent, jumpStart }, t0Start, noise);
   const explanation = explainRecord(best, t0Start, firstOrder, set);
   if (explanation.choice === 'none') return noResponseFit(set, noise, warnings, explanation.evidence, trace.unit);
+  let tail: number | undefined;
   if (explanation.choice === 'first-order' && firstOrder) {
+    tail = tailTimeConstant(set, firstOrder.attempt, firstOrder.t0)?.tau;
     ({ attempt: best, t0: t0Start } = firstOrder);
     jumpStart = !LAYOUTS[best.layout].fitsT0 && hasPreEvent;
   }
@@ -82,5 +84,5 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   const dof = set.time.length - best.values.length;
   const cov = responseCovariance(set, best.layout, best.values, t0Start, best.sse / Math.max(1, dof));
   warnings.push(...best.warnings, ...cov.warnings);
-  return assembleFit(trace, set, best, t0Start, cov, noise, warnings, { jumpStart, evidence: explanation.evidence });
+  return assembleFit(trace, set, best, t0Start, cov, noise, warnings, { jumpStart, evidence: explanation.evidence, tailTimeConstant: tail });
 }
