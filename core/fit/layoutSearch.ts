@@ -66,7 +66,7 @@ function alongDamping(set: FitSet, layout: ParameterLayout, attempt: Attempt, t0
   const alpha = attemptValue(attempt, 'alpha');
   const omega0 = attemptValue(attempt, 'omega0');
   const zeta = alpha / omega0;
-  if (zeta < RING_ZETA && attempt.status === 'converged') return attempt;
+  if (!(zeta > 0 && Number.isFinite(zeta)) || (zeta < RING_ZETA && attempt.status === 'converged')) return attempt;
   const t0 = attemptT0(attempt, t0Start);
   const workspace = new Workspace(set.time.length);
   const starts = DAMPING_STARTS.map((start) => {

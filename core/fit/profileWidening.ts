@@ -36,7 +36,7 @@ export function widenAlongZetaProfile(
   if (index.alpha === undefined || index.omega0 === undefined) return null;
   const zeta = values[index.alpha] / values[index.omega0];
   const localSe = zetaStderr(values, covariance, index.alpha, index.omega0);
-  if (!(localSe >= 0) || zeta + CLEAR_RING_SIGMAS * localSe < 1) return null;
+  if (!(zeta > 0 && Number.isFinite(zeta) && localSe >= 0) || zeta + CLEAR_RING_SIGMAS * localSe < 1) return null;
   const profile = zetaProfile(set, layout, values, t0Fixed, variance);
   const twoSigma = profile.interval.find((i) => i.sigmas === REGIME_SIGMAS) ?? profile.interval[0];
   if (profile.unbounded) {
