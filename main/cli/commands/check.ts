@@ -17,7 +17,7 @@ interface CheckCommandOptions extends MeasureCommandOptions {
 export function registerCheckCommand(program: Command, ctx: CommandContext): void {
   const command = program
     .command('check')
-    .description('fit a capture and check it against a design file: exit 0 in tolerance, 3 out of tolerance')
+    .description('fit a capture and check it against a design file: exit 0 in tolerance, 3 out of tolerance, 1 (no verdict) when the fit does not converge')
     .argument('<file>', 'capture file (CSV or text export of a scope)')
     .requiredOption('--design <file>', 'design file (topology, R, L, C with tolerances, source, probe)');
   addCaptureOptions(command)

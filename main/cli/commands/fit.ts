@@ -13,7 +13,7 @@ import { EXIT } from '../errors';
 export function registerFitCommand(program: Command, ctx: CommandContext): void {
   const command = program
     .command('fit')
-    .description('fit a ringdown or step response and report alpha, omega0, zeta, Q, the step metrics (and R, L, C)')
+    .description('fit a ringdown or step response and report alpha, omega0, zeta, Q, the step metrics (and R, L, C); exit 1 when the fit does not converge')
     .argument('<file>', 'capture file (CSV or text export of a scope)');
   addCaptureOptions(addComponentOptions(command))
     .option('--json', 'print one JSON object instead of the table')
