@@ -1,10 +1,12 @@
 // The events of a record driven again and again (a square wave, a pulse train): where each ring starts and ends.
 
+import { estimateNoise, robustSpread } from './noise';
+
 /** One event of a record, in sample indices of the values searched. */
 export interface EventSpan {
   /** First sample of the block the event clears the noise in (the record's start when it began before the record). */
   onset: number;
-  /** First sample of the natural response to fit: the block after the onset's, so never before the true onset. */
+  /** First sample of the natural response to fit: a block or two after the onset's, so never before the true onset. */
   start: number;
   /** One past the last sample to fit: a margin before the next event's onset, or the record's end. */
   end: number;
@@ -13,7 +15,6 @@ export interface EventSpan {
   /** Whether the ring has died into the noise before the span ends. */
   settledAtEnd: boolean;
 }
-
 
 /** Smallest block whose variance is read: fewer samples make the variance too noisy to tell ring from noise. */
 const MIN_BLOCK = 8;
@@ -25,9 +26,9 @@ const FALLBACK_PERIOD_SHARE = 1 / 16;
 const ACTIVE_SIGMAS = 5;
 /**
  * A ring's activity never rises above its own last period's (its envelope decays); a new event lifts it
- * at least this many times over within one block. Smaller ratios would let a ring's phase pass for an event.
+ * at least this many times over. At 2, band-limited noise riding a long ring passed for events.
  */
-const JUMP_RATIO = 2;
+const JUMP_RATIO = 3;
 /** An event's largest activity (the rms of its swing within a block) stands this many noise levels clear... */
 const MIN_EVENT_NOISES = 2.5;
 /** ...and is at least this share of the record's largest event (a glitch beside full-scale rings is no event). */
@@ -38,24 +39,43 @@ const END_MARGIN_BLOCKS = 1;
 const SETTLED_BLOCKS = 2;
 /** Fewest blocks over the record for the search to run at all. */
 const MIN_BLOCKS = 16;
+/** A move of the level must stand this many of its own noise levels clear (the noise of two period means). */
+const SHIFT_NOISES = 6;
+/** Stretches whose spread is read for the noise: this many samples, or a 32nd of the record when longer. */
+const NOISE_STRETCH = 128;
+/** The record's head, read for the noise too: this share of it (inside a usual pre-trigger)... */
+const HEAD_SHARE = 0.02;
+/** ...and at least this many samples (fewer read band-limited noise low). */
+const HEAD_MIN = 128;
+/** The quietest quarter of the stretches shows the noise (events fill the rest). */
+const QUIET_QUANTILE = 0.25;
+/** ...counted for at most this many times the difference estimate: in a record that rings throughout, the quietest stretches still ring. */
+const QUIET_NOISE_CAP = 4;
 
 /**
- * The events of a record: a block (a quarter ring period) whose swing about its own mean stands clear of
- * the noise and of the previous ring period's swing by JUMP_RATIO begins an event. The swing within a
- * block does not depend on the level, so alternate edges of a square wave and kicks about one level are
- * found alike, after a quiet stretch or while the previous ring still decays. `noise` is the standard
- * deviation of one sample's noise. A record with no event, or
- * too short to search, gives an empty list; one event gives one span.
+ * The events of a record. A block (a quarter ring period) whose swing about its own mean stands clear of
+ * the noise and of the previous ring period's swing by JUMP_RATIO begins an event: the swing does not
+ * depend on the level, so alternate edges of a square wave and kicks about one level are found alike,
+ * after a quiet stretch or while the previous ring still decays. An edge in step with the ring before it
+ * may hardly lift the swing; it moves the level, so a move of the mean over a ring period by JUMP_RATIO
+ * times the swing (and the previous period's move) begins an event too. Every threshold is read against
+ * the record's own noise, band-limited noise included. A record with no event, or too short to search,
+ * gives an empty list.
  */
-export function findEventTrain(values: ArrayLike<number>, noise: number): EventSpan[] {
+export function findEventTrain(values: ArrayLike<number>): EventSpan[] {
   const n = values.length;
+  const { sigma: noise, independentShare } = noiseModel(values);
+  if (!(noise > 0)) return [];
+  // Samples whose noise averages out like this many independent ones (fewer when the noise is band-limited).
+  const independent = (count: number) => Math.max(2, (count * independentShare) / (2 - independentShare));
   const period = ringPeriodSamples(values, noise) ?? n * FALLBACK_PERIOD_SHARE;
   const block = Math.max(MIN_BLOCK, Math.round(period / BLOCKS_PER_PERIOD));
   const blocks = Math.floor(n / block);
-  if (blocks < MIN_BLOCKS || !(noise > 0)) return [];
+  if (blocks < MIN_BLOCKS) return [];
   const lookback = Math.max(1, Math.ceil(period / block));
-  const activity = blockActivity(values, block, blocks, noise);
-  const activeVariance = noise * noise * ACTIVE_SIGMAS * Math.sqrt(2 / (block - 1));
+  const { mean, activity } = blockStatistics(values, block, blocks, noise);
+  const activeVariance = noise * noise * ACTIVE_SIGMAS * Math.sqrt(2 / (independent(block) - 1));
+  const shiftFloor = SHIFT_NOISES * noise * Math.sqrt(2 / independent(lookback * block));
   const active = (k: number) => activity[k] ** 2 > activeVariance;
   const largest = Math.max(...activity);
   const eventFloor = Math.max(MIN_EVENT_NOISES * noise, MIN_EVENT_SHARE * largest);
@@ -64,36 +84,53 @@ export function findEventTrain(values: ArrayLike<number>, noise: number): EventS
     for (let j = k; j < Math.min(blocks, k + lookback + 1); j++) if (activity[j] > activity[best]) best = j;
     return best;
   };
+  // How far the level moves from the ring period before block k to the one from it (0 where either is cut off).
+  const shift = (k: number) => (k < lookback || k + lookback > blocks ? 0 : Math.abs(periodMean(mean, k, lookback) - periodMean(mean, k - lookback, lookback)));
 
-  // cut: the first block whose next ring period rises above the previous one; onset: where it does (cut <= onset).
-  const onsets: { cut: number; onset: number; hasOnset: boolean }[] = [];
+  // cut: the first block that announces the event; onset: the block it starts in; first: the first block fitted.
+  const onsets: { cut: number; onset: number; first: number; hasOnset: boolean }[] = [];
   let k = 0;
+  // The level test compares whole periods after the last onset only (an event's own rise moves the level).
+  let levelFrom = 0;
   if (active(0)) {
     if (activity[peakFrom(0)] < eventFloor) return [];
-    onsets.push({ cut: 0, onset: 0, hasOnset: false });
+    onsets.push({ cut: 0, onset: 0, first: 1, hasOnset: false });
     k = peakFrom(0) + 1;
+    levelFrom = 2 * lookback + 1;
   }
   for (; k < blocks; k++) {
     if (!active(k)) continue;
     let before = 0;
     for (let j = Math.max(0, k - lookback); j < k; j++) before = Math.max(before, activity[j]);
     const peak = peakFrom(k);
-    if (activity[peak] < Math.max(JUMP_RATIO * before, eventFloor)) continue;
-    let onset = k;
-    while (!(active(onset) && activity[onset] >= JUMP_RATIO * before)) onset++;
-    onsets.push({ cut: k, onset, hasOnset: true });
-    k = peak;
+    if (activity[peak] >= Math.max(JUMP_RATIO * before, eventFloor)) {
+      let onset = k;
+      while (!(active(onset) && activity[onset] >= JUMP_RATIO * before)) onset++;
+      onsets.push({ cut: k, onset, first: onset + 1, hasOnset: true });
+      levelFrom = onset + 2 * lookback + 1;
+      k = peak;
+      continue;
+    }
+    if (k < levelFrom) continue;
+    // An edge of a square wave in step with the ring before it may not lift the swing, but it moves the level.
+    if (shift(k) < Math.max(JUMP_RATIO * before, JUMP_RATIO * shift(k - lookback), eventFloor, shiftFloor)) continue;
+    let edge = k;
+    for (let j = k; j <= Math.min(k + lookback, blocks - lookback); j++) if (shift(j) > shift(edge)) edge = j;
+    // The largest move falls within a block of the edge: one block more keeps the fit clear of it.
+    onsets.push({ cut: k, onset: edge, first: edge + 2, hasOnset: true });
+    levelFrom = edge + 2 * lookback + 1;
+    k = edge + lookback - 1;
   }
 
   return onsets.map((o, i) => {
     const next = onsets[i + 1];
     // The next event may begin up to a block before its cut (a smooth start clears the noise late).
-    const endBlock = next ? Math.max(o.onset + 1, next.cut - END_MARGIN_BLOCKS) : blocks;
+    const endBlock = next ? Math.max(o.first, next.cut - END_MARGIN_BLOCKS) : blocks;
     let quietEnd = endBlock - SETTLED_BLOCKS > o.onset;
     for (let j = endBlock - SETTLED_BLOCKS; quietEnd && j < endBlock; j++) quietEnd = !active(j);
     return {
       onset: o.onset * block,
-      start: Math.min(n, (o.onset + 1) * block),
+      start: Math.min(n, o.first * block),
       end: next ? endBlock * block : n,
       hasOnset: o.hasOnset,
       settledAtEnd: quietEnd,
@@ -101,18 +138,49 @@ export function findEventTrain(values: ArrayLike<number>, noise: number): EventS
   });
 }
 
-/** Per block, the rms swing of the samples about the block's mean beyond the noise: sqrt(max(0, variance - noise^2)). */
-function blockActivity(values: ArrayLike<number>, block: number, blocks: number, noise: number): Float64Array {
+/** Per block, its mean and the rms swing of its samples about that mean beyond the noise: sqrt(max(0, variance - noise^2)). */
+function blockStatistics(values: ArrayLike<number>, block: number, blocks: number, noise: number): { mean: Float64Array; activity: Float64Array } {
+  const mean = new Float64Array(blocks);
   const activity = new Float64Array(blocks);
   for (let k = 0; k < blocks; k++) {
     let sum = 0;
     for (let i = k * block; i < (k + 1) * block; i++) sum += values[i];
-    const mean = sum / block;
+    mean[k] = sum / block;
     let squares = 0;
-    for (let i = k * block; i < (k + 1) * block; i++) squares += (values[i] - mean) ** 2;
+    for (let i = k * block; i < (k + 1) * block; i++) squares += (values[i] - mean[k]) ** 2;
     activity[k] = Math.sqrt(Math.max(0, squares / (block - 1) - noise * noise));
   }
-  return activity;
+  return { mean, activity };
+}
+
+/** Mean of `count` block means from block `from`: over a whole ring period the ring itself averages out. */
+function periodMean(mean: Float64Array, from: number, count: number): number {
+  let sum = 0;
+  for (let k = from; k < from + count; k++) sum += mean[k];
+  return sum / count;
+}
+
+/**
+ * The noise as the search sees it: its standard deviation, the larger of the first-difference estimate
+ * and the spread of the record's head or of its quietest stretches, whichever is smaller (band-limited
+ * noise reads low in differences, as noise.ts explains; capped as there), and the share of samples that
+ * count as independent, (difference estimate / sigma)^2: 1 for white noise, about 1 - rho for noise
+ * correlated rho from one sample to the next.
+ */
+function noiseModel(values: ArrayLike<number>): { sigma: number; independentShare: number } {
+  const fromDifferences = estimateNoise(values);
+  const stretch = Math.max(NOISE_STRETCH, Math.floor(values.length / 32));
+  const spreads: number[] = [];
+  for (let from = 0; from + stretch <= values.length; from += stretch) {
+    spreads.push(robustSpread(Array.prototype.slice.call(values, from, from + stretch) as number[]));
+  }
+  if (spreads.length === 0) return { sigma: fromDifferences, independentShare: 1 };
+  // The record's head (a pre-trigger stretch) is quiet where a train rings throughout the rest.
+  const head = robustSpread(Array.prototype.slice.call(values, 0, Math.max(HEAD_MIN, Math.floor(values.length * HEAD_SHARE))) as number[]);
+  spreads.sort((a, b) => a - b);
+  const quiet = Math.min(head, spreads[Math.floor(spreads.length * QUIET_QUANTILE)]);
+  const sigma = Math.max(fromDifferences, Math.min(quiet, QUIET_NOISE_CAP * fromDifferences));
+  return { sigma, independentShare: sigma > 0 ? Math.min(1, (fromDifferences / sigma) ** 2) : 1 };
 }
 
 /** A turning point counts once the record has come back from it by this many noise levels. */

@@ -5,9 +5,8 @@ import type { Channel } from '../capture/types';
 import { summarizeTransitions } from '../circuit/transitionSummary';
 import { combineEstimates, type CombinedValue } from '../fit/eventCombination';
 import { findEventTrain, type EventSpan } from '../fit/eventTrain';
-import { fitResponse, type ResponseFit } from '../fit/fitResponse';
+import { fitResponse, type ResponseFit, type ResponseFitOptions } from '../fit/fitResponse';
 import { FitInputError } from '../fit/fitInputError';
-import { estimateNoise } from '../fit/noise';
 import { UsageError } from '../inputError';
 import { quantity, type Quantity } from '../quantity';
 import type { CombinedEstimate, EventEntry, EventTrainSummary } from '../report/eventTrainSummary';
@@ -20,6 +19,8 @@ export interface EventsRequest {
   captureWarnings?: readonly string[];
   /** The event to report as the measurement, 1-based. Default: the first complete one that converged. */
   event?: number;
+  /** Whether the quantity may jump at the event (a record of one event; an event's own fit starts inside its ring). */
+  continuity?: ResponseFitOptions['continuity'];
 }
 
 /** A ring seen for this many time constants before the next event is complete even if not yet in the noise (e^-3 = 5 %). */
@@ -52,7 +53,7 @@ export function fitEvents(request: EventsRequest): { fit: ResponseFit; summary: 
     throw new UsageError(`--event ${request.event}: the record holds ${count} event${count === 1 ? '' : 's'}`);
   }
   if (spans.length < 2) {
-    const whole = fitResponse(trace, { window: request.window ?? {} });
+    const whole = fitResponse(trace, { window: request.window ?? {}, continuity: request.continuity });
     const summary = summarizeFit(file, channel.name, whole, undefined, [...(request.captureWarnings ?? [])]);
     summary.transitions = summarizeTransitions(channel, whole);
     return { fit: whole, summary };
@@ -77,8 +78,7 @@ function eventsOf(channel: Channel, window: { start?: number; end?: number }): {
   while (first < time.length && time[first] < (window.start ?? -Infinity)) first++;
   let last = first;
   while (last < time.length && time[last] <= (window.end ?? Infinity)) last++;
-  const inWindow = values.subarray(first, last);
-  return { first, spans: findEventTrain(inWindow, estimateNoise(inWindow)) };
+  return { first, spans: findEventTrain(values.subarray(first, last)) };
 }
 
 /**
