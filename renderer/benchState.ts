@@ -70,6 +70,8 @@ export interface BenchState {
   eventTime: number | null;
   /** The window the user set by dragging or typing; empty for the automatic one. */
   userWindow: FitWindow;
+  /** The event the user chose to fit in a record holding several (1-based); null for the default one. */
+  chosenEvent: number | null;
   componentsInput: ComponentsInput;
   components: ComponentsState | null;
   componentsError: string | null;
@@ -106,6 +108,7 @@ export function initialState(face: 'window' | 'browser'): BenchState {
     fitError: null,
     eventTime: null,
     userWindow: {},
+    chosenEvent: null,
     componentsInput: { topology: 'series', knownName: 'C', knownText: '', toleranceText: '' },
     components: null,
     componentsError: null,

@@ -37,7 +37,7 @@ function boot(): void {
   }
   const plotRoot = h('div', { class: 'plot', id: 'fit-plot', attrs: { 'aria-label': 'Measured samples, fit, design prediction and residuals' } });
   const store = createStore(initialState(bridge.face), (run) => requestAnimationFrame(run));
-  const plot = new FitPlot(plotRoot, (window) => void actions.setWindow(window));
+  const plot = new FitPlot(plotRoot, (window) => void actions.setWindow(window), (event) => void actions.chooseEvent(event));
   const page = { showCaptureName: (name: string) => (document.title = `${name} — Ringbench`) };
   const actions = bindActions({ store, bridge, client: new FitClient('worker.js'), plot, page, counters: { running: 0, fitGeneration: 0, captures: 0 } });
   const toggleTheme = () => {

@@ -51,7 +51,7 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
       progress(`fitting ${channel.values.length.toLocaleString('en')} samples`);
       let measured: MeasureResult;
       try {
-        measured = measureCapture({ file: name, channel, captureWarnings: capture.warnings, importSummary: capture.importSummary, window: request.window, knownPart: request.knownPart, design: request.design, eventTime: request.eventTime });
+        measured = measureCapture({ file: name, channel, captureWarnings: capture.warnings, importSummary: capture.importSummary, window: request.window, knownPart: request.knownPart, design: request.design, eventTime: request.eventTime, event: request.event });
       } catch (error) {
         // The samples are still shown; the window says why there is no fit.
         return { value: { type: 'measure', reply: { result: null, fitError: plainMessage(error), verdictError: null, componentsError: null } }, transfer: [] };

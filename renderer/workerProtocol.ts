@@ -99,6 +99,8 @@ export type WorkerRequest =
       design?: Design;
       /** Where the design's prediction starts when the window was set by hand, s. */
       eventTime?: number;
+      /** Which event of a record holding several to fit, 1-based. Default: the first complete one. */
+      event?: number;
     }
   | { id: number; type: 'check'; captureId: string; channel: number; design: Design; fit: FitSummary; eventTime?: number }
   | ({ id: number; type: 'parasitics' } & ParasiticsAsk)

@@ -146,6 +146,7 @@ export async function chooseChannel(ctx: ActionContext, index: number): Promise<
 /** Another capture or channel: nothing measured on the previous one stays. */
 function forgetMeasurement(state: ActionContext['store']['state']): void {
   state.userWindow = {};
+  state.chosenEvent = null;
   state.eventTime = null;
   state.fit = null;
   state.summary = null;

@@ -6,15 +6,22 @@ import { knownPartForFit } from './components';
 import { runStep, showProgress, type ActionContext } from './context';
 import { drawPlot } from './plotView';
 
-/** A new fit window (from the plot or the fields); an empty one goes back to the automatic window. */
+/** A new fit window (from the plot or the fields); an empty one goes back to the automatic window. Events are found in it anew. */
 export async function setWindow(ctx: ActionContext, window: FitWindow): Promise<void> {
   ctx.store.state.userWindow = window;
+  ctx.store.state.chosenEvent = null;
+  await measure(ctx);
+}
+
+/** Fit another event of a record holding several (from the plot's labels or the fit panel). */
+export async function chooseEvent(ctx: ActionContext, event: number): Promise<void> {
+  ctx.store.state.chosenEvent = event;
   await measure(ctx);
 }
 
 export async function measure(ctx: ActionContext): Promise<void> {
   const state = ctx.store.state;
-  const { capture, trace, userWindow, design } = state;
+  const { capture, trace, userWindow, design, chosenEvent } = state;
   if (!capture || !trace) return;
   const generation = ++ctx.counters.fitGeneration;
   const knownPart = knownPartForFit(state);
@@ -22,7 +29,7 @@ export async function measure(ctx: ActionContext): Promise<void> {
   const eventTime = userWindow.start === undefined ? undefined : (state.eventTime ?? undefined);
   const answer = await runStep(ctx, 'fitting', () =>
     ctx.client.request(
-      { type: 'measure', captureId: capture.key, channel: capture.channel, window: userWindow, knownPart, design: design?.design, eventTime },
+      { type: 'measure', captureId: capture.key, channel: capture.channel, window: userWindow, knownPart, design: design?.design, eventTime, event: chosenEvent ?? undefined },
       (stage) => showProgress(ctx, stage),
     ),
   );

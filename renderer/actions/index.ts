@@ -12,7 +12,7 @@ import type { ActionContext } from './context';
 import { clearDesign, loadDesignFromSamples, pickDesign, saveDesign, useEditedDesign } from './design';
 import { exportPlot, exportReport } from './export';
 import { runExtraction, type ExtractionRow, type ExtractionSettings } from './extraction';
-import { setWindow } from './fitWindow';
+import { chooseEvent, setWindow } from './fitWindow';
 import { pickCaptureFile, readSampleText } from './pickCaptures';
 
 export type BenchActions = ReturnType<typeof bindActions>;
@@ -28,6 +28,7 @@ export function bindActions(ctx: ActionContext) {
     stateUnits: (units: StatedUnits) => stateUnits(ctx, units),
     chooseSegment: (segment: number) => chooseSegment(ctx, segment),
     setWindow: (window: FitWindow) => setWindow(ctx, window),
+    chooseEvent: (event: number) => chooseEvent(ctx, event),
     setComponentsInput: (change: Partial<ComponentsInput>) => setComponentsInput(ctx, change),
     loadDesignFromSamples: (id: string) => loadDesignFromSamples(ctx, id),
     pickDesign: () => pickDesign(ctx),

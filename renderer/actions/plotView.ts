@@ -4,7 +4,8 @@ import type { ActionContext } from './context';
 
 export async function drawPlot(ctx: ActionContext): Promise<void> {
   const state = ctx.store.state;
-  const { capture, trace, fit, design } = state;
+  const { capture, trace, fit, summary, design } = state;
+  const events = summary?.events;
   ctx.store.update();
   if (!capture || !trace) return;
   await ctx.plot.show({
@@ -15,5 +16,6 @@ export async function drawPlot(ctx: ActionContext): Promise<void> {
     window: fit ? fit.window : null,
     design: design?.design ?? null,
     eventTime: state.eventTime ?? fit?.t0.value ?? 0,
+    events: events ? events.list.map((e) => ({ index: e.index, onset: e.onset, end: e.end, fitted: e.index === events.chosen })) : [],
   });
 }

@@ -7,6 +7,7 @@ import { parseSigned } from '../parseInputs';
 import { plainMessage } from '../plainMessage';
 import type { BenchState } from '../benchState';
 import { fitStanding } from '../fitStanding';
+import { eventsView } from './eventsView';
 import { transitionView } from './transitionView';
 import type { BenchActions } from '../actions';
 
@@ -52,7 +53,8 @@ export function createFitPanel(actions: BenchActions) {
   for (const input of [startInput, endInput]) input.addEventListener('keydown', (e) => e.key === 'Enter' && apply());
   const extra = h('div', { class: 'details' });
   const steps = h('div', { id: 'transitions' });
-  body.append(status, table, steps, h('h3', {}, 'Fit window'), h('p', { class: 'field-hint' }, 'Drag the edges of the shaded region on the plot, or type the times.'), windowRow, windowNote, extra);
+  const eventList = h('div', { id: 'events' });
+  body.append(status, table, eventList, steps, h('h3', {}, 'Fit window'), h('p', { class: 'field-hint' }, 'Drag the edges of the shaded region on the plot, or type the times.'), windowRow, windowNote, extra);
 
   function render(state: BenchState): void {
     const { fit, summary, fitError } = state;
@@ -60,6 +62,7 @@ export function createFitPanel(actions: BenchActions) {
     if (!fit || !summary) {
       replaceChildren(status, fitError ? h('p', { class: 'error-text' }, fitError) : h('p', { class: 'muted' }, state.capture ? 'Fitting…' : 'Open a capture to fit it.'));
       table.replaceChildren();
+      eventList.replaceChildren();
       steps.replaceChildren();
       extra.replaceChildren();
       return;
@@ -95,6 +98,7 @@ export function createFitPanel(actions: BenchActions) {
         }),
       ),
     );
+    replaceChildren(eventList, ...(summary.events ? eventsView(summary.events, (event) => void actions.chooseEvent(event)) : []));
     replaceChildren(steps, ...(summary.transitions ? transitionView(summary.transitions) : []));
     if (document.activeElement !== startInput && document.activeElement !== endInput) {
       startInput.value = showValue(fit.window.start, 's', 6).replace(/\s/g, '');

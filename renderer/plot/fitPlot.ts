@@ -19,6 +19,17 @@ export interface PlotInput {
   design: Design | null;
   /** Where the design's response starts, s. */
   eventTime: number;
+  /** The events of a record holding several (empty otherwise): each marked at its onset, the one fitted picked out. */
+  events: PlotEvent[];
+}
+
+/** One event of a record as the plot marks it. */
+export interface PlotEvent {
+  /** 1-based, as the fit panel and --event count them. */
+  index: number;
+  onset: number;
+  end: number;
+  fitted: boolean;
 }
 
 interface Derived {
@@ -40,10 +51,13 @@ export class FitPlot {
   private windowTimer: ReturnType<typeof setTimeout> | null = null;
   private drawing: Promise<void> = Promise.resolve();
   private bound = false;
+  /** The events labelled on the plot, in the order of its annotations. */
+  private shownEvents: PlotEvent[] = [];
 
   constructor(
     private readonly root: HTMLElement,
     private readonly onWindowChange: (window: { start: number; end: number }) => void,
+    private readonly onEventChoice: (index: number) => void,
   ) {}
 
   /** Show new data; the zoom is kept while the capture and channel stay the same. */
@@ -109,6 +123,9 @@ export class FitPlot {
       }
     }
     traces.push(...markerTraces(trace, x0, x1, colors));
+    const events = input.events.filter((e) => e.onset >= x0 && e.onset <= x1).slice(0, MARKER_LIMIT);
+    this.shownEvents = events;
+    if (events.length) traces.push(eventLines(events, measured.y, colors));
 
     const layout = {
       paper_bgcolor: 'rgba(0,0,0,0)',
@@ -149,6 +166,22 @@ export class FitPlot {
             edgeLine(window.end, colors.windowEdge),
           ]
         : [],
+      // Each event's number above its onset: a click on it fits that event.
+      annotations: events.map((e) => ({
+        x: e.onset,
+        xref: 'x',
+        y: 1,
+        yref: 'paper',
+        yanchor: 'top',
+        text: e.fitted ? `<b>${e.index}</b>` : String(e.index),
+        showarrow: false,
+        captureevents: true,
+        bgcolor: colors.window,
+        bordercolor: e.fitted ? colors.fit : colors.axis,
+        borderwidth: 1,
+        font: { color: e.fitted ? colors.fit : colors.text, size: 11 },
+        hovertext: e.fitted ? `event ${e.index}: the one fitted` : `event ${e.index}: click to fit it`,
+      })),
     };
     const root = await plotly().react(this.root, traces, layout, {
       displayModeBar: false,
@@ -185,6 +218,11 @@ export class FitPlot {
     if (this.bound) return;
     this.bound = true;
     root.on('plotly_relayout', (update) => this.handleRelayout(update));
+    root.on('plotly_clickannotation', (data) => {
+      const index = (data as { index?: number }).index;
+      const event = index === undefined ? undefined : this.shownEvents[index];
+      if (event && !event.fitted) this.onEventChoice(event.index);
+    });
   }
 
   private handleRelayout(update: Record<string, unknown>): void {
@@ -277,6 +315,19 @@ function edgeLine(x: number, color: string): Record<string, unknown> {
 
 function line(name: string, x: ArrayLike<number>, y: ArrayLike<number>, color: string, width: number, dash: string, yaxis: 'y' | 'y2'): PlotlyTrace {
   return { type: 'scatter', mode: 'lines', name, x, y, yaxis, line: { color, width, dash, simplify: false }, hoverinfo: 'x+y+name' };
+}
+
+/** The events' onsets as dashed vertical lines over the samples' span (one trace, broken between events). */
+function eventLines(events: PlotEvent[], values: ArrayLike<number>, colors: Palette): PlotlyTrace {
+  let low = Infinity;
+  let high = -Infinity;
+  for (let i = 0; i < values.length; i++) {
+    low = Math.min(low, values[i]);
+    high = Math.max(high, values[i]);
+  }
+  const x = events.flatMap((e) => [e.onset, e.onset, Number.NaN]);
+  const y = events.flatMap(() => [low, high, Number.NaN]);
+  return { ...line('Events', x, y, colors.axis, 1, 'dot', 'y'), hoverinfo: 'skip', legendrank: 5 };
 }
 
 function markerTraces(trace: TraceData, x0: number, x1: number, colors: Palette): PlotlyTrace[] {

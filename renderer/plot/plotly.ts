@@ -10,6 +10,8 @@ export type PlotlyLayout = Record<string, unknown>;
 
 export interface PlotlyElement extends HTMLDivElement {
   on(event: 'plotly_relayout', listener: (update: Record<string, unknown>) => void): void;
+  /** A click on an annotation made with captureevents: its index among the layout's annotations. */
+  on(event: 'plotly_clickannotation', listener: (data: { index: number }) => void): void;
   on(event: string, listener: (data: unknown) => void): void;
   layout?: PlotlyLayout;
 }

@@ -1,4 +1,5 @@
-// End to end: a fit that is not a measurement never sits beside a green badge, and a refused unit can be stated in the window.
+// End to end: a fit that is not a measurement never sits beside a green badge, a refused unit can be stated in the window,
+// and the events of a record holding several are marked on the plot and chosen there or in the fit panel.
 
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
@@ -6,11 +7,11 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { buildBench, CHROMIUM, dropFile, hasChromium, launchChromium, outputDir, serveBench, waitForFit, type ServedBench } from './benchHarness';
-import { ambiguousMillisecondsCapture, flatNoiseCapture } from './generatedCaptures';
+import { ambiguousMillisecondsCapture, flatNoiseCapture, squareWaveCapture } from './generatedCaptures';
 
 if (!hasChromium) console.warn(`test/e2e/fitTrust.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
 
-describe.skipIf(!hasChromium)('the fit badge and the unit controls in a browser', () => {
+describe.skipIf(!hasChromium)('the fit badge, the unit choices and the events in a browser', () => {
   let bench: ServedBench;
   let browser: Browser;
   let page: Page;
@@ -74,10 +75,49 @@ describe.skipIf(!hasChromium)('the fit badge and the unit controls in a browser'
     expect(Math.abs(f0.value - sampleF0.value)).toBeLessThan(3 * Math.hypot(f0.stderr, sampleF0.stderr));
     await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-unit-stated.png') });
   });
+
+  it('marks the events of a square-wave record on the plot, and fits the one clicked or chosen', async () => {
+    const file = join(folder, 'square-wave.csv');
+    writeFileSync(file, squareWaveCapture());
+    await dropFile(page, file, 'square-wave.csv');
+    await waitForFit(page, 'square-wave.csv');
+    expect(await page.locator('#events-table tbody tr').count()).toBe(4);
+    expect(await page.locator('#events-table tr.chosen').getAttribute('data-event')).toBe('1');
+    const labels = page.locator('#fit-plot g.annotation');
+    expect(await labels.count()).toBe(4);
+    await page.evaluate(() => window.scrollTo(0, 0));
+    await page.locator('#fit-plot').screenshot({ path: join(outputDir, 'plot-events.png') });
+    let fits = await fitCount(page);
+    await labels.nth(2).click();
+    await waitForRefit(page, fits);
+    expect(await page.locator('#event-select').inputValue()).toBe('3');
+    expect(await page.locator('#events-table tr.chosen').getAttribute('data-event')).toBe('3');
+    fits = await fitCount(page);
+    await page.locator('#event-select').selectOption('2');
+    await waitForRefit(page, fits);
+    expect(await page.locator('#events-table tr.chosen').getAttribute('data-event')).toBe('2');
+    // Generated at f0 = 1 MHz: each event's fit finds it within its stated uncertainty.
+    const f0 = await f0Shown(page);
+    expect(Math.abs(f0.value - 1e6)).toBeLessThan(3 * f0.stderr);
+    await page.locator('#fit-panel').screenshot({ path: join(outputDir, 'fit-panel-events.png') });
+  });
 });
 
 /** The natural frequency row of the fit table, as its data attributes carry it. */
 async function f0Shown(page: Page): Promise<{ value: number; stderr: number }> {
   const row = page.locator('#fit-results tr[data-quantity="f0"]');
   return { value: Number(await row.getAttribute('data-value')), stderr: Number(await row.getAttribute('data-stderr')) };
+}
+
+async function fitCount(page: Page): Promise<number> {
+  return Number(await page.locator('#fit-panel').getAttribute('data-fit-count'));
+}
+
+/** Wait until a fit after the `before`-th is shown and the bench is idle again. */
+async function waitForRefit(page: Page, before: number): Promise<void> {
+  await page.waitForFunction(
+    (n) => Number(document.querySelector('#fit-panel')?.getAttribute('data-fit-count')) > n && document.querySelector('#progress')?.textContent === '',
+    before,
+    { timeout: 90_000 },
+  );
 }

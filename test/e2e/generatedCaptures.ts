@@ -3,6 +3,7 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { createRandom } from '../../core/random';
+import { evaluateResponse } from '../../core/response/secondOrder';
 import { repoRoot } from './benchHarness';
 
 /** A DC level with white noise and nothing else: no response for the fit to find. */
@@ -33,4 +34,25 @@ export function twoSegmentCapture(): string {
     return `${t},${(Number(v) / 2).toFixed(6)}`;
   });
   return `${[header, ...rows, '', header, ...halved].join('\n')}\n`;
+}
+
+/** A ring of 1 MHz (zeta 0.05) driven by a square wave: four edges, each five time constants after the one before, with seeded noise. */
+export function squareWaveCapture(seed = 5): string {
+  const omega0 = 2 * Math.PI * 1e6;
+  const alpha = 0.05 * omega0;
+  const sampleInterval = 20e-9;
+  const edges = [2e-6, 2e-6 + 5 / alpha, 2e-6 + 10 / alpha, 2e-6 + 15 / alpha];
+  const samples = Math.round((edges[3] + 6 / alpha) / sampleInterval);
+  const time = Float64Array.from({ length: samples }, (_, i) => i * sampleInterval);
+  const values = new Float64Array(samples);
+  edges.forEach((t0, k) => {
+    // Alternate edges of 5 V up and down; each adds its own step response to what is left of the ones before.
+    const size = k % 2 === 0 ? 5 : -5;
+    const one = evaluateResponse({ t0, yPre: 0, yFinal: size, a: -size, b: -alpha * size, alpha, omega0 }, time);
+    for (let i = 0; i < samples; i++) values[i] += one[i];
+  });
+  const random = createRandom(seed);
+  const lines = ['Time (s),CH1 (V)'];
+  for (let i = 0; i < samples; i++) lines.push(`${time[i].toExponential(6)},${(values[i] + 0.02 * random.normal()).toFixed(5)}`);
+  return `${lines.join('\n')}\n`;
 }
