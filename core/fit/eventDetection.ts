@@ -9,8 +9,8 @@ export interface EventEstimate {
   /** True when enough flat samples precede the event to fit t0 and the pre-event level. */
   hasPreEvent: boolean;
   /**
-   * First sample surely inside the response: the first clear departure from the starting level when the
-   * record starts quietly, 0 when it moves from its first sample. A fit without an event may start here.
+   * First sample surely inside the response: the first clear departure from the starting level, or 0 when
+   * the record moves from its first sample. A fit without an event may start here.
    */
   responseFrom: number;
 }
@@ -121,7 +121,7 @@ function detectAtScale(
   let outside = 0;
   for (let i = 0; i < Math.min(first, minFlat); i++) if (Math.abs(values[i] - baseline) > quiet) outside++;
   const quietStart = outside <= 1;
-  const onset = hingeOnset(values, quietStart ? departureReach(values, first, baseline, quiet) : 0, first);
+  const onset = hingeOnset(values, quietStart ? departureReach(values, first, baseline, quiet, minFlat) : 0, first);
   return { onset, first, hasPreEvent: quietStart && onset >= minFlat, quietStart, peak };
 }
 
@@ -136,17 +136,17 @@ const CLIMBS_BACK = 4;
 
 /**
  * Where the onset search begins: CLIMBS_BACK climbs (from the last quiet sample to the first clear one)
- * before the last quiet sample, and MIN_PRE_EVENT more for the level. Band-limited noise wanders over a
- * long flat stretch, and a slow departure fitted over all of it would start at the record's start.
+ * before the last quiet sample, and `minFlat` more for the level. Band-limited noise wanders over a long
+ * flat stretch, and a slow departure fitted over all of it would start at the record's start.
  */
-function departureReach(values: ArrayLike<number>, first: number, baseline: number, quiet: number): number {
+function departureReach(values: ArrayLike<number>, first: number, baseline: number, quiet: number, minFlat: number): number {
   let last = first - 1;
   while (last > 0 && Math.abs(values[last] - baseline) > quiet) last--;
-  return Math.max(0, last - CLIMBS_BACK * (first - last) - MIN_PRE_EVENT);
+  return Math.max(0, last - CLIMBS_BACK * (first - last) - minFlat);
 }
 
 /**
- * Where the record leaves its starting level, from the samples `from` to the first clear excursion
+ * Where the record leaves its starting level, from the samples `start` to the first clear excursion
  * (index `first`): least squares of a level followed by a linear or a quadratic departure (a response
  * starts with a slope, or from rest), over every break point. Walking back to the last quiet sample
  * instead would place a slow start late by the time it takes to climb out of the noise.
