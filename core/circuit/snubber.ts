@@ -60,6 +60,12 @@ export interface SnubberSuggestion {
     /** Overshoot a second-order loop with the pair's zeta would have (what zeta alone promises), a fraction. */
     pairOvershoot: number;
     step: StepMetrics;
+    /**
+     * How far the step metrics move when the loop's L_p, C_p and R_p move by their standard errors, the
+     * snubber parts held: the sum of each one's effect, an upper bound whatever their correlation. Null
+     * when a loop value has no standard error.
+     */
+    stepStderr: { overshoot: number; settlingTime: number | null } | null;
   };
   /** The settling band of the step metrics, a fraction of the step. */
   settlingBand: number;
@@ -103,17 +109,14 @@ export function suggestSnubber(loop: SnubberLoop, options: SnubberOptions = {}):
   const C = quantity(ratio * Cp, loop.C.stderr === null ? null : ratio * loop.C.stderr, 'F');
 
   const omegaRef = 1 / Math.sqrt(Lp * Cp);
-  const m = ratio;
-  const r = R.value / z0;
-  const rho = Rp / z0;
-  const zRoots = cubicRoots(r * m, 1 + m + rho * r * m, rho * (1 + m) + r * m, 1);
-  const poles = zRoots.map((p) => ({ re: p.re * omegaRef, im: p.im * omegaRef }));
+  const snubbed = snubbedLoop({ Lp, Cp, Rp, Rs: R.value, Cs: C.value });
+  const poles = snubbed.poles;
   const { pair, other, method } = ringingPair(poles);
   const pairDamping = dampingFromPair(pair);
   const pairDecay = Math.max(...pair.map((p) => Math.abs(p.re)));
   const pairDominant = Math.abs(other) >= DOMINANCE_RATIO * pairDecay;
-  const step = inSeconds(loopStepResponse([1, r * m], zRoots, r * m).metrics, omegaRef);
-  const bareStep = inSeconds(loopStepResponse([1], quadraticRoots(rho, 1), 1).metrics, omegaRef);
+  const step = snubbed.step;
+  const bareStep = inSeconds(loopStepResponse([1], quadraticRoots(Rp / z0, 1), 1).metrics, omegaRef);
   const pairOvershoot = secondOrderOvershoot(pairDamping.zeta);
 
   const bareAlpha = Rp / (2 * Lp);
@@ -134,10 +137,50 @@ export function suggestSnubber(loop: SnubberLoop, options: SnubberOptions = {}):
     powerPerVoltSquaredHertz: C.value,
     powerAt,
     before: { ...dampingOf(bareAlpha, omegaRef), step: bareStep },
-    predicted: { ...pairDamping, method, poles, otherPole: other, pairDominant, pairOvershoot, step },
+    predicted: { ...pairDamping, method, poles, otherPole: other, pairDominant, pairOvershoot, step, stepStderr: stepStderr(loop, R.value, C.value, step) },
     settlingBand: SETTLING_BAND,
     notes,
   };
+}
+
+interface LoopParts {
+  Lp: number;
+  Cp: number;
+  Rp: number;
+  Rs: number;
+  Cs: number;
+}
+
+/** Poles (rad/s) and step metrics (s) of the snubbed loop, from the cubic in z = s sqrt(L_p C_p) (see suggestSnubber). */
+function snubbedLoop({ Lp, Cp, Rp, Rs, Cs }: LoopParts): { poles: Complex[]; step: StepMetrics } {
+  const z0 = Math.sqrt(Lp / Cp);
+  const omegaRef = 1 / Math.sqrt(Lp * Cp);
+  const m = Cs / Cp;
+  const r = Rs / z0;
+  const rho = Rp / z0;
+  const zRoots = cubicRoots(r * m, 1 + m + rho * r * m, rho * (1 + m) + r * m, 1);
+  return {
+    poles: zRoots.map((p) => ({ re: p.re * omegaRef, im: p.im * omegaRef })),
+    step: inSeconds(loopStepResponse([1, r * m], zRoots, r * m).metrics, omegaRef),
+  };
+}
+
+/** Each loop value moved by its standard error both ways, the larger change kept, the changes summed (see stepStderr). */
+function stepStderr(loop: SnubberLoop, Rs: number, Cs: number, step: StepMetrics): { overshoot: number; settlingTime: number | null } | null {
+  const R = loop.R ?? { value: 0, stderr: 0 };
+  if (loop.L.stderr === null || loop.C.stderr === null || R.stderr === null) return null;
+  const base: LoopParts = { Lp: loop.L.value, Cp: loop.C.value, Rp: R.value, Rs, Cs };
+  let overshoot = 0;
+  let settling: number | null = 0;
+  for (const [key, u] of [['Lp', loop.L.stderr], ['Cp', loop.C.stderr], ['Rp', R.stderr]] as const) {
+    const moved = [-1, 1].map((sign) => snubbedLoop({ ...base, [key]: Math.max(0, base[key] + sign * u) }).step);
+    overshoot += Math.max(...moved.map((m) => Math.abs(m.overshoot - step.overshoot)));
+    settling =
+      settling === null || step.settlingTime === null || moved.some((m) => m.settlingTime === null)
+        ? null
+        : settling + Math.max(...moved.map((m) => Math.abs(m.settlingTime! - step.settlingTime!)));
+  }
+  return { overshoot, settlingTime: settling };
 }
 
 /** The complex (ringing) pair, or the two slowest real poles; `other` is the remaining real pole, s^-1. */

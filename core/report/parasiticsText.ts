@@ -41,8 +41,10 @@ export function formatParasiticsText(r: ParasiticsResult): string {
   text += `  zeta             ${s.before.zeta.toPrecision(3)} without, ${s.predicted.zeta.toPrecision(3)} with the snubber (${s.predicted.method})\n`;
   const percent = (x: number) => `${(x * 100).toFixed(1)} %`;
   const settling = (t: number | null) => (t === null ? 'never' : formatEngineering(t, 's'));
-  text += `  step overshoot   ${percent(s.before.step.overshoot)} without, ${percent(s.predicted.step.overshoot)} with the snubber (the whole loop's step response)\n`;
-  text += `  settling (${Math.round(s.settlingBand * 100)} %)   ${settling(s.before.step.settlingTime)} without, ${settling(s.predicted.step.settlingTime)} with the snubber\n`;
+  const spread = (u: number | null | undefined, show: (x: number) => string) => (u === null || u === undefined ? '' : ` ± ${show(u)}`);
+  const u = s.predicted.stepStderr;
+  text += `  step overshoot   ${percent(s.before.step.overshoot)} without, ${percent(s.predicted.step.overshoot)}${spread(u?.overshoot, (x) => `${(x * 100).toPrecision(2)} %`)} with the snubber (the whole loop's step response)\n`;
+  text += `  settling (${Math.round(s.settlingBand * 100)} %)   ${settling(s.before.step.settlingTime)} without, ${settling(s.predicted.step.settlingTime)}${spread(u?.settlingTime, (x) => formatEngineering(x, 's', 2))} with the snubber\n`;
   for (const w of r.warnings) text += `  warning: ${w}\n`;
   for (const n of [...r.notes, ...s.notes]) text += `  note: ${n}\n`;
   return text + formatCautionsText(r.cautions);

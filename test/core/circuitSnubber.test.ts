@@ -5,6 +5,7 @@ import { CircuitInputError } from '../../core/circuit/errors';
 import { loopStepResponse } from '../../core/circuit/loopStepResponse';
 import { suggestSnubber, type SnubberLoop } from '../../core/circuit/snubber';
 import { quantity } from '../../core/quantity';
+import { createRandom } from '../../core/random';
 import { integrateSnubbedStep, sampledStepMetrics } from './snubbedLoopIntegration';
 
 const mul = (a: Complex, b: Complex): Complex => ({ re: a.re * b.re - a.im * b.im, im: a.re * b.im + a.im * b.re });
@@ -166,6 +167,36 @@ describe('the snubbed loop step response', () => {
     const expected = zeta < 1 ? Math.exp((-Math.PI * zeta) / Math.sqrt(1 - zeta * zeta)) : 0;
     expect(Math.abs(s.before.step.overshoot - expected)).toBeLessThan(1e-7);
     expect(s.before.step.settlingTime!).toBeGreaterThan(0);
+  });
+
+  it('the overshoot error bounds the spread from the loop uncertainties (seeded Monte Carlo, parts held), and is not far above it', () => {
+    const loop = { L: quantity(6.5e-9, 0.2e-9, 'H'), C: quantity(390e-12, 15e-12, 'F'), R: quantity(0.28, 0.03, 'ohm') };
+    const s = suggestSnubber(loop);
+    const random = createRandom(4242);
+    const draws = 800;
+    let sum = 0;
+    let sumSquares = 0;
+    for (let k = 0; k < draws; k++) {
+      const drawn = {
+        L: quantity(loop.L.value + loop.L.stderr! * random.normal(), null, 'H'),
+        C: quantity(loop.C.value + loop.C.stderr! * random.normal(), null, 'F'),
+        R: quantity(loop.R.value + loop.R.stderr! * random.normal(), null, 'ohm'),
+      };
+      // The parts as suggested for the estimated loop (R_s, C_s held), the loop as drawn: what the bench would see.
+      const overshoot = suggestSnubber({ ...drawn, characteristicImpedance: s.R }, { capacitanceRatio: s.C.value / drawn.C.value }).predicted.step.overshoot;
+      sum += overshoot;
+      sumSquares += overshoot ** 2;
+    }
+    const sd = Math.sqrt(sumSquares / draws - (sum / draws) ** 2);
+    const stated = s.predicted.stepStderr!.overshoot;
+    // 800 draws estimate a standard deviation to about 2.5 %.
+    expect(stated).toBeGreaterThan(0.95 * sd);
+    expect(stated).toBeLessThan(2 * sd);
+  });
+
+  it('the step metrics have no error bar when a loop value has none', () => {
+    expect(suggestSnubber({ L: quantity(6.5e-9, null, 'H'), C: quantity(390e-12, 1e-12, 'F') }).predicted.stepStderr).toBeNull();
+    expect(suggestSnubber({ L: quantity(6.5e-9, 1e-11, 'H'), C: quantity(390e-12, 1e-12, 'F') }).predicted.stepStderr!.overshoot).toBeGreaterThan(0);
   });
 
   it('a repeated pole (real double root) gives finite metrics close to its neighbours', () => {
