@@ -1,6 +1,6 @@
 // How far the fit on screen can be trusted: green only for a converged fit with nothing to doubt, never beside a failure.
 
-import type { FitSummary } from '../core/report/fitSummary';
+import { fitSucceeded, type FitSummary } from '../core/report/fitSummary';
 
 /** ok: converged, no warning of its own; warn: converged with doubts; bad: the fit did not give a measurement. */
 export type FitTone = 'ok' | 'warn' | 'bad';
@@ -29,7 +29,7 @@ const FAILED_WORDS: Readonly<Record<string, string>> = {
 export function fitStanding(summary: Pick<FitSummary, 'status' | 'warnings'>, importWarnings: readonly string[]): FitStanding {
   const fromImport = new Set(importWarnings);
   const doubts = summary.warnings.filter((warning) => !fromImport.has(warning));
-  if (summary.status !== 'converged') {
+  if (!fitSucceeded(summary)) {
     return { tone: 'bad', label: FAILED_WORDS[summary.status] ?? summary.status, doubts, showRegime: false };
   }
   if (doubts.length > 0) {

@@ -2,6 +2,7 @@
 
 import type { BenchState } from './benchState';
 import type { BenchLogRequest } from './bridgeTypes';
+import { fitSucceeded } from '../core/report/fitSummary';
 import { BenchError } from './benchError';
 import { segmentRead } from './traceData';
 
@@ -14,6 +15,7 @@ export interface LogForm {
 export function buildLogRequest(state: BenchState, form: LogForm): BenchLogRequest {
   const { capture, summary, components, design, verdict, cautions, userWindow } = state;
   if (!capture || !summary) throw new BenchError('there is no fitted measurement to log: open a capture first');
+  if (!fitSucceeded(summary)) throw new BenchError(`the fit did not converge (${summary.status}): there is no measurement to log`);
   if (form.unit.trim() === '') throw new BenchError('give the unit under test a name or serial number before logging');
   const channel = capture.info.channels[capture.channel];
   const { units } = state.reading;

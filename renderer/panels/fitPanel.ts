@@ -77,7 +77,7 @@ export function createFitPanel(actions: BenchActions) {
         h('span', { class: `badge ${standing.tone}`, id: 'fit-state', data: { status: fit.status, tone: standing.tone } }, standing.label),
         standing.showRegime ? h('span', { class: 'regime', id: 'fit-regime', data: { regime: fit.regime } }, fit.regime) : null,
       ),
-      fit.status !== 'converged' ? h('p', { class: 'error-text', id: 'fit-message' }, fit.message) : null,
+      standing.tone === 'bad' && fit.message !== standing.label ? h('p', { class: 'error-text', id: 'fit-message' }, fit.message) : null,
       firstDoubt ? h('p', { class: `first-warning ${standing.tone}`, id: 'fit-first-warning' }, firstDoubt, otherDoubts.length ? h('span', { class: 'muted' }, ` (${otherDoubts.length} more below)`) : null) : null,
       standing.showRegime ? h('p', { class: 'muted small' }, fit.regimeEvidence) : null,
     );

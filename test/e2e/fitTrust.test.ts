@@ -7,7 +7,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { buildBench, CHROMIUM, dropFile, hasChromium, launchChromium, outputDir, serveBench, waitForFit, type ServedBench } from './benchHarness';
-import { ambiguousMillisecondsCapture, flatNoiseCapture, squareWaveCapture } from './generatedCaptures';
+import { ambiguousMillisecondsCapture, flatNoiseCapture, rcStepCapture, squareWaveCapture } from './generatedCaptures';
 
 if (!hasChromium) console.warn(`test/e2e/fitTrust.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
 
@@ -37,22 +37,33 @@ describe.skipIf(!hasChromium)('the fit badge, the unit choices and the events in
     if (folder) rmSync(folder, { recursive: true, force: true });
   });
 
-  it('shows a flat, noisy record in red or amber, with no regime and its first warning beside the badge', async () => {
+  it('shows a flat, noisy record in red, as no response, with no regime', async () => {
     const file = join(folder, 'flat-noise.csv');
     writeFileSync(file, flatNoiseCapture());
     await dropFile(page, file, 'flat-noise.csv');
     await waitForFit(page, 'flat-noise.csv');
     const badge = page.locator('#fit-state');
-    if ((await badge.count()) > 0) {
-      expect(await badge.getAttribute('data-tone')).not.toBe('ok');
-      expect(await badge.evaluate((e) => e.classList.contains('ok'))).toBe(false);
-      const status = await badge.getAttribute('data-status');
-      if (status !== 'converged') expect(await page.locator('#fit-regime').count()).toBe(0);
-      expect(await page.locator('#fit-status #fit-first-warning, #fit-status #fit-message').count()).toBeGreaterThan(0);
-    } else {
-      expect(await page.locator('#fit-status .error-text').innerText()).not.toBe('');
-    }
+    expect(await badge.getAttribute('data-status')).toBe('no-response');
+    expect(await badge.getAttribute('data-tone')).toBe('bad');
+    expect(await badge.evaluate((e) => e.classList.contains('bad') && !e.classList.contains('ok'))).toBe(true);
+    expect(await badge.innerText()).toBe('no second-order response found');
+    expect(await page.locator('#fit-regime').count()).toBe(0);
+    expect(await page.locator('#fit-results caption').innerText()).toContain('not a measurement');
     await page.locator('#fit-panel').screenshot({ path: join(outputDir, 'fit-panel-flat-noise.png') });
+  });
+
+  it('shows an RC step as first-order, with its time constant', async () => {
+    const file = join(folder, 'rc-step.csv');
+    writeFileSync(file, rcStepCapture());
+    await dropFile(page, file, 'rc-step.csv');
+    await waitForFit(page, 'rc-step.csv');
+    expect(await page.locator('#fit-regime').getAttribute('data-regime')).toBe('first-order');
+    const tau = page.locator('#fit-results tr[data-quantity="tau"]');
+    const value = Number(await tau.getAttribute('data-value'));
+    const stderr = Number(await tau.getAttribute('data-stderr'));
+    // Generated with tau = 10 µs.
+    expect(Math.abs(value - 10e-6)).toBeLessThan(3 * stderr);
+    await page.locator('#fit-panel').screenshot({ path: join(outputDir, 'fit-panel-first-order.png') });
   });
 
   it('shows a file refused for its time unit with the one-line reason, and reads it once the unit is chosen', async () => {

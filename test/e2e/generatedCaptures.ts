@@ -56,3 +56,17 @@ export function squareWaveCapture(seed = 5): string {
   for (let i = 0; i < samples; i++) lines.push(`${time[i].toExponential(6)},${(values[i] + 0.02 * random.normal()).toFixed(5)}`);
   return `${lines.join('\n')}\n`;
 }
+
+/** An RC charging step (tau 10 µs, 5 V) with seeded noise: a first-order response, no ring. */
+export function rcStepCapture(seed = 3): string {
+  const random = createRandom(seed);
+  const tau = 10e-6;
+  const sampleInterval = 100e-9;
+  const lines = ['Time (s),CH1 (V)'];
+  for (let i = 0; i < 1500; i++) {
+    const t = (i - 200) * sampleInterval;
+    const clean = t < 0 ? 0 : 5 * (1 - Math.exp(-t / tau));
+    lines.push(`${t.toExponential(6)},${(clean + 0.01 * random.normal()).toFixed(5)}`);
+  }
+  return `${lines.join('\n')}\n`;
+}

@@ -86,6 +86,12 @@ describe('buildLogRequest', () => {
     expect(() => buildLogRequest(fittedState(), form)).toThrow(message);
   });
 
+  it('refuses a fit that did not converge, as log add does', () => {
+    const state = fittedState();
+    state.summary = { ...state.summary!, status: 'max-iterations' };
+    expect(() => buildLogRequest(state, { unit: 'X', operator: '', note: '' })).toThrow(/did not converge \(max-iterations\)/);
+  });
+
   it('refuses when nothing is fitted', () => {
     expect(() => buildLogRequest(initialState('browser'), { unit: 'X', operator: '', note: '' })).toThrow(/no fitted measurement/);
   });
