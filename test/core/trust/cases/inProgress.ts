@@ -1,5 +1,6 @@
 // Trust table rows, case 4: a record caught with its response in progress (the event before the first sample),
-// at every eighth of a ring period of starting phase. See trustCase.ts.
+// at every eighth of a ring period of starting phase. See trustCase.ts; that t0 is then not reported as a
+// measured event is checked in test/core/fitResponseStart.test.ts.
 
 import { fitResponse } from '../../../../core/fit/fitResponse';
 import { outcomeOfFit, type TrustCase } from '../trustCase';

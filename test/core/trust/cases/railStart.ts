@@ -1,5 +1,6 @@
 // Trust table rows, case 7: a record whose level before the event sits at (or beyond) a converter rail, read
-// through an 8-bit converter: the samples there are censored, never a flat pre-event level. See trustCase.ts.
+// through an 8-bit converter: the samples there are censored, never a flat pre-event level. See trustCase.ts;
+// that the rail is never reported as the level before the event is checked in test/core/fitResponseStart.test.ts.
 
 import { fitResponse } from '../../../../core/fit/fitResponse';
 import { outcomeOfFit, type TrustCase } from '../trustCase';
