@@ -150,7 +150,8 @@ function extractionView(result: ParasiticsResult): (HTMLElement | null)[] {
         { class: 'small' },
         `C_s usually ${showValue(snubber.capacitanceRange.min, 'F')} to ${showValue(snubber.capacitanceRange.max, 'F')}. ` +
           (snubber.powerAt ? `Resistor dissipation about ${showValue(snubber.powerAt.power, 'W')} at ${showValue(snubber.powerAt.voltage, 'V')}, ${showValue(snubber.powerAt.frequency, 'Hz')}. ` : '') +
-          `Predicted: ζ from ${snubber.before.zeta.toFixed(3)} to ${snubber.predicted.zeta.toFixed(3)}, Q from ${snubber.before.Q.toFixed(1)} to ${snubber.predicted.Q.toFixed(1)}.`,
+          `Predicted: ζ from ${snubber.before.zeta.toFixed(3)} to ${snubber.predicted.zeta.toFixed(3)}, Q from ${snubber.before.Q.toFixed(1)} to ${snubber.predicted.Q.toFixed(1)}; ` +
+          `the node's step overshoot from ${(snubber.before.step.overshoot * 100).toFixed(1)} % to ${(snubber.predicted.step.overshoot * 100).toFixed(1)} % (the whole snubbed loop).`,
       ),
       h('ul', { class: 'notes' }, ...snubber.notes.map((n) => h('li', {}, n))),
       h('p', { class: 'deferral' }, 'A starting point, not a design: fit the parts, measure the ring again and check the resistor’s temperature at full load.'),
