@@ -16,6 +16,13 @@ export interface EventSpan {
   settledAtEnd: boolean;
 }
 
+/** The events found and the noise they were found against. */
+export interface EventTrain {
+  spans: EventSpan[];
+  /** Standard deviation of one sample's noise, band-limited noise read whole (see noiseModel). */
+  noise: number;
+}
+
 /** Smallest block whose variance is read: fewer samples make the variance too noisy to tell ring from noise. */
 const MIN_BLOCK = 8;
 /** Blocks of a quarter ring period: long enough to see a ring's swing, short enough to place its start. */
@@ -37,6 +44,8 @@ const MIN_EVENT_SHARE = 0.05;
 const END_MARGIN_BLOCKS = 1;
 /** The last blocks of a span that must be quiet for its ring to count as died away. */
 const SETTLED_BLOCKS = 2;
+/** An event's swing stands above the previous ring's in this many blocks of its first ring period (a lone spike's in one). */
+const MIN_ACTIVE_BLOCKS = 2;
 /** Fewest blocks over the record for the search to run at all. */
 const MIN_BLOCKS = 16;
 /** A move of the level must stand this many of its own noise levels clear (the noise of two period means). */
@@ -62,16 +71,16 @@ const QUIET_NOISE_CAP = 4;
  * the record's own noise, band-limited noise included. A record with no event, or too short to search,
  * gives an empty list.
  */
-export function findEventTrain(values: ArrayLike<number>): EventSpan[] {
+export function findEventTrain(values: ArrayLike<number>): EventTrain {
   const n = values.length;
   const { sigma: noise, independentShare } = noiseModel(values);
-  if (!(noise > 0)) return [];
+  if (!(noise > 0)) return { spans: [], noise };
   // Samples whose noise averages out like this many independent ones (fewer when the noise is band-limited).
   const independent = (count: number) => Math.max(2, (count * independentShare) / (2 - independentShare));
   const period = ringPeriodSamples(values, noise) ?? n * FALLBACK_PERIOD_SHARE;
   const block = Math.max(MIN_BLOCK, Math.round(period / BLOCKS_PER_PERIOD));
   const blocks = Math.floor(n / block);
-  if (blocks < MIN_BLOCKS) return [];
+  if (blocks < MIN_BLOCKS) return { spans: [], noise };
   const lookback = Math.max(1, Math.ceil(period / block));
   const { mean, activity } = blockStatistics(values, block, blocks, noise);
   const activeVariance = noise * noise * ACTIVE_SIGMAS * Math.sqrt(2 / (independent(block) - 1));
@@ -84,8 +93,18 @@ export function findEventTrain(values: ArrayLike<number>): EventSpan[] {
     for (let j = k; j < Math.min(blocks, k + lookback + 1); j++) if (activity[j] > activity[best]) best = j;
     return best;
   };
+  // A new ring stands above the one before for more than one block; a lone spike does not.
+  const lasts = (k: number, above: number) => {
+    let count = 0;
+    for (let j = k; j < Math.min(blocks, k + lookback + 1); j++) if (active(j) && activity[j] >= above) count++;
+    return count >= MIN_ACTIVE_BLOCKS;
+  };
   // How far the level moves from the ring period before block k to the one from it (0 where either is cut off).
   const shift = (k: number) => (k < lookback || k + lookback > blocks ? 0 : Math.abs(periodMean(mean, k, lookback) - periodMean(mean, k - lookback, lookback)));
+
+  // The move from the period before block k to the period after the next one: a new level stays, a spike's does not.
+  const settledShift = (k: number) =>
+    k < lookback || k + 2 * lookback > blocks ? 0 : Math.abs(periodMean(mean, k + lookback, lookback) - periodMean(mean, k - lookback, lookback));
 
   // cut: the first block that announces the event; onset: the block it starts in; first: the first block fitted.
   const onsets: { cut: number; onset: number; first: number; hasOnset: boolean }[] = [];
@@ -93,7 +112,7 @@ export function findEventTrain(values: ArrayLike<number>): EventSpan[] {
   // The level test compares whole periods after the last onset only (an event's own rise moves the level).
   let levelFrom = 0;
   if (active(0)) {
-    if (activity[peakFrom(0)] < eventFloor) return [];
+    if (activity[peakFrom(0)] < eventFloor) return { spans: [], noise };
     onsets.push({ cut: 0, onset: 0, first: 1, hasOnset: false });
     k = peakFrom(0) + 1;
     levelFrom = 2 * lookback + 1;
@@ -103,7 +122,7 @@ export function findEventTrain(values: ArrayLike<number>): EventSpan[] {
     let before = 0;
     for (let j = Math.max(0, k - lookback); j < k; j++) before = Math.max(before, activity[j]);
     const peak = peakFrom(k);
-    if (activity[peak] >= Math.max(JUMP_RATIO * before, eventFloor)) {
+    if (activity[peak] >= Math.max(JUMP_RATIO * before, eventFloor) && lasts(k, JUMP_RATIO * before)) {
       let onset = k;
       while (!(active(onset) && activity[onset] >= JUMP_RATIO * before)) onset++;
       onsets.push({ cut: k, onset, first: onset + 1, hasOnset: true });
@@ -113,7 +132,8 @@ export function findEventTrain(values: ArrayLike<number>): EventSpan[] {
     }
     if (k < levelFrom) continue;
     // An edge of a square wave in step with the ring before it may not lift the swing, but it moves the level.
-    if (shift(k) < Math.max(JUMP_RATIO * before, JUMP_RATIO * shift(k - lookback), eventFloor, shiftFloor)) continue;
+    const needed = Math.max(JUMP_RATIO * before, JUMP_RATIO * shift(k - lookback), eventFloor, shiftFloor);
+    if (shift(k) < needed || !(settledShift(k) >= needed)) continue;
     let edge = k;
     for (let j = k; j <= Math.min(k + lookback, blocks - lookback); j++) if (shift(j) > shift(edge)) edge = j;
     // The largest move falls within a block of the edge: one block more keeps the fit clear of it.
@@ -122,7 +142,7 @@ export function findEventTrain(values: ArrayLike<number>): EventSpan[] {
     k = edge + lookback - 1;
   }
 
-  return onsets.map((o, i) => {
+  const spans = onsets.map((o, i) => {
     const next = onsets[i + 1];
     // The next event may begin up to a block before its cut (a smooth start clears the noise late).
     const endBlock = next ? Math.max(o.first, next.cut - END_MARGIN_BLOCKS) : blocks;
@@ -136,6 +156,7 @@ export function findEventTrain(values: ArrayLike<number>): EventSpan[] {
       settledAtEnd: quietEnd,
     };
   });
+  return { spans, noise };
 }
 
 /** Per block, its mean and the rms swing of its samples about that mean beyond the noise: sqrt(max(0, variance - noise^2)). */

@@ -47,7 +47,7 @@ const MISFIT_RESIDUAL = 3;
 export function fitEvents(request: EventsRequest): { fit: ResponseFit; summary: FitSummary } {
   const { channel, file } = request;
   const trace = { time: channel.time, values: channel.values, clipped: channel.clipped, unit: channel.unit, name: channel.name };
-  const { first, spans } = eventsOf(channel, request.window ?? {});
+  const { first, spans, noise } = eventsOf(channel, request.window ?? {});
   const count = Math.max(1, spans.length);
   if (request.event !== undefined && request.event > count) {
     throw new UsageError(`--event ${request.event}: the record holds ${count} event${count === 1 ? '' : 's'}`);
@@ -59,7 +59,7 @@ export function fitEvents(request: EventsRequest): { fit: ResponseFit; summary: 
     return { fit: whole, summary };
   }
 
-  const fits = spans.map((span, i) => (i < MAX_FITTED_EVENTS || i + 1 === request.event ? fitSpan(trace, channel.time, first, span) : UNFITTED));
+  const fits = spans.map((span, i) => (i < MAX_FITTED_EVENTS || i + 1 === request.event ? fitSpan(trace, channel.time, first, span, noise) : UNFITTED));
   const list = spans.map((span, i) => entryOf(i + 1, span, fits[i], channel.time, first));
   const chosen = request.event ?? defaultEvent(list);
   const fit = fits[chosen - 1];
@@ -72,24 +72,25 @@ export function fitEvents(request: EventsRequest): { fit: ResponseFit; summary: 
 }
 
 /** The events inside the window, in sample indices counted from `first`, the window's first sample. */
-function eventsOf(channel: Channel, window: { start?: number; end?: number }): { first: number; spans: EventSpan[] } {
+function eventsOf(channel: Channel, window: { start?: number; end?: number }): { first: number; spans: EventSpan[]; noise: number } {
   const { time, values } = channel;
   let first = 0;
   while (first < time.length && time[first] < (window.start ?? -Infinity)) first++;
   let last = first;
   while (last < time.length && time[last] <= (window.end ?? Infinity)) last++;
-  return { first, spans: findEventTrain(values.subarray(first, last)) };
+  return { first, ...findEventTrain(values.subarray(first, last)) };
 }
 
 /**
- * The fit of one event's natural response, or why there is none (its window holds too few samples). A fit that leaves
- * a residual of several noise levels has not found one ring (an event the search missed shares its window):
- * it is no answer.
+ * The fit of one event's natural response, or why there is none (its window holds too few samples). A fit
+ * leaving a residual of several times the record's noise (as the event search read it: a fit's own noise
+ * estimate takes part of a ring for noise) has not found one ring, an event the search missed sharing its
+ * window: it is no answer.
  */
-function fitSpan(trace: Parameters<typeof fitResponse>[0], time: Float64Array, first: number, span: EventSpan): ResponseFit | string {
+function fitSpan(trace: Parameters<typeof fitResponse>[0], time: Float64Array, first: number, span: EventSpan, noise: number): ResponseFit | string {
   try {
     const fit = fitResponse(trace, { window: { start: time[first + span.start], end: time[first + span.end - 1] } });
-    const excess = fit.rmsResidual / fit.noiseRms;
+    const excess = fit.rmsResidual / noise;
     if (fit.status !== 'converged' || !(excess > MISFIT_RESIDUAL)) return fit;
     return { ...fit, status: 'failed', message: `the residual is ${excess.toFixed(1)} times the noise: the window holds more than this event's ring` };
   } catch (error) {
