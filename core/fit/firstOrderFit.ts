@@ -5,7 +5,7 @@ import { solveAmplitudes, Workspace } from './amplitudes';
 import { firstOrderLayoutFor, LAYOUTS, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
 import { attemptT0, attemptValue, type Attempt } from './attempt';
-import { jumpOf, scanEventTime, showsJump } from './jumpStart';
+import { beatsContinuous, jumpOf, scanEventTime, showsJump } from './jumpStart';
 
 /** A first-order attempt and the event time a layout that holds t0 is held at. */
 export interface FirstOrderFit {
@@ -29,22 +29,28 @@ export function fitFirstOrderRecord(set: FitSet, record: { hasPreEvent: boolean;
   const first = fitFirstOrder(set, record.jumpStart ? 'first-order-jump' : 'first-order', t0Start);
   if (!first) return null;
   const rate = attemptValue(first, 'alpha');
-  const { t0 } = scanEventTime(set, 'first-order-jump', { alpha: rate, omega0: rate }, t0Start, attemptT0(first, t0Start));
+  // A jump is where the event was detected; a continuous fit's t0 can wander off it.
+  const scan = scanEventTime(set, 'first-order-jump', { alpha: rate, omega0: rate }, t0Start, record.jumpStart ? attemptT0(first, t0Start) : t0Start);
+  if (!record.jumpStart && !beatsContinuous(first, scan.sse, first.values.length + 1, set, scan.t0)) return { attempt: first, t0: t0Start };
+  const { t0 } = scan;
   const jumping = fitFirstOrder(set, 'first-order-jump', t0);
   if (record.jumpStart) return jumping && jumping.sse < first.sse ? { attempt: jumping, t0 } : { attempt: first, t0: t0Start };
   if (jumping && showsJump(first, { attempt: jumping, t0, jump: jumpOf(jumping, t0) }, set, noise)) return { attempt: jumping, t0 };
   return { attempt: first, t0: t0Start };
 }
 
-/** One nonlinear parameter and t0 converge in a few dozen steps from a start within a factor of 2. */
-const MAX_ITERATIONS = 100;
+/**
+ * From a start within a factor of 1.4 (the ladder below), the rate and t0 converge in under ten steps; a
+ * record a single decay does not describe crawls, and its fit is only there to lose the comparison.
+ */
+const MAX_ITERATIONS = 30;
 /** Starting rates step by this factor, from 1 / (4 spans) of the record... */
 const RATE_STEP = 2;
 const SLOWEST_START_SPANS = 4;
 /** ...up to one time constant per this many sample intervals (a faster decay is a jump, not a response). */
 const FASTEST_START_SAMPLES = 2;
-/** Starts refined, best ranked first: the residual over the rate has one valley, so two are enough. */
-const STARTS_REFINED = 2;
+/** Starts refined, best ranked first: the residual over the rate has one valley. */
+const STARTS_REFINED = 1;
 /** Lower bound of the scaled rate: keeps it positive. */
 const MIN_SCALED_RATE = 1e-9;
 /** How many recent parameter vectors' models are kept (the solver revisits the last few). */

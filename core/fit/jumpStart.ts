@@ -102,7 +102,7 @@ export function jumpOf(attempt: Attempt, t0: number): number {
 }
 
 /** Whether a free-start residual with that many parameters beats the continuous fit on the information criterion. */
-function beatsContinuous(continuous: Attempt, sse: number, parameters: number, set: FitSet, t0: number): boolean {
+export function beatsContinuous(continuous: Attempt, sse: number, parameters: number, set: FitSet, t0: number): boolean {
   const n = effectiveSamples([continuous], set, t0);
   return information(sse, parameters, n) < information(continuous.sse, continuous.values.length, n);
 }

@@ -9,7 +9,7 @@ import { probeUnit } from '../circuit/predict';
 import { hertz } from '../report/resultRows';
 import { summarizeTransitions } from '../circuit/transitionSummary';
 import { checkDesign, type Verdict } from '../circuit/verdict';
-import { fitResponse, type ResponseFit } from '../fit/fitResponse';
+import { fitResponse, type ResponseFit, type ResponseFitOptions } from '../fit/fitResponse';
 import { InputError, UsageError } from '../inputError';
 import { fitSucceeded, summarizeFit, type FitSummary } from '../report/fitSummary';
 import { cautionInputsFromCapture, type CautionComponents } from '../safety/cautionInputs';
@@ -39,6 +39,8 @@ export interface MeasureRequest {
   eventTime?: number;
   /** Which event of a record holding several to measure, 1-based (see fitEvents). Default: the first complete one. */
   event?: number;
+  /** Whether the measured quantity may jump at the event (see ResponseFitOptions). Default: found from the data. */
+  continuity?: ResponseFitOptions['continuity'];
 }
 
 export interface MeasureResult {

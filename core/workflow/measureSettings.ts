@@ -30,6 +30,8 @@ export interface MeasureSettings {
   segment?: string;
   /** Which event to measure in a record holding several, 1-based, e.g. '2'. Default: the first complete one. */
   event?: string;
+  /** The measured quantity jumps at the event (a capacitor's current, an inductor's voltage). Default: found from the data. */
+  jumpStart?: boolean;
 }
 
 export interface ParsedMeasureSettings {
@@ -43,6 +45,8 @@ export interface ParsedMeasureSettings {
   window: FitWindow;
   knownPart?: KnownPartRequest;
   event?: number;
+  /** 'free' when the start is stated to jump; absent to let the fit find out. */
+  continuity?: 'free';
 }
 
 export function parseMeasureSettings(settings: MeasureSettings): ParsedMeasureSettings {
@@ -62,6 +66,7 @@ export function parseMeasureSettings(settings: MeasureSettings): ParsedMeasureSe
   if (settings.valueUnit !== undefined) parsed.valueUnit = parseStatedUnit(settings.valueUnit, false, '--value-unit');
   if (settings.segment !== undefined) parsed.segment = parseSegmentNumber(settings.segment);
   if (settings.event !== undefined) parsed.event = parseEventNumber(settings.event);
+  if (settings.jumpStart) parsed.continuity = 'free';
   if (settings.topology !== undefined && settings.known !== undefined) {
     parsed.knownPart = { topology: parseTopology(settings.topology), known: parseKnown(settings.known) };
   }

@@ -52,6 +52,7 @@ export function measureFile(file: string, settings: MeasureSettings, cwd: string
     knownPart: parsed.knownPart,
     design: design?.design,
     event: parsed.event,
+    continuity: parsed.continuity,
   });
   // On the command line a known part or design that cannot be used for this capture is bad input (exit 2).
   const problem = result.problems.components ?? result.problems.verdict;
@@ -64,7 +65,7 @@ export function compareFiles(before: string, after: string, settings: MeasureSet
   const parsed = parseMeasureSettings(settings);
   const side = (file: string) => {
     const capture = loadCaptureFor(file, settings, cwd);
-    return { file: basename(file), channel: capture.channel, captureWarnings: capture.capture.warnings, window: parsed.window, event: parsed.event };
+    return { file: basename(file), channel: capture.channel, captureWarnings: capture.capture.warnings, window: parsed.window, event: parsed.event, continuity: parsed.continuity };
   };
   return compareCaptures({ before: side(before), after: side(after), knownPart: parsed.knownPart });
 }

@@ -9,7 +9,7 @@ export interface MeasureCommandOptions extends MeasureSettings {
   json?: boolean;
 }
 
-/** --column, --sample-interval, --time-unit, --value-unit, --from, --to, --sort-time, --event, --segment. */
+/** --column, --sample-interval, --time-unit, --value-unit, --from, --to, --sort-time, --event, --segment, --jump-start. */
 export function addCaptureOptions(command: Command): Command {
   return command
     .option('--column <name|index>', 'channel to fit: its name or 0-based index (default: the first)')
@@ -20,7 +20,8 @@ export function addCaptureOptions(command: Command): Command {
     .option('--to <time>', 'end of the fit window (default: found from the data)')
     .option('--sort-time', 'sort out-of-order time stamps instead of failing')
     .option('--segment <n>', 'in a file of repeated acquisitions (segments), read segment n (1 = the first, the default)')
-    .option('--event <n>', 'in a record holding several events, measure event n (1 = the first; default: the first complete one)');
+    .option('--event <n>', 'in a record holding several events, measure event n (1 = the first; default: the first complete one)')
+    .option('--jump-start', 'the measured quantity jumps at the event (a capacitor current, an inductor voltage): fit its initial value freely (default: found from the data)');
 }
 
 /** --topology and --known: derive R, L and C from the fit. */
@@ -35,6 +36,6 @@ export function addComponentOptions(command: Command): Command {
 
 /** The measuring settings alone, without --json and command-specific options. */
 export function measureSettingsOf(options: MeasureCommandOptions): MeasureSettings {
-  const { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime, event, segment } = options;
-  return { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime, event, segment };
+  const { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime, event, segment, jumpStart } = options;
+  return { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime, event, segment, jumpStart };
 }
