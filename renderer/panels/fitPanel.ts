@@ -60,7 +60,8 @@ export function createFitPanel(actions: BenchActions) {
     const { fit, summary, fitError } = state;
     root.dataset.fitCount = String(state.fitCount);
     if (!fit || !summary) {
-      replaceChildren(status, fitError ? h('p', { class: 'error-text' }, fitError) : h('p', { class: 'muted' }, state.capture ? 'Fitting…' : 'Open a capture to fit it.'));
+      const idle = state.refused ? `${state.refused.opened.name} was not read: state its ${state.refused.refusal.unit} unit in the capture panel.` : 'Open a capture to fit it.';
+      replaceChildren(status, fitError ? h('p', { class: 'error-text' }, fitError) : h('p', { class: 'muted' }, state.capture ? 'Fitting…' : idle));
       table.replaceChildren();
       eventList.replaceChildren();
       steps.replaceChildren();

@@ -75,6 +75,7 @@ describe.skipIf(!hasChromium)('the fit badge, the unit choices and the events in
     expect(await refusal.getAttribute('data-unit')).toBe('time');
     expect(await refusal.innerText()).toContain("unit 'MS' is ambiguous");
     expect(await page.locator('#fit-state').count()).toBe(0);
+    expect(await page.locator('#fit-status').innerText()).toBe('ms.csv was not read: state its time unit in the capture panel.');
     await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-unit-refused.png') });
     await page.locator('#time-unit').selectOption('ms');
     await waitForFit(page, 'ms.csv');
