@@ -2,7 +2,7 @@
 
 import { describeFailure } from '../../core/inputError';
 
-/** Exit codes of every command. */
+/** Exit codes of every command; `failure` is also a fit that did not converge (fitSucceeded, core/report/fitSummary.ts). */
 export const EXIT = { ok: 0, failure: 1, badInput: 2, outOfTolerance: 3 } as const;
 
 /** Bad input (any InputError) exits 2; anything else is a failure of ours. */
