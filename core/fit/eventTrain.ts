@@ -111,8 +111,7 @@ export function findEventTrain(values: ArrayLike<number>): EventTrain {
   let k = 0;
   // The level test compares whole periods after the last onset only (an event's own rise moves the level).
   let levelFrom = 0;
-  if (active(0)) {
-    if (activity[peakFrom(0)] < eventFloor) return { spans: [], noise };
+  if (active(0) && activity[peakFrom(0)] >= eventFloor) {
     onsets.push({ cut: 0, onset: 0, first: 1, hasOnset: false });
     k = peakFrom(0) + 1;
     levelFrom = 2 * lookback + 1;

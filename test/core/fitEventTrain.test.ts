@@ -51,6 +51,13 @@ describe('findEventTrain', () => {
     expect(spans[0].start).toBeGreaterThan(0);
   });
 
+  it('still finds the events after a record start inside the faint tail of an earlier ring', () => {
+    const { channel } = train('kicks', 3, 800, 3000);
+    // At sample 500 the first ring is down to e^-2.5, 8 % of its start.
+    const spans = findEventTrain(channel.values.subarray(500)).spans;
+    expect(spans.filter((s) => s.hasOnset).map((s) => Math.round(s.onset / 100))).toEqual([4, 12]);
+  });
+
   it('finds no second event in single responses of any damping and noise', () => {
     const random = createRandom(8);
     for (let i = 0; i < 24; i++) {

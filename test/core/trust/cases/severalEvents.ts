@@ -64,6 +64,8 @@ interface TrainRow {
   tailTaus: number;
   /** Noise standard deviation as a share of the amplitude. */
   noiseShare: number;
+  /** The record starts half a spacing after the first event, inside its ring. */
+  startsInside?: boolean;
   /** 'right' where every event stands apart; 'right-or-failed' where the events crowd each other. */
   expect: TrustCase['expect'];
 }
@@ -75,6 +77,7 @@ const ROWS: TrainRow[] = [
   { name: 'pulse train, 2 kicks, 46 dB', seed: 804, zeta: 0.02, drive: 'kicks', count: 2, spacingTaus: 5, tailTaus: 5, noiseShare: 0.005, expect: 'right' },
   { name: 'pulse train, 3 kicks, the last cut off after half a tau, 20 dB', seed: 805, zeta: 0.03, drive: 'kicks', count: 3, spacingTaus: 4, tailTaus: 0.5, noiseShare: 0.1, expect: 'right' },
   { name: 'square wave, 6 edges crowding each other 1.3 tau apart', seed: 806, zeta: 0.05, drive: 'square', count: 6, spacingTaus: 1.3, tailTaus: 6, noiseShare: 0.01, expect: 'right-or-failed' },
+  { name: 'pulse train caught inside a ring, then 3 more kicks 4 tau apart, 34 dB', seed: 807, zeta: 0.04, drive: 'kicks', count: 4, spacingTaus: 4, tailTaus: 5, noiseShare: 0.02, startsInside: true, expect: 'right' },
 ];
 
 /** The record of a row, with its truth. */
@@ -82,7 +85,7 @@ export function trainOf(row: TrainRow): { channel: Channel; alpha: number; omega
   const omega0 = 2 * Math.PI * F0;
   const alpha = row.zeta * omega0;
   const dt = 1 / (F0 * SAMPLES_PER_PERIOD);
-  const lead = 2 / F0;
+  const lead = row.startsInside ? -row.spacingTaus / (2 * alpha) : 2 / F0;
   const events = Array.from({ length: row.count }, (_, k) => lead + (k * row.spacingTaus) / alpha);
   const samples = Math.round((events[events.length - 1] + row.tailTaus / alpha) / dt);
   const spec = { seed: row.seed, alpha, omega0, dt, samples, events, drive: row.drive, amplitude: 1, noise: row.noiseShare };
