@@ -38,6 +38,17 @@ export function effectiveSamples(attempts: Attempt[], set: FitSet, t0Start: numb
  * this (the F-test's level, after the search correction below).
  */
 const SIGNIFICANCE_LEVEL = 1e-3;
+/** Most parameters of a response layout (a ring with a level before it, a jump and t0). */
+const RING_PARAMETERS_MAX = 6;
+/**
+ * Fewest independent residuals the tests count beyond the parameters. The count comes from the residuals'
+ * lag-1 correlation (an order-one autoregression), which reads a record's slow wander under one converter
+ * code, or a model's small smooth miss on a measured circuit, as a correlation near 1: a few "independent"
+ * samples, no degrees of freedom left, and a 100-fold drop in residual judged no better than chance.
+ * A floor of 10 keeps the test meaningful there (the F tail at 10 denominator degrees of freedom is still
+ * heavy: a drop needs F over about 12 at 1e-3); a judgment of ours, not from a source.
+ */
+const MIN_RESIDUAL_DOF = 10;
 
 /** What explains a record: the ring, a single decay, or nothing but a constant level. */
 export interface Explanation {
@@ -60,7 +71,8 @@ export function explainRecord(ring: Attempt, t0Start: number, decay: { attempt: 
   const n = set.time.length;
   const firstOrder = decay && Number.isFinite(decay.attempt.sse) ? decay.attempt : null;
   const closer = firstOrder && decay && firstOrder.sse < ring.sse ? decay : { attempt: ring, t0: t0Start };
-  const nEff = effectiveSamples([closer.attempt], set, closer.t0);
+  // Never fewer independent samples than the richest model's parameters and MIN_RESIDUAL_DOF: see that constant.
+  const nEff = Math.max(effectiveSamples([closer.attempt], set, closer.t0), RING_PARAMETERS_MAX + MIN_RESIDUAL_DOF);
   const constantSse = sumOfSquaresAboutMean(set.values);
   const test = (simpleSse: number, simpleParameters: number, rich: Attempt, searched: number) => {
     const fits = { simpleSse, simpleParameters, richSse: rich.sse, richParameters: rich.values.length, effectiveSamples: nEff };
