@@ -9,6 +9,7 @@ import type {
   MenuCommand,
   NamedText,
   OpenedCapture,
+  OpenedCaptureFile,
   OpenedSample,
   ReportFormat,
   SampleEntry,
@@ -36,12 +37,12 @@ export interface PreloadApi {
   readBenchLog(): Promise<ApiResult<BenchLogView>>;
   appendBenchLog(request: BenchLogRequest): Promise<ApiResult<BenchLogView>>;
   renderReport(format: ReportFormat): Promise<ApiResult<NamedText>>;
-  openCaptureDialog(): Promise<ApiResult<OpenedCapture | null>>;
+  openCaptureDialog(): Promise<ApiResult<OpenedCaptureFile | null>>;
   openDesignDialog(): Promise<ApiResult<NamedText | null>>;
   saveFileDialog(request: SaveRequest): Promise<ApiResult<string | null>>;
-  openDroppedFile(file: File): Promise<ApiResult<OpenedCapture>>;
+  openDroppedFile(file: File): Promise<ApiResult<OpenedCaptureFile>>;
   onMenuCommand(listener: (command: MenuCommand) => void): void;
-  onCaptureOpened(listener: (capture: OpenedCapture) => void): void;
+  onCaptureOpened(listener: (capture: OpenedCaptureFile) => void): void;
 }
 
 /** Everything the window needs from outside the page, the same on both faces. */
@@ -55,5 +56,5 @@ export interface Bridge extends BenchCalls {
   /** Save through a dialog (window) or as a download (browser); the path when known. */
   saveFile(request: SaveRequest, mime: string): Promise<string | null>;
   onMenuCommand(listener: (command: MenuCommand) => void): void;
-  onCaptureOpened(listener: (capture: OpenedCapture) => void): void;
+  onCaptureOpened(listener: (capture: OpenedFile) => void): void;
 }

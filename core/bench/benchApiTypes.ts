@@ -43,6 +43,14 @@ export interface OpenedCapture extends NamedText {
   sampleId: string | null;
 }
 
+/** A capture file the window read from disk: its bytes as written, so the importer finds the encoding (UTF-16, Windows-1252). */
+export interface OpenedCaptureFile {
+  name: string;
+  path: string;
+  sampleId: null;
+  bytes: Uint8Array;
+}
+
 export interface OpenedSample extends OpenedCapture {
   sample: SampleEntry;
   design: NamedText | null;

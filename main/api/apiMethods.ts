@@ -1,12 +1,12 @@
 // Every call of the bench API by name: the shared calls of core/bench and the window-only shell calls.
 
-import { BENCH_METHODS, type BenchApi, type NamedText, type OpenedCapture, type SaveRequest } from '../../core/bench/benchApiTypes';
+import { BENCH_METHODS, type BenchApi, type NamedText, type OpenedCaptureFile, type SaveRequest } from '../../core/bench/benchApiTypes';
 
 /** The window only: native dialogs, and paths the user granted through them or by dropping a file. */
 export interface ShellApi {
-  openCaptureDialog(): Promise<OpenedCapture | null>;
+  openCaptureDialog(): Promise<OpenedCaptureFile | null>;
   /** The path of a dropped file, found by the preload from the File itself. */
-  openDroppedPath(path: string): Promise<OpenedCapture>;
+  openDroppedPath(path: string): Promise<OpenedCaptureFile>;
   openDesignDialog(): Promise<NamedText | null>;
   saveFileDialog(request: SaveRequest): Promise<string | null>;
 }

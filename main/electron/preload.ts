@@ -1,7 +1,7 @@
 // The preload: the bench API exposed to the page as window.ringbench, built from the one channel list.
 
 import { contextBridge, ipcRenderer, webUtils } from 'electron';
-import { MENU_COMMANDS, type MenuCommand, type OpenedCapture } from '../../core/bench/benchApiTypes';
+import { MENU_COMMANDS, type MenuCommand, type OpenedCaptureFile } from '../../core/bench/benchApiTypes';
 import type { ApiMethod } from '../api/apiMethods';
 import { CHANNELS, EVENTS, EXPOSED_NAME, type ExposedApi } from './channels';
 
@@ -30,7 +30,7 @@ export function buildExposedApi(): ExposedApi {
       });
     },
     onCaptureOpened: (listener) => {
-      ipcRenderer.on(EVENTS.captureOpened, (_event, capture: OpenedCapture) => listener(capture));
+      ipcRenderer.on(EVENTS.captureOpened, (_event, capture: OpenedCaptureFile) => listener(capture));
     },
   };
 }

@@ -3,7 +3,7 @@
 import { dialog, type BrowserWindow } from 'electron';
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { OpenedCapture } from '../../core/bench/benchApiTypes';
+import type { OpenedCaptureFile } from '../../core/bench/benchApiTypes';
 import type { ShellApi } from '../api/apiMethods';
 import type { GrantedPaths } from './grantedPaths';
 import { readCaptureFile, readDesignText } from './captureReader';
@@ -24,7 +24,7 @@ const CAPTURE_FILTERS = [
 ];
 
 export function createShellHandlers(context: ShellContext): ShellApi {
-  const openGranted = (path: string): OpenedCapture => {
+  const openGranted = (path: string): OpenedCaptureFile => {
     if (!context.granted.isGranted(path)) throw new BenchApiError('the window may open only files chosen in a dialog or dropped on it');
     const opened = readCaptureFile(path);
     context.onCaptureOpened(path);
