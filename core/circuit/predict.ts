@@ -33,6 +33,20 @@ export function responseForValues(design: Design, values: Values, t0 = 0): Respo
   return { t0, yPre: y0, yFinal, alpha, omega0, a, b };
 }
 
+/**
+ * The design's two decay rates (s^-1, positive) when it is overdamped: alpha -+ sqrt(alpha^2 - omega0^2),
+ * the slow one as omega0^2 / fast (their product), free of the cancellation of the difference at large
+ * damping. Null when the design rings or is critically damped (no two real roots apart).
+ */
+export function decayRates(design: Design, values: Values = nominalValues(design)): { slow: number; fast: number } | null {
+  const relations = responseRelations(design.topology);
+  const alpha = evaluatePowerLaw(relations.alpha, values);
+  const omega0 = evaluatePowerLaw(relations.omega0, values);
+  if (!(alpha > omega0)) return null;
+  const fast = alpha + Math.sqrt(alpha * alpha - omega0 * omega0);
+  return { slow: (omega0 * omega0) / fast, fast };
+}
+
 /** The levels a design states for its probe: before the event, at the end, and the size of the response between. */
 export interface DesignLevels {
   preLevel: number;

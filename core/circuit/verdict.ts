@@ -1,11 +1,12 @@
-// A built board against its design: each response quantity and level in or out of tolerance, the
-// waveform difference, and the single change (a component, or the source's step) that best explains it.
+// A built board against its design: each response quantity and level in or out of tolerance (a single
+// decay's tau against the slow time constant of a design it dominates), the waveform difference, and the
+// single change (a component, or the source's step) that best explains it.
 import { quantity, type Quantity } from '../quantity';
 import { evaluateResponse, type ResponseParams } from '../response/secondOrder';
 import { componentsFromResponse } from './components';
 import type { Design, DesignSource } from './design';
 import { CircuitInputError } from './errors';
-import { designLevels, predictResponse, probeUnit, responseSwing, type DesignLevels } from './predict';
+import { decayRates, designLevels, predictResponse, probeUnit, responseSwing, type DesignLevels } from './predict';
 import {
   COMPONENT_NAMES,
   COMPONENT_UNITS,
@@ -18,6 +19,7 @@ import {
 } from './relations';
 import { toleranceToRelativeUncertainty } from './tolerance';
 import { alphaOmega0Correlation } from '../fit/correlation';
+import { formatEngineering, formatWithUncertainty } from '../units/format';
 
 /** The parts of a response fit the verdict reads (a ResponseFit has them all). */
 export interface FittedResponse {
@@ -25,6 +27,11 @@ export interface FittedResponse {
   omega0: Quantity;
   zeta: Quantity;
   Q: Quantity;
+  /**
+   * Time constant of a single decay (a first-order fit), s; its alpha, omega0, zeta and Q are then NaN. It
+   * is checked against the design's slow time constant when that root dominates (singleDecayRefusal).
+   */
+  tau?: Quantity;
   /** Event time; the prediction is placed there. Default 0. */
   t0?: Quantity;
   /** Fit window; the RMS difference is taken over it. Default: the whole record. */
@@ -88,6 +95,11 @@ const DEFAULT_MARGIN = 2;
 const DEFAULT_LEVEL_TOLERANCE = 0.1;
 /** A single change explaining less than this share of the deviation is reported with a note saying so. */
 const EXPLAINS_WELL = 0.8;
+/**
+ * A design's slow root dominates its response when the fast root is at least this many times faster: the
+ * dominant-pole approximation (common practice, a factor of 5 to 10). It holds from zeta 1.34 on.
+ */
+const SLOW_ROOT_DOMINANCE = 5;
 /** Preference among equal tolerances when choosing the known component: capacitors are usually the best known. */
 const KNOWN_PREFERENCE: ComponentName[] = ['C', 'L', 'R'];
 
@@ -113,6 +125,8 @@ export function checkDesign(
   if (measured.time.length !== measured.values.length) {
     throw new CircuitInputError('measured.values', `length ${measured.values.length} differs from the time axis (${measured.time.length})`);
   }
+  const refusal = singleDecayRefusal(design, fit);
+  if (refusal) throw new CircuitInputError('fit', refusal);
   const notes: string[] = [
     `In tolerance: within ${limit} sigma of the design, the design uncertainty from the tolerances as rectangular half-widths (GUM 4.3.7).`,
   ];
@@ -122,20 +136,27 @@ export function checkDesign(
   for (const name of COMPONENT_NAMES) relU[name] = toleranceToRelativeUncertainty(design.components[name].tolerance);
 
   const quantities: VerdictQuantity[] = [];
-  for (const name of ['alpha', 'omega0', 'zeta', 'Q'] as ResponseQuantityName[]) {
-    const v = evaluatePowerLaw(relations[name], values);
-    const designQ = quantity(v, Math.abs(v) * powerLawRelativeUncertainty(relations[name], relU), RESPONSE_UNITS[name]);
-    quantities.push(compare(name, designQ, fit[name], limit));
+  if (fit.tau) {
+    quantities.push(compare('tau', slowTimeConstant(design), fit.tau, limit));
+    notes.push(
+      "A single decay: tau is checked against the design's slow time constant, and the levels; one time constant cannot tell which part moved, so no R, L, C or component cause is derived.",
+    );
+  } else {
+    for (const name of ['alpha', 'omega0', 'zeta', 'Q'] as ResponseQuantityName[]) {
+      const v = evaluatePowerLaw(relations[name], values);
+      const designQ = quantity(v, Math.abs(v) * powerLawRelativeUncertainty(relations[name], relU), RESPONSE_UNITS[name]);
+      quantities.push(compare(name, designQ, fit[name], limit));
+    }
   }
-  if (fit.alpha.stderr === null || fit.omega0.stderr === null) notes.push('Some fitted uncertainties are unknown: the margins use the design tolerance alone.');
+  if ((fit.tau ? [fit.tau] : [fit.alpha, fit.omega0]).some((q) => q.stderr === null)) notes.push('Some fitted uncertainties are unknown: the margins use the design tolerance alone.');
 
-  const physical = fit.alpha.value > 0 && fit.omega0.value > 0;
+  const physical = !fit.tau && fit.alpha.value > 0 && fit.omega0.value > 0;
   const sensitivities = {
     alpha: { ...relations.alpha.exponents },
     omega0: { ...relations.omega0.exponents },
   };
   const componentCause = physical ? explainDeviation(quantities[0], quantities[1], sensitivities, values) : null;
-  const rateOut = quantities.slice(0, 2).some((q) => !q.inTolerance);
+  const rateOut = !fit.tau && quantities.slice(0, 2).some((q) => !q.inTolerance);
   const known =
     options.knownComponent === undefined ? tightestComponent(design, rateOut ? componentCause?.component : undefined) : options.knownComponent;
   if (known !== null && physical) {
@@ -147,7 +168,7 @@ export function checkDesign(
     }
     notes.push(`R, L, C from the fit take ${known} at its design value (${known} has the tightest tolerance unless chosen).`);
   }
-  if (!physical) notes.push('The fitted alpha or omega0 is not positive: no components or likely cause can be derived.');
+  if (!physical && !fit.tau) notes.push('The fitted alpha or omega0 is not positive: no components or likely cause can be derived.');
   const shapeOut = quantities.some((q) => !q.inTolerance);
   if (shapeOut && componentCause) {
     if (componentCause.explains < EXPLAINS_WELL) notes.push('No single component explains the deviation well: more than one part may have moved, or the topology differs.');
@@ -198,6 +219,46 @@ export function checkDesign(
   };
 }
 
+/**
+ * Why a fit cannot be checked against a design quantity by quantity, or null when it can: a single decay
+ * (a first-order fit) compares only with a design whose slow root dominates its response; a design that
+ * rings, or whose two decays are close, predicts a response a single decay does not measure.
+ */
+export function singleDecayRefusal(design: Design, fit: Pick<FittedResponse, 'tau'>): string | null {
+  if (!fit.tau) return null;
+  const rates = decayRates(design);
+  if (rates && rates.fast >= SLOW_ROOT_DOMINANCE * rates.slow) return null;
+  const relations = responseRelations(design.topology);
+  const values = { R: design.components.R.value, L: design.components.L.value, C: design.components.C.value };
+  const omega0 = evaluatePowerLaw(relations.omega0, values);
+  const zeta = (evaluatePowerLaw(relations.alpha, values) / omega0).toPrecision(3);
+  const predicted = rates
+    ? `two decays (zeta ${zeta}) within a factor of ${SLOW_ROOT_DOMINANCE} of each other, neither dominant`
+    : `a ring (f0 ${formatEngineering(omega0 / (2 * Math.PI), 'Hz')}, zeta ${zeta})`;
+  return (
+    `the fit found a single decay (first-order, tau ${formatWithUncertainty(fit.tau)}) where '${design.name}' predicts ${predicted}: ` +
+    'not comparable quantity by quantity, so nothing was checked (a ring the capture missed: sample rate, bandwidth, probe point; or far more damping than designed)'
+  );
+}
+
+/** Relative step of a part for the slow time constant's sensitivity to it: small beside the way from zeta 1.34 (SLOW_ROOT_DOMINANCE) to critical damping. */
+const SENSITIVITY_STEP = 1e-6;
+
+/**
+ * The design's slow time constant 1 / s_slow (a dominant root: singleDecayRefusal), its uncertainty the
+ * parts' relative uncertainties times its sensitivities d ln tau / d ln X, in quadrature (first order).
+ */
+function slowTimeConstant(design: Design): Quantity {
+  const tau = (d: Design) => 1 / decayRates(d)!.slow;
+  const nominal = tau(design);
+  let squares = 0;
+  for (const name of COMPONENT_NAMES) {
+    const sensitivity = Math.log(tau(withComponent(design, name, 1 + SENSITIVITY_STEP)) / nominal) / Math.log1p(SENSITIVITY_STEP);
+    squares += (sensitivity * toleranceToRelativeUncertainty(design.components[name].tolerance)) ** 2;
+  }
+  return quantity(nominal, nominal * Math.sqrt(squares), 's');
+}
+
 function compare(name: string, design: Quantity, measured: Quantity, limit: number): VerdictQuantity {
   const diff = Math.abs(measured.value - design.value);
   const sigma = Math.hypot(measured.stderr ?? 0, design.stderr ?? 0);
@@ -214,11 +275,14 @@ function tightestComponent(design: Design, except?: ComponentName | 'source'): C
 
 const LEVEL_NAMES: Record<keyof DesignLevels, string> = { preLevel: 'initial level', finalValue: 'final value', swing: 'swing' };
 
-/** The fit's levels in the probe's unit; the one before the event is null when the record starts after it. */
+/**
+ * The fit's levels in the probe's unit; the one before the event is null when the record starts after it,
+ * the swing null for a single decay (the swing is a ring's amplitude at omega0).
+ */
 interface ObservedLevels {
   preLevel: Quantity | null;
   finalValue: Quantity;
-  swing: Quantity;
+  swing: Quantity | null;
 }
 
 function observedLevels(design: Design, fit: FittedResponse, startsAfterEvent: boolean): ObservedLevels | null {
@@ -228,7 +292,7 @@ function observedLevels(design: Design, fit: FittedResponse, startsAfterEvent: b
   return {
     preLevel: startsAfterEvent ? null : (fit.preLevel ?? quantity(p.yPre, null, unit)),
     finalValue: fit.finalValue ?? quantity(p.yFinal, null, unit),
-    swing: quantity(responseSwing(p.a, p.b - p.alpha * p.a, p.omega0), null, unit),
+    swing: fit.tau ? null : quantity(responseSwing(p.a, p.b - p.alpha * p.a, p.omega0), null, unit),
   };
 }
 
@@ -250,7 +314,7 @@ function levelRows(design: Design, observed: ObservedLevels, limit: number): Ver
   const rows: VerdictQuantity[] = [];
   if (observed.preLevel) rows.push(compare(LEVEL_NAMES.preLevel, designed('preLevel'), observed.preLevel, limit));
   rows.push(compare(LEVEL_NAMES.finalValue, designed('finalValue'), observed.finalValue, limit));
-  if (expected.preLevel === expected.finalValue) rows.push(compare(LEVEL_NAMES.swing, designed('swing'), observed.swing, limit));
+  if (observed.swing && expected.preLevel === expected.finalValue) rows.push(compare(LEVEL_NAMES.swing, designed('swing'), observed.swing, limit));
   return rows.filter((q) => Number.isFinite(q.measured.value));
 }
 

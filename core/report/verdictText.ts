@@ -4,9 +4,9 @@ import type { Verdict } from '../circuit/verdict';
 import { formatEngineering, formatMeasured } from '../units/format';
 import { marginText } from './resultRows';
 
-/** The verdict line when the fit failed: a failed fit is no measurement, so nothing is judged. */
-export function formatNoVerdictText(status: string, designName: string): string {
-  return `  verdict          none: the fit failed (${status}), so nothing was checked against '${designName}'\n`;
+/** The verdict line when the fit gets none (verdictRefusal, core/workflow/measure.ts: a failed fit, or a single decay where the design rings). */
+export function formatNoVerdictText(reason: string): string {
+  return `  verdict          none: ${reason}\n`;
 }
 
 export function formatVerdictText(verdict: Verdict, designName: string): string {

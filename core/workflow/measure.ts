@@ -8,7 +8,7 @@ import { implausibility } from '../circuit/plausibility';
 import { probeUnit } from '../circuit/predict';
 import { hertz } from '../report/resultRows';
 import { summarizeTransitions } from '../circuit/transitionSummary';
-import { checkDesign, type Verdict } from '../circuit/verdict';
+import { checkDesign, singleDecayRefusal, type Verdict } from '../circuit/verdict';
 import { fitResponse, type ResponseFit, type ResponseFitOptions } from '../fit/fitResponse';
 import { InputError, UsageError } from '../inputError';
 import { fitSucceeded, summarizeFit, type FitSummary } from '../report/fitSummary';
@@ -74,8 +74,23 @@ export function weighCautions(channel: Pick<Channel, 'values' | 'unit'>, parts: 
   return evaluateCautions(cautionInputsFromCapture(channel.values, channel.unit, stored));
 }
 
-/** The verdict of a measured channel against a design; a design probing another unit than the channel is a UsageError. */
+/**
+ * Why a fit gets no verdict against a design, or null when it gets one: a failed fit is no measurement
+ * (fitSucceeded), and a single decay does not compare with a design that rings (singleDecayRefusal).
+ * Not bad input: the command line says it in place of the verdict and exits 1.
+ */
+export function verdictRefusal(design: Design, fit: Pick<FitSummary, 'status' | 'tau'>): string | null {
+  if (!fitSucceeded(fit)) return `the fit failed (${fit.status}), so nothing was checked against '${design.name}'`;
+  return singleDecayRefusal(design, fit);
+}
+
+/**
+ * The verdict of a measured channel against a design. A design probing another unit than the channel, or
+ * a fit that gets no verdict (verdictRefusal: measureCapture asks only when it gets one), is a UsageError.
+ */
 export function checkAgainstDesign(design: Design, fit: ResponseFit | FitSummary, channel: Channel, file: string, eventTime?: number): Verdict {
+  const refusal = verdictRefusal(design, fit);
+  if (refusal) throw new UsageError(refusal);
   const expected = probeUnit(design);
   if (channel.unit !== '' && channel.unit !== expected) {
     throw new UsageError(`the design probes ${design.probe} (${expected}) but channel '${channel.name}' of ${file} is in ${channel.unit}`);
@@ -109,7 +124,7 @@ export function measureCapture(request: MeasureRequest): MeasureResult {
   if (components.value) summary.components = components.value;
   warnIfImplausible(summary, request.channel);
   const verdict =
-    design && fitSucceeded(summary) ? attempt(() => checkAgainstDesign(design, summary, request.channel, request.file, request.eventTime)) : NOT_ASKED;
+    design && verdictRefusal(design, summary) === null ? attempt(() => checkAgainstDesign(design, summary, request.channel, request.file, request.eventTime)) : NOT_ASKED;
   const cautions = weighCautions(request.channel, { design, components: summary.components });
   return { fit, summary, verdict: verdict.value, cautions, problems: { verdict: verdict.error, components: components.error } };
 }

@@ -6,7 +6,7 @@ import { addCaptureOptions, measureSettingsOf, type MeasureCommandOptions } from
 import { loadDesignFile, measureFile } from '../../app/measureFile';
 import { formatFitText } from '../../../core/report/fitText';
 import { formatNoVerdictText, formatVerdictText } from '../../../core/report/verdictText';
-import { fitSucceeded } from '../../../core/report/fitSummary';
+import { verdictRefusal } from '../../../core/workflow/measure';
 import { formatCautionsText } from '../../../core/safety/cautionText';
 import { EXIT } from '../errors';
 
@@ -17,7 +17,7 @@ interface CheckCommandOptions extends MeasureCommandOptions {
 export function registerCheckCommand(program: Command, ctx: CommandContext): void {
   const command = program
     .command('check')
-    .description('fit a capture and check it against a design file: exit 0 in tolerance, 3 out of tolerance, 1 (no verdict) when the fit does not converge')
+    .description('fit a capture and check it against a design file: exit 0 in tolerance, 3 out of tolerance, 1 (no verdict) when the fit does not converge or finds a single decay where the design rings')
     .argument('<file>', 'capture file (CSV or text export of a scope)')
     .requiredOption('--design <file>', 'design file (topology, R, L, C with tolerances, source, probe)');
   addCaptureOptions(command)
@@ -25,17 +25,18 @@ export function registerCheckCommand(program: Command, ctx: CommandContext): voi
     .action((file: string, options: CheckCommandOptions) => {
       const design = loadDesignFile(options.design, ctx.io.cwd);
       const m = measureFile(file, measureSettingsOf(options), ctx.io.cwd, design);
+      // A failed fit, or a single decay where the design rings, gets no verdict (measureCapture gives none), and says why.
+      const refusal = verdictRefusal(design.design, m.summary);
       if (options.json) {
-        ctx.io.out(`${JSON.stringify({ ...m.summary, design: design.design.name, verdict: m.verdict, cautions: m.cautions })}\n`);
+        ctx.io.out(`${JSON.stringify({ ...m.summary, design: design.design.name, verdict: m.verdict, ...(refusal ? { noVerdict: refusal } : {}), cautions: m.cautions })}\n`);
       } else {
         let text = formatFitText(m.summary);
-        // A failed fit is no measurement: it gets no verdict (measureCapture gives none), and says so.
-        if (!fitSucceeded(m.summary)) text += formatNoVerdictText(m.summary.status, design.design.name);
+        if (refusal) text += formatNoVerdictText(refusal);
         else if (m.verdict) text += formatVerdictText(m.verdict, design.design.name);
         text += formatCautionsText(m.cautions);
         ctx.io.out(text);
       }
-      if (!fitSucceeded(m.summary) || !m.verdict) ctx.setExitCode(EXIT.failure);
+      if (refusal || !m.verdict) ctx.setExitCode(EXIT.failure);
       else if (!m.verdict.pass) ctx.setExitCode(EXIT.outOfTolerance);
     });
 }
