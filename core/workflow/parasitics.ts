@@ -34,8 +34,28 @@ export interface ParasiticsRequest {
   switchingFrequency?: number;
 }
 
-/** Fit every capture, extract L_p, C_p, R_p, suggest a snubber and weigh the cautions; `progress` hears each stage. */
+/**
+ * The extraction, or the failed measurement that stops it: a capture whose fit gives no ring to measure
+ * (failed, no response, a single decay, overdamped), in one line naming the file and the fit's state.
+ * A failed fit is not bad input: the command line exits 1 for it, 2 for bad input.
+ */
+export type ParasiticsOutcome = { result: ParasiticsResult; failure: null } | { result: null; failure: string };
+
+/**
+ * measureParasiticsOutcome for the faces that show a failed fit as they show bad input, one message (the
+ * window): the failure is thrown as a UsageError.
+ */
 export function measureParasitics(request: ParasiticsRequest, progress: (stage: string) => void = () => {}): ParasiticsResult {
+  const outcome = measureParasiticsOutcome(request, progress);
+  if (outcome.failure !== null) throw new UsageError(outcome.failure);
+  return outcome.result;
+}
+
+/**
+ * Fit every capture, extract L_p, C_p, R_p, suggest a snubber and weigh the cautions; `progress` hears each
+ * stage. Bad input (fewer than two captures, frequencies that cannot separate L_p and C_p) throws.
+ */
+export function measureParasiticsOutcome(request: ParasiticsRequest, progress: (stage: string) => void = () => {}): ParasiticsOutcome {
   const { captures } = request;
   if (captures.length < 2) throw new UsageError('the added-capacitor method needs at least two captures: the bare loop and one with a capacitor added');
   const fits = captures.map((capture, i) => {
@@ -43,7 +63,9 @@ export function measureParasitics(request: ParasiticsRequest, progress: (stage: 
     return fitChannel(capture.file, capture.channel, {}, capture.captureWarnings).summary;
   });
   const failed = fits.find((f) => regimeTag(f) !== 'underdamped');
-  if (failed) throw new UsageError(`${failed.file}: no ringing found to measure (${fitStateText(failed)}); the method needs an underdamped ring in every capture`);
+  if (failed) {
+    return { result: null, failure: `${failed.file}: no ring to measure (${fitStateText(failed)}); the added-capacitor method needs an underdamped ring in every capture` };
+  }
   // The method needs the undamped natural frequency f0 = omega0 / 2 pi, not the ring frequency.
   const rows = fits.map((fit, i) => ({ file: fit.file, addedC: captures[i].addedC, frequency: hertz(fit.omega0), alpha: fit.alpha }));
   const extraction = extractParasitics(
@@ -61,7 +83,7 @@ export function measureParasitics(request: ParasiticsRequest, progress: (stage: 
   const snubber = suggestSnubber(loop, { voltage: request.voltage, switchingFrequency: request.switchingFrequency });
   const peaks = largestPeaks(captures.map((c) => cautionInputsFromCapture(c.channel.values, c.channel.unit)));
   const cautions = evaluateCautions({ ...peaks, capacitance: extraction.C.value + snubber.C.value, inductance: extraction.L.value });
-  return {
+  const result: ParasiticsResult = {
     L: extraction.L,
     C: extraction.C,
     R: extraction.R,
@@ -73,6 +95,7 @@ export function measureParasitics(request: ParasiticsRequest, progress: (stage: 
     warnings: [...extraction.warnings, ...fits.flatMap((f) => f.warnings.map((w) => `${f.file}: ${w}`))],
     notes: extraction.notes,
   };
+  return { result, failure: null };
 }
 
 /** The largest peak voltage and current over all captures: the node sees the worst of them. */

@@ -1,13 +1,15 @@
 // `ringbench parasitics BARE WITH-C [MORE...] --added C=470p[,1n...]`: loop L, C, R and an RC snubber.
+// A capture whose fit gives no ring exits 1 with one line (a failed measurement); bad input exits 2.
 
 import type { Command } from 'commander';
 import { basename } from 'node:path';
 import type { CommandContext } from '../commandContext';
 import { loadCaptureFor } from '../../app/measureFile';
 import { formatParasiticsText } from '../../../core/report/parasiticsText';
-import { measureParasitics } from '../../../core/workflow/parasitics';
+import { measureParasiticsOutcome } from '../../../core/workflow/parasitics';
 import { parseAddedCapacitances, parsePositiveValue, parseTolerance } from '../../../core/workflow/userValues';
 import { UsageError } from '../../../core/inputError';
+import { EXIT } from '../errors';
 
 interface ParasiticsOptions {
   added: string;
@@ -50,7 +52,12 @@ export function registerParasiticsCommand(program: Command, ctx: CommandContext)
         voltage: parsePositiveValue(options.voltage, '--voltage', 'V'),
         switchingFrequency: parsePositiveValue(options.switchingFrequency, '--switching-frequency', 'Hz'),
       };
-      const result = measureParasitics(request);
+      const { result, failure } = measureParasiticsOutcome(request);
+      if (failure !== null) {
+        ctx.io.err(`ringbench: ${failure}\n`);
+        ctx.setExitCode(EXIT.failure);
+        return;
+      }
       ctx.io.out(options.json ? `${JSON.stringify(result)}\n` : formatParasiticsText(result));
     });
 }
