@@ -9,7 +9,7 @@ import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'nod
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { buildBench, CHROMIUM, dropFile, hasChromium, inkFraction, launchChromium, outputDir, repoRoot, serveBench, waitForFit, type ServedBench } from './benchHarness';
+import { buildBench, CHROMIUM, dropFile, fitCount, hasChromium, inkFraction, launchChromium, outputDir, repoRoot, serveBench, waitForFit, waitForRefit, type ServedBench } from './benchHarness';
 
 if (!hasChromium) console.warn(`test/e2e/bench.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
 
@@ -81,19 +81,6 @@ async function compareFit(page: Page, cli: Record<string, any>): Promise<void> {
     if (cli[key].stderr === null) expect(q.stderr).toBeNull();
     else expectClose(q.stderr as number, cli[key].stderr, `${cli.file} ${key} stderr`);
   }
-}
-
-async function fitCount(page: Page): Promise<number> {
-  return Number(await page.locator('#fit-panel').getAttribute('data-fit-count'));
-}
-
-/** Wait until a fit after the `before`-th has been shown and the bench is idle again. */
-async function waitForRefit(page: Page, before: number): Promise<void> {
-  await page.waitForFunction(
-    (n) => Number(document.querySelector('#fit-panel')?.getAttribute('data-fit-count')) > n && document.querySelector('#progress')?.textContent === '',
-    before,
-    { timeout: 90_000 },
-  );
 }
 
 /** Type a fit window into the fields, apply it and wait for the refit. */

@@ -128,3 +128,17 @@ export async function dropFile(page: Page, path: string, name: string): Promise<
     { base64, name },
   );
 }
+
+/** How many fits the page has shown (the fit panel counts them). */
+export async function fitCount(page: Page): Promise<number> {
+  return Number(await page.locator('#fit-panel').getAttribute('data-fit-count'));
+}
+
+/** Wait until a fit after the `before`-th has been shown and the bench is idle again. */
+export async function waitForRefit(page: Page, before: number): Promise<void> {
+  await page.waitForFunction(
+    (n) => Number(document.querySelector('#fit-panel')?.getAttribute('data-fit-count')) > n && document.querySelector('#progress')?.textContent === '',
+    before,
+    { timeout: 90_000 },
+  );
+}

@@ -6,7 +6,7 @@ import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
-import { buildBench, CHROMIUM, dropFile, hasChromium, launchChromium, outputDir, serveBench, waitForFit, type ServedBench } from './benchHarness';
+import { buildBench, CHROMIUM, dropFile, fitCount, hasChromium, launchChromium, outputDir, serveBench, waitForFit, waitForRefit, type ServedBench } from './benchHarness';
 import { ambiguousMillisecondsCapture, flatNoiseCapture, rcStepCapture, squareWaveCapture } from './generatedCaptures';
 
 if (!hasChromium) console.warn(`test/e2e/fitTrust.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
@@ -121,15 +121,3 @@ async function f0Shown(page: Page): Promise<{ value: number; stderr: number }> {
   return { value: Number(await row.getAttribute('data-value')), stderr: Number(await row.getAttribute('data-stderr')) };
 }
 
-async function fitCount(page: Page): Promise<number> {
-  return Number(await page.locator('#fit-panel').getAttribute('data-fit-count'));
-}
-
-/** Wait until a fit after the `before`-th is shown and the bench is idle again. */
-async function waitForRefit(page: Page, before: number): Promise<void> {
-  await page.waitForFunction(
-    (n) => Number(document.querySelector('#fit-panel')?.getAttribute('data-fit-count')) > n && document.querySelector('#progress')?.textContent === '',
-    before,
-    { timeout: 90_000 },
-  );
-}

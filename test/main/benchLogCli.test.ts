@@ -3,20 +3,13 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { runCli } from '../../main/cli/program';
-import type { CliIo } from '../../main/cli/io';
 import { readBenchLog } from '../../main/io/benchLog';
 import { NOMINAL_LOOP, writeLoopCapture, writeLoopDesign } from '../fixtures/benchLog/captures';
+import { runCliIn } from './cliHarness';
 
 let folder: string;
 
-async function run(args: string[], interactive = false) {
-  let out = '';
-  let err = '';
-  const io: CliIo = { out: (t) => (out += t), err: (t) => (err += t), cwd: folder, interactive };
-  const code = await runCli(args, io);
-  return { code, out, err };
-}
+const run = (args: string[], interactive = false) => runCliIn(folder, args, interactive);
 
 const bytesOf = (path: string) => (existsSync(path) ? readFileSync(path) : null);
 

@@ -4,17 +4,12 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { runCli } from '../../main/cli/program';
+import { runCliIn } from './cliHarness';
 import { createRandom } from '../../core/random';
 
 let folder: string;
 
-async function run(args: string[]) {
-  let out = '';
-  let err = '';
-  const code = await runCli(args, { out: (t) => (out += t), err: (t) => (err += t), cwd: folder, interactive: false });
-  return { code, out, err };
-}
+const run = (args: string[]) => runCliIn(folder, args);
 
 const STEP = 12;
 /** Series R, L, C of the designs: L 10 uH, C 1 uF (omega0 316.2 krad/s); R 1 ohm rings (zeta 0.158), R 20 ohm does not (zeta 3.16). */

@@ -4,19 +4,14 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { runCli } from '../../main/cli/program';
 import { pulseTrainChannel } from '../core/trust/cases/severalEvents';
+import { runCliIn } from './cliHarness';
 
 const F0 = 1e6;
 const DT = 1 / (50 * F0);
 let folder = '';
 
-async function run(args: string[]) {
-  let out = '';
-  let err = '';
-  const code = await runCli(args, { out: (t) => (out += t), err: (t) => (err += t), cwd: folder, interactive: false });
-  return { code, out, err };
-}
+const run = (args: string[]) => runCliIn(folder, args);
 
 beforeAll(() => {
   folder = mkdtempSync(path.join(tmpdir(), 'ringbench-events-'));

@@ -5,9 +5,9 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest';
-import { runCli } from '../../main/cli/program';
 import { createRandom } from '../../core/random';
 import type { FitStatus } from '../../core/fit/types';
+import { runCliIn } from './cliHarness';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const SAMPLES = path.join(ROOT, 'sample-captures');
@@ -30,12 +30,7 @@ const FAILED_STATUSES = ['max-iterations', 'failed', 'no-response'];
 
 let folder: string;
 
-async function run(args: string[], cwd = ROOT) {
-  let out = '';
-  let err = '';
-  const code = await runCli(args, { out: (t) => (out += t), err: (t) => (err += t), cwd, interactive: false });
-  return { code, out, err };
-}
+const run = (args: string[], cwd = ROOT) => runCliIn(cwd, args);
 
 /** A flat 1 V level with 1 % noise, 2000 samples of 10 ns: nothing responds, so no fit of it is an answer. Invented, seeded data. */
 function writeFlatLevel(file: string): void {

@@ -5,19 +5,12 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
-import { runCli } from '../../main/cli/program';
-import type { CliIo } from '../../main/cli/io';
+import { runCliIn } from './cliHarness';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const SAMPLES = path.join(ROOT, 'sample-captures');
 
-async function run(args: string[], cwd = ROOT) {
-  let out = '';
-  let err = '';
-  const io: CliIo = { out: (t) => (out += t), err: (t) => (err += t), cwd, interactive: false };
-  const code = await runCli(args, io);
-  return { code, out, err };
-}
+const run = (args: string[], cwd = ROOT) => runCliIn(cwd, args);
 
 interface ManifestEntry {
   file: string;

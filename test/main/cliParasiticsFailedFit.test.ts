@@ -5,19 +5,14 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { runCli } from '../../main/cli/program';
+import { runCliIn } from './cliHarness';
 import { createRandom } from '../../core/random';
 
 const SAMPLES = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../sample-captures');
 const BARE = 'switch-node-before.csv';
 let folder: string;
 
-async function run(args: string[]) {
-  let out = '';
-  let err = '';
-  const code = await runCli(args, { out: (t) => (out += t), err: (t) => (err += t), cwd: folder, interactive: false });
-  return { code, out, err };
-}
+const run = (args: string[]) => runCliIn(folder, args);
 
 /** 2000 samples of 1 ns at 1 V with 1 % noise (seeded): nothing responds. Invented data. */
 function writeFlatLevel(file: string): void {

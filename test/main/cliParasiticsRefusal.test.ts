@@ -3,18 +3,13 @@
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { runCli } from '../../main/cli/program';
+import { runCliIn } from './cliHarness';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const BEFORE = path.join('sample-captures', 'switch-node-before.csv');
 const AFTER = path.join('sample-captures', 'switch-node-after-470p.csv');
 
-async function run(args: string[]) {
-  let out = '';
-  let err = '';
-  const code = await runCli(args, { out: (t) => (out += t), err: (t) => (err += t), cwd: ROOT, interactive: false });
-  return { code, out, err };
-}
+const run = (args: string[]) => runCliIn(ROOT, args);
 
 describe('parasitics refusals', () => {
   it('the same capture twice exits 2 with one line naming the file and its f0, and prints no snubber', async () => {

@@ -4,18 +4,13 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { runCli } from '../../main/cli/program';
 import { firstOrderShape, generatedTrace, secondOrderShape } from '../core/trust/responseRecords';
 import type { Trace } from '../../core/fit/trace';
+import { runCliIn } from './cliHarness';
 
 let folder = '';
 
-async function run(args: string[]) {
-  let out = '';
-  let err = '';
-  const code = await runCli(args, { out: (t) => (out += t), err: (t) => (err += t), cwd: folder, interactive: false });
-  return { code, out, err };
-}
+const run = (args: string[]) => runCliIn(folder, args);
 
 function writeCsv(name: string, trace: Trace): void {
   const rows = Array.from(trace.time, (t, i) => `${t.toExponential(6)},${trace.values[i].toFixed(6)}`);

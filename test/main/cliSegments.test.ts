@@ -6,9 +6,8 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { parseCapture } from '../../core/capture/parseCapture';
 import { createRandom } from '../../core/random';
 import { loadReportTraces } from '../../main/app/reportFile';
-import { runCli } from '../../main/cli/program';
 import { readBenchLog } from '../../main/io/benchLog';
-import type { CliIo } from '../../main/cli/io';
+import { runCliIn } from './cliHarness';
 
 const dir = mkdtempSync(path.join(tmpdir(), 'ringbench-segments-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -42,13 +41,7 @@ function segmentedFile(): string {
   return file;
 }
 
-async function run(args: string[]) {
-  let out = '';
-  let err = '';
-  const io: CliIo = { out: (t) => (out += t), err: (t) => (err += t), cwd: dir, interactive: false };
-  const code = await runCli(args, io);
-  return { code, out, err };
-}
+const run = (args: string[]) => runCliIn(dir, args);
 
 describe('fit --segment', () => {
   const file = segmentedFile();

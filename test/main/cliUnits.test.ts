@@ -4,8 +4,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { runCli } from '../../main/cli/program';
-import type { CliIo } from '../../main/cli/io';
+import { runCliIn } from './cliHarness';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const SAMPLE = path.join(ROOT, 'sample-captures', 'input-filter-step.csv');
@@ -18,13 +17,7 @@ const ROWS = readFileSync(SAMPLE, 'utf8')
 /** Relative agreement asked of a fit of the same samples written in other units (only rounding differs). */
 const SAME_FIT = 1e-6;
 
-async function run(args: string[]) {
-  let out = '';
-  let err = '';
-  const io: CliIo = { out: (t) => (out += t), err: (t) => (err += t), cwd: ROOT, interactive: false };
-  const code = await runCli(args, io);
-  return { code, out, err };
-}
+const run = (args: string[]) => runCliIn(ROOT, args);
 
 const dir = mkdtempSync(path.join(tmpdir(), 'ringbench-units-'));
 function capture(name: string, header: string, row: (t: number, v: number) => string): string {

@@ -4,19 +4,14 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { runCli } from '../../main/cli/program';
 import { parseCapture } from '../../core/capture/parseCapture';
 import { selectChannel } from '../../core/capture/selectChannel';
+import { runCliIn } from './cliHarness';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const SWITCH_NODE = ['switch-node-before.csv', 'switch-node-after-470p.csv', 'switch-node-after-1n.csv'].map((f) => path.join('sample-captures', f));
 
-async function run(args: string[]) {
-  let out = '';
-  let err = '';
-  const code = await runCli(args, { out: (t) => (out += t), err: (t) => (err += t), cwd: ROOT, interactive: false });
-  return { code, out, err };
-}
+const run = (args: string[]) => runCliIn(ROOT, args);
 
 /** Largest |sample| of a capture's first channel, read here independently of the command. */
 function peakOf(file: string): number {

@@ -5,22 +5,15 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { runCli } from '../../main/cli/program';
-import type { CliIo } from '../../main/cli/io';
 import { parseCapture } from '../../core/capture/parseCapture';
 import { CaptureError } from '../../core/capture/types';
+import { runCliIn } from './cliHarness';
 
 const dir = mkdtempSync(path.join(tmpdir(), 'ringbench-fuzz-cli-'));
 const FILE = 'capture.csv';
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-async function run(args: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = '';
-  let err = '';
-  const io: CliIo = { out: (t) => (out += t), err: (t) => (err += t), cwd: dir, interactive: false };
-  const code = await runCli(args, io);
-  return { code, out, err };
-}
+const run = (args: string[]) => runCliIn(dir, args);
 
 /** What the importer alone says about the text: null when it reads, else its error message. */
 function importError(text: string): string | null {
