@@ -81,7 +81,7 @@ function readProfile(sides: Point[][], variance: number): ZetaProfile {
   let unbounded = false;
   for (const sigmas of PROFILE_SIGMAS) {
     const level = lowestSse + sigmas * sigmas * variance;
-    const [up, down] = sides.map((side) => crossing(side, level));
+    const [up, down] = sides.map((side) => crossing(side, level, lowestSse));
     if (!up) unbounded = true;
     for (const c of [up, down]) if (c) crossings.push({ sigmas, values: c.values });
     ends.push({ sigmas, low: down ? down.zeta : 0, high: up ? up.zeta : Infinity });
@@ -89,12 +89,18 @@ function readProfile(sides: Point[][], variance: number): ZetaProfile {
   return { crossings, interval: ends, unbounded, lowestSse };
 }
 
-/** The first point where the side's residual reaches the level, interpolated linearly between the points around it. */
-function crossing(side: Point[], level: number): Point | null {
+/**
+ * The first point where the side's residual reaches the level, interpolated between the points around it in
+ * sqrt(residual - lowest): linear in zeta where the profile is a parabola, so a step far longer than the
+ * interval (a zeta fixed to 0.2 % walked in 3 % steps) still places the crossing right, where interpolating
+ * the residual itself would put it several times too close.
+ */
+function crossing(side: Point[], level: number, lowestSse: number): Point | null {
+  const rise = (sse: number) => Math.sqrt(Math.max(0, sse - lowestSse));
   for (let k = 1; k < side.length; k++) {
     const [a, b] = [side[k - 1], side[k]];
     if (b.sse < level) continue;
-    const share = a.sse >= level ? 0 : (level - a.sse) / (b.sse - a.sse);
+    const share = a.sse >= level ? 0 : (rise(level) - rise(a.sse)) / (rise(b.sse) - rise(a.sse));
     return {
       zeta: a.zeta + share * (b.zeta - a.zeta),
       sse: level,
