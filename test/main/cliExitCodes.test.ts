@@ -1,5 +1,6 @@
 // Failures are failures on the command line: any fit status but 'converged' exits 1 with no regime and no
-// verdict; batch fits every file, shows each one's status and warnings, and exits 1 when any fit failed.
+// verdict; batch fits every file, shows each one's status and warnings, and exits 1 when any fit failed or, with a
+// design, any file got no verdict (shown as none, with the reason).
 import { copyFileSync, existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
@@ -176,5 +177,72 @@ describe('compare: a failed fit on either side exits 1', () => {
     const comparison = JSON.parse(out);
     expect(comparison.verdict).toBe('undetermined');
     expect(comparison.reason).toContain(`failed (${status})`);
+  });
+});
+
+describe('batch with a design: a file the design gives no verdict is a failure', () => {
+  /** Series L 10 uH, C 1 uF (omega0 316.2 krad/s), as in cliCheckFirstOrder.test.ts: R 1 ohm rings (zeta 0.158), R 20 ohm does not (zeta 3.16). */
+  const [L, C, STEP] = [10e-6, 1e-6, 12];
+  /** The slow time constant of the R 20 ohm design, 1 / (alpha - sqrt(alpha^2 - omega0^2)), alpha = R / 2L: 19.487 us. */
+  const SLOW_TAU = 1 / (1e6 - Math.sqrt(1e12 - 1 / (L * C)));
+  let captures: string;
+
+  /** An RC step of 12 V with the design's slow time constant, 0.5 % noise (seeded), 100 ns samples from -20 us: invented data. */
+  function writeRcStep(file: string): void {
+    const random = createRandom(7);
+    let text = 'Time (s),CH1 (V)\n';
+    for (let i = 0; i < 2400; i++) {
+      const t = (i - 200) * 100e-9;
+      const y = t < 0 ? 0 : STEP * (1 - Math.exp(-t / SLOW_TAU));
+      text += `${t.toExponential(6)},${(y + 0.005 * STEP * random.normal()).toFixed(5)}\n`;
+    }
+    writeFileSync(file, text);
+  }
+
+  function writeDesign(file: string, name: string, R: number): void {
+    const components = { R: { value: R, tolerance: 0.05 }, L: { value: L, tolerance: 0.1 }, C: { value: C, tolerance: 0.02 } };
+    const source = { kind: 'step', amplitude: STEP, initialLevel: 0 };
+    writeFileSync(file, JSON.stringify({ format: 'ringbench-design', version: 1, name, topology: 'series', components, source, probe: 'capacitor-voltage' }));
+  }
+
+  beforeAll(() => {
+    captures = mkdtempSync(path.join(folder, 'rc-'));
+    writeRcStep(path.join(captures, 'rc-step.csv'));
+    writeDesign(path.join(folder, 'ringing.json'), 'LC filter', 1);
+    writeDesign(path.join(folder, 'overdamped.json'), 'damped filter', 20);
+  });
+
+  it('a single decay against a design that rings: verdict none, the reason below the table and in the JSON, exit 1', async () => {
+    const text = await run(['batch', captures, '--design', 'ringing.json'], folder);
+    expect(text.code).toBe(1);
+    const [header, row, reason, ...rest] = text.out.trimEnd().split('\n');
+    expect(header).toMatch(/\sverdict\s/);
+    expect(row).toMatch(/^rc-step\.csv\s+converged\s+\d+\s+first-order\s.*\snone\s/);
+    expect(reason).toMatch(/^rc-step\.csv: no verdict: the fit found a single decay \(first-order, tau [^)]*\) where 'LC filter' predicts a ring \(f0 50\.33 kHz, zeta 0\.158\)/);
+    expect(rest).toEqual([]);
+    expect(text.out).not.toMatch(/NaN|∞|pass|FAIL/);
+
+    const json = await run(['batch', captures, '--design', 'ringing.json', '--json'], folder);
+    expect(json.code).toBe(1);
+    const [entry] = JSON.parse(json.out);
+    expect(entry).toMatchObject({ file: 'rc-step.csv', status: 'converged', regime: 'first-order', verdict: null });
+    expect(entry.noVerdict).toMatch(/^the fit found a single decay \(first-order/);
+  });
+
+  it('the same capture against a design whose slow root dominates gets its verdict: pass, exit 0, no noVerdict', async () => {
+    const text = await run(['batch', captures, '--design', 'overdamped.json'], folder);
+    expect(text.code).toBe(0);
+    expect(text.out.trimEnd().split('\n')[1]).toMatch(/^rc-step\.csv\s+converged\s.*\spass\s/);
+    const [entry] = JSON.parse((await run(['batch', captures, '--design', 'overdamped.json', '--json'], folder)).out);
+    expect(entry.verdict.pass).toBe(true);
+    expect(entry).not.toHaveProperty('noVerdict');
+  });
+
+  it('a failed fit with a design: verdict none, the fit failure as the reason, exit 1', async () => {
+    forced.status = 'max-iterations';
+    const { code, out } = await run(['batch', captures, '--design', 'overdamped.json'], folder);
+    expect(code).toBe(1);
+    expect(out).toMatch(/^rc-step\.csv\s+max-iterations\s+\d+\s+-\s.*\snone\s/m);
+    expect(out).toContain("rc-step.csv: no verdict: the fit failed (max-iterations), so nothing was checked against 'damped filter'\n");
   });
 });

@@ -1,6 +1,6 @@
 // `ringbench batch DIR`: fit every capture of a folder, one result each; a bad file does not stop the rest.
-// Exit 0 when every fit converged (and was in tolerance), 1 when any file could not be read or its fit failed
-// (any status but converged), else 3 when any unit was out of tolerance.
+// Exit 0 when every fit converged (and was in tolerance), 1 when any file could not be read, its fit failed
+// (any status but converged) or, with a design, it got no verdict (verdictRefusal), else 3 when any unit was out of tolerance.
 
 import type { Command } from 'commander';
 import { readdirSync, statSync } from 'node:fs';
@@ -13,6 +13,7 @@ import { createBenchRecord } from '../../app/benchLogRecord';
 import { loadDesignFile, measureFile, type FileMeasurement } from '../../app/measureFile';
 import { briefValue, regimeTag } from '../../../core/report/resultRows';
 import { fitSucceeded, fitWarnings } from '../../../core/report/fitSummary';
+import { verdictRefusal } from '../../../core/workflow/measure';
 import { EXIT, messageFor } from '../errors';
 import { UsageError } from '../../../core/inputError';
 import { FileError } from '../../io/fileError';
@@ -24,6 +25,8 @@ type BatchOptions = Omit<LogAddOptions, 'log' | 'unit'> & { log?: string };
 interface BatchEntry {
   file: string;
   measurement?: FileMeasurement;
+  /** Why a measured file got no verdict against the design (verdictRefusal), or null: without a design, or with a verdict. */
+  noVerdict?: string | null;
   error?: string;
 }
 
@@ -45,13 +48,13 @@ export function listCaptureFiles(folder: string): string[] {
 export function registerBatchCommand(program: Command, ctx: CommandContext): void {
   const command = program
     .command('batch')
-    .description('fit every capture (*.csv, *.txt, *.dat) of a folder; exit 1 when a file could not be read or its fit failed, 3 when a unit was out of tolerance')
+    .description('fit every capture (*.csv, *.txt, *.dat) of a folder; exit 1 when a file could not be read, its fit failed or it got no verdict against the design, 3 when a unit was out of tolerance')
     .argument('<dir>', 'folder of capture files')
     .option('--design <file>', 'design file to check every unit against (instead of --topology/--known)');
   addCaptureOptions(addComponentOptions(command))
     .option('--log <path>', 'append each converged result to this bench log, the unit id taken from the file name')
     .option('--operator <name>', 'who measured (with --log)')
-    .option('--json', 'print a JSON array, one fit summary per file with its status and warnings ({ file, error } for a file that could not be read)')
+    .option('--json', 'print a JSON array, one fit summary per file with its status and warnings, and noVerdict when the design gave it no verdict ({ file, error } for a file that could not be read)')
     .action((dir: string, options: BatchOptions) => {
       const folder = resolve(ctx.io.cwd, dir);
       if (options.design && (options.topology !== undefined || options.known !== undefined)) {
@@ -73,14 +76,14 @@ export function registerBatchCommand(program: Command, ctx: CommandContext): voi
             const record = createBenchRecord(measurement, { unit: basename(name, extname(name)), operator, note: null }, settings);
             appendBenchLog(logPath, record);
           }
-          return { file: name, measurement };
+          return { file: name, measurement, noVerdict: design ? verdictRefusal(design.design, measurement.summary) : null };
         } catch (error) {
           return { file: name, error: messageFor(error) };
         }
       });
 
       ctx.io.out(options.json ? `${JSON.stringify(entries.map(jsonOf))}\n` : formatBatchTable(entries));
-      const failed = entries.some((e) => !e.measurement || !fitSucceeded(e.measurement.summary));
+      const failed = entries.some((e) => !e.measurement || !fitSucceeded(e.measurement.summary) || e.noVerdict);
       const outOfTolerance = entries.some((e) => e.measurement?.verdict && !e.measurement.verdict.pass);
       ctx.setExitCode(failed ? EXIT.failure : outOfTolerance ? EXIT.outOfTolerance : EXIT.ok);
     });
@@ -89,7 +92,7 @@ export function registerBatchCommand(program: Command, ctx: CommandContext): voi
 function jsonOf(entry: BatchEntry): object {
   if (entry.error !== undefined || !entry.measurement) return { file: entry.file, error: entry.error };
   const { summary, verdict, cautions } = entry.measurement;
-  return { ...summary, file: entry.file, verdict, cautions };
+  return { ...summary, file: entry.file, verdict, ...(entry.noVerdict ? { noVerdict: entry.noVerdict } : {}), cautions };
 }
 
 function formatBatchTable(entries: BatchEntry[]): string {
@@ -105,11 +108,13 @@ function formatBatchTable(entries: BatchEntry[]): string {
       briefValue(s, 'f0'),
       briefValue(s, 'zeta'),
       briefValue(s, 'Q'),
-      verdict ? (verdict.pass ? 'pass' : 'FAIL') : '-',
+      entry.noVerdict ? 'none' : verdict ? (verdict.pass ? 'pass' : 'FAIL') : '-',
       cautions.fired.length ? cautions.fired.map((c) => c.id).join(',') : '-',
     ];
   });
   const widths = header.map((h, c) => Math.max(h.length, ...rows.filter((r) => r.length > 2).map((r) => r[c].length)));
   const line = (cells: string[]) => (cells.length === 2 ? cells.join('  ') : cells.map((cell, c) => cell.padEnd(widths[c])).join('  ').trimEnd());
-  return [line(header), ...rows.map(line)].map((l) => `${l}\n`).join('');
+  // Why a file got no verdict, one line each below the table (a reason is too long for a column).
+  const refusals = entries.filter((e) => e.noVerdict).map((e) => `${e.file}: no verdict: ${e.noVerdict}`);
+  return [line(header), ...rows.map(line), ...refusals].map((l) => `${l}\n`).join('');
 }
