@@ -1,6 +1,7 @@
 // The design panel's actions: open, edit, save or remove a design, and check the fit on screen against it (no refit).
 
 import { parseDesign, serializeDesign } from '../../core/circuit/design';
+import { verdictRefusal } from '../../core/workflow/measure';
 import type { LoadedDesign } from '../benchState';
 import type { NamedText } from '../bridgeTypes';
 import { plainMessage } from '../plainMessage';
@@ -72,13 +73,16 @@ export async function loadDesignText(ctx: ActionContext, named: NamedText, path:
   });
 }
 
-/** The verdict of the fit on screen against the design, computed in the worker by checkAgainstDesign. */
+/**
+ * The verdict of the fit on screen against the design, computed in the worker by checkAgainstDesign; never asked
+ * for a fit that gets none (verdictRefusal: a failed fit, a single decay where the design rings), which the panel says.
+ */
 async function checkDesign(ctx: ActionContext): Promise<void> {
   const state = ctx.store.state;
   const { capture, summary, design } = state;
   state.verdict = null;
   state.verdictError = null;
-  if (!capture || !summary || !design || summary.status === 'failed') return ctx.store.update();
+  if (!capture || !summary || !design || verdictRefusal(design.design, summary)) return ctx.store.update();
   const answer = await runStep(ctx, 'checking against the design', () =>
     ctx.client.request({ type: 'check', captureId: capture.key, channel: capture.channel, design: design.design, fit: summary, eventTime: state.eventTime ?? undefined }),
   );

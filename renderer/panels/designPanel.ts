@@ -4,6 +4,7 @@ import { button, card, field, h, replaceChildren, select, textInput } from '../d
 import { showCompact, showValue } from '../show';
 import { formatEngineering } from '../../core/units/format';
 import { marginText } from '../../core/report/resultRows';
+import { verdictRefusal } from '../../core/workflow/measure';
 import { percentText } from '../parseInputs';
 import type { Design } from '../../core/circuit/design';
 import type { BenchState } from '../benchState';
@@ -137,6 +138,12 @@ export function createDesignPanel(actions: BenchActions) {
       state.designError ? h('p', { class: 'error-text', id: 'design-error' }, state.designError) : null,
       loaded ? h('p', { class: 'muted small' }, `${loaded.design.name} — ${loaded.design.topology}, from ${loaded.path}`) : h('p', { class: 'muted' }, 'No design loaded: choose one, open a design file, or enter the values.'),
     );
+    // A fit that gets no verdict (failed, or a single decay where the design rings) says why, in place of the verdict.
+    const refusal = loaded && state.summary ? verdictRefusal(loaded.design, state.summary) : null;
+    if (refusal) {
+      replaceChildren(verdictBox, h('p', { class: 'verdict-line none', id: 'verdict-none' }, 'No verdict'), h('p', { class: 'small', id: 'verdict-refusal' }, `${refusal[0].toUpperCase()}${refusal.slice(1)}.`));
+      return;
+    }
     const verdict = state.verdict;
     if (!verdict) {
       replaceChildren(verdictBox, state.verdictError ? h('p', { class: 'error-text' }, state.verdictError) : null);

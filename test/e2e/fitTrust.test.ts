@@ -1,5 +1,6 @@
 // End to end: a fit that is not a measurement never sits beside a green badge, a refused unit can be stated in the window,
-// and the events of a record holding several are marked on the plot and chosen there or in the fit panel.
+// the events of a record holding several are marked on the plot and chosen there or in the fit panel, and a fit that
+// gets no verdict against the design says why in the design panel, the worker never asked for one.
 
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
@@ -113,7 +114,80 @@ describe.skipIf(!hasChromium)('the fit badge, the unit choices and the events in
     expect(Math.abs(f0.value - 1e6)).toBeLessThan(3 * f0.stderr);
     await page.locator('#fit-panel').screenshot({ path: join(outputDir, 'fit-panel-events.png') });
   });
+
+  it('says in the design panel why a fit gets no verdict, and never asks the worker for one', async () => {
+    // The input filter's design (a ring at 8.9 kHz) stays loaded for a dropped capture, which is measured with it.
+    await page.selectOption('#design-select', 'input-filter-step');
+    await page.waitForFunction(() => (document.querySelector('#design-message')?.textContent ?? '').startsWith('48 V bus LC input filter') && document.querySelector('#progress')?.textContent === '');
+    const asked = await recordWorkerRequests(page);
+    const file = join(folder, 'rc-step-design.csv');
+    writeFileSync(file, rcStepCapture());
+    await dropFile(page, file, 'rc-step-design.csv');
+    await waitForFit(page, 'rc-step-design.csv');
+    await expectNoVerdict(page, /^The fit found a single decay \(first-order, tau .+\) where '48 V bus LC input filter' predicts a ring \(f0 8\.\d+ kHz, zeta 0\.\d+\)/);
+    await page.evaluate(() => window.scrollTo(0, 0));
+    await page.locator('#design-panel').screenshot({ path: join(outputDir, 'design-panel-no-verdict.png') });
+
+    // Checked again by hand: still no verdict, and no check asked of the worker.
+    await page.locator('#design-form').evaluate((form) => ((form as HTMLDetailsElement).open = true));
+    await checkEditedDesign(page);
+    await expectNoVerdict(page, /^The fit found a single decay/);
+    expect(await asked()).not.toContain('check');
+
+    // A design whose slow root dominates (series L 10 µH, C 1 µF, R 11 Ω: roots 100 ks^-1 and 1 Ms^-1, slow tau 10 µs as
+    // generated, 5 V step) is asked for and gets a verdict on tau and the levels.
+    for (const [id, value] of [['#design-name', 'damped filter'], ['#design-R', '11'], ['#design-L', '10u'], ['#design-C', '1u'], ['#design-source-1', '5'], ['#design-source-2', '0']]) {
+      await page.fill(id, value);
+    }
+    await page.click('#check-design');
+    await page.waitForSelector('#verdict-overall[data-pass="true"]');
+    expect(await page.locator('#verdict tr[data-quantity="tau"]').count()).toBe(1);
+    expect(await page.locator('#verdict-none').count()).toBe(0);
+    expect(await asked()).toContain('check');
+
+    // A record whose fit fails: the failure is the reason, measured with the design and checked by hand, never asked.
+    const flat = join(folder, 'flat-design.csv');
+    writeFileSync(flat, flatNoiseCapture(12));
+    await dropFile(page, flat, 'flat-design.csv');
+    await waitForFit(page, 'flat-design.csv');
+    await expectNoVerdict(page, /^The fit failed \(no-response\), so nothing was checked against 'damped filter'\.$/);
+    const before = (await asked()).length;
+    await checkEditedDesign(page);
+    await expectNoVerdict(page, /^The fit failed \(no-response\)/);
+    expect((await asked()).slice(before)).not.toContain('check');
+    await page.locator('#design-panel').screenshot({ path: join(outputDir, 'design-panel-failed-fit.png') });
+  });
 });
+
+/** Record the type of every request the page sends its fit worker from now on; the answer reads them. */
+async function recordWorkerRequests(page: Page): Promise<() => Promise<string[]>> {
+  await page.evaluate(() => {
+    const seen: string[] = [];
+    (window as unknown as { workerRequests: string[] }).workerRequests = seen;
+    const send = Worker.prototype.postMessage as (this: Worker, ...args: unknown[]) => void;
+    Worker.prototype.postMessage = function (this: Worker, ...args: unknown[]) {
+      seen.push(String((args[0] as { type?: string } | undefined)?.type));
+      send.apply(this, args);
+    } as Worker['postMessage'];
+  });
+  return () => page.evaluate(() => [...(window as unknown as { workerRequests: string[] }).workerRequests]);
+}
+
+/** Apply the design as edited in the panel's fields, and wait until the panel shows it applied and the bench is idle. */
+async function checkEditedDesign(page: Page): Promise<void> {
+  await page.evaluate(() => document.querySelector('#design-message')?.replaceChildren());
+  await page.click('#check-design');
+  await page.waitForFunction(() => (document.querySelector('#design-message')?.textContent ?? '').includes('from edited in the window') && document.querySelector('#progress')?.textContent === '');
+}
+
+/** The design panel says there is no verdict and why, in amber, with no verdict table, no error and no banner. */
+async function expectNoVerdict(page: Page, reason: RegExp): Promise<void> {
+  await page.locator('#verdict-none').waitFor({ timeout: 30_000 });
+  expect(await page.locator('#verdict-refusal').innerText()).toMatch(reason);
+  expect(await page.locator('#verdict-overall').count()).toBe(0);
+  expect(await page.locator('#verdict .error-text').count()).toBe(0);
+  expect(await page.locator('#error-banner').isHidden()).toBe(true);
+}
 
 /** The natural frequency row of the fit table, as its data attributes carry it. */
 async function f0Shown(page: Page): Promise<{ value: number; stderr: number }> {
