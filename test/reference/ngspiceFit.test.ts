@@ -26,6 +26,8 @@ function zetaOf(e: FixtureEntry): number {
 
 
 const manifest = readManifest();
+/** Largest ratio of a stated error to the Cramér–Rao bound where the profile along zeta widened it (see the test). */
+const PROFILED_RATIO = 3;
 
 /** Relative standard uncertainty of a quantity (0 when exact). */
 function relative(q: { value: number; stderr: number | null }): number {
@@ -60,10 +62,14 @@ describe('fit of noisy ngspice waveforms', () => {
       expect(Math.abs(parts[name].value / entry[name] - 1), `${name} = ${parts[name].value}`).toBeLessThan(tolerance);
     }
     // Honest uncertainties: the reported standard errors sit close to the bound (an efficient fit meets it).
+    // Where zeta's residual profile was walked (the fit not clearly a ring), the errors reach the profile's
+    // crossings, which a lopsided profile puts beyond the linearised bound: there they may be up to
+    // PROFILED_RATIO times it, never below it.
+    const profiled = fit.regimeEvidence.includes('(residual profile)');
     for (const key of ['alpha', 'omega0'] as const) {
       const ratio = (fit[key].stderr ?? Infinity) / (bound[key].stderr ?? NaN);
       expect(ratio, `${key} stderr / bound`).toBeGreaterThan(0.7);
-      expect(ratio, `${key} stderr / bound`).toBeLessThan(1.5);
+      expect(ratio, `${key} stderr / bound`).toBeLessThan(profiled ? PROFILED_RATIO : 1.5);
     }
   });
 });
