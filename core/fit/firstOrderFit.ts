@@ -2,6 +2,7 @@
 
 import { fitCurve } from './fitCurve';
 import { solveAmplitudes, Workspace } from './amplitudes';
+import { projectedModel, stallAsConvergence } from './projectedModel';
 import { firstOrderLayoutFor, LAYOUTS, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
 import { attemptT0, attemptValue, type Attempt } from './attempt';
@@ -53,8 +54,6 @@ const FASTEST_START_SAMPLES = 2;
 const STARTS_REFINED = 1;
 /** Lower bound of the scaled rate: keeps it positive. */
 const MIN_SCALED_RATE = 1e-9;
-/** How many recent parameter vectors' models are kept (the solver revisits the last few). */
-const MODEL_CACHE_SIZE = 4;
 
 /**
  * The best first-order attempt of a layout, or null when none reaches a finite residual. Starting rates
@@ -88,33 +87,20 @@ function refineFirstOrder(set: FitSet, layout: ParameterLayout, rate: number, t0
     const values = toPhysical(u);
     return { values, alpha: values[0], t0: nonlinear.includes('t0') ? values[nonlinear.indexOf('t0')] : t0Start };
   };
-  // The solver asks point by point, alternating between vectors for central differences: the models
-  // of the last few vectors are kept.
-  const cache: { key: readonly number[]; model: Float64Array }[] = [];
-  const modelFor = (u: readonly number[]): Float64Array => {
-    const hit = cache.find((entry) => entry.key === u);
-    if (hit) return hit.model;
+  const curve = { names: [...nonlinear], evaluate: projectedModel(set, layout, (u) => {
     const { alpha, t0 } = physical(u);
-    solveAmplitudes(layout, set.time, set.values, alpha, alpha, t0, workspace, set.block);
-    const entry = cache.length < MODEL_CACHE_SIZE ? { key: u, model: new Float64Array(set.time.length) } : (cache.pop() as (typeof cache)[0]);
-    entry.key = u;
-    entry.model.set(workspace.model);
-    cache.unshift(entry);
-    return entry.model;
-  };
-  const curve = { names: [...nonlinear], evaluate: (u: readonly number[], index: number) => modelFor(u)[index] };
+    return { alpha, omega0: alpha, t0 };
+  }, workspace) };
   const indices = Float64Array.from(set.time, (_, i) => i);
   const min = nonlinear.map((name) => (name === 't0' ? -Infinity : MIN_SCALED_RATE));
   const result = fitCurve(curve, { x: indices, y: set.values }, nonlinear.map(() => 1), { min, maxIterations: MAX_ITERATIONS });
   const { values, alpha, t0 } = physical(result.parameters.map((p) => p.value));
   const linear = solveAmplitudes(layout, set.time, set.values, alpha, alpha, t0, workspace, set.block);
-  const stalled = result.status === 'failed' && result.message.startsWith('stalled');
   return {
     layout,
     values: [...values, ...linear.coefficients],
     sse: Number.isFinite(linear.sse) ? linear.sse : Infinity,
-    status: stalled ? 'converged' : result.status,
-    message: stalled ? 'no step lowers chi^2 further (minimum to the precision of the model derivatives)' : result.message,
+    ...stallAsConvergence(result.status, result.message),
     iterations: result.iterations,
     warnings: result.warnings.filter((w) => !/covariance/i.test(w)),
   };

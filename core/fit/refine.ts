@@ -1,8 +1,8 @@
 // Refines one layout from one start: Levenberg-Marquardt over the nonlinear parameters, the linear ones solved exactly.
 
-import type { FitStatus } from './types';
 import { fitCurve } from './fitCurve';
 import { solveAmplitudes, Workspace } from './amplitudes';
+import { projectedModel, stallAsConvergence } from './projectedModel';
 import { LAYOUTS, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
 import type { RateCandidate } from './startingRates';
@@ -20,9 +20,6 @@ const MIN_SCALED_START_ALPHA = 1e-6;
  * the split of the two roots in the response's basis (alpha - sqrt(alpha^2 - omega0^2)) well above rounding.
  */
 const MIN_SCALED_PRODUCT = 1e-6;
-/** How many recent parameter vectors' models are kept (the solver revisits the last few). */
-const MODEL_CACHE_SIZE = 4;
-
 export interface RefineOptions {
   /** Hold zeta = alpha / omega0 at this value and fit the rest (a point of zeta's profile). */
   fixedZeta?: number;
@@ -79,23 +76,9 @@ export function refine(set: FitSet, layout: ParameterLayout, start: RateCandidat
   // t0 enters as 1 + (t0 - t0Start) omega0, so that every solver variable starts near 1.
   const physical = (u: readonly number[]) => ({ ...rates.toRates(u.slice(0, k)), t0: fitsT0 ? t0Start + (u[k] - 1) / rate : t0Start });
   const workspace = new Workspace(set.time.length);
-  // The solver asks point by point, alternating between two vectors for central differences,
-  // so the model is kept for the last few parameter vectors it was asked about.
-  const cache: { key: readonly number[]; model: Float64Array }[] = [];
-  const modelFor = (u: readonly number[]): Float64Array => {
-    const hit = cache.find((entry) => entry.key === u);
-    if (hit) return hit.model;
-    const { alpha, omega0, t0 } = physical(u);
-    solveAmplitudes(layout, set.time, set.values, alpha, omega0, t0, workspace, set.block);
-    const entry = cache.length < MODEL_CACHE_SIZE ? { key: u, model: new Float64Array(set.time.length) } : (cache.pop() as (typeof cache)[0]);
-    entry.key = u;
-    entry.model.set(workspace.model);
-    cache.unshift(entry);
-    return entry.model;
-  };
   const model = {
     names: fitsT0 ? [...rates.names, 't0'] : rates.names,
-    evaluate: (u: readonly number[], index: number) => modelFor(u)[index],
+    evaluate: projectedModel(set, layout, physical, workspace),
   };
   const indices = Float64Array.from(set.time, (_, i) => i);
   const min = fitsT0 ? [...rates.min, -Infinity] : rates.min;
@@ -117,15 +100,4 @@ export function refine(set: FitSet, layout: ParameterLayout, start: RateCandidat
         : []),
     ],
   };
-}
-
-/**
- * The solver stalls when no step lowers chi^2 although its finite-difference gradient is not quite
- * zero. Here the model's derivatives include the linear solve, whose rounding makes that gradient
- * noisy at the minimum, so a stall after a successful descent is a minimum to the model's precision.
- */
-function stallAsConvergence(status: FitStatus, message: string): { status: FitStatus; message: string } {
-  return status === 'failed' && message.startsWith('stalled')
-    ? { status: 'converged', message: 'no step lowers chi^2 further (minimum to the precision of the model derivatives)' }
-    : { status, message };
 }
