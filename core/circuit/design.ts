@@ -3,6 +3,7 @@
 import { InputError } from '../inputError';
 import { parseQuantityText } from '../units/parseQuantity';
 import { COMPONENT_NAMES, COMPONENT_UNITS, type ComponentName, type Topology } from './relations';
+import { DECISION_RULE_NAMES, type DecisionRuleSpec, type QuantityLimits } from './decisionRule';
 
 /** What the channel measures: the voltage across C, the current in L, or the voltage across R. */
 export type Probe = 'capacitor-voltage' | 'inductor-current' | 'resistor-voltage';
@@ -31,6 +32,14 @@ export type DesignSource = (
   | { kind: 'natural'; capacitorVoltage: number; inductorCurrent: number }
 ) & { levelTolerance?: number };
 
+/**
+ * Quantities a design may limit directly, with the unit of their limits: f0 = omega0 / 2 pi; overshoot in %
+ * of the step; settlingTime2 and settlingTime5 from the event until the response stays within 2 % and 5 %.
+ */
+export const LIMIT_UNITS = { f0: 'Hz', zeta: '', Q: '', R: 'ohm', L: 'H', C: 'F', overshoot: '%', settlingTime2: 's', settlingTime5: 's' } as const;
+export type LimitedQuantity = keyof typeof LIMIT_UNITS;
+export const LIMITED_QUANTITIES = Object.keys(LIMIT_UNITS) as LimitedQuantity[];
+
 export interface Design {
   format: typeof DESIGN_FORMAT;
   version: typeof DESIGN_VERSION;
@@ -39,6 +48,10 @@ export interface Design {
   components: Record<ComponentName, ComponentSpec>;
   source: DesignSource;
   probe: Probe;
+  /** Limits stated directly, SI base units (overshoot in %): each replaces the limits the tolerances give that quantity. */
+  limits?: Partial<Record<LimitedQuantity, QuantityLimits>>;
+  /** The decision rule of the verdict; absent: the default (see decisionRule.ts). */
+  decisionRule?: DecisionRuleSpec;
   /** Free text for the reader of the file. */
   notes?: string;
 }
@@ -55,6 +68,9 @@ export class DesignError extends InputError {
 
 type Json = Record<string, unknown>;
 
+/** A UTF-8 byte-order mark, as some Windows editors save JSON: not part of the JSON text. */
+const BYTE_ORDER_MARK = /^\uFEFF/;
+
 /**
  * A design from its JSON text. Component values and source levels may be numbers or strings with SI
  * prefixes ('4.7', '2.2u', '470nF', '4k7'); every field is checked and the first fault is thrown
@@ -63,12 +79,12 @@ type Json = Record<string, unknown>;
 export function parseDesign(jsonText: string): Design {
   let root: unknown;
   try {
-    root = JSON.parse(jsonText);
+    root = JSON.parse(jsonText.replace(BYTE_ORDER_MARK, ''));
   } catch (e) {
     throw new DesignError('', `not valid JSON (${(e as Error).message})`);
   }
   const top = object(root, '');
-  allowOnly(top, '', ['format', 'version', 'name', 'topology', 'components', 'source', 'probe', 'notes']);
+  allowOnly(top, '', ['format', 'version', 'name', 'topology', 'components', 'source', 'probe', 'limits', 'decisionRule', 'notes']);
   if (top.format !== DESIGN_FORMAT) throw new DesignError('format', `must be "${DESIGN_FORMAT}"`);
   if (top.version !== DESIGN_VERSION) throw new DesignError('version', `must be ${DESIGN_VERSION} (this program reads version ${DESIGN_VERSION})`);
   const name = text(top.name, 'name');
@@ -83,14 +99,27 @@ export function parseDesign(jsonText: string): Design {
     source: readSource(top.source, topology),
     probe,
   };
+  if (top.limits !== undefined) design.limits = readLimits(top.limits);
+  if (top.decisionRule !== undefined) design.decisionRule = readDecisionRule(top.decisionRule);
   if (top.notes !== undefined) design.notes = text(top.notes, 'notes', true);
   return design;
 }
 
 /** The design as JSON text (numbers in SI base units), readable by parseDesign. */
 export function serializeDesign(design: Design): string {
-  const { format, version, name, topology, components, source, probe, notes } = design;
-  const ordered = { format, version, name, topology, components, source, probe, ...(notes === undefined ? {} : { notes }) };
+  const { format, version, name, topology, components, source, probe, limits, decisionRule, notes } = design;
+  const ordered = {
+    format,
+    version,
+    name,
+    topology,
+    components,
+    source,
+    probe,
+    ...(limits === undefined ? {} : { limits }),
+    ...(decisionRule === undefined ? {} : { decisionRule }),
+    ...(notes === undefined ? {} : { notes }),
+  };
   return `${JSON.stringify(ordered, null, 2)}\n`;
 }
 
@@ -129,6 +158,58 @@ function readSource(value: unknown, topology: Topology): DesignSource {
     throw new DesignError('source', 'a natural response needs a capacitorVoltage or an inductorCurrent other than zero');
   }
   return { kind, capacitorVoltage, inductorCurrent, ...levelTolerance };
+}
+
+/** Limits per quantity: each an object with a lower and/or an upper limit, not negative, lower below upper. */
+function readLimits(value: unknown): Partial<Record<LimitedQuantity, QuantityLimits>> {
+  const node = object(value, 'limits');
+  allowOnly(node, 'limits', LIMITED_QUANTITIES);
+  const result: Partial<Record<LimitedQuantity, QuantityLimits>> = {};
+  for (const name of LIMITED_QUANTITIES) {
+    if (node[name] === undefined) continue;
+    const path = `limits.${name}`;
+    const spec = object(node[name], path);
+    allowOnly(spec, path, ['lower', 'upper']);
+    const side = (key: 'lower' | 'upper'): number | null => {
+      if (spec[key] === undefined || spec[key] === null) return null;
+      const v = name === 'overshoot' ? percent(spec[key], `${path}.${key}`) : measure(spec[key], `${path}.${key}`, LIMIT_UNITS[name]);
+      if (v < 0) throw new DesignError(`${path}.${key}`, `must not be negative, got ${v}`);
+      return v;
+    };
+    const limits = { lower: side('lower'), upper: side('upper') };
+    if (limits.lower === null && limits.upper === null) throw new DesignError(path, 'needs a lower or an upper limit (or both)');
+    if (limits.lower !== null && limits.upper !== null && !(limits.lower < limits.upper)) {
+      throw new DesignError(path, `lower (${limits.lower}) must be below upper (${limits.upper})`);
+    }
+    result[name] = limits;
+  }
+  return result;
+}
+
+/** A percentage: a number (25 = 25 %) or a text with an optional '%' ('25 %'). */
+function percent(value: unknown, path: string): number {
+  const n = typeof value === 'string' && /^\s*[+-]?[\d.]+(e[+-]?\d+)?\s*%?\s*$/i.test(value) ? Number(value.replace('%', '').trim()) : value;
+  if (typeof n !== 'number' || !Number.isFinite(n)) throw new DesignError(path, "must be a percentage of the step, a number or a text such as '25 %'");
+  return n;
+}
+
+/** The decision rule: its name, and for the guarded rules the guard band factor; the coverage factor k. */
+function readDecisionRule(value: unknown): DecisionRuleSpec {
+  const node = object(value, 'decisionRule');
+  allowOnly(node, 'decisionRule', ['name', 'guardBandFactor', 'coverageFactor']);
+  const rule: DecisionRuleSpec = { name: oneOf(node.name, 'decisionRule.name', DECISION_RULE_NAMES) };
+  if (node.guardBandFactor !== undefined) {
+    const w = node.guardBandFactor;
+    if (typeof w !== 'number' || !Number.isFinite(w) || w < 0) throw new DesignError('decisionRule.guardBandFactor', 'must be a number, 0 or more (the guard band as a multiple of U; 1 = U)');
+    if (rule.name === 'simple-acceptance' && w !== 0) throw new DesignError('decisionRule.guardBandFactor', 'simple-acceptance has no guard band (w = 0): leave it out or choose a guarded rule');
+    rule.guardBandFactor = w;
+  }
+  if (node.coverageFactor !== undefined) {
+    const k = node.coverageFactor;
+    if (typeof k !== 'number' || !Number.isFinite(k) || !(k > 0)) throw new DesignError('decisionRule.coverageFactor', 'must be a positive number (k in U = k u; 2 for about 95 %)');
+    rule.coverageFactor = k;
+  }
+  return rule;
 }
 
 /** A relative tolerance: a number in [0, 1). */

@@ -1,12 +1,16 @@
-// A built board against its design: each response quantity and level in or out of tolerance (a single
+// A built board against its design: each response quantity and level decided against its limits with the
+// measurement uncertainty (pass, conditional pass, conditional fail, fail under a named decision rule; a single
 // decay's tau against the slow time constant of a design it dominates), the waveform difference, and the
-// single change (a component, or the source's step) that best explains it.
+// single change (a component, or the source's step) that best explains a deviation.
 import { quantity, type Quantity } from '../quantity';
 import { evaluateResponse, type ResponseParams } from '../response/secondOrder';
 import { componentsFromResponse } from './components';
-import type { Design, DesignSource } from './design';
+import { combineZones, describeDecisionRule, resolveDecisionRule, type DecisionRule, type DecisionZone, type QuantityLimits } from './decisionRule';
+import type { Design, DesignSource, LimitedQuantity } from './design';
 import { CircuitInputError } from './errors';
 import { decayRates, designLevels, predictResponse, probeUnit, responseSwing, type DesignLevels } from './predict';
+import { toleranceLimits, widenLimits } from './quantityLimits';
+import { deviates, judgeQuantity, type VerdictQuantity } from './quantityVerdict';
 import {
   COMPONENT_NAMES,
   COMPONENT_UNITS,
@@ -18,8 +22,11 @@ import {
   type ResponseQuantityName,
 } from './relations';
 import { toleranceToRelativeUncertainty } from './tolerance';
+import { limitedTransitionRows, type FittedTransitions } from './transitionLimits';
 import { alphaOmega0Correlation } from '../fit/correlation';
 import { formatEngineering, formatWithUncertainty } from '../units/format';
+
+export type { VerdictQuantity } from './quantityVerdict';
 
 /** The parts of a response fit the verdict reads (a ResponseFit has them all). */
 export interface FittedResponse {
@@ -43,22 +50,13 @@ export interface FittedResponse {
   preLevel?: Quantity;
   /** Fitted final value with its standard error. Default: params.yFinal, no standard error. */
   finalValue?: Quantity;
+  /** The fitted model's step metrics (a FitSummary's); read only for the overshoot and settling limits a design states. */
+  transitions?: FittedTransitions;
 }
 
 export interface CheckOptions {
   /** Component taken from the design to derive the other two from the fit; null for none. Default: the tightest tolerance. */
   knownComponent?: ComponentName | null;
-  /** A quantity is in tolerance when its margin is at most this many sigma. Default 2. */
-  marginLimit?: number;
-}
-
-export interface VerdictQuantity {
-  name: string;
-  design: Quantity;
-  measured: Quantity;
-  /** |measured - design| / sqrt(u_measured^2 + u_design^2). */
-  marginSigma: number;
-  inTolerance: boolean;
 }
 
 export interface LikelyCause {
@@ -76,7 +74,12 @@ export interface LikelyCause {
 }
 
 export interface Verdict {
+  /** Every quantity accepted under the rule (the decision a script reads: check exits 0, else 3). */
   pass: boolean;
+  /** The unit's zone: any fail is a fail, else the worse conditional zone, else a pass (combineZones). */
+  decision: DecisionZone;
+  /** The decision rule the quantities were decided by, and whether the design chose it. */
+  rule: DecisionRule;
   quantities: VerdictQuantity[];
   /** RMS of measured minus predicted over the fit window, unit of the probe; null when the window holds no samples. */
   rmsDifference: number | null;
@@ -86,7 +89,6 @@ export interface Verdict {
   notes: string[];
 }
 
-const DEFAULT_MARGIN = 2;
 /**
  * Level tolerance when the design states none: room for a scope's DC gain error of a few % of full scale,
  * a probe's attenuation tolerance and the source's own setting (common practice, from memory), while a
@@ -103,16 +105,18 @@ const SLOW_ROOT_DOMINANCE = 5;
 /** Preference among equal tolerances when choosing the known component: capacitors are usually the best known. */
 const KNOWN_PREFERENCE: ComponentName[] = ['C', 'L', 'R'];
 
+/** The rows a design may limit directly under their own name (f0 stands in for omega0 when limited). */
+const DIRECT_ROWS: readonly string[] = ['zeta', 'Q', 'R', 'L', 'C'] satisfies LimitedQuantity[];
+
 /**
- * Rule: a quantity is in tolerance when |measured - design| <= 2 sqrt(u_measured^2 + u_design^2),
- * u_design propagated to first order from the component tolerances read as rectangular half-widths
- * (u = tol / sqrt(3), GUM 4.3.7). With a precise fit, a value at the edge of a worst-case tolerance
- * sits at sqrt(3) = 1.73 sigma, so the rule accepts up to about 1.15 times the tolerance half-width.
- * The levels (before the event, final, and the swing when those two are equal) follow the same rule with
- * u_design = levelTolerance / sqrt(3) times the larger of the level and the swing. The board passes when
- * every quantity is in tolerance. The likely cause names the source when a level is out, else the
- * component; R, L and C are derived taking a part other than the likely cause at its design value, so
- * the table shows the change where the cause puts it.
+ * Each quantity has limits: those the design states (limits.<name>), else the extremes over the corners of
+ * the component tolerances (quantityLimits.ts); the levels' limits add the level tolerance of the larger of
+ * the level and the swing. Its zone compares value ± U (U = k u_measured) with the limits, and the design's
+ * decision rule (default: guarded acceptance, w = U, k = 2) accepts it or not (decisionRule.ts). The board
+ * passes when every quantity is accepted; its decision is the worst zone. The margin in sigma (against the
+ * design's value and its rectangular tolerance uncertainty, GUM 4.3.7) is kept as information. The likely
+ * cause names the source when a level deviates, else the component; R, L and C are derived taking a part
+ * other than the likely cause at its design value, so the table shows the change where the cause puts it.
  */
 export function checkDesign(
   design: Design,
@@ -120,43 +124,51 @@ export function checkDesign(
   measured: { time: ArrayLike<number>; values: ArrayLike<number> },
   options: CheckOptions = {},
 ): Verdict {
-  const limit = options.marginLimit ?? DEFAULT_MARGIN;
-  if (!(limit > 0)) throw new CircuitInputError('options.marginLimit', `must be a positive number of sigma, got ${limit}`);
   if (measured.time.length !== measured.values.length) {
     throw new CircuitInputError('measured.values', `length ${measured.values.length} differs from the time axis (${measured.time.length})`);
   }
   const refusal = singleDecayRefusal(design, fit);
   if (refusal) throw new CircuitInputError('fit', refusal);
-  const notes: string[] = [
-    `In tolerance: within ${limit} sigma of the design, the design uncertainty from the tolerances as rectangular half-widths (GUM 4.3.7).`,
-  ];
+  const rule = resolveDecisionRule(design.decisionRule);
+  const notes: string[] = [`Decision rule: ${describeDecisionRule(rule)}.`, LIMITS_NOTE];
+  const judge = (name: string, designQ: Quantity, measuredQ: Quantity, fromTolerances: () => QuantityLimits) => {
+    const stated = DIRECT_ROWS.includes(name) ? design.limits?.[name as LimitedQuantity] : undefined;
+    return stated ? judgeQuantity(name, designQ, measuredQ, stated, 'design', rule) : judgeQuantity(name, designQ, measuredQ, fromTolerances(), 'tolerances', rule);
+  };
   const relations = responseRelations(design.topology);
-  const values = { R: design.components.R.value, L: design.components.L.value, C: design.components.C.value };
+  const values = nominalValues(design);
   const relU = {} as Record<ComponentName, number>;
   for (const name of COMPONENT_NAMES) relU[name] = toleranceToRelativeUncertainty(design.components[name].tolerance);
+  const designRate = (name: ResponseQuantityName) => {
+    const v = evaluatePowerLaw(relations[name], values);
+    return quantity(v, Math.abs(v) * powerLawRelativeUncertainty(relations[name], relU), RESPONSE_UNITS[name]);
+  };
 
   const quantities: VerdictQuantity[] = [];
   if (fit.tau) {
-    quantities.push(compare('tau', slowTimeConstant(design), fit.tau, limit));
+    quantities.push(judge('tau', slowTimeConstant(design), fit.tau, () => toleranceLimits(design, (d) => 1 / (decayRates(d)?.slow ?? NaN))));
     notes.push(
       "A single decay: tau is checked against the design's slow time constant, and the levels; one time constant cannot tell which part moved, so no R, L, C or component cause is derived.",
     );
   } else {
     for (const name of ['alpha', 'omega0', 'zeta', 'Q'] as ResponseQuantityName[]) {
-      const v = evaluatePowerLaw(relations[name], values);
-      const designQ = quantity(v, Math.abs(v) * powerLawRelativeUncertainty(relations[name], relU), RESPONSE_UNITS[name]);
-      quantities.push(compare(name, designQ, fit[name], limit));
+      if (name === 'omega0' && design.limits?.f0) {
+        quantities.push(judgeQuantity('f0', inHertz(designRate('omega0')), inHertz(fit.omega0), design.limits.f0, 'design', rule));
+        continue;
+      }
+      quantities.push(judge(name, designRate(name), fit[name], () => toleranceLimits(design, (d) => evaluatePowerLaw(relations[name], nominalValues(d)))));
     }
   }
-  if ((fit.tau ? [fit.tau] : [fit.alpha, fit.omega0]).some((q) => q.stderr === null)) notes.push('Some fitted uncertainties are unknown: the margins use the design tolerance alone.');
+  const unknown = (fit.tau ? [fit.tau] : [fit.alpha, fit.omega0]).some((q) => q.stderr === null);
+  if (unknown) notes.push('Some fitted uncertainties are unknown: those quantities are decided on their value alone (U unknown) and their margins use the design tolerance alone.');
 
   const physical = !fit.tau && fit.alpha.value > 0 && fit.omega0.value > 0;
   const sensitivities = {
     alpha: { ...relations.alpha.exponents },
     omega0: { ...relations.omega0.exponents },
   };
-  const componentCause = physical ? explainDeviation(quantities[0], quantities[1], sensitivities, values) : null;
-  const rateOut = !fit.tau && quantities.slice(0, 2).some((q) => !q.inTolerance);
+  const componentCause = physical ? explainDeviation(designRate('alpha').value, designRate('omega0').value, fit, sensitivities, values) : null;
+  const rateOut = !fit.tau && quantities.slice(0, 2).some(deviates);
   const known =
     options.knownComponent === undefined ? tightestComponent(design, rateOut ? componentCause?.component : undefined) : options.knownComponent;
   if (known !== null && physical) {
@@ -164,12 +176,17 @@ export function checkDesign(
     const derived = componentsFromResponse(fit.alpha, fit.omega0, design.topology, { name: known, value: spec.value, tolerance: spec.tolerance }, alphaOmega0Correlation(fit.correlation));
     for (const name of COMPONENT_NAMES.filter((n) => n !== known)) {
       const designQ = quantity(values[name], values[name] * relU[name], COMPONENT_UNITS[name]);
-      quantities.push(compare(name, designQ, derived[name], limit));
+      quantities.push(judge(name, designQ, derived[name], () => toleranceLimits(design, (d) => d.components[name].value)));
     }
     notes.push(`R, L, C from the fit take ${known} at its design value (${known} has the tightest tolerance unless chosen).`);
   }
   if (!physical && !fit.tau) notes.push('The fitted alpha or omega0 is not positive: no components or likely cause can be derived.');
-  const shapeOut = quantities.some((q) => !q.inTolerance);
+  const transitions = limitedTransitionRows(design, fit.transitions, fit.t0?.value ?? 0, rule);
+  quantities.push(...transitions.rows);
+  notes.push(...transitions.notes);
+  const unused = DIRECT_ROWS.concat('f0').filter((name) => design.limits?.[name as LimitedQuantity] && !quantities.some((q) => q.name === name));
+  if (unused.length) notes.push(`Not decided here though the design limits it: ${unused.join(', ')} (a part taken at its design value, or a single decay).`);
+  const shapeOut = quantities.some(deviates);
   if (shapeOut && componentCause) {
     if (componentCause.explains < EXPLAINS_WELL) notes.push('No single component explains the deviation well: more than one part may have moved, or the topology differs.');
     if (componentCause.component === known) {
@@ -179,19 +196,19 @@ export function checkDesign(
 
   const startsAfterEvent = measured.time.length > 0 && (fit.t0?.value ?? 0) < measured.time[0];
   const observed = observedLevels(design, fit, startsAfterEvent);
-  const levels = observed ? levelRows(design, observed, limit) : [];
+  const levels = observed ? levelRows(design, observed, rule) : [];
   quantities.push(...levels);
-  if (observed) notes.push(...levelNotes(design, limit, startsAfterEvent, levels));
+  if (observed) notes.push(...levelNotes(design, startsAfterEvent, levels));
   let likelyCause = shapeOut ? componentCause : null;
-  if (observed && levels.some((q) => !q.inTolerance)) {
+  if (observed && levels.some(deviates)) {
     // The levels may follow the part that moved (a coil current's swing goes as sqrt(C / L)): the source is
-    // named only when the levels are still out with that part at its implied value.
+    // named only when the levels still deviate with that part at its implied value.
     const moved =
       shapeOut && componentCause && componentCause.explains >= EXPLAINS_WELL && componentCause.component !== 'source'
         ? withComponent(design, componentCause.component, 1 + componentCause.change)
         : design;
-    const movedRows = moved === design ? levels : levelRows(moved, observed, limit);
-    if (moved !== design && movedRows.every((q) => q.inTolerance)) {
+    const movedRows = moved === design ? levels : levelRows(moved, observed, rule);
+    if (moved !== design && !movedRows.some(deviates)) {
       notes.push(`The levels move with ${componentCause!.component}: at its implied value they are in tolerance.`);
     } else {
       likelyCause = sourceCause(moved, movedRows);
@@ -211,12 +228,26 @@ export function checkDesign(
 
   return {
     pass: quantities.every((q) => q.inTolerance),
+    decision: combineZones(quantities.map((q) => q.zone)),
+    rule,
     quantities,
     rmsDifference: rmsDifference(design, fit, measured),
     likelyCause,
     sensitivities,
     notes,
   };
+}
+
+const LIMITS_NOTE =
+  'Limits: those the design states (limits), else the extremes over the corners of the component tolerances; each zone compares the measured value ± U with them.';
+
+/** omega0 as the natural frequency f0 = omega0 / 2 pi, Hz. */
+function inHertz(omega: Quantity): Quantity {
+  return quantity(omega.value / (2 * Math.PI), omega.stderr === null ? null : omega.stderr / (2 * Math.PI), 'Hz');
+}
+
+function nominalValues(design: Design): Record<ComponentName, number> {
+  return { R: design.components.R.value, L: design.components.L.value, C: design.components.C.value };
 }
 
 /**
@@ -259,13 +290,6 @@ function slowTimeConstant(design: Design): Quantity {
   return quantity(nominal, nominal * Math.sqrt(squares), 's');
 }
 
-function compare(name: string, design: Quantity, measured: Quantity, limit: number): VerdictQuantity {
-  const diff = Math.abs(measured.value - design.value);
-  const sigma = Math.hypot(measured.stderr ?? 0, design.stderr ?? 0);
-  const marginSigma = sigma > 0 ? diff / sigma : diff === 0 ? 0 : Infinity;
-  return { name, design, measured, marginSigma, inTolerance: marginSigma <= limit };
-}
-
 /** The component with the tightest tolerance, leaving out `except` (the likely cause: it did not stay at its design value). */
 function tightestComponent(design: Design, except?: ComponentName | 'source'): ComponentName {
   return KNOWN_PREFERENCE.filter((name) => name !== except).reduce((best, name) =>
@@ -299,22 +323,26 @@ function observedLevels(design: Design, fit: FittedResponse, startsAfterEvent: b
 /**
  * The observed levels against the design's: before the event and final; with the swing too when the
  * design's two levels are equal (a current or a resistor voltage, whose levels do not show the step).
- * The design's uncertainty: the level tolerance of the larger of the level and the swing, and the
+ * Limits: the level's extremes over the tolerance corners, widened by the level tolerance of the larger of
+ * the level and the swing. The design's uncertainty (for the margin): that level tolerance and the
  * component tolerances carried through to first order, all rectangular.
  */
-function levelRows(design: Design, observed: ObservedLevels, limit: number): VerdictQuantity[] {
+function levelRows(design: Design, observed: ObservedLevels, rule: DecisionRule): VerdictQuantity[] {
   const unit = probeUnit(design);
   const expected = designLevels(design);
-  const u = toleranceToRelativeUncertainty(levelTolerance(design));
+  const tolerance = levelTolerance(design);
+  const u = toleranceToRelativeUncertainty(tolerance);
   const spread = componentSpread(design, expected);
-  const designed = (key: keyof DesignLevels) => {
+  const row = (key: keyof DesignLevels, level: Quantity) => {
     const scale = key === 'swing' ? expected.swing : Math.max(Math.abs(expected[key]), expected.swing);
-    return quantity(expected[key], Math.hypot(u * scale, spread[key]), unit);
+    const designed = quantity(expected[key], Math.hypot(u * scale, spread[key]), unit);
+    const limits = widenLimits(toleranceLimits(design, (d) => designLevels(d)[key]), tolerance * scale);
+    return judgeQuantity(LEVEL_NAMES[key], designed, level, limits, 'tolerances', rule);
   };
   const rows: VerdictQuantity[] = [];
-  if (observed.preLevel) rows.push(compare(LEVEL_NAMES.preLevel, designed('preLevel'), observed.preLevel, limit));
-  rows.push(compare(LEVEL_NAMES.finalValue, designed('finalValue'), observed.finalValue, limit));
-  if (observed.swing && expected.preLevel === expected.finalValue) rows.push(compare(LEVEL_NAMES.swing, designed('swing'), observed.swing, limit));
+  if (observed.preLevel) rows.push(row('preLevel', observed.preLevel));
+  rows.push(row('finalValue', observed.finalValue));
+  if (observed.swing && expected.preLevel === expected.finalValue) rows.push(row('swing', observed.swing));
   return rows.filter((q) => Number.isFinite(q.measured.value));
 }
 
@@ -337,15 +365,15 @@ function levelTolerance(design: Design): number {
   return design.source.levelTolerance ?? DEFAULT_LEVEL_TOLERANCE;
 }
 
-function levelNotes(design: Design, limit: number, startsAfterEvent: boolean, rows: readonly VerdictQuantity[]): string[] {
+function levelNotes(design: Design, startsAfterEvent: boolean, rows: readonly VerdictQuantity[]): string[] {
   const tolerance = levelTolerance(design);
   const stated = design.source.levelTolerance === undefined ? `${DEFAULT_LEVEL_TOLERANCE * 100} % (the design states no source.levelTolerance)` : `${tolerance * 100} % (source.levelTolerance)`;
   const notes = [
-    `Levels in tolerance: within ${limit} sigma, the design's level uncertainty from ${stated} of the larger of the level and the swing and from the component tolerances, rectangular.`,
+    `Level limits: the extremes over the tolerance corners widened by ${stated} of the larger of the level and the swing.`,
   ];
   if (startsAfterEvent) notes.push('The record starts after the event: the level before it is not observed, so it is not checked.');
   if (rows.some((q) => q.name === LEVEL_NAMES.swing)) {
-    notes.push('The swing, sqrt(a^2 + (slope / omega0)^2) at the event, has no fitted standard error: its margin uses the design uncertainty alone.');
+    notes.push('The swing, sqrt(a^2 + (slope / omega0)^2) at the event, has no fitted standard error: it is decided on its value alone and its margin uses the design uncertainty alone.');
   }
   return notes;
 }
@@ -397,13 +425,14 @@ function levelKey(rowName: string): keyof DesignLevels {
  * a weighted norm would let the far more precise omega0 make any candidate "explain" nearly all.
  */
 function explainDeviation(
-  alpha: VerdictQuantity,
-  omega0: VerdictQuantity,
+  designAlpha: number,
+  designOmega0: number,
+  fit: Pick<FittedResponse, 'alpha' | 'omega0'>,
   s: Verdict['sensitivities'],
   values: Record<ComponentName, number>,
 ): LikelyCause {
-  const da = Math.log(alpha.measured.value / alpha.design.value);
-  const dw = Math.log(omega0.measured.value / omega0.design.value);
+  const da = Math.log(fit.alpha.value / designAlpha);
+  const dw = Math.log(fit.omega0.value / designOmega0);
   const total = da * da + dw * dw;
   let best: LikelyCause | null = null;
   for (const name of COMPONENT_NAMES) {

@@ -1,0 +1,64 @@
+// Verdict rows for the step metrics a design limits directly (overshoot, settling times): the fitted model's
+// metrics against the design's own, with the design's limits.
+
+import { quantity, type Quantity } from '../quantity';
+import type { DecisionRule } from './decisionRule';
+import type { Design } from './design';
+import { modelTransitions, type ModelTransitions } from './modelTransitions';
+import { predictResponse, probeUnit } from './predict';
+import { judgeQuantity, type VerdictQuantity } from './quantityVerdict';
+import { evaluatePowerLaw, powerLawRelativeUncertainty, responseRelations } from './relations';
+import { toleranceToRelativeUncertainty } from './tolerance';
+
+/** The step metrics a design may limit, as the model metrics name them. */
+const METRICS = ['overshoot', 'settlingTime2', 'settlingTime5'] as const;
+type Metric = (typeof METRICS)[number];
+
+/** What the verdict reads of the fit's transition metrics (a FitSummary's `transitions`). */
+export interface FittedTransitions {
+  model: Pick<ModelTransitions, Metric> | null;
+  reason: string | null;
+}
+
+/**
+ * A row for each metric the design limits: the fitted model's value against the same metric of the design's
+ * predicted step (its standard uncertainty from the tolerances through alpha and omega0). A limited metric
+ * the fit did not measure (a ringdown, no fitted model metrics) gets a note instead of a row.
+ */
+export function limitedTransitionRows(design: Design, fitted: FittedTransitions | undefined, t0: number, rule: DecisionRule): { rows: VerdictQuantity[]; notes: string[] } {
+  const limited = METRICS.filter((name) => design.limits?.[name]);
+  if (!limited.length) return { rows: [], notes: [] };
+  const measured = fitted?.model ?? null;
+  const expected = designMetrics(design, t0);
+  if (!measured || !expected) {
+    const why = !measured ? (fitted?.reason ?? 'the fit gives no step metrics') : "the design's own response has no step to measure";
+    return { rows: [], notes: [`${limited.join(', ')} ${limited.length === 1 ? 'has' : 'have'} limits in the design but no verdict: ${why}.`] };
+  }
+  return { rows: limited.map((name) => judgeQuantity(name, expected[name], measured[name], design.limits![name]!, 'design', rule)), notes: [] };
+}
+
+function designMetrics(design: Design, t0: number): Record<Metric, Quantity> | null {
+  const p = predictResponse(design, t0);
+  const relations = responseRelations(design.topology);
+  const relU = {
+    R: toleranceToRelativeUncertainty(design.components.R.tolerance),
+    L: toleranceToRelativeUncertainty(design.components.L.tolerance),
+    C: toleranceToRelativeUncertainty(design.components.C.tolerance),
+  };
+  const values = { R: design.components.R.value, L: design.components.L.value, C: design.components.C.value };
+  const rate = (name: 'alpha' | 'omega0', unit: string) => {
+    const v = evaluatePowerLaw(relations[name], values);
+    return quantity(v, v * powerLawRelativeUncertainty(relations[name], relU), unit);
+  };
+  const unit = probeUnit(design);
+  const result = modelTransitions({
+    status: 'converged',
+    params: p,
+    alpha: rate('alpha', 's^-1'),
+    omega0: rate('omega0', 'rad/s'),
+    preLevel: quantity(p.yPre, null, unit),
+    finalValue: quantity(p.yFinal, null, unit),
+    correlation: null,
+  });
+  return result.metrics;
+}
