@@ -20,7 +20,8 @@ import { createBeforeAfterPanel } from './panels/beforeAfterPanel';
 import { createCautionsPanel } from './panels/cautionsPanel';
 import { createBenchLogPanel } from './panels/benchLogPanel';
 import { installFileDrop } from './fileDrop';
-import { installShortcuts } from './shortcuts';
+import { installShortcuts, type ShortcutCommand } from './shortcuts';
+import { createShortcutList } from './shortcutList';
 import type { MenuCommand } from './bridgeTypes';
 
 function boot(): void {
@@ -37,7 +38,12 @@ function boot(): void {
   }
   const plotRoot = h('div', { class: 'plot', id: 'fit-plot', attrs: { 'aria-label': 'Measured samples, fit, design prediction and residuals' } });
   const store = createStore(initialState(bridge.face), (run) => requestAnimationFrame(run));
-  const plot = new FitPlot(plotRoot, (window) => void actions.setWindow(window), (event) => void actions.chooseEvent(event));
+  const shortcutList = createShortcutList();
+  const plot = new FitPlot(plotRoot, {
+    onWindowChange: (window) => void actions.setWindow(window),
+    onEventChoice: (event) => void actions.chooseEvent(event),
+    onShowShortcuts: () => shortcutList.toggle(),
+  });
   const page = { showCaptureName: (name: string) => (document.title = `${name} — Ringbench`) };
   const actions = bindActions({ store, bridge, client: new FitClient('worker.js'), plot, page, counters: { running: 0, fitGeneration: 0, captures: 0 } });
   const toggleTheme = () => {
@@ -56,12 +62,6 @@ function boot(): void {
   const log = createBenchLogPanel(actions);
   for (const panel of [top, capture, fit, components, design, parasitic, beforeAfter, cautions, log]) store.subscribe(panel.render);
 
-  const legend = h(
-    'p',
-    { class: 'plot-key' },
-    h('span', { class: 'key window' }, 'fit window: drag its edges to refit'),
-    h('span', {}, 'drag on the plot to zoom, double-click to see the whole capture'),
-  );
   app.replaceChildren(
     top.root,
     top.banner,
@@ -71,7 +71,7 @@ function boot(): void {
       h(
         'div',
         { class: 'primary-column' },
-        h('section', { class: 'card plot-card', attrs: { 'aria-label': 'Plot' } }, plotRoot, legend),
+        h('section', { class: 'card plot-card', attrs: { 'aria-label': 'Plot' } }, plot.view),
         h('div', { class: 'pair' }, h('div', { class: 'stack' }, capture.root, components.root), fit.root),
         design.root,
         beforeAfter.root,
@@ -81,6 +81,7 @@ function boot(): void {
   );
   store.update();
 
+  document.body.append(shortcutList.root);
   const commands: Record<MenuCommand, () => void> = {
     'open-capture': () => void actions.pickCapture(),
     'open-design': () => void actions.pickDesign(),
@@ -91,7 +92,20 @@ function boot(): void {
   };
   bridge.onMenuCommand((command) => commands[command]());
   bridge.onCaptureOpened((opened) => void actions.openCapture(opened));
-  if (bridge.face === 'browser') installShortcuts(commands);
+  const keys: Record<ShortcutCommand, () => void> = {
+    ...commands,
+    'pan-earlier': () => plot.panTime(-1),
+    'pan-later': () => plot.panTime(1),
+    'zoom-in-time': () => plot.zoomTime('in'),
+    'zoom-out-time': () => plot.zoomTime('out'),
+    'zoom-in-level': () => plot.zoomLevel('in'),
+    'zoom-out-level': () => plot.zoomLevel('out'),
+    'whole-capture': () => plot.showWhole(),
+    'toggle-cursors': () => plot.toggleCursors(),
+    'toggle-markers': () => plot.toggleMarkers(),
+    'show-shortcuts': () => shortcutList.toggle(),
+  };
+  installShortcuts(keys, bridge.face === 'browser');
   installFileDrop(document.body, (file) => void actions.openDropped(file));
   // A last net: whatever slips through is shown in words, never left as a blank or a stack.
   window.addEventListener('unhandledrejection', (event) => {

@@ -1,4 +1,4 @@
-// Draws the open channel, its fit, the design's prediction and the fit window on the plot.
+// Draws the open channel, its fit, the design's prediction, the fit window and the step's metrics on the plot.
 
 import type { ActionContext } from './context';
 
@@ -17,5 +17,6 @@ export async function drawPlot(ctx: ActionContext): Promise<void> {
     design: design?.design ?? null,
     eventTime: state.eventTime ?? fit?.t0.value ?? 0,
     events: events ? events.list.map((e) => ({ index: e.index, onset: e.onset, end: e.end, fitted: e.index === events.chosen })) : [],
+    transitions: summary?.transitions ?? null,
   });
 }

@@ -1,14 +1,22 @@
-// The fit plot: measured samples, fitted curve, design prediction with its tolerance band, and the
-// residuals in a linked panel below (one shared time axis); the fit window as a draggable region.
+// The fit plot: measured samples, fitted curve, design prediction with its tolerance band, and the residuals in a linked
+// panel below (one shared time axis); the fit window with edge handles, measurement cursors and the step's markers.
 
 import { evaluateResponse } from '../../core/response/secondOrder';
 import { predictResponse, toleranceBand } from '../../core/circuit/predict';
 import type { Design } from '../../core/circuit/design';
 import type { ResponseParams } from '../../core/response/secondOrder';
 import { lowerBound, reduceMinMax } from '../../core/report/decimate';
+import type { TransitionSummary } from '../../core/circuit/transitionSummary';
 import type { TraceData } from '../workerProtocol';
+import { h } from '../dom';
 import { themeColor } from '../theme';
-import { plotly, type PlotlyElement, type PlotlyTrace } from './plotly';
+import { axisTicks, quantityName, type AxisTicks } from './axes';
+import { cursorReadouts, levelSymbol, placeCursors, type CursorId, type CursorPositions } from './cursors';
+import { HandleLayer, type HandleGeometry, type HandleSpec } from './handles';
+import { HoverTip } from './hoverTip';
+import { transitionMarks } from './markers';
+import { axisGeometry, fromPixel, plotly, type AxisGeometry, type PlotlyElement, type PlotlyTrace } from './plotly';
+import { keepWithin, paddedExtent, panBy, zoomAbout, type Range } from './viewRange';
 
 export interface PlotInput {
   /** Changes when another capture or channel is shown (the zoom is reset then). */
@@ -21,6 +29,18 @@ export interface PlotInput {
   eventTime: number;
   /** The events of a record holding several (empty otherwise): each marked at its onset, the one fitted picked out. */
   events: PlotEvent[];
+  /** The fit's step metrics, marked on the plot (overshoot, peak time, settling time); null without a fit. */
+  transitions: TransitionSummary | null;
+}
+
+/** What the plot asks of the page. */
+export interface PlotCallbacks {
+  /** An edge of the fit window was dragged to a new place (only ever by its handle). */
+  onWindowChange(window: { start: number; end: number }): void;
+  /** An event's label was clicked. */
+  onEventChoice(index: number): void;
+  /** The list of keys and gestures was asked for. */
+  onShowShortcuts(): void;
 }
 
 /** One event of a record as the plot marks it. */
@@ -40,31 +60,99 @@ interface Derived {
 
 /** Points of the band per plot column: the band is computed on a grid, not at every sample. */
 const BAND_POINTS_PER_COLUMN = 1.5;
-const WINDOW_DEBOUNCE_MS = 350;
 const MARKER_LIMIT = 3000;
+/** Zoom per 100 px of wheel travel (one notch of most mice); a trackpad's small steps zoom in proportion. */
+const WHEEL_ZOOM_PER_NOTCH = 1.25;
+const WHEEL_NOTCH_PX = 100;
+/** A key press moves the view by this share of its width, and zooms by this factor. */
+const KEY_PAN_SHARE = 0.1;
+const KEY_ZOOM = 1.5;
+/** Room above and below the curves when the level range is chosen automatically, as a share of their extent. */
+const LEVEL_PAD = 0.05;
+const RESIDUAL_PAD = 0.1;
+/** Domains of the main and residual panels on the plot's height. */
+const MAIN_DOMAIN: Range = [0.3, 1];
+const RESIDUAL_DOMAIN: Range = [0, 0.22];
 
 export class FitPlot {
+  /** The plot with its handles, hover readout, cursor readouts and tools: what the page places. */
+  readonly view: HTMLElement;
+  private readonly frame: HTMLElement;
+  private readonly handles: HandleLayer;
+  private readonly tip: HoverTip;
+  private readonly readout = h('div', { class: 'plot-readout', id: 'cursor-readout', attrs: { 'aria-live': 'polite' } });
+  /** How to use the plot, in a line; the cursors' readouts take its place while they are shown. */
+  private readonly hints = h(
+    'p',
+    { class: 'plot-key' },
+    h('span', { class: 'key window' }, 'fit window: drag its edge handles to refit'),
+    h('span', {}, 'drag or wheel to zoom, double-click for the whole capture'),
+  );
+  private readonly cursorButton: HTMLButtonElement;
+  private readonly markerButton: HTMLButtonElement;
   private input: PlotInput | null = null;
   private derived: Derived = { model: null, residual: null, prediction: null };
-  private xRange: [number, number] | null = null;
-  private yRange: [number, number] | null = null;
-  private windowTimer: ReturnType<typeof setTimeout> | null = null;
+  /** The views chosen by zooming; null shows the whole capture (time) or fits the curves shown (levels). */
+  private xRange: Range | null = null;
+  private yRange: Range | null = null;
+  private y2Range: Range | null = null;
+  /** The level range of the last draw (chosen or automatic): where the keys zoom from. */
+  private shownY: Range | null = null;
+  private cursors: CursorPositions | null = null;
+  private cursorsShown = false;
+  private markersShown = true;
   private drawing: Promise<void> = Promise.resolve();
+  private drawQueued = false;
   private bound = false;
   /** The events labelled on the plot, in the order of its annotations. */
   private shownEvents: PlotEvent[] = [];
 
   constructor(
     private readonly root: HTMLElement,
-    private readonly onWindowChange: (window: { start: number; end: number }) => void,
-    private readonly onEventChoice: (index: number) => void,
-  ) {}
+    private readonly callbacks: PlotCallbacks,
+  ) {
+    const layer = h('div', { class: 'plot-overlay' });
+    this.frame = h('div', { class: 'plot-frame', attrs: { tabindex: '0', 'aria-label': 'Plot: press ? for its keys' } }, root, layer);
+    this.tip = new HoverTip(this.frame);
+    this.frame.append(this.tip.element);
+    this.handles = new HandleLayer(layer, (id, value, done) => this.handleMoved(id, value, done));
+    const tool = (id: string, text: string, title: string, run: () => void) =>
+      h('button', { class: 'quiet plot-tool', id, title, attrs: { type: 'button' }, on: { click: run } }, text);
+    this.cursorButton = tool('plot-cursors', 'Cursors', 'Two time and two level cursors with Δt, 1/Δt and ΔV (C)', () => this.toggleCursors());
+    this.markerButton = tool('plot-markers', 'Markers', 'Overshoot, peak time and settling time of the step (M)', () => this.toggleMarkers());
+    this.view = h(
+      'div',
+      { class: 'plot-view' },
+      this.frame,
+      h(
+        'div',
+        { class: 'plot-bar' },
+        this.hints,
+        this.readout,
+        h(
+          'div',
+          { class: 'plot-tools' },
+          tool('plot-whole', 'Whole capture', 'Show the whole capture (0 or double-click)', () => this.showWhole()),
+          this.cursorButton,
+          this.markerButton,
+          tool('plot-keys', 'Keys ?', 'Keys and gestures (?)', () => this.callbacks.onShowShortcuts()),
+        ),
+      ),
+    );
+    this.readout.hidden = true;
+    this.frame.addEventListener('pointerdown', () => this.frame.focus({ preventScroll: true }));
+    this.frame.addEventListener('pointerleave', () => this.tip.hide());
+    this.frame.addEventListener('wheel', (event) => this.wheel(event), { passive: false });
+    this.showToolState();
+  }
 
-  /** Show new data; the zoom is kept while the capture and channel stay the same. */
+  /** Show new data; the zoom and the cursors are kept while the capture and channel stay the same. */
   show(input: PlotInput): Promise<void> {
     if (this.input?.key !== input.key) {
       this.xRange = null;
       this.yRange = null;
+      this.y2Range = null;
+      this.cursors = null;
     }
     this.input = input;
     const { trace, params } = input;
@@ -80,13 +168,24 @@ export class FitPlot {
     this.input = null;
     this.derived = { model: null, residual: null, prediction: null };
     this.bound = false;
+    this.handles.place([], null);
+    this.tip.hide();
+    this.readout.hidden = true;
+    this.hints.hidden = false;
     this.drawing = this.drawing.then(() => plotly().purge(this.root)).catch(() => undefined);
     return this.drawing;
   }
 
-  /** Redraw with the current theme and size. */
+  /** Redraw with the current theme, size and view; calls while a draw waits share it. */
   redraw(): Promise<void> {
-    this.drawing = this.drawing.then(() => this.draw()).catch(() => undefined);
+    if (this.drawQueued) return this.drawing;
+    this.drawQueued = true;
+    this.drawing = this.drawing
+      .then(() => {
+        this.drawQueued = false;
+        return this.draw();
+      })
+      .catch(() => undefined);
     return this.drawing;
   }
 
@@ -95,14 +194,76 @@ export class FitPlot {
     return plotly().toImage(this.root, { format, width: Math.round(width), height: Math.round(height), scale: format === 'png' ? 2 : 1 });
   }
 
+  /** Move the time view a step earlier (-1) or later (1), inside the capture. */
+  panTime(direction: -1 | 1): void {
+    const span = this.span();
+    if (!span) return;
+    this.xRange = keepWithin(panBy(this.xRange ?? span, direction * KEY_PAN_SHARE), span);
+    void this.redraw();
+  }
+
+  /** Zoom time in or out about the middle of the view. */
+  zoomTime(direction: 'in' | 'out'): void {
+    const span = this.span();
+    if (!span) return;
+    const view = this.xRange ?? span;
+    this.xRange = keepWithin(zoomAbout(view, (view[0] + view[1]) / 2, keyZoom(direction), span), span);
+    void this.redraw();
+  }
+
+  /** Zoom the level (vertical) in or out about the middle of the main panel. */
+  zoomLevel(direction: 'in' | 'out'): void {
+    const view = this.yRange ?? this.shownY;
+    if (!view) return;
+    this.yRange = zoomAbout(view, (view[0] + view[1]) / 2, keyZoom(direction));
+    void this.redraw();
+  }
+
+  /** The whole capture in time, the levels fitted to it again. */
+  showWhole(): void {
+    this.xRange = null;
+    this.yRange = null;
+    this.y2Range = null;
+    void this.redraw();
+  }
+
+  toggleCursors(): void {
+    this.cursorsShown = !this.cursorsShown;
+    const span = this.span();
+    if (this.cursorsShown && span && this.shownY) {
+      const x = this.xRange ?? span;
+      const inView = (p: CursorPositions) => [p.t1, p.t2].every((t) => t >= x[0] && t <= x[1]);
+      if (!this.cursors || !inView(this.cursors)) this.cursors = placeCursors(x, this.yRange ?? this.shownY);
+    }
+    this.showToolState();
+    this.placeHandles();
+  }
+
+  toggleMarkers(): void {
+    this.markersShown = !this.markersShown;
+    this.showToolState();
+    void this.redraw();
+  }
+
+  private span(): Range | null {
+    const time = this.input?.trace.time;
+    return time && time.length > 0 ? [time[0], time[time.length - 1]] : null;
+  }
+
+  private showToolState(): void {
+    this.cursorButton.setAttribute('aria-pressed', String(this.cursorsShown));
+    this.markerButton.setAttribute('aria-pressed', String(this.markersShown));
+  }
+
   private async draw(): Promise<void> {
     const input = this.input;
     if (!input) return;
     const started = performance.now();
     const { trace, window } = input;
-    const full: [number, number] = [trace.time[0], trace.time[trace.time.length - 1]];
+    const full: Range = [trace.time[0], trace.time[trace.time.length - 1]];
     const [x0, x1] = this.xRange ?? full;
     const width = Math.max(200, Math.round(this.root.clientWidth - 90));
+    const height = Math.max(200, this.root.clientHeight - 80);
     const traces: PlotlyTrace[] = [];
     const colors = palette();
 
@@ -111,6 +272,7 @@ export class FitPlot {
     if (input.design && prediction) traces.push(...this.designTraces(input.design, prediction.t0, x0, x1, width, colors));
     const measured = reduceMinMax(trace.time, trace.values, x0, x1, width);
     traces.push({ ...line('Measured', measured.x, measured.y, colors.data, 1, 'solid', 'y'), legendrank: 1 });
+    let residualShown: ArrayLike<number>[] = [];
     if (model && residual && window) {
       const w0 = Math.max(x0, window.start);
       const w1 = Math.min(x1, window.end);
@@ -120,12 +282,20 @@ export class FitPlot {
         traces.push({ ...line('Fit', fit.x, fit.y, colors.fit, 2, 'solid', 'y'), legendrank: 2 });
         const res = reduceMinMax(trace.time, residual, w0, w1, columns);
         traces.push({ ...line('Residual', res.x, res.y, colors.data, 1, 'solid', 'y2'), showlegend: false });
+        residualShown = [res.y];
       }
     }
     traces.push(...markerTraces(trace, x0, x1, colors));
     const events = input.events.filter((e) => e.onset >= x0 && e.onset <= x1).slice(0, MARKER_LIMIT);
     this.shownEvents = events;
     if (events.length) traces.push(eventLines(events, measured.y, colors));
+
+    const levels = this.yRange ?? paddedExtent(traces.filter((t) => t.yaxis === 'y' && t.y).map((t) => t.y as ArrayLike<number>), LEVEL_PAD) ?? [-1, 1];
+    const residuals = this.y2Range ?? paddedExtent(residualShown, RESIDUAL_PAD) ?? [-1, 1];
+    this.shownY = levels;
+    const marks = this.markersShown ? transitionMarks(input.transitions ?? undefined, x1, colors) : null;
+    const mainHeight = height * (MAIN_DOMAIN[1] - MAIN_DOMAIN[0]);
+    const residualHeight = height * (RESIDUAL_DOMAIN[1] - RESIDUAL_DOMAIN[0]);
 
     const layout = {
       paper_bgcolor: 'rgba(0,0,0,0)',
@@ -134,63 +304,64 @@ export class FitPlot {
       margin: { l: 72, r: 18, t: 34, b: 46 },
       showlegend: true,
       legend: { orientation: 'h', x: 0, y: 1.02, yanchor: 'bottom', traceorder: 'normal', bgcolor: 'rgba(0,0,0,0)', font: { size: 12 } },
-      hovermode: 'closest',
+      hovermode: 'x',
+      // The few labels plotly still draws itself (an event's hint) in the bench's own look.
+      hoverlabel: { bgcolor: colors.surface, bordercolor: colors.accent, font: { family: colors.font, size: 12, color: colors.text } },
       dragmode: 'zoom',
-      xaxis: {
-        anchor: 'y2',
-        range: [x0, x1],
-        title: { text: 'Time', standoff: 6 },
-        ...axisStyle(colors, 's'),
-      },
-      yaxis: {
-        domain: [0.3, 1],
-        title: { text: quantityName(trace.unit), standoff: 4 },
-        ...axisStyle(colors, trace.unit),
-        ...(this.yRange ? { range: this.yRange, autorange: false } : { autorange: true }),
-      },
+      xaxis: { anchor: 'y2', range: [x0, x1], ...axisStyle(colors, axisTicks([x0, x1], 's', 'Time', width, 'x'), 6) },
+      yaxis: { domain: MAIN_DOMAIN, range: levels, autorange: false, ...axisStyle(colors, axisTicks(levels, trace.unit, quantityName(trace.unit), mainHeight, 'y'), 4) },
       yaxis2: {
-        domain: [0, 0.22],
-        title: { text: 'Residual', standoff: 4 },
-        ...axisStyle(colors, trace.unit),
+        domain: RESIDUAL_DOMAIN,
+        range: residuals,
+        autorange: false,
+        ...axisStyle(colors, axisTicks(residuals, trace.unit, 'Residual', residualHeight, 'y'), 4),
         zeroline: true,
         zerolinecolor: colors.axis,
         zerolinewidth: 1,
-        autorange: true,
-        nticks: 4,
       },
-      // The window: a shaded region below the traces, and its two edges above them as draggable lines.
-      shapes: window
-        ? [
-            { type: 'rect', xref: 'x', yref: 'paper', x0: window.start, x1: window.end, y0: 0, y1: 1, fillcolor: colors.window, line: { width: 0 }, layer: 'below' },
-            edgeLine(window.start, colors.windowEdge),
-            edgeLine(window.end, colors.windowEdge),
-          ]
-        : [],
-      // Each event's number above its onset: a click on it fits that event.
-      annotations: events.map((e) => ({
-        x: e.onset,
-        xref: 'x',
-        y: 1,
-        yref: 'paper',
-        yanchor: 'top',
-        text: e.fitted ? `<b>${e.index}</b>` : String(e.index),
-        showarrow: false,
-        captureevents: true,
-        bgcolor: colors.window,
-        bordercolor: e.fitted ? colors.fit : colors.axis,
-        borderwidth: 1,
-        font: { color: e.fitted ? colors.fit : colors.text, size: 11 },
-        hovertext: e.fitted ? `event ${e.index}: the one fitted` : `event ${e.index}: click to fit it`,
-      })),
+      // The window: a shaded region below the traces and its two edges above them; the step's marks after them.
+      shapes: [
+        ...(window
+          ? [
+              { type: 'rect', xref: 'x', yref: 'paper', x0: window.start, x1: window.end, y0: 0, y1: 1, fillcolor: colors.window, line: { width: 0 }, layer: 'below' },
+              edgeLine(window.start, colors.windowEdge),
+              edgeLine(window.end, colors.windowEdge),
+            ]
+          : []),
+        ...(marks?.shapes ?? []),
+      ],
+      // Each event's number above its onset (a click on it fits that event), then the step's marks.
+      annotations: [
+        ...events.map((e) => ({
+          x: e.onset,
+          xref: 'x',
+          y: 1,
+          yref: 'paper',
+          yanchor: 'top',
+          text: e.fitted ? `<b>${e.index}</b>` : String(e.index),
+          showarrow: false,
+          captureevents: true,
+          bgcolor: colors.window,
+          bordercolor: e.fitted ? colors.fit : colors.axis,
+          borderwidth: 1,
+          font: { color: e.fitted ? colors.fit : colors.text, size: 11 },
+          hovertext: e.fitted ? `event ${e.index}: the one fitted` : `event ${e.index}: click to fit it`,
+        })),
+        ...(marks?.annotations ?? []),
+      ],
     };
     const root = await plotly().react(this.root, traces, layout, {
       displayModeBar: false,
       responsive: true,
-      edits: { shapePosition: true },
-      doubleClick: 'reset',
+      // Shapes never move by a drag on the plot: a drag zooms, and only the window's edge handles move the window.
+      edits: { shapePosition: false },
+      scrollZoom: false,
+      // A double-click shows the whole current capture (handled here: plotly's reset returns to the first one drawn).
+      doubleClick: false,
       showTips: false,
     });
     this.bindEvents(root);
+    this.placeHandles();
     const elapsed = performance.now() - started;
     this.root.dataset.redrawMs = elapsed.toFixed(1);
     this.root.dataset.redraws = String(Number(this.root.dataset.redraws ?? '0') + 1);
@@ -214,52 +385,128 @@ export class FitPlot {
     ];
   }
 
+  private geometry(): { x: AxisGeometry; y: AxisGeometry; y2: AxisGeometry } | null {
+    const x = axisGeometry(this.root, 'xaxis');
+    const y = axisGeometry(this.root, 'yaxis');
+    const y2 = axisGeometry(this.root, 'yaxis2');
+    return x && y && y2 ? { x, y, y2 } : null;
+  }
+
+  /** The window's edge handles and, when shown, the cursors, where the last draw put the axes. */
+  private placeHandles(): void {
+    const input = this.input;
+    const g = this.geometry();
+    if (!input || !g) return this.handles.place([], null);
+    const geometry: HandleGeometry = { x: g.x, y: g.y, top: g.y.offset, bottom: g.y2.offset + g.y2.length };
+    const specs: HandleSpec[] = [];
+    if (input.window) {
+      specs.push(
+        { id: 'window-start', axis: 'x', value: input.window.start, kind: 'window', label: '', title: 'Fit window start: drag to refit from here' },
+        { id: 'window-end', axis: 'x', value: input.window.end, kind: 'window', label: '', title: 'Fit window end: drag to refit up to here' },
+      );
+    }
+    const cursors = this.cursorsShown ? this.cursors : null;
+    if (cursors) {
+      const level = levelSymbol(input.trace.unit);
+      specs.push(
+        { id: 't1', axis: 'x', value: cursors.t1, kind: 'cursor', label: 'T1', title: 'Time cursor 1' },
+        { id: 't2', axis: 'x', value: cursors.t2, kind: 'cursor', label: 'T2', title: 'Time cursor 2' },
+        { id: 'v1', axis: 'y', value: cursors.v1, kind: 'cursor', label: `${level}1`, title: 'Level cursor 1' },
+        { id: 'v2', axis: 'y', value: cursors.v2, kind: 'cursor', label: `${level}2`, title: 'Level cursor 2' },
+      );
+    }
+    this.handles.place(specs, geometry);
+    this.showReadouts();
+  }
+
+  private showReadouts(): void {
+    const cursors = this.cursorsShown ? this.cursors : null;
+    this.readout.hidden = !cursors || !this.input;
+    this.hints.hidden = !this.readout.hidden;
+    if (!cursors || !this.input) return;
+    this.readout.replaceChildren(
+      ...cursorReadouts(cursors, this.input.trace.unit).map((r) =>
+        h('span', { class: 'readout', data: { readout: r.id, value: String(r.value) } }, h('span', { class: 'readout-label' }, r.label), h('span', { class: 'readout-value', id: `cursor-${r.id}` }, r.text)),
+      ),
+    );
+  }
+
+  private handleMoved(id: string, value: number, done: boolean): void {
+    const window = this.input?.window;
+    if (id === 'window-start' || id === 'window-end') {
+      if (!done || !window) return;
+      const other = id === 'window-start' ? window.end : window.start;
+      this.callbacks.onWindowChange({ start: Math.min(value, other), end: Math.max(value, other) });
+      return;
+    }
+    if (!this.cursors) return;
+    this.cursors = { ...this.cursors, [id as CursorId]: value };
+    this.showReadouts();
+  }
+
+  /** The wheel zooms time about the pointer; with Shift, or over the level axis, it zooms the level of the panel under it. */
+  private wheel(event: WheelEvent): void {
+    const g = this.geometry();
+    const span = this.span();
+    if (!g || !span) return;
+    const box = this.root.getBoundingClientRect();
+    const px = event.clientX - box.left;
+    const py = event.clientY - box.top;
+    const inside = (axis: AxisGeometry, pixel: number) => pixel >= axis.offset && pixel <= axis.offset + axis.length;
+    const overTime = inside(g.x, px);
+    const overLevelAxis = px < g.x.offset && (inside(g.y, py) || inside(g.y2, py));
+    const delta = event.deltaY || event.deltaX;
+    if ((!overTime && !overLevelAxis) || delta === 0) return;
+    event.preventDefault();
+    const factor = WHEEL_ZOOM_PER_NOTCH ** (delta / WHEEL_NOTCH_PX);
+    if (event.shiftKey || overLevelAxis) {
+      const residualPanel = inside(g.y2, py);
+      const axis = residualPanel ? g.y2 : g.y;
+      const zoomed = zoomAbout(axis.range, fromPixel(axis, py, true), factor);
+      if (residualPanel) this.y2Range = zoomed;
+      else this.yRange = zoomed;
+    } else {
+      this.xRange = keepWithin(zoomAbout(this.xRange ?? span, fromPixel(g.x, px, false), factor, span), span);
+    }
+    void this.redraw();
+  }
+
   private bindEvents(root: PlotlyElement): void {
     if (this.bound) return;
     this.bound = true;
     root.on('plotly_relayout', (update) => this.handleRelayout(update));
+    root.on('plotly_doubleclick', () => this.showWhole());
+    // Plotly also redraws by itself (a resize of the window): the handles follow every drawing.
+    root.on('plotly_afterplot', () => this.placeHandles());
+    root.on('plotly_hover', (hover) => this.input && this.tip.show(hover, this.input.trace.unit));
+    root.on('plotly_unhover', () => this.tip.hide());
     root.on('plotly_clickannotation', (data) => {
       const index = (data as { index?: number }).index;
       const event = index === undefined ? undefined : this.shownEvents[index];
-      if (event && !event.fitted) this.onEventChoice(event.index);
+      if (event && !event.fitted) this.callbacks.onEventChoice(event.index);
     });
   }
 
+  /** A box zoom or an axis drag on the plot: the ranges it chose are kept and the plot redrawn for them. */
   private handleRelayout(update: Record<string, unknown>): void {
-    const keys = Object.keys(update);
-    if (keys.some((k) => k.startsWith('shapes['))) {
-      const shapes = (this.root as PlotlyElement).layout?.shapes as { x0: number; x1: number }[] | undefined;
-      if (shapes?.length === 3) {
-        const a = (shapes[1].x0 + shapes[1].x1) / 2;
-        const b = (shapes[2].x0 + shapes[2].x1) / 2;
-        this.queueWindow(Math.min(a, b), Math.max(a, b));
-      }
-      return;
-    }
+    const ranges: [string, (r: Range | null) => void][] = [
+      ['xaxis', (r) => (this.xRange = r)],
+      ['yaxis', (r) => (this.yRange = r)],
+      ['yaxis2', (r) => (this.y2Range = r)],
+    ];
     let changed = false;
-    if (update['xaxis.autorange'] === true || update.autosize === true) {
-      this.xRange = null;
-      this.yRange = null;
-      changed = true;
+    for (const [axis, keep] of ranges) {
+      const range = rangeOf(update, axis);
+      if (range) keep(range);
+      if (update[`${axis}.autorange`] === true) keep(null);
+      changed ||= range !== null || update[`${axis}.autorange`] === true;
     }
-    const x = rangeOf(update, 'xaxis');
-    if (x) {
-      this.xRange = x;
-      changed = true;
-    }
-    const y = rangeOf(update, 'yaxis');
-    if (y) this.yRange = y;
-    if (update['yaxis.autorange'] === true) this.yRange = null;
     if (changed) void this.redraw();
   }
+}
 
-  private queueWindow(start: number, end: number): void {
-    if (this.windowTimer !== null) clearTimeout(this.windowTimer);
-    this.windowTimer = setTimeout(() => {
-      this.windowTimer = null;
-      this.onWindowChange({ start, end });
-    }, WINDOW_DEBOUNCE_MS);
-  }
+function keyZoom(direction: 'in' | 'out'): number {
+  return direction === 'in' ? 1 / KEY_ZOOM : KEY_ZOOM;
 }
 
 interface Palette {
@@ -272,6 +519,10 @@ interface Palette {
   clipped: string;
   axis: string;
   text: string;
+  muted: string;
+  surface: string;
+  accent: string;
+  marker: string;
   font: string;
 }
 
@@ -286,12 +537,22 @@ function palette(): Palette {
     clipped: themeColor('plot-clipped'),
     axis: themeColor('plot-axis'),
     text: themeColor('ink'),
+    muted: themeColor('ink-muted'),
+    surface: themeColor('surface'),
+    accent: themeColor('accent'),
+    marker: themeColor('plot-marker'),
     font: themeColor('font-sans'),
   };
 }
 
-function axisStyle(colors: Palette, unit: string): Record<string, unknown> {
+/** An axis drawn in the bench's colours, its ticks labelled in the prefix its title names. */
+function axisStyle(colors: Palette, ticks: AxisTicks, standoff: number): Record<string, unknown> {
   return {
+    title: { text: ticks.title, standoff, font: { size: 12, color: colors.muted } },
+    tickmode: 'array',
+    tickvals: ticks.tickvals,
+    ticktext: ticks.ticktext,
+    tickfont: { size: 11, color: colors.text },
     showgrid: false,
     zeroline: false,
     showline: true,
@@ -301,20 +562,17 @@ function axisStyle(colors: Palette, unit: string): Record<string, unknown> {
     ticks: 'outside',
     tickcolor: colors.axis,
     ticklen: 4,
-    exponentformat: 'SI',
-    // SI ticks read '200n' and '1.5µ': the unit joins the prefix ('200ns').
-    ticksuffix: unit,
     automargin: true,
   };
 }
 
-/** One edge of the fit window: a vertical line across both panels that the user drags. */
+/** One edge of the fit window: a vertical line across both panels (its handle, over the plot, is what moves it). */
 function edgeLine(x: number, color: string): Record<string, unknown> {
   return { type: 'line', xref: 'x', yref: 'paper', x0: x, x1: x, y0: 0, y1: 1, line: { color, width: 3 }, layer: 'above' };
 }
 
 function line(name: string, x: ArrayLike<number>, y: ArrayLike<number>, color: string, width: number, dash: string, yaxis: 'y' | 'y2'): PlotlyTrace {
-  return { type: 'scatter', mode: 'lines', name, x, y, yaxis, line: { color, width, dash, simplify: false }, hoverinfo: 'x+y+name' };
+  return { type: 'scatter', mode: 'lines', name, x, y, yaxis, line: { color, width, dash, simplify: false }, hoverinfo: 'none' };
 }
 
 /** The events' onsets as dashed vertical lines over the samples' span (one trace, broken between events). */
@@ -335,12 +593,12 @@ function markerTraces(trace: TraceData, x0: number, x1: number, colors: Palette)
   const clipped = within(trace.clippedTimes, x0, x1);
   if (clipped.length) {
     const y = clipped.map((t) => trace.values[Math.min(trace.values.length - 1, lowerBound(trace.time, t))]);
-    out.push({ type: 'scatter', mode: 'markers', name: 'Clipped samples (not fitted)', x: clipped, y, yaxis: 'y', marker: { symbol: 'x-thin', size: 7, color: colors.clipped, line: { width: 1.5, color: colors.clipped } } });
+    out.push({ type: 'scatter', mode: 'markers', name: 'Clipped samples (not fitted)', x: clipped, y, yaxis: 'y', hoverinfo: 'none', marker: { symbol: 'x-thin', size: 7, color: colors.clipped, line: { width: 1.5, color: colors.clipped } } });
   }
   const gaps = within(trace.gapTimes, x0, x1);
   if (gaps.length) {
     const low = Math.min(...reduceMinMax(trace.time, trace.values, x0, x1, 50).y);
-    out.push({ type: 'scatter', mode: 'markers', name: 'Dropped rows (gaps)', x: gaps, y: gaps.map(() => low), yaxis: 'y', marker: { symbol: 'triangle-up', size: 8, color: colors.clipped } });
+    out.push({ type: 'scatter', mode: 'markers', name: 'Dropped rows (gaps)', x: gaps, y: gaps.map(() => low), yaxis: 'y', hoverinfo: 'skip', marker: { symbol: 'triangle-up', size: 8, color: colors.clipped } });
   }
   return out;
 }
@@ -358,8 +616,4 @@ function rangeOf(update: Record<string, unknown>, axis: string): [number, number
   const a = update[`${axis}.range[0]`];
   const b = update[`${axis}.range[1]`];
   return a !== undefined && b !== undefined ? [Number(a), Number(b)] : null;
-}
-
-function quantityName(unit: string): string {
-  return unit === 'V' ? 'Voltage' : unit === 'A' ? 'Current' : 'Value';
 }
