@@ -24,6 +24,9 @@ export interface MeasurementSettings {
   valueUnit?: string;
   /** The segment read, given only when asked for (--segment). */
   segment?: string;
+  /** The probe attenuation and reversal applied to the channel, given only when stated (--probe-ratio, --invert). */
+  probeRatio?: string;
+  invert?: boolean;
 }
 
 /** Cautions as logged: the standing advice and deferral are the same for every record and left out. */

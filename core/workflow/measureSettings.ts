@@ -5,6 +5,7 @@ import { UsageError } from '../inputError';
 import { parseStatedUnit, type StatedUnit } from '../units/unitText';
 import type { FitWindow } from './measure';
 import type { KnownPartRequest } from './measuredComponents';
+import { parseProbeRatio, type ProbeScaling } from './probeScaling';
 import { parseChannel, parseKnown, parseSignedTime, parseTime, parseTopology } from './userValues';
 
 /** The settings as typed; every field optional. */
@@ -32,6 +33,10 @@ export interface MeasureSettings {
   event?: string;
   /** The measured quantity jumps at the event (a capacitor's current, an inductor's voltage). Default: found from the data. */
   jumpStart?: boolean;
+  /** Probe attenuation the scope did not apply, e.g. '10' or '10:1': the channel's values are multiplied by it. Default 1. */
+  probeRatio?: string;
+  /** The probe was connected reversed: the channel's values change sign. Default false. */
+  invert?: boolean;
 }
 
 export interface ParsedMeasureSettings {
@@ -47,6 +52,8 @@ export interface ParsedMeasureSettings {
   event?: number;
   /** 'free' when the start is stated to jump; absent to let the fit find out. */
   continuity?: 'free';
+  /** Applied to the chosen channel (applyProbe) before the fit; absent when neither was given. */
+  probe?: ProbeScaling;
 }
 
 export function parseMeasureSettings(settings: MeasureSettings): ParsedMeasureSettings {
@@ -67,6 +74,9 @@ export function parseMeasureSettings(settings: MeasureSettings): ParsedMeasureSe
   if (settings.segment !== undefined) parsed.segment = parseSegmentNumber(settings.segment);
   if (settings.event !== undefined) parsed.event = parseEventNumber(settings.event);
   if (settings.jumpStart) parsed.continuity = 'free';
+  if (settings.probeRatio !== undefined || settings.invert) {
+    parsed.probe = { ratio: settings.probeRatio === undefined ? 1 : parseProbeRatio(settings.probeRatio, '--probe-ratio'), invert: settings.invert ?? false };
+  }
   if (settings.topology !== undefined && settings.known !== undefined) {
     parsed.knownPart = { topology: parseTopology(settings.topology), known: parseKnown(settings.known) };
   }

@@ -42,6 +42,8 @@ export function createBenchRecord(m: FileMeasurement, label: MeasurementLabel, o
       ...(options.timeUnit === undefined ? {} : { timeUnit: options.timeUnit }),
       ...(options.valueUnit === undefined ? {} : { valueUnit: options.valueUnit }),
       ...(options.segment === undefined ? {} : { segment: options.segment }),
+      ...(options.probeRatio === undefined ? {} : { probeRatio: options.probeRatio }),
+      ...(options.invert ? { invert: true } : {}),
     },
     fit: m.summary,
     verdict: m.verdict,

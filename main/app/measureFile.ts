@@ -11,6 +11,7 @@ import { measureCapture, type MeasureResult } from '../../core/workflow/measure'
 import { parseMeasureSettings, type MeasureSettings } from '../../core/workflow/measureSettings';
 import { loadCapture, readFileBytes, type LoadedCapture } from '../io/captureFile';
 import { readingOptionsOf } from './readingOptions';
+import { applyProbe } from '../../core/workflow/probeScaling';
 
 export interface LoadedDesign {
   path: string;
@@ -31,9 +32,10 @@ export function loadDesignFile(path: string, cwd: string): LoadedDesign {
   return { path: full, sha256: createHash('sha256').update(bytes).digest('hex'), design: parseDesign(bytes.toString('utf8')) };
 }
 
-/** The capture file read with the settings' channel, sample interval, time-order rule and stated units. */
+/** The capture file read with the settings' channel, sample interval, time-order rule and stated units; the probe's scale and sign applied to the channel. */
 export function loadCaptureFor(file: string, settings: MeasureSettings, cwd: string): LoadedCapture {
-  return loadCapture(file, { cwd, ...readingOptionsOf(settings) });
+  const loaded = loadCapture(file, { cwd, ...readingOptionsOf(settings) });
+  return { ...loaded, channel: applyProbe(loaded.channel, parseMeasureSettings(settings).probe) };
 }
 
 /** Fit one capture file; with a design, its verdict; the cautions from its samples. A part or design that cannot be used throws. */

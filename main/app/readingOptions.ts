@@ -25,5 +25,7 @@ export function settingsOfRecord(s: MeasurementSettings): MeasureSettings {
     timeUnit: s.timeUnit,
     valueUnit: s.valueUnit,
     segment: s.segment,
+    probeRatio: s.probeRatio,
+    invert: s.invert,
   };
 }

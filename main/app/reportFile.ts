@@ -14,6 +14,8 @@ import { readFileBytes } from '../io/captureFile';
 import { parseCaptureFileBytes } from '../../core/capture/parseCapture';
 import { selectChannel } from '../../core/capture/selectChannel';
 import { readingOptionsOf, settingsOfRecord } from './readingOptions';
+import { parseMeasureSettings } from '../../core/workflow/measureSettings';
+import { applyProbe } from '../../core/workflow/probeScaling';
 import { FileError } from '../io/fileError';
 import { writeFileAtomic } from '../io/atomicFile';
 import { VERSION } from '../version';
@@ -47,8 +49,9 @@ export function loadReportTraces(records: readonly BenchRecord[]): ReportTraces 
         continue;
       }
       // Read as it was when logged: the same channel, interval, time order and stated units.
-      const { channel: chosen, ...reading } = readingOptionsOf(settingsOfRecord(record.settings));
-      const channel = selectChannel(parseCaptureFileBytes(bytes, reading), chosen);
+      const settings = settingsOfRecord(record.settings);
+      const { channel: chosen, ...reading } = readingOptionsOf(settings);
+      const channel = applyProbe(selectChannel(parseCaptureFileBytes(bytes, reading), chosen), parseMeasureSettings(settings).probe);
       result.traces[record.id] = { time: channel.time, values: channel.values, unit: channel.unit, name: channel.name };
     } catch (error) {
       const missing = error instanceof FileError && /no such file/.test(error.message);

@@ -9,7 +9,7 @@ export interface MeasureCommandOptions extends MeasureSettings {
   json?: boolean;
 }
 
-/** --column, --sample-interval, --time-unit, --value-unit, --from, --to, --sort-time, --event, --segment, --jump-start. */
+/** --column, --sample-interval, --time-unit, --value-unit, --from, --to, --sort-time, --event, --segment, --jump-start, --probe-ratio, --invert. */
 export function addCaptureOptions(command: Command): Command {
   return command
     .option('--column <name|index>', 'channel to fit: its name or 0-based index (default: the first)')
@@ -21,7 +21,9 @@ export function addCaptureOptions(command: Command): Command {
     .option('--sort-time', 'sort out-of-order time stamps instead of failing')
     .option('--segment <n>', 'in a file of repeated acquisitions (segments), read segment n (1 = the first, the default)')
     .option('--event <n>', 'in a record holding several events, measure event n (1 = the first; default: the first complete one)')
-    .option('--jump-start', 'the measured quantity jumps at the event (a capacitor current, an inductor voltage): fit its initial value freely (default: found from the data)');
+    .option('--jump-start', 'the measured quantity jumps at the event (a capacitor current, an inductor voltage): fit its initial value freely (default: found from the data)')
+    .option('--probe-ratio <ratio>', "probe attenuation the scope did not apply, e.g. 10 or 10:1: the channel's values are multiplied by it (default 1)")
+    .option('--invert', "the probe was connected reversed: the channel's values change sign before the fit");
 }
 
 /** --topology and --known: derive R, L and C from the fit. */
@@ -36,6 +38,6 @@ export function addComponentOptions(command: Command): Command {
 
 /** The measuring settings alone, without --json and command-specific options. */
 export function measureSettingsOf(options: MeasureCommandOptions): MeasureSettings {
-  const { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime, event, segment, jumpStart } = options;
-  return { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime, event, segment, jumpStart };
+  const { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime, event, segment, jumpStart, probeRatio, invert } = options;
+  return { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime, event, segment, jumpStart, probeRatio, invert };
 }
