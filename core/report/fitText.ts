@@ -1,6 +1,7 @@
 // A fit summary as the readable table the command line prints.
 
 import { formatEngineering } from '../units/format';
+import { escapeControls } from './escape';
 import { fitWarnings, type FitSummary } from './fitSummary';
 import { formatEventsText } from './eventsText';
 import { importRows } from './importText';
@@ -14,7 +15,8 @@ function line(label: string, text: string): string {
 }
 
 export function formatFitText(s: FitSummary): string {
-  let text = `${s.file} (${s.channel})\n`;
+  // The file and channel names come from outside (a file system, a capture header): shown with controls escaped.
+  let text = `${escapeControls(s.file)} (${escapeControls(s.channel)})\n`;
   // What the importer inferred comes first: a misread file explains any result below it.
   for (const row of s.import ? importRows(s.import) : []) text += line(row.label, row.text);
   text += line('status', `${s.status}${s.status === 'converged' ? '' : `: ${s.message}`}`);

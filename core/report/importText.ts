@@ -1,7 +1,9 @@
 // What the importer inferred, as labelled lines of text: the one wording every face shows (fit, reports, the window).
+// Names taken from the file (columns, units, keys) are shown with their control characters escaped.
 
 import type { ChannelImport, DelimiterName, ImportSummary, TimeSource } from '../capture/importSummary';
 import { formatEngineering } from '../units/format';
+import { escapeControls } from './escape';
 
 export interface ImportRow {
   label: string;
@@ -35,8 +37,8 @@ function table(s: ImportSummary): string {
 
 /** Where the time came from, in words: the column and its unit, or the interval and where it was stated. */
 export function timeSourceText(time: TimeSource): string {
-  if (time.kind === 'column') return `column '${time.column}' ${time.unit === '' ? '(no unit: seconds)' : `in ${time.unit}`}`;
-  const where = time.from === 'option' ? '--sample-interval' : `'${time.key}' on line ${time.line}`;
+  if (time.kind === 'column') return `column '${escapeControls(time.column)}' ${time.unit === '' ? '(no unit: seconds)' : `in ${escapeControls(time.unit)}`}`;
+  const where = time.from === 'option' ? '--sample-interval' : `'${escapeControls(time.key ?? '')}' on line ${time.line}`;
   return `interval ${formatEngineering(time.interval, 's')} from ${where}`;
 }
 
@@ -52,7 +54,7 @@ function channel(c: ChannelImport): string {
   const counts = [plural(c.samples, 'sample')];
   if (c.dropped > 0) counts.push(`${c.dropped.toLocaleString('en')} dropped`);
   if (c.clipped > 0) counts.push(`${c.clipped.toLocaleString('en')} clipped`);
-  return `${c.name}${c.unit ? ` (${c.unit})` : ''}: ${counts.join(', ')}`;
+  return `${escapeControls(c.name)}${c.unit ? ` (${escapeControls(c.unit)})` : ''}: ${counts.join(', ')}`;
 }
 
 function droppedRows(s: ImportSummary): string {

@@ -1,6 +1,7 @@
 // The bench log as the table `ringbench log list` prints: one line per measurement.
 
 import type { BenchRecord } from './benchRecord';
+import { escapeControls } from './escape';
 import { briefValue, regimeTag } from './resultRows';
 import { recordStatus } from './yieldSummary';
 
@@ -12,7 +13,7 @@ const COLUMNS = ['time', 'unit', 'regime', 'f0', 'zeta', 'verdict'] as const;
 export function formatLogTable(records: readonly BenchRecord[]): string {
   const rows = records.map((r) => [
     r.time.slice(0, 19).replace('T', ' '),
-    printable(r.unit),
+    escapeControls(r.unit),
     regimeTag(r.fit) ?? NONE,
     briefValue(r.fit, 'f0'),
     briefValue(r.fit, 'zeta'),
@@ -21,9 +22,4 @@ export function formatLogTable(records: readonly BenchRecord[]): string {
   const widths = COLUMNS.map((name, c) => Math.max(name.length, ...rows.map((row) => row[c].length)));
   const line = (cells: readonly string[]) => cells.map((cell, c) => cell.padEnd(widths[c])).join('  ').trimEnd();
   return [line(COLUMNS), ...rows.map(line)].map((l) => `${l}\n`).join('');
-}
-
-/** Control characters shown as '?' so that a unit id cannot move the terminal's cursor. */
-function printable(text: string): string {
-  return text.replace(/[\u0000-\u001f\u007f-\u009f]/g, '?');
 }

@@ -30,6 +30,12 @@ export interface ReportOptions {
   logNotes?: string[];
 }
 
+/**
+ * What the report may load, stated in the file itself so it holds wherever the file is opened: nothing but its
+ * inline styles (and data: images); no script at all, no base URL to rewrite its links, no form to send.
+ */
+export const REPORT_CSP = "default-src 'none'; style-src 'unsafe-inline'; img-src data:; base-uri 'none'; form-action 'none'";
+
 export function renderReportHtml(records: readonly BenchRecord[], options: ReportOptions): string {
   const summary = summarizeYield(records);
   const title = options.title ?? 'Bench report';
@@ -46,6 +52,7 @@ export function renderReportHtml(records: readonly BenchRecord[], options: Repor
     '<html lang="en">',
     '<head>',
     '<meta charset="utf-8">',
+    `<meta http-equiv="Content-Security-Policy" content="${REPORT_CSP}">`,
     '<meta name="viewport" content="width=device-width, initial-scale=1">',
     `<meta name="generator" content="${e(options.software.name)} ${e(options.software.version)}">`,
     `<title>${e(title)}</title>`,

@@ -3,7 +3,7 @@
 import { formatEngineering, formatMeasured } from '../units/format';
 import { DEFERRAL, STANDING_ADVICE, STANDING_ADVICE_SOURCE } from '../safety/standingAdvice';
 import type { BenchRecord } from './benchRecord';
-import { escapeMarkdown as m } from './escape';
+import { escapeMarkdown as m, markdownCode } from './escape';
 import { importRows } from './importText';
 import { fitResultRows, fitStateText, fitTransitionRows, marginText, showTime, transitionNote } from './resultRows';
 import { reproduceCommand } from './reproduce';
@@ -82,6 +82,6 @@ function measurement(record: BenchRecord, notes: string[]): string[] {
   for (const c of record.cautions.fired) {
     lines.push('', `**Caution**, ${m(c.checks)} ${m(formatEngineering(c.measured.value, c.measured.unit))}: ${m(c.message)} (${m(c.source)}, ${c.certainty})`);
   }
-  lines.push('', `Reproduce: \`${reproduceCommand(record).replace(/`/g, "'")}\` (capture sha256 ${m(record.capture.sha256)}, ${m(record.software.name)} ${m(record.software.version)}, record ${m(record.id)})`);
+  lines.push('', `Reproduce: ${markdownCode(reproduceCommand(record))} (capture sha256 ${m(record.capture.sha256)}, ${m(record.software.name)} ${m(record.software.version)}, record ${m(record.id)})`);
   return lines;
 }

@@ -283,8 +283,10 @@ describe('formatLogTable and reproduceCommand', () => {
     expect(table[2]).toMatch(/SN041 .* fail$/);
   });
 
-  it('shows control characters in a unit id as ?', () => {
-    expect(formatLogTable([sampleRecord({ unit: 'SN\u001b[2J42' })])).toContain('SN?[2J42');
+  it('shows control and bidirectional characters in a unit id escaped', () => {
+    const table = formatLogTable([sampleRecord({ unit: 'SN\u001b[2J42\u202e\u0000' })]);
+    expect(table).toContain('SN\\u001b[2J42\\u202e\\u0000');
+    expect(table).not.toMatch(/[\u0000-\u0009\u000b-\u001f\u202e]/);
   });
 
   it('quotes paths and values for a POSIX shell', () => {
