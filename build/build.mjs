@@ -15,7 +15,8 @@ const PLOTLY = at('node_modules/plotly.js-dist/plotly.js');
 await Promise.all([
   build({
     ...common,
-    entryPoints: { cli: 'main/cli/index.ts' },
+    // batch's worker threads run dist/batchWorker.js, found beside dist/cli.js (main/app/batchWorkerStart.ts).
+    entryPoints: { cli: 'main/cli/index.ts', batchWorker: 'main/app/batchWorker.ts' },
     outdir: 'dist',
     platform: 'node',
     format: 'esm',

@@ -122,7 +122,7 @@ describe('log add: nothing logged for a failed fit', () => {
 describe('batch: every file fitted, each one shown with its status and warnings', () => {
   it('one failed fit among good ones: all fitted, a status and a warnings column, only the converged ones logged, exit 1', async () => {
     const log = path.join(folder, 'batch.jsonl');
-    const { code, out, err } = await run(['batch', '.', '--log', log], folder);
+    const { code, out, err } = await run(['batch', '.', '--log', log, '--jobs', '1'], folder);
     expect(err).toBe('');
     expect(code).toBe(1);
     const [header, ...rows] = out.trimEnd().split('\n');
@@ -157,7 +157,7 @@ describe('batch: every file fitted, each one shown with its status and warnings'
 
   it.each(FAILED_STATUSES)('every fit ending in %s: exit 1', async (status) => {
     forced.status = status;
-    const { code, out } = await run(['batch', '.', '--json'], folder);
+    const { code, out } = await run(['batch', '.', '--json', '--jobs', '1'], folder); // in this thread: the fit mock reaches no worker
     expect(code).toBe(1);
     expect((JSON.parse(out) as { status: string }[]).map((e) => e.status)).toEqual([status, status, status]);
   });

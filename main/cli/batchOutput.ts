@@ -1,0 +1,48 @@
+// What `batch` prints: the table, the JSON array (in folder order), and one JSON Lines object per capture.
+
+import { isMeasured, type BatchOutcome } from '../app/batchFile';
+import type { FailureText } from '../../core/inputError';
+import { briefValue, regimeTag } from '../../core/report/resultRows';
+import { fitWarnings } from '../../core/report/fitSummary';
+
+/** As errors.ts words it: bad input keeps its own text; anything else is marked as a failure of ours. */
+function failureMessage({ input, text }: FailureText): string {
+  return input ? text : `internal error: ${text}`;
+}
+
+/** One element of `--json`: the fit summary with its file, verdict, noVerdict and cautions; { file, error } for a capture not measured. */
+export function batchJsonOf(outcome: BatchOutcome): object {
+  if (!isMeasured(outcome)) return { file: outcome.file, error: failureMessage(outcome.failure) };
+  const { summary, verdict, cautions, noVerdict, file } = outcome;
+  return { ...summary, file, verdict, ...(noVerdict ? { noVerdict } : {}), cautions };
+}
+
+/** One line of `--jsonl`: as `--json`'s element; a capture not measured is { file, status: 'error', message }. */
+export function batchJsonLine(outcome: BatchOutcome): string {
+  const object = isMeasured(outcome) ? batchJsonOf(outcome) : { file: outcome.file, status: 'error', message: failureMessage(outcome.failure) };
+  return `${JSON.stringify(object)}\n`;
+}
+
+export function formatBatchTable(outcomes: readonly BatchOutcome[]): string {
+  const header = ['file', 'status', 'warnings', 'regime', 'f0', 'zeta', 'Q', 'verdict', 'cautions'];
+  const rows = outcomes.map((outcome) => {
+    if (!isMeasured(outcome)) return [outcome.file, `error: ${failureMessage(outcome.failure)}`];
+    const { summary: s, verdict, cautions, noVerdict } = outcome;
+    return [
+      outcome.file,
+      s.status,
+      String(fitWarnings(s).length),
+      regimeTag(s) ?? '-',
+      briefValue(s, 'f0'),
+      briefValue(s, 'zeta'),
+      briefValue(s, 'Q'),
+      noVerdict ? 'none' : verdict ? (verdict.pass ? 'pass' : 'FAIL') : '-',
+      cautions.fired.length ? cautions.fired.map((c) => c.id).join(',') : '-',
+    ];
+  });
+  const widths = header.map((h, c) => Math.max(h.length, ...rows.filter((r) => r.length > 2).map((r) => r[c].length)));
+  const line = (cells: string[]) => (cells.length === 2 ? cells.join('  ') : cells.map((cell, c) => cell.padEnd(widths[c])).join('  ').trimEnd());
+  // Why a file got no verdict, one line each below the table (a reason is too long for a column).
+  const refusals = outcomes.flatMap((o) => (isMeasured(o) && o.noVerdict ? [`${o.file}: no verdict: ${o.noVerdict}`] : []));
+  return [line(header), ...rows.map(line), ...refusals].map((l) => `${l}\n`).join('');
+}
