@@ -20,6 +20,7 @@ import { createBeforeAfterPanel } from './panels/beforeAfterPanel';
 import { createCautionsPanel } from './panels/cautionsPanel';
 import { createBenchLogPanel } from './panels/benchLogPanel';
 import { installFileDrop } from './fileDrop';
+import { arrangeBench } from './benchLayout';
 import { installShortcuts, type ShortcutCommand } from './shortcuts';
 import { createShortcutList } from './shortcutList';
 import type { MenuCommand } from './bridgeTypes';
@@ -62,23 +63,19 @@ function boot(): void {
   const log = createBenchLogPanel(actions);
   for (const panel of [top, capture, fit, components, design, parasitic, beforeAfter, cautions, log]) store.subscribe(panel.render);
 
-  app.replaceChildren(
-    top.root,
-    top.banner,
-    h(
-      'main',
-      { class: 'bench' },
-      h(
-        'div',
-        { class: 'primary-column' },
-        h('section', { class: 'card plot-card', attrs: { 'aria-label': 'Plot' } }, plot.view),
-        h('div', { class: 'pair' }, h('div', { class: 'stack' }, capture.root, components.root), fit.root),
-        design.root,
-        beforeAfter.root,
-      ),
-      h('div', { class: 'side-column' }, cautions.root, log.root, parasitic.root),
-    ),
-  );
+  arrangeBench(app, {
+    topBar: top.root,
+    banner: top.banner,
+    plot: h('section', { class: 'card plot-card', attrs: { 'aria-label': 'Plot' } }, plot.view),
+    design: design.root,
+    capture: capture.root,
+    components: components.root,
+    fit: fit.root,
+    cautions: cautions.root,
+    extraction: parasitic.root,
+    beforeAfter: beforeAfter.root,
+    log: log.root,
+  });
   store.update();
 
   document.body.append(shortcutList.root);
