@@ -1,7 +1,7 @@
 // `batch --jobs`: the captures fitted on worker threads give the same table, JSON and log as in one thread, in folder
 // order whatever finishes first; the progress bar only on a terminal; the built command finds its worker from any folder.
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
