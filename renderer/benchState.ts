@@ -20,6 +20,8 @@ export interface OpenCaptureState {
   sample: SampleEntry | null;
   sha256: string;
   bytes: number;
+  /** The probe's ratio (as typed) and sign per channel index, set in the capture panel; a channel without one is read as the file gives it. */
+  probes?: Record<number, { ratioText: string; invert: boolean }>;
 }
 
 /** A capture the importer refused for a unit: shown with its one-line reason beside the unit choices that fix it. */

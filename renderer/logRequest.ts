@@ -20,6 +20,7 @@ export function buildLogRequest(state: BenchState, form: LogForm): BenchLogReque
   const channel = capture.info.channels[capture.channel];
   const { units } = state.reading;
   const segment = segmentRead(capture.info);
+  const probe = capture.probes?.[capture.channel];
   const input = state.componentsInput;
   const knownOption = components ? `${input.knownName}=${input.knownText.trim()}${input.toleranceText.trim() ? `,${input.toleranceText.trim().replace(/\s*%?$/, '%')}` : ''}` : null;
   const { advice: _advice, adviceSource: _source, deferral: _deferral, ...logged } = cautions ?? { fired: [], energies: {}, advice: [], adviceSource: '', deferral: '' };
@@ -39,6 +40,8 @@ export function buildLogRequest(state: BenchState, form: LogForm): BenchLogReque
       ...(units.timeUnit ? { timeUnit: units.timeUnit } : {}),
       ...(units.valueUnit ? { valueUnit: units.valueUnit } : {}),
       ...(segment > 1 ? { segment: String(segment) } : {}),
+      ...(probe?.ratioText ? { probeRatio: probe.ratioText } : {}),
+      ...(probe?.invert ? { invert: true } : {}),
     },
     fit: components ? { ...summary, components: { topology: components.topology, known: components.known, R: components.R, L: components.L, C: components.C } } : summary,
     verdict,

@@ -7,6 +7,7 @@ import { parseStatedUnit } from '../core/units/unitText';
 import { compareCaptures, type ComparisonSide } from '../core/workflow/compare';
 import { checkAgainstDesign, measureCapture, type MeasureResult } from '../core/workflow/measure';
 import { measureParasitics } from '../core/workflow/parasitics';
+import { applyProbe, type ProbeScaling } from '../core/workflow/probeScaling';
 import { plainMessage } from './plainMessage';
 import { describeCapture, traceData } from './traceData';
 import { unitRefusal } from './unitRefusal';
@@ -18,8 +19,8 @@ export interface HandledReply {
   transfer: ArrayBuffer[];
 }
 
-/** Captures kept parsed for refits, newest last. */
-const opened = new Map<string, { name: string; capture: Capture }>();
+/** Captures kept parsed for refits, newest last; each channel's probe scaling as the window set it. */
+const opened = new Map<string, { name: string; capture: Capture; probes: Map<number, ProbeScaling> }>();
 const KEEP = 4;
 
 /** Answer one request; invalid input throws (the worker turns it into a message). */
@@ -36,18 +37,24 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
         throw error;
       }
       opened.delete(request.captureId);
-      opened.set(request.captureId, { name: request.name, capture });
+      opened.set(request.captureId, { name: request.name, capture, probes: new Map() });
       while (opened.size > KEEP) opened.delete(opened.keys().next().value as string);
       return { value: { type: 'open', info: describeCapture(capture), refusal: null }, transfer: [] };
     }
+    case 'probe': {
+      const entry = openedCapture(request.captureId);
+      channelAt(entry.capture, request.channel); // refuses a channel the capture does not have
+      entry.probes.set(request.channel, request.probe);
+      return { value: { type: 'probe' }, transfer: [] };
+    }
     case 'trace': {
       const { capture } = openedCapture(request.captureId);
-      const trace = traceData(channelAt(capture, request.channel), capture.sampleInterval);
+      const trace = traceData(probedChannel(request.captureId, request.channel), capture.sampleInterval);
       return { value: { type: 'trace', trace }, transfer: [trace.time.buffer, trace.values.buffer, trace.clippedTimes.buffer, trace.gapTimes.buffer] as ArrayBuffer[] };
     }
     case 'measure': {
       const { name, capture } = openedCapture(request.captureId);
-      const channel = channelAt(capture, request.channel);
+      const channel = probedChannel(request.captureId, request.channel);
       progress(`fitting ${channel.values.length.toLocaleString('en')} samples`);
       let measured: MeasureResult;
       try {
@@ -62,8 +69,8 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
       return { value: { type: 'measure', reply: { result, fitError: null, verdictError: message(problems.verdict), componentsError: message(problems.components) } }, transfer: [] };
     }
     case 'check': {
-      const { name, capture } = openedCapture(request.captureId);
-      const channel = channelAt(capture, request.channel);
+      const { name } = openedCapture(request.captureId);
+      const channel = probedChannel(request.captureId, request.channel);
       progress('checking against the design');
       const { value: verdict, error: verdictError } = attempt(() => checkAgainstDesign(request.design, request.fit, channel, name, request.eventTime));
       return { value: { type: 'check', verdict, verdictError }, transfer: [] };
@@ -116,7 +123,13 @@ function statedUnits(units: StatedUnits): Pick<CaptureOptions, 'timeUnit' | 'val
   };
 }
 
-function openedCapture(id: string): { name: string; capture: Capture } {
+/** A channel of an open capture as the node saw it: the probe's ratio and sign the window set for it applied. */
+function probedChannel(id: string, index: number): Channel {
+  const { capture, probes } = openedCapture(id);
+  return applyProbe(channelAt(capture, index), probes.get(index));
+}
+
+function openedCapture(id: string): { name: string; capture: Capture; probes: Map<number, ProbeScaling> } {
   const entry = opened.get(id);
   if (!entry) throw new Error('the capture is no longer open; open it again');
   return entry;

@@ -8,6 +8,7 @@ import type { ParasiticsResult } from '../core/report/parasiticsText';
 import type { Comparison } from '../core/report/comparisonText';
 import type { FitWindow, MeasureResult } from '../core/workflow/measure';
 import type { KnownPartRequest } from '../core/workflow/measuredComponents';
+import type { ProbeScaling } from '../core/workflow/probeScaling';
 
 export type { FitWindow } from '../core/workflow/measure';
 
@@ -89,6 +90,8 @@ export interface ParasiticsAsk {
 export type WorkerRequest =
   | { id: number; type: 'open'; captureId: string; name: string; content: CaptureContent; sampleInterval?: number; reading?: CaptureReading }
   | { id: number; type: 'trace'; captureId: string; channel: number }
+  /** The probe's ratio and sign for one channel of an open capture: its trace, fits and checks use the scaled values from then on. */
+  | { id: number; type: 'probe'; captureId: string; channel: number; probe: ProbeScaling }
   | {
       id: number;
       type: 'measure';
@@ -125,6 +128,7 @@ export type WorkerReplyValue =
   | { type: 'open'; info: CaptureInfo; refusal: null }
   | { type: 'open'; info: null; refusal: UnitRefusal }
   | { type: 'trace'; trace: TraceData }
+  | { type: 'probe' }
   | { type: 'measure'; reply: MeasureReply }
   | { type: 'check'; verdict: Verdict | null; verdictError: string | null }
   | { type: 'parasitics'; result: ParasiticsResult }

@@ -14,6 +14,8 @@ import { exportPlot, exportReport } from './export';
 import { runExtraction, type ExtractionRow, type ExtractionSettings } from './extraction';
 import { chooseEvent, setWindow } from './fitWindow';
 import { pickCaptureFile, readSampleText } from './pickCaptures';
+import { stopWork } from './stopWork';
+import { setProbe } from './probe';
 
 export type BenchActions = ReturnType<typeof bindActions>;
 
@@ -44,5 +46,7 @@ export function bindActions(ctx: ActionContext) {
     runExtraction: (rows: readonly ExtractionRow[], settings: ExtractionSettings) => runExtraction(ctx, rows, settings),
     runComparison: (before: CaptureFile | null, after: CaptureFile | null, settings: CompareSettings) => runComparison(ctx, before, after, settings),
     dismissError: () => ctx.store.update((s) => (s.error = null)),
+    stopWork: () => stopWork(ctx),
+    setProbe: (ratioText: string, invert: boolean) => setProbe(ctx, ratioText, invert),
   };
 }

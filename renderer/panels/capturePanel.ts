@@ -1,6 +1,6 @@
 // The capture panel: open a file or a sample, choose the channel, and what the importer found.
 
-import { button, card, field, h, replaceChildren, select } from '../dom';
+import { button, card, field, h, replaceChildren, select, textInput } from '../dom';
 import { showValue } from '../show';
 import { importRows } from '../../core/report/importText';
 import type { BenchState } from '../benchState';
@@ -20,8 +20,22 @@ export function createCapturePanel(actions: BenchActions) {
     button('Open capture…', () => void actions.pickCapture(), { id: 'open-capture', class: 'primary', title: 'Open a scope export (Ctrl+O), or drop it on the window' }),
     field('Sample', sampleSelect),
   );
+  // The probe of the channel shown: built once, so typing is not undone by a redraw.
+  const probeRatio = textInput('', { id: 'probe-ratio', attrs: { placeholder: '1', 'aria-label': 'Probe ratio: the channel\'s values are multiplied by it' } });
+  const probeInvert = h('input', { id: 'probe-invert', attrs: { type: 'checkbox', 'aria-label': 'Probe connected reversed: the values change sign' } });
+  const applyProbe = () => void actions.setProbe(probeRatio.value, probeInvert.checked);
+  probeRatio.addEventListener('keydown', (e) => e.key === 'Enter' && applyProbe());
+  probeInvert.addEventListener('change', applyProbe);
+  const probeRow = h(
+    'div',
+    { class: 'probe-row', id: 'probe-row' },
+    field('Probe ratio', probeRatio, "values × ratio, e.g. 10 for 10:1 read as 1:1"),
+    h('label', { class: 'probe-invert' }, probeInvert, h('span', {}, 'inverted')),
+    button('Apply', applyProbe, { id: 'apply-probe', title: 'Scale the channel by the probe ratio (and turn it over) and fit again, as --probe-ratio and --invert do' }),
+  );
+  let probeShown = '';
   const details = h('div', { class: 'details' });
-  body.append(buttons, details);
+  body.append(buttons, probeRow, details);
   let samplesShown = '';
 
   function render(state: BenchState): void {
@@ -33,6 +47,14 @@ export function createCapturePanel(actions: BenchActions) {
     sampleSelect.value = state.capture?.opened.sampleId ?? '';
     const capture = state.capture;
     const refused = state.refused;
+    probeRow.hidden = !capture;
+    const probe = capture?.probes?.[capture.channel];
+    const probeKey = capture ? `${capture.key}:${capture.channel}:${probe?.ratioText ?? ''}:${probe?.invert ?? false}` : '';
+    if (probeKey !== probeShown && document.activeElement !== probeRatio) {
+      probeShown = probeKey;
+      probeRatio.value = probe?.ratioText ?? '';
+      probeInvert.checked = probe?.invert ?? false;
+    }
     if (!capture && refused) {
       replaceChildren(
         details,
