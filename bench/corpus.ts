@@ -1,6 +1,9 @@
 // `npm run bench:corpus`: fit a seeded corpus of varied captures with no hints; success rate, misses by cause, confident wrong answers, median time.
 //
-// Usage: tsx bench/corpus.ts [--count 500] [--seed 1] [--min-samples 1000] [--max-samples 200000] [--workers <cores>]
+// Then `ringbench batch` over the first --batch-count captures written as files, against a scipy loop: times, ratio, CPU use.
+//
+// Usage: tsx bench/corpus.ts [--count 500] [--seed 1] [--min-samples 1000] [--max-samples 200000] [--workers <cores>] [--batch-count 120] [--jobs <cores>]
+// (--count 0 or --batch-count 0 leaves that part out)
 
 import { spawn } from 'node:child_process';
 import { cpus } from 'node:os';
@@ -10,6 +13,7 @@ import { parseArgs } from 'node:util';
 import type { CorpusOutcome } from './corpusRun';
 import type { CorpusSpec } from './corpusCapture';
 import { fixed, formatTable, goalLine, machineLine } from './table';
+import { benchBatch } from './corpusBatch';
 
 const HERE = path.dirname(fileURLToPath(import.meta.url));
 
@@ -145,10 +149,12 @@ async function main(): Promise<void> {
       'min-samples': { type: 'string', default: '1000' },
       'max-samples': { type: 'string', default: '200000' },
       workers: { type: 'string', default: String(cpus().length) },
+      'batch-count': { type: 'string', default: '120' },
+      jobs: { type: 'string', default: String(cpus().length) },
     },
   });
-  const [count, seed, minSamples, maxSamples, workers] = [values.count, values.seed, values['min-samples'], values['max-samples'], values.workers].map(Number);
-  for (const [name, v, min] of [['--count', count, 1], ['--seed', seed, 0], ['--min-samples', minSamples, 100], ['--max-samples', maxSamples, minSamples], ['--workers', workers, 1]] as const) {
+  const [count, seed, minSamples, maxSamples, workers, batchCount, jobs] = [values.count, values.seed, values['min-samples'], values['max-samples'], values.workers, values['batch-count'], values.jobs].map(Number);
+  for (const [name, v, min] of [['--count', count, 0], ['--seed', seed, 0], ['--min-samples', minSamples, 100], ['--max-samples', maxSamples, minSamples], ['--workers', workers, 1], ['--batch-count', batchCount, 0], ['--jobs', jobs, 1]] as const) {
     if (!Number.isInteger(v) || v < min) throw new Error(`${name}: must be an integer >= ${min}`);
   }
   const began = performance.now();
@@ -158,9 +164,12 @@ async function main(): Promise<void> {
   );
   console.log('DC offsets, inverted polarity, step and natural responses, series and parallel, voltage and current; no hints: first channel, default options.');
   console.log('Success: alpha and omega0 within 3 of their standard errors of the truth, and omega0 within 2 % when zeta < 1.');
-  const outcomes = await runWorkers(seed, count, minSamples, maxSamples, workers);
-  printOutcomes(outcomes);
-  console.log(`\nElapsed: ${((performance.now() - began) / 1000).toFixed(0)} s with ${workers} worker(s)`);
+  if (count > 0) {
+    const outcomes = await runWorkers(seed, count, minSamples, maxSamples, workers);
+    printOutcomes(outcomes);
+    console.log(`\nElapsed: ${((performance.now() - began) / 1000).toFixed(0)} s with ${workers} worker(s)`);
+  }
+  if (batchCount > 0) benchBatch(seed, batchCount, { minSamples, maxSamples }, jobs, cpus().length);
 }
 
 await main();

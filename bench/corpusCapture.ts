@@ -39,6 +39,8 @@ export interface CorpusTruth {
 export interface CorpusCapture {
   spec: CorpusSpec;
   truth: CorpusTruth;
+  /** The response as written to the file (polarity and offset applied), before noise and the converter. */
+  written: ResponseParams;
   text: string;
 }
 
@@ -170,7 +172,8 @@ export function corpusCapture(spec: CorpusSpec, seed: number): CorpusCapture {
     const code = Math.min(CODES - 1, Math.max(0, Math.round((analog - mid) / q) + CODES / 2));
     rows.push(`${time[i].toExponential(9)},${(mid + (code - CODES / 2) * q).toPrecision(7)}`);
   }
-  return { spec, truth, text: `${rows.join('\n')}\n` };
+  const written = { ...params, yPre: sign * yPre + offset, yFinal: sign * yFinal + offset, a: sign * a, b: sign * b };
+  return { spec, truth, written, text: `${rows.join('\n')}\n` };
 }
 
 function channelName(measured: Measured): string {
