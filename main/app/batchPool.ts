@@ -15,23 +15,31 @@ export interface BatchCapture {
 /**
  * Measure every capture with `jobs` threads at once (1, or a single capture: in this thread, no worker); `onOutcome` is called
  * once per capture, in completion order, with the capture's index in `captures`. A handler that throws ends the batch.
+ * `startWorker` starts one worker thread (default: the batch worker of main/app/batchWorker.ts).
  */
 export async function measureBatch(
   captures: readonly BatchCapture[],
   batch: BatchSettings,
   jobs: number,
   onOutcome: (index: number, outcome: BatchOutcome) => void,
+  startWorker: (batch: BatchSettings) => Worker = startBatchWorker,
 ): Promise<void> {
   // A thread of its own only pays when two captures or more can be fitted at once.
   const threads = Math.min(jobs, captures.length);
   if (threads <= 1) {
     captures.forEach(({ path, file }, index) => onOutcome(index, measureBatchFile(path, file, batch)));
   } else {
-    await runOnWorkers(captures, batch, threads, onOutcome);
+    await runOnWorkers(captures, batch, threads, onOutcome, startWorker);
   }
 }
 
-function runOnWorkers(captures: readonly BatchCapture[], batch: BatchSettings, threads: number, finish: (index: number, outcome: BatchOutcome) => void): Promise<void> {
+function runOnWorkers(
+  captures: readonly BatchCapture[],
+  batch: BatchSettings,
+  threads: number,
+  finish: (index: number, outcome: BatchOutcome) => void,
+  startWorker: (batch: BatchSettings) => Worker,
+): Promise<void> {
   return new Promise((resolve, reject) => {
     let next = 0;
     let done = 0;
@@ -57,7 +65,7 @@ function runOnWorkers(captures: readonly BatchCapture[], batch: BatchSettings, t
     const launch = () => {
       let worker: Worker;
       try {
-        worker = startBatchWorker(batch);
+        worker = startWorker(batch);
       } catch (error) {
         abort(error);
         return;
