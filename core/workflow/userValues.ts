@@ -50,23 +50,30 @@ export function parseChannel(text: string): string | number {
   return /^\d+$/.test(text.trim()) ? Number(text.trim()) : text;
 }
 
-/** A positive time such as '2n', '2e-9', '2ns'. */
-export function parseTime(text: string, option: string): number {
+/** A time as written ('2n', '2e-9', '2ns'), any sign; text that is no finite time is refused. */
+function parseTimeText(text: string, option: string): number {
   let value: number;
   try {
     value = parseQuantityText(text, 's');
   } catch (error) {
     throw new UsageError(`${option} '${text}': ${(error as Error).message}`);
   }
-  if (!(value > 0) || !Number.isFinite(value)) throw new UsageError(`${option} '${text}': must be a positive time`);
+  if (!Number.isFinite(value)) throw new UsageError(`${option} '${text}': must be a finite time`);
   return value;
 }
 
-/** A time that may lie before the trigger: '-5n', '20n'. */
+/** A positive time such as '2n', '2e-9', '2ns'. */
+export function parseTime(text: string, option: string): number {
+  const value = parseTimeText(text, option);
+  if (!(value > 0)) throw new UsageError(`${option} '${text}': must be a positive time`);
+  return value;
+}
+
+/** A time on the capture's axis, which may lie before the trigger or at it: '-5n', '0', '20n'. */
 export function parseSignedTime(text: string, option: string): number {
-  const negative = text.trim().startsWith('-');
-  const value = parseTime(negative ? text.trim().slice(1) : text, option);
-  return negative ? -value : value;
+  const value = parseTimeText(text, option);
+  // Zero is a time like any other (the trigger); -0 is read as 0.
+  return value === 0 ? 0 : value;
 }
 
 /** '--added C=470p,1n' (or '470p,1n'): one added capacitance per capture after the first. */

@@ -1,5 +1,7 @@
 // Where a command writes: injected so that tests can run commands in-process.
 
+import { escapeControls } from '../../core/report/escape';
+
 export interface CliIo {
   out(text: string): void;
   err(text: string): void;
@@ -16,4 +18,12 @@ export function processIo(): CliIo {
     cwd: process.cwd(),
     interactive: Boolean(process.stderr.isTTY),
   };
+}
+
+/**
+ * The same output with every control character but line feed and tab shown escaped: whatever a command
+ * prints (a capture's header, a file name, a log record, commander's own messages) cannot drive the terminal.
+ */
+export function terminalSafe(io: CliIo): CliIo {
+  return { ...io, out: (text) => io.out(escapeControls(text, 'keep-layout')), err: (text) => io.err(escapeControls(text, 'keep-layout')) };
 }

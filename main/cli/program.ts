@@ -2,7 +2,7 @@
 
 import { Command, CommanderError } from 'commander';
 import { EXIT, exitCodeFor, messageFor } from './errors';
-import type { CliIo } from './io';
+import { terminalSafe, type CliIo } from './io';
 import { registerFitCommand } from './commands/fit';
 import { registerServeCommand } from './commands/serve';
 import { registerStartCommand } from './commands/start';
@@ -18,7 +18,8 @@ import type { CommandContext, RegisterCommand } from './commandContext';
 const COMMANDS: RegisterCommand[] = [registerFitCommand, registerCheckCommand, registerParasiticsCommand, registerCompareCommand, registerServeCommand, registerStartCommand, registerLogCommand, registerReportCommand, registerBatchCommand];
 
 /** Run the command line on `argv` (without node and script) and return the exit code. */
-export async function runCli(argv: string[], io: CliIo): Promise<number> {
+export async function runCli(argv: string[], rawIo: CliIo): Promise<number> {
+  const io = terminalSafe(rawIo);
   let exitCode: number = EXIT.ok;
   const ctx: CommandContext = { io, setExitCode: (code) => (exitCode = code) };
   const program = new Command('ringbench')

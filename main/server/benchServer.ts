@@ -8,6 +8,7 @@ import { resolveStaticFile, staticFileHeaders } from '../web/staticFiles';
 import { handleApiRequest, sendJson, type ApiDispatch } from './apiRoute';
 import { SECURITY_HEADERS } from '../web/securityHeaders';
 import { createToken } from './token';
+import { UsageError } from '../../core/inputError';
 
 export interface BenchServerOptions {
   /** Port to listen on; 0 (default) lets the system choose a free one. */
@@ -41,7 +42,7 @@ export async function startBenchServer(options: BenchServerOptions): Promise<Run
     });
   });
   await new Promise<void>((resolve, reject) => {
-    server.once('error', reject);
+    server.once('error', (error) => reject(listenError(error, options.port ?? 0)));
     server.listen(options.port ?? 0, LOOPBACK, () => resolve());
   });
   port = (server.address() as AddressInfo).port;
@@ -79,6 +80,13 @@ async function handleRequest(
   response.writeHead(200, { ...staticFileHeaders(file), 'Content-Length': statSync(file).size });
   if (request.method === 'HEAD') return void response.end();
   createReadStream(file).pipe(response);
+}
+
+/** A port that cannot be had is bad input (the --port the user chose), said in words; anything else stays as it is. */
+function listenError(error: NodeJS.ErrnoException, port: number): Error {
+  if (error.code === 'EADDRINUSE') return new UsageError(`port ${port} is in use; choose another with --port, or leave it out for any free port`);
+  if (error.code === 'EACCES') return new UsageError(`port ${port} needs privileges this user does not have; choose one above 1023 with --port`);
+  return error;
 }
 
 function sendText(response: ServerResponse, status: number, text: string): void {

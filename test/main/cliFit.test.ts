@@ -119,7 +119,7 @@ describe('ringbench check and parasitics', () => {
     writeFileSync(path.join(dir, 'board.json'), '{"format":"ringbench-design","version":1,"name":"x","topology":"series","components":{"R":{"value":-1}}}');
     const { code, err } = await run(['check', 'sample-captures/input-filter-step.csv', '--design', path.join(dir, 'board.json')]);
     expect(code).toBe(2);
-    expect(err).toMatch(/^ringbench: design /);
+    expect(err).toMatch(/^ringbench: \S+board\.json: design /);
   });
   it('parasitics recovers the switch-node loop and suggests a snubber', async () => {
     const files = ['switch-node-before.csv', 'switch-node-after-470p.csv', 'switch-node-after-1n.csv'].map((f) => path.join('sample-captures', f));

@@ -67,7 +67,7 @@ describe('fit with units it cannot read, then with the option that states them',
       expect(refused.code).toBe(2);
       expect(refused.out).toBe('');
       expect(refused.err.trim().split('\n')).toHaveLength(1);
-      expect(refused.err).toMatch(/^ringbench: line 1: /);
+      expect(refused.err).toMatch(/^ringbench: \S+: line 1: /);
       for (const part of c.refusal) expect(refused.err).toContain(part);
       const alpha = await alphaOf([c.file, ...c.fix]);
       expect(Math.abs(alpha - reference)).toBeLessThan(SAME_FIT * reference);
@@ -81,7 +81,7 @@ describe('fit with units it cannot read, then with the option that states them',
     const refused = await run(['fit', file]);
     expect(refused.code).toBe(2);
     expect(refused.out).toBe('');
-    expect(refused.err.trim().split('\n')).toEqual([expect.stringMatching(/^ringbench: line 1: 'Sample Interval': unit 'furlongs' is not recognised; .*--time-unit/)]);
+    expect(refused.err.trim().split('\n')).toEqual([expect.stringMatching(/^ringbench: \S+: line 1: 'Sample Interval': unit 'furlongs' is not recognised; .*--time-unit/)]);
     const fixed = await run(['fit', file, '--time-unit', 'ns', '--json']);
     expect(fixed.code).toBe(0);
     const json = JSON.parse(fixed.out);

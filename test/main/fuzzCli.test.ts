@@ -6,7 +6,8 @@ import path from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { parseCapture } from '../../core/capture/parseCapture';
-import { CaptureError } from '../../core/capture/types';
+import { InputError } from '../../core/inputError';
+import { messageFor, namingFile } from '../../main/cli/errors';
 import { runCliIn } from './cliHarness';
 
 const dir = mkdtempSync(path.join(tmpdir(), 'ringbench-fuzz-cli-'));
@@ -15,13 +16,13 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 const run = (args: string[]) => runCliIn(dir, args);
 
-/** What the importer alone says about the text: null when it reads, else its error message. */
+/** What the importer alone says about the text, as the command line prints it: null when it reads. */
 function importError(text: string): string | null {
   try {
-    parseCapture(text);
+    namingFile(FILE, () => parseCapture(text));
     return null;
   } catch (error) {
-    if (error instanceof CaptureError) return error.message;
+    if (error instanceof InputError) return messageFor(error);
     throw error;
   }
 }

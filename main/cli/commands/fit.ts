@@ -8,7 +8,7 @@ import { formatFitText } from '../../../core/report/fitText';
 import { fitSucceeded } from '../../../core/report/fitSummary';
 import { formatCautionsText } from '../../../core/safety/cautionText';
 import { addCaptureOptions, addComponentOptions, measureSettingsOf, type MeasureCommandOptions } from '../measureOptions';
-import { EXIT } from '../errors';
+import { EXIT, namingFile } from '../errors';
 
 export function registerFitCommand(program: Command, ctx: CommandContext): void {
   const command = program
@@ -18,7 +18,7 @@ export function registerFitCommand(program: Command, ctx: CommandContext): void 
   addCaptureOptions(addComponentOptions(command))
     .option('--json', 'print one JSON object instead of the table')
     .action((file: string, options: MeasureCommandOptions) => {
-      const { summary, cautions } = measureFile(file, measureSettingsOf(options), ctx.io.cwd);
+      const { summary, cautions } = namingFile(file, () => measureFile(file, measureSettingsOf(options), ctx.io.cwd));
       ctx.io.out(options.json ? `${JSON.stringify({ ...summary, cautions })}\n` : formatFitText(summary) + formatCautionsText(cautions));
       if (!fitSucceeded(summary)) ctx.setExitCode(EXIT.failure);
     });

@@ -9,7 +9,7 @@ import { formatParasiticsText } from '../../../core/report/parasiticsText';
 import { measureParasiticsOutcome } from '../../../core/workflow/parasitics';
 import { parseAddedCapacitances, parsePositiveValue, parseTolerance } from '../../../core/workflow/userValues';
 import { UsageError } from '../../../core/inputError';
-import { EXIT } from '../errors';
+import { EXIT, namingFile } from '../errors';
 
 interface ParasiticsOptions {
   added: string;
@@ -42,7 +42,7 @@ export function registerParasiticsCommand(program: Command, ctx: CommandContext)
       const added = [0, ...parseAddedCapacitances(options.added, files.length)];
       const request = {
         captures: files.map((file, i) => {
-          const loaded = loadCaptureFor(file, { column: options.column }, ctx.io.cwd);
+          const loaded = namingFile(file, () => loadCaptureFor(file, { column: options.column }, ctx.io.cwd));
           return { file: basename(file), channel: loaded.channel, captureWarnings: loaded.capture.warnings, addedC: added[i] };
         }),
         addedTolerance: options.addedTolerance === undefined ? 0 : parseTolerance(options.addedTolerance, '--added-tolerance'),
