@@ -111,6 +111,6 @@ export function combineZones(zones: readonly DecisionZone[]): DecisionZone {
 /** One line naming the rule and its parameters, and whether the design chose it. */
 export function describeDecisionRule(rule: DecisionRule): string {
   const band = rule.name === 'simple-acceptance' ? 'no guard band (w = 0)' : `guard band w = ${rule.guardBandFactor} U`;
-  const chosen = rule.source === 'design' ? 'chosen by the design' : 'the default; a design may set decisionRule';
-  return `${rule.name}, ${band}, U = k u with k = ${rule.coverageFactor} (${chosen}; ${rule.reference})`;
+  const chosen = rule.source === 'design' ? 'chosen by the design' : 'the default, a design may set decisionRule';
+  return `${rule.name}, ${band}, U = k u with k = ${rule.coverageFactor} (${chosen}); after ${rule.reference}`;
 }

@@ -18,6 +18,12 @@ export interface VerdictQuantity {
   zone: DecisionZone;
   /** Accepted under the verdict's decision rule (kept under its old name for scripts). */
   inTolerance: boolean;
+  /**
+   * Whether the quantity enters the unit's decision and pass. False for R, L or C derived with another part
+   * taken at its design value when the design states no limit for it: one ring measures alpha and omega0,
+   * not three parts, so such a row carries the assumed part's tolerance and is shown for diagnosis only.
+   */
+  counted: boolean;
 }
 
 /** The row of one quantity: its zone from value ± k u against the limits, its acceptance under the rule. */
@@ -44,10 +50,11 @@ export function judgeQuantity(
     expandedUncertainty,
     zone: decisionZone(measured.value, U, limits),
     inTolerance: accepts(rule, measured.value, U, limits),
+    counted: true,
   };
 }
 
-/** Whether a quantity differs from its design enough to look for a cause: not accepted, or its value beyond a limit. */
+/** Whether a quantity differs from its design enough to look for a cause: counted and not accepted, or its value beyond a limit. */
 export function deviates(q: VerdictQuantity): boolean {
-  return !q.inTolerance || q.zone === 'conditional-fail' || q.zone === 'fail';
+  return (q.counted && !q.inTolerance) || q.zone === 'conditional-fail' || q.zone === 'fail';
 }

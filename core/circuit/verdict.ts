@@ -74,9 +74,9 @@ export interface LikelyCause {
 }
 
 export interface Verdict {
-  /** Every quantity accepted under the rule (the decision a script reads: check exits 0, else 3). */
+  /** Every counted quantity accepted under the rule (the decision a script reads: check exits 0, else 3). */
   pass: boolean;
-  /** The unit's zone: any fail is a fail, else the worse conditional zone, else a pass (combineZones). */
+  /** The unit's zone over the counted quantities: any fail is a fail, else the worse conditional zone, else a pass (combineZones). */
   decision: DecisionZone;
   /** The decision rule the quantities were decided by, and whether the design chose it. */
   rule: DecisionRule;
@@ -176,9 +176,13 @@ export function checkDesign(
     const derived = componentsFromResponse(fit.alpha, fit.omega0, design.topology, { name: known, value: spec.value, tolerance: spec.tolerance }, alphaOmega0Correlation(fit.correlation));
     for (const name of COMPONENT_NAMES.filter((n) => n !== known)) {
       const designQ = quantity(values[name], values[name] * relU[name], COMPONENT_UNITS[name]);
-      quantities.push(judge(name, designQ, derived[name], () => toleranceLimits(design, (d) => d.components[name].value)));
+      const row = judge(name, designQ, derived[name], () => toleranceLimits(design, (d) => d.components[name].value));
+      quantities.push({ ...row, counted: row.limitsFrom === 'design' });
     }
     notes.push(`R, L, C from the fit take ${known} at its design value (${known} has the tightest tolerance unless chosen).`);
+    if (quantities.some((q) => !q.counted)) {
+      notes.push(`The derived parts carry ${known}'s tolerance: shown for diagnosis, not counted in the decision unless the design limits them (limits.R, limits.L, limits.C).`);
+    }
   }
   if (!physical && !fit.tau) notes.push('The fitted alpha or omega0 is not positive: no components or likely cause can be derived.');
   const transitions = limitedTransitionRows(design, fit.transitions, fit.t0?.value ?? 0, rule);
@@ -226,9 +230,10 @@ export function checkDesign(
     }
   }
 
+  const counted = quantities.filter((q) => q.counted);
   return {
-    pass: quantities.every((q) => q.inTolerance),
-    decision: combineZones(quantities.map((q) => q.zone)),
+    pass: counted.every((q) => q.inTolerance),
+    decision: combineZones(counted.map((q) => q.zone)),
     rule,
     quantities,
     rmsDifference: rmsDifference(design, fit, measured),

@@ -109,6 +109,22 @@ describe('checkDesign', () => {
     expect([simple.pass, simple.decision, simple.rule.name, simple.rule.source]).toEqual([true, 'conditional-pass', 'simple-acceptance', 'design']);
   });
 
+  it('a part derived with another at its design value is shown, not counted, unless the design limits it', () => {
+    // TOL C 2 % and R 5 %: R from alpha with L from omega0 and C carries C's tolerance; a 5 % part with C
+    // at 5 % has U about 5.8 %, more than its own limits allow, so it cannot be proven in tolerance.
+    const d = makeDesign(GATE.topology, GATE.R, GATE.L, GATE.C, { R: 0.05, L: 0.1, C: 0.05 });
+    const fit = fitOf(GATE.topology, GATE.R, GATE.L, GATE.C);
+    const zeros = { time, values: new Float64Array(time.length) };
+    const shown = checkDesign(d, fit, zeros);
+    const R = shown.quantities.find((q) => q.name === 'R')!;
+    expect([R.zone, R.inTolerance, R.counted]).toEqual(['conditional-pass', false, false]);
+    expect([shown.pass, shown.decision, shown.likelyCause]).toEqual([true, 'pass', null]);
+    expect(shown.notes.join(' ')).toMatch(/not counted in the decision unless the design limits them/);
+    const limited = checkDesign({ ...d, limits: { R: { lower: GATE.R * 0.95, upper: GATE.R * 1.05 } } }, fit, zeros);
+    expect(limited.quantities.find((q) => q.name === 'R')).toMatchObject({ zone: 'conditional-pass', counted: true, limitsFrom: 'design' });
+    expect([limited.pass, limited.decision]).toEqual([false, 'conditional-pass']);
+  });
+
   const moves = (['series', 'parallel'] as Topology[]).flatMap((topology) =>
     (['R', 'L', 'C'] as Name[]).flatMap((component) => [0.3, -0.25].map((change) => ({ topology, component, change }))),
   );

@@ -82,14 +82,15 @@ describe('check with a single decay', () => {
     expect(verdict.quantities.map((q: { name: string }) => q.name)).toEqual(['tau', 'initial level', 'final value']);
     for (const q of verdict.quantities) expect(Number.isFinite(q.marginSigma)).toBe(true);
     const text = await run(['check', 'rc-step.csv', '--design', 'overdamped.json']);
-    expect(text.out).toMatch(/verdict {10}PASS against 'damped filter'\n {4}tau {12}in /);
+    expect(text.out).toMatch(/verdict {10}PASS against 'damped filter' \(accepted: pass\)\n {4}rule {11}guarded-acceptance.*\n {4}tau {12}pass /);
+    expect(verdict.quantities[0]).toMatchObject({ zone: 'pass', limitsFrom: 'tolerances' });
     expect(text.out).not.toMatch(/NaN|∞/);
   });
 
   it('a decay 30 % slower than the design is out of tolerance (exit 3) with a finite margin', async () => {
     const r = await run(['check', 'rc-step-slow.csv', '--design', 'overdamped.json']);
     expect(r.code).toBe(3);
-    expect(r.out).toMatch(/ {4}tau {12}OUT +\d/);
+    expect(r.out).toMatch(/ {4}tau {12}FAIL +\d/);
     expect(r.out).not.toMatch(/NaN|∞/);
   });
 });

@@ -8,7 +8,7 @@ import { formatFitText } from '../../../core/report/fitText';
 import { formatNoVerdictText, formatVerdictText } from '../../../core/report/verdictText';
 import { verdictRefusal } from '../../../core/workflow/measure';
 import { formatCautionsText } from '../../../core/safety/cautionText';
-import { EXIT, namingFile } from '../errors';
+import { EXIT } from '../errors';
 
 interface CheckCommandOptions extends MeasureCommandOptions {
   design: string;
@@ -17,14 +17,16 @@ interface CheckCommandOptions extends MeasureCommandOptions {
 export function registerCheckCommand(program: Command, ctx: CommandContext): void {
   const command = program
     .command('check')
-    .description('fit a capture and check it against a design file: exit 0 in tolerance, 3 out of tolerance, 1 (no verdict) when the fit does not converge or finds a single decay where the design rings')
+    .description(
+      "fit a capture and check it against a design file: exit 0 when accepted under the design's decision rule, 3 when rejected (out of tolerance), 1 (no verdict) when the fit does not converge or finds a single decay where the design rings",
+    )
     .argument('<file>', 'capture file (CSV or text export of a scope)')
-    .requiredOption('--design <file>', 'design file (topology, R, L, C with tolerances, source, probe)');
+    .requiredOption('--design <file>', 'design file (topology, R, L, C with tolerances, source, probe; optional limits and decisionRule)');
   addCaptureOptions(command)
     .option('--json', 'print one JSON object instead of the table')
     .action((file: string, options: CheckCommandOptions) => {
-      const design = namingFile(options.design, () => loadDesignFile(options.design, ctx.io.cwd));
-      const m = namingFile(file, () => measureFile(file, measureSettingsOf(options), ctx.io.cwd, design));
+      const design = loadDesignFile(options.design, ctx.io.cwd);
+      const m = measureFile(file, measureSettingsOf(options), ctx.io.cwd, design);
       // A failed fit, or a single decay where the design rings, gets no verdict (measureCapture gives none), and says why.
       const refusal = verdictRefusal(design.design, m.summary);
       if (options.json) {
@@ -37,6 +39,7 @@ export function registerCheckCommand(program: Command, ctx: CommandContext): voi
         ctx.io.out(text);
       }
       if (refusal || !m.verdict) ctx.setExitCode(EXIT.failure);
+      // Rejected under the rule: a conditional pass exits 3 under guarded acceptance, 0 under simple acceptance and guarded rejection.
       else if (!m.verdict.pass) ctx.setExitCode(EXIT.outOfTolerance);
     });
 }
