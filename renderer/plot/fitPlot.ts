@@ -285,6 +285,8 @@ export class FitPlot {
         residualShown = [res.y];
       }
     }
+    // Without a fit the residual panel stays, empty: its axis is drawn only for a trace on it, and the handles span it.
+    if (residualShown.length === 0) traces.push({ ...line('Residual', [x0, x1], [0, 0], 'rgba(0,0,0,0)', 0, 'solid', 'y2'), showlegend: false, hoverinfo: 'skip' });
     traces.push(...markerTraces(trace, x0, x1, colors));
     const events = input.events.filter((e) => e.onset >= x0 && e.onset <= x1).slice(0, MARKER_LIMIT);
     this.shownEvents = events;

@@ -170,25 +170,26 @@ describe.skipIf(!hasChromium)('the plot as a bench instrument', () => {
     writeFileSync(path, longStepCapture());
     await dropFile(page, path, 'slow-supply-settling.csv');
     await waitForFit(page, 'slow-supply-settling.csv');
-    let g = await geometry(page);
-    let count = await redraws(page);
-    await drag(page, pointAt(g, 0.2, 0.5), pointAt(g, 0.4, 0.5));
+    // A window late in the record, and a zoom before it (as plotly's own zoom sets it): the double-click lands outside the window.
+    const fits = await fitCount(page);
+    await page.fill('#window-start', '2m');
+    await page.fill('#window-end', '3.5m');
+    await page.click('#apply-window');
+    await waitForRefit(page, fits);
+    const count = await redraws(page);
+    await page.evaluate(() => (window as unknown as { Plotly: { relayout(el: Element, u: object): Promise<void> } }).Plotly.relayout(document.querySelector('#fit-plot')!, { 'xaxis.range': [1e-3, 1.5e-3] }));
     await waitForRedraw(page, count);
-    const zoomed = await timeRange(page);
-    expect(zoomed[1] - zoomed[0]).toBeLessThan(1e-3);
-    g = await geometry(page);
-    count = await redraws(page);
-    const middle = pointAt(g, 0.5, 0.5);
-    await page.mouse.dblclick(middle.x, middle.y);
-    await waitForRedraw(page, count);
-    const whole = await timeRange(page);
-    expect(whole[0]).toBeCloseTo(LONG_START, 12);
-    expect(whole[1]).toBeCloseTo(LONG_START + (LONG_SAMPLES - 1) * LONG_STEP, 12);
+    expect(await timeRange(page)).toEqual([1e-3, 1.5e-3]);
+    const box = (await page.locator('#fit-plot').boundingBox())!;
+    await page.mouse.dblclick(box.x + box.width / 2, box.y + box.height * 0.45);
+    // In nanoseconds: the range drawn is the whole capture's, from its first sample to its last.
+    const shownNs = async () => (await timeRange(page)).map((t) => Math.round(t * 1e9));
+    await expect.poll(shownNs, { timeout: 10_000 }).toEqual([Math.round(LONG_START * 1e9), Math.round((LONG_START + (LONG_SAMPLES - 1) * LONG_STEP) * 1e9)]);
   });
 
   it('titles the axes with their units, following the time scale shown', async () => {
     const titles = async () => page.locator('#fit-plot .g-xtitle, #fit-plot .g-ytitle, #fit-plot .g-y2title').evaluateAll((gs) => gs.map((g) => g.textContent));
-    expect(await titles()).toEqual(['Time (ms)', 'Voltage (V)', expect.stringMatching(/^Residual \((m|µ)V\)$/)]);
+    expect(await titles()).toEqual(['Time (ms)', 'Voltage (V)', expect.stringMatching(/^Residual \((m|µ)?V\)$/)]);
     const g = await geometry(page);
     const count = await redraws(page);
     await drag(page, pointAt(g, 0.05, 0.5), pointAt(g, 0.08, 0.5));
