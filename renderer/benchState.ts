@@ -9,7 +9,7 @@ import type { Topology } from '../core/circuit/components';
 import type { ParasiticsResult } from '../core/report/parasiticsText';
 import type { Comparison } from '../core/report/comparisonText';
 import type { BenchLogView, DesignEntry, OpenedFile, SampleEntry } from './bridgeTypes';
-import { FILE_UNITS, type CaptureInfo, type CaptureReading, type FitWindow, type TraceData, type UnitRefusal } from './workerProtocol';
+import { FILE_UNITS, type OverlayTrace, type CaptureInfo, type CaptureReading, type FitWindow, type TraceData, type UnitRefusal } from './workerProtocol';
 
 export interface OpenCaptureState {
   /** Worker cache key. */
@@ -84,7 +84,11 @@ export interface BenchState {
   cautions: CautionResult | null;
   extraction: ParasiticsResult | null;
   extractionError: string | null;
+  /** The probe capacitance the extraction was run with, F: its line of 1/f0² against the added C is offset by it. */
+  extractionProbeC: number;
   comparison: Comparison | null;
+  /** The two compared channels as read, for the overlay plot; null without a comparison. */
+  comparisonOverlay: { before: OverlayTrace; after: OverlayTrace } | null;
   comparisonError: string | null;
   log: BenchLogView | null;
   logError: string | null;
@@ -121,7 +125,9 @@ export function initialState(face: 'window' | 'browser'): BenchState {
     cautions: null,
     extraction: null,
     extractionError: null,
+    extractionProbeC: 0,
     comparison: null,
+    comparisonOverlay: null,
     comparisonError: null,
     log: null,
     logError: null,

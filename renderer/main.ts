@@ -21,6 +21,7 @@ import { createCautionsPanel } from './panels/cautionsPanel';
 import { createBenchLogPanel } from './panels/benchLogPanel';
 import { installFileDrop } from './fileDrop';
 import { arrangeBench } from './benchLayout';
+import { drawCapacitanceLine, drawOverlay } from './plot/comparePlots';
 import { installShortcuts, type ShortcutCommand } from './shortcuts';
 import { createShortcutList } from './shortcutList';
 import type { MenuCommand } from './bridgeTypes';
@@ -57,8 +58,8 @@ function boot(): void {
   const fit = createFitPanel(actions);
   const components = createComponentsPanel(actions);
   const design = createDesignPanel(actions);
-  const parasitic = createParasiticPanel(actions);
-  const beforeAfter = createBeforeAfterPanel(actions);
+  const parasitic = createParasiticPanel(actions, drawCapacitanceLine);
+  const beforeAfter = createBeforeAfterPanel(actions, drawOverlay);
   const cautions = createCautionsPanel();
   const log = createBenchLogPanel(actions);
   for (const panel of [top, capture, fit, components, design, parasitic, beforeAfter, cautions, log]) store.subscribe(panel.render);

@@ -8,10 +8,11 @@ import { compareCaptures, type ComparisonSide } from '../core/workflow/compare';
 import { checkAgainstDesign, measureCapture, type MeasureResult } from '../core/workflow/measure';
 import { measureParasitics } from '../core/workflow/parasitics';
 import { applyProbe, type ProbeScaling } from '../core/workflow/probeScaling';
+import { reduceMinMax } from '../core/report/decimate';
 import { plainMessage } from './plainMessage';
 import { describeCapture, traceData } from './traceData';
 import { unitRefusal } from './unitRefusal';
-import { FILE_UNITS, type CaptureContent, type CaptureFile, type StatedUnits, type WorkerAsk, type WorkerReplyValue } from './workerProtocol';
+import { FILE_UNITS, type CaptureContent, type CaptureFile, type OverlayTrace, type StatedUnits, type WorkerAsk, type WorkerReplyValue } from './workerProtocol';
 
 export interface HandledReply {
   value: WorkerReplyValue;
@@ -22,6 +23,8 @@ export interface HandledReply {
 /** Captures kept parsed for refits, newest last; each channel's probe scaling as the window set it. */
 const opened = new Map<string, { name: string; capture: Capture; probes: Map<number, ProbeScaling> }>();
 const KEEP = 4;
+/** Columns of the before / after overlay: two points each keep every peak of a plot about a thousand pixels wide. */
+const OVERLAY_COLUMNS = 1200;
 
 /** Answer one request; invalid input throws (the worker turns it into a message). */
 export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string) => void): HandledReply {
@@ -84,7 +87,10 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
       const before = readSide(request.before, request.channel, progress);
       const after = readSide(request.after, request.channel, progress);
       progress('fitting both captures');
-      return { value: { type: 'compare', comparison: compareCaptures({ before, after, knownPart: request.knownPart }) }, transfer: [] };
+      const comparison = compareCaptures({ before, after, knownPart: request.knownPart });
+      const overlay = { before: overlayTrace(before.channel), after: overlayTrace(after.channel) };
+      const transfer = [overlay.before, overlay.after].flatMap((t) => [t.time.buffer, t.values.buffer]) as ArrayBuffer[];
+      return { value: { type: 'compare', comparison, overlay }, transfer };
     }
   }
 }
@@ -113,6 +119,13 @@ function readSide(side: CaptureFile, channel: string | number | undefined, progr
   progress(`reading ${side.name}`);
   const capture = readContent(side);
   return { file: side.name, channel: selectChannel(capture, channel), captureWarnings: capture.warnings };
+}
+
+/** A compared channel reduced to its extremes per column, for the overlay. */
+function overlayTrace(channel: Channel): OverlayTrace {
+  const { time, values } = channel;
+  const reduced = reduceMinMax(time, values, time[0], time[time.length - 1], OVERLAY_COLUMNS);
+  return { time: Float64Array.from(reduced.x), values: Float64Array.from(reduced.y), unit: channel.unit };
 }
 
 /** The importer's options for the units the user stated (the window offers only units that read). */

@@ -42,6 +42,13 @@ export interface TraceData {
   dropped: number;
 }
 
+/** One side of a before / after comparison, reduced for the overlay plot (the samples as read, the fit's t0 in the comparison). */
+export interface OverlayTrace {
+  time: Float64Array;
+  values: Float64Array;
+  unit: string;
+}
+
 /** Units the user states for a capture whose file does not state them, or states them wrongly: as typed ('us', 'mV'); '' keeps the file's. */
 export interface StatedUnits {
   timeUnit: string;
@@ -132,7 +139,7 @@ export type WorkerReplyValue =
   | { type: 'measure'; reply: MeasureReply }
   | { type: 'check'; verdict: Verdict | null; verdictError: string | null }
   | { type: 'parasitics'; result: ParasiticsResult }
-  | { type: 'compare'; comparison: Comparison };
+  | { type: 'compare'; comparison: Comparison; overlay: { before: OverlayTrace; after: OverlayTrace } };
 
 export type WorkerMessage =
   | { id: number; kind: 'progress'; stage: string }

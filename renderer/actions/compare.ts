@@ -25,13 +25,17 @@ export function compareAsk(before: CaptureFile | null, after: CaptureFile | null
 export async function runComparison(ctx: ActionContext, before: CaptureFile | null, after: CaptureFile | null, settings: CompareSettings): Promise<void> {
   ctx.store.update((s) => {
     s.comparison = null;
+    s.comparisonOverlay = null;
     s.comparisonError = null;
   });
   try {
     const answer = await ctx.client.request(compareAsk(before, after, settings), (stage) => showProgress(ctx, stage));
-    ctx.store.update((s) => (s.comparison = answer.comparison));
+    ctx.store.update((s) => {
+      s.comparison = answer.comparison;
+      s.comparisonOverlay = answer.overlay;
+    });
   } catch (error) {
-    ctx.store.update((s) => (s.comparisonError = error instanceof FitCancelled ? 'stopped: another capture was opened; compare again' : plainMessage(error)));
+    ctx.store.update((s) => (s.comparisonError = error instanceof FitCancelled ? 'stopped before it finished: compare again' : plainMessage(error)));
   } finally {
     showProgress(ctx, null);
   }

@@ -51,10 +51,14 @@ export async function runExtraction(ctx: ActionContext, rows: readonly Extractio
     s.extractionError = null;
   });
   try {
-    const answer = await ctx.client.request({ type: 'parasitics', ...parasiticsAsk(rows, settings) }, (stage) => showProgress(ctx, stage));
-    ctx.store.update((s) => (s.extraction = answer.result));
+    const ask = parasiticsAsk(rows, settings);
+    const answer = await ctx.client.request({ type: 'parasitics', ...ask }, (stage) => showProgress(ctx, stage));
+    ctx.store.update((s) => {
+      s.extraction = answer.result;
+      s.extractionProbeC = ask.probeC ?? 0;
+    });
   } catch (error) {
-    ctx.store.update((s) => (s.extractionError = error instanceof FitCancelled ? 'stopped: another capture was opened; extract again' : plainMessage(error)));
+    ctx.store.update((s) => (s.extractionError = error instanceof FitCancelled ? 'stopped before it finished: extract again' : plainMessage(error)));
   } finally {
     showProgress(ctx, null);
   }

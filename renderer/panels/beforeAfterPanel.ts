@@ -1,17 +1,23 @@
-// Before / after: two captures of one circuit (a sample or a file each), compared in the worker by compareCaptures.
+// Before / after: two captures of one circuit (a sample or a file each), compared in the worker by compareCaptures,
+// and drawn over each other at their fitted event times.
 
 import { button, card, field, h, replaceChildren, select, textInput } from '../dom';
 import { showCompact, showValue } from '../show';
 import type { Comparison, QuantityChange } from '../../core/report/comparisonText';
 import type { BenchState } from '../benchState';
 import type { BenchActions } from '../actions';
-import { contentOf, type CaptureFile } from '../workerProtocol';
+import { contentOf, type CaptureFile, type OverlayTrace } from '../workerProtocol';
 
 const SYMBOLS: Record<string, string> = { alpha: 'α', omega0: 'ω₀', f0: 'f₀', zeta: 'ζ', Q: 'Q', R: 'R', L: 'L', C: 'C' };
 const VERDICT_WORDS = { changed: 'Changed', 'no significant change': 'No significant change', undetermined: 'Cannot tell' } as const;
 
-export function createBeforeAfterPanel(actions: BenchActions) {
+/** Draws the two compared captures over each other with their fits (renderer/plot/comparePlots.ts). */
+export type OverlayDrawer = (root: HTMLElement, comparison: Comparison, overlay: { before: OverlayTrace; after: OverlayTrace }) => Promise<void>;
+
+export function createBeforeAfterPanel(actions: BenchActions, drawOverlay: OverlayDrawer) {
   const { root, body } = card('Before / after', 'before-after-panel');
+  const overlayPlot = h('div', { class: 'small-plot', id: 'compare-overlay', attrs: { 'aria-label': 'The before and after captures overlaid at their fitted event times, with their fits' } });
+  let drawn: Comparison | null = null;
   const chosen: Record<'before' | 'after', CaptureFile | null> = { before: null, after: null };
   let samplesShown = '';
   const sides = (['before', 'after'] as const).map((side) => {
@@ -41,11 +47,15 @@ export function createBeforeAfterPanel(actions: BenchActions) {
   const results = h('div', { id: 'compare-results' });
   const run = () => void actions.runComparison(chosen.before, chosen.after, { channelText: channel.value, topologyText: topology, knownText: known.value });
   body.append(
-    h('p', { class: 'field-hint' }, 'Two captures of the same node, before and after a change: which quantities moved by more than their noise explains.'),
-    ...sides.map((s) => s.row),
-    h('div', { class: 'grid-3' }, field('Channel', channel, 'name or index'), field('Topology', topologySelect), field('Known part', known, 'optional: R, L, C too')),
-    h('div', { class: 'actions' }, button('Compare', run, { id: 'run-compare', class: 'primary' })),
-    results,
+    h(
+      'div',
+      { class: 'desk-inputs' },
+      h('p', { class: 'field-hint' }, 'Two captures of the same node, before and after a change: which quantities moved by more than their noise explains.'),
+      ...sides.map((s) => s.row),
+      h('div', { class: 'grid-3' }, field('Channel', channel, 'name or index'), field('Topology', topologySelect), field('Known part', known, 'optional: R, L, C too')),
+      h('div', { class: 'actions' }, button('Compare', run, { id: 'run-compare', class: 'primary' })),
+    ),
+    h('div', { class: 'desk-outputs' }, overlayPlot, results),
   );
 
   function render(state: BenchState): void {
@@ -55,6 +65,11 @@ export function createBeforeAfterPanel(actions: BenchActions) {
       for (const { sample } of sides) {
         replaceChildren(sample, h('option', { attrs: { value: '' } }, 'a sample…'), ...state.samples.map((s) => h('option', { attrs: { value: s.id }, title: s.description }, s.file)));
       }
+    }
+    overlayPlot.hidden = !state.comparisonOverlay;
+    if (state.comparison !== drawn) {
+      drawn = state.comparison;
+      if (drawn && state.comparisonOverlay) void drawOverlay(overlayPlot, drawn, state.comparisonOverlay);
     }
     if (state.comparisonError) return replaceChildren(results, h('p', { class: 'error-text', id: 'compare-error' }, state.comparisonError));
     replaceChildren(results, ...(state.comparison ? comparisonView(state.comparison) : []));

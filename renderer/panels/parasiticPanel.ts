@@ -1,5 +1,6 @@
 // Parasitic extraction by added capacitors: two or more captures with known added C, measureParasitics in the
-// worker, the loop's parts, a snubber starting point to verify on the bench, and the captures' cautions.
+// worker, the loop's parts with the plot of 1/f0² against the added C, a snubber starting point to verify on the
+// bench, and the captures' cautions.
 
 import { button, card, field, h, replaceChildren, textInput } from '../dom';
 import { quantityRow, showCompact, showValue } from '../show';
@@ -16,8 +17,13 @@ interface RowControls extends ExtractionRow {
   element: HTMLElement;
 }
 
-export function createParasiticPanel(actions: BenchActions) {
+/** Draws 1/f0² of each capture against its added C with the extraction's line (renderer/plot/comparePlots.ts). */
+export type CapacitanceLineDrawer = (root: HTMLElement, result: ParasiticsResult, probeC: number) => Promise<void>;
+
+export function createParasiticPanel(actions: BenchActions, drawLine: CapacitanceLineDrawer) {
   const { root, body } = card('Parasitic extraction', 'parasitic-panel');
+  const linePlot = h('div', { class: 'small-plot', id: 'extraction-line-plot', attrs: { 'aria-label': '1/(2π f0)² of each capture against its added capacitance, with the fitted line' } });
+  let drawn: ParasiticsResult | null = null;
   const rows: RowControls[] = [];
   const list = h('div', { class: 'extraction-rows', id: 'extraction-rows' });
   const input = (id: string, label: string, placeholder = '') => textInput('', { id, title: label, attrs: { placeholder, 'aria-label': label } });
@@ -93,20 +99,29 @@ export function createParasiticPanel(actions: BenchActions) {
   });
 
   body.append(
-    h('p', { class: 'field-hint' }, 'Ring the same node bare (first) and with known capacitors added; the shift of the natural frequency gives the loop’s own L and C.'),
-    h('div', { class: 'actions' }, useSet, useCurrent, addEmpty),
-    list,
-    h('div', { class: 'grid-2' }, field('Added C tolerance', addedTol, TOLERANCE_HINT), field('Bandwidth (Hz)', bandwidth, 'scope or probe; optional')),
-    h('div', { class: 'grid-2' }, field('Probe C (F)', probe, 'in parallel in every capture'), field('Probe C tolerance', probeTol, TOLERANCE_HINT)),
-    h('div', { class: 'grid-2' }, field('Snubber voltage swing (V)', voltage, 'optional, for the dissipation'), field('Switching frequency (Hz)', switching)),
-    h('div', { class: 'actions' }, button('Extract', () => void actions.runExtraction(rows, settings()), { id: 'run-extraction', class: 'primary' })),
-    results,
+    h(
+      'div',
+      { class: 'desk-inputs' },
+      h('p', { class: 'field-hint' }, 'Ring the same node bare (first) and with known capacitors added; the shift of the natural frequency gives the loop’s own L and C.'),
+      h('div', { class: 'actions' }, useSet, useCurrent, addEmpty),
+      list,
+      h('div', { class: 'grid-2' }, field('Added C tolerance', addedTol, TOLERANCE_HINT), field('Bandwidth (Hz)', bandwidth, 'scope or probe; optional')),
+      h('div', { class: 'grid-2' }, field('Probe C (F)', probe, 'in parallel in every capture'), field('Probe C tolerance', probeTol, TOLERANCE_HINT)),
+      h('div', { class: 'grid-2' }, field('Snubber voltage swing (V)', voltage, 'optional, for the dissipation'), field('Switching frequency (Hz)', switching)),
+      h('div', { class: 'actions' }, button('Extract', () => void actions.runExtraction(rows, settings()), { id: 'run-extraction', class: 'primary' })),
+    ),
+    h('div', { class: 'desk-outputs' }, linePlot, results),
   );
 
   function render(next: BenchState): void {
     state = next;
     useSet.disabled = !next.samples.some((s) => s.addedCapacitor !== null);
     useCurrent.disabled = !next.capture;
+    linePlot.hidden = !next.extraction;
+    if (next.extraction !== drawn) {
+      drawn = next.extraction;
+      if (drawn) void drawLine(linePlot, drawn, next.extractionProbeC);
+    }
     if (next.extractionError) return replaceChildren(results, h('p', { class: 'error-text', id: 'extraction-error' }, next.extractionError));
     if (!next.extraction) return replaceChildren(results);
     replaceChildren(results, ...extractionView(next.extraction));

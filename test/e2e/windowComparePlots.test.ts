@@ -1,0 +1,64 @@
+// The plots of the work over several captures: 1/(2π f0)² against the added capacitance with the extraction's line,
+// and the before / after captures overlaid with their fits; each drawn from what its use case returned.
+
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Browser, Page } from 'playwright-core';
+import { buildBench, CHROMIUM, hasChromium, launchChromium, outputDir, serveBench, waitForFit, type ServedBench } from './benchHarness';
+
+if (!hasChromium) console.warn(`test/e2e/windowComparePlots.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
+
+/** Lines plotly drew in a plot: each trace's path with some length. */
+async function drawnTraces(page: Page, selector: string): Promise<number> {
+  return page.locator(`${selector} .scatterlayer .trace`).evaluateAll((traces) => traces.filter((t) => (t.querySelector('path.js-line')?.getAttribute('d') ?? '').length > 10 || t.querySelectorAll('path.point').length > 0).length);
+}
+
+describe.skipIf(!hasChromium)('plots over several captures', () => {
+  let bench: ServedBench;
+  let browser: Browser;
+  let folder: string;
+  let page: Page;
+
+  beforeAll(async () => {
+    buildBench();
+    mkdirSync(outputDir, { recursive: true });
+    folder = mkdtempSync(join(tmpdir(), 'ringbench-compareplots-'));
+    bench = await serveBench(join(folder, 'bench-log.jsonl'), folder);
+    browser = await launchChromium();
+    page = await (await browser.newContext({ viewport: { width: 1600, height: 1000 }, deviceScaleFactor: 1 })).newPage();
+    await page.goto(bench.url);
+    await waitForFit(page, 'input-filter-step.csv');
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+    await bench?.stop();
+    if (folder) rmSync(folder, { recursive: true, force: true });
+  });
+
+  it('plots 1/f0² of each capture against its added C with the line whose slope is the extracted L_p', async () => {
+    await page.click('#use-sample-set');
+    await page.waitForFunction(() => document.querySelectorAll('#extraction-rows .extraction-row').length === 3);
+    await page.click('#run-extraction');
+    await page.waitForSelector('#parasitic-results', { timeout: 120_000 });
+    await page.waitForFunction(() => (document.querySelector('#extraction-line-plot') as HTMLElement).dataset.points === '3');
+    expect(await drawnTraces(page, '#extraction-line-plot')).toBe(2);
+    const lp = Number(await page.locator('#parasitic-results tr[data-quantity="Lp"]').getAttribute('data-value'));
+    expect(Number(await page.locator('#extraction-line-plot').getAttribute('data-slope'))).toBe(lp);
+    await page.locator('#parasitic-panel').screenshot({ path: join(outputDir, 'extraction-line-1600.png') });
+  });
+
+  it('overlays the before and after captures with their fits', async () => {
+    await page.selectOption('#before-sample', 'switch-node-before');
+    await page.waitForFunction(() => document.querySelector('#before-name')?.textContent === 'switch-node-before.csv');
+    await page.selectOption('#after-sample', 'switch-node-after-470p');
+    await page.waitForFunction(() => document.querySelector('#after-name')?.textContent === 'switch-node-after-470p.csv');
+    await page.click('#run-compare');
+    await page.waitForSelector('#compare-verdict', { timeout: 120_000 });
+    await page.waitForFunction(() => (document.querySelector('#compare-overlay') as HTMLElement).dataset.traces === '4');
+    expect(await drawnTraces(page, '#compare-overlay')).toBe(4);
+    await page.locator('#before-after-panel').screenshot({ path: join(outputDir, 'before-after-overlay-1600.png') });
+  });
+});
