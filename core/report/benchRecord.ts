@@ -42,6 +42,8 @@ export interface BenchRecord {
   /** Unit under test (serial number or name). */
   unit: string;
   operator: string | null;
+  /** Fixture or test station the unit was measured on; absent when not given (and in records logged before it was kept). */
+  station?: string;
   note: string | null;
   capture: { path: string; sha256: string; bytes: number; channel: string };
   settings: MeasurementSettings;

@@ -7,6 +7,7 @@ import type { BenchRecord } from './benchRecord';
 import type { FitSummary } from './fitSummary';
 import type { Verdict } from '../circuit/verdict';
 import { escapeHtml as e } from './escape';
+import { decisionText, expandedUncertaintyText, isCounted, limitsText, ruleText, zoneText } from './verdictText';
 import { importRows } from './importText';
 import { renderMeasurementPlot, type ReportTrace } from './overlay';
 import { briefValue, fitResultRows, fitTransitionRows, marginText, regimeTag, showTime, transitionNote } from './resultRows';
@@ -126,7 +127,7 @@ function measurement(record: BenchRecord, id: string, options: ReportOptions): s
     const plot = renderMeasurementPlot(record, trace, id);
     figure = `<figure>${plot.svg}${plot.notes.length ? `<figcaption>${plot.notes.map(e).join(' ')}</figcaption>` : ''}</figure>`;
   }
-  const byline = [record.operator && `operator ${record.operator}`, record.note].filter((x): x is string => Boolean(x));
+  const byline = [record.operator && `operator ${record.operator}`, record.station && `station ${record.station}`, record.note].filter((x): x is string => Boolean(x));
   let html = `<article class="measurement" id="${e(id)}">`;
   html += `<div class="measurement-head"><h3>${e(fit.file)} <span class="byline">(${e(fit.channel)})</span></h3><span>${e(showTime(record.time))} ${badge(recordStatus(record))}</span></div>`;
   if (byline.length) html += `<p class="byline">${byline.map(e).join(' · ')}</p>`;
@@ -190,11 +191,14 @@ function verdictBlock(verdict: Verdict, designName: string, unit: string): strin
     .map(
       (q) =>
         `<tr><td>${e(q.name)}</td><td class="num">${e(formatMeasured(q.design))}</td><td class="num">${e(formatMeasured(q.measured))}</td>` +
-        `<td class="num">${e(marginText(q))}</td><td>${badge(q.inTolerance ? 'pass' : 'fail', q.inTolerance ? 'in' : 'out')}</td></tr>`,
+        `<td class="num">${e(limitsText(q))}</td><td class="num">${e(expandedUncertaintyText(q))}</td>` +
+        `<td class="num">${e(marginText(q))}</td><td>${badge(!isCounted(q) ? 'not checked' : q.inTolerance ? 'pass' : 'fail', zoneText(q))}</td></tr>`,
     )
     .join('');
-  let html = `<h4>Verdict against ${e(designName)}</h4>`;
-  html += `<table class="verdict"><thead><tr><th>Quantity</th><th>Design</th><th>Measured</th><th>Margin</th><th>Result</th></tr></thead><tbody>${rows}</tbody></table>`;
+  let html = `<h4>Verdict against ${e(designName)}: ${e(decisionText(verdict))}</h4>`;
+  html += `<table class="verdict"><thead><tr><th>Quantity</th><th>Design</th><th>Measured</th><th>Limits</th><th>U</th><th>Margin</th><th>Zone</th></tr></thead><tbody>${rows}</tbody></table>`;
+  const rule = ruleText(verdict);
+  if (rule) html += `<p class="fineprint">${e(rule)}</p>`;
   if (verdict.rmsDifference !== null) {
     html += `<p class="fineprint">RMS difference from the prediction over the fit window: ${e(formatEngineering(verdict.rmsDifference, unit))}.</p>`;
   }

@@ -5,6 +5,7 @@ import { DEFERRAL, STANDING_ADVICE, STANDING_ADVICE_SOURCE } from '../safety/sta
 import type { BenchRecord } from './benchRecord';
 import { escapeMarkdown as m, markdownCode } from './escape';
 import { importRows } from './importText';
+import { decisionText, expandedUncertaintyText, limitsText, ruleText, zoneText } from './verdictText';
 import { fitResultRows, fitStateText, fitTransitionRows, marginText, showTime, transitionNote } from './resultRows';
 import { reproduceCommand } from './reproduce';
 import { YIELD_RULE, recordStatus, summarizeYield } from './yieldSummary';
@@ -49,7 +50,7 @@ export function renderReportMarkdown(records: readonly BenchRecord[], options: M
 function measurement(record: BenchRecord, notes: string[]): string[] {
   const fit = record.fit;
   const lines = [`### ${m(fit.file)} (${m(fit.channel)}), ${m(showTime(record.time))}: ${recordStatus(record)}`, ''];
-  const byline = [record.operator && `operator ${record.operator}`, record.note].filter((x): x is string => Boolean(x));
+  const byline = [record.operator && `operator ${record.operator}`, record.station && `station ${record.station}`, record.note].filter((x): x is string => Boolean(x));
   if (byline.length) lines.push(m(byline.join(' · ')), '');
   for (const note of notes) lines.push(`> ${m(note)}`, '');
   lines.push(`Fit: ${m(fitStateText(fit))}.`, '', '| Quantity | Value |', '| --- | --- |');
@@ -68,10 +69,14 @@ function measurement(record: BenchRecord, notes: string[]): string[] {
     for (const row of importRows(fit.import)) lines.push(`- ${m(row.label)}: ${m(row.text)}`);
   }
   if (record.verdict) {
-    lines.push('', `Verdict against ${m(record.design?.name ?? 'design')}: ${record.verdict.pass ? 'pass' : 'fail'}.`, '');
-    lines.push('| Quantity | Design | Measured | Margin | In tolerance |', '| --- | --- | --- | ---: | --- |');
+    lines.push('', `Verdict against ${m(record.design?.name ?? 'design')}: ${m(decisionText(record.verdict))}.`, '');
+    const rule = ruleText(record.verdict);
+    if (rule) lines.push(m(rule), '');
+    lines.push('| Quantity | Design | Measured | Limits | U | Margin | Zone |', '| --- | --- | --- | --- | --- | ---: | --- |');
     for (const q of record.verdict.quantities) {
-      lines.push(`| ${m(q.name)} | ${m(formatMeasured(q.design))} | ${m(formatMeasured(q.measured))} | ${m(marginText(q))} | ${q.inTolerance ? 'yes' : 'no'} |`);
+      lines.push(
+        `| ${m(q.name)} | ${m(formatMeasured(q.design))} | ${m(formatMeasured(q.measured))} | ${m(limitsText(q))} | ${m(expandedUncertaintyText(q))} | ${m(marginText(q))} | ${m(zoneText(q))} |`,
+      );
     }
     const cause = record.verdict.likelyCause;
     if (cause) {

@@ -11,6 +11,8 @@ import { VERSION } from '../version';
 export interface MeasurementLabel {
   unit: string;
   operator: string | null;
+  /** Fixture or test station; null or absent when not given (the record then has no station field). */
+  station?: string | null;
   note: string | null;
 }
 
@@ -29,6 +31,7 @@ export function createBenchRecord(m: FileMeasurement, label: MeasurementLabel, o
     time: (deps.clock ?? (() => new Date()))().toISOString(),
     unit: label.unit,
     operator: label.operator,
+    ...(label.station ? { station: label.station } : {}),
     note: label.note,
     capture: { path: m.capture.path, sha256: m.capture.sha256, bytes: m.capture.bytes, channel: m.capture.channel.name },
     settings: {

@@ -20,6 +20,7 @@ export interface LogAddOptions extends MeasureCommandOptions {
   unit: string;
   design?: string;
   operator?: string;
+  station?: string;
   note?: string;
 }
 
@@ -36,6 +37,7 @@ export function registerLogCommand(program: Command, ctx: CommandContext): void 
     .option('--design <file>', 'design file to check the unit against (instead of --topology/--known)');
   addCaptureOptions(addComponentOptions(add))
     .option('--operator <name>', 'who measured')
+    .option('--station <name>', 'fixture or test station the unit was measured on')
     .option('--note <text>', 'free text kept with the record')
     .option('--json', 'print the logged record as JSON')
     .exitOverride()
@@ -45,6 +47,7 @@ export function registerLogCommand(program: Command, ctx: CommandContext): void 
       const label = {
         unit: checkLabel(options.unit, '--unit'),
         operator: options.operator === undefined ? null : checkLabel(options.operator, '--operator'),
+        station: options.station === undefined ? null : checkLabel(options.station, '--station'),
         note: options.note === undefined || options.note.trim() === '' ? null : options.note,
       };
       requireLogFolder(logPath);
