@@ -10,6 +10,8 @@ import { renderReportMarkdown } from '../../core/report/reportMarkdown';
 import { renderReportCsv } from '../../core/report/reportCsv';
 import { showTime } from '../../core/report/resultRows';
 import { describeTornTail, readCleanBenchLog } from '../io/benchLog';
+import { renderLotReport } from '../../core/report/lotReport';
+import { readMergedLogs, type LogSource, type ReadLog } from './mergedLogs';
 import { readFileBytes } from '../io/captureFile';
 import { parseCaptureFileBytes } from '../../core/capture/parseCapture';
 import { selectChannel } from '../../core/capture/selectChannel';
@@ -68,6 +70,8 @@ export function loadReportTraces(records: readonly BenchRecord[]): ReportTraces 
 export interface WriteReportOptions {
   /** Clock for the report's date. Default: the system clock. */
   clock?: () => Date;
+  /** The lot report (yields, capability, failures by cause) instead of every measurement. Default false. */
+  lot?: boolean;
 }
 
 export interface WrittenReport {
@@ -77,18 +81,22 @@ export interface WrittenReport {
   notes: string[];
 }
 
-/** Render the log at `logPath` into `outPath` (format by extension), replacing it atomically. */
-export function writeReport(logPath: string, outPath: string, options: WriteReportOptions = {}): WrittenReport {
+/** Render the log(s) at `logPaths`, merged (mergedLogs.ts), into `outPath` (format by extension), replacing it atomically. */
+export function writeReport(logPaths: string | readonly string[], outPath: string, options: WriteReportOptions = {}): WrittenReport {
   const format = reportFormatFor(outPath);
   if (format === null) throw new FileError(`report '${outPath}': the name must end in .html, .md or .csv`);
   requireFolder(outPath);
-  const contents = readCleanBenchLog(logPath);
-  const logNotes = contents.torn ? [describeTornTail(logPath, contents.torn)] : [];
+  const logs = typeof logPaths === 'string' ? [logPaths] : [...logPaths];
+  const logPath = logs.join(', ');
+  const merged = readMergedLogs(logs.map((path) => ({ path, shown: path })), readOneLog);
+  const logNotes = merged.notes;
   const generatedAt = (options.clock ?? (() => new Date()))().toISOString();
-  const { records } = contents;
+  const { records } = merged;
   let text: string;
   const notes = [...logNotes];
-  if (format === 'csv') {
+  if (options.lot) {
+    text = renderLotReport(records, { format, logPaths: logs, generatedAt, software: { name: 'ringbench', version: VERSION }, logNotes });
+  } else if (format === 'csv') {
     text = renderReportCsv(records);
   } else {
     const { traces, recordNotes } = loadReportTraces(records);
@@ -103,6 +111,12 @@ export function writeReport(logPath: string, outPath: string, options: WriteRepo
   }
   writeFileAtomic(outPath, text);
   return { format, records: records.length, notes };
+}
+
+/** One log as a report reads it: a bad line refuses the log, a cut-off last line is noted. */
+function readOneLog({ path }: LogSource): ReadLog {
+  const contents = readCleanBenchLog(path);
+  return { records: contents.records, notes: contents.torn ? [describeTornTail(path, contents.torn)] : [] };
 }
 
 function requireFolder(path: string): void {

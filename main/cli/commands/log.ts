@@ -8,6 +8,8 @@ import { appendBenchLog, describeTornTail, readCleanBenchLog, requireLogFolder }
 import { createBenchRecord } from '../../app/benchLogRecord';
 import { loadDesignFile, measureFile } from '../../app/measureFile';
 import { checkLabel } from '../../app/labels';
+import { readMergedLogs } from '../../app/mergedLogs';
+import { UsageError } from '../../../core/inputError';
 import { formatFitText } from '../../../core/report/fitText';
 import { fitSucceeded } from '../../../core/report/fitSummary';
 import { formatVerdictText } from '../../../core/report/verdictText';
@@ -20,7 +22,6 @@ export interface LogAddOptions extends MeasureCommandOptions {
   unit: string;
   design?: string;
   operator?: string;
-  station?: string;
   note?: string;
 }
 
@@ -37,7 +38,6 @@ export function registerLogCommand(program: Command, ctx: CommandContext): void 
     .option('--design <file>', 'design file to check the unit against (instead of --topology/--known)');
   addCaptureOptions(addComponentOptions(add))
     .option('--operator <name>', 'who measured')
-    .option('--station <name>', 'fixture or test station the unit was measured on')
     .option('--note <text>', 'free text kept with the record')
     .option('--json', 'print the logged record as JSON')
     .exitOverride()
@@ -47,7 +47,6 @@ export function registerLogCommand(program: Command, ctx: CommandContext): void 
       const label = {
         unit: checkLabel(options.unit, '--unit'),
         operator: options.operator === undefined ? null : checkLabel(options.operator, '--operator'),
-        station: options.station === undefined ? null : checkLabel(options.station, '--station'),
         note: options.note === undefined || options.note.trim() === '' ? null : options.note,
       };
       requireLogFolder(logPath);
@@ -79,19 +78,30 @@ export function registerLogCommand(program: Command, ctx: CommandContext): void 
 
   log
     .command('list')
-    .description('list the measurements of a bench log: time, unit, regime, f0, zeta, verdict')
-    .requiredOption('--log <path>', 'bench log file')
-    .option('--json', 'print the records as a JSON object { records, torn }')
+    .description('list the measurements of a bench log, or of several merged (by time, a record in two logs listed once): time, unit, regime, f0, zeta, verdict')
+    .argument('[logs...]', 'bench log files, as --log')
+    .option('--log <path>', 'bench log file (repeat for several)', (value: string, previous: string[]) => [...previous, value], [] as string[])
+    .option('--json', 'print the records as a JSON object { records, torn, duplicates, logs }: torn is the cut-off last line of a single log, logs gives each log\'s')
     .exitOverride()
     .configureOutput(output)
-    .action((options: { log: string; json?: boolean }) => {
-      const logPath = resolve(ctx.io.cwd, options.log);
-      const contents = readCleanBenchLog(logPath);
+    .action((logs: string[], options: { log: string[]; json?: boolean }) => {
+      const given = [...options.log, ...logs];
+      if (!given.length) throw new UsageError('no bench log given: name one with --log FILE (repeat --log, or list the logs, for several)', '--log');
+      const perLog: { log: string; records: number; torn: { line: number; text: string } | null }[] = [];
+      const merged = readMergedLogs(
+        given.map((shown) => ({ path: resolve(ctx.io.cwd, shown), shown })),
+        ({ path, shown }) => {
+          const contents = readCleanBenchLog(path);
+          perLog.push({ log: shown, records: contents.records.length, torn: contents.torn });
+          return { records: contents.records, notes: contents.torn ? [describeTornTail(shown, contents.torn)] : [] };
+        },
+      );
       if (options.json) {
-        ctx.io.out(`${JSON.stringify({ records: contents.records, torn: contents.torn })}\n`);
+        const torn = perLog.length === 1 ? perLog[0].torn : null;
+        ctx.io.out(`${JSON.stringify({ records: merged.records, torn, duplicates: merged.duplicates, logs: perLog })}\n`);
       } else {
-        ctx.io.out(contents.records.length ? formatLogTable(contents.records) : 'no measurements logged yet\n');
+        ctx.io.out(merged.records.length ? formatLogTable(merged.records) : 'no measurements logged yet\n');
       }
-      if (contents.torn) ctx.io.err(`ringbench: note: ${describeTornTail(options.log, contents.torn)}\n`);
+      for (const note of merged.notes) ctx.io.err(`ringbench: note: ${note}\n`);
     });
 }
