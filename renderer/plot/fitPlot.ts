@@ -407,6 +407,9 @@ export class FitPlot {
         { id: 'window-end', axis: 'x', value: input.window.end, kind: 'window', label: '', title: 'Fit window end: drag to refit up to here' },
       );
     }
+    // Cursors shown over a new capture start again inside its view.
+    const span = this.span();
+    if (this.cursorsShown && !this.cursors && span && this.shownY) this.cursors = placeCursors(this.xRange ?? span, this.yRange ?? this.shownY);
     const cursors = this.cursorsShown ? this.cursors : null;
     if (cursors) {
       const level = levelSymbol(input.trace.unit);

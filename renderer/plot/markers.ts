@@ -5,6 +5,8 @@ import { formatEngineering } from '../../core/units/format';
 
 /** The settling band drawn: the 2 % one, as the fit panel's first settling time. */
 const SETTLING_SHARE = 0.02;
+/** The band's edges lie on the final level's noise and on the prediction: drawn faint, the settling line is what to read. */
+const BAND_OPACITY = 0.55;
 
 export interface MarkerColors {
   marker: string;
@@ -60,8 +62,8 @@ export function transitionMarks(transitions: TransitionSummary | undefined, time
     const dashed = { color: colors.marker, width: 1, dash: 'dash' };
     marks.shapes.push(
       { type: 'line', xref: 'x', yref: 'y domain', x0: settledAt, x1: settledAt, y0: 0, y1: 1, line: { color: colors.marker, width: 1.5, dash: 'dot' } },
-      { type: 'line', xref: 'x', yref: 'y', x0: settledAt, x1: Math.max(settledAt, timeEnd), y0: final + band, y1: final + band, line: dashed },
-      { type: 'line', xref: 'x', yref: 'y', x0: settledAt, x1: Math.max(settledAt, timeEnd), y0: final - band, y1: final - band, line: dashed },
+      { type: 'line', xref: 'x', yref: 'y', x0: settledAt, x1: Math.max(settledAt, timeEnd), y0: final + band, y1: final + band, line: dashed, opacity: BAND_OPACITY },
+      { type: 'line', xref: 'x', yref: 'y', x0: settledAt, x1: Math.max(settledAt, timeEnd), y0: final - band, y1: final - band, line: dashed, opacity: BAND_OPACITY },
     );
     marks.annotations.push({
       ...label,
