@@ -7,7 +7,8 @@ import type { MenuCommand } from '../../core/bench/benchApiTypes';
 export interface MenuActions {
   recent: string[];
   command(command: MenuCommand): void;
-  openRecent(path: string): void;
+  /** Opens a recent capture; reads the file asynchronously. */
+  openRecent(path: string): Promise<void>;
   clearRecent(): void;
 }
 
@@ -19,7 +20,7 @@ export function buildAppMenu(actions: MenuActions, isMac: boolean): Menu {
   });
   const recent: MenuItemConstructorOptions[] = actions.recent.length
     ? [
-        ...actions.recent.map((path) => ({ label: basename(path), sublabel: path, click: () => actions.openRecent(path) })),
+        ...actions.recent.map((path) => ({ label: basename(path), sublabel: path, click: () => void actions.openRecent(path) })),
         { type: 'separator' as const },
         { label: 'Clear list', click: () => actions.clearRecent() },
       ]

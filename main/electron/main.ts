@@ -23,9 +23,6 @@ const here = dirname(fileURLToPath(import.meta.url));
 const projectRoot = resolve(here, '..', '..');
 const isMac = process.platform === 'darwin';
 
-registerBenchScheme();
-if (!app.requestSingleInstanceLock()) app.quit();
-
 let win: BrowserWindow | null = null;
 const granted = new GrantedPaths();
 let recent: string[] = [];
@@ -40,10 +37,10 @@ function refreshMenu(): void {
       {
         recent,
         command: (command: MenuCommand) => send(EVENTS.menuCommand, command),
-        openRecent: (path) => {
+        openRecent: async (path) => {
           try {
             if (!granted.isGranted(path)) return;
-            send(EVENTS.captureOpened, readCaptureFile(path));
+            send(EVENTS.captureOpened, await readCaptureFile(path));
             noteOpened(path);
           } catch {
             recent = recent.filter((p) => p !== path);
@@ -67,7 +64,18 @@ function noteOpened(path: string): void {
   refreshMenu();
 }
 
-app.whenReady().then(() => {
+/** The bench in this process: the scheme, the window once Electron is ready, and the app's events. */
+function startBench(): void {
+  registerBenchScheme();
+  void app.whenReady().then(openBench);
+  app.on('second-instance', () => {
+    if (win?.isMinimized()) win.restore();
+    win?.focus();
+  });
+  app.on('window-all-closed', () => app.quit());
+}
+
+function openBench(): void {
   const userData = app.getPath('userData');
   mkdirSync(userData, { recursive: true });
   recent = readRecentCaptures(userData);
@@ -91,11 +99,9 @@ app.whenReady().then(() => {
   win = createBenchWindow(join(here, 'preload.cjs'), '#f4f1ea');
   win.on('closed', () => (win = null));
   void win.loadURL(PAGE_URL);
-});
+}
 
-app.on('second-instance', () => {
-  if (win?.isMinimized()) win.restore();
-  win?.focus();
-});
-
-app.on('window-all-closed', () => app.quit());
+// One bench per user: a second start hands over to the first (its 'second-instance') and ends. app.quit()
+// only asks Electron to quit and returns, so nothing of the bench may be set up after it.
+if (app.requestSingleInstanceLock()) startBench();
+else app.quit();

@@ -1,7 +1,7 @@
 // The window-only calls: native open and save dialogs, and opening files the user granted.
 
 import { dialog, type BrowserWindow } from 'electron';
-import { writeFileSync } from 'node:fs';
+import { writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import type { OpenedCaptureFile } from '../../core/bench/benchApiTypes';
 import type { ShellApi } from '../api/apiMethods';
@@ -24,9 +24,9 @@ const CAPTURE_FILTERS = [
 ];
 
 export function createShellHandlers(context: ShellContext): ShellApi {
-  const openGranted = (path: string): OpenedCaptureFile => {
+  const openGranted = async (path: string): Promise<OpenedCaptureFile> => {
     if (!context.granted.isGranted(path)) throw new BenchApiError('the window may open only files chosen in a dialog or dropped on it');
-    const opened = readCaptureFile(path);
+    const opened = await readCaptureFile(path);
     context.onCaptureOpened(path);
     return opened;
   };
@@ -57,7 +57,7 @@ export function createShellHandlers(context: ShellContext): ShellApi {
       const options = { title: 'Save', defaultPath: join(context.documentsDir, request.suggestedName) };
       const choice = win ? await dialog.showSaveDialog(win, options) : await dialog.showSaveDialog(options);
       if (choice.canceled || !choice.filePath) return null;
-      writeFileSync(choice.filePath, request.encoding === 'base64' ? Buffer.from(request.content, 'base64') : request.content);
+      await writeFile(choice.filePath, request.encoding === 'base64' ? Buffer.from(request.content, 'base64') : request.content);
       return choice.filePath;
     },
   };

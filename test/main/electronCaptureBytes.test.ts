@@ -24,7 +24,7 @@ function ringText(): string {
 
 /** What the window's bridge hands the worker for a file main opened through the dialog. */
 async function openedThroughBridge(path: string) {
-  const opened: OpenedCaptureFile = readCaptureFile(path);
+  const opened: OpenedCaptureFile = await readCaptureFile(path);
   const api = { openCaptureDialog: async () => ({ ok: true, value: opened }) } as unknown as PreloadApi;
   const file = await createDesktopBridge(api).pickCapture();
   if (!file?.bytes) throw new Error('the bridge gave no bytes');

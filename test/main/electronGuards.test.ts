@@ -12,12 +12,16 @@ import { registerIpcHandlers } from '../../main/electron/ipcHandlers';
 import { sampleTransitions } from '../fixtures/benchLog/sampleRecord';
 import { BENCH_CALLS, MENU_COMMANDS as RENDERER_MENU_COMMANDS, type BenchCalls } from '../../renderer/bridgeTypes';
 
-const electron = vi.hoisted(() => ({
-  exposed: {} as Record<string, unknown>,
-  invoke: vi.fn(async (..._args: unknown[]) => ({ ok: true, value: 'answer' })),
-  on: vi.fn(),
-  getPathForFile: vi.fn((_file: unknown) => '/home/bench/captures/ring.csv'),
-}));
+const electron = vi.hoisted(() => {
+  // The page's window, where the preload listens for the page going (vitest runs without a DOM).
+  Object.assign(globalThis, { addEventListener: () => undefined });
+  return {
+    exposed: {} as Record<string, unknown>,
+    invoke: vi.fn(async (..._args: unknown[]) => ({ ok: true, value: 'answer' })),
+    on: vi.fn(),
+    getPathForFile: vi.fn((_file: unknown) => '/home/bench/captures/ring.csv'),
+  };
+});
 
 vi.mock('electron', () => ({
   contextBridge: { exposeInMainWorld: (name: string, api: unknown) => (electron.exposed[name] = api) },
