@@ -5,7 +5,7 @@
 import { quantity, type Quantity } from '../quantity';
 import { evaluateResponse, type ResponseParams } from '../response/secondOrder';
 import { componentsFromResponse } from './components';
-import { combineZones, describeDecisionRule, resolveDecisionRule, type DecisionRule, type DecisionZone, type QuantityLimits } from './decisionRule';
+import { combineZones, resolveDecisionRule, type DecisionRule, type DecisionZone, type QuantityLimits } from './decisionRule';
 import type { Design, DesignSource, LimitedQuantity } from './design';
 import { CircuitInputError } from './errors';
 import { decayRates, designLevels, predictResponse, probeUnit, responseSwing, type DesignLevels } from './predict';
@@ -130,7 +130,8 @@ export function checkDesign(
   const refusal = singleDecayRefusal(design, fit);
   if (refusal) throw new CircuitInputError('fit', refusal);
   const rule = resolveDecisionRule(design.decisionRule);
-  const notes: string[] = [`Decision rule: ${describeDecisionRule(rule)}.`, LIMITS_NOTE];
+  // The rule itself is the verdict's `rule` (every face shows it on its own line), not a note.
+  const notes: string[] = [LIMITS_NOTE];
   const judge = (name: string, designQ: Quantity, measuredQ: Quantity, fromTolerances: () => QuantityLimits) => {
     const stated = DIRECT_ROWS.includes(name) ? design.limits?.[name as LimitedQuantity] : undefined;
     return stated ? judgeQuantity(name, designQ, measuredQ, stated, 'design', rule) : judgeQuantity(name, designQ, measuredQ, fromTolerances(), 'tolerances', rule);

@@ -19,11 +19,11 @@ export function verdictDecisionOf(verdict: Verdict): DecisionZone {
   return (verdict as Partial<Verdict>).decision ?? (verdict.pass ? 'pass' : 'fail');
 }
 
-/** '10.2 ks^-1 to 12.1 ks^-1', 'at most 25 %', 'at least 3'; '–' for a record logged before limits. */
-export function limitsText(q: VerdictQuantity): string {
+/** '10.2 ks^-1 to 12.1 ks^-1', 'at most 25 %', 'at least 3'; '–' for a record logged before limits. `format` writes one value (the window's own). */
+export function limitsText(q: VerdictQuantity, format: (value: number, unit: string) => string = formatEngineering): string {
   const limits = (q as Partial<VerdictQuantity>).limits;
   if (!limits || (limits.lower === null && limits.upper === null)) return '–';
-  const show = (v: number) => formatEngineering(v, q.measured.unit);
+  const show = (v: number) => format(v, q.measured.unit);
   if (limits.lower !== null && limits.upper !== null) return `${show(limits.lower)} to ${show(limits.upper)}`;
   return limits.lower !== null ? `at least ${show(limits.lower)}` : `at most ${show(limits.upper!)}`;
 }

@@ -5,12 +5,25 @@ import { showCompact, showValue } from '../show';
 import { formatEngineering } from '../../core/units/format';
 import { marginText } from '../../core/report/resultRows';
 import { verdictRefusal } from '../../core/workflow/measure';
+import { decisionText, isCounted, limitsText, quantityZoneOf, ruleText, verdictDecisionOf, zoneText } from '../../core/report/verdictText';
 import { percentText } from '../parseInputs';
 import type { Design } from '../../core/circuit/design';
 import type { BenchState } from '../benchState';
 import type { BenchActions } from '../actions';
 
-const NAMES: Record<string, string> = { alpha: 'α damping', omega0: 'ω₀ natural frequency', zeta: 'ζ damping ratio', Q: 'Q quality factor', R: 'R resistance', L: 'L inductance', C: 'C capacitance' };
+const NAMES: Record<string, string> = {
+  alpha: 'α damping',
+  omega0: 'ω₀ natural frequency',
+  f0: 'f₀ natural frequency',
+  zeta: 'ζ damping ratio',
+  Q: 'Q quality factor',
+  R: 'R resistance',
+  L: 'L inductance',
+  C: 'C capacitance',
+  overshoot: 'overshoot',
+  settlingTime2: 'settling (2 %)',
+  settlingTime5: 'settling (5 %)',
+};
 
 export function createDesignPanel(actions: BenchActions) {
   const { root, body } = card('Design check', 'design-panel');
@@ -78,6 +91,8 @@ export function createDesignPanel(actions: BenchActions) {
   body.append(top, form, message, verdictBox);
   let shownSha = '';
   let designsShown = '';
+  // The form edits parts, source and probe; the loaded design's limits and decision rule go with the edited values.
+  let carried: Pick<Design, 'limits' | 'decisionRule'> = {};
 
   function fieldsOf(): Record<string, unknown> {
     const tol = (text: string) => {
@@ -99,10 +114,12 @@ export function createDesignPanel(actions: BenchActions) {
         ? { kind: 'step', amplitude: inputs.first.value.trim(), initialLevel: inputs.second.value.trim() || '0' }
         : { kind: 'natural', capacitorVoltage: inputs.first.value.trim() || '0', inductorCurrent: inputs.second.value.trim() || '0' },
       probe: inputs.probe.value,
+      ...carried,
     };
   }
 
   function fill(design: Design): void {
+    carried = { ...(design.limits ? { limits: design.limits } : {}), ...(design.decisionRule ? { decisionRule: design.decisionRule } : {}) };
     inputs.name.value = design.name;
     inputs.topology.value = design.topology;
     for (const name of ['R', 'L', 'C'] as const) {
@@ -151,27 +168,33 @@ export function createDesignPanel(actions: BenchActions) {
     }
     replaceChildren(
       verdictBox,
-      h('p', { class: `verdict-line ${verdict.pass ? 'ok' : 'bad'}`, id: 'verdict-overall', data: { pass: String(verdict.pass) } }, verdict.pass ? 'In tolerance: the board matches its design' : 'Out of tolerance: the board differs from its design'),
+      h(
+        'p',
+        { class: `verdict-line ${verdict.pass ? 'ok' : 'bad'}`, id: 'verdict-overall', data: { pass: String(verdict.pass), decision: verdictDecisionOf(verdict) } },
+        `${verdict.pass ? 'In tolerance: the board matches its design' : 'Out of tolerance: the board differs from its design'} (${decisionText(verdict)})`,
+      ),
       h(
         'table',
         { class: 'verdict-table' },
-        h('thead', {}, h('tr', {}, h('th', {}, 'Quantity'), h('th', {}, 'Design'), h('th', {}, 'Measured'), h('th', {}, 'Margin'), h('th', {}, ''))),
+        h('thead', {}, h('tr', {}, h('th', {}, 'Quantity'), h('th', {}, 'Design'), h('th', {}, 'Measured'), h('th', {}, 'Limits'), h('th', {}, 'Margin'), h('th', {}, 'Zone'))),
         h(
           'tbody',
           {},
           ...verdict.quantities.map((q) =>
             h(
               'tr',
-              { data: { quantity: q.name, inTolerance: String(q.inTolerance) }, class: q.inTolerance ? '' : 'out' },
+              { data: { quantity: q.name, inTolerance: String(q.inTolerance), zone: quantityZoneOf(q), counted: String(isCounted(q)) }, class: q.inTolerance || !isCounted(q) ? '' : 'out' },
               h('th', { attrs: { scope: 'row' } }, NAMES[q.name] ?? q.name),
               h('td', { class: 'number' }, showCompact(q.design)),
               h('td', { class: 'number' }, showCompact(q.measured)),
+              h('td', { class: 'number' }, limitsText(q, showValue)),
               h('td', { class: 'number' }, marginText(q)),
-              h('td', { class: q.inTolerance ? 'pass' : 'fail' }, q.inTolerance ? 'in' : 'out'),
+              h('td', { class: !isCounted(q) ? 'muted' : q.inTolerance ? 'pass' : 'fail' }, zoneText(q)),
             ),
           ),
         ),
       ),
+      h('p', { class: 'small', id: 'verdict-rule' }, ruleText(verdict) ?? ''),
       verdict.rmsDifference !== null ? h('p', { class: 'small' }, `Measured minus predicted over the fit window: ${showValue(verdict.rmsDifference, state.trace?.unit ?? '')} rms.`) : null,
       verdict.likelyCause
         ? h(

@@ -3,7 +3,7 @@
 // 4.2.1-4.2.3 (simple acceptance, guard band w, pass / conditional pass / conditional fail / fail), JCGM
 // 106:2012 8.3 (acceptance limits; guarded acceptance and guarded rejection).
 import { describe, expect, it } from 'vitest';
-import { accepts, combineZones, decisionZone, resolveDecisionRule, type DecisionRuleName } from '../../core/circuit/decisionRule';
+import { accepts, combineZones, decisionZone, describeDecisionRule, resolveDecisionRule, type DecisionRuleName } from '../../core/circuit/decisionRule';
 import { DesignError, parseDesign, serializeDesign, type Design } from '../../core/circuit/design';
 import { predictResponse } from '../../core/circuit/predict';
 import { checkDesign, type FittedResponse } from '../../core/circuit/verdict';
@@ -166,8 +166,8 @@ describe('checkDesign with limits stated in the design', () => {
     expect(guarded.quantities.find((q) => q.name === 'f0')!.zone).toBe('conditional-pass');
     expect([guarded.decision, guarded.pass]).toEqual(['conditional-pass', false]);
     expect([simple.decision, simple.pass]).toEqual(['conditional-pass', true]);
-    expect(guarded.notes[0]).toMatch(/^Decision rule: guarded-acceptance, guard band w = 1 U, U = k u with k = 2 \(the default/);
-    expect(simple.notes[0]).toMatch(/^Decision rule: simple-acceptance, no guard band \(w = 0\), U = k u with k = 2 \(chosen by the design/);
+    expect(describeDecisionRule(guarded.rule)).toMatch(/^guarded-acceptance, guard band w = 1 U, U = k u with k = 2 \(the default/);
+    expect(describeDecisionRule(simple.rule)).toMatch(/^simple-acceptance, no guard band \(w = 0\), U = k u with k = 2 \(chosen by the design/);
   });
 
   it('a limited step metric the fit did not measure is said, not silently passed', () => {
