@@ -3,8 +3,6 @@
 import type { CliIo } from './io';
 
 const BAR_WIDTH = 24;
-/** Carriage return, then erase to the end of the line: the bar is redrawn over itself. */
-const REDRAW = '\r\x1b[K';
 
 function clockText(seconds: number): string {
   const s = Math.round(seconds);
@@ -26,27 +24,33 @@ export function progressLine(done: number, total: number, elapsedSeconds: number
 }
 
 export interface Progress {
-  /** `done` captures finished: redraw the bar. */
+  /** `done` captures finished: draw the bar again. */
   update(done: number): void;
   /** Write a line to stdout without tearing the bar. */
   print(text: string): void;
 }
 
-/** A bar on stderr when it is a terminal; nothing at all when it is not (a pipe, a file, a job runner's log) or nothing is to be done. */
+/**
+ * A bar on stderr when it is a terminal, redrawn in place (io.redraw), or one line per update where the io cannot
+ * redraw; nothing at all when stderr is no terminal (a pipe, a file, a job runner's log) or nothing is to be done.
+ */
 export function startProgress(io: CliIo, total: number, now: () => number = () => performance.now()): Progress {
   if (!io.interactive || total === 0) return { update: () => {}, print: (text) => io.out(text) };
+  const { redraw } = io;
+  const draw = redraw ? (text: string) => redraw(text) : (text: string) => io.err(`${text}\n`);
   const began = now();
   let line = progressLine(0, total, 0);
-  io.err(line);
+  draw(line);
   return {
     update(done) {
       line = progressLine(done, total, (now() - began) / 1000);
-      io.err(`${REDRAW}${line}${done >= total ? '\n' : ''}`);
+      draw(line);
+      if (done >= total && redraw) io.err('\n');
     },
     print(text) {
-      io.err(REDRAW);
+      if (redraw) redraw('');
       io.out(text);
-      io.err(line);
+      if (redraw) redraw(line);
     },
   };
 }

@@ -9,6 +9,8 @@ export interface CliIo {
   cwd: string;
   /** True when stderr is a terminal (progress lines are shown only then). */
   interactive: boolean;
+  /** On a terminal: replace the line stderr is on with `line` (progress redrawn in place). Absent: progress goes line by line to err. */
+  redraw?(line: string): void;
 }
 
 export function processIo(): CliIo {
@@ -17,6 +19,8 @@ export function processIo(): CliIo {
     err: (text) => process.stderr.write(text),
     cwd: process.cwd(),
     interactive: Boolean(process.stderr.isTTY),
+    // Carriage return, then erase to the end of the line: the line is drawn over itself.
+    redraw: (line) => process.stderr.write(`\r\x1b[K${line}`),
   };
 }
 
@@ -25,5 +29,11 @@ export function processIo(): CliIo {
  * prints (a capture's header, a file name, a log record, commander's own messages) cannot drive the terminal.
  */
 export function terminalSafe(io: CliIo): CliIo {
-  return { ...io, out: (text) => io.out(escapeControls(text, 'keep-layout')), err: (text) => io.err(escapeControls(text, 'keep-layout')) };
+  const { redraw } = io;
+  return {
+    ...io,
+    out: (text) => io.out(escapeControls(text, 'keep-layout')),
+    err: (text) => io.err(escapeControls(text, 'keep-layout')),
+    ...(redraw ? { redraw: (line: string) => redraw(escapeControls(line)) } : {}),
+  };
 }

@@ -11,6 +11,9 @@ import { progressLine } from '../../main/cli/batchProgress';
 import { NOMINAL_LOOP, writeLoopCapture } from '../fixtures/benchLog/captures';
 import { runCliIn } from './cliHarness';
 
+/** Each test fits the lot several times over; on a busy machine that takes minutes, not seconds (no time is asserted). */
+const SLOW = 300_000;
+
 const ROOT = resolve(fileURLToPath(new URL('.', import.meta.url)), '../..');
 let folder: string;
 let captures: string;
@@ -37,7 +40,7 @@ describe('batch --jobs', () => {
     const jsonTwo = await runCliIn(folder, ['batch', 'lot', '--jobs', '2', '--json']);
     expect(jsonTwo).toEqual(jsonOne);
     expect((JSON.parse(jsonOne.out) as { file: string }[]).map((e) => e.file)).toEqual(['u0-torn.csv', 'u1.csv', 'u2.csv', 'u3.csv', 'u4.csv', 'u5.csv']);
-  });
+  }, SLOW);
 
   it('logs every converged capture once with --jobs 2, the unit named after its file', async () => {
     const log = join(folder, 'jobs.jsonl');
@@ -46,7 +49,7 @@ describe('batch --jobs', () => {
     const { records } = readBenchLog(log);
     expect(records.map((r) => r.unit).sort()).toEqual(['u1', 'u2', 'u3', 'u4', 'u5']);
     expect(new Set(records.map((r) => r.operator))).toEqual(new Set(['R. Adeyemi']));
-  });
+  }, SLOW);
 
   it.each(['0', '-2', '1.5', 'two', ''])('--jobs %j is bad input: exit 2 naming --jobs, nothing fitted or logged', async (jobs) => {
     const log = join(folder, 'refused.jsonl');
@@ -61,14 +64,17 @@ describe('batch --jobs', () => {
 
 describe('progress', () => {
   it('draws a bar with count, rate and time left on a terminal, and writes nothing to stderr when piped', async () => {
+    // In-process the io cannot redraw a line, so each drawing is a line of its own.
     const terminal = await runCliIn(folder, ['batch', 'lot', '--jobs', '2'], true);
-    expect(terminal.err).toMatch(/^\[-{24}\]  0\/6  - captures\/s  - left/);
-    expect(terminal.err).toMatch(/\r\x1b\[K\[#+-*\]  [1-5]\/6  [\d.]+ captures\/s  \d+:\d\d left/);
-    expect(terminal.err).toMatch(/\r\x1b\[K\[#{24}\]  6\/6  done in \d+:\d\d\n$/);
+    const bars = terminal.err.split('\n');
+    expect(bars).toHaveLength(8);
+    expect(bars[0]).toBe('[------------------------]  0/6  - captures/s  - left');
+    for (const bar of bars.slice(1, 6)) expect(bar).toMatch(/^\[#+-+\]  [1-5]\/6  [\d.]+ captures\/s  \d+:\d\d left$/);
+    expect(bars[6]).toMatch(/^\[#{24}\]  6\/6  done in \d+:\d\d$/);
     const piped = await runCliIn(folder, ['batch', 'lot', '--jobs', '2']);
     expect(piped.err).toBe('');
     expect(piped.out).toBe(terminal.out);
-  });
+  }, SLOW);
 
   it.each([
     [0, 120, 0, '[------------------------]    0/120  - captures/s  - left'],
@@ -82,6 +88,14 @@ describe('progress', () => {
 });
 
 describe('the built command line', () => {
+  it('redraws its bar in place on a terminal (a pseudo-terminal made by script(1))', () => {
+    const command = `${process.execPath} ${join(ROOT, 'bin/ringbench.js')} batch ${captures} --jobs 2 > /dev/null`;
+    const shown = spawnSync('script', ['-q', '-e', '-c', command, '/dev/null'], { cwd: tmpdir(), encoding: 'utf8' });
+    expect(shown.status).toBe(1);
+    expect(shown.stdout).toMatch(/^\r\x1b\[K\[-{24}\]  0\/6  - captures\/s  - left\r\x1b\[K\[#+-+\]  1\/6 /);
+    expect(shown.stdout).toMatch(/\r\x1b\[K\[#{24}\]  6\/6  done in \d+:\d\d\r?\n$/);
+  }, SLOW);
+
   it('finds its worker from any working folder and prints what the source prints', async () => {
     const cli = join(ROOT, 'bin/ringbench.js');
     const built = spawnSync(process.execPath, [cli, 'batch', captures, '--jobs', '2', '--json'], { cwd: tmpdir(), encoding: 'utf8' });
@@ -89,5 +103,5 @@ describe('the built command line', () => {
     expect(built.status).toBe(1);
     const fromSource = await runCliIn(folder, ['batch', 'lot', '--jobs', '1', '--json']);
     expect(JSON.parse(built.stdout)).toEqual(JSON.parse(fromSource.out));
-  });
+  }, SLOW);
 });

@@ -9,6 +9,9 @@ import { readBenchLog } from '../../main/io/benchLog';
 import { NOMINAL_LOOP, writeLoopCapture } from '../fixtures/benchLog/captures';
 import { runCliIn } from './cliHarness';
 
+/** Fitting the lot takes minutes, not seconds, on a busy machine (no time is asserted). */
+const SLOW = 300_000;
+
 /** A name that breaks a line and quotes itself: one JSON line must still hold it. */
 const HOSTILE_NAME = 'unit\n7 "quoted" \u001b[2J.csv';
 const GOOD = ['a1.csv', 'a2.csv', 'a3.csv'];
@@ -58,7 +61,7 @@ describe('batch --jsonl', () => {
       expect(line.message).not.toMatch(/internal error/);
     }
     expect(readBenchLog(log).records.map((r) => r.unit).sort()).toEqual(['a1', 'a2', 'a3']);
-  });
+  }, SLOW);
 
   it("a line is --json's element for the same capture", async () => {
     const [jsonl, json] = await Promise.all([runCliIn(folder, ['batch', 'lot', '--jsonl', '--jobs', '1']), runCliIn(folder, ['batch', 'lot', '--json', '--jobs', '1'])]);
@@ -68,7 +71,7 @@ describe('batch --jsonl', () => {
       if (element.error === undefined) expect(lines.get(element.file)).toEqual(element);
       else expect(lines.get(element.file)).toEqual({ file: element.file, status: 'error', message: element.error });
     }
-  });
+  }, SLOW);
 
   it('refuses --json with --jsonl: exit 2, nothing printed', async () => {
     const { code, out, err } = await runCliIn(folder, ['batch', 'lot', '--jsonl', '--json']);
