@@ -17,7 +17,9 @@ export type OverlayDrawer = (root: HTMLElement, comparison: Comparison, overlay:
 export function createBeforeAfterPanel(actions: BenchActions, drawOverlay: OverlayDrawer) {
   const { root, body } = card('Before / after', 'before-after-panel');
   const overlayPlot = h('div', { class: 'small-plot', id: 'compare-overlay', attrs: { 'aria-label': 'The before and after captures overlaid at their fitted event times, with their fits' } });
+  // What the plot shows, and in which theme: drawn again when either changes.
   let drawn: Comparison | null = null;
+  let drawnTheme = '';
   const chosen: Record<'before' | 'after', CaptureFile | null> = { before: null, after: null };
   let samplesShown = '';
   const sides = (['before', 'after'] as const).map((side) => {
@@ -67,8 +69,10 @@ export function createBeforeAfterPanel(actions: BenchActions, drawOverlay: Overl
       }
     }
     overlayPlot.hidden = !state.comparisonOverlay;
-    if (state.comparison !== drawn) {
+    const theme = document.documentElement.dataset.theme ?? '';
+    if (state.comparison !== drawn || theme !== drawnTheme) {
       drawn = state.comparison;
+      drawnTheme = theme;
       if (drawn && state.comparisonOverlay) void drawOverlay(overlayPlot, drawn, state.comparisonOverlay);
     }
     if (state.comparisonError) return replaceChildren(results, h('p', { class: 'error-text', id: 'compare-error' }, state.comparisonError));

@@ -23,7 +23,9 @@ export type CapacitanceLineDrawer = (root: HTMLElement, result: ParasiticsResult
 export function createParasiticPanel(actions: BenchActions, drawLine: CapacitanceLineDrawer) {
   const { root, body } = card('Parasitic extraction', 'parasitic-panel');
   const linePlot = h('div', { class: 'small-plot', id: 'extraction-line-plot', attrs: { 'aria-label': '1/(2π f0)² of each capture against its added capacitance, with the fitted line' } });
+  // What the plot shows, and in which theme: drawn again when either changes.
   let drawn: ParasiticsResult | null = null;
+  let drawnTheme = '';
   const rows: RowControls[] = [];
   const list = h('div', { class: 'extraction-rows', id: 'extraction-rows' });
   const input = (id: string, label: string, placeholder = '') => textInput('', { id, title: label, attrs: { placeholder, 'aria-label': label } });
@@ -118,8 +120,10 @@ export function createParasiticPanel(actions: BenchActions, drawLine: Capacitanc
     useSet.disabled = !next.samples.some((s) => s.addedCapacitor !== null);
     useCurrent.disabled = !next.capture;
     linePlot.hidden = !next.extraction;
-    if (next.extraction !== drawn) {
+    const theme = document.documentElement.dataset.theme ?? '';
+    if (next.extraction !== drawn || theme !== drawnTheme) {
       drawn = next.extraction;
+      drawnTheme = theme;
       if (drawn) void drawLine(linePlot, drawn, next.extractionProbeC);
     }
     if (next.extractionError) return replaceChildren(results, h('p', { class: 'error-text', id: 'extraction-error' }, next.extractionError));

@@ -48,6 +48,12 @@ describe.skipIf(!hasChromium)('plots over several captures', () => {
     const lp = Number(await page.locator('#parasitic-results tr[data-quantity="Lp"]').getAttribute('data-value'));
     expect(Number(await page.locator('#extraction-line-plot').getAttribute('data-slope'))).toBe(lp);
     await page.locator('#parasitic-panel').screenshot({ path: join(outputDir, 'extraction-line-1600.png') });
+    // Drawn again in the other theme's colours.
+    const stroke = () => page.locator('#extraction-line-plot .scatterlayer .trace path.js-line').first().evaluate((path) => getComputedStyle(path).stroke);
+    const light = await stroke();
+    await page.click('#theme-toggle');
+    await page.waitForFunction((before) => getComputedStyle(document.querySelector('#extraction-line-plot .scatterlayer .trace path.js-line') as Element).stroke !== before, light);
+    await page.click('#theme-toggle');
   });
 
   it('overlays the before and after captures with their fits', async () => {
