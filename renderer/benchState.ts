@@ -75,6 +75,8 @@ export interface BenchState {
   /** The event the user chose to fit in a record holding several (1-based); null for the default one. */
   chosenEvent: number | null;
   componentsInput: ComponentsInput;
+  /** Where the known part came from: the sample list's entry for the capture, typed by the user, or none stated. */
+  knownPartFrom: 'sample' | 'typed' | null;
   components: ComponentsState | null;
   componentsError: string | null;
   design: LoadedDesign | null;
@@ -93,6 +95,8 @@ export interface BenchState {
   log: BenchLogView | null;
   logError: string | null;
   logMessage: string | null;
+  /** What the last copy put on the clipboard, said beside the copy buttons. */
+  copied: string | null;
   /** What is running, for the progress line; null when idle. */
   busy: string | null;
   /** A failure to show in plain words (dismissable). */
@@ -116,6 +120,7 @@ export function initialState(face: 'window' | 'browser'): BenchState {
     userWindow: {},
     chosenEvent: null,
     componentsInput: { topology: 'series', knownName: 'C', knownText: '', toleranceText: '' },
+    knownPartFrom: null,
     components: null,
     componentsError: null,
     design: null,
@@ -132,6 +137,7 @@ export function initialState(face: 'window' | 'browser'): BenchState {
     log: null,
     logError: null,
     logMessage: null,
+    copied: null,
     busy: null,
     error: null,
   };

@@ -7,9 +7,9 @@ import { rememberCapture, recallCapture } from '../lastCapture';
 import { plainMessage } from '../plainMessage';
 import { sha256Hex } from '../sha256';
 import { reweighCautions } from './cautions';
-import { applySampleOptions } from './components';
+import { startKnownPart } from './components';
 import { runStep, showProgress, type ActionContext } from './context';
-import { clearDesign, loadDesignText } from './design';
+import { clearDesign, loadDesignText, openDroppedDesign } from './design';
 import { measure } from './fitWindow';
 import { drawPlot } from './plotView';
 import { refreshLog } from './benchLog';
@@ -40,7 +40,11 @@ export async function pickCapture(ctx: ActionContext): Promise<void> {
   if (opened) await openCapture(ctx, opened, {});
 }
 
+/** A design file's extension: a dropped .json is a design, anything else a capture. */
+const DESIGN_FILE = /\.json$/i;
+
 export async function openDropped(ctx: ActionContext, file: File): Promise<void> {
+  if (DESIGN_FILE.test(file.name)) return openDroppedDesign(ctx, file);
   const opened = await runStep(ctx, `opening ${file.name}`, () => ctx.bridge.openDropped(file));
   if (opened) await openCapture(ctx, opened, {});
 }
@@ -52,7 +56,7 @@ export async function openCapture(
 ): Promise<void> {
   const read = await readCapture(ctx, opened, options.sample ?? null, options.reading ?? { units: FILE_UNITS }, options.channel);
   if (read === 'failed') return;
-  if (options.sample) ctx.store.update((s) => applySampleOptions(s, options.sample as SampleEntry));
+  ctx.store.update((s) => startKnownPart(s, options.sample ?? null));
   ctx.page.showCaptureName(opened.name);
   if (options.design) await loadDesignText(ctx, options.design, `sample-captures/designs/${options.design.name}`, 'sample');
   else if (options.sample || ctx.store.state.design?.origin === 'sample') clearDesign(ctx);
@@ -121,6 +125,11 @@ async function readCapture(ctx: ActionContext, opened: OpenedFile, sample: Sampl
 async function showAndMeasure(ctx: ActionContext): Promise<void> {
   await loadTrace(ctx);
   await measure(ctx);
+  rememberShown(ctx);
+}
+
+/** The capture on screen, its channel and how it was read, for the next start (a sample by id, a file by its content). */
+function rememberShown(ctx: ActionContext): void {
   const capture = ctx.store.state.capture;
   if (!capture) return;
   const { opened } = capture;
@@ -138,9 +147,10 @@ export async function chooseChannel(ctx: ActionContext, index: number): Promise<
     capture.channel = index;
     forgetMeasurement(s);
   });
+  // Remembered at once: a reload during the fit still comes back to this channel.
+  rememberShown(ctx);
   await loadTrace(ctx);
   await measure(ctx);
-  if (capture.opened.sampleId) void rememberCapture({ kind: 'sample', id: capture.opened.sampleId, channel: index });
 }
 
 /** Another capture or channel: nothing measured on the previous one stays. */
@@ -153,6 +163,8 @@ function forgetMeasurement(state: ActionContext['store']['state']): void {
   state.trace = null;
   state.verdict = null;
   state.components = null;
+  state.cautions = null;
+  state.copied = null;
 }
 
 /** The channel's samples, drawn at once so the capture shows while its fit runs. */

@@ -34,6 +34,9 @@ export function knownPartForFit(state: BenchState): KnownPartRequest | undefined
 export function setComponentsInput(ctx: ActionContext, change: Partial<ComponentsInput>): void {
   ctx.store.update((state) => {
     state.componentsInput = { ...state.componentsInput, ...change };
+    // A topology alone leaves the part where it came from; a part typed or changed is the user's.
+    if (state.componentsInput.knownText.trim() === '') state.knownPartFrom = null;
+    else if (Object.keys(change).some((key) => key !== 'topology')) state.knownPartFrom = 'typed';
     state.components = null;
     const part = knownPartForFit(state);
     if (part && state.fit) {
@@ -47,9 +50,17 @@ export function setComponentsInput(ctx: ActionContext, change: Partial<Component
   });
 }
 
-/** A sample's own topology and known part, as its manifest entry gives them to the command line. */
-export function applySampleOptions(state: BenchState, sample: SampleEntry): void {
-  const known = sample.options.known ? splitKnownOption(sample.options.known) : null;
-  const topology = sample.options.topology === 'parallel' ? 'parallel' : 'series';
-  if (known) state.componentsInput = { topology, knownName: known.name, knownText: known.text, toleranceText: '' };
+/**
+ * A new capture starts from the known part its sample entry states (as the command line gets it from the manifest),
+ * or from none: a part typed for another capture never carries over into this one's R, L, C and cautions.
+ */
+export function startKnownPart(state: BenchState, sample: SampleEntry | null): void {
+  const known = sample?.options.known ? splitKnownOption(sample.options.known) : null;
+  const topology = sample ? (sample.options.topology === 'parallel' ? 'parallel' : 'series') : state.componentsInput.topology;
+  state.componentsInput = known
+    ? { topology, knownName: known.name, knownText: known.text, toleranceText: '' }
+    : { ...state.componentsInput, topology, knownText: '', toleranceText: '' };
+  state.knownPartFrom = known ? 'sample' : null;
+  state.componentsError = null;
+  state.components = null;
 }

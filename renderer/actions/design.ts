@@ -5,6 +5,7 @@ import { verdictRefusal } from '../../core/workflow/measure';
 import type { LoadedDesign } from '../benchState';
 import type { NamedText } from '../bridgeTypes';
 import { plainMessage } from '../plainMessage';
+import { readFileText } from '../browserFiles';
 import { sha256Hex } from '../sha256';
 import { reweighCautions } from './cautions';
 import { runStep, type ActionContext } from './context';
@@ -17,6 +18,12 @@ export async function loadDesignFromSamples(ctx: ActionContext, id: string): Pro
 
 export async function pickDesign(ctx: ActionContext): Promise<void> {
   const named = await runStep(ctx, 'opening a design', () => ctx.bridge.pickDesign());
+  if (named) await applyDesign(ctx, named, named.name, 'user');
+}
+
+/** A design file dropped on the window (any .json): read here, as the file input reads one. */
+export async function openDroppedDesign(ctx: ActionContext, file: File): Promise<void> {
+  const named = await runStep(ctx, `opening ${file.name}`, () => readFileText(file));
   if (named) await applyDesign(ctx, named, named.name, 'user');
 }
 

@@ -10,7 +10,7 @@ import { runComparison, type CompareSettings } from './compare';
 import { setComponentsInput } from './components';
 import type { ActionContext } from './context';
 import { clearDesign, loadDesignFromSamples, pickDesign, saveDesign, useEditedDesign } from './design';
-import { exportPlot, exportReport } from './export';
+import { copyPlot, copyResults, exportPlot, exportReport } from './export';
 import { runExtraction, type ExtractionRow, type ExtractionSettings } from './extraction';
 import { chooseEvent, setWindow } from './fitWindow';
 import { pickCaptureFile, readSampleText } from './pickCaptures';
@@ -41,6 +41,8 @@ export function bindActions(ctx: ActionContext) {
     logMeasurement: (form: LogForm) => logMeasurement(ctx, form),
     exportReport: (format: ReportFormat) => exportReport(ctx, format),
     exportPlot: (format: 'png' | 'svg') => exportPlot(ctx, format),
+    copyResults: (form: 'text' | 'csv') => copyResults(ctx, form),
+    copyPlot: () => copyPlot(ctx),
     pickCaptureFile: () => pickCaptureFile(ctx),
     readSampleText: (id: string) => readSampleText(ctx, id),
     runExtraction: (rows: readonly ExtractionRow[], settings: ExtractionSettings) => runExtraction(ctx, rows, settings),

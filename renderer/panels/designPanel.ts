@@ -25,6 +25,10 @@ const NAMES: Record<string, string> = {
   settlingTime5: 'settling (5 %)',
 };
 
+/** Why the design check's ± is wider than the components panel's for the same R, L or C. */
+const COMBINED_UNCERTAINTY =
+  'Design ±: its tolerance as a standard uncertainty (tol/√3). Measured ±: the fit\'s 1σ; R, L and C here take one part at its design value, so theirs combines the fit with that part\'s tolerance (the components panel shows the measurement alone).';
+
 export function createDesignPanel(actions: BenchActions) {
   const { root, body } = card('Design check', 'design-panel');
   const designSelect = h('select', { id: 'design-select', attrs: { 'aria-label': 'Sample designs' } });
@@ -176,7 +180,11 @@ export function createDesignPanel(actions: BenchActions) {
       h(
         'table',
         { class: 'verdict-table' },
-        h('thead', {}, h('tr', {}, h('th', {}, 'Quantity'), h('th', {}, 'Design'), h('th', {}, 'Measured'), h('th', {}, 'Limits'), h('th', {}, 'Margin'), h('th', {}, 'Zone'))),
+        h(
+          'thead',
+          {},
+          h('tr', {}, h('th', {}, 'Quantity'), h('th', { id: 'verdict-design-head' }, 'Design ± tolerance'), h('th', { id: 'verdict-measured-head' }, 'Measured ± combined'), h('th', {}, 'Limits'), h('th', {}, 'Margin'), h('th', {}, 'Zone')),
+        ),
         h(
           'tbody',
           {},
@@ -194,6 +202,7 @@ export function createDesignPanel(actions: BenchActions) {
           ),
         ),
       ),
+      h('p', { class: 'small muted', id: 'verdict-uncertainty' }, COMBINED_UNCERTAINTY),
       h('p', { class: 'small', id: 'verdict-rule' }, ruleText(verdict) ?? ''),
       verdict.rmsDifference !== null ? h('p', { class: 'small' }, `Measured minus predicted over the fit window: ${showValue(verdict.rmsDifference, state.trace?.unit ?? '')} rms.`) : null,
       verdict.likelyCause

@@ -51,14 +51,25 @@ export function createFitPanel(actions: BenchActions) {
     button('Automatic', () => void actions.setWindow({}), { id: 'auto-window', title: 'Let the fit find the window from the data' }),
   );
   for (const input of [startInput, endInput]) input.addEventListener('keydown', (e) => e.key === 'Enter' && apply());
+  const copyNote = h('span', { class: 'field-note', id: 'copy-note', attrs: { role: 'status' } });
+  const copyRow = h(
+    'div',
+    { class: 'copy-row', id: 'copy-row' },
+    button('Copy as text', () => void actions.copyResults('text'), { id: 'copy-text', class: 'quiet', title: 'The results as the command line prints them' }),
+    button('Copy CSV row', () => void actions.copyResults('csv'), { id: 'copy-csv', class: 'quiet', title: 'A header and one row, SI base units, for a spreadsheet' }),
+    button('Copy plot', () => void actions.copyPlot(), { id: 'copy-plot', class: 'quiet', title: 'The plot as an image, captioned with the file, channel and fit' }),
+    copyNote,
+  );
   const extra = h('div', { class: 'details' });
   const steps = h('div', { id: 'transitions' });
   const eventList = h('div', { id: 'events' });
-  body.append(status, table, eventList, steps, h('h3', {}, 'Fit window'), h('p', { class: 'field-hint' }, 'Drag the edges of the shaded region on the plot, or type the times.'), windowRow, windowNote, extra);
+  body.append(status, table, copyRow, eventList, steps, h('h3', {}, 'Fit window'), h('p', { class: 'field-hint' }, 'Drag the edges of the shaded region on the plot, or type the times.'), windowRow, windowNote, extra);
 
   function render(state: BenchState): void {
     const { fit, summary, fitError } = state;
     root.dataset.fitCount = String(state.fitCount);
+    copyRow.hidden = !summary;
+    copyNote.textContent = state.copied ?? '';
     if (!fit || !summary) {
       const idle = state.refused ? `${state.refused.opened.name} was not read: state its ${state.refused.refusal.unit} unit in the capture panel.` : 'Open a capture to fit it.';
       replaceChildren(status, fitError ? h('p', { class: 'error-text' }, fitError) : h('p', { class: 'muted' }, state.capture ? 'Fitting…' : idle));
