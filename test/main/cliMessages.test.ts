@@ -133,3 +133,21 @@ describe('a design file with a UTF-8 byte-order mark', () => {
     expect(err).toMatch(/^ringbench: bom-broken\.json: design version: /);
   });
 });
+
+describe('compare names the capture at fault', () => {
+  it.each([
+    ['the first', ['empty-before.csv', ring], 'empty-before.csv'],
+    ['the second', [ring, 'empty-after.csv'], 'empty-after.csv'],
+  ])('%s of the two', async (_which, files, faulty) => {
+    writeFileSync(path.join(dir, faulty), 'no numbers here\n');
+    const { code, err } = await run(['compare', ...files]);
+    expect(code).toBe(2);
+    expect(err).toMatch(new RegExp(`^ringbench: ${faulty.replace('.', '\\.')}: `));
+  });
+
+  it('an option no capture could satisfy stays unnamed', async () => {
+    const { code, err } = await run(['compare', ring, ring, '--known', 'C=1n']);
+    expect(code).toBe(2);
+    expect(err).toBe('ringbench: --topology and --known go together: give both to derive R, L and C\n');
+  });
+});
