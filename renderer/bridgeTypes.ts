@@ -6,6 +6,7 @@ import type {
   BenchLogRequest,
   BenchLogView,
   DesignEntry,
+  LogCorrectionRequest,
   MenuCommand,
   NamedText,
   OpenedCapture,
@@ -36,6 +37,7 @@ export interface PreloadApi {
   readDesign(id: string): Promise<ApiResult<NamedText>>;
   readBenchLog(): Promise<ApiResult<BenchLogView>>;
   appendBenchLog(request: BenchLogRequest): Promise<ApiResult<BenchLogView>>;
+  correctBenchLog(request: LogCorrectionRequest): Promise<ApiResult<BenchLogView>>;
   renderReport(format: ReportFormat): Promise<ApiResult<NamedText>>;
   openCaptureDialog(): Promise<ApiResult<OpenedCaptureFile | null>>;
   openDesignDialog(): Promise<ApiResult<NamedText | null>>;

@@ -12,6 +12,7 @@ export function createDesktopBridge(api: PreloadApi): Bridge {
     readDesign: async (id) => unwrap(await api.readDesign(id)),
     readBenchLog: async () => unwrap(await api.readBenchLog()),
     appendBenchLog: async (request) => unwrap(await api.appendBenchLog(request)),
+    correctBenchLog: async (request) => unwrap(await api.correctBenchLog(request)),
     renderReport: async (format) => unwrap(await api.renderReport(format)),
     pickCapture: async () => {
       const opened = unwrap(await api.openCaptureDialog());

@@ -34,6 +34,7 @@ export function createHttpBridge(token: string, captureInput: HTMLInputElement, 
     readDesign: (id) => call('readDesign', id),
     readBenchLog: () => call('readBenchLog'),
     appendBenchLog: (request) => call('appendBenchLog', request),
+    correctBenchLog: (request) => call('correctBenchLog', request),
     renderReport: (format) => call('renderReport', format),
     pickCapture: async () => {
       const file = await chooseFile(captureInput);

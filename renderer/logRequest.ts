@@ -1,7 +1,10 @@
-// The bench-log request for the measurement on screen, laid out as the command line logs it.
+// The bench-log requests of the window: the measurement on screen, laid out as the command line logs it, and
+// the amendment or withdrawal of a logged one.
 
 import type { BenchState } from './benchState';
-import type { BenchLogRequest } from './bridgeTypes';
+import type { BenchLogRequest, LogCorrectionRequest } from './bridgeTypes';
+import type { BenchRecord } from '../core/report/benchRecord';
+import type { CorrectionAction, LabelChanges } from '../core/report/logCorrection';
 import { fitSucceeded } from '../core/report/fitSummary';
 import { BenchError } from './benchError';
 import { segmentRead } from './traceData';
@@ -48,4 +51,26 @@ export function buildLogRequest(state: BenchState, form: LogForm): BenchLogReque
     design: design ? { path: design.path, name: design.design.name, sha256: design.sha256, spec: design.design } : null,
     cautions: logged,
   };
+}
+
+/** The labels as typed in the change form, and why. */
+export interface CorrectionForm extends LogForm {
+  reason: string;
+}
+
+/** An amendment of the labels that differ from the record's (a blank operator or note clears it), or a withdrawal; BenchError when nothing would change or no reason is given. */
+export function buildCorrectionRequest(record: BenchRecord, form: CorrectionForm, action: CorrectionAction): LogCorrectionRequest {
+  if (form.reason.trim() === '') throw new BenchError(`say why the measurement of ${record.unit} is ${action === 'amend' ? 'amended' : 'withdrawn'}: the reason is kept in the log`);
+  const changes: LabelChanges = {};
+  if (action === 'amend') {
+    const unit = form.unit.trim();
+    const operator = form.operator.trim() || null;
+    const note = form.note.trim() || null;
+    if (unit === '') throw new BenchError('the unit under test needs a name or serial number');
+    if (unit !== record.unit) changes.unit = unit;
+    if (operator !== record.operator) changes.operator = operator;
+    if (note !== record.note) changes.note = note;
+    if (!Object.keys(changes).length) throw new BenchError('change the unit, operator or note first: the amendment would change nothing');
+  }
+  return { target: record.id, action, changes, reason: form.reason.trim() };
 }

@@ -2,6 +2,7 @@
 // the calls, what they take and answer, and the menu commands. Types only, plus the two name lists.
 
 import type { BenchRecord } from '../report/benchRecord';
+import type { CorrectionAction, LabelChanges } from '../report/logCorrection';
 
 /** What crosses IPC and HTTP: a value or a plain message, never a thrown stack. */
 export type ApiResult<T> = { ok: true; value: T } | { ok: false; error: string; code?: ApiErrorCode };
@@ -70,6 +71,20 @@ export interface BenchLogView {
   records: BenchRecord[];
   /** Plain notes: a cut-off last line, lines that are not records. */
   notes: string[];
+  /** Logged measurements withdrawn since, each with the withdrawal's time and reason (absent when none). */
+  withdrawn?: { record: BenchRecord; time: string; reason: string }[];
+  /** Ids of the measurements whose labels were amended (absent when none). */
+  amended?: string[];
+}
+
+/** Amend the labels of a logged measurement or withdraw it; kept in the log as a correction record, nothing rewritten. */
+export interface LogCorrectionRequest {
+  /** Id of the measurement. */
+  target: string;
+  action: CorrectionAction;
+  /** The labels an amendment changes; {} for a withdrawal. */
+  changes: LabelChanges;
+  reason: string;
 }
 
 /** A file the window asks to save through a dialog. */
@@ -87,6 +102,8 @@ export interface BenchApi {
   readDesign(id: string): Promise<NamedText>;
   readBenchLog(): Promise<BenchLogView>;
   appendBenchLog(request: BenchLogRequest): Promise<BenchLogView>;
+  /** Append an amendment or withdrawal of a logged measurement; answers the log as it stands then. */
+  correctBenchLog(request: LogCorrectionRequest): Promise<BenchLogView>;
   /** The bench log as a report (the same as `ringbench report`), to be saved by the window. */
   renderReport(format: ReportFormat): Promise<NamedText>;
 }
@@ -94,7 +111,7 @@ export interface BenchApi {
 export type ReportFormat = 'html' | 'md' | 'csv';
 
 /** The calls the HTTP server answers too (the shell calls need the window's dialogs). */
-export const BENCH_METHODS = ['listSamples', 'readSample', 'listDesigns', 'readDesign', 'readBenchLog', 'appendBenchLog', 'renderReport'] as const satisfies readonly (keyof BenchApi)[];
+export const BENCH_METHODS = ['listSamples', 'readSample', 'listDesigns', 'readDesign', 'readBenchLog', 'appendBenchLog', 'renderReport', 'correctBenchLog'] as const satisfies readonly (keyof BenchApi)[];
 
 export const MENU_COMMANDS = ['open-capture', 'open-design', 'save-report', 'export-png', 'export-svg', 'toggle-theme'] as const;
 export type MenuCommand = (typeof MENU_COMMANDS)[number];

@@ -1,6 +1,7 @@
 // One bench-log record (a logged measurement of one unit) and the check of a line read back.
 
 import { InputError } from '../inputError';
+import { isObject, isText, measurementShapeProblem, type ShapeProblem } from './recordShape';
 
 import type { FitSummary } from './fitSummary';
 import type { Verdict } from '../circuit/verdict';
@@ -9,6 +10,8 @@ import type { CautionResult } from '../safety/evaluateCautions';
 
 export const RECORD_KIND = 'ringbench-measurement';
 export const RECORD_SCHEMA = 1;
+/** A record's id: 12 hex digits, random. */
+export const RECORD_ID = /^[0-9a-f]{12}$/;
 
 /** The options of the fit as given, enough to run it again (null where left to the default). */
 export interface MeasurementSettings {
@@ -67,48 +70,35 @@ export class LogError extends InputError {
 
 /** The record on one line of a log, or a LogError naming the line and what is wrong. */
 export function parseBenchRecord(text: string, line: number): BenchRecord {
-  let value: unknown;
+  return benchRecordFrom(parseLogLine(text, line), line);
+}
+
+/** The JSON value of one line of a log, or a LogError naming the line. */
+export function parseLogLine(text: string, line: number): unknown {
   try {
-    value = JSON.parse(text);
+    return JSON.parse(text);
   } catch {
     throw new LogError('not a JSON record (the line is cut or was edited by hand)', line);
   }
+}
+
+/** A parsed line checked as a measurement record, field by field. */
+export function benchRecordFrom(value: unknown, line: number): BenchRecord {
   if (!isObject(value) || value.record !== RECORD_KIND) {
     throw new LogError(`not a ringbench measurement record (expected "record": "${RECORD_KIND}")`, line);
   }
   if (value.schema !== RECORD_SCHEMA) {
     throw new LogError(`record schema ${JSON.stringify(value.schema)} is not ${RECORD_SCHEMA}: written by another version of ringbench`, line);
   }
-  const problem = missingField(value);
-  if (problem) throw new LogError(`record field ${problem}`, line);
+  const problem = recordShapeProblem(value);
+  if (problem) throw new LogError(`record field "${problem.field}": ${problem.problem}`, line);
   return value as unknown as BenchRecord;
 }
 
-function isObject(value: unknown): value is Record<string, unknown> {
-  return typeof value === 'object' && value !== null && !Array.isArray(value);
-}
-
-/** The first field that is missing or of the wrong type, as a phrase, or null. */
-function missingField(r: Record<string, unknown>): string | null {
-  const strings = ['id', 'time', 'unit'] as const;
-  for (const key of strings) if (typeof r[key] !== 'string' || r[key] === '') return `"${key}" must be a non-empty string`;
-  if (!/^[0-9a-f]{12}$/.test(r.id as string)) return '"id" must be 12 hex digits';
-  if (Number.isNaN(Date.parse(r.time as string))) return '"time" must be an ISO date';
-  for (const key of ['operator', 'note'] as const) if (r[key] !== null && typeof r[key] !== 'string') return `"${key}" must be a string or null`;
-  const capture = r.capture;
-  if (!isObject(capture) || typeof capture.path !== 'string' || typeof capture.sha256 !== 'string' || typeof capture.bytes !== 'number') {
-    return '"capture" must hold path, sha256 and bytes';
-  }
-  if (!isObject(r.settings)) return '"settings" must be an object';
-  const fit = r.fit;
-  if (!isObject(fit) || !isObject(fit.alpha) || !isObject(fit.omega0) || typeof fit.status !== 'string') {
-    return '"fit" must be a fit summary (status, alpha, omega0, ...)';
-  }
-  // Records logged before the import summary was kept have none.
-  if (fit.import !== undefined && !isObject(fit.import)) return '"fit.import" must be an import summary object';
-  if (r.verdict !== null && !isObject(r.verdict)) return '"verdict" must be an object or null';
-  if (r.design !== null && !isObject(r.design)) return '"design" must be an object or null';
-  if (!isObject(r.cautions) || !Array.isArray(r.cautions.fired)) return '"cautions" must list the fired cautions';
-  if (!isObject(r.software) || typeof r.software.version !== 'string') return '"software" must give the version';
-  return null;
+/** The first thing wrong with a whole measurement record (the kind and schema aside), or null. */
+export function recordShapeProblem(r: Record<string, unknown>): ShapeProblem | null {
+  if (typeof r.id !== 'string' || !RECORD_ID.test(r.id)) return { field: 'id', problem: 'must be 12 hex digits' };
+  if (typeof r.time !== 'string' || Number.isNaN(Date.parse(r.time))) return { field: 'time', problem: 'must be an ISO date' };
+  if (!isObject(r.software) || !isText(r.software.name) || !isText(r.software.version)) return { field: 'software', problem: 'must give the name and version' };
+  return measurementShapeProblem(r);
 }

@@ -3,8 +3,8 @@
 import { join } from 'node:path';
 import type { BenchApi } from '../../core/bench/benchApiTypes';
 import { findSample, listDesignEntries, listSampleEntries, readDesignFile, readSampleFile } from './samples';
-import { appendLogRequest, readLogView } from './logCalls';
-import { renderLogReport } from './reportCall';
+import { appendLogRequest, correctLogRequest, readLogView } from './logCalls';
+import { captureReadPolicy, renderLogReport } from './reportCall';
 import { BenchApiError } from './apiError';
 import { existsSync } from 'node:fs';
 
@@ -15,6 +15,11 @@ export interface BenchApiOptions {
   logPath: string;
   /** Clock for the records' times. Default: the system clock. */
   clock?: () => Date;
+  /**
+   * Captures a report may read again besides those in the project folder: the page could open only those
+   * (Electron: GrantedPaths.isGranted). Default: none, so a record cannot make main read any file it names.
+   */
+  mayReadCapture?: (path: string) => boolean;
 }
 
 export function createBenchApi(options: BenchApiOptions): BenchApi {
@@ -37,9 +42,10 @@ export function createBenchApi(options: BenchApiOptions): BenchApi {
     readDesign: async (id) => readDesignFile(sampleDir, id),
     readBenchLog: async () => readLogView(options.logPath),
     appendBenchLog: async (request) => appendLogRequest(options.logPath, request, clock()),
+    correctBenchLog: async (request) => correctLogRequest(options.logPath, request, clock()),
     renderReport: async (format) => {
       if (!existsSync(options.logPath)) throw new BenchApiError('the bench log has no measurements yet: add one first');
-      return renderLogReport(options.logPath, format, clock);
+      return renderLogReport(options.logPath, format, clock, captureReadPolicy(options.projectRoot, options.mayReadCapture ?? (() => false)));
     },
   };
 }

@@ -1,11 +1,12 @@
-// The bench log behind the bench API: a window's measurement made into a record, appended, read back.
+// The bench log behind the bench API: a window's measurement made into a record, appended, corrected, read back as it stands.
 
 import { existsSync } from 'node:fs';
 import { randomBytes } from 'node:crypto';
-import { appendBenchLog, describeTornTail, readBenchLog } from '../io/benchLog';
+import { appendBenchLog, describeTornTail, readCleanBenchLog } from '../io/benchLog';
+import { correctLoggedMeasurement } from '../app/logCorrection';
 import { parseBenchRecord, RECORD_KIND, RECORD_SCHEMA, type BenchRecord } from '../../core/report/benchRecord';
 import { parseDesign } from '../../core/circuit/design';
-import type { BenchLogRequest, BenchLogView } from '../../core/bench/benchApiTypes';
+import type { BenchLogRequest, BenchLogView, LogCorrectionRequest } from '../../core/bench/benchApiTypes';
 import { VERSION } from '../version';
 import { checkLabel } from '../app/labels';
 
@@ -38,13 +39,21 @@ export function appendLogRequest(logPath: string, request: BenchLogRequest, now:
   return readLogView(logPath);
 }
 
-/** The log's records and plain notes about lines it could not use; empty when there is no log yet. */
+/** Amend or withdraw a logged measurement (the same function as `ringbench log amend` and `log withdraw`), then the log as it stands. */
+export function correctLogRequest(logPath: string, request: LogCorrectionRequest, now: Date): BenchLogView {
+  correctLoggedMeasurement(logPath, request, { clock: () => now });
+  return readLogView(logPath);
+}
+
+/** The log as it stands (corrections applied) and plain notes about lines it could not use; empty when there is no log yet. */
 export function readLogView(logPath: string): BenchLogView {
   if (!existsSync(logPath)) return { path: logPath, records: [], notes: [] };
-  const contents = readBenchLog(logPath);
-  const notes = contents.bad.map((bad) => `line ${bad.line} is left out: ${bad.message}`);
+  const contents = readCleanBenchLog(logPath);
+  const notes = [...contents.notes];
   if (contents.torn) notes.push(describeTornTail(logPath, contents.torn));
-  return { path: logPath, records: contents.records, notes };
+  const amended = Object.keys(contents.amendments);
+  const withdrawn = contents.withdrawn.map(({ record, withdrawal }) => ({ record, time: withdrawal.time, reason: withdrawal.reason }));
+  return { path: logPath, records: contents.records, notes, ...(withdrawn.length ? { withdrawn } : {}), ...(amended.length ? { amended } : {}) };
 }
 
 function blankToNull(text: string | null): string | null {

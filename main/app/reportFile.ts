@@ -1,7 +1,6 @@
 // Writes a report file from a bench log: reloads each capture for its plot, renders, writes atomically.
 
 import { statSync } from 'node:fs';
-import { createHash } from 'node:crypto';
 import { dirname, extname } from 'node:path';
 import type { BenchRecord } from '../../core/report/benchRecord';
 import type { ReportTrace } from '../../core/report/overlay';
@@ -12,7 +11,8 @@ import { showTime } from '../../core/report/resultRows';
 import { describeTornTail, readCleanBenchLog } from '../io/benchLog';
 import { renderLotReport } from '../../core/report/lotReport';
 import { readMergedLogs, type LogSource, type ReadLog } from './mergedLogs';
-import { readFileBytes } from '../io/captureFile';
+import { readLoggedCapture } from '../io/captureFile';
+import { InputError } from '../../core/inputError';
 import { parseCaptureFileBytes } from '../../core/capture/parseCapture';
 import { selectChannel } from '../../core/capture/selectChannel';
 import { readingOptionsOf, settingsOfRecord } from './readingOptions';
@@ -37,17 +37,28 @@ export interface ReportTraces {
   recordNotes: Record<string, string[]>;
 }
 
-/** Each record's capture read again with its logged settings; only files with the logged sha256 are used. */
-export function loadReportTraces(records: readonly BenchRecord[]): ReportTraces {
+/** Why a capture may not be read for a report (a phrase after its path), or null when it may. */
+export type CaptureReadPolicy = (path: string) => string | null;
+
+/**
+ * Each record's capture read again with its logged settings; only a regular file of the logged size and
+ * sha256 that `mayRead` allows (default: any) is read, and never more than the logged bytes (readLoggedCapture).
+ */
+export function loadReportTraces(records: readonly BenchRecord[], mayRead: CaptureReadPolicy = () => null): ReportTraces {
   const result: ReportTraces = { traces: {}, recordNotes: {} };
   for (const record of records) {
     const note = (text: string) => (result.recordNotes[record.id] ??= []).push(text);
-    const { path, sha256 } = record.capture;
+    const { path } = record.capture;
+    const notRead = (why: string) => note(`The capture ${path} ${why}: the numbers are those logged, no plot is drawn.`);
     try {
-      const bytes = readFileBytes(path);
-      const now = createHash('sha256').update(bytes).digest('hex');
-      if (now !== sha256) {
-        note(`The capture ${path} has changed since it was logged (sha256 ${now.slice(0, 12)}… instead of ${sha256.slice(0, 12)}…): the numbers are those logged, no plot is drawn.`);
+      const refusal = mayRead(path);
+      if (refusal !== null) {
+        notRead(refusal);
+        continue;
+      }
+      const { bytes, refused } = readLoggedCapture(path, record.capture);
+      if (bytes === null) {
+        notRead(refused);
         continue;
       }
       // Read as it was when logged: the same channel, interval, time order and stated units.
@@ -56,12 +67,8 @@ export function loadReportTraces(records: readonly BenchRecord[]): ReportTraces 
       const channel = applyProbe(selectChannel(parseCaptureFileBytes(bytes, reading), chosen), parseMeasureSettings(settings).probe);
       result.traces[record.id] = { time: channel.time, values: channel.values, unit: channel.unit, name: channel.name };
     } catch (error) {
-      const missing = error instanceof FileError && /no such file/.test(error.message);
-      note(
-        missing
-          ? `The capture ${path} is missing: the numbers are those logged, no plot is drawn.`
-          : `The capture ${path} could not be read again (${(error as Error).message}): the numbers are those logged, no plot is drawn.`,
-      );
+      if (!(error instanceof InputError)) throw error;
+      notRead(`could not be read again (${error.message})`);
     }
   }
   return result;
@@ -72,13 +79,17 @@ export interface WriteReportOptions {
   clock?: () => Date;
   /** The lot report (yields, capability, failures by cause) instead of every measurement. Default false. */
   lot?: boolean;
+  /** Which logged captures may be read again for the plots (the bench API's limits). Default: any. */
+  mayReadCapture?: CaptureReadPolicy;
 }
 
 export interface WrittenReport {
   format: ReportFormat;
   records: number;
-  /** Notes for the terminal: torn tail, captures without plots. */
+  /** Notes for the terminal: skipped lines, corrections, torn tail, captures without plots. */
   notes: string[];
+  /** Lines of the log(s) skipped as not records (each in `notes` and in the report). */
+  skippedLines: number;
 }
 
 /** Render the log(s) at `logPaths`, merged (mergedLogs.ts), into `outPath` (format by extension), replacing it atomically. */
@@ -88,7 +99,12 @@ export function writeReport(logPaths: string | readonly string[], outPath: strin
   requireFolder(outPath);
   const logs = typeof logPaths === 'string' ? [logPaths] : [...logPaths];
   const logPath = logs.join(', ');
-  const merged = readMergedLogs(logs.map((path) => ({ path, shown: path })), readOneLog);
+  let skippedLines = 0;
+  const merged = readMergedLogs(logs.map((path) => ({ path, shown: path })), (source) => {
+    const log = readOneLog(source);
+    skippedLines += log.skipped;
+    return log;
+  });
   const logNotes = merged.notes;
   const generatedAt = (options.clock ?? (() => new Date()))().toISOString();
   const { records } = merged;
@@ -99,7 +115,7 @@ export function writeReport(logPaths: string | readonly string[], outPath: strin
   } else if (format === 'csv') {
     text = renderReportCsv(records);
   } else {
-    const { traces, recordNotes } = loadReportTraces(records);
+    const { traces, recordNotes } = loadReportTraces(records, options.mayReadCapture);
     for (const list of Object.values(recordNotes)) notes.push(...list);
     text =
       format === 'html'
@@ -110,13 +126,14 @@ export function writeReport(logPaths: string | readonly string[], outPath: strin
           });
   }
   writeFileAtomic(outPath, text);
-  return { format, records: records.length, notes };
+  return { format, records: records.length, notes, skippedLines };
 }
 
-/** One log as a report reads it: a bad line refuses the log, a cut-off last line is noted. */
-function readOneLog({ path }: LogSource): ReadLog {
+/** One log as a report reads it: its corrections applied; a skipped line, a correction and a cut-off last line noted. */
+function readOneLog({ path }: LogSource): ReadLog & { skipped: number } {
   const contents = readCleanBenchLog(path);
-  return { records: contents.records, notes: contents.torn ? [describeTornTail(path, contents.torn)] : [] };
+  const notes = [...contents.notes, ...contents.changes, ...(contents.torn ? [describeTornTail(path, contents.torn)] : [])];
+  return { records: contents.records, notes, skipped: contents.bad.length };
 }
 
 function requireFolder(path: string): void {

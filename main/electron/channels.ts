@@ -13,6 +13,7 @@ export const CHANNELS = {
   readBenchLog: 'bench:read-log',
   appendBenchLog: 'bench:append-log',
   renderReport: 'bench:render-report',
+  correctBenchLog: 'bench:correct-log',
   openCaptureDialog: 'shell:open-capture',
   openDroppedPath: 'shell:open-dropped',
   openDesignDialog: 'shell:open-design',

@@ -1,8 +1,8 @@
 // Reads a capture file from disk into a Capture and the trace chosen for fitting.
 
-import { closeSync, constants, fstatSync, openSync, readFileSync, type Stats } from 'node:fs';
+import { closeSync, constants, fstatSync, openSync, readFileSync, readSync, statSync, type Stats } from 'node:fs';
 import { createHash } from 'node:crypto';
-import { resolve } from 'node:path';
+import { isAbsolute, resolve } from 'node:path';
 import { parseCaptureFileBytes } from '../../core/capture/parseCapture';
 import { selectChannel } from '../../core/capture/selectChannel';
 import type { Capture, CaptureOptions, Channel } from '../../core/capture/types';
@@ -52,6 +52,51 @@ function refuseUnreadable(path: string, stats: Stats): void {
   if (stats.size > MAX_FILE_BYTES) {
     throw new FileError(`'${path}' is ${(stats.size / 2 ** 30).toFixed(1)} GiB; capture files over 2 GiB are not read`, path);
   }
+}
+
+/** A capture a record names, read again: its bytes, or why it was not read (a phrase after the path). */
+export type LoggedCaptureRead = { bytes: Buffer; refused: null } | { bytes: null; refused: string };
+
+/**
+ * The bytes of a capture a bench-log record names, only while it is still the file logged: a regular file
+ * (stat first, opened without waiting, checked again on the descriptor) of exactly the logged size, of
+ * which no more than that is read, with the logged sha256. A record's path is never trusted further.
+ */
+export function readLoggedCapture(path: string, logged: { bytes: number; sha256: string }): LoggedCaptureRead {
+  const refuse = (refused: string): LoggedCaptureRead => ({ bytes: null, refused });
+  if (!isAbsolute(path)) return refuse('was not opened from a file on this computer (no absolute path), so it cannot be read again');
+  let fd: number | null = null;
+  try {
+    const kind = notRegular(statSync(path));
+    if (kind) return refuse(`is ${kind}, not a regular file: it is not read`);
+    fd = openSync(path, OPEN_FLAGS);
+    const stats = fstatSync(fd);
+    const kindNow = notRegular(stats);
+    if (kindNow) return refuse(`is ${kindNow}, not a regular file: it is not read`);
+    if (stats.size !== logged.bytes) return refuse(`has changed since it was logged (${stats.size} bytes instead of ${logged.bytes})`);
+    const bytes = Buffer.alloc(logged.bytes);
+    let done = 0;
+    while (done < bytes.length) {
+      const n = readSync(fd, bytes, done, bytes.length - done, done);
+      if (n === 0) return refuse(`has changed since it was logged (shorter than the ${logged.bytes} bytes logged)`);
+      done += n;
+    }
+    const now = createHash('sha256').update(bytes).digest('hex');
+    if (now !== logged.sha256) return refuse(`has changed since it was logged (sha256 ${now.slice(0, 12)}… instead of ${logged.sha256.slice(0, 12)}…)`);
+    return { bytes, refused: null };
+  } catch (error) {
+    const code = (error as NodeJS.ErrnoException).code;
+    return refuse(code === 'ENOENT' ? 'is missing' : `could not be read again (${code === 'EACCES' ? 'permission denied' : String(code ?? error)})`);
+  } finally {
+    if (fd !== null) closeSync(fd);
+  }
+}
+
+/** 'a device', 'a named pipe (FIFO)'... for what is not a regular file; null for a regular file. */
+function notRegular(stats: Stats): string | null {
+  if (stats.isFile()) return null;
+  if (stats.isDirectory()) return 'a folder';
+  return stats.isFIFO() ? 'a named pipe (FIFO)' : stats.isSocket() ? 'a socket' : 'a device';
 }
 
 /** Node's UTF-8 decoding of a byte range, as Buffer.toString gives it (a byte-order mark is kept for the parser to drop). */

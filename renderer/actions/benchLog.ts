@@ -1,6 +1,8 @@
-// The bench log panel's actions: read the log, and add the measurement on screen to it.
+// The bench log panel's actions: read the log, add the measurement on screen to it, amend or withdraw a logged one.
 
-import { buildLogRequest, type LogForm } from '../logRequest';
+import { buildCorrectionRequest, buildLogRequest, type CorrectionForm, type LogForm } from '../logRequest';
+import type { BenchRecord } from '../../core/report/benchRecord';
+import type { CorrectionAction } from '../../core/report/logCorrection';
 import { plainMessage } from '../plainMessage';
 import { runStep, type ActionContext } from './context';
 
@@ -37,6 +39,30 @@ export async function logMeasurement(ctx: ActionContext, form: LogForm): Promise
     s.log = view;
     s.logError = null;
     s.logMessage = `Logged ${request.unit} (${view.records.length} measurement${view.records.length === 1 ? '' : 's'} in the log).`;
+  });
+  return view !== null;
+}
+
+/** Amend the labels of a logged measurement or withdraw it (a correction appended by main); true when it was logged. */
+export async function correctLogEntry(ctx: ActionContext, record: BenchRecord, form: CorrectionForm, action: CorrectionAction): Promise<boolean> {
+  ctx.store.state.logMessage = null;
+  let request;
+  try {
+    request = buildCorrectionRequest(record, form, action);
+  } catch (error) {
+    ctx.store.update((s) => (s.logError = plainMessage(error)));
+    return false;
+  }
+  const view = await runStep(ctx, action === 'amend' ? 'amending the bench log' : 'withdrawing from the bench log', () => ctx.bridge.correctBenchLog(request));
+  ctx.store.update((s) => {
+    if (!view) {
+      s.logError = s.error;
+      s.error = null;
+      return;
+    }
+    s.log = view;
+    s.logError = null;
+    s.logMessage = action === 'amend' ? `Amended the measurement of ${record.unit}; the change and its reason are kept in the log.` : `Withdrew the measurement of ${record.unit}; it stays in the log, marked withdrawn.`;
   });
   return view !== null;
 }

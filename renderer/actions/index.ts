@@ -2,9 +2,11 @@
 
 import type { ComponentsInput } from '../benchState';
 import type { OpenedFile, ReportFormat } from '../bridgeTypes';
-import type { LogForm } from '../logRequest';
+import type { CorrectionForm, LogForm } from '../logRequest';
+import type { BenchRecord } from '../../core/report/benchRecord';
+import type { CorrectionAction } from '../../core/report/logCorrection';
 import type { CaptureFile, FitWindow, StatedUnits } from '../workerProtocol';
-import { logMeasurement, refreshLog } from './benchLog';
+import { correctLogEntry, logMeasurement, refreshLog } from './benchLog';
 import { chooseChannel, chooseSegment, openCapture, openDropped, openSample, pickCapture, start, stateUnits } from './capture';
 import { runComparison, type CompareSettings } from './compare';
 import { setComponentsInput } from './components';
@@ -39,6 +41,7 @@ export function bindActions(ctx: ActionContext) {
     clearDesign: () => clearDesign(ctx),
     refreshLog: () => refreshLog(ctx),
     logMeasurement: (form: LogForm) => logMeasurement(ctx, form),
+    correctLogEntry: (record: BenchRecord, form: CorrectionForm, action: CorrectionAction) => correctLogEntry(ctx, record, form, action),
     exportReport: (format: ReportFormat) => exportReport(ctx, format),
     exportPlot: (format: 'png' | 'svg') => exportPlot(ctx, format),
     copyResults: (form: 'text' | 'csv') => copyResults(ctx, form),

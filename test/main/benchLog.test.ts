@@ -36,7 +36,7 @@ describe('appendBenchLog and readBenchLog', () => {
 
   it('reads an empty log as no records', () => {
     writeFileSync(log, '');
-    expect(readBenchLog(log)).toEqual({ records: [], torn: null, bad: [] });
+    expect(readBenchLog(log)).toEqual({ entries: [], records: [], corrections: [], torn: null, bad: [] });
   });
 
   it('fails with LogError naming the folder when it does not exist, creating nothing', () => {
@@ -54,7 +54,7 @@ describe('appendBenchLog and readBenchLog', () => {
 describe('torn tails', () => {
   it.each([
     { kind: 'a last line without a newline', tail: '{"record":"ringbench-measurement","schema":1,"id":"0000' },
-    { kind: 'a last line with a newline that is not JSON', tail: '{"record":"ringbench-meas\n' },
+    { kind: 'a last line without a newline that is JSON but not a whole record', tail: '{"record":"ringbench-measurement"}' },
   ])('reports $kind, keeps the records before it, and saves it aside on the next append', ({ tail }) => {
     writeFileSync(log, line('000000000001') + line('000000000002') + tail);
     const before = readBenchLog(log);
@@ -81,8 +81,8 @@ describe('torn tails', () => {
   });
 
   it('repairs a log that holds only a torn line', () => {
-    writeFileSync(log, '{"half');
-    expect(readBenchLog(log).torn).toEqual({ line: 1, text: '{"half' });
+    writeFileSync(log, '{"record":"ringbench-mea');
+    expect(readBenchLog(log).torn).toEqual({ line: 1, text: '{"record":"ringbench-mea' });
     appendBenchLog(log, sampleRecord(), { clock });
     expect(readFileSync(log, 'utf8')).toBe(line('0123456789ab'));
   });
@@ -91,21 +91,31 @@ describe('torn tails', () => {
 describe('bad lines', () => {
   it.each([
     { bad: 'not json at all', message: /line 2: not a JSON record/ },
-    { bad: '', message: /line 2: not a JSON record/ },
+    { bad: '', message: /line 2: blank line/ },
     { bad: '{"record":"something-else"}', message: /line 2: not a ringbench measurement record/ },
     { bad: JSON.stringify({ ...sampleRecord(), schema: 7 }), message: /line 2: record schema 7 is not 1/ },
-    { bad: JSON.stringify({ ...sampleRecord(), id: 'xyz' }), message: /line 2: record field "id" must be 12 hex digits/ },
+    { bad: JSON.stringify({ ...sampleRecord(), id: 'xyz' }), message: /line 2: record field "id": must be 12 hex digits/ },
     { bad: JSON.stringify({ ...sampleRecord(), unit: '' }), message: /line 2: record field "unit"/ },
     { bad: JSON.stringify({ ...sampleRecord(), fit: null }), message: /line 2: record field "fit"/ },
-  ])('a bad line in the middle is listed and makes readCleanBenchLog fail naming it: $bad', ({ bad, message }) => {
+  ])('a bad line in the middle is skipped and noted with its number, the records around it read: $bad', ({ bad, message }) => {
     writeFileSync(log, `${line('000000000001')}${bad}\n${line('000000000003')}`);
     const contents = readBenchLog(log);
     expect(contents.records.map((r) => r.id)).toEqual(['000000000001', '000000000003']);
     expect(contents.bad).toHaveLength(1);
     expect(contents.bad[0].line).toBe(2);
     expect(contents.bad[0].message).toMatch(message);
-    expect(() => readCleanBenchLog(log)).toThrow(LogError);
-    expect(() => readCleanBenchLog(log)).toThrow(message);
+    const clean = readCleanBenchLog(log, 'bench.jsonl');
+    expect(clean.records.map((r) => r.id)).toEqual(['000000000001', '000000000003']);
+    expect(clean.notes).toHaveLength(1);
+    expect(clean.notes[0]).toMatch(/^bench log 'bench\.jsonl' line 2: .*: skipped, the other records are used$/);
+    expect(clean.notes[0]).toMatch(message);
+  });
+
+  it('a last line with a newline that is not JSON is a bad line, kept in place and skipped, not torn', () => {
+    writeFileSync(log, `${line('000000000001')}{"record":"ringbench-meas\n`);
+    expect(readBenchLog(log)).toMatchObject({ torn: null, bad: [{ line: 2 }] });
+    expect(appendBenchLog(log, sampleRecord({ id: '000000000003' }), { clock }).repairedTail).toBeNull();
+    expect(readFileSync(log, 'utf8')).toBe(`${line('000000000001')}{"record":"ringbench-meas\n${line('000000000003')}`);
   });
 
   it('a valid JSON last line that is not a record is bad, not torn', () => {

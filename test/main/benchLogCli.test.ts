@@ -87,8 +87,8 @@ describe('log list', () => {
     const { code, out, err } = await run(['log', 'list', '--log', 'listed.jsonl']);
     expect(code).toBe(0);
     const lines = out.trimEnd().split('\n');
-    expect(lines[0]).toMatch(/^time\s+unit\s+regime\s+f0\s+zeta\s+verdict$/);
-    expect(lines[1]).toMatch(/SN040\s+underdamped\s+3\d\.\d+ MHz\s+0\.3\d*\s+pass$/);
+    expect(lines[0]).toMatch(/^id\s+time\s+unit\s+regime\s+f0\s+zeta\s+verdict$/);
+    expect(lines[1]).toMatch(/^[0-9a-f]{12}  \d{4}-.*SN040\s+underdamped\s+3\d\.\d+ MHz\s+0\.3\d*\s+pass$/);
     expect(lines[2]).toMatch(/SN041\s+underdamped\s+.*fail$/);
     expect(err).toMatch(/cut-off line 3/);
   });
@@ -100,13 +100,14 @@ describe('log list', () => {
     expect(printed.torn.line).toBe(3);
   });
 
-  it('names a bad line in the middle and exits 2', async () => {
+  it('lists the records around a bad line in the middle, names the line and exits 1', async () => {
     const log = join(folder, 'bad.jsonl');
-    const [first] = readFileSync(join(folder, 'bench.jsonl'), 'utf8').split('\n');
-    writeFileSync(log, `${first}\n{"record":"nope"}\n${first}\n`);
-    const { code, err } = await run(['log', 'list', '--log', 'bad.jsonl']);
-    expect(code).toBe(2);
-    expect(err).toMatch(/^ringbench: bench log .*bad\.jsonl' line 2: not a ringbench measurement record/);
+    const [first, second] = readFileSync(join(folder, 'bench.jsonl'), 'utf8').split('\n');
+    writeFileSync(log, `${first}\n{"record":"nope"}\n${second}\n`);
+    const { code, out, err } = await run(['log', 'list', '--log', 'bad.jsonl']);
+    expect(code).toBe(1);
+    expect(out.trimEnd().split('\n')).toHaveLength(3);
+    expect(err).toMatch(/^ringbench: note: bench log 'bad\.jsonl' line 2: not a ringbench measurement record/);
   });
 
   it('fails with exit 2 for a log that does not exist', async () => {

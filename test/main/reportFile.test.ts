@@ -75,11 +75,13 @@ describe('writeReport', () => {
     expect(readFileSync(join(folder, 'r.md'), 'utf8')).toContain('cut-off line 2');
   });
 
-  it('refuses a log with a bad line in the middle, naming it, and writes nothing', () => {
+  it('skips a bad line in the middle, counts and names it, and reports every other record', () => {
     const line = (r: BenchRecord) => `${JSON.stringify(r)}\n`;
     writeFileSync(log, `${line(recordOf('00000000000a', 'SN040', 'sn040.csv'))}garbage\n${line(recordOf('00000000000b', 'SN041', 'sn041.csv'))}`);
-    expect(() => writeReport(log, join(folder, 'r.html'), { clock })).toThrow(/line 2: not a JSON record/);
-    expect(readdirSync(folder).filter((f) => f.startsWith('r.html') || f.includes('.tmp'))).toEqual([]);
+    const written = writeReport(log, join(folder, 'r.html'), { clock });
+    expect(written).toMatchObject({ records: 2, skippedLines: 1 });
+    expect(written.notes[0]).toMatch(/line 2: not a JSON record .*: skipped, the other records are used$/);
+    expect(readFileSync(join(folder, 'r.html'), 'utf8')).toMatch(/line 2: not a JSON record/);
   });
 
   it.each([

@@ -6,6 +6,7 @@ import { resolve } from 'node:path';
 import type { CommandContext } from '../commandContext';
 import { reportFormatFor, writeReport } from '../../app/reportFile';
 import { UsageError } from '../../../core/inputError';
+import { EXIT } from '../errors';
 
 /** Commander's collector for an option given several times. */
 function repeated(value: string, previous: string[]): string[] {
@@ -34,5 +35,7 @@ export function registerReportCommand(program: Command, ctx: CommandContext): vo
       for (const note of written.notes) ctx.io.err(`ringbench: note: ${note}\n`);
       const what = `${written.records} measurement${written.records === 1 ? '' : 's'}${paths.length > 1 ? ` from ${paths.length} logs` : ''}`;
       ctx.io.out(`wrote ${options.out} (${written.format}${options.lot ? ' lot report' : ''}, ${what})\n`);
+      // The report is written and states the skipped lines, but it does not cover the whole log: exit 1.
+      if (written.skippedLines) ctx.setExitCode(EXIT.failure);
     });
 }

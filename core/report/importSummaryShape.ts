@@ -1,4 +1,4 @@
-// The check of an import summary a window sends with its log request, field by field.
+// The check of an import summary kept in a bench-log record (read from the log or sent by a window), field by field.
 
 type Json = Record<string, unknown>;
 
