@@ -1,10 +1,11 @@
 // The lot report as CSV: one row per quantity (and design), SI base units, Cp and Cpk empty where not defined.
 
 import { csvCell } from './escape';
-import { DECISION_ZONES, type LotSummary } from './lotSummary';
+import { DECISION_ZONES } from '../circuit/decisionRule';
+import type { LotSummary } from './lotSummary';
 
 const HEADER = [
-  'design', 'quantity', 'unit', 'n', 'mean', 'sd', 'min', 'max', 'lsl', 'usl', 'design_value', 'cp', 'cpk', 'capability_note',
+  'design', 'quantity', 'unit', 'counted', 'n', 'mean', 'sd', 'min', 'max', 'lsl', 'usl', 'design_value', 'cp', 'cpk', 'capability_note',
   ...DECISION_ZONES.map((zone) => `units_${zone.replace('-', '_')}`),
   'first_pass_yield_pct', 'final_yield_pct',
 ];
@@ -18,7 +19,7 @@ export function renderLotCsv(summary: LotSummary): string {
       const { cp, cpk } = q.capability;
       const note = [cp.reason && `Cp not defined: ${cp.reason}`, cpk.reason && `Cpk not defined: ${cpk.reason}`].filter(Boolean).join('; ');
       const row: (string | number | null)[] = [
-        group.design, q.name, q.unit, s?.n ?? 0, s?.mean ?? null, s?.sd ?? null, s?.min ?? null, s?.max ?? null,
+        group.design, q.name, q.unit, q.counted ? 'yes' : 'no', s?.n ?? 0, s?.mean ?? null, s?.sd ?? null, s?.min ?? null, s?.max ?? null,
         q.limits?.lower ?? null, q.limits?.upper ?? null, q.design, cp.value, cpk.value, note || null,
         ...DECISION_ZONES.map((zone) => q.zones[zone]),
         summary.firstPass.percent, summary.final.percent,

@@ -5,8 +5,9 @@ import { DEFERRAL } from '../safety/standingAdvice';
 import { CAPABILITY_RULE } from './capability';
 import { escapeHtml as e } from './escape';
 import { renderLotHistogram } from './lotHistogramSvg';
-import { DECISION_ZONES, LOT_YIELD_RULE, NO_CAUSE, type DecisionZone, type LotGroup, type LotSummary } from './lotSummary';
-import { ZONE_LABELS, decisionRuleText, indexText, lotCounts, rowScale, scaledText, spreadText, yieldText } from './lotText';
+import { DECISION_ZONES, type DecisionZone } from '../circuit/decisionRule';
+import { LOT_YIELD_RULE, NO_CAUSE, type LotGroup, type LotSummary } from './lotSummary';
+import { NOT_COUNTED_MARK, NOT_COUNTED_NOTE, ZONE_LABELS, decisionRuleText, indexText, lotCounts, rowScale, scaledText, spreadText, yieldText } from './lotText';
 import { REPORT_CSS } from './reportStyle';
 import { showTime } from './resultRows';
 
@@ -94,7 +95,7 @@ function groupSection(group: LotGroup, g: number, groups: number): string {
       const scale = rowScale(q);
       const cell = (text: string) => `<td class="num">${e(text)}</td>`;
       return (
-        `<tr><th scope="row">${e(q.name)}</th><td>${e(scale.unit || '–')}</td>${cell(String(s?.n ?? 0))}${cell(scaledText(s?.mean, scale))}` +
+        `<tr><th scope="row">${e(q.name)}${q.counted ? '' : ` ${NOT_COUNTED_MARK}`}</th><td>${e(scale.unit || '–')}</td>${cell(String(s?.n ?? 0))}${cell(scaledText(s?.mean, scale))}` +
         `${cell(spreadText(s?.sd, scale))}${cell(scaledText(s?.min, scale))}${cell(scaledText(s?.max, scale))}` +
         `${cell(scaledText(q.limits?.lower, scale))}${cell(scaledText(q.limits?.upper, scale))}${cell(scaledText(q.design, scale))}` +
         index(indexText(q.capability.cp), q.capability.cp.value !== null) +
@@ -119,7 +120,7 @@ function groupSection(group: LotGroup, g: number, groups: number): string {
     '<span class="legend-line" style="border-color:#D55E00;border-top-style:dashed"></span>limits (LSL, USL) where the verdicts give them.</p>';
   return (
     `<section class="lot-group" id="quantities-${g + 1}"><h2>${heading}</h2><p class="meta">${group.units} unit${group.units === 1 ? '' : 's'} against ${e(group.design)}</p>` +
-    `${table}<p class="rule">${e(CAPABILITY_RULE)}</p>${legend}<div class="histograms">${figures}</div></section>`
+    `${table}${group.quantities.some((q) => !q.counted) ? `<p class="rule">${e(NOT_COUNTED_NOTE)}</p>` : ''}<p class="rule">${e(CAPABILITY_RULE)}</p>${legend}<div class="histograms">${figures}</div></section>`
   );
 }
 

@@ -3,8 +3,9 @@
 import { DEFERRAL } from '../safety/standingAdvice';
 import { CAPABILITY_RULE } from './capability';
 import { escapeMarkdown as m } from './escape';
-import { DECISION_ZONES, LOT_YIELD_RULE, type LotSummary } from './lotSummary';
-import { ZONE_LABELS, decisionRuleText, indexText, lotCounts, rowScale, scaledText, spreadText, yieldText } from './lotText';
+import { DECISION_ZONES } from '../circuit/decisionRule';
+import { LOT_YIELD_RULE, type LotSummary } from './lotSummary';
+import { NOT_COUNTED_MARK, NOT_COUNTED_NOTE, ZONE_LABELS, decisionRuleText, indexText, lotCounts, rowScale, scaledText, spreadText, yieldText } from './lotText';
 
 export interface LotMarkdownOptions {
   title?: string;
@@ -31,12 +32,13 @@ export function renderLotMarkdown(summary: LotSummary, options: LotMarkdownOptio
       const s = q.stats;
       const scale = rowScale(q);
       const cells = [
-        q.name, scale.unit || '–', String(s?.n ?? 0), scaledText(s?.mean, scale), spreadText(s?.sd, scale), scaledText(s?.min, scale), scaledText(s?.max, scale),
+        q.counted ? q.name : `${q.name} ${NOT_COUNTED_MARK}`, scale.unit || '–', String(s?.n ?? 0), scaledText(s?.mean, scale), spreadText(s?.sd, scale), scaledText(s?.min, scale), scaledText(s?.max, scale),
         scaledText(q.limits?.lower, scale), scaledText(q.limits?.upper, scale), scaledText(q.design, scale), indexText(q.capability.cp), indexText(q.capability.cpk),
         ...DECISION_ZONES.map((zone) => String(q.zones[zone])),
       ];
       out.push(`| ${cells.map(m).join(' | ')} |`);
     }
+    if (group.quantities.some((q) => !q.counted)) out.push('', m(NOT_COUNTED_NOTE));
     out.push('', m(CAPABILITY_RULE));
   }
   out.push('', '## Failures by likely cause', '');

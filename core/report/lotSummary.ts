@@ -2,32 +2,15 @@
 // failures by likely cause, and the units that failed or fell in a conditional zone.
 
 import type { Verdict, VerdictQuantity } from '../circuit/verdict';
+import type { DecisionRule, DecisionZone } from '../circuit/decisionRule';
 import type { BenchRecord } from './benchRecord';
 import { processCapability, sampleStatistics, type Capability, type Limits, type SampleStatistics } from './capability';
 import { histogramOf, type Histogram } from './histogram';
 
-export type DecisionZone = 'pass' | 'conditional-pass' | 'conditional-fail' | 'fail';
-
-/** The zones in order from best to worst, as every table lists them. */
-export const DECISION_ZONES: readonly DecisionZone[] = ['pass', 'conditional-pass', 'conditional-fail', 'fail'];
-
-/** A decision rule as guard-banded verdicts name it. */
-export interface DecisionRule {
-  name: string;
-  guardBandFactor: number;
-  coverageFactor: number;
-  /** 'design' when the design file chose it, 'default' otherwise. */
-  source: string;
-  /** The clauses the rule follows. */
-  reference?: string;
-}
-
-/**
- * What a verdict may carry beyond pass and inTolerance: records logged before guard-banded decisions have
- * none of it, so every field is read as optional.
- */
-type ZonedQuantity = VerdictQuantity & { zone?: DecisionZone; limits?: Limits | null };
-type ZonedVerdict = Verdict & { decision?: DecisionZone; rule?: DecisionRule | null };
+/** The fields guard-banded decisions added to a verdict row: records logged before them carry none. */
+type ZoneFields = 'zone' | 'limits' | 'limitsFrom' | 'expandedUncertainty' | 'counted';
+type LoggedQuantity = Omit<VerdictQuantity, ZoneFields> & Partial<Pick<VerdictQuantity, ZoneFields>>;
+type LoggedVerdict = Omit<Verdict, 'decision' | 'rule' | 'quantities'> & Partial<Pick<Verdict, 'decision' | 'rule'>> & { quantities: LoggedQuantity[] };
 
 export interface LotQuantity {
   name: string;
@@ -36,6 +19,8 @@ export interface LotQuantity {
   design: number;
   /** Limits in SI units, null when the verdicts give none (Cp and Cpk are then not defined). */
   limits: Limits | null;
+  /** The quantity enters the units' decisions (false for a derived part the design does not limit: diagnosis only). */
+  counted: boolean;
   /** Null when no unit has a finite value. */
   stats: SampleStatistics | null;
   capability: Capability;
@@ -63,7 +48,7 @@ export interface LotUnit {
   /** Zone of the latest checked measurement. */
   decision: DecisionZone;
   design: string;
-  /** Quantities of the latest checked measurement outside the pass zone, with their zone. */
+  /** Counted quantities of the latest checked measurement outside the pass zone, with their zone. */
   outside: { name: string; zone: DecisionZone }[];
   /** The verdict's likely cause in words ('R about 29.0 % high'), or null. */
   likelyCause: string | null;
@@ -127,7 +112,7 @@ export function summarizeLot(records: readonly BenchRecord[]): LotSummary {
     units.push(lotUnit(unit, list.length, checked[0], latest));
   }
   const zones = countZones(units.map((u) => u.decision));
-  const rules = distinctRules(finals.map((f) => (f.record.verdict as ZonedVerdict).rule ?? null));
+  const rules = distinctRules(finals.map((f) => loggedVerdict(f.record).rule ?? null));
   const notes: string[] = [];
   return {
     measurements: records.length,
@@ -145,13 +130,18 @@ export function summarizeLot(records: readonly BenchRecord[]): LotSummary {
 }
 
 /** The zone of a verdict quantity; before decision zones, in tolerance is pass and out is fail. */
-export function quantityZone(q: VerdictQuantity): DecisionZone {
-  return (q as ZonedQuantity).zone ?? (q.inTolerance ? 'pass' : 'fail');
+export function quantityZone(q: LoggedQuantity): DecisionZone {
+  return q.zone ?? (q.inTolerance ? 'pass' : 'fail');
 }
 
 /** The unit's zone by its verdict; before decision zones, pass or fail. */
-export function verdictDecision(verdict: Verdict): DecisionZone {
-  return (verdict as ZonedVerdict).decision ?? (verdict.pass ? 'pass' : 'fail');
+export function verdictDecision(verdict: LoggedVerdict): DecisionZone {
+  return verdict.decision ?? (verdict.pass ? 'pass' : 'fail');
+}
+
+/** A record's verdict as logged, whatever version logged it (null-checked by the caller). */
+function loggedVerdict(record: BenchRecord): LoggedVerdict {
+  return record.verdict as LoggedVerdict;
 }
 
 /** 'R about 29.0 % high', or null when the verdict names no cause. */
@@ -162,7 +152,7 @@ export function likelyCauseText(verdict: Verdict): string | null {
 }
 
 function lotUnit(unit: string, measurements: number, first: BenchRecord, latest: BenchRecord): LotUnit {
-  const verdict = latest.verdict!;
+  const verdict = loggedVerdict(latest);
   return {
     unit,
     measurements,
@@ -170,8 +160,11 @@ function lotUnit(unit: string, measurements: number, first: BenchRecord, latest:
     finalPass: verdict.pass,
     decision: verdictDecision(verdict),
     design: latest.design?.name ?? 'design',
-    outside: verdict.quantities.map((q) => ({ name: q.name, zone: quantityZone(q) })).filter((q) => q.zone !== 'pass'),
-    likelyCause: likelyCauseText(verdict),
+    outside: verdict.quantities
+      .filter((q) => q.counted !== false)
+      .map((q) => ({ name: q.name, zone: quantityZone(q) }))
+      .filter((q) => q.zone !== 'pass'),
+    likelyCause: likelyCauseText(latest.verdict!),
     recordId: latest.id,
   };
 }
@@ -204,9 +197,9 @@ function groupByDesign(finals: readonly { unit: string; record: BenchRecord }[],
 }
 
 function lotQuantities(design: string, records: readonly BenchRecord[], notes: string[]): LotQuantity[] {
-  const rows = new Map<string, ZonedQuantity[]>();
+  const rows = new Map<string, LoggedQuantity[]>();
   for (const record of records) {
-    for (const q of record.verdict!.quantities) rows.set(q.name, [...(rows.get(q.name) ?? []), q as ZonedQuantity]);
+    for (const q of loggedVerdict(record).quantities) rows.set(q.name, [...(rows.get(q.name) ?? []), q]);
   }
   return [...rows].map(([name, list]) => {
     const values = list.map((q) => q.measured.value).filter(Number.isFinite);
@@ -223,6 +216,7 @@ function lotQuantities(design: string, records: readonly BenchRecord[], notes: s
       unit: list[0].measured.unit,
       design: list[0].design.value,
       limits,
+      counted: list.some((q) => q.counted !== false),
       stats,
       capability,
       zones: countZones(list.map(quantityZone)),

@@ -2,7 +2,8 @@
 
 import { DISPLAY_PREFIX } from '../units/prefixes';
 import type { CapabilityIndex } from './capability';
-import type { DecisionRule, DecisionZone, LotQuantity, LotSummary, YieldFigure } from './lotSummary';
+import { describeDecisionRule, type DecisionRule, type DecisionZone } from '../circuit/decisionRule';
+import type { LotQuantity, LotSummary, YieldFigure } from './lotSummary';
 
 export const ZONE_LABELS: Record<DecisionZone, string> = {
   pass: 'pass',
@@ -24,14 +25,17 @@ export function yieldText(figure: YieldFigure, checked: number): string {
   return figure.percent === null ? '–' : `${figure.percent.toFixed(1)} % (${figure.count} of ${checked})`;
 }
 
-/** The decision rules the verdicts name, as one sentence. */
+/** The decision rules the verdicts name, in the verdict's own words. */
 export function decisionRuleText(rules: readonly DecisionRule[]): string {
   if (!rules.length) return 'Decisions as logged: in tolerance is pass, out of tolerance is fail (these records carry no decision zones).';
-  const each = rules.map(
-    (r) => `${r.name} (guard band ${r.guardBandFactor} × U, U = ${r.coverageFactor} u; ${r.source === 'default' ? 'the default' : `from ${r.source}`}${r.reference ? `; ${r.reference}` : ''})`,
-  );
-  return `Decision rule${rules.length > 1 ? 's' : ''}: ${each.join('; ')}.`;
+  return rules.length === 1 ? `Decision rule: ${describeDecisionRule(rules[0])}.` : `Decision rules: ${rules.map(describeDecisionRule).join('; ')}.`;
 }
+
+/** Marks a quantity that does not enter the units' decisions, in the table and its note. */
+export const NOT_COUNTED_MARK = '†';
+
+/** The note under a quantity table that has a row marked NOT_COUNTED_MARK. */
+export const NOT_COUNTED_NOTE = `${NOT_COUNTED_MARK} Not counted in the units' decisions: a part derived with another taken at its design value carries that part's tolerance, so its zones are shown for diagnosis only (a design may limit it).`;
 
 /** The heading counts: '41 measurements of 40 units (38 checked)'. */
 export function lotCounts(summary: LotSummary): string {

@@ -3,10 +3,12 @@
 import { describe, expect, it } from 'vitest';
 import type { Verdict } from '../../core/circuit/verdict';
 import type { BenchRecord } from '../../core/report/benchRecord';
-import { summarizeLot, type DecisionZone } from '../../core/report/lotSummary';
+import type { DecisionZone } from '../../core/circuit/decisionRule';
+import { summarizeLot } from '../../core/report/lotSummary';
 import { renderLotHtml } from '../../core/report/lotHtml';
 import { renderLotMarkdown } from '../../core/report/lotMarkdown';
 import { renderLotCsv } from '../../core/report/lotCsv';
+import { NOT_COUNTED_NOTE } from '../../core/report/lotText';
 import { sampleRecord } from '../fixtures/benchLog/sampleRecord';
 
 const q = (value: number, stderr: number | null, unit: string) => ({ value, stderr, unit });
@@ -35,9 +37,11 @@ function record(unit: string, spec: RowSpec, zoned = true): BenchRecord {
     ...(zoned ? { zone: spec.zone ?? (spec.pass ? 'pass' : 'fail'), limits: OMEGA0_LIMITS } : {}),
   };
   const zeta = { name: 'zeta', design: q(0.2, 0.01, ''), measured: q(0.2 + (spec.omega0 - 10e6) / 1e8, 0.001, ''), marginSigma: 0.1, inTolerance: true, ...(zoned ? { zone: 'pass', limits: null } : {}) };
+  // R derived with C at its design value: shown with its zone, not counted in the decision.
+  const R = { name: 'R', design: q(1.5, 0.04, 'ohm'), measured: q(1.5, 0.05, 'ohm'), marginSigma: 0, inTolerance: true, ...(zoned ? { zone: 'conditional-pass', limits: { lower: 1.425, upper: 1.575 }, counted: false } : {}) };
   const verdict = {
     pass: spec.pass,
-    quantities: [omega0, zeta],
+    quantities: [omega0, zeta, R],
     rmsDifference: 0.01,
     likelyCause: spec.cause ? { component: spec.cause, change: spec.cause === 'L' ? -0.12 : 0.2, impliedValue: q(1, null, 'H'), explains: 0.9 } : null,
     sensitivities: { alpha: { R: 1, L: -1, C: 0 }, omega0: { R: 0, L: -0.5, C: -0.5 } },
@@ -98,6 +102,14 @@ describe('summarizeLot', () => {
     expect(zeta.capability.cpk).toEqual({ value: null, reason: 'no limits' });
   });
 
+  it('marks a quantity the decisions do not count, and leaves it out of the units\' quantities outside pass', () => {
+    const [omega0, , R] = summary.groups[0].quantities;
+    expect([omega0.counted, R.counted]).toEqual([true, false]);
+    expect(R.zones['conditional-pass']).toBe(5);
+    expect(summary.flagged.find((u) => u.unit === 'SN03')!.outside).toEqual([{ name: 'omega0', zone: 'conditional-pass' }]);
+    expect(summarizeLot(lot(false)).groups[0].quantities[2].counted).toBe(true);
+  });
+
   it('bins the final failures by the likely cause, largest first, and lists failed and conditional units', () => {
     expect(summary.causes).toEqual([{ cause: 'R', units: ['SN04', 'SN05'] }]);
     expect(summary.flagged.map((u) => [u.unit, u.decision, u.firstPass])).toEqual([
@@ -135,11 +147,13 @@ describe('lot report forms', () => {
     expect(html).toContain('<td class="num">1.16</td><td class="num">1.05</td>');
     expect(html).toContain('not defined (no limits)');
     expect(html).not.toMatch(/NaN|Infinity/);
-    expect(html.match(/<svg[^>]*class="lot-histogram"/g)).toHaveLength(2);
-    expect(html.match(/class="limit"/g)).toHaveLength(2);
-    expect(html.match(/class="design"/g)).toHaveLength(2);
+    expect(html.match(/<svg[^>]*class="lot-histogram"/g)).toHaveLength(3);
+    expect(html.match(/class="limit"/g)).toHaveLength(4);
+    expect(html.match(/class="design"/g)).toHaveLength(3);
+    expect(html).toContain('<th scope="row">R †</th>');
+    expect(html).toContain(`<p class="rule">${NOT_COUNTED_NOTE.replace(/'/g, '&#39;')}</p>`);
     expect(html).toContain('sample standard deviation');
-    expect(html).toContain('guarded-acceptance');
+    expect(html).toContain('Decision rule: guarded-acceptance, guard band w = 1 U, U = k u with k = 2 (the default');
   });
 
   it('Markdown: yields, the quantity table, cause bins and flagged units', () => {
@@ -149,13 +163,15 @@ describe('lot report forms', () => {
     expect(md).toContain('| omega0 | Mrad/s | 5 | 10.00 | 0.1581 | 9.80 | 10.20 | 9.50 | 10.60 | 10.00 | 1.16 | 1.05 | 2 | 1 | 1 | 1 |');
     expect(md).toMatch(/\| zeta \| – \| 5 \| 0\.2000 \| 0\.001581 \| 0\.1980 \| 0\.2020 \| – \| – \| 0\.2000 \| not defined \(no limits\) \| not defined \(no limits\) \|/);
     expect(md).toContain('| R | 2 | SN04, SN05 |');
+    expect(md).toMatch(/\| R † \| ohm \| 5 \|/);
     expect(md).toContain('| SN03 | conditional pass | yes | yes | 1 |');
     expect(md).toContain('| SN02 | pass | yes | no | 2 |');
   });
 
   it('CSV: one row per quantity, SI values, Cp and Cpk empty with the reason where not defined', () => {
     const [header, ...rows] = renderLotCsv(summary).trimEnd().split('\r\n').map((line) => line.split(','));
-    expect(rows).toHaveLength(2);
+    expect(rows).toHaveLength(3);
+    expect(rows.map((r) => r[header.indexOf('counted')])).toEqual(['yes', 'yes', 'no']);
     const omega0 = rows.find((r) => r[header.indexOf('quantity')] === 'omega0')!;
     expect(Number(omega0[header.indexOf('cpk')])).toBeCloseTo(1.054093, 5);
     expect(Number(omega0[header.indexOf('lsl')])).toBe(9.5e6);
