@@ -3,7 +3,8 @@
 
 import { escapeHtml } from './escape';
 import type { LotQuantity } from './lotSummary';
-import { scaleAxis } from './plotScale';
+import { takesPrefix } from './lotText';
+import { scaleAxis, type AxisScale } from './plotScale';
 import { PLOT_COLORS } from './svgPlot';
 
 /** Plot size in CSS pixels: two fit side by side in the report's 980 px column. */
@@ -49,14 +50,21 @@ export function renderLotHistogram(q: LotQuantity, designName: string): string {
   if (q.limits?.lower != null) parts.push(line(q.limits.lower, 'limit', PLOT_COLORS.prediction, '6 3', 'LSL'));
   if (q.limits?.upper != null) parts.push(line(q.limits.upper, 'limit', PLOT_COLORS.prediction, '6 3', 'USL'));
   parts.push(line(q.design, 'design', PLOT_COLORS.fit, null, 'design'));
-  parts.push(axes(area, scaleAxis(xMin, xMax, q.unit, 6), yMax, sx, sy, q.name));
+  parts.push(axes(area, valueAxis(xMin, xMax, q.unit), yMax, sx, sy, q.name));
   parts.push('</svg>');
   return parts.join('');
 }
 
+/** Ticks for the value axis; a ratio or a percentage keeps plain numbers (0.32, not 320 m). */
+function valueAxis(min: number, max: number, unit: string): AxisScale {
+  const scale = scaleAxis(min, max, unit, 6);
+  if (takesPrefix(unit)) return scale;
+  return { ticks: scale.ticks, labels: scale.ticks.map((t) => String(Number(t.toPrecision(6)))), unit };
+}
+
 function axes(
   area: { x0: number; x1: number; y0: number; y1: number },
-  xScale: ReturnType<typeof scaleAxis>,
+  xScale: AxisScale,
   yMax: number,
   sx: (x: number) => number,
   sy: (y: number) => number,

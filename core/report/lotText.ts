@@ -52,6 +52,11 @@ const MAX_DECIMALS = 9;
 /** Units that take no SI prefix: ratios (zeta, Q) and percentages (overshoot). */
 const UNPREFIXED = new Set(['', '%']);
 
+/** Whether values in `unit` are shown with an SI prefix (not a ratio or a percentage). */
+export function takesPrefix(unit: string): boolean {
+  return !UNPREFIXED.has(unit);
+}
+
 /** One prefix per table row, so the columns read as plain numbers: 'Mrad/s', divide by 1e6, 2 decimals. */
 export interface RowScale {
   /** The prefixed unit for the row's unit column ('Mrad/s', 'nH', '' for a ratio). */
@@ -65,7 +70,7 @@ export interface RowScale {
 export function rowScale(q: LotQuantity): RowScale {
   const values = [q.stats?.mean, q.stats?.min, q.stats?.max, q.limits?.lower, q.limits?.upper, q.design];
   const largest = Math.max(0, ...values.filter((v): v is number => typeof v === 'number' && Number.isFinite(v)).map(Math.abs));
-  const exponent = largest > 0 && !UNPREFIXED.has(q.unit) ? Math.min(9, Math.max(-15, 3 * Math.floor(Math.log10(largest) / 3))) : 0;
+  const exponent = largest > 0 && takesPrefix(q.unit) ? Math.min(9, Math.max(-15, 3 * Math.floor(Math.log10(largest) / 3))) : 0;
   const divisor = 10 ** exponent;
   const leading = largest > 0 ? Math.floor(Math.log10(largest / divisor)) : 0;
   // A ratio below 1e-6 would ask for more decimals than fixed notation gives.

@@ -151,6 +151,10 @@ describe('lot report forms', () => {
     expect(html.match(/class="limit"/g)).toHaveLength(4);
     expect(html.match(/class="design"/g)).toHaveLength(3);
     expect(html).toContain('<th scope="row">R †</th>');
+    // A ratio's axis keeps plain numbers: 'zeta', ticks like 0.2, never 'zeta (m)' with 200.
+    expect(html).toContain('>zeta</text>');
+    expect(html).toMatch(/>0\.2<\/text>/);
+    expect(html).not.toContain('zeta (m)');
     expect(html).toContain(`<p class="rule">${NOT_COUNTED_NOTE.replace(/'/g, '&#39;')}</p>`);
     expect(html).toContain('sample standard deviation');
     expect(html).toContain('Decision rule: guarded-acceptance, guard band w = 1 U, U = k u with k = 2 (the default');

@@ -104,7 +104,7 @@ describe.skipIf(!hasChromium)('lot report in Chromium', () => {
     const table = (await page.locator('table.capability').boundingBox())!;
     const textColumn = (await page.locator('#quantities-1 h2').boundingBox())!;
     expect(table.x + table.width).toBeLessThanOrEqual(textColumn.x + textColumn.width + 0.5);
-    expect(await page.locator('#quantities-1 .rule').innerText()).toContain('sample standard deviation');
+    expect(await page.locator('#quantities-1').innerText()).toContain('s is the sample standard deviation (n - 1)');
   });
 
   it('draws a histogram per quantity with bars, the design line, and the limits where given', async () => {
