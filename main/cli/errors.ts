@@ -24,8 +24,11 @@ const FLAG_OF: Record<string, string> = {
   jumpStart: '--jump-start',
   probeC: '--probe-c',
 };
-/** 'option sampleInterval', 'the sampleInterval option', 'options.probeC' or the bare name. */
-const INTERNAL_OPTION = new RegExp(`(?:the )?(?:option |options\\.)?\\b(${Object.keys(FLAG_OF).join('|')})\\b(?: option)?`, 'g');
+/**
+ * 'option sampleInterval', 'the sampleInterval option', 'options.probeC' or the bare name; never a quoted name,
+ * which is the file's own (a column called 'sortTime').
+ */
+const INTERNAL_OPTION = new RegExp(`(?:the )?(?:option |options\\.)?(?<!['"])\\b(${Object.keys(FLAG_OF).join('|')})\\b(?!['"])(?: option)?`, 'g');
 /** The fit window as the fit names it, heading its message (after a file's name): set by --from and --to. */
 const WINDOW_FIELD = /(^|: )window: /;
 

@@ -7,6 +7,8 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
 import { runCliIn } from './cliHarness';
+import { messageFor } from '../../main/cli/errors';
+import { InputError } from '../../core/inputError';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const DESIGN = readFileSync(path.join(ROOT, 'sample-captures', 'designs', 'switch-node-before.json'), 'utf8');
@@ -149,5 +151,12 @@ describe('compare names the capture at fault', () => {
     const { code, err } = await run(['compare', ring, ring, '--known', 'C=1n']);
     expect(code).toBe(2);
     expect(err).toBe('ringbench: --topology and --known go together: give both to derive R, L and C\n');
+  });
+});
+
+describe('the flag wording leaves the file’s own names alone', () => {
+  it('a column called sortTime stays as the file names it; the option becomes its flag', () => {
+    const message = messageFor(new InputError("line 3: time 5 ns is earlier than 19 ns (column 'sortTime'); time must increase (option sortTime sorts the rows)"));
+    expect(message).toBe("line 3: time 5 ns is earlier than 19 ns (column 'sortTime'); time must increase (--sort-time sorts the rows)");
   });
 });
