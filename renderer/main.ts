@@ -20,10 +20,12 @@ import { createBeforeAfterPanel } from './panels/beforeAfterPanel';
 import { createCautionsPanel } from './panels/cautionsPanel';
 import { createBenchLogPanel } from './panels/benchLogPanel';
 import { installFileDrop } from './fileDrop';
-import { arrangeBench } from './benchLayout';
-import { drawCapacitanceLine, drawOverlay } from './plot/comparePlots';
 import { installShortcuts, type ShortcutCommand } from './shortcuts';
 import { createShortcutList } from './shortcutList';
+import { arrangeBench } from './benchLayout';
+import { drawCapacitanceLine, drawOverlay } from './plot/comparePlots';
+import { readSession } from './benchMemory';
+import { sessionKeeper } from './actions/session';
 import type { MenuCommand } from './bridgeTypes';
 
 function boot(): void {
@@ -111,7 +113,13 @@ function boot(): void {
     store.update((state) => (state.error = plainMessage(event.reason)));
   });
   new ResizeObserver(() => void plot.redraw()).observe(plotRoot);
-  void actions.start(new URLSearchParams(location.search).get('sample'));
+  // The session left last time is read before anything opens, put back on the first capture if it is the same one, and
+  // only then kept again (so the first start's defaults never overwrite it).
+  const savedSession = readSession();
+  void actions
+    .start(new URLSearchParams(location.search).get('sample'))
+    .then(() => actions.restoreSession(savedSession))
+    .finally(() => store.subscribe(sessionKeeper()));
 }
 
 boot();

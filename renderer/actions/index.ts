@@ -18,6 +18,8 @@ import { chooseEvent, setWindow } from './fitWindow';
 import { pickCaptureFile, readSampleText } from './pickCaptures';
 import { stopWork } from './stopWork';
 import { setProbe } from './probe';
+import { openRecent, restoreSession } from './session';
+import type { SessionMemory } from '../benchMemory';
 
 export type BenchActions = ReturnType<typeof bindActions>;
 
@@ -53,5 +55,7 @@ export function bindActions(ctx: ActionContext) {
     dismissError: () => ctx.store.update((s) => (s.error = null)),
     stopWork: () => stopWork(ctx),
     setProbe: (ratioText: string, invert: boolean) => setProbe(ctx, ratioText, invert),
+    openRecent: (id: string) => openRecent(ctx, id),
+    restoreSession: (saved: SessionMemory | null) => restoreSession(ctx, saved),
   };
 }

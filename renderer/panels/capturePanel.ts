@@ -1,4 +1,4 @@
-// The capture panel: open a file or a sample, choose the channel, and what the importer found.
+// The capture panel: open a file, a sample or a recent capture, choose the channel, and what the importer found.
 
 import { button, card, field, h, replaceChildren, select, textInput } from '../dom';
 import { showValue } from '../show';
@@ -6,6 +6,7 @@ import { importRows } from '../../core/report/importText';
 import type { BenchState } from '../benchState';
 import type { CaptureInfo, StatedUnits, UnitRefusal } from '../workerProtocol';
 import { segmentRead } from '../traceData';
+import { readRecent } from '../benchMemory';
 import type { BenchActions } from '../actions';
 
 export function createCapturePanel(actions: BenchActions) {
@@ -14,11 +15,16 @@ export function createCapturePanel(actions: BenchActions) {
   sampleSelect.addEventListener('change', () => {
     if (sampleSelect.value) void actions.openSample(sampleSelect.value);
   });
+  const recentSelect = h('select', { id: 'recent-select', attrs: { 'aria-label': 'Recent captures' } });
+  recentSelect.addEventListener('change', () => {
+    if (recentSelect.value) void actions.openRecent(recentSelect.value);
+  });
   const buttons = h(
     'div',
     { class: 'actions' },
     button('Open capture…', () => void actions.pickCapture(), { id: 'open-capture', class: 'primary', title: 'Open a scope export (Ctrl+O), or drop it on the window' }),
     field('Sample', sampleSelect),
+    field('Recent', recentSelect),
   );
   // The probe of the channel shown: built once, so typing is not undone by a redraw.
   const probeRatio = textInput('', { id: 'probe-ratio', attrs: { placeholder: '1', 'aria-label': 'Probe ratio: the channel\'s values are multiplied by it' } });
@@ -37,6 +43,7 @@ export function createCapturePanel(actions: BenchActions) {
   const details = h('div', { class: 'details' });
   body.append(buttons, probeRow, details);
   let samplesShown = '';
+  let recentShown = '';
 
   function render(state: BenchState): void {
     const list = state.samples.map((s) => s.id).join(',');
@@ -45,6 +52,18 @@ export function createCapturePanel(actions: BenchActions) {
       replaceChildren(sampleSelect, h('option', { attrs: { value: '' } }, 'choose a sample…'), ...state.samples.map((s) => h('option', { attrs: { value: s.id }, title: s.description }, s.title)));
     }
     sampleSelect.value = state.capture?.opened.sampleId ?? '';
+    const recent = readRecent();
+    const recentList = recent.map((r) => r.id).join(',');
+    if (recentList !== recentShown) {
+      recentShown = recentList;
+      replaceChildren(
+        recentSelect,
+        h('option', { attrs: { value: '' } }, recent.length ? 'open again…' : 'none yet'),
+        ...recent.map((r) => h('option', { attrs: { value: r.id }, title: `${r.path ?? r.name}, opened ${r.openedAt.slice(0, 16).replace('T', ' ')}` }, r.name)),
+      );
+    }
+    recentSelect.value = '';
+    recentSelect.disabled = recent.length === 0;
     const capture = state.capture;
     const refused = state.refused;
     probeRow.hidden = !capture;
