@@ -10,6 +10,9 @@ import { buildBench, CHROMIUM, hasChromium, launchChromium, outputDir, serveBenc
 
 if (!hasChromium) console.warn(`test/e2e/windowComparePlots.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
 
+/** Each use case fits several captures: up to a few minutes on a busy shared test machine. */
+const USE_CASE_TEST_MS = 240_000;
+
 /** Lines plotly drew in a plot: each trace's path with some length. */
 async function drawnTraces(page: Page, selector: string): Promise<number> {
   return page.locator(`${selector} .scatterlayer .trace`).evaluateAll((traces) => traces.filter((t) => (t.querySelector('path.js-line')?.getAttribute('d') ?? '').length > 10 || t.querySelectorAll('path.point').length > 0).length);
@@ -54,7 +57,7 @@ describe.skipIf(!hasChromium)('plots over several captures', () => {
     await page.click('#theme-toggle');
     await page.waitForFunction((before) => getComputedStyle(document.querySelector('#extraction-line-plot .scatterlayer .trace path.js-line') as Element).stroke !== before, light);
     await page.click('#theme-toggle');
-  });
+  }, USE_CASE_TEST_MS);
 
   it('overlays the before and after captures with their fits', async () => {
     await page.selectOption('#before-sample', 'switch-node-before');
@@ -66,5 +69,5 @@ describe.skipIf(!hasChromium)('plots over several captures', () => {
     await page.waitForFunction(() => (document.querySelector('#compare-overlay') as HTMLElement).dataset.traces === '4');
     expect(await drawnTraces(page, '#compare-overlay')).toBe(4);
     await page.locator('#before-after-panel').screenshot({ path: join(outputDir, 'before-after-overlay-1600.png') });
-  });
+  }, USE_CASE_TEST_MS);
 });

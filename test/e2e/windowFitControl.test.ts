@@ -77,7 +77,7 @@ describe.skipIf(!hasChromium)('fit control in the window', () => {
     expect(await page.locator('#error-text').innerText()).toContain("probe ratio 'ten'");
     // Nothing changed: the inverted, scaled fit stays.
     expect(Math.abs((await finalValue(page)) / plain + 10)).toBeLessThan(10 * SCALE_AGREEMENT);
-  });
+  }, LONG_TEST_MS);
 
   it('stops a long fit from the top bar, leaves the page usable, and refits the same capture after', async () => {
     const path = join(folder, 'long-step.csv');

@@ -15,6 +15,8 @@ if (!hasChromium) console.warn(`test/e2e/windowLayout.test.ts: skipped, no brows
 const PAGE_MARGINS = 36;
 /** A result row of one line: its text is 13 px with 5 px padding above and below; two lines would be about 45 px. */
 const ONE_LINE_ROW = 34;
+/** Opening the bench and fitting its first capture: up to a minute or two on a busy shared test machine. */
+const PAGE_TEST_MS = 180_000;
 
 interface Box {
   x: number;
@@ -76,7 +78,7 @@ describe.skipIf(!hasChromium)('window layout', () => {
       expect(rows.length).toBeGreaterThan(5);
       for (const rowHeight of rows) expect(rowHeight, 'a result row wraps').toBeLessThanOrEqual(ONE_LINE_ROW);
       await page.context().close();
-    });
+    }, PAGE_TEST_MS);
   }
 
   it('gives the extraction and the before / after comparison the full width', async () => {
@@ -86,7 +88,7 @@ describe.skipIf(!hasChromium)('window layout', () => {
       expect(b.width, selector).toBeGreaterThanOrEqual(1280 - PAGE_MARGINS - 1);
     }
     await page.context().close();
-  });
+  }, PAGE_TEST_MS);
 
   it('does not break at 1024x700: nothing wider than the window, the results and verdict still shown', async () => {
     const page = await openAt(1024, 700);
@@ -97,5 +99,5 @@ describe.skipIf(!hasChromium)('window layout', () => {
     expect(fit.x).toBeGreaterThanOrEqual(plot.x + plot.width);
     expect((await box(page, '#verdict-overall')).y).toBeLessThan(700);
     await page.context().close();
-  });
+  }, PAGE_TEST_MS);
 });
