@@ -113,7 +113,9 @@ const DIRECT_ROWS: readonly string[] = ['zeta', 'Q', 'R', 'L', 'C'] satisfies Li
  * the component tolerances (quantityLimits.ts); the levels' limits add the level tolerance of the larger of
  * the level and the swing. Its zone compares value ± U (U = k u_measured) with the limits, and the design's
  * decision rule (default: guarded acceptance, w = U, k = 2) accepts it or not (decisionRule.ts). The board
- * passes when every quantity is accepted; its decision is the worst zone. The margin in sigma (against the
+ * passes when every counted quantity is accepted (R, L or C derived with another part at its design value
+ * counts only when the design limits it: VerdictQuantity.counted); its decision is the worst counted zone.
+ * A limited overshoot or settling time is a row too (transitionLimits.ts). The margin in sigma (against the
  * design's value and its rectangular tolerance uncertainty, GUM 4.3.7) is kept as information. The likely
  * cause names the source when a level deviates, else the component; R, L and C are derived taking a part
  * other than the likely cause at its design value, so the table shows the change where the cause puts it.
