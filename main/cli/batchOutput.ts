@@ -1,13 +1,15 @@
 // What `batch` prints: the table, the JSON array (in folder order), and one JSON Lines object per capture.
 
 import { isMeasured, type BatchOutcome } from '../app/batchFile';
-import type { FailureText } from '../../core/inputError';
+import { InputError, type FailureText } from '../../core/inputError';
+import { escapeControls } from '../../core/report/escape';
 import { briefValue, regimeTag } from '../../core/report/resultRows';
 import { fitWarnings } from '../../core/report/fitSummary';
+import { messageFor } from './errors';
 
-/** As errors.ts words it: bad input keeps its own text; anything else is marked as a failure of ours. */
+/** The failure a worker sent as plain data, worded as every command words an error (errors.ts). */
 function failureMessage({ input, text }: FailureText): string {
-  return input ? text : `internal error: ${text}`;
+  return messageFor(input ? new InputError(text) : new Error(text));
 }
 
 /** One element of `--json`: the fit summary with its file, verdict, noVerdict and cautions; { file, error } for a capture not measured. */
@@ -26,10 +28,11 @@ export function batchJsonLine(outcome: BatchOutcome): string {
 export function formatBatchTable(outcomes: readonly BatchOutcome[]): string {
   const header = ['file', 'status', 'warnings', 'regime', 'f0', 'zeta', 'Q', 'verdict', 'cautions'];
   const rows = outcomes.map((outcome) => {
-    if (!isMeasured(outcome)) return [outcome.file, `error: ${failureMessage(outcome.failure)}`];
+    // A file name is one cell: a line break in it is shown escaped, not laid out.
+    if (!isMeasured(outcome)) return [escapeControls(outcome.file), `error: ${failureMessage(outcome.failure)}`];
     const { summary: s, verdict, cautions, noVerdict } = outcome;
     return [
-      outcome.file,
+      escapeControls(outcome.file),
       s.status,
       String(fitWarnings(s).length),
       regimeTag(s) ?? '-',
@@ -43,6 +46,6 @@ export function formatBatchTable(outcomes: readonly BatchOutcome[]): string {
   const widths = header.map((h, c) => Math.max(h.length, ...rows.filter((r) => r.length > 2).map((r) => r[c].length)));
   const line = (cells: string[]) => (cells.length === 2 ? cells.join('  ') : cells.map((cell, c) => cell.padEnd(widths[c])).join('  ').trimEnd());
   // Why a file got no verdict, one line each below the table (a reason is too long for a column).
-  const refusals = outcomes.flatMap((o) => (isMeasured(o) && o.noVerdict ? [`${o.file}: no verdict: ${o.noVerdict}`] : []));
+  const refusals = outcomes.flatMap((o) => (isMeasured(o) && o.noVerdict ? [`${escapeControls(o.file)}: no verdict: ${o.noVerdict}`] : []));
   return [line(header), ...rows.map(line), ...refusals].map((l) => `${l}\n`).join('');
 }

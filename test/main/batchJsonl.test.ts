@@ -73,6 +73,13 @@ describe('batch --jsonl', () => {
     }
   }, SLOW);
 
+  it('the table keeps the hostile name on a row of its own, its controls shown escaped', async () => {
+    const { out } = await runCliIn(folder, ['batch', 'lot', '--jobs', '1']);
+    const rows = out.trimEnd().split('\n');
+    expect(rows).toHaveLength(7); // the header and six files
+    expect(rows).toContainEqual(expect.stringMatching(/^unit\\u000a7 "quoted" \\u001b\[2J\.csv  error: /));
+  }, SLOW);
+
   it('refuses --json with --jsonl: exit 2, nothing printed', async () => {
     const { code, out, err } = await runCliIn(folder, ['batch', 'lot', '--jsonl', '--json']);
     expect(code).toBe(2);
