@@ -1,7 +1,8 @@
 // One bench-log record (a logged measurement of one unit) and the check of a line read back.
 
 import { InputError } from '../inputError';
-import { isObject, isText, measurementShapeProblem, type ShapeProblem } from './recordShape';
+import { isObject, isText } from './jsonShape';
+import { measurementShapeProblem, type ShapeProblem } from './recordShape';
 
 import type { FitSummary } from './fitSummary';
 import type { Verdict } from '../circuit/verdict';

@@ -1,11 +1,6 @@
 // The check of an import summary kept in a bench-log record (read from the log or sent by a window), field by field.
 
-type Json = Record<string, unknown>;
-
-/** Longest text field accepted (a column heading, a reason), as for the other fields of a log request. */
-const MAX_TEXT = 2000;
-/** Longest warning accepted: a warning quotes lines of the file, so it may run longer (as the fit's warnings may). */
-const MAX_WARNING = 10 * MAX_TEXT;
+import { isCount, isObject, isText, MAX_WARNING, type Json } from './jsonShape';
 
 const SUMMARY_KEYS = [
   'encoding',
@@ -26,18 +21,6 @@ const SUMMARY_KEYS = [
 ];
 const DELIMITERS = ['comma', 'semicolon', 'tab', 'whitespace', 'none'];
 const LINE_ENDS = ['CRLF', 'LF', 'CR', null];
-
-function isObject(value: unknown): value is Json {
-  return typeof value === 'object' && value !== null && !Array.isArray(value);
-}
-
-function isText(value: unknown, max = MAX_TEXT): value is string {
-  return typeof value === 'string' && value.length <= max && !value.includes('\0');
-}
-
-function isCount(value: unknown): boolean {
-  return typeof value === 'number' && Number.isInteger(value) && value >= 0;
-}
 
 function isLine(value: unknown): boolean {
   return typeof value === 'number' && Number.isInteger(value) && value >= 1;

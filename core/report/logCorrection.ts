@@ -5,7 +5,7 @@
 // operator, note), a withdrawal takes the measurement out of the tables and the yield, shown apart with its reason.
 
 import { benchRecordFrom, LogError, RECORD_ID, RECORD_SCHEMA, type BenchRecord } from './benchRecord';
-import { isObject, isText, MAX_TEXT } from './recordShape';
+import { isObject, isText, MAX_TEXT } from './jsonShape';
 
 export const CORRECTION_KIND = 'ringbench-correction';
 

@@ -1,12 +1,11 @@
 // The one deep check of a measurement record: every field the log table and the reports read, from a log line or a window's request.
 
 import { importSummaryProblem } from './importSummaryShape';
+import { isCount, isObject, isText, MAX_WARNING, type Json } from './jsonShape';
 import { RESULT_ROWS, TRANSITION_ROWS, valueAtPath, type ResultRowSpec } from './resultRows';
 import { fitSucceeded } from './fitSummary';
 import type { FitStatus } from '../fit/types';
 import type { Regime } from '../fit/responseFit';
-
-type Json = Record<string, unknown>;
 
 /** What is wrong and where: `field` is the dotted path of the part checked ('fit.import', 'cautions.fired[0]'), `problem` a phrase. */
 export interface ShapeProblem {
@@ -14,14 +13,10 @@ export interface ShapeProblem {
   problem: string;
 }
 
-/** Longest unit id, operator, note, path part or message accepted: a bench label, never a document. */
-export const MAX_TEXT = 2000;
 /** Longest note kept in a log line: the command line never limited it, so only what is plainly not a note is refused. */
 const MAX_NOTE = 1024 * 1024;
 /** Longest path accepted (PATH_MAX on Linux). */
 export const MAX_PATH = 4096;
-/** A warning quotes lines of the capture file, so it may run longer than a label. */
-const MAX_WARNING = 10 * MAX_TEXT;
 /** Longest unit symbol of a quantity ('s^-1', 'rad/s'); anything longer is not a unit. */
 const MAX_UNIT = 16;
 
@@ -170,23 +165,10 @@ function isFiniteNumber(value: unknown): boolean {
   return typeof value === 'number' && Number.isFinite(value);
 }
 
-export function isCount(value: unknown): boolean {
-  return typeof value === 'number' && Number.isInteger(value) && value >= 0;
-}
-
-export function isSha256(value: unknown): boolean {
+function isSha256(value: unknown): boolean {
   return typeof value === 'string' && /^[0-9a-f]{64}$/.test(value);
-}
-
-/** Text without NUL of at most `max` characters. */
-export function isText(value: unknown, max = MAX_TEXT): value is string {
-  return typeof value === 'string' && value.length <= max && !value.includes('\0');
 }
 
 function isTextList(value: unknown, max: number): boolean {
   return Array.isArray(value) && value.every((item) => isText(item, max));
-}
-
-export function isObject(value: unknown): value is Json {
-  return typeof value === 'object' && value !== null && !Array.isArray(value);
 }

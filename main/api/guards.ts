@@ -3,7 +3,8 @@
 import { isAbsolute } from 'node:path';
 import type { BenchLogRequest, SaveRequest } from '../../core/bench/benchApiTypes';
 import { API_METHODS, type ApiMethod } from './apiMethods';
-import { isObject, isText, MAX_PATH, measurementShapeProblem } from '../../core/report/recordShape';
+import { isObject, isText } from '../../core/report/jsonShape';
+import { MAX_PATH, measurementShapeProblem } from '../../core/report/recordShape';
 import { RECORD_ID } from '../../core/report/benchRecord';
 import { labelChangesProblem } from '../../core/report/logCorrection';
 

@@ -3,7 +3,7 @@
 import { randomBytes } from 'node:crypto';
 import { LogError, RECORD_SCHEMA } from '../../core/report/benchRecord';
 import { CORRECTION_KIND, labelChangesProblem, type CorrectionAction, type CorrectionRecord, type LabelChanges } from '../../core/report/logCorrection';
-import { MAX_TEXT } from '../../core/report/recordShape';
+import { MAX_TEXT } from '../../core/report/jsonShape';
 import { UsageError } from '../../core/inputError';
 import { appendBenchLog, readCleanBenchLog } from '../io/benchLog';
 import { checkLabel } from './labels';

@@ -132,7 +132,7 @@ export function describeTornTail(logPath: string, torn: { line: number }): strin
 }
 
 /** A one-line note about a skipped line for the terminal and reports. */
-export function describeSkippedLine(logPath: string, bad: { message: string }): string {
+function describeSkippedLine(logPath: string, bad: { message: string }): string {
   return `bench log '${logPath}' ${bad.message}: skipped, the other records are used`;
 }
 
