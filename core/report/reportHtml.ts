@@ -7,7 +7,7 @@ import type { BenchRecord } from './benchRecord';
 import type { FitSummary } from './fitSummary';
 import type { Verdict } from '../circuit/verdict';
 import { escapeHtml as e } from './escape';
-import { decisionText, expandedUncertaintyText, isCounted, limitsText, ruleText, zoneText } from './verdictText';
+import { ZONE_WORDS, decisionText, expandedUncertaintyText, isCounted, limitsText, quantityZoneOf, ruleText } from './verdictText';
 import { importRows } from './importText';
 import { renderMeasurementPlot, type ReportTrace } from './overlay';
 import { briefValue, fitResultRows, fitTransitionRows, marginText, regimeTag, showTime, transitionNote } from './resultRows';
@@ -186,13 +186,19 @@ function sentence(text: string): string {
   return `${text.charAt(0).toUpperCase()}${text.slice(1)}.`;
 }
 
+/** A number kept on one line with its unit (a no-break space after the digits), while ' ± ' and ' to ' may still wrap. */
+function unitsKept(text: string): string {
+  return text.replace(/(\d) (?!± |to )/g, '$1\u00a0');
+}
+
 function verdictBlock(verdict: Verdict, designName: string, unit: string): string {
   const rows = verdict.quantities
     .map(
       (q) =>
-        `<tr><td>${e(q.name)}</td><td class="num">${e(formatMeasured(q.design))}</td><td class="num">${e(formatMeasured(q.measured))}</td>` +
-        `<td class="num">${e(limitsText(q))}</td><td class="num">${e(expandedUncertaintyText(q))}</td>` +
-        `<td class="num">${e(marginText(q))}</td><td>${badge(!isCounted(q) ? 'not checked' : q.inTolerance ? 'pass' : 'fail', zoneText(q))}</td></tr>`,
+        // Value cells may wrap (at ' ± ', ' to ') so that seven columns fit the page; the zone's badge stays whole.
+        `<tr><td>${e(q.name)}</td><td>${e(unitsKept(formatMeasured(q.design)))}</td><td>${e(unitsKept(formatMeasured(q.measured)))}</td>` +
+        `<td>${e(unitsKept(limitsText(q)))}</td><td>${e(unitsKept(expandedUncertaintyText(q)))}</td><td class="num">${e(marginText(q))}</td>` +
+        `<td>${badge(!isCounted(q) ? 'not checked' : q.inTolerance ? 'pass' : 'fail', ZONE_WORDS[quantityZoneOf(q)])}${isCounted(q) ? '' : ' <span class="fineprint">not counted</span>'}</td></tr>`,
     )
     .join('');
   let html = `<h4>Verdict against ${e(designName)}: ${e(decisionText(verdict))}</h4>`;
