@@ -53,9 +53,23 @@ export function searchLayouts(set: FitSet, layouts: ParameterLayout[], candidate
       if (!simpler && goodEnough(best)) break;
     }
     if (best) best = alongDamping(set, layout, best, t0Start);
-    if (best) attempts.push(LAYOUTS[layout].fitsT0 ? shiftByHalfPeriods(set, best) : best);
+    if (!best) continue;
+    best = LAYOUTS[layout].fitsT0 ? shiftByHalfPeriods(set, best) : best;
+    attempts.push(best);
+    if (simpler && best.sse < simpler.sse * (1 - SSE_ROUNDING)) attempts[0] = fromRicher(set, simpler, best, t0Start);
   }
   return attempts;
+}
+
+/**
+ * The simplest layout refined again from a richer layout's rates and event when the richer one fitted
+ * better: a start can stop in a wrong minimum that leaves little more than the noise (a step too fast to
+ * see at 20 dB), while the richer layout, started elsewhere, found the response the simpler one also holds.
+ */
+function fromRicher(set: FitSet, simpler: Attempt, richer: Attempt, t0Start: number): Attempt {
+  const start: RateCandidate = { alpha: attemptValue(richer, 'alpha'), omega0: attemptValue(richer, 'omega0'), source: 'richer layout' };
+  const refined = refine(set, simpler.layout, start, attemptT0(richer, t0Start));
+  return refined.sse < simpler.sse ? refined : simpler;
 }
 
 /**
