@@ -36,6 +36,11 @@ describe('a bad line in the middle of the log', () => {
     expect(err.trimEnd().split('\n')).toHaveLength(1);
     expect(err).toMatch(/^ringbench: note: bench log 'mixed\.jsonl' line 2: .*: skipped, the other records are used$/m);
     expect(err).toMatch(why);
+    const json = await run(['log', 'list', '--log', 'mixed.jsonl', '--json']);
+    expect(json.code).toBe(1);
+    const printed = JSON.parse(json.out) as { records: { id: string }[]; logs: { skipped: { line: number }[] }[] };
+    expect(printed.records.map((r) => r.id)).toEqual(['00000000000a', '00000000000c']);
+    expect(printed.logs[0].skipped.map((s) => s.line)).toEqual([2]);
   });
 
   it('report writes every good record, states the skipped line in the report and on stderr, and exits 1', async () => {

@@ -89,19 +89,19 @@ export function registerLogCommand(program: Command, ctx: CommandContext): void 
     .description('list the measurements of a bench log, or of several merged (by time, a record in two logs listed once): time, unit, regime, f0, zeta, verdict')
     .argument('[logs...]', 'bench log files, as --log')
     .option('--log <path>', 'bench log file (repeat for several)', (value: string, previous: string[]) => [...previous, value], [] as string[])
-    .option('--json', 'print the records as a JSON object { records, torn, duplicates, logs }: torn is the cut-off last line of a single log, logs gives each log\'s')
+    .option('--json', 'print the records as a JSON object { records, torn, duplicates, logs, withdrawn }: torn is the cut-off last line of a single log, logs gives each log\'s count, cut-off line and skipped lines')
     .exitOverride()
     .configureOutput(output)
     .action((logs: string[], options: { log: string[]; json?: boolean }) => {
       const given = [...options.log, ...logs];
       if (!given.length) throw new UsageError('no bench log given: name one with --log FILE (repeat --log, or list the logs, for several)', '--log');
-      const perLog: { log: string; records: number; torn: { line: number; text: string } | null }[] = [];
+      const perLog: { log: string; records: number; torn: { line: number; text: string } | null; skipped: { line: number; message: string }[] }[] = [];
       const corrected: Corrected = { withdrawn: [], amended: new Set(), skipped: 0 };
       const merged = readMergedLogs(
         given.map((shown) => ({ path: resolve(ctx.io.cwd, shown), shown })),
         ({ path, shown }) => {
           const contents = readCleanBenchLog(path, shown);
-          perLog.push({ log: shown, records: contents.records.length, torn: contents.torn });
+          perLog.push({ log: shown, records: contents.records.length, torn: contents.torn, skipped: contents.bad });
           corrected.withdrawn.push(...contents.withdrawn);
           for (const id of Object.keys(contents.amendments)) corrected.amended.add(id);
           corrected.skipped += contents.bad.length;
