@@ -2,6 +2,7 @@
 // transparent) and its caption (file, channel, the fit in one line) above it; as SVG text, or rasterised to PNG.
 
 import type { PlotCaption } from '../core/report/plotCaption';
+import { escapeHtml } from '../core/report/escape';
 import { BenchError } from './benchError';
 
 const SVG_NS = 'http://www.w3.org/2000/svg';
@@ -18,29 +19,26 @@ export interface ImageColors {
   font: string;
 }
 
-/** The plot's SVG inside a larger one: background rectangle, caption lines, then the plot below the caption. */
+/**
+ * The plot's SVG inside a larger one: background rectangle, caption lines, then the plot below the caption. Built
+ * as text: parsing the plot's markup into a document would apply its inline styles, which the page's CSP refuses.
+ */
 export function captionedSvg(plotSvg: string, caption: PlotCaption, colors: ImageColors): string {
-  const plot = new DOMParser().parseFromString(plotSvg, 'image/svg+xml').documentElement;
-  if (plot.nodeName !== 'svg') throw new BenchError('the plot did not export as SVG');
-  const width = Number(plot.getAttribute('width'));
-  const height = Number(plot.getAttribute('height'));
-  const doc = document.implementation.createDocument(SVG_NS, 'svg', null);
-  const root = doc.documentElement;
-  const set = (element: Element, attributes: Record<string, string | number>) => {
-    for (const [name, value] of Object.entries(attributes)) element.setAttribute(name, String(value));
-    return element;
-  };
-  set(root, { width, height: height + CAPTION_HEIGHT, viewBox: `0 0 ${width} ${height + CAPTION_HEIGHT}` });
-  root.append(set(doc.createElementNS(SVG_NS, 'rect'), { x: 0, y: 0, width, height: height + CAPTION_HEIGHT, fill: colors.background }));
-  const line = (text: string, y: number, fill: string, weight: string) => {
-    const element = set(doc.createElementNS(SVG_NS, 'text'), { x: CAPTION_LEFT, y, fill, 'font-family': colors.font, 'font-size': 13, 'font-weight': weight });
-    element.textContent = text;
-    return element;
-  };
-  root.append(line(caption.source, 18, colors.ink, '600'), line(caption.fit, 37, colors.muted, '400'));
-  plot.setAttribute('y', String(CAPTION_HEIGHT));
-  root.append(doc.importNode(plot, true));
-  return new XMLSerializer().serializeToString(doc);
+  const open = /^<svg\b[^>]*>/.exec(plotSvg.trimStart());
+  const width = Number(/\swidth="([\d.]+)"/.exec(open?.[0] ?? '')?.[1]);
+  const height = Number(/\sheight="([\d.]+)"/.exec(open?.[0] ?? '')?.[1]);
+  if (!open || !(width > 0) || !(height > 0)) throw new BenchError('the plot did not export as an SVG with its size');
+  const total = height + CAPTION_HEIGHT;
+  const line = (text: string, y: number, fill: string, weight: number) =>
+    `<text x="${CAPTION_LEFT}" y="${y}" fill="${escapeHtml(fill)}" font-family="${escapeHtml(colors.font)}" font-size="13" font-weight="${weight}">${escapeHtml(text)}</text>`;
+  const plot = plotSvg.trimStart().replace(/^<svg\b/, `<svg y="${CAPTION_HEIGHT}"`);
+  return (
+    `<svg xmlns="${SVG_NS}" width="${width}" height="${total}" viewBox="0 0 ${width} ${total}">` +
+    `<rect x="0" y="0" width="${width}" height="${total}" fill="${escapeHtml(colors.background)}"/>` +
+    line(caption.source, 18, colors.ink, 600) +
+    line(caption.fit, 37, colors.muted, 400) +
+    `${plot}</svg>`
+  );
 }
 
 /** The captioned SVG drawn on a canvas at PNG_SCALE: a PNG as base64 (no data-URL prefix). */

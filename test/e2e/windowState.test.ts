@@ -125,6 +125,8 @@ describe.skipIf(!hasChromium)('the window from one capture to the next, its caut
     await context.grantPermissions(['clipboard-read', 'clipboard-write'], { origin: bench.origin });
     page = await context.newPage();
     page.on('pageerror', (error) => problems.push(error.message));
+    // An export once parsed the plot's markup into a document, and the page's CSP refused each inline style in it.
+    page.on('console', (message) => message.type() === 'error' && problems.push(`console: ${message.text()}`));
     await page.goto(bench.url);
     await waitForFit(page, 'input-filter-step.csv');
     await page.waitForSelector('#verdict-overall');
