@@ -8,7 +8,7 @@ import { parseBenchRecord, RECORD_KIND, RECORD_SCHEMA, type BenchRecord } from '
 import { parseDesign } from '../../core/circuit/design';
 import type { BenchLogRequest, BenchLogView, LogCorrectionRequest } from '../../core/bench/benchApiTypes';
 import { VERSION } from '../version';
-import { checkLabel } from '../app/labels';
+import { checkLabel, checkNote } from '../app/labels';
 
 /** The record for a request: the window's results plus the id, the time and the software. */
 export function recordFromRequest(request: BenchLogRequest, now: Date, id = randomBytes(6).toString('hex')): BenchRecord {
@@ -20,7 +20,7 @@ export function recordFromRequest(request: BenchLogRequest, now: Date, id = rand
     // The same label rules as `ringbench log add --unit/--operator`.
     unit: checkLabel(request.unit, 'unit'),
     operator: request.operator === null || request.operator.trim() === '' ? null : checkLabel(request.operator, 'operator'),
-    note: blankToNull(request.note),
+    note: request.note === null ? null : checkNote(request.note, 'note'),
     capture: request.capture,
     settings: request.settings,
     fit: request.fit,
@@ -54,8 +54,4 @@ export function readLogView(logPath: string): BenchLogView {
   const amended = Object.keys(contents.amendments);
   const withdrawn = contents.withdrawn.map(({ record, withdrawal }) => ({ record, time: withdrawal.time, reason: withdrawal.reason }));
   return { path: logPath, records: contents.records, notes, ...(withdrawn.length ? { withdrawn } : {}), ...(amended.length ? { amended } : {}) };
-}
-
-function blankToNull(text: string | null): string | null {
-  return text === null || text.trim() === '' ? null : text.trim();
 }

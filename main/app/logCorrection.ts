@@ -6,7 +6,7 @@ import { CORRECTION_KIND, labelChangesProblem, type CorrectionAction, type Corre
 import { MAX_TEXT } from '../../core/report/jsonShape';
 import { UsageError } from '../../core/inputError';
 import { appendBenchLog, readCleanBenchLog } from '../io/benchLog';
-import { checkLabel } from './labels';
+import { checkLabel, checkNote } from './labels';
 import { VERSION } from '../version';
 
 export interface CorrectionRequest {
@@ -56,11 +56,11 @@ export function correctLoggedMeasurement(logPath: string, request: CorrectionReq
   return correction;
 }
 
-/** Labels as the log keeps them: unit and operator checked as `log add` checks them, a blank operator or note cleared. */
+/** Labels as the log keeps them: checked as `log add` checks them, a blank operator or note cleared. */
 function normalizedChanges(changes: LabelChanges): LabelChanges {
   const out: LabelChanges = {};
   if (changes.unit !== undefined) out.unit = checkLabel(changes.unit, 'unit');
   if (changes.operator !== undefined) out.operator = changes.operator === null || changes.operator.trim() === '' ? null : checkLabel(changes.operator, 'operator');
-  if (changes.note !== undefined) out.note = changes.note === null || changes.note.trim() === '' ? null : changes.note.trim();
+  if (changes.note !== undefined) out.note = changes.note === null ? null : checkNote(changes.note, 'note');
   return out;
 }

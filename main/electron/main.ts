@@ -86,7 +86,7 @@ function openBench(): void {
   serveRenderer(join(projectRoot, 'dist', 'renderer'));
   app.on('web-contents-created', (_event, contents) => hardenContents(contents));
 
-  const bench = createBenchApi({ projectRoot, logPath: join(userData, 'bench-log.jsonl') });
+  const bench = createBenchApi({ projectRoot, logPath: join(userData, 'bench-log.jsonl'), mayReadCapture: (path) => granted.isGranted(path) });
   const shell = createShellHandlers({
     window: () => win,
     granted,

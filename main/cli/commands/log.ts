@@ -11,7 +11,7 @@ import type { CorrectionAction, LabelChanges, WithdrawnMeasurement } from '../..
 import type { BenchRecord } from '../../../core/report/benchRecord';
 import { createBenchRecord } from '../../app/benchLogRecord';
 import { loadDesignFile, measureFile } from '../../app/measureFile';
-import { checkLabel } from '../../app/labels';
+import { checkLabel, checkNote } from '../../app/labels';
 import { readMergedLogs } from '../../app/mergedLogs';
 import { UsageError } from '../../../core/inputError';
 import { formatFitText } from '../../../core/report/fitText';
@@ -54,7 +54,7 @@ export function registerLogCommand(program: Command, ctx: CommandContext): void 
         unit: checkLabel(options.unit, '--unit'),
         operator: options.operator === undefined ? null : checkLabel(options.operator, '--operator'),
         station: options.station === undefined ? null : checkLabel(options.station, '--station'),
-        note: options.note === undefined || options.note.trim() === '' ? null : options.note,
+        note: options.note === undefined ? null : checkNote(options.note, '--note'),
       };
       requireLogFolder(logPath);
       requireBenchLogFile(logPath);
@@ -179,7 +179,7 @@ function registerCorrectionCommand(log: Command, ctx: CommandContext, action: Co
       const changes: LabelChanges = {};
       if (options.unit !== undefined) changes.unit = checkLabel(options.unit, '--unit');
       if (options.operator !== undefined) changes.operator = options.operator.trim() === '' ? null : checkLabel(options.operator, '--operator');
-      if (options.note !== undefined) changes.note = options.note.trim() === '' ? null : options.note;
+      if (options.note !== undefined) changes.note = checkNote(options.note, '--note');
       if (action === 'amend' && !Object.keys(changes).length) throw new UsageError('log amend: give --unit, --operator or --note (what changes)');
       const correction = correctLoggedMeasurement(resolve(ctx.io.cwd, options.log), { target: id, action, changes, reason: options.reason });
       ctx.io.out(
