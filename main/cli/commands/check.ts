@@ -8,7 +8,7 @@ import { formatFitText } from '../../../core/report/fitText';
 import { formatNoVerdictText, formatVerdictText } from '../../../core/report/verdictText';
 import { verdictRefusal } from '../../../core/workflow/measure';
 import { formatCautionsText } from '../../../core/safety/cautionText';
-import { EXIT } from '../errors';
+import { EXIT, namingFile } from '../errors';
 
 interface CheckCommandOptions extends MeasureCommandOptions {
   design: string;
@@ -25,8 +25,8 @@ export function registerCheckCommand(program: Command, ctx: CommandContext): voi
   addCaptureOptions(command)
     .option('--json', 'print one JSON object instead of the table')
     .action((file: string, options: CheckCommandOptions) => {
-      const design = loadDesignFile(options.design, ctx.io.cwd);
-      const m = measureFile(file, measureSettingsOf(options), ctx.io.cwd, design);
+      const design = namingFile(options.design, () => loadDesignFile(options.design, ctx.io.cwd));
+      const m = namingFile(file, () => measureFile(file, measureSettingsOf(options), ctx.io.cwd, design));
       // A failed fit, or a single decay where the design rings, gets no verdict (measureCapture gives none), and says why.
       const refusal = verdictRefusal(design.design, m.summary);
       if (options.json) {
