@@ -9,6 +9,7 @@ import { searchLayouts } from './layoutSearch';
 import { chooseByInformation, explainRecord } from './modelSelection';
 import { fitFirstOrderRecord, tailTimeConstant } from './firstOrderFit';
 import { fitJumpStart, showsJump } from './jumpStart';
+import { ringRulesOutDecay } from './decayBound';
 import { refitAwayFromRails } from './railGuard';
 import { subCodeNoiseWarning } from './fitWarnings';
 import { responseCovariance } from './responseCovariance';
@@ -61,7 +62,8 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
       jumpStart = true;
     }
   }
-  const firstOrder = fitFirstOrderRecord(set, { hasPreEvent, jumpStart }, t0Start, noise);
+  // A ring no single decay could come near is not compared with one (the decay's own fit is the costliest step).
+  const firstOrder = ringRulesOutDecay(set, best, t0Start, noise) ? null : fitFirstOrderRecord(set, { hasPreEvent, jumpStart }, t0Start, noise);
   const explanation = explainRecord(best, t0Start, firstOrder, set);
   if (explanation.choice === 'none') return noResponseFit(set, noise, warnings, explanation.evidence, trace.unit);
   let tail: number | undefined;

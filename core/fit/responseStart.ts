@@ -93,6 +93,7 @@ export function settleEvent(
     const fromStart = [...searched, refine(set, NO_EVENT_LAYOUT, rates, recordStart)].reduce((x, y) => (y.sse < x.sse ? y : x));
     return Number.isFinite(fromStart.sse) ? { set, window, best: fromStart, t0Start: recordStart, warning: inProgress } : null;
   }
+  if (holdsEventClearly(set, best, recordStart, noise)) return null;
   const fromStart = refine(set, NO_EVENT_LAYOUT, rates, recordStart);
   if (!Number.isFinite(fromStart.sse)) return null;
   const n = effectiveSamples([best, fromStart], set, recordStart);
@@ -100,6 +101,35 @@ export function settleEvent(
   if (gap > CLEAR_EVIDENCE) return null;
   if (gap < -CLEAR_EVIDENCE) return { set, window, best: fromStart, t0Start: recordStart, warning: inProgress };
   return fromDeparture(trace, set, window, event, rates, UNDECIDED);
+}
+
+/** Below this zeta a fitted response is a clear ring: it swings through its amplitude every half period. */
+const CLEAR_RING_ZETA = 0.5;
+/** A level the record holds for at least this many ring periods before the event cannot be a ring's swing. */
+const FLAT_PERIODS = 1;
+/** The response after the event must stand this many noise levels clear of the level before it. */
+const CLEAR_RESPONSE_NOISES = 10;
+
+/**
+ * Whether the record surely holds the event the fit placed, so the comparison with a fit from the first
+ * sample can be skipped: a clear ring, and a level before the event that lasts a ring period or more and
+ * that the fit matches within the noise. A response caught in progress with a free initial state would be a
+ * damped ring there, swinging at least as widely as it does later (its envelope only decays), so it cannot
+ * stay flat for a period and then ring clear of the noise.
+ */
+function holdsEventClearly(set: FitSet, best: Attempt, recordStart: number, noise: number): boolean {
+  const [alpha, omega0, t0] = [attemptValue(best, 'alpha'), attemptValue(best, 'omega0'), attemptValue(best, 't0')];
+  if (!(alpha < CLEAR_RING_ZETA * omega0)) return false;
+  const period = (2 * Math.PI) / Math.sqrt(omega0 * omega0 - alpha * alpha);
+  if (!(t0 - recordStart >= FLAT_PERIODS * period)) return false;
+  let headEnd = 0;
+  while (headEnd < set.time.length && set.time[headEnd] < t0) headEnd++;
+  if (headEnd === set.time.length || headMisfit(set, best, t0, headEnd)) return false;
+  const model = layoutValues(best.layout, best.values, t0, set.time, set.block);
+  const level = model[0];
+  let swing = 0;
+  for (let i = headEnd; i < model.length; i++) swing = Math.max(swing, Math.abs(model[i] - level));
+  return swing > CLEAR_RESPONSE_NOISES * noise;
 }
 
 const SHORT_LEVEL = `too few flat samples precede the response to fit the level before it: fitted without an event from the first clear departure from the starting level (${NOT_MEASURED})`;
