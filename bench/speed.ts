@@ -1,6 +1,6 @@
 // `npm run bench`: import and fit time, peak memory and accuracy on seeded captures of 10^4..10^7 samples, against the floor and a scipy pipeline.
 //
-// Usage: tsx bench/speed.ts [--sizes 1e4,1e5,1e6,1e7] [--seed 1] [--repeats 3] [--cpu-prof]
+// Usage: tsx bench/speed.ts [--sizes 1e4,1e5,1e6,1e7] [--seed 1] [--repeats 3] [--rounds 5] [--cpu-prof]
 
 import { spawnSync } from 'node:child_process';
 import { build } from 'esbuild';
@@ -12,6 +12,7 @@ import { parseArgs } from 'node:util';
 import { writeSpeedCapture, truthPath, type SpeedTruth } from './speedCapture';
 import type { SpeedRunResult } from './speedRun';
 import { fixed, formatTable, goalLine, machineLine, sizeLabel } from './table';
+import { PIPELINE_GOAL, timePipelines } from './cliVersusScipy';
 
 const HERE = path.dirname(fileURLToPath(import.meta.url));
 const OUT = path.join(HERE, 'out');
@@ -203,6 +204,23 @@ function printGoals(rows: Row[]): void {
   }
 }
 
+/** Size at which the command line is timed against the quick scipy script. */
+const PIPELINE_SIZE = 1e6;
+
+/** The 10^6 file end to end in fresh processes: the command line against loadtxt + block means + curve_fit. */
+function printPipelines(sizes: number[], rounds: number): void {
+  if (!sizes.includes(PIPELINE_SIZE)) return;
+  const times = timePipelines(path.join(OUT, `speed-${sizeLabel(PIPELINE_SIZE)}.csv`), Math.max(1, rounds || 1));
+  console.log(`\nEnd to end in a fresh process, ${sizeLabel(PIPELINE_SIZE)} samples: \`ringbench fit FILE --topology series --known C=470n --json\` against python3 bench/scipyBlockMeans.py (numpy.loadtxt, block means, curve_fit)`);
+  if (typeof times === 'string') {
+    console.log(times);
+    return;
+  }
+  const ratio = times.cliS / times.scipyS;
+  console.log(`median of ${times.rounds} in turn: ours ${fixed(times.cliS)} s, scipy ${fixed(times.scipyS)} s, ratio ${fixed(ratio)}x`);
+  console.log(goalLine(ratio <= PIPELINE_GOAL, `${sizeLabel(PIPELINE_SIZE)}: command line end to end within ${PIPELINE_GOAL}x of the scipy script`, `${fixed(ratio)}x`));
+}
+
 async function main(): Promise<void> {
   const { values } = parseArgs({
     options: {
@@ -210,6 +228,7 @@ async function main(): Promise<void> {
       seed: { type: 'string', default: '1' },
       repeats: { type: 'string', default: '3' },
       'cpu-prof': { type: 'boolean', default: false },
+      rounds: { type: 'string', default: '5' },
     },
   });
   const sizes = values.sizes.split(',').map((s) => Number(s.trim()));
@@ -239,6 +258,7 @@ async function main(): Promise<void> {
   if (scipyNote) console.log(scipyNote);
   printTables(rows);
   printGoals(rows);
+  printPipelines(sizes, Number(values.rounds));
   if (values['cpu-prof']) console.log(`\nCPU profiles of our runs: ${path.join(OUT, 'profiles')}`);
 }
 
