@@ -36,10 +36,14 @@ describe.skipIf(!hasChromium)('HTML report under its Content-Security-Policy', (
     writeLoopCapture(folder, 'sn240.csv', NOMINAL_LOOP, 240);
     const io = { out: (t: string) => printed.push(t), err: (t: string) => printed.push(t), cwd: folder, interactive: false };
     const log = ['--log', 'bench.jsonl'];
-    // NUL is refused at log add, naming the option; the override is taken, and shown escaped wherever it is printed.
+    // NUL and the override are refused at log add, naming the option; one that reaches a log all the same (a
+    // hand-edited line) is shown escaped wherever it is printed.
     expect(await runCli(['log', 'add', 'sn240.csv', ...log, '--unit', 'SN\u0000240', '--topology', 'series', '--known', 'C=2.2n'], io)).toBe(2);
     expect(printed.join('')).toMatch(/^ringbench: --unit /);
-    expect(await runCli(['log', 'add', 'sn240.csv', ...log, '--unit', `SN${RLO}240`, '--topology', 'series', '--known', 'C=2.2n'], io)).toBe(0);
+    expect(await runCli(['log', 'add', 'sn240.csv', ...log, '--unit', `SN${RLO}240`, '--topology', 'series', '--known', 'C=2.2n'], io)).toBe(2);
+    expect(await runCli(['log', 'add', 'sn240.csv', ...log, '--unit', 'SN240', '--topology', 'series', '--known', 'C=2.2n'], io)).toBe(0);
+    const logFile = join(folder, 'bench.jsonl');
+    writeFileSync(logFile, readFileSync(logFile, 'utf8').replace('"unit":"SN240"', '"unit":"SN\\u202e240"'));
     expect(await runCli(['report', ...log, '--out', 'report.html'], io)).toBe(0);
     server = createServer((request, response) => {
       hits.push(request.url ?? '');
