@@ -9,6 +9,7 @@ import { DECISION_ZONES, type DecisionZone } from '../circuit/decisionRule';
 import { LOT_YIELD_RULE, NO_CAUSE, type LotGroup, type LotSummary } from './lotSummary';
 import { NOT_COUNTED_MARK, NOT_COUNTED_NOTE, ZONE_LABELS, decisionRuleText, indexText, lotCounts, rowScale, scaledText, spreadText, yieldText } from './lotText';
 import { REPORT_CSS } from './reportStyle';
+import { htmlPage } from './reportHtml';
 import { showTime } from './resultRows';
 
 export interface LotReportOptions {
@@ -48,24 +49,7 @@ export function renderLotHtml(summary: LotSummary, options: LotReportOptions): s
     flaggedSection(summary),
     `<footer><p class="fineprint">${e(DEFERRAL)}</p><p class="fineprint">Made by ${e(options.software.name)} ${e(options.software.version)} on ${e(showTime(options.generatedAt))} from ${logs}.</p></footer>`,
   ];
-  return [
-    '<!DOCTYPE html>',
-    '<html lang="en">',
-    '<head>',
-    '<meta charset="utf-8">',
-    '<meta name="viewport" content="width=device-width, initial-scale=1">',
-    `<meta name="generator" content="${e(options.software.name)} ${e(options.software.version)}">`,
-    `<title>${e(title)}</title>`,
-    `<style>${REPORT_CSS}${LOT_CSS}</style>`,
-    '</head>',
-    '<body>',
-    '<main>',
-    ...body,
-    '</main>',
-    '</body>',
-    '</html>',
-    '',
-  ].join('\n');
+  return htmlPage(title, `${REPORT_CSS}${LOT_CSS}`, body, options.software);
 }
 
 function zoneBadge(zone: DecisionZone): string {

@@ -48,6 +48,11 @@ export function renderReportHtml(records: readonly BenchRecord[], options: Repor
     ...summary.units.map((unit, u) => unitSection(unit, u, options)),
     `<footer><p class="fineprint">${e(DEFERRAL)}</p><p class="fineprint">Made by ${e(options.software.name)} ${e(options.software.version)} on ${e(showTime(options.generatedAt))} from <code>${e(options.logPath)}</code>.</p></footer>`,
   ];
+  return htmlPage(title, REPORT_CSS, body, options.software);
+}
+
+/** A self-contained page: no script may run (the policy), styles inline, the software named. */
+export function htmlPage(title: string, css: string, body: readonly string[], software: { name: string; version: string }): string {
   return [
     '<!DOCTYPE html>',
     '<html lang="en">',
@@ -55,9 +60,9 @@ export function renderReportHtml(records: readonly BenchRecord[], options: Repor
     '<meta charset="utf-8">',
     `<meta http-equiv="Content-Security-Policy" content="${REPORT_CSP}">`,
     '<meta name="viewport" content="width=device-width, initial-scale=1">',
-    `<meta name="generator" content="${e(options.software.name)} ${e(options.software.version)}">`,
+    `<meta name="generator" content="${e(software.name)} ${e(software.version)}">`,
     `<title>${e(title)}</title>`,
-    `<style>${REPORT_CSS}</style>`,
+    `<style>${css}</style>`,
     '</head>',
     '<body>',
     '<main>',

@@ -6,6 +6,7 @@ import type { BenchRecord } from '../../core/report/benchRecord';
 import type { DecisionZone } from '../../core/circuit/decisionRule';
 import { summarizeLot } from '../../core/report/lotSummary';
 import { renderLotHtml } from '../../core/report/lotHtml';
+import { REPORT_CSP } from '../../core/report/reportHtml';
 import { renderLotMarkdown } from '../../core/report/lotMarkdown';
 import { renderLotCsv } from '../../core/report/lotCsv';
 import { NOT_COUNTED_NOTE } from '../../core/report/lotText';
@@ -141,6 +142,8 @@ describe('lot report forms', () => {
   it('HTML: self-contained, no script, yields, the table with Cp/Cpk, a histogram per quantity with limits and design', () => {
     const html = renderLotHtml(summary, options);
     expect(html).not.toMatch(/<script|https?:\/\/(?!www\.w3\.org)/);
+    // The same policy as the bench report: nothing in the page may run a script.
+    expect(html).toContain(`<meta http-equiv="Content-Security-Policy" content="${REPORT_CSP}">`);
     expect(html).toContain('&lt;b&gt;.jsonl');
     expect(html).toContain('<div class="value">40.0 %</div><div class="label">first-pass yield</div>');
     expect(html).toContain('<div class="value">60.0 %</div><div class="label">final yield</div>');
