@@ -5,7 +5,7 @@
 import type { Comparison } from '../../core/report/comparisonText';
 import type { ParasiticsResult } from '../../core/report/parasiticsText';
 import { evaluateResponse } from '../../core/response/secondOrder';
-import { themeColor } from '../theme';
+import { palette, type Palette } from './plotPalette';
 import type { OverlayTrace } from '../workerProtocol';
 import { axisTicks } from './axes';
 import { plotly, type PlotlyTrace } from './plotly';
@@ -99,28 +99,6 @@ export function drawOverlay(root: HTMLElement, comparison: Comparison, overlay: 
     xaxis: axisStyle(colors, axisTicks(xRange, 's', 'Time from each fitted event', root.clientWidth, 'x'), xRange),
     yaxis: axisStyle(colors, axisTicks(yRange, unit, unit === 'A' ? 'Current' : unit === 'V' ? 'Voltage' : 'Value', root.clientHeight, 'y'), yRange),
   });
-}
-
-interface Palette {
-  data: string;
-  fit: string;
-  prediction: string;
-  axis: string;
-  text: string;
-  muted: string;
-  font: string;
-}
-
-function palette(): Palette {
-  return {
-    data: themeColor('plot-data'),
-    fit: themeColor('plot-fit'),
-    prediction: themeColor('plot-prediction'),
-    axis: themeColor('plot-axis'),
-    text: themeColor('ink'),
-    muted: themeColor('ink-muted'),
-    font: themeColor('font-sans'),
-  };
 }
 
 /** An axis in the bench's colours; with `ticks`, labelled in the prefix its title names, else plotly's own plain ticks. */

@@ -9,7 +9,7 @@ import { lowerBound, reduceMinMax } from '../../core/report/decimate';
 import type { TransitionSummary } from '../../core/circuit/transitionSummary';
 import type { TraceData } from '../workerProtocol';
 import { h } from '../dom';
-import { themeColor } from '../theme';
+import { palette, type Palette } from './plotPalette';
 import { axisTicks, quantityName, type AxisTicks } from './axes';
 import { cursorReadouts, levelSymbol, placeCursors, type CursorId, type CursorPositions } from './cursors';
 import { HandleLayer, type HandleGeometry, type HandleSpec } from './handles';
@@ -512,42 +512,6 @@ export class FitPlot {
 
 function keyZoom(direction: 'in' | 'out'): number {
   return direction === 'in' ? 1 / KEY_ZOOM : KEY_ZOOM;
-}
-
-interface Palette {
-  data: string;
-  fit: string;
-  prediction: string;
-  band: string;
-  window: string;
-  windowEdge: string;
-  clipped: string;
-  axis: string;
-  text: string;
-  muted: string;
-  surface: string;
-  accent: string;
-  marker: string;
-  font: string;
-}
-
-function palette(): Palette {
-  return {
-    data: themeColor('plot-data'),
-    fit: themeColor('plot-fit'),
-    prediction: themeColor('plot-prediction'),
-    band: themeColor('plot-band'),
-    window: themeColor('plot-window'),
-    windowEdge: themeColor('plot-window-edge'),
-    clipped: themeColor('plot-clipped'),
-    axis: themeColor('plot-axis'),
-    text: themeColor('ink'),
-    muted: themeColor('ink-muted'),
-    surface: themeColor('surface'),
-    accent: themeColor('accent'),
-    marker: themeColor('plot-marker'),
-    font: themeColor('font-sans'),
-  };
 }
 
 /** An axis drawn in the bench's colours, its ticks labelled in the prefix its title names. */
