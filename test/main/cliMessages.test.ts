@@ -1,6 +1,6 @@
 // Messages of the command line: every input error names its file, options are named by their flags,
 // 0 is a time like any other, a busy port is said in words, a design file may start with a byte-order mark.
-import { readFileSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, readFileSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { createServer, type Server } from 'node:net';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
@@ -58,6 +58,18 @@ describe('every input error names its file', () => {
     const { code, err } = await run(['check', ring, '--design', 'board-rev-c.json']);
     expect(code).toBe(2);
     expect(err).toMatch(/^ringbench: board-rev-c\.json: design format: /);
+  });
+
+  it('log add: the capture or the design at fault, and no log written', async () => {
+    writeFileSync(path.join(dir, 'log-no-numbers.csv'), 't,v\nx,y\n');
+    const capture = await run(['log', 'add', 'log-no-numbers.csv', '--unit', 'SN7', '--log', 'named.jsonl']);
+    expect(capture.code).toBe(2);
+    expect(capture.err).toMatch(/^ringbench: log-no-numbers\.csv: /);
+    writeFileSync(path.join(dir, 'board-rev-d.json'), '{');
+    const design = await run(['log', 'add', ring, '--design', 'board-rev-d.json', '--unit', 'SN7', '--log', 'named.jsonl']);
+    expect(design.code).toBe(2);
+    expect(design.err).toMatch(/^ringbench: board-rev-d\.json: /);
+    expect(existsSync(path.join(dir, 'named.jsonl'))).toBe(false);
   });
 });
 

@@ -19,7 +19,7 @@ import { fitSucceeded } from '../../../core/report/fitSummary';
 import { formatVerdictText } from '../../../core/report/verdictText';
 import { formatLogTable } from '../../../core/report/logTable';
 import { formatCautionsText } from '../../../core/safety/cautionText';
-import { EXIT } from '../errors';
+import { EXIT, namingFile } from '../errors';
 
 export interface LogAddOptions extends MeasureCommandOptions {
   log: string;
@@ -58,9 +58,9 @@ export function registerLogCommand(program: Command, ctx: CommandContext): void 
       };
       requireLogFolder(logPath);
       requireBenchLogFile(logPath);
-      const design = options.design === undefined ? null : loadDesignFile(options.design, ctx.io.cwd);
+      const design = options.design === undefined ? null : namingFile(options.design, () => loadDesignFile(options.design as string, ctx.io.cwd));
       const settings = measureSettingsOf(options);
-      const measurement = measureFile(file, settings, ctx.io.cwd, design);
+      const measurement = namingFile(file, () => measureFile(file, settings, ctx.io.cwd, design));
       if (!fitSucceeded(measurement.summary)) {
         ctx.io.out(options.json ? `${JSON.stringify({ logged: null, fit: measurement.summary })}\n` : formatFitText(measurement.summary));
         ctx.io.err(`ringbench: the fit failed (${measurement.summary.status}), nothing was logged: ${measurement.summary.message}\n`);
