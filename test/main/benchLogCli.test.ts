@@ -61,7 +61,7 @@ describe('log add', () => {
     { why: 'a missing log folder', args: ['--unit', 'SN042', '--log', 'nowhere/bench.jsonl'], message: /bench log folder .*nowhere.* does not exist/ },
     { why: 'an unknown option', args: ['--unit', 'SN042', '--wobble', 'red'], message: /unknown option '--wobble'/ },
     { why: '--design with --known', args: ['--unit', 'SN042', '--design', 'gate-loop.json', '--topology', 'series', '--known', 'C=2.2n'], message: /leave out --topology and --known/ },
-    { why: 'a bad design', args: ['--unit', 'SN042', '--design', 'broken.csv'], message: /^ringbench: design: not valid JSON/ },
+    { why: 'a bad design', args: ['--unit', 'SN042', '--design', 'broken.csv'], message: /^ringbench: broken\.csv: design: not valid JSON/ },
     { why: 'a bad capture', args: ['--unit', 'SN042', '--file', 'broken.csv'], message: /no rows of numbers found/ },
   ])('refuses $why with one line and exit 2, leaving the log bytes unchanged', async ({ args, message }) => {
     const log = join(folder, 'bench.jsonl');
