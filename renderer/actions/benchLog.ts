@@ -30,17 +30,7 @@ export async function logMeasurement(ctx: ActionContext, form: LogForm): Promise
     return false;
   }
   const view = await runStep(ctx, 'adding to the bench log', () => ctx.bridge.appendBenchLog(request));
-  ctx.store.update((s) => {
-    if (!view) {
-      s.logError = s.error;
-      s.error = null;
-      return;
-    }
-    s.log = view;
-    s.logError = null;
-    s.logMessage = `Logged ${request.unit} (${view.records.length} measurement${view.records.length === 1 ? '' : 's'} in the log).`;
-  });
-  return view !== null;
+  return showLogAfter(ctx, view, (v) => `Logged ${request.unit} (${v.records.length} measurement${v.records.length === 1 ? '' : 's'} in the log).`);
 }
 
 /** Amend the labels of a logged measurement or withdraw it (a correction appended by main); true when it was logged. */
@@ -54,6 +44,13 @@ export async function correctLogEntry(ctx: ActionContext, record: BenchRecord, f
     return false;
   }
   const view = await runStep(ctx, action === 'amend' ? 'amending the bench log' : 'withdrawing from the bench log', () => ctx.bridge.correctBenchLog(request));
+  return showLogAfter(ctx, view, () =>
+    action === 'amend' ? `Amended the measurement of ${record.unit}; the change and its reason are kept in the log.` : `Withdrew the measurement of ${record.unit}; it stays in the log, marked withdrawn.`,
+  );
+}
+
+/** The log as main returned it after a write, with its message; a failed step's error moves to the log panel. True when written. */
+function showLogAfter<V extends NonNullable<ActionContext['store']['state']['log']>>(ctx: ActionContext, view: V | null, message: (view: V) => string): boolean {
   ctx.store.update((s) => {
     if (!view) {
       s.logError = s.error;
@@ -62,7 +59,7 @@ export async function correctLogEntry(ctx: ActionContext, record: BenchRecord, f
     }
     s.log = view;
     s.logError = null;
-    s.logMessage = action === 'amend' ? `Amended the measurement of ${record.unit}; the change and its reason are kept in the log.` : `Withdrew the measurement of ${record.unit}; it stays in the log, marked withdrawn.`;
+    s.logMessage = message(view);
   });
   return view !== null;
 }
