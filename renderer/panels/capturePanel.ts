@@ -39,7 +39,9 @@ export function createCapturePanel(actions: BenchActions) {
     h('label', { class: 'probe-invert' }, probeInvert, h('span', {}, 'inverted')),
     button('Apply', applyProbe, { id: 'apply-probe', title: 'Scale the channel by the probe ratio (and turn it over) and fit again, as --probe-ratio and --invert do' }),
   );
-  let probeShown = '';
+  // Whose probe the controls show: they are filled from the stored settings only when another capture or channel is
+  // shown, never while the user's own change is being applied (a redraw would undo the click it answers).
+  let probeOwner = '';
   const details = h('div', { class: 'details' });
   body.append(buttons, probeRow, details);
   let samplesShown = '';
@@ -68,9 +70,9 @@ export function createCapturePanel(actions: BenchActions) {
     const refused = state.refused;
     probeRow.hidden = !capture;
     const probe = capture?.probes?.[capture.channel];
-    const probeKey = capture ? `${capture.key}:${capture.channel}:${probe?.ratioText ?? ''}:${probe?.invert ?? false}` : '';
-    if (probeKey !== probeShown && document.activeElement !== probeRatio) {
-      probeShown = probeKey;
+    const owner = capture ? `${capture.key}:${capture.channel}` : '';
+    if (owner !== probeOwner) {
+      probeOwner = owner;
       probeRatio.value = probe?.ratioText ?? '';
       probeInvert.checked = probe?.invert ?? false;
     }
