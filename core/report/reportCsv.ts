@@ -6,11 +6,11 @@ import { RESULT_ROWS, TRANSITION_ROWS, fitTransitionRows, regimeTag, rowQuantity
 import { recordStatus } from './yieldSummary';
 
 const HEADER = [
-  'id', 'time', 'unit', 'operator', 'note', 'file', 'channel', 'channel_unit', 'status', 'regime',
+  'id', 'time', 'unit', 'operator', 'station', 'note', 'file', 'channel', 'channel_unit', 'status', 'regime',
   ...RESULT_ROWS.flatMap((row) => [row.column, `${row.column}_stderr`]),
   ...TRANSITION_ROWS.flatMap((row) => [row.columns.model, `${row.columns.model}_stderr`, row.columns.measured]),
   'transition_levels',
-  'verdict', 'design', 'cautions', 'capture_path', 'capture_sha256', 'software_version',
+  'verdict', 'decision', 'decision_rule', 'design', 'cautions', 'capture_path', 'capture_sha256', 'software_version',
 ];
 
 export function renderReportCsv(records: readonly BenchRecord[]): string {
@@ -25,11 +25,12 @@ export function renderReportCsv(records: readonly BenchRecord[]): string {
       return [t?.model?.value ?? null, t?.model?.stderr ?? null, t?.measured ?? null];
     });
     const row: (string | number | null)[] = [
-      r.id, r.time, r.unit, r.operator, r.note, fit.file, fit.channel, fit.finalValue.unit, fit.status, regimeTag(fit),
+      r.id, r.time, r.unit, r.operator, r.station ?? null, r.note, fit.file, fit.channel, fit.finalValue.unit, fit.status, regimeTag(fit),
       ...quantities.flatMap((q) => [q?.value ?? null, q?.stderr ?? null]),
       ...transitionCells,
       transitions.length ? (fit.transitions?.levelMethod ?? null) : null,
-      recordStatus(r), r.design?.name ?? null, r.cautions.fired.map((c) => c.id).join(';'),
+      // The guard-banded zone and its rule; empty for a record without a verdict or logged before they were kept.
+      recordStatus(r), r.verdict?.decision ?? null, r.verdict?.rule?.name ?? null, r.design?.name ?? null, r.cautions.fired.map((c) => c.id).join(';'),
       r.capture.path, r.capture.sha256, r.software.version,
     ];
     lines.push(row.map(csvCell).join(','));

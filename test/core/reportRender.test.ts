@@ -241,6 +241,17 @@ describe('renderReportCsv', () => {
     expect(cell('design')).toBe('gate loop rev C');
     expect(cell('note')).toBe('gate loop, after rework of R12');
     expect(cell('R_ohm')).toBe('');
+    expect(cell('decision')).toBe(records[2].verdict?.decision ?? '');
+    expect(cell('decision_rule')).toBe(records[2].verdict?.rule?.name ?? '');
+  });
+
+  it('keeps the station and the guard-banded decision with its rule, empty where a record has none', () => {
+    const rows = parseCsv(renderReportCsv([sampleRecord({ station: 'fixture 3' }), sampleRecord()]));
+    const header = rows[0];
+    const cell = (r: number, name: string) => rows[r][header.indexOf(name)];
+    expect(cell(1, 'station')).toBe('fixture 3');
+    expect(cell(2, 'station')).toBe('');
+    expect(header.indexOf('decision')).toBe(header.indexOf('verdict') + 1);
   });
 
   it('neutralises formula cells from user text but leaves numbers alone (common practice, OWASP "CSV Injection")', () => {
