@@ -9,6 +9,7 @@ import type { ResponseCovariance } from './responseCovariance';
 import type { ResponseFit } from './responseFit';
 import { classifyRegime } from './regime';
 import { plausibilityWarnings, uncertainOmega0Warning } from './fitWarnings';
+import { singleModeFields } from './modesResult';
 
 /** How the fit's model was chosen: a jump at the event let in, and why a single decay was kept (or ''). */
 export interface ModelChoice {
@@ -56,6 +57,7 @@ export function assembleFit(
   const omega0Warning = ring ? uncertainOmega0Warning(omega0, se('omega0')) : null;
   if (omega0Warning) warnings.push(omega0Warning);
   const seAlpha = se('alpha');
+  const modeFields = ring ? singleModeFields(best, t0Start, cov, ring, set, trace.unit) : { modes: [], modelOrder: null };
   return {
     status: best.status,
     message: best.message,
@@ -77,6 +79,7 @@ export function assembleFit(
     iterations: best.iterations,
     decimation: set.decimation,
     warnings: [...new Set(warnings)],
+    ...modeFields,
   };
 }
 
@@ -131,6 +134,8 @@ export function failedFit(set: FitSet, noise: number, warnings: string[], messag
     iterations: 0,
     decimation: set.decimation,
     warnings,
+    modes: [],
+    modelOrder: null,
   };
 }
 
