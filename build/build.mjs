@@ -11,6 +11,12 @@ const at = (path) => join(root, path);
 
 const common = { bundle: true, sourcemap: true, logLevel: 'warning', absWorkingDir: root };
 const PLOTLY = at('node_modules/plotly.js-dist/plotly.js');
+/**
+ * The command line and batch's workers carry their packages inside the bundle: loading commander and ml-matrix as
+ * CommonJS from node_modules (resolution, export scanning, one compile each) took more than a bare node's start-up.
+ * Bundled CommonJS still requires Node's built-ins, and an ES module has no `require` of its own: this one is given.
+ */
+const NODE_REQUIRE = { js: "import { createRequire as createRequireForBundle } from 'node:module'; const require = createRequireForBundle(import.meta.url);" };
 
 await Promise.all([
   build({
@@ -21,7 +27,7 @@ await Promise.all([
     platform: 'node',
     format: 'esm',
     target: 'node20',
-    packages: 'external',
+    banner: NODE_REQUIRE,
   }),
   build({
     ...common,
