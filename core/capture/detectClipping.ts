@@ -26,14 +26,21 @@ export interface Clipping {
   lowLevel: number;
 }
 
-/** Smallest non-zero step between neighbouring samples: one code for quantised data. */
-function codeStep(values: Float64Array): number {
+/** The smallest non-zero step between neighbouring samples (one code for quantised data), and the extremes, in one pass. */
+function codeStepAndExtremes(values: Float64Array): { step: number; highest: number; lowest: number } {
   let step = Infinity;
-  for (let i = 1; i < values.length; i++) {
-    const d = Math.abs(values[i] - values[i - 1]);
+  let highest = -Infinity;
+  let lowest = Infinity;
+  let previous = values.length > 0 ? values[0] : NaN;
+  for (let i = 0; i < values.length; i++) {
+    const v = values[i];
+    if (v > highest) highest = v;
+    if (v < lowest) lowest = v;
+    const d = Math.abs(v - previous);
     if (d > 0 && d < step) step = d;
+    previous = v;
   }
-  return step;
+  return { step, highest, lowest };
 }
 
 /** Mean slope towards the run (units per sample) over up to FLANK samples beside it, from index `near` outwards. */
@@ -50,11 +57,8 @@ function dropBeyond(values: Float64Array, edge: number, direction: 1 | -1, dista
   return sign * (rail - (values[centre - 1] + values[centre] + values[centre + 1]) / 3);
 }
 
-/** Marks the rail runs on one side (sign 1: top, -1: bottom); returns how many samples were marked. */
-function markSide(values: Float64Array, sign: 1 | -1, step: number, clipped: Uint8Array): { count: number; level: number } {
-  let level = -Infinity;
-  for (let i = 0; i < values.length; i++) if (sign * values[i] > level) level = sign * values[i];
-  const rail = sign * level;
+/** Marks the rail runs on one side (sign 1: top at `rail`, the maximum; -1: bottom, the minimum); returns how many samples were marked. */
+function markSide(values: Float64Array, sign: 1 | -1, rail: number, step: number, clipped: Uint8Array): { count: number; level: number } {
   const runs: { start: number; end: number }[] = [];
   let confirmed = false;
   for (let i = 0; i < values.length; ) {
@@ -96,10 +100,10 @@ function markSide(values: Float64Array, sign: 1 | -1, step: number, clipped: Uin
  */
 export function detectClipping(values: Float64Array): Clipping {
   const clipped = new Uint8Array(values.length);
-  const step = codeStep(values);
+  const { step, highest, lowest } = codeStepAndExtremes(values);
   if (!Number.isFinite(step)) return { clipped, high: 0, low: 0, highLevel: NaN, lowLevel: NaN };
-  const high = markSide(values, 1, step, clipped);
-  const low = markSide(values, -1, step, clipped);
+  const high = markSide(values, 1, highest, step, clipped);
+  const low = markSide(values, -1, lowest, step, clipped);
   return {
     clipped,
     high: high.count,

@@ -53,11 +53,14 @@ function timeSource(layout: Layout, kept: KeptChannel): TimeSource {
 
 /** Mean step and, when the axis is not uniform, the standard deviation of its steps (rows without a time skipped). */
 function steps(axis: ImportedAxis): { mean: number; jitter: number | null } {
+  if (axis.interval !== null) return { mean: axis.interval, jitter: null };
+  const time = axis.time;
   let count = 0;
   let sum = 0;
   let sumSquares = 0;
   let previous = NaN;
-  for (const t of axis.time) {
+  for (let k = 0; k < time.length; k++) {
+    const t = time[k];
     if (t !== t) continue;
     if (previous === previous) {
       const step = t - previous;
@@ -68,21 +71,28 @@ function steps(axis: ImportedAxis): { mean: number; jitter: number | null } {
     previous = t;
   }
   const mean = count > 0 ? sum / count : 0;
-  if (axis.interval !== null) return { mean: axis.interval, jitter: null };
   return { mean, jitter: count > 1 ? Math.sqrt(Math.max(0, (sumSquares - count * mean * mean) / (count - 1))) : 0 };
 }
 
 /** Rows of a column axis that have no time (empty or unreadable time cell): left out of every channel on it. */
 function timelessRows(axis: ImportedAxis, lines: RowLines): RowDrop | null {
+  const { time, order } = axis;
   let count = 0;
   let first: number | null = null;
-  axis.time.forEach((t, k) => {
-    if (t === t) return;
+  for (let k = 0; k < time.length; k++) {
+    if (time[k] === time[k]) continue;
     count++;
-    const row = axis.order ? axis.order[k] : k;
+    const row = order ? order[k] : k;
     if (first === null || row < first) first = row;
-  });
+  }
   return count === 0 ? null : { reason: 'no readable time', count, firstLine: first === null ? null : lines.lineOf(first) };
+}
+
+/** Samples marked in a channel's clipped flags (each 0 or 1). */
+function countMarked(flags: Uint8Array): number {
+  let count = 0;
+  for (let k = 0; k < flags.length; k++) count += flags[k];
+  return count;
 }
 
 export function summarizeImport(source: TextSource, layout: Layout, rows: number, kept: KeptChannel[], lines: RowLines, warnings: string[]): ImportSummary {
@@ -110,7 +120,7 @@ export function summarizeImport(source: TextSource, layout: Layout, rows: number
       unit: channel.unit,
       samples: channel.values.length,
       dropped: channel.dropped,
-      clipped: channel.clipped.reduce((sum, flag) => sum + flag, 0),
+      clipped: countMarked(channel.clipped),
     })),
     droppedRows,
     ignoredSections: source.ignoredSections.map((x) => ({ ...x })),
