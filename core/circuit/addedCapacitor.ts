@@ -12,6 +12,8 @@ export interface AddedCapacitorMeasurement {
   addedC: number;
   /** Relative tolerance of the added part (rectangular, GUM 4.3.7). Default 0. */
   addedCTolerance?: number;
+  /** This part's own value at the operating voltage over its nominal value; replaces options.dcBias for it. */
+  derating?: CapacitorDerating;
   /**
    * Undamped natural frequency f0 = omega0 / (2 pi) from the fit, Hz. Not the ring (damped)
    * frequency: f = 1 / (2 pi sqrt(L C)) holds for omega0 only, and f_d = sqrt(f0^2 - (alpha / 2 pi)^2)
@@ -35,6 +37,42 @@ export interface AddedCapacitorOptions {
   bandwidth?: number;
   /** Sample interval used for every capture without its own, s. Default: no check. */
   sampleInterval?: number;
+  /**
+   * One DC-bias factor for every added capacitor without its own derating (class-II ceramics of one kind): its
+   * error moves all of them together, so it is propagated as one shared error. Default: none (factor 1).
+   */
+  dcBias?: CapacitorDerating;
+  /** The switch's output capacitance at the operating voltage (small-signal), F, with its relative tolerance. */
+  switchC?: { value: number; tolerance?: number };
+}
+
+/** A capacitor's value at the operating voltage as a fraction of its nominal value. */
+export interface CapacitorDerating {
+  /** C at the operating voltage / C nominal, in (0, 1]. */
+  factor: number;
+  /** Relative tolerance of the factor (rectangular half-width, as the part tolerances). Default 0. */
+  tolerance?: number;
+}
+
+/** One capture on the line 1 / (2 pi f0)^2 = L_p (C_p + C_probe + C_effective). */
+export interface LinePoint {
+  /** The added capacitance at the operating voltage (nominal x factor), with the part's and the factor's uncertainty. */
+  effectiveC: Quantity;
+  /** The factor applied to the nominal value, and where it came from. */
+  factor: number;
+  factorSource: 'none' | 'derating' | 'dc-bias';
+  /** y_i - (L_p x_i + L_p C_p), s^2. */
+  residual: number;
+  /** The residual over the point's own standard uncertainty sqrt(u(y)^2 + (L_p u(x))^2); null without frequency uncertainties. */
+  residualSigmas: number | null;
+}
+
+/** C_p split into the switch's output capacitance as entered and the rest of the node. */
+export interface SwitchCapacitanceSplit {
+  /** As entered, at the operating voltage. */
+  switchC: Quantity;
+  /** C_p - switchC: layout, diode, heat-sink and other capacitance at the node; null when switchC exceeds C_p clearly. */
+  rest: Quantity | null;
 }
 
 export interface ParasiticExtraction {
@@ -51,6 +89,10 @@ export interface ParasiticExtraction {
    * weighted by the frequency uncertainties, or by unit relative weights when some are missing.
    */
   residual: { chiSquare: number; dof: number } | null;
+  /** Each capture's point on the line, in the order given. */
+  points: LinePoint[];
+  /** With options.switchC: C_p split into the switch and the rest; else null. */
+  switchSplit: SwitchCapacitanceSplit | null;
   warnings: string[];
   /** How the values were obtained (the assumptions behind R_p). */
   notes: string[];
@@ -64,9 +106,12 @@ const MIN_CAPACITANCE_RATIO = 1.2;
  * passes 1/3, where the first-order propagation no longer holds).
  */
 const SEPARATION_SIGMAS = 3;
+/** The switch's capacitance may exceed C_p by this many combined standard uncertainties before the rest is withheld. */
+const SWITCH_EXCESS_SIGMAS = 2;
 
 /**
- * L_p and C_p by weighted least squares of y_i = 1 / (2 pi f_i)^2 against x_i = C_added,i + C_probe:
+ * L_p and C_p by weighted least squares of y_i = 1 / (2 pi f_i)^2 against x_i = C_added,i + C_probe, where
+ * C_added,i is the part's value at the operating voltage (nominal x its derating, or the DC-bias factor):
  * y = L_p x + L_p C_p. With two captures this is the closed form C_p = C_add / ((f1 / f2)^2 - 1),
  * L_p = 1 / ((2 pi f1)^2 C_p). Uncertainty is first order from the frequencies (weights 1 / u(y)^2;
  * scaled by the Birge ratio sqrt(chi^2 / dof) when that exceeds 1, so an inconsistent set does not
@@ -79,10 +124,13 @@ export function extractParasitics(
   const probeC = options.probeC ?? 0;
   const probeTolerance = options.probeCTolerance ?? 0;
   validate(measurements, options, probeC, probeTolerance);
-  checkSeparation(measurements);
+  const factors = measurements.map((m) => appliedFactor(m, options.dcBias));
+  // From here on every added capacitance is its value at the operating voltage.
+  const effective = measurements.map((m, i) => ({ ...m, addedC: m.addedC * factors[i].factor }));
+  checkSeparation(effective);
   const warnings: string[] = [];
-  const n = measurements.length;
-  const x = measurements.map((m) => m.addedC + probeC);
+  const n = effective.length;
+  const x = effective.map((m) => m.addedC + probeC);
   const y = measurements.map((m) => 1 / (2 * Math.PI * m.frequency.value) ** 2);
   const weighted = measurements.every((m) => m.frequency.stderr !== null && m.frequency.stderr > 0);
   // u(y) / y = 2 u(f) / f; without stated uncertainties every capture gets the same relative weight.
@@ -108,7 +156,9 @@ export function extractParasitics(
   const residual = dof > 0 ? { chiSquare, dof } : null;
   const scale = frequencyScale(weighted, chiSquare, dof);
   warnings.push(...scale.warnings);
-  const cov = lineCovariance(line, x, w, measurements, probeC, probeTolerance, scale.value);
+  const partVariances = effective.map((m, i) => m.addedC ** 2 * (toleranceToRelativeUncertainty(m.addedCTolerance ?? 0) ** 2 + factors[i].ownVariance));
+  const shared = { gradientOf: effective.map((m, i) => (factors[i].source === 'dc-bias' ? m.addedC : 0)), variance: dcBiasVariance(options.dcBias) };
+  const cov = lineCovariance(line, x, w, partVariances, shared, probeC, probeTolerance, scale.value);
 
   const propagate = (g: [number, number]): number | null =>
     cov === null ? null : Math.sqrt(Math.max(0, g[0] * g[0] * cov[0][0] + 2 * g[0] * g[1] * cov[0][1] + g[1] * g[1] * cov[1][1]));
@@ -117,18 +167,77 @@ export function extractParasitics(
   const z0 = slope / Math.sqrt(intercept);
   const Z0 = quantity(z0, propagate([1 / Math.sqrt(intercept), -z0 / (2 * intercept)]), 'ohm');
 
-  const bare = bareIndex(measurements);
-  const alpha = measurements[bare].alpha;
+  const bare = bareIndex(effective);
+  const alpha = effective[bare].alpha;
   const rValue = 2 * alpha.value * slope;
   const rRel =
     alpha.stderr === null || L.stderr === null ? null : Math.hypot(alpha.stderr / alpha.value, L.stderr / L.value);
   const R = quantity(rValue, rRel === null ? null : rValue * rRel, 'ohm');
 
-  warnings.push(...checkSpread(x, capacitance), ...checkDamping(measurements, bare), ...checkCaptures(measurements, options));
+  warnings.push(...checkSpread(x, capacitance), ...checkDamping(effective, bare), ...checkCaptures(effective, options));
   const notes = [
     'R_p = 2 alpha L_p assumes a series loop (alpha = R / (2 L)), with alpha from the capture with the least added capacitance.',
   ];
-  return { L, C, R, characteristicImpedance: Z0, residual, warnings, notes };
+  if (factors.some((f) => f.source !== 'none')) {
+    notes.push('each added capacitance is taken at the operating voltage (nominal x its derating or the DC-bias factor), and the line is fitted to those values.');
+  }
+  const points = effective.map((m, i): LinePoint => {
+    const u = Math.sqrt(partVariances[i] + factors[i].sharedShare * shared.variance * m.addedC ** 2 + (probeC * toleranceToRelativeUncertainty(probeTolerance)) ** 2);
+    const uy = weighted ? 1 / Math.sqrt(w[i]) : null;
+    return {
+      effectiveC: quantity(m.addedC, u, 'F'),
+      factor: factors[i].factor,
+      factorSource: factors[i].source,
+      residual: residuals[i],
+      residualSigmas: uy === null ? null : residuals[i] / Math.hypot(uy, slope * u),
+    };
+  });
+  const switchSplit = options.switchC ? splitSwitch(C, options.switchC, warnings, notes) : null;
+  return { L, C, R, characteristicImpedance: Z0, residual, points, switchSplit, warnings, notes };
+}
+
+interface AppliedFactor {
+  factor: number;
+  source: LinePoint['factorSource'];
+  /** Relative variance of a factor of this capture's own (independent of the others). */
+  ownVariance: number;
+  /** 1 when the shared DC-bias factor applies. */
+  sharedShare: number;
+}
+
+/** The bare loop has nothing to derate; a part's own derating replaces the DC-bias factor. */
+function appliedFactor(m: AddedCapacitorMeasurement, dcBias: CapacitorDerating | undefined): AppliedFactor {
+  if (m.addedC === 0) return { factor: 1, source: 'none', ownVariance: 0, sharedShare: 0 };
+  if (m.derating) return { factor: m.derating.factor, source: 'derating', ownVariance: toleranceToRelativeUncertainty(m.derating.tolerance ?? 0) ** 2, sharedShare: 0 };
+  if (dcBias) return { factor: dcBias.factor, source: 'dc-bias', ownVariance: 0, sharedShare: 1 };
+  return { factor: 1, source: 'none', ownVariance: 0, sharedShare: 0 };
+}
+
+function dcBiasVariance(dcBias: CapacitorDerating | undefined): number {
+  return dcBias ? toleranceToRelativeUncertainty(dcBias.tolerance ?? 0) ** 2 : 0;
+}
+
+/**
+ * C_p - C_switch with their uncertainties added in quadrature (C_p's includes the frequencies; the switch value's
+ * tolerance is its own). A switch value clearly above C_p cannot be the small-signal value at the ring's voltage.
+ */
+function splitSwitch(C: Quantity, given: { value: number; tolerance?: number }, warnings: string[], notes: string[]): SwitchCapacitanceSplit {
+  const switchC = quantity(given.value, given.value * toleranceToRelativeUncertainty(given.tolerance ?? 0), 'F');
+  const u = C.stderr === null ? null : Math.hypot(C.stderr, switchC.stderr ?? 0);
+  const excess = switchC.value - C.value;
+  notes.push(
+    'the switch output capacitance is the small-signal value at the operating voltage, the one the ring sees; the charge- and energy-equivalent ' +
+      'values (Co(tr), Co(er): equal charge or energy from 0 V to that voltage) average C over the whole swing and are larger where C falls ' +
+      'with voltage (derived from their definitions; the datasheet terms are common practice), so they do not belong here.',
+  );
+  if (u === null ? excess > 0 : excess > SWITCH_EXCESS_SIGMAS * u) {
+    warnings.push(
+      `the switch output capacitance entered (${formatEngineering(switchC.value, 'F')}) exceeds the node capacitance C_p (${formatMeasured(C)}) ` +
+        'beyond their uncertainties, so the rest of the node is not given: is it a charge- or energy-equivalent value, or one at a lower voltage?',
+    );
+    return { switchC, rest: null };
+  }
+  return { switchC, rest: quantity(-excess, u, 'F') };
 }
 
 interface LineFit {
@@ -186,14 +295,16 @@ function frequencyScale(weighted: boolean, chiSquare: number, dof: number): { va
 
 /**
  * Covariance of (slope, intercept) to first order: the frequency part scale * A^-1, plus each added
- * part's tolerance through d(slope, intercept)/d x_i = w_i A^-1 (r_i - slope x_i, -slope), plus the
- * probe tolerance, which moves every x_i together. Null when the frequency part is unknown.
+ * part's own variance (tolerance and own derating) through d(slope, intercept)/d x_i = w_i A^-1 (r_i - slope x_i, -slope),
+ * plus the shared DC-bias factor, which moves its captures' x_i in proportion, and the probe tolerance,
+ * which moves every x_i together. Null when the frequency part is unknown.
  */
 function lineCovariance(
   line: LineFit,
   x: number[],
   w: number[],
-  measurements: readonly AddedCapacitorMeasurement[],
+  partVariances: readonly number[],
+  shared: { gradientOf: readonly number[]; variance: number },
   probeC: number,
   probeTolerance: number,
   scale: number | null,
@@ -208,12 +319,16 @@ function lineCovariance(
     cov[1][1] += g[1] * g[1] * variance;
   };
   const probeGradient: [number, number] = [0, 0];
-  measurements.forEach((m, i) => {
+  const sharedGradient: [number, number] = [0, 0];
+  partVariances.forEach((variance, i) => {
     const g = applyInverse(inverse, w[i] * (residuals[i] - slope * x[i]), -w[i] * slope);
-    addOuter(g, (m.addedC * toleranceToRelativeUncertainty(m.addedCTolerance ?? 0)) ** 2);
+    addOuter(g, variance);
     probeGradient[0] += g[0];
     probeGradient[1] += g[1];
+    sharedGradient[0] += g[0] * shared.gradientOf[i];
+    sharedGradient[1] += g[1] * shared.gradientOf[i];
   });
+  addOuter(sharedGradient, shared.variance);
   addOuter(probeGradient, (probeC * toleranceToRelativeUncertainty(probeTolerance)) ** 2);
   return cov;
 }
@@ -311,6 +426,7 @@ function validate(
     const at = `measurements[${i}]`;
     if (!Number.isFinite(m.addedC) || m.addedC < 0) throw new CircuitInputError(`${at}.addedC`, `must be a finite capacitance >= 0 F, got ${m.addedC}`);
     checkTolerance(`${at}.addedCTolerance`, m.addedCTolerance);
+    if (m.derating) checkDerating(`${at}.derating`, m.derating);
     if (!Number.isFinite(m.frequency?.value) || m.frequency.value <= 0) {
       throw new CircuitInputError(`${at}.frequency`, `must be a positive natural frequency in Hz, got ${m.frequency?.value}`);
     }
@@ -326,12 +442,26 @@ function validate(
   }
   if (!Number.isFinite(probeC) || probeC < 0) throw new CircuitInputError('options.probeC', `must be a finite capacitance >= 0 F, got ${probeC}`);
   checkTolerance('options.probeCTolerance', probeTolerance);
+  if (options.dcBias) checkDerating('options.dcBias', options.dcBias);
+  if (options.switchC) {
+    if (!Number.isFinite(options.switchC.value) || !(options.switchC.value > 0)) {
+      throw new CircuitInputError('options.switchC', `must be a positive capacitance in F, got ${options.switchC.value}`);
+    }
+    checkTolerance('options.switchC.tolerance', options.switchC.tolerance);
+  }
   if (options.bandwidth !== undefined && !(options.bandwidth > 0)) {
     throw new CircuitInputError('options.bandwidth', `must be a positive frequency in Hz, got ${options.bandwidth}`);
   }
   if (options.sampleInterval !== undefined && !(options.sampleInterval > 0)) {
     throw new CircuitInputError('options.sampleInterval', `must be a positive time in s, got ${options.sampleInterval}`);
   }
+}
+
+function checkDerating(field: string, derating: CapacitorDerating): void {
+  if (!Number.isFinite(derating.factor) || !(derating.factor > 0) || derating.factor > 1) {
+    throw new CircuitInputError(`${field}.factor`, `must be a fraction in (0, 1] (the value at the operating voltage over the nominal one), got ${derating.factor}`);
+  }
+  checkTolerance(`${field}.tolerance`, derating.tolerance);
 }
 
 function checkTolerance(field: string, tolerance: number | undefined): void {

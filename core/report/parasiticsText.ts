@@ -2,7 +2,8 @@
 
 import { formatEngineering, formatMeasured } from '../units/format';
 import { formatCautionsText } from '../safety/cautionText';
-import type { ParasiticExtraction } from '../circuit/addedCapacitor';
+import type { LinePoint, ParasiticExtraction } from '../circuit/addedCapacitor';
+import { crossCheckLine, type EdgeInductance, type InductanceCrossCheck } from '../circuit/edgeInductance';
 import type { SnubberSuggestion } from '../circuit/snubber';
 import type { CautionResult } from '../safety/evaluateCautions';
 import type { Quantity } from '../quantity';
@@ -13,24 +14,38 @@ export interface ParasiticsResult {
   R: Quantity;
   characteristicImpedance: Quantity;
   residual: ParasiticExtraction['residual'];
-  captures: { file: string; addedC: number; frequency: Quantity; alpha: Quantity }[];
+  /** Each capture: the nominal added C, its value at the operating voltage on the line, and its residual from the line. */
+  captures: ({ file: string; addedC: number; frequency: Quantity; alpha: Quantity } & LinePoint)[];
+  switchSplit: ParasiticExtraction['switchSplit'];
+  /** L_p cross-checked on a turn-on edge; null when no current capture was given. */
+  edgeCheck: EdgeCrossCheck | null;
   snubber: SnubberSuggestion;
   cautions: CautionResult;
   warnings: string[];
   notes: string[];
 }
 
+/** L from a turn-on edge beside the ring's L_p, with the verdict. */
+export type EdgeCrossCheck = { file: string } & EdgeInductance & Omit<InductanceCrossCheck, 'edge'>;
+
 export function formatParasiticsText(r: ParasiticsResult): string {
   let text = 'captures\n';
   for (const c of r.captures) {
     text += `  ${c.file.padEnd(28)} added ${formatEngineering(c.addedC, 'F').padEnd(10)} f0 ${formatMeasured(c.frequency)}, alpha ${formatMeasured(c.alpha)}\n`;
   }
+  if (r.captures.some((c) => c.factorSource !== 'none') || r.residual) text += lineText(r);
   text += 'loop parasitics\n';
   text += `  L_p              ${formatMeasured(r.L)}\n`;
   text += `  C_p              ${formatMeasured(r.C)}\n`;
   text += `  R_p              ${formatMeasured(r.R)}\n`;
   text += `  sqrt(L_p/C_p)    ${formatMeasured(r.characteristicImpedance)}\n`;
   if (r.residual) text += `  consistency      chi^2 ${r.residual.chiSquare.toPrecision(3)} on ${r.residual.dof} degree(s) of freedom\n`;
+  if (r.switchSplit) {
+    const { switchC, rest } = r.switchSplit;
+    text += `  C_switch         ${formatMeasured(switchC)} (as entered, at the operating voltage)\n`;
+    text += `  C_p - C_switch   ${rest ? formatMeasured(rest) : 'not given (see the warning)'}\n`;
+  }
+  if (r.edgeCheck) text += edgeText(r.edgeCheck, r.L);
   const s = r.snubber;
   text += 'RC snubber: a starting point, to be verified on the bench\n';
   text += `  R                ${formatMeasured(s.R)}\n`;
@@ -48,4 +63,26 @@ export function formatParasiticsText(r: ParasiticsResult): string {
   for (const w of r.warnings) text += `  warning: ${w}\n`;
   for (const n of [...r.notes, ...s.notes]) text += `  note: ${n}\n`;
   return text + formatCautionsText(r.cautions);
+}
+
+/** The line 1/(2 pi f0)^2 against the added C at the operating voltage: each capture's value on it and its residual (relative to its 1/(2 pi f0)^2). */
+function lineText(r: ParasiticsResult): string {
+  let text = 'line 1/(2 pi f0)^2 = L_p (C_p + C_added at the operating voltage)\n';
+  const source = { none: 'nominal', derating: 'own derating', 'dc-bias': 'DC-bias factor' } as const;
+  for (const c of r.captures) {
+    const factor = c.factorSource === 'none' ? '' : ` (x ${c.factor.toPrecision(3)}, ${source[c.factorSource]})`;
+    const signed = (x: number, digits: number) => `${x >= 0 ? '+' : ''}${x.toFixed(digits)}`;
+    const relative = c.residual * (2 * Math.PI * c.frequency.value) ** 2;
+    const sigmas = c.residualSigmas === null ? '' : ` (${signed(c.residualSigmas, 2)} sigma)`;
+    text += `  ${c.file.padEnd(28)} C ${formatMeasured(c.effectiveC)}${factor}, residual ${signed(relative * 100, 3)} %${sigmas}\n`;
+  }
+  return text;
+}
+
+function edgeText(e: EdgeCrossCheck, ringL: Quantity): string {
+  let text = `L_p cross-check on the turn-on edge ${e.file}\n`;
+  text += `  di/dt            ${formatMeasured(e.didt)} (10-90 % of a ${formatEngineering(Math.abs(e.edge.step), 'A')} step)\n`;
+  text += `  V_L              ${formatMeasured(e.plateau)} (${e.plateauSource === 'given' ? 'plateau given' : 'mean drop of the switch voltage over the rise'})\n`;
+  text += `  L                ${formatMeasured(e.L)} (V_L / (di/dt))\n`;
+  return text + `  verdict          ${crossCheckLine(e.L, e, ringL)}\n`;
 }

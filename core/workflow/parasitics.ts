@@ -1,12 +1,15 @@
-// Loop parasitics by the added-capacitor method from several captures, an RC snubber starting point,
-// and the cautions from the largest peak the captures show. The command line and the window call this.
+// Loop parasitics by the added-capacitor method from several captures, an RC snubber starting point, the
+// cautions from the largest peak the captures show, and L_p cross-checked on a turn-on edge. The command line and the window call this.
 
 import type { Channel } from '../capture/types';
-import { extractParasitics } from '../circuit/addedCapacitor';
+import { extractParasitics, type CapacitorDerating } from '../circuit/addedCapacitor';
+import { crossCheckInductance, inductanceFromEdge } from '../circuit/edgeInductance';
+import { CircuitInputError } from '../circuit/errors';
+import type { Quantity } from '../quantity';
 import { suggestSnubber } from '../circuit/snubber';
 import { UsageError } from '../inputError';
 import { fitStateText, hertz, regimeTag } from '../report/resultRows';
-import type { ParasiticsResult } from '../report/parasiticsText';
+import type { EdgeCrossCheck, ParasiticsResult } from '../report/parasiticsText';
 import { cautionInputsFromCapture } from '../safety/cautionInputs';
 import { evaluateCautions, type CautionInputs } from '../safety/evaluateCautions';
 import { fitChannel } from './measure';
@@ -18,6 +21,18 @@ export interface ParasiticsCapture {
   captureWarnings?: readonly string[];
   /** Capacitance added in parallel with the node for this capture, F (0 for the bare loop, which comes first). */
   addedC: number;
+  /** The added part's value at the operating voltage over its nominal value; replaces dcBias for this capture. */
+  derating?: CapacitorDerating;
+}
+
+/** A turn-on edge for the L_p cross-check: the loop current, and the switch voltage or the plateau read by the user. */
+export interface EdgeRequest {
+  /** Name as people see it. */
+  file: string;
+  current: Channel;
+  voltage?: Channel;
+  /** The voltage across the loop inductance while the current rises, V, with its standard uncertainty. */
+  plateau?: Quantity;
 }
 
 export interface ParasiticsRequest {
@@ -29,6 +44,12 @@ export interface ParasiticsRequest {
   probeCTolerance?: number;
   /** Scope or probe bandwidth, Hz, for the bandwidth check. */
   bandwidth?: number;
+  /** One DC-bias factor for every added capacitor without its own derating (class-II ceramics). Default none. */
+  dcBias?: CapacitorDerating;
+  /** The switch's output capacitance at the operating voltage, F, and its relative tolerance. Default none. */
+  switchC?: { value: number; tolerance?: number };
+  /** A turn-on edge to cross-check L_p on. Default none. */
+  edge?: EdgeRequest;
   /** Voltage the snubber capacitor swings and the switching frequency: they size the snubber's dissipation only. */
   voltage?: number;
   switchingFrequency?: number;
@@ -67,18 +88,20 @@ export function measureParasiticsOutcome(request: ParasiticsRequest, progress: (
     return { result: null, failure: `${failed.file}: no ring to measure (${fitStateText(failed)}); the added-capacitor method needs an underdamped ring in every capture` };
   }
   // The method needs the undamped natural frequency f0 = omega0 / 2 pi, not the ring frequency.
-  const rows = fits.map((fit, i) => ({ file: fit.file, addedC: captures[i].addedC, frequency: hertz(fit.omega0), alpha: fit.alpha }));
+  const measured = fits.map((fit, i) => ({ file: fit.file, addedC: captures[i].addedC, frequency: hertz(fit.omega0), alpha: fit.alpha }));
   const extraction = extractParasitics(
-    rows.map((row, i) => ({
+    measured.map((row, i) => ({
       addedC: row.addedC,
       addedCTolerance: i === 0 ? 0 : (request.addedTolerance ?? 0),
+      derating: captures[i].derating,
       frequency: row.frequency,
       alpha: row.alpha,
       sampleInterval: meanInterval(captures[i].channel.time),
       label: row.file,
     })),
-    { probeC: request.probeC ?? 0, probeCTolerance: request.probeCTolerance ?? 0, bandwidth: request.bandwidth },
+    { probeC: request.probeC ?? 0, probeCTolerance: request.probeCTolerance ?? 0, bandwidth: request.bandwidth, dcBias: request.dcBias, switchC: request.switchC },
   );
+  const rows = measured.map((row, i) => ({ ...row, ...extraction.points[i] }));
   const loop = { L: extraction.L, C: extraction.C, R: extraction.R, characteristicImpedance: extraction.characteristicImpedance };
   const snubber = suggestSnubber(loop, { voltage: request.voltage, switchingFrequency: request.switchingFrequency });
   const peaks = largestPeaks(captures.map((c) => cautionInputsFromCapture(c.channel.values, c.channel.unit)));
@@ -90,12 +113,34 @@ export function measureParasiticsOutcome(request: ParasiticsRequest, progress: (
     characteristicImpedance: extraction.characteristicImpedance,
     residual: extraction.residual,
     captures: rows,
+    switchSplit: extraction.switchSplit,
+    edgeCheck: request.edge ? edgeCrossCheck(request.edge, extraction.L) : null,
     snubber,
     cautions,
     warnings: [...extraction.warnings, ...fits.flatMap((f) => f.warnings.map((w) => `${f.file}: ${w}`))],
     notes: extraction.notes,
   };
+  if (result.edgeCheck) result.notes.push(...result.edgeCheck.notes);
   return { result, failure: null };
+}
+
+/** L_p from the turn-on edge against the ring's; an edge that cannot give di/dt or V_L is bad input naming its file. */
+function edgeCrossCheck(edge: EdgeRequest, ringL: Quantity): EdgeCrossCheck {
+  const expectUnit = (channel: Channel, unit: string, what: string) => {
+    if (channel.unit !== '' && channel.unit !== unit) {
+      throw new UsageError(`turn-on edge ${edge.file}: the ${what} channel '${channel.name}' is in ${channel.unit}, not ${unit}`);
+    }
+  };
+  expectUnit(edge.current, 'A', 'current');
+  if (edge.voltage) expectUnit(edge.voltage, 'V', 'voltage');
+  try {
+    const measured = inductanceFromEdge({ current: edge.current, voltage: edge.voltage, plateau: edge.plateau });
+    const { difference, verdict, coverageFactor } = crossCheckInductance(measured, ringL);
+    return { file: edge.file, ...measured, difference, verdict, coverageFactor };
+  } catch (error) {
+    if (error instanceof CircuitInputError) throw new UsageError(`turn-on edge ${edge.file}: ${error.message}`);
+    throw error;
+  }
 }
 
 /** The largest peak voltage and current over all captures: the node sees the worst of them. */

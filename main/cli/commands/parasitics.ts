@@ -1,19 +1,31 @@
-// `ringbench parasitics BARE WITH-C [MORE...] --added C=470p[,1n...]`: loop L, C, R and an RC snubber.
-// A capture whose fit gives no ring exits 1 with one line (a failed measurement); bad input exits 2.
+// `ringbench parasitics BARE WITH-C [MORE...] --added C=470p[,1n@0.6...]`: loop L, C, R and an RC snubber, with
+// real capacitors (derating, DC bias, the switch's own C) and L_p cross-checked on a turn-on edge.
+// A capture whose fit gives no ring, or an edge whose L disagrees with L_p, exits 1 (a failed measurement); bad input exits 2.
 
 import type { Command } from 'commander';
 import { basename } from 'node:path';
 import type { CommandContext } from '../commandContext';
 import { loadCaptureFor } from '../../app/measureFile';
 import { formatParasiticsText } from '../../../core/report/parasiticsText';
-import { measureParasiticsOutcome } from '../../../core/workflow/parasitics';
+import { measureParasiticsOutcome, type EdgeRequest } from '../../../core/workflow/parasitics';
 import { parseAddedCapacitances, parsePositiveValue, parseTolerance } from '../../../core/workflow/userValues';
+import { deratingsWithTolerance, parseFactor, parseValueWithTolerance, splitAddedDeratings } from '../../../core/workflow/capacitorValues';
 import { UsageError } from '../../../core/inputError';
+import { quantity } from '../../../core/quantity';
+import { toleranceToRelativeUncertainty } from '../../../core/circuit/tolerance';
+import { crossCheckLine } from '../../../core/circuit/edgeInductance';
 import { EXIT, namingFile } from '../errors';
 
 interface ParasiticsOptions {
   added: string;
   addedTolerance?: string;
+  dcBiasFactor?: string;
+  deratingTolerance?: string;
+  switchCoss?: string;
+  currentCapture?: string;
+  currentColumn?: string;
+  switchVoltageColumn?: string;
+  plateauVoltage?: string;
   probeC?: string;
   probeCTolerance?: string;
   bandwidth?: string;
@@ -28,8 +40,15 @@ export function registerParasiticsCommand(program: Command, ctx: CommandContext)
     .command('parasitics')
     .description('loop inductance, capacitance and resistance by the added-capacitor method, and an RC snubber starting point')
     .argument('<captures...>', 'the bare loop first, then one capture per added capacitor')
-    .requiredOption('--added <C=VALUE[,VALUE...]>', 'capacitance added for each capture after the first, e.g. C=470p,1n')
+    .requiredOption('--added <C=VALUE[@FACTOR][,...]>', 'capacitance added for each capture after the first, e.g. C=470p,1n; @FACTOR is that part\'s value at the operating voltage over its nominal one, e.g. 2.2n@0.6')
     .option('--added-tolerance <TOL>', 'tolerance of the added capacitors in %, e.g. 5 or 5%')
+    .option('--dc-bias-factor <FACTOR>', 'one DC-bias factor for every added capacitor without its own @FACTOR (class-II ceramics), e.g. 0.55 or 55%')
+    .option('--derating-tolerance <TOL>', 'tolerance of the derating and DC-bias factors in %, needed with any factor below 1, e.g. 15')
+    .option('--switch-coss <C[,TOL]>', 'the switch\'s output capacitance at the operating voltage (small-signal), split off C_p, e.g. 180p,10')
+    .option('--current-capture <file>', 'a turn-on edge of the loop current: L_p is cross-checked as V_L / (di/dt)')
+    .option('--current-column <name|index>', 'the current channel in the --current-capture file (default: the first)')
+    .option('--switch-voltage-column <name|index>', 'the switch voltage in the --current-capture file: its drop while the current rises is V_L')
+    .option('--plateau-voltage <V[,TOL]>', 'V_L read by hand instead: the voltage across the loop inductance while the current rises, e.g. 9.5,10')
     .option('--probe-c <value>', 'probe input capacitance in parallel with the node, e.g. 12p (default none)')
     .option('--probe-c-tolerance <TOL>', 'tolerance of the probe capacitance in %, e.g. 10')
     .option('--bandwidth <value>', 'scope or probe bandwidth, e.g. 200M: warns when the ring is above a third of it')
@@ -39,13 +58,21 @@ export function registerParasiticsCommand(program: Command, ctx: CommandContext)
     .option('--json', 'print one JSON object instead of the table')
     .action((files: string[], options: ParasiticsOptions) => {
       if (files.length < 2) throw new UsageError('parasitics needs at least two captures: the bare loop and one with a capacitor added');
-      const added = [0, ...parseAddedCapacitances(options.added, files.length)];
+      const split = splitAddedDeratings(options.added, '--added');
+      const added = [0, ...parseAddedCapacitances(split.nominal, files.length)];
+      const dcBiasFactor = options.dcBiasFactor === undefined ? undefined : parseFactor(options.dcBiasFactor, '--dc-bias-factor');
+      const { deratings, dcBias } = deratingsWithTolerance(split.deratings, dcBiasFactor, options.deratingTolerance, '--derating-tolerance');
+      const switchCoss = options.switchCoss === undefined ? undefined : parseValueWithTolerance(options.switchCoss, '--switch-coss', 'F');
+      const edge = edgeRequest(options, ctx.io.cwd);
       const request = {
         captures: files.map((file, i) => {
           const loaded = namingFile(file, () => loadCaptureFor(file, { column: options.column }, ctx.io.cwd));
-          return { file: basename(file), channel: loaded.channel, captureWarnings: loaded.capture.warnings, addedC: added[i] };
+          return { file: basename(file), channel: loaded.channel, captureWarnings: loaded.capture.warnings, addedC: added[i], derating: i === 0 ? undefined : deratings[i - 1] };
         }),
         addedTolerance: options.addedTolerance === undefined ? 0 : parseTolerance(options.addedTolerance, '--added-tolerance'),
+        dcBias,
+        switchC: switchCoss,
+        edge,
         probeC: parsePositiveValue(options.probeC, '--probe-c', 'F') ?? 0,
         probeCTolerance: options.probeCTolerance === undefined ? 0 : parseTolerance(options.probeCTolerance, '--probe-c-tolerance'),
         bandwidth: parsePositiveValue(options.bandwidth, '--bandwidth', 'Hz'),
@@ -59,5 +86,29 @@ export function registerParasiticsCommand(program: Command, ctx: CommandContext)
         return;
       }
       ctx.io.out(options.json ? `${JSON.stringify(result)}\n` : formatParasiticsText(result));
+      if (result.edgeCheck?.verdict === 'disagree') {
+        ctx.io.err(`ringbench: ${crossCheckLine(result.edgeCheck.L, result.edgeCheck, result.L)}\n`);
+        ctx.setExitCode(EXIT.failure);
+      }
     });
+}
+
+/** The turn-on edge of --current-capture with its voltage: a channel of the same file, or the plateau given. */
+function edgeRequest(options: ParasiticsOptions, cwd: string): EdgeRequest | undefined {
+  const { currentCapture: file, switchVoltageColumn, plateauVoltage } = options;
+  if (file === undefined) {
+    const stray = [['--current-column', options.currentColumn], ['--switch-voltage-column', switchVoltageColumn], ['--plateau-voltage', plateauVoltage]].find(([, v]) => v !== undefined);
+    if (stray) throw new UsageError(`${stray[0]} belongs to the L_p cross-check: give the turn-on edge with --current-capture`);
+    return undefined;
+  }
+  if ((switchVoltageColumn === undefined) === (plateauVoltage === undefined)) {
+    throw new UsageError('--current-capture needs the voltage across the loop inductance: give --switch-voltage-column or --plateau-voltage (one of them)');
+  }
+  const current = namingFile(file, () => loadCaptureFor(file, { column: options.currentColumn }, cwd)).channel;
+  if (plateauVoltage !== undefined) {
+    const given = parseValueWithTolerance(plateauVoltage, '--plateau-voltage', 'V');
+    return { file: basename(file), current, plateau: quantity(given.value, given.value * toleranceToRelativeUncertainty(given.tolerance), 'V') };
+  }
+  const voltage = namingFile(file, () => loadCaptureFor(file, { column: switchVoltageColumn }, cwd)).channel;
+  return { file: basename(file), current, voltage };
 }
