@@ -14,6 +14,13 @@ export interface ComponentSet {
   C: Quantity;
 }
 
+/** Which ringing mode R, L and C were derived for, when the fit has several: 1-based, of how many, at what f0. */
+export interface ComponentMode {
+  index: number;
+  of: number;
+  f0: Quantity;
+}
+
 export interface FitSummary {
   file: string;
   channel: string;
@@ -31,7 +38,17 @@ export interface FitSummary {
   tau?: Quantity;
   finalValue: Quantity;
   t0: Quantity;
-  components?: ComponentSet & { topology: string; known: string };
+  /** `mode` is given when the fit has several ringing modes (--mode, default the dominant one). */
+  components?: ComponentSet & { topology: string; known: string; mode?: ComponentMode };
+  /**
+   * One entry per ringing mode, the dominant first (its rates are the top-level ones); [] without a ring.
+   * Absent in records logged before modes were fitted.
+   */
+  modes?: ResponseFit['modes'];
+  /** A ring on an exponential: the slow term's time constant and amplitude at t0. */
+  slowTerm?: ResponseFit['slowTerm'];
+  /** The orders tried, their criterion, and why the chosen one won; null without a ring. Absent in older records. */
+  modelOrder?: ResponseFit['modelOrder'];
   rmsResidual: number;
   noiseRms: number;
   samplesUsed: number;
@@ -92,6 +109,9 @@ export function summarizeFit(
   };
   if (fit.omegaD) summary.omegaD = fit.omegaD;
   if (fit.tau) summary.tau = fit.tau;
+  summary.modes = fit.modes;
+  if (fit.slowTerm) summary.slowTerm = fit.slowTerm;
+  summary.modelOrder = fit.modelOrder;
   if (components) summary.components = components;
   return summary;
 }

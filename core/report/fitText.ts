@@ -5,7 +5,7 @@ import { escapeControls } from './escape';
 import { fitWarnings, type FitSummary } from './fitSummary';
 import { formatEventsText } from './eventsText';
 import { importRows } from './importText';
-import { fitResultRows, fitTransitionRows, regimeTag, transitionNote } from './resultRows';
+import { componentModeText, fitResultRows, fitTransitionRows, modelOrderText, regimeTag, transitionNote } from './resultRows';
 
 /** Width of the label column: the longest label ('residual rms', 'samples used') and a space. */
 const LABEL_WIDTH = 16;
@@ -21,9 +21,11 @@ export function formatFitText(s: FitSummary): string {
   for (const row of s.import ? importRows(s.import) : []) text += line(row.label, row.text);
   text += line('status', `${s.status}${s.status === 'converged' ? '' : `: ${s.message}`}`);
   if (regimeTag(s) !== null) text += line('regime', `${s.regime} (${s.regimeEvidence})`);
+  const order = modelOrderText(s);
+  if (order) text += line('order', order);
   for (const row of fitResultRows(s)) {
     // The components' basis heads their rows.
-    if (row.name === 'components.R' && s.components) text += line('components', `${s.components.topology}, known ${s.components.known}`);
+    if (row.name === 'components.R' && s.components) text += line('components', [`${s.components.topology}, known ${s.components.known}`, componentModeText(s.components)].filter(Boolean).join(', '));
     text += line(row.symbol, row.text);
   }
   const note = transitionNote(s);

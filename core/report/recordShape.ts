@@ -85,6 +85,8 @@ function fitSummaryProblem(value: unknown): ShapeProblem | string | null {
   if (value.components !== undefined && (!isObject(value.components) || !isText(value.components.topology) || !isText(value.components.known))) {
     return 'components must give topology and known with R, L and C';
   }
+  const modes = modesProblem(value);
+  if (modes) return modes;
   if (!isNumberOrNull(value.rmsResidual) || !isNumberOrNull(value.noiseRms)) return 'rmsResidual and noiseRms must be numbers';
   if (!isCount(value.samplesUsed)) return 'samplesUsed must be a count';
   if (!isObject(value.window) || !isNumberOrNull(value.window.start) || !isNumberOrNull(value.window.end)) return 'window must give start and end';
@@ -96,6 +98,35 @@ function fitSummaryProblem(value: unknown): ShapeProblem | string | null {
   if (transitions) return transitions;
   const imported = value.import === undefined ? null : importSummaryProblem(value.import);
   return imported ? at('import', imported) : null;
+}
+
+/** Quantities every ringing mode gives (omegaD too, or null where the mode does not ring). */
+const MODE_QUANTITIES = ['alpha', 'omega0', 'zeta', 'Q', 'amplitude'];
+
+/** The ringing modes, the slow term, the order table and the mode R, L and C are for, each checked where given (older records have none). */
+function modesProblem(value: Json): string | null {
+  if (value.modes !== undefined) {
+    if (!Array.isArray(value.modes)) return 'modes must be a list';
+    const bad = value.modes.findIndex(
+      (m) => !(isObject(m) && MODE_QUANTITIES.every((name) => isQuantity(m[name])) && (m.omegaD === null || isQuantity(m.omegaD)) && isNumberOrNull(m.energyShare)),
+    );
+    if (bad >= 0) return `modes[${bad}] must give ${MODE_QUANTITIES.join(', ')} and omegaD as quantities, and energyShare`;
+  }
+  const slow = value.slowTerm;
+  if (slow !== undefined && !(isObject(slow) && isQuantity(slow.tau) && isQuantity(slow.amplitude))) return 'slowTerm must give tau and amplitude as quantities';
+  const order = value.modelOrder;
+  if (order !== undefined && order !== null) {
+    if (!isObject(order) || !isText(order.criterion) || typeof order.forced !== 'boolean' || !isText(order.reason, MAX_WARNING) || !Array.isArray(order.table)) {
+      return 'modelOrder must give criterion, forced, reason and table, or be null';
+    }
+    const row = order.table.findIndex(
+      (r) => !(isObject(r) && isText(r.model) && isCount(r.ringingModes) && typeof r.slowTerm === 'boolean' && isCount(r.parameters) && isNumberOrNull(r.sse) && isNumberOrNull(r.criterion) && typeof r.chosen === 'boolean'),
+    );
+    if (row >= 0) return `modelOrder.table[${row}] must give model, ringingModes, slowTerm, parameters, sse, criterion and chosen`;
+  }
+  const mode = isObject(value.components) ? value.components.mode : undefined;
+  if (mode !== undefined && !(isObject(mode) && isCount(mode.index) && isCount(mode.of) && isQuantity(mode.f0))) return 'components.mode must give index, of and f0';
+  return null;
 }
 
 /** The transition metrics the reports show (the row table's), each a quantity or null from the model, a number or null as measured. */

@@ -15,10 +15,15 @@ export interface ResultRowSpec {
   unit: string | null;
   /** CSV column of the value in SI base units; its uncertainty goes in `<column>_stderr`. */
   column: string;
-  /** Present only for some fits: omega_d for an underdamped one, tau for a first-order one, R, L, C when components were derived. */
-  optional?: 'underdamped' | 'first-order' | 'components';
-  /** A row computed from another (f0 from omega0) rather than stored in the summary. */
+  /**
+   * Present only for some fits: omega_d for an underdamped one, tau for a first-order one, R, L, C when components
+   * were derived, each ringing mode's rows when the fit has several, the slow term's for a ring on an exponential.
+   */
+  optional?: 'underdamped' | 'first-order' | 'components' | 'modes' | 'slow term';
+  /** A row computed from another (f0 from omega0; a mode's energy in % from its share) rather than stored in the summary. */
   derived?: { from: string; convert: (q: Quantity) => Quantity };
+  /** How a person reads the value when not 'value ± stderr (rel %)' (a share with no standard error). */
+  describe?: (q: Quantity) => string;
 }
 
 /** A row of one fit, formatted both ways a face shows it. */
@@ -47,22 +52,82 @@ export const RESULT_ROWS = [
 
 export type ResultRowName = (typeof RESULT_ROWS)[number]['name'];
 
+/** Ringing modes given rows of their own (the fit tries at most three). */
+const MODE_ROW_COUNT = 3;
+
+/**
+ * Each ringing mode's rows (f0, zeta, Q, its amplitude at t0, its share of the response's energy), then the
+ * slow term's, shown when the fit has several modes or a slow term (the top-level rows are mode 1's then);
+ * the same columns in every CSV, empty where a fit has fewer modes.
+ */
+export const MODE_RESULT_ROWS: readonly ResultRowSpec[] = [
+  ...Array.from({ length: MODE_ROW_COUNT }, (_, i): ResultRowSpec[] => {
+    const at = `modes.${i}`;
+    const k = i + 1;
+    return [
+      { name: `${at}.f0`, symbol: `mode ${k} f0`, unit: 'Hz', column: `mode${k}_f0_hz`, optional: 'modes', derived: { from: `${at}.omega0`, convert: hertz } },
+      { name: `${at}.zeta`, symbol: `mode ${k} zeta`, unit: '', column: `mode${k}_zeta`, optional: 'modes' },
+      { name: `${at}.Q`, symbol: `mode ${k} Q`, unit: '', column: `mode${k}_Q`, optional: 'modes' },
+      { name: `${at}.amplitude`, symbol: `mode ${k} amplitude`, unit: null, column: `mode${k}_amplitude`, optional: 'modes' },
+      {
+        name: `${at}.energy`,
+        symbol: `mode ${k} energy`,
+        unit: '%',
+        column: `mode${k}_energy_pct`,
+        optional: 'modes',
+        derived: { from: `${at}.energyShare`, convert: (share) => ({ value: share.value * 100, stderr: null, unit: '%' }) },
+        describe: (q) => `${+q.value.toPrecision(3)} % of the response's energy`,
+      },
+    ];
+  }).flat(),
+  { name: 'slowTerm.tau', symbol: 'slow term tau', unit: 's', column: 'slow_tau_s', optional: 'slow term' },
+  { name: 'slowTerm.amplitude', symbol: 'slow term amplitude', unit: null, column: 'slow_amplitude', optional: 'slow term' },
+];
+
 /**
  * The rows this fit has, in table order: omega_d only when underdamped, tau only when first-order, R, L, C
  * only with components; a quantity that does not apply (the alpha of a first-order fit: NaN) is left out.
  */
 export function fitResultRows(fit: FitSummary): ResultRow[] {
-  return RESULT_ROWS.flatMap((spec: ResultRowSpec) => {
+  // The modes' rows go before the components', which are derived from one of them.
+  const components = RESULT_ROWS.findIndex((row: ResultRowSpec) => row.optional === 'components');
+  const specs: readonly ResultRowSpec[] = [...RESULT_ROWS.slice(0, components), ...MODE_RESULT_ROWS, ...RESULT_ROWS.slice(components)];
+  return specs.flatMap((spec: ResultRowSpec) => {
     const q = rowQuantity(spec, fit);
-    return q ? [{ ...spec, quantity: q, text: formatMeasured(q), brief: formatEngineering(q.value, q.unit) }] : [];
+    return q ? [{ ...spec, quantity: q, text: spec.describe ? spec.describe(q) : formatMeasured(q), brief: formatEngineering(q.value, q.unit) }] : [];
   });
 }
 
 /** The quantity of one row for this fit, or undefined when the fit has none or it does not apply (NaN, null after JSON). */
 export function rowQuantity(spec: ResultRowSpec, fit: FitSummary): Quantity | undefined {
-  const source = valueAtPath(fit, spec.derived?.from ?? spec.name) as Quantity | null | undefined;
+  // One mode is the top-level rows themselves: its own rows are shown only beside others.
+  if (spec.optional === 'modes' && (fit.modes?.length ?? 0) < 2) return undefined;
+  const stored = valueAtPath(fit, spec.derived?.from ?? spec.name) as Quantity | number | null | undefined;
+  // A stored number (a mode's energy share) is a value with no standard error.
+  const source = typeof stored === 'number' ? { value: stored, stderr: null, unit: '' } : stored;
   if (source === undefined || source === null || source.value === null || Number.isNaN(source.value)) return undefined;
   return spec.derived ? spec.derived.convert(source) : source;
+}
+
+/**
+ * 'two ringing modes (BIC -5123.4): ...': the one line saying how many modes the fit holds and why that order
+ * won (or that --modes forced it); null for a fit without a ring or a record logged before modes were fitted.
+ */
+export function modelOrderText(fit: Pick<FitSummary, 'modelOrder'>): string | null {
+  const order = fit.modelOrder;
+  if (!order) return null;
+  const chosen = order.table.find((row) => row.chosen);
+  if (!chosen) return `${order.forced ? 'forced by --modes: ' : ''}${order.reason}`;
+  // The reason may name the model again ('two ringing modes: ...'): said once.
+  const why = order.reason.startsWith(`${chosen.model}: `) ? order.reason.slice(chosen.model.length + 2) : order.reason;
+  const score = Number.isFinite(chosen.criterion) ? `${order.criterion} ${chosen.criterion.toFixed(1)}` : order.criterion;
+  return `${chosen.model} (${score}${order.forced ? ', forced by --modes' : ''}): ${why}`;
+}
+
+/** 'for mode 2 of 2 (f0 95.00 MHz)': which ringing mode R, L and C are for, as every face writes it; '' with one mode. */
+export function componentModeText(components: NonNullable<FitSummary['components']>): string {
+  const mode = components.mode;
+  return mode ? `for mode ${mode.index} of ${mode.of} (f0 ${formatEngineering(mode.f0.value, 'Hz')})` : '';
 }
 
 /** A step metric, shown from the fitted model (value ± stderr) beside the samples' own value. */

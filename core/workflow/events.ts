@@ -21,6 +21,8 @@ export interface EventsRequest {
   event?: number;
   /** Whether the quantity may jump at the event (a record of one event; an event's own fit starts inside its ring). */
   continuity?: ResponseFitOptions['continuity'];
+  /** How many ringing modes to fit (see ResponseFitOptions). Default: chosen from the data. */
+  modes?: number;
 }
 
 /** A ring seen for this many time constants before the next event is complete even if not yet in the noise (e^-3 = 5 %). */
@@ -53,13 +55,13 @@ export function fitEvents(request: EventsRequest): { fit: ResponseFit; summary: 
     throw new UsageError(`--event ${request.event}: the record holds ${count} event${count === 1 ? '' : 's'}`);
   }
   if (spans.length < 2) {
-    const whole = fitResponse(trace, { window: request.window ?? {}, continuity: request.continuity });
+    const whole = fitResponse(trace, { window: request.window ?? {}, continuity: request.continuity, modes: request.modes });
     const summary = summarizeFit(file, channel.name, whole, undefined, [...(request.captureWarnings ?? [])]);
     summary.transitions = summarizeTransitions(channel, whole);
     return { fit: whole, summary };
   }
 
-  const fits = spans.map((span, i) => (i < MAX_FITTED_EVENTS || i + 1 === request.event ? fitSpan(trace, channel.time, first, span, noise) : UNFITTED));
+  const fits = spans.map((span, i) => (i < MAX_FITTED_EVENTS || i + 1 === request.event ? fitSpan(trace, channel.time, first, span, noise, request.modes) : UNFITTED));
   const list = spans.map((span, i) => entryOf(i + 1, span, fits[i], channel.time, first));
   const chosen = request.event ?? defaultEvent(list);
   const fit = fits[chosen - 1];
@@ -87,9 +89,9 @@ function eventsOf(channel: Channel, window: { start?: number; end?: number }): {
  * estimate takes part of a ring for noise) has not found one ring, an event the search missed sharing its
  * window: it is no answer.
  */
-function fitSpan(trace: Parameters<typeof fitResponse>[0], time: Float64Array, first: number, span: EventSpan, noise: number): ResponseFit | string {
+function fitSpan(trace: Parameters<typeof fitResponse>[0], time: Float64Array, first: number, span: EventSpan, noise: number, modes?: number): ResponseFit | string {
   try {
-    const fit = fitResponse(trace, { window: { start: time[first + span.start], end: time[first + span.end - 1] } });
+    const fit = fitResponse(trace, { window: { start: time[first + span.start], end: time[first + span.end - 1] }, modes });
     const excess = fit.rmsResidual / noise;
     if (fit.status !== 'converged' || !(excess > MISFIT_RESIDUAL)) return fit;
     return { ...fit, status: 'failed', message: `the residual is ${excess.toFixed(1)} times the noise: the window holds more than this event's ring` };

@@ -14,7 +14,7 @@ import { InputError, UsageError } from '../inputError';
 import { fitSucceeded, summarizeFit, type FitSummary } from '../report/fitSummary';
 import { cautionInputsFromCapture, type CautionComponents } from '../safety/cautionInputs';
 import { evaluateCautions, type CautionResult } from '../safety/evaluateCautions';
-import { deriveComponents, type KnownPartRequest } from './measuredComponents';
+import { deriveComponents, ratesOfMode, type KnownPartRequest } from './measuredComponents';
 import { fitEvents } from './events';
 
 /** A fit window, s; an edge left out is found from the data. */
@@ -41,6 +41,10 @@ export interface MeasureRequest {
   event?: number;
   /** Whether the measured quantity may jump at the event (see ResponseFitOptions). Default: found from the data. */
   continuity?: ResponseFitOptions['continuity'];
+  /** How many ringing modes to fit (see ResponseFitOptions). Default: chosen from the data. */
+  modes?: number;
+  /** The ringing mode R, L and C are derived for and a design is checked against, 1-based. Default: the dominant one (1). */
+  mode?: number;
 }
 
 export interface MeasureResult {
@@ -120,13 +124,21 @@ export function measureCapture(request: MeasureRequest): MeasureResult {
   const { fit, summary } = fitEvents(request);
   if (request.importSummary) summary.import = request.importSummary;
   const { knownPart, design } = request;
-  const components = knownPart ? attempt(() => deriveComponents(fit, knownPart)) : NOT_ASKED;
+  const components = knownPart ? attempt(() => deriveComponents(fit, knownPart, request.mode)) : NOT_ASKED;
   if (components.value) summary.components = components.value;
   warnIfImplausible(summary, request.channel);
   const verdict =
-    design && verdictRefusal(design, summary) === null ? attempt(() => checkAgainstDesign(design, summary, request.channel, request.file, request.eventTime)) : NOT_ASKED;
+    design && verdictRefusal(design, summary) === null ? attempt(() => checkAgainstDesign(design, ofMode(summary, request.mode), request.channel, request.file, request.eventTime)) : NOT_ASKED;
   const cautions = weighCautions(request.channel, { design, components: summary.components });
   return { fit, summary, verdict: verdict.value, cautions, problems: { verdict: verdict.error, components: components.error } };
+}
+
+/** The summary with the rates of ringing mode `mode` at its top level, for a design to check (the dominant mode's are there already). */
+function ofMode(summary: FitSummary, mode = 1): FitSummary {
+  if (mode === 1) return summary;
+  ratesOfMode(summary, mode); // refuses a mode beyond those fitted
+  const { alpha, omega0, omegaD, zeta, Q } = summary.modes![mode - 1];
+  return { ...summary, alpha, omega0, ...(omegaD ? { omegaD } : { omegaD: undefined }), zeta, Q };
 }
 
 interface Attempt<T> {

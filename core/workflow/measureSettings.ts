@@ -6,7 +6,7 @@ import { parseStatedUnit, type StatedUnit } from '../units/unitText';
 import type { FitWindow } from './measure';
 import type { KnownPartRequest } from './measuredComponents';
 import { parseProbeRatio, type ProbeScaling } from './probeScaling';
-import { parseChannel, parseKnown, parseSignedTime, parseTime, parseTopology } from './userValues';
+import { parseChannel, parseKnown, parseModeCount, parseModeNumber, parseSignedTime, parseTime, parseTopology } from './userValues';
 
 /** The settings as typed; every field optional. */
 export interface MeasureSettings {
@@ -37,6 +37,10 @@ export interface MeasureSettings {
   probeRatio?: string;
   /** The probe was connected reversed: the channel's values change sign. Default false. */
   invert?: boolean;
+  /** How many ringing modes to fit, '1' to '3'. Default: chosen from the data. */
+  modes?: string;
+  /** Which ringing mode R, L and C are derived for (and a design checks), 1-based, e.g. '2'. Default: the dominant one (1). */
+  mode?: string;
 }
 
 export interface ParsedMeasureSettings {
@@ -54,6 +58,10 @@ export interface ParsedMeasureSettings {
   continuity?: 'free';
   /** Applied to the chosen channel (applyProbe) before the fit; absent when neither was given. */
   probe?: ProbeScaling;
+  /** Forced number of ringing modes; absent to choose it from the data. */
+  modes?: number;
+  /** The mode whose R, L and C are derived, 1-based; absent for the dominant one. */
+  mode?: number;
 }
 
 export function parseMeasureSettings(settings: MeasureSettings): ParsedMeasureSettings {
@@ -76,6 +84,11 @@ export function parseMeasureSettings(settings: MeasureSettings): ParsedMeasureSe
   if (settings.jumpStart) parsed.continuity = 'free';
   if (settings.probeRatio !== undefined || settings.invert) {
     parsed.probe = { ratio: settings.probeRatio === undefined ? 1 : parseProbeRatio(settings.probeRatio, '--probe-ratio'), invert: settings.invert ?? false };
+  }
+  if (settings.modes !== undefined) parsed.modes = parseModeCount(settings.modes);
+  if (settings.mode !== undefined) parsed.mode = parseModeNumber(settings.mode);
+  if (parsed.modes !== undefined && parsed.mode !== undefined && parsed.mode > parsed.modes) {
+    throw new UsageError(`--mode ${parsed.mode}: --modes ${parsed.modes} fits ${parsed.modes} ringing mode${parsed.modes === 1 ? '' : 's'}`);
   }
   if (settings.topology !== undefined && settings.known !== undefined) {
     parsed.knownPart = { topology: parseTopology(settings.topology), known: parseKnown(settings.known) };

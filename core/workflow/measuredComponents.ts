@@ -5,8 +5,11 @@ import { COMPONENT_UNITS } from '../circuit/relations';
 import { CircuitInputError } from '../circuit/errors';
 import { toleranceToRelativeUncertainty } from '../circuit/tolerance';
 import { alphaOmega0Correlation } from '../fit/correlation';
-import type { ResponseFit } from '../fit/fitResponse';
-import type { FitSummary } from '../report/fitSummary';
+import type { ResponseFit, ResponseMode } from '../fit/responseFit';
+import { UsageError } from '../inputError';
+import type { Quantity } from '../quantity';
+import { hertz } from '../report/resultRows';
+import type { ComponentMode, FitSummary } from '../report/fitSummary';
 import { formatEngineering } from '../units/format';
 
 /** What the user states about the circuit: its topology and one part whose value is known. */
@@ -29,18 +32,55 @@ export function describeKnownPart(known: KnownComponent): string {
 
 /**
  * The other two parts from alpha, omega0 and the known one (a CircuitInputError when the rates are not
- * positive, or when the response is first order: one time constant cannot give two parts).
+ * positive, or when the response is first order: one time constant cannot give two parts). With several
+ * ringing modes they are derived for `mode` (1-based, default 1: the dominant one), and say which.
  */
 export function deriveComponents(
-  fit: Pick<ResponseFit, 'alpha' | 'omega0' | 'correlation'> & { regime?: string },
+  fit: Pick<ResponseFit, 'alpha' | 'omega0' | 'correlation'> & { regime?: string; modes?: readonly ResponseMode[] },
   request: KnownPartRequest,
+  mode = 1,
 ): NonNullable<FitSummary['components']> {
   if (fit.regime === 'first-order') {
     throw new CircuitInputError('known', 'the response is first order (one time constant, tau): R, L and C need a second-order response, so only tau is reported');
   }
+  const rates = ratesOfMode(fit, mode);
   return {
     topology: request.topology,
     known: describeKnownPart(request.known),
-    ...componentsFromResponse(fit.alpha, fit.omega0, request.topology, request.known, alphaOmega0Correlation(fit.correlation)),
+    ...componentsFromResponse(rates.alpha, rates.omega0, request.topology, request.known, rates.correlation),
+    ...(rates.mode ? { mode: rates.mode } : {}),
   };
+}
+
+/**
+ * The alpha and omega0 of one ringing mode (1-based) with their correlation, and which mode of how many
+ * when the fit has several. A mode beyond those fitted is bad input, as --event beyond the events found.
+ */
+export function ratesOfMode(
+  fit: Pick<ResponseFit, 'alpha' | 'omega0' | 'correlation'> & { modes?: readonly ResponseMode[] },
+  mode = 1,
+): { alpha: Quantity; omega0: Quantity; correlation: number; mode: ComponentMode | null } {
+  const modes = fit.modes ?? [];
+  const count = Math.max(1, modes.length);
+  if (mode > count) throw new UsageError(`--mode ${mode}: the fit found ${count} ringing mode${count === 1 ? '' : 's'}`);
+  if (modes.length < 2) return { alpha: fit.alpha, omega0: fit.omega0, correlation: alphaOmega0Correlation(fit.correlation), mode: null };
+  const chosen = modes[mode - 1];
+  return {
+    alpha: chosen.alpha,
+    omega0: chosen.omega0,
+    correlation: modeCorrelation(fit.correlation, mode),
+    mode: { index: mode, of: modes.length, f0: hertz(chosen.omega0) },
+  };
+}
+
+/**
+ * The correlation of one mode's alpha and omega0 in a fit of several modes, its parameters named with the
+ * mode's number ('alpha2', 'omega02'); 0 when the fit names them otherwise or gives no correlation.
+ */
+function modeCorrelation(correlation: ResponseFit['correlation'], mode: number): number {
+  if (!correlation) return 0;
+  const ia = correlation.names.indexOf(`alpha${mode}`);
+  const iw = correlation.names.indexOf(`omega0${mode}`);
+  const rho = ia >= 0 && iw >= 0 ? correlation.matrix[ia][iw] : 0;
+  return Number.isFinite(rho) ? Math.max(-1, Math.min(1, rho)) : 0;
 }

@@ -107,3 +107,24 @@ export function parsePositiveValue(text: string | undefined, option: string, uni
   if (!(value > 0) || !Number.isFinite(value)) throw new UsageError(`${option} '${text}': must be a positive value`);
   return value;
 }
+
+/** Ringing modes a fit can be asked for (--modes): the multi-mode fit tries at most three. */
+export const MAX_RINGING_MODES = 3;
+
+/** --modes: how many ringing modes to fit, a whole number from 1 to MAX_RINGING_MODES. */
+export function parseModeCount(text: string): number {
+  const n = /^\s*\d+\s*$/.test(text) ? Number(text) : NaN;
+  if (!Number.isSafeInteger(n) || n < 1 || n > MAX_RINGING_MODES) {
+    throw new UsageError(`--modes '${text}': expected a number of ringing modes from 1 to ${MAX_RINGING_MODES}`);
+  }
+  return n;
+}
+
+/** --mode: which ringing mode R, L and C are derived for, 1-based as the output counts them (1 is the dominant one). */
+export function parseModeNumber(text: string): number {
+  const n = /^\s*\d+\s*$/.test(text) ? Number(text) : NaN;
+  if (!Number.isSafeInteger(n) || n < 1 || n > MAX_RINGING_MODES) {
+    throw new UsageError(`--mode '${text}': expected a mode number from 1 to ${MAX_RINGING_MODES} (1 is the dominant mode)`);
+  }
+  return n;
+}

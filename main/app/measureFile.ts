@@ -55,6 +55,8 @@ export function measureFile(file: string, settings: MeasureSettings, cwd: string
     design: design?.design,
     event: parsed.event,
     continuity: parsed.continuity,
+    modes: parsed.modes,
+    mode: parsed.mode,
   });
   // On the command line a known part or design that cannot be used for this capture is bad input (exit 2).
   const problem = result.problems.components ?? result.problems.verdict;

@@ -36,8 +36,18 @@ export function addComponentOptions(command: Command): Command {
     );
 }
 
+/** --modes and --mode: how many ringing modes to fit, and which one R, L and C (or a design's verdict) are for. */
+export function addModeOptions(command: Command): Command {
+  return command
+    .option('--modes <n>', 'fit n ringing modes, 1 to 3 (default: the number the data support, chosen by an information criterion)')
+    .option(
+      '--mode <k>',
+      'derive R, L, C (and check a design) for ringing mode k, 1 = the dominant one (the default); a mode beyond those fitted is refused (exit 2)',
+    );
+}
+
 /** The measuring settings alone, without --json and command-specific options. */
 export function measureSettingsOf(options: MeasureCommandOptions): MeasureSettings {
-  const { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime, event, segment, jumpStart, probeRatio, invert } = options;
-  return { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime, event, segment, jumpStart, probeRatio, invert };
+  const { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime, event, segment, jumpStart, probeRatio, invert, modes, mode } = options;
+  return { topology, known, column, sampleInterval, timeUnit, valueUnit, from, to, sortTime, event, segment, jumpStart, probeRatio, invert, modes, mode };
 }

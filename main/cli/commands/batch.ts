@@ -6,7 +6,7 @@ import type { Command } from 'commander';
 import { join, resolve } from 'node:path';
 import type { CommandContext } from '../commandContext';
 import type { LogAddOptions } from './log';
-import { addCaptureOptions, addComponentOptions, measureSettingsOf } from '../measureOptions';
+import { addCaptureOptions, addComponentOptions, addModeOptions, measureSettingsOf } from '../measureOptions';
 import { appendBenchLog, requireLogFolder } from '../../io/benchLog';
 import { loadDesignFile } from '../../app/measureFile';
 import { isMeasured, type BatchOutcome } from '../../app/batchFile';
@@ -29,7 +29,7 @@ export function registerBatchCommand(program: Command, ctx: CommandContext): voi
     .description('fit every capture (*.csv, *.txt, *.dat) of a folder; exit 1 when a file could not be read, its fit failed or it got no verdict against the design, 3 when a unit was out of tolerance')
     .argument('<dir>', 'folder of capture files')
     .option('--design <file>', 'design file to check every unit against (instead of --topology/--known)');
-  addCaptureOptions(addComponentOptions(command))
+  addModeOptions(addCaptureOptions(addComponentOptions(command)))
     .option('--log <path>', 'append each converged result to this bench log as it finishes, the unit id taken from the file name')
     .option('--operator <name>', 'who measured (with --log)')
     .option('--jobs <n>', 'captures fitted at once, each on its own thread (default: one per core; 1: no threads)')
@@ -42,6 +42,9 @@ export function registerBatchCommand(program: Command, ctx: CommandContext): voi
         throw new UsageError('--design gives the topology and components: leave out --topology and --known');
       }
       if (options.json && options.jsonl) throw new UsageError('--json and --jsonl: choose one');
+      if (options.mode !== undefined && options.known === undefined && !options.design) {
+        throw new UsageError('--mode names the mode R, L and C are derived for (or a design checks): give --topology and --known, or --design');
+      }
       const jobs = parseJobs(options.jobs);
       const shard = parseShard(options.shard);
       const settings = measureSettingsOf(options);

@@ -2,7 +2,7 @@
 
 import type { Command } from 'commander';
 import type { CommandContext } from '../commandContext';
-import { addCaptureOptions, measureSettingsOf, type MeasureCommandOptions } from '../measureOptions';
+import { addCaptureOptions, addModeOptions, measureSettingsOf, type MeasureCommandOptions } from '../measureOptions';
 import { loadDesignFile, measureFile } from '../../app/measureFile';
 import { formatFitText } from '../../../core/report/fitText';
 import { formatNoVerdictText, formatVerdictText } from '../../../core/report/verdictText';
@@ -22,7 +22,7 @@ export function registerCheckCommand(program: Command, ctx: CommandContext): voi
     )
     .argument('<file>', 'capture file (CSV or text export of a scope)')
     .requiredOption('--design <file>', 'design file (topology, R, L, C with tolerances, source, probe; optional limits and decisionRule)');
-  addCaptureOptions(command)
+  addModeOptions(addCaptureOptions(command))
     .option('--json', 'print one JSON object instead of the table')
     .action((file: string, options: CheckCommandOptions) => {
       const design = namingFile(options.design, () => loadDesignFile(options.design, ctx.io.cwd));
