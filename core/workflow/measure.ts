@@ -16,6 +16,7 @@ import { cautionInputsFromCapture, type CautionComponents } from '../safety/caut
 import { evaluateCautions, type CautionResult } from '../safety/evaluateCautions';
 import { deriveComponents, ratesOfMode, type KnownPartRequest } from './measuredComponents';
 import { fitEvents } from './events';
+import { runSetupChecks, type SetupCheck, type SetupOptions } from './setupChecks';
 
 /** A fit window, s; an edge left out is found from the data. */
 export interface FitWindow {
@@ -24,6 +25,10 @@ export interface FitWindow {
 }
 
 export interface MeasureRequest {
+  /** The capture preamble's key/value pairs (a stated bandwidth, an acquisition mode), for the setup checks. */
+  metadata?: Readonly<Record<string, string>>;
+  /** What the person states about the scope and probe, for the setup checks. */
+  setup?: SetupOptions;
   /** The capture's name as people see it (a file name without its folder). */
   file: string;
   channel: Channel;
@@ -58,6 +63,8 @@ export interface MeasureResult {
    * input with them; the window shows each beside the fit.
    */
   problems: { verdict: InputError | null; components: InputError | null };
+  /** Can this capture support the answer (setupChecks.ts): a refusal makes the command line exit 1. */
+  setupChecks: SetupCheck[];
 }
 
 /** Fit the channel and summarize the fit with its transition metrics; a window with too few samples is a FitInputError. */
@@ -130,7 +137,8 @@ export function measureCapture(request: MeasureRequest): MeasureResult {
   const verdict =
     design && verdictRefusal(design, summary) === null ? attempt(() => checkAgainstDesign(design, ofMode(summary, request.mode), request.channel, request.file, request.eventTime)) : NOT_ASKED;
   const cautions = weighCautions(request.channel, { design, components: summary.components });
-  return { fit, summary, verdict: verdict.value, cautions, problems: { verdict: verdict.error, components: components.error } };
+  const setupChecks = runSetupChecks({ fit, summary, channel: request.channel, metadata: request.metadata, options: request.setup, knownPart });
+  return { fit, summary, verdict: verdict.value, cautions, problems: { verdict: verdict.error, components: components.error }, setupChecks };
 }
 
 /** The summary with the rates of ringing mode `mode` at its top level, for a design to check (the dominant mode's are there already). */

@@ -1,0 +1,302 @@
+// Can this capture support the answer? Checks of how the ring was captured, each a note, a warning or a refusal.
+//
+// A refusal means a number the fit gives cannot be stated for this capture: the command line exits 1 with its
+// message (the fit's own status stays what the fit found). A warning says the stated error may not cover a
+// bias the setup puts on the answer; a note adds what the setup changes, with values.
+
+import type { Channel } from '../capture/types';
+import { BANDWIDTH_FRACTION, MIN_SAMPLES_PER_PERIOD } from '../circuit/measurementChecks';
+import { frontEndBias } from '../circuit/setupFrontEnd';
+import { ringFrequencyAlong } from '../circuit/setupDrift';
+import {
+  DEFAULT_GROUND_LEAD,
+  DEFAULT_PROBE_CAPACITANCE,
+  GROUND_LEAD_MATCH,
+  groundLeadResonance,
+  matchesGroundLead,
+  probeCorrection,
+} from '../circuit/setupProbe';
+import { averagingAcquisition, statedBandwidth } from '../circuit/setupPreamble';
+import type { ResponseFit } from '../fit/responseFit';
+import { fitSucceeded, type FitSummary } from '../report/fitSummary';
+import { hertz } from '../report/resultRows';
+import { formatEngineering, formatWithUncertainty } from '../units/format';
+import type { KnownPartRequest } from './measuredComponents';
+import type { SetupCheck, SetupCheckLevel, SetupOptions } from '../circuit/setupTypes';
+
+export { ringFrequencyAlong, type RingWindowFrequency } from '../circuit/setupDrift';
+export type { SetupCheck, SetupCheckId, SetupCheckLevel, SetupOptions } from '../circuit/setupTypes';
+
+export interface SetupCheckInput {
+  fit: ResponseFit;
+  summary: FitSummary;
+  channel: Pick<Channel, 'time' | 'values' | 'unit'>;
+  /** The capture preamble's key/value pairs. */
+  metadata?: Readonly<Record<string, string>>;
+  options?: SetupOptions;
+  knownPart?: KnownPartRequest;
+}
+
+/** Under this many samples per ring period the fitted frequency may be an alias: refused (2 is the Nyquist limit; the margin is our choice). */
+export const REFUSED_SAMPLES_PER_PERIOD = 2.5;
+/** A drift beyond this many combined standard errors between the first and the last window is reported (about 0.3 % false alarms for honest errors). */
+const DRIFT_SIGMAS = 3;
+/** The ring is followed until its envelope falls to this many times the fit's residual; beyond, the windows would fit noise. */
+const RING_END_NOISE = 5;
+/** A decay indistinguishable from none: alpha within this many standard errors of zero. */
+const SUSTAINED_SIGMAS = 2;
+/** Without a standard error for alpha, a ring decaying by less than this over the fitted span does not decay measurably. */
+const SUSTAINED_DECAY = 0.05;
+/** A ring is only judged sustained over at least this many periods (fewer cannot tell a slow decay from none). */
+const SUSTAINED_PERIODS = 2;
+/** Windows of the ring's amplitude compared to tell a growing ring from a steady one. */
+const GROWTH_WINDOWS = 3;
+/** The last window's amplitude above the first's by this factor: the ring grows. */
+const GROWTH_RATIO = 1.1;
+
+/** Every setup check that applies to this measurement, in a fixed order: refusals first, then warnings, then notes. */
+export function runSetupChecks(input: SetupCheckInput): SetupCheck[] {
+  const sustained = sustainedOscillation(input);
+  const checks = [
+    ...samplesPerPeriod(input),
+    ...sustained,
+    ...bandwidth(input),
+    ...acquisitionMode(input),
+    ...groundLead(input),
+    ...probeLoading(input),
+    ...frequencyDrift(input),
+    // A sustained ring refuses alpha outright; a note that alpha is loose would only repeat it.
+    ...(sustained.length ? [] : recordLength(input)),
+  ];
+  const rank: Record<SetupCheckLevel, number> = { refusal: 0, warning: 1, note: 2 };
+  return checks.sort((a, b) => rank[a.level] - rank[b.level]);
+}
+
+/** True when any check refuses an answer (the command line exits 1). */
+export function setupRefused(checks: readonly SetupCheck[]): boolean {
+  return checks.some((c) => c.level === 'refusal');
+}
+
+/** The ring's frequency in rad/s (damped, else natural) when the fit found a ring; null otherwise. */
+function ringOmega(input: SetupCheckInput): number | null {
+  const { fit } = input;
+  if (!fitSucceeded(fit) || fit.regime === 'first-order' || fit.regime === 'none') return null;
+  if (fit.omegaD && fit.omegaD.value > 0) return fit.omegaD.value;
+  return fit.zeta.value < 1 && fit.omega0.value > 0 ? fit.omega0.value : null;
+}
+
+/** The median sample interval of the channel, s. */
+function sampleInterval(time: ArrayLike<number>): number | null {
+  const n = time.length;
+  if (n < 2) return null;
+  const steps = Array.from({ length: n - 1 }, (_, i) => time[i + 1] - time[i]).sort((a, b) => a - b);
+  return steps[Math.floor(steps.length / 2)];
+}
+
+function samplesPerPeriod(input: SetupCheckInput): SetupCheck[] {
+  const omega = ringOmega(input);
+  const dt = sampleInterval(input.channel.time);
+  if (omega === null || dt === null || !(dt > 0)) return [];
+  const frequency = omega / (2 * Math.PI);
+  const perPeriod = 1 / (frequency * dt);
+  const values = { samplesPerPeriod: perPeriod, frequency, sampleInterval: dt };
+  const at = `${perPeriod.toFixed(1)} samples per ring period (${formatEngineering(frequency, 'Hz')} sampled every ${formatEngineering(dt, 's')})`;
+  if (perPeriod < REFUSED_SAMPLES_PER_PERIOD) {
+    return [{ id: 'samples-per-period', level: 'refusal', message: `${at}: under ${REFUSED_SAMPLES_PER_PERIOD} the frequency may be an alias of a faster ring; sample faster to measure it`, values }];
+  }
+  if (perPeriod < MIN_SAMPLES_PER_PERIOD) {
+    return [{ id: 'samples-per-period', level: 'warning', message: `${at}: under ${MIN_SAMPLES_PER_PERIOD} the fit has little of each period to go on (common practice)`, values }];
+  }
+  return [];
+}
+
+/**
+ * A ring whose amplitude does not decay is not a very high Q: it is a sustained (or growing) oscillation, and
+ * alpha, zeta and Q cannot be given. It is a refusal, not a status of the fit, because the fit did converge and its
+ * frequency and levels stand; what the record cannot support is the damping, so the command line exits 1 saying so.
+ */
+function sustainedOscillation(input: SetupCheckInput): SetupCheck[] {
+  const omega = ringOmega(input);
+  const { fit, channel } = input;
+  if (omega === null) return [];
+  const span = fit.window.end - fit.t0.value;
+  const periods = (omega * span) / (2 * Math.PI);
+  if (!(periods >= SUSTAINED_PERIODS)) return [];
+  const alpha = fit.alpha;
+  const undecided = alpha.stderr === null ? alpha.value * span < SUSTAINED_DECAY : alpha.value - SUSTAINED_SIGMAS * alpha.stderr <= 0;
+  if (!undecided) return [];
+  const windows = ringFrequencyAlong(channel.time, channel.values, { start: fit.t0.value, end: fit.window.end, alpha: 0, omegaD: omega, windows: GROWTH_WINDOWS });
+  const growth = windows.length >= 2 ? windows[windows.length - 1].amplitude / windows[0].amplitude : null;
+  const grows = growth !== null && growth > GROWTH_RATIO;
+  const how = grows ? `grows (×${growth.toFixed(2)} from the first to the last third)` : 'does not decay';
+  const decay = alpha.stderr === null ? `alpha = ${formatEngineering(alpha.value, 's^-1')}, no standard error` : `alpha = ${formatWithUncertainty(alpha)}`;
+  return [
+    {
+      id: 'sustained-oscillation',
+      level: 'refusal',
+      message: `the ${formatEngineering(omega / (2 * Math.PI), 'Hz')} ring ${how} over ${periods.toFixed(0)} periods (${decay}): a sustained oscillation, so alpha, zeta and Q cannot be given`,
+      values: { frequency: omega / (2 * Math.PI), periods, alpha, ...(growth === null ? {} : { growth }) },
+    },
+  ];
+}
+
+function bandwidth(input: SetupCheckInput): SetupCheck[] {
+  const omega = ringOmega(input);
+  const stated = input.options?.scopeBandwidth;
+  const preamble = stated === undefined && input.metadata ? statedBandwidth(input.metadata) : null;
+  const hertz = stated ?? preamble?.hertz;
+  const { fit, channel } = input;
+  if (omega === null || hertz === undefined || fit.alpha.stderr === null) return [];
+  const source = preamble ? `the preamble's '${preamble.key}: ${preamble.value}'` : 'the stated bandwidth';
+  const frequency = omega / (2 * Math.PI);
+  const bias = frontEndBias(fit.params, channel, fit.window, fit.noiseRms, hertz, fit.jumpStart ? 'free' : 'continuous');
+  const values = { bandwidth: hertz, frequency, ratio: frequency / hertz, source: preamble ? preamble.key : 'option' };
+  if (!bias) {
+    if (frequency <= hertz * BANDWIDTH_FRACTION) return [];
+    return [{ id: 'bandwidth', level: 'warning', message: `the ${formatEngineering(frequency, 'Hz')} ring is above a third of ${source} (${formatEngineering(hertz, 'Hz')}), and its bias on alpha could not be estimated (common practice: keep the ring below bandwidth / 3)`, values }];
+  }
+  const sigmas = Math.abs(bias.alphaBias) / fit.alpha.stderr;
+  if (sigmas <= 1) return [];
+  return [
+    {
+      id: 'bandwidth',
+      level: 'warning',
+      message:
+        `a first-order front end at ${formatEngineering(hertz, 'Hz')} (${source}) moves the fitted alpha by about ${formatEngineering(bias.alphaBias, 's^-1')} ` +
+        `(${sigmas.toFixed(1)}x its standard error) for this ${formatEngineering(frequency, 'Hz')} ring: the stated error does not cover it`,
+      values: { ...values, alphaBias: bias.alphaBias, omega0Bias: bias.omega0Bias, biasSigmas: sigmas, ringGain: bias.ringGain },
+    },
+  ];
+}
+
+function acquisitionMode(input: SetupCheckInput): SetupCheck[] {
+  const entry = input.metadata ? averagingAcquisition(input.metadata) : null;
+  if (!entry) return [];
+  return [
+    {
+      id: 'acquisition-mode',
+      level: 'warning',
+      message: `the preamble's '${entry.key}: ${entry.value}' averages samples or acquisitions, which low-pass filters the ring: alpha may read high beyond its stated error (capture in plain sample mode to measure damping)`,
+      values: { key: entry.key, mode: entry.value },
+    },
+  ];
+}
+
+function groundLead(input: SetupCheckInput): SetupCheck[] {
+  const omega = ringOmega(input);
+  if (omega === null || input.channel.unit !== 'V') return [];
+  const length = input.options?.groundLead ?? DEFAULT_GROUND_LEAD;
+  const capacitance = input.options?.probeCapacitance ?? DEFAULT_PROBE_CAPACITANCE;
+  const resonance = groundLeadResonance(length, capacitance);
+  const frequency = omega / (2 * Math.PI);
+  if (!matchesGroundLead(frequency, resonance)) return [];
+  const assumed = [
+    input.options?.groundLead === undefined ? `a ${formatEngineering(length, 'm', 3)} lead assumed` : `a ${formatEngineering(length, 'm', 3)} lead`,
+    input.options?.probeCapacitance === undefined ? `${formatEngineering(capacitance, 'F', 3)} assumed` : formatEngineering(capacitance, 'F', 3),
+  ].join(', ');
+  return [
+    {
+      id: 'ground-lead',
+      level: 'warning',
+      message:
+        `the ${formatEngineering(frequency, 'Hz')} ring is within ${(GROUND_LEAD_MATCH * 100).toFixed(0)} % of a passive probe's ground-lead resonance ` +
+        `(${formatEngineering(resonance, 'Hz')}: about 25 nH per inch, common practice, against the probe's capacitance; ${assumed}): it may be the probe, not the circuit; measure again with a short ground spring`,
+      values: { frequency, resonance, groundLead: length, probeCapacitance: capacitance },
+    },
+  ];
+}
+
+function probeLoading(input: SetupCheckInput): SetupCheck[] {
+  const probeC = input.options?.probeCapacitance;
+  if (probeC === undefined || input.channel.unit !== 'V' || !fitSucceeded(input.fit) || input.fit.regime === 'first-order' || input.fit.regime === 'none') return [];
+  const components = input.summary.components;
+  const probe = formatEngineering(probeC, 'F', 3);
+  if (!components || !input.knownPart) {
+    return [{ id: 'probe-loading', level: 'note', message: `the probe's ${probe} loads the node; give the topology and a known part to see C and f0 without it`, values: { probeCapacitance: probeC } }];
+  }
+  const corrected = probeCorrection(hertz(input.fit.omega0), components.C, input.knownPart.known.name, probeC);
+  if (!corrected) {
+    return [
+      {
+        id: 'probe-loading',
+        level: 'refusal',
+        message: `the probe's ${probe} is not below the ${formatEngineering(components.C.value, 'F')} the loop measures with it on: it cannot sit across that capacitance; check the probe capacitance and the known part`,
+        values: { probeCapacitance: probeC, C: components.C },
+      },
+    ];
+  }
+  const f0 = `f0 = ${formatWithUncertainty(corrected.unloadedF0)} (measured ${formatWithUncertainty(corrected.loadedF0)})`;
+  if (input.knownPart.known.name === 'C') {
+    // The known C is the board's; the loop rang with C + Cp, so the L derived from C alone reads high by (C + Cp) / C.
+    const share = components.C.value / corrected.loadedC.value;
+    const L = { ...components.L, value: components.L.value * share, stderr: components.L.stderr === null ? null : components.L.stderr * share };
+    return [
+      {
+        id: 'probe-loading',
+        level: 'note',
+        message: `without the probe's ${probe} across C (the loop rang with C + Cp = ${formatEngineering(corrected.loadedC.value, 'F')}): ${f0}, L = ${formatWithUncertainty(L)} (from C alone ${formatWithUncertainty(components.L)})`,
+        values: { probeCapacitance: probeC, ...corrected, unloadedL: L },
+      },
+    ];
+  }
+  return [
+    {
+      id: 'probe-loading',
+      level: 'note',
+      message: `without the probe's ${probe} across the ring's capacitance: C = ${formatWithUncertainty(corrected.unloadedC)} (measured ${formatWithUncertainty(corrected.loadedC)}), ${f0}`,
+      values: { probeCapacitance: probeC, ...corrected },
+    },
+  ];
+}
+
+/**
+ * Where the ring has fallen to RING_END_NOISE times the fit's rms residual (or the fit window's end, if sooner), s.
+ * The residual, not the record's noise estimate: first differences read a fast ring's own slope as noise.
+ */
+function ringEnd(fit: ResponseFit): number {
+  const amplitude = Math.hypot(fit.params.a, fit.params.b / Math.max(fit.omegaD?.value ?? fit.omega0.value, Number.MIN_VALUE));
+  const floor = RING_END_NOISE * fit.rmsResidual;
+  const visible = fit.alpha.value > 0 && amplitude > floor ? Math.log(amplitude / floor) / fit.alpha.value : Infinity;
+  return Math.min(fit.window.end, fit.t0.value + visible);
+}
+
+function frequencyDrift(input: SetupCheckInput): SetupCheck[] {
+  const { fit, channel } = input;
+  const omega = fit.omegaD?.value;
+  if (!fitSucceeded(fit) || fit.regime !== 'underdamped' || !omega) return [];
+  const windows = ringFrequencyAlong(channel.time, channel.values, { start: fit.t0.value, end: ringEnd(fit), alpha: fit.alpha.value, omegaD: omega });
+  if (windows.length < 2) return [];
+  const early = windows[0].frequency;
+  const late = windows[windows.length - 1].frequency;
+  const drift = late.value - early.value;
+  const combined = Math.hypot(early.stderr ?? Infinity, late.stderr ?? Infinity);
+  if (!(Math.abs(drift) > DRIFT_SIGMAS * combined)) return [];
+  return [
+    {
+      id: 'frequency-drift',
+      level: 'warning',
+      message:
+        `the ring frequency drifts from ${formatWithUncertainty(early)} early to ${formatWithUncertainty(late)} late (${(Math.abs(drift) / combined).toFixed(1)} standard errors): ` +
+        `one omega0 fits neither end (a voltage-dependent capacitance${fit.modes.length > 1 ? ', or the close modes fitted' : ''}?); compare captures at the same point of the ring`,
+      values: { early, late, drift, windows: windows.length },
+    },
+  ];
+}
+
+/** Kept from the fit's warnings as a setup note: a ring shorter than one time constant leaves alpha's error wide (already in it). */
+function recordLength(input: SetupCheckInput): SetupCheck[] {
+  const { fit } = input;
+  if (!fitSucceeded(fit) || fit.regime === 'none' || !(fit.alpha.value > 0)) return [];
+  const p = fit.params;
+  const slowest = p.omega0 > p.alpha ? p.alpha : p.alpha - Math.sqrt(p.alpha * p.alpha - p.omega0 * p.omega0);
+  const constants = (fit.window.end - p.t0) * slowest;
+  if (!(constants < 1) || constants <= 0) return [];
+  return [
+    {
+      id: 'record-length',
+      level: 'note',
+      message: `the record holds ${constants.toFixed(2)} of the slowest time constant after the event: alpha is loosely determined, and its stated error is wide for it`,
+      values: { timeConstants: constants },
+    },
+  ];
+}
