@@ -6,10 +6,10 @@ import type { Trace } from './trace';
 import type { FitSet } from './fitSet';
 import type { Attempt } from './attempt';
 import type { ResponseCovariance } from './responseCovariance';
-import type { ResponseFit } from './responseFit';
+import type { ModelOrder, ResponseFit } from './responseFit';
 import { classifyRegime } from './regime';
 import { plausibilityWarnings, uncertainOmega0Warning } from './fitWarnings';
-import { singleModeFields } from './modesResult';
+import { singleModeFields, type MultiModeModel } from './modesResult';
 
 /** How the fit's model was chosen: a jump at the event let in, and why a single decay was kept (or ''). */
 export interface ModelChoice {
@@ -17,6 +17,10 @@ export interface ModelChoice {
   evidence: string;
   /** For a single decay: the time constant of the record's tail alone (tailTimeConstant), s. */
   tailTimeConstant?: number;
+  /** How many ringing modes (modeOrder.ts); absent where no other order was looked at. */
+  modeOrder?: ModelOrder;
+  /** The model with several rings or a slow term, when it was chosen: it replaces the one ring's fit. */
+  multiMode?: MultiModeModel;
 }
 
 /**
@@ -33,8 +37,10 @@ export function assembleFit(
   warnings: string[],
   choice: ModelChoice = { jumpStart: false, evidence: '' },
 ): ResponseFit {
-  const params = unpackParams(best.layout, best.values, t0Start);
-  const firstOrder = LAYOUTS[best.layout].order === 1;
+  const multi = choice.multiMode ?? null;
+  const params = multi?.params ?? unpackParams(best.layout, best.values, t0Start);
+  // A ring found riding on a single decay (modeOrder.ts) makes the fit a ring's again.
+  const firstOrder = LAYOUTS[best.layout].order === 1 && !multi;
   const names = cov.names;
   const c = cov.covariance;
   const se = (name: string) => {
@@ -44,7 +50,7 @@ export function assembleFit(
   const { alpha, omega0 } = params;
   const ring = firstOrder ? null : ringQuantities(alpha, omega0, c, names.indexOf('alpha'), names.indexOf('omega0'));
   const { regime, evidence } = ring ? classifyRegime(ring.zeta, cov.zetaInterval) : { regime: 'first-order' as const, evidence: choice.evidence };
-  const rmsResidual = Math.sqrt(best.sse / set.time.length);
+  const rmsResidual = Math.sqrt((multi?.sse ?? best.sse) / set.time.length);
   const t0Known = LAYOUTS[best.layout].fitsT0;
   // A layout with the level before the event holds its t0 at a jump it found; one without has no samples before it.
   const seesPreEvent = t0Known || LAYOUTS[best.layout].preLevelColumn !== null;
@@ -57,10 +63,15 @@ export function assembleFit(
   const omega0Warning = ring ? uncertainOmega0Warning(omega0, se('omega0')) : null;
   if (omega0Warning) warnings.push(omega0Warning);
   const seAlpha = se('alpha');
-  const modeFields = ring ? singleModeFields(best, t0Start, cov, ring, set, trace.unit) : { modes: [], modelOrder: null };
+  const { warnings: modeWarnings = [], ...modeFields } = !ring
+    ? { modes: [], modelOrder: null }
+    : multi
+      ? { ...multi.fields(ring, trace.unit), modelOrder: choice.modeOrder ?? null }
+      : singleModeFields(best, t0Start, cov, ring, set, trace.unit, choice.modeOrder);
+  warnings.push(...modeWarnings);
   return {
-    status: best.status,
-    message: best.message,
+    status: multi?.status ?? best.status,
+    message: multi?.message ?? best.message,
     regime,
     regimeEvidence: evidence,
     ...(ring ?? { alpha: NOT_APPLICABLE('s^-1'), omega0: NOT_APPLICABLE('rad/s'), omegaD: null, zeta: NOT_APPLICABLE(''), Q: NOT_APPLICABLE('') }),
@@ -76,7 +87,7 @@ export function assembleFit(
     noiseRms: noise,
     samplesUsed: set.samplesUsed,
     window: { start: seesPreEvent ? set.window.start : params.t0, end: set.window.end },
-    iterations: best.iterations,
+    iterations: multi?.iterations ?? best.iterations,
     decimation: set.decimation,
     warnings: [...new Set(warnings)],
     ...modeFields,

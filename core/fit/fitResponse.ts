@@ -15,6 +15,7 @@ import { subCodeNoiseWarning } from './fitWarnings';
 import { responseCovariance } from './responseCovariance';
 import { assembleFit, failedFit, noResponseFit } from './assembleFit';
 import { FitInputError } from './fitInputError';
+import { checkModeOptions, ringModes } from './modeOrder';
 import type { Trace } from './trace';
 import type { ResponseFit, ResponseFitOptions } from './responseFit';
 
@@ -25,6 +26,7 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   // The continuous layouts are fitted first; a jump at the event is looked for once they are (jumpStart.ts).
   const continuity = 'continuous';
   const jumpOption = options.continuity ?? 'auto';
+  checkModeOptions(options);
   let window = options.window ?? {};
   let set = prepareFitSet(trace, window);
   if (set.time.length < MIN_FIT_SAMPLES) {
@@ -83,8 +85,10 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   const subCode = subCodeNoiseWarning(trace.values, sampleNoise);
   if (subCode) warnings.push(subCode);
 
+  // How many ringing modes the record holds (modeOrder.ts): a model with several replaces the one ring, with its own covariance.
+  const modes = ringModes(set, best, t0Start, noise, options);
   const dof = set.time.length - best.values.length;
-  const cov = responseCovariance(set, best.layout, best.values, t0Start, best.sse / Math.max(1, dof));
+  const cov = modes.multiMode?.covariance ?? responseCovariance(set, best.layout, best.values, t0Start, best.sse / Math.max(1, dof));
   warnings.push(...best.warnings, ...cov.warnings);
-  return assembleFit(trace, set, best, t0Start, cov, noise, warnings, { jumpStart, evidence: explanation.evidence, tailTimeConstant: tail });
+  return assembleFit(trace, set, best, t0Start, cov, noise, warnings, { jumpStart, evidence: explanation.evidence, tailTimeConstant: tail, ...modes });
 }
