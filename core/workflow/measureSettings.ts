@@ -6,6 +6,8 @@ import { parseStatedUnit, type StatedUnit } from '../units/unitText';
 import type { FitWindow } from './measure';
 import type { KnownPartRequest } from './measuredComponents';
 import { parseProbeRatio, type ProbeScaling } from './probeScaling';
+import type { SetupOptions } from './setupChecks';
+import { parseLength, parsePositiveValue } from './userValues';
 import { parseChannel, parseKnown, parseModeCount, parseModeNumber, parseSignedTime, parseTime, parseTopology } from './userValues';
 
 /** The settings as typed; every field optional. */
@@ -37,6 +39,12 @@ export interface MeasureSettings {
   probeRatio?: string;
   /** The probe was connected reversed: the channel's values change sign. Default false. */
   invert?: boolean;
+  /** The scope's (or probe's) bandwidth, e.g. '200M'. Default: the capture preamble's, else none. */
+  scopeBandwidth?: string;
+  /** The voltage probe's input capacitance, e.g. '10p'. Default: no correction (10 pF assumed for the ground-lead check). */
+  probeCapacitance?: string;
+  /** The probe's ground-lead length, e.g. '6in' or '15cm'. Default 6 inches. */
+  groundLead?: string;
   /** How many ringing modes to fit, '1' to '3'. Default: chosen from the data. */
   modes?: string;
   /** Which ringing mode R, L and C are derived for (and a design checks), 1-based, e.g. '2'. Default: the dominant one (1). */
@@ -58,6 +66,8 @@ export interface ParsedMeasureSettings {
   continuity?: 'free';
   /** Applied to the chosen channel (applyProbe) before the fit; absent when neither was given. */
   probe?: ProbeScaling;
+  /** What was stated about the scope and probe, for the setup checks (setupChecks.ts). */
+  setup: SetupOptions;
   /** Forced number of ringing modes; absent to choose it from the data. */
   modes?: number;
   /** The mode whose R, L and C are derived, 1-based; absent for the dominant one. */
@@ -70,6 +80,7 @@ export function parseMeasureSettings(settings: MeasureSettings): ParsedMeasureSe
   }
   const parsed: ParsedMeasureSettings = {
     sortTime: settings.sortTime ?? false,
+    setup: parseSetupOptions(settings),
     window: {
       ...(settings.from === undefined ? {} : { start: parseSignedTime(settings.from, '--from') }),
       ...(settings.to === undefined ? {} : { end: parseSignedTime(settings.to, '--to') }),
@@ -108,4 +119,15 @@ function parseSegmentNumber(text: string): number {
   const n = /^\s*[-+]?\d+(?:\.\d*)?\s*$/.test(text) ? Number(text) : NaN;
   if (!Number.isFinite(n)) throw new UsageError(`--segment: '${text}' is not a segment number (1, 2, ...)`);
   return n;
+}
+
+/** --scope-bandwidth, --probe-capacitance, --ground-lead: each left out when not given. */
+function parseSetupOptions(settings: MeasureSettings): SetupOptions {
+  const setup: SetupOptions = {};
+  const bandwidth = parsePositiveValue(settings.scopeBandwidth, '--scope-bandwidth', 'Hz');
+  const capacitance = parsePositiveValue(settings.probeCapacitance, '--probe-capacitance', 'F');
+  if (bandwidth !== undefined) setup.scopeBandwidth = bandwidth;
+  if (capacitance !== undefined) setup.probeCapacitance = capacitance;
+  if (settings.groundLead !== undefined) setup.groundLead = parseLength(settings.groundLead, '--ground-lead');
+  return setup;
 }

@@ -128,3 +128,14 @@ export function parseModeNumber(text: string): number {
   }
   return n;
 }
+
+/** Metres per unit a length may be typed in (an inch is 25.4 mm exactly). */
+const METRES_PER = { m: 1, cm: 0.01, mm: 0.001, in: 0.0254, inch: 0.0254, inches: 0.0254, '"': 0.0254 } as const;
+
+/** A positive length with its unit ('6in', '15 cm', '25mm', '0.15m'), in metres; a bare number is refused as ambiguous. */
+export function parseLength(text: string, option: string): number {
+  const match = /^\s*(\d+(?:\.\d*)?|\.\d+)\s*(m|cm|mm|in|inch|inches|")\s*$/i.exec(text);
+  const value = match ? Number(match[1]) * METRES_PER[match[2].toLowerCase() as keyof typeof METRES_PER] : NaN;
+  if (!(value > 0) || !Number.isFinite(value)) throw new UsageError(`${option} '${text}': expected a positive length with its unit, e.g. 6in, 15cm or 25mm`);
+  return value;
+}

@@ -55,6 +55,8 @@ export function measureFile(file: string, settings: MeasureSettings, cwd: string
     design: design?.design,
     event: parsed.event,
     continuity: parsed.continuity,
+    metadata: capture.capture.metadata,
+    setup: parsed.setup,
     modes: parsed.modes,
     mode: parsed.mode,
   });

@@ -1,6 +1,6 @@
 // `fit --json` on every sample capture against its output recorded before the use-case layer was built:
 // every field is unchanged up to rounding, and the only fields added since are the ringing modes with their order table,
-// the transition metrics and the import.
+// the transition metrics, the import and the setup checks.
 import { readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -10,7 +10,7 @@ import { runCli } from '../../main/cli/program';
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const GOLDEN_DIR = path.join(ROOT, 'test', 'fixtures', 'fitJson');
 /** Fields `fit --json` gained after the golden outputs were recorded. */
-const ADDED_FIELDS = ['modes', 'modelOrder', 'transitions', 'import'];
+const ADDED_FIELDS = ['modes', 'modelOrder', 'transitions', 'import', 'setupChecks'];
 /**
  * How far a number may move: the fit's arithmetic in another order (another SVD, a refactor) moves the last
  * digits, up to about 2e-7 relative where a quantity is ill-conditioned (omega_d near critical damping) and

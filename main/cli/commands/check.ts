@@ -2,13 +2,15 @@
 
 import type { Command } from 'commander';
 import type { CommandContext } from '../commandContext';
-import { addCaptureOptions, addModeOptions, measureSettingsOf, type MeasureCommandOptions } from '../measureOptions';
+import { addSetupOptions, addCaptureOptions, addModeOptions, measureSettingsOf, type MeasureCommandOptions } from '../measureOptions';
 import { loadDesignFile, measureFile } from '../../app/measureFile';
 import { formatFitText } from '../../../core/report/fitText';
 import { formatNoVerdictText, formatVerdictText } from '../../../core/report/verdictText';
 import { verdictRefusal } from '../../../core/workflow/measure';
 import { formatCautionsText } from '../../../core/safety/cautionText';
 import { EXIT, namingFile } from '../errors';
+import { formatSetupChecksText } from '../../../core/report/setupChecksText';
+import { setupRefused } from '../../../core/workflow/setupChecks';
 
 interface CheckCommandOptions extends MeasureCommandOptions {
   design: string;
@@ -22,7 +24,7 @@ export function registerCheckCommand(program: Command, ctx: CommandContext): voi
     )
     .argument('<file>', 'capture file (CSV or text export of a scope)')
     .requiredOption('--design <file>', 'design file (topology, R, L, C with tolerances, source, probe; optional limits and decisionRule)');
-  addModeOptions(addCaptureOptions(command))
+  addModeOptions(addSetupOptions(addCaptureOptions(command)))
     .option('--json', 'print one JSON object instead of the table')
     .action((file: string, options: CheckCommandOptions) => {
       const design = namingFile(options.design, () => loadDesignFile(options.design, ctx.io.cwd));
@@ -30,15 +32,17 @@ export function registerCheckCommand(program: Command, ctx: CommandContext): voi
       // A failed fit, or a single decay where the design rings, gets no verdict (measureCapture gives none), and says why.
       const refusal = verdictRefusal(design.design, m.summary);
       if (options.json) {
-        ctx.io.out(`${JSON.stringify({ ...m.summary, design: design.design.name, verdict: m.verdict, ...(refusal ? { noVerdict: refusal } : {}), cautions: m.cautions })}\n`);
+        ctx.io.out(`${JSON.stringify({ ...m.summary, design: design.design.name, verdict: m.verdict, ...(refusal ? { noVerdict: refusal } : {}), setupChecks: m.setupChecks, cautions: m.cautions })}\n`);
       } else {
         let text = formatFitText(m.summary);
         if (refusal) text += formatNoVerdictText(refusal);
         else if (m.verdict) text += formatVerdictText(m.verdict, design.design.name);
+        text += formatSetupChecksText(m.setupChecks);
         text += formatCautionsText(m.cautions);
         ctx.io.out(text);
       }
-      if (refusal || !m.verdict) ctx.setExitCode(EXIT.failure);
+      // A setup check's refusal means the capture cannot support the answer the verdict rests on.
+      if (refusal || !m.verdict || setupRefused(m.setupChecks)) ctx.setExitCode(EXIT.failure);
       // Rejected under the rule: a conditional pass exits 3 under guarded acceptance, 0 under simple acceptance and guarded rejection.
       else if (!m.verdict.pass) ctx.setExitCode(EXIT.outOfTolerance);
     });
