@@ -1,11 +1,9 @@
-// Levenberg-Marquardt on scaled parameters: ml-levenberg-marquardt computes each damped step, this loop decides.
-
-import { levenbergMarquardt } from 'ml-levenberg-marquardt';
+// Levenberg-Marquardt on scaled parameters: each damped step computed here, the loop deciding on it.
 
 import type { NormalizedFitOptions } from './normalizeFitInput';
 import { numericJacobian } from './numericJacobian';
 import type { FitStatus } from './types';
-import { sumOfSquares, weightedResiduals, type WeightedProblem } from './weightedProblem';
+import { sumOfSquares, weightedModel, weightedResiduals, type WeightedProblem } from './weightedProblem';
 
 export interface MinimizeOutcome {
   p: number[];
@@ -21,7 +19,7 @@ export interface MinimizeOutcome {
  * a row, so a damping that fell very low climbs back in a few trials.
  */
 const DAMPING = { start: 1e-3, min: 1e-15, max: 1e10, down: 3, up: 3 };
-/** Finite-difference step for the library's Jacobian, relative to the scaled value (floored near zero). */
+/** Finite-difference step for the trials' Jacobian, relative to the scaled value (floored near zero). */
 const STEP = { relative: 1e-6, floor: 1e-3 };
 /** Largest |cosine| between the residual vector and a Jacobian column accepted at a minimum... */
 const GRADIENT_TOLERANCE = 1e-6;
@@ -29,18 +27,17 @@ const GRADIENT_TOLERANCE = 1e-6;
 const ROUNDING = 10 * Number.EPSILON;
 
 /*
- * Why the loop is ours: the library's own loop keeps every step, uphill ones too, and stops only
- * when chi^2 falls below an absolute threshold. Called for one iteration from the best point so
- * far, it returns the better of that point and the damped Gauss-Newton step from it: one classic
- * Levenberg-Marquardt trial, with the library's central-difference Jacobian and Cholesky solve.
- * The damping then falls after a success and rises after a failure (Marquardt's rule); a success
- * counts as convergence when chi^2 moved by less than the tolerance and the gradient vanishes.
- * Parameters enter the library divided by their scales (u = p / s) and residuals divided by c,
- * the largest column norm of the scaled Jacobian at the start, so the library's additive damping
- * means the same thing for every problem. A parameter resting on a bound is held out of the
- * trials (the library would couple its clipped step into the others) until the gradient says
- * it wants back into the box. Restarting the library's own loop in rounds was tried and reached
- * the NIST certified values less often than this.
+ * Classic Levenberg-Marquardt: one damped Gauss-Newton trial at a time from the best point so far
+ * (central-difference Jacobian, Cholesky solve), kept only when it lowers chi^2. The damping then
+ * falls after a success and rises after a failure (Marquardt's rule); a success counts as convergence
+ * when chi^2 moved by less than the tolerance and the gradient vanishes. Parameters are divided by
+ * their scales (u = p / s) and residuals by c, the largest column norm of the scaled Jacobian at the
+ * start, so the additive damping means the same thing for every problem. A parameter resting on a
+ * bound is held out of the trials (a clipped step would couple into the others) until the gradient
+ * says it wants back into the box. The trials were first made by ml-levenberg-marquardt called for
+ * one iteration; they are the same step, computed here so that a failed trial reuses the point's
+ * Jacobian. Running a library's own loop (which keeps uphill steps too, and stops only when chi^2
+ * falls below an absolute threshold) in rounds reached the NIST certified values less often.
  */
 export function minimizeScaled(
   problem: WeightedProblem,
@@ -57,7 +54,7 @@ export function minimizeScaled(
   const toP = (u: readonly number[]) => box.unscale(u);
   const trial = scaledTrial(problem, box, residualScale(problem, initial, scales, options));
 
-  let u = box.scale(initial);
+  let u: readonly number[] = box.scale(initial);
   let released = new Set<number>();
   let damping = DAMPING.start;
   let growth = DAMPING.up;
@@ -96,13 +93,6 @@ export function minimizeScaled(
   return { p: toP(u), chiSquare: chi, iterations, status: 'max-iterations', message: `stopped after ${maxIterations} iterations without meeting the tolerance` };
 }
 
-/** An error thrown by the caller's model, carried through the library untouched. */
-class ModelFailure extends Error {
-  constructor(readonly original: unknown) {
-    super('model evaluation failed');
-  }
-}
-
 /** Scaled coordinates u = p / s and the bounds in them; a u clipped to a bound maps back to the bound exactly. */
 interface ScaledBox {
   min: number[];
@@ -125,47 +115,140 @@ function scaledBox(scales: readonly number[], options: NormalizedFitOptions): Sc
   };
 }
 
-type Trial = (u: readonly number[], free: readonly number[], damping: number) => { u: number[]; chiSquare: number } | null;
+type Trial = (u: readonly number[], free: readonly number[], damping: number) => { u: readonly number[]; chiSquare: number } | null;
 
-/** One library iteration over the free parameters in scaled units: the better point and its chi^2, or null if the trial broke down. */
+/**
+ * One Levenberg-Marquardt trial over the free parameters in scaled units, the step the library computed:
+ * central-difference Jacobian J of the model divided by c, (J^T J + damping I) d = J^T r by Cholesky
+ * (Gaussian elimination where rounding leaves the matrix short of positive definite), the new point
+ * clipped to the box. Returns the better of the point and the trial with its chi^2 (the point's own
+ * chi^2, computed here, can differ from the caller's by rounding), or null if the trial broke down (a
+ * non-finite Jacobian or step). The residuals and Jacobian columns at a point are kept until the point
+ * moves: a failed trial only raises the damping, so the next one from the same point costs one model
+ * pass instead of 2 per free parameter and 3 more.
+ */
 function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number): Trial {
-  const { model, x, sqrtWeight } = problem;
-  const data = { x: Float64Array.from(x, (_, i) => i), y: problem.y.map((v) => v / c) };
-  return (u, free, damping) => {
-    const full = (w: readonly number[]): number[] => {
-      const out = [...u];
-      free.forEach((j, k) => (out[j] = w[k]));
-      return out;
-    };
-    // The library's difference steps may cross a bound; the model only ever sees the clipped value.
-    const curve = (w: number[]) => {
-      const p = box.unscale(full(w));
-      return (i: number) => {
-        try {
-          return (sqrtWeight[i] * model.evaluate(p, x[i])) / c;
-        } catch (error) {
-          throw new ModelFailure(error);
-        }
-      };
-    };
-    try {
-      const result = levenbergMarquardt(data, curve, {
-        initialValues: free.map((j) => u[j]),
-        damping,
-        maxIterations: 1,
-        errorTolerance: 0,
-        centralDifference: true,
-        gradientDifference: free.map((j) => STEP.relative * Math.max(Math.abs(u[j]), STEP.floor)),
-        minValues: free.map((j) => box.min[j]),
-        maxValues: free.map((j) => box.max[j]),
-      });
-      return { u: full(result.parameterValues), chiSquare: result.parameterError * c * c };
-    } catch (error) {
-      if (error instanceof ModelFailure) throw error.original;
-      // A NaN in the library's J^T J makes its Cholesky refuse the matrix: count it as a failed trial.
-      return null;
+  const n = problem.x.length;
+  const y = problem.y.map((v) => v / c);
+  /** Residuals y/c - f/c at u into `out`, and their sum of squares times c^2 (NaN if not finite). */
+  const residualsAt = (u: readonly number[], out: Float64Array): number => {
+    weightedModel(problem, box.unscale(u), out);
+    let error = 0;
+    for (let i = 0; i < n; i++) {
+      out[i] = y[i] - out[i] / c;
+      error += out[i] * out[i];
     }
+    return error * c * c;
   };
+  let here: { u: readonly number[]; residuals: Float64Array; chiSquare: number; columns: Map<number, Float64Array> } | null = null;
+  const up = new Float64Array(n);
+  const down = new Float64Array(n);
+  let spare = new Float64Array(n);
+  /** d(residual)/du_j at the current point, by central differences (the model sees the clipped value only). */
+  const column = (j: number): Float64Array => {
+    const point = here as NonNullable<typeof here>;
+    const known = point.columns.get(j);
+    if (known) return known;
+    const h = STEP.relative * Math.max(Math.abs(point.u[j]), STEP.floor);
+    const shifted = [...point.u];
+    shifted[j] = point.u[j] + h;
+    residualsAt(shifted, up);
+    shifted[j] = point.u[j] - h;
+    residualsAt(shifted, down);
+    const out = new Float64Array(n);
+    for (let i = 0; i < n; i++) out[i] = (down[i] - up[i]) / (2 * h);
+    point.columns.set(j, out);
+    return out;
+  };
+  return (u, free, damping) => {
+    if (here === null || here.u !== u) {
+      const residuals = new Float64Array(n);
+      here = { u, residuals, chiSquare: residualsAt(u, residuals), columns: new Map() };
+    }
+    const point = here;
+    const k = free.length;
+    const columns = free.map(column);
+    const normal = new Float64Array(k * k);
+    const rhs = new Float64Array(k);
+    for (let a = 0; a < k; a++) {
+      for (let b = a; b < k; b++) {
+        let sum = 0;
+        for (let i = 0; i < n; i++) sum += columns[a][i] * columns[b][i];
+        normal[a * k + b] = normal[b * k + a] = sum;
+      }
+      normal[a * k + a] += damping;
+      let sum = 0;
+      for (let i = 0; i < n; i++) sum += columns[a][i] * point.residuals[i];
+      rhs[a] = sum;
+    }
+    const step = solveSymmetric(normal, rhs, k);
+    if (step === null) return null;
+    const next = [...u];
+    free.forEach((j, a) => (next[j] = Math.min(Math.max(box.min[j], u[j] + step[a]), box.max[j])));
+    const chiSquare = residualsAt(next, spare);
+    if (!(chiSquare < point.chiSquare)) return { u, chiSquare: point.chiSquare };
+    // The trial's residuals become those of the new point, should the caller move there.
+    const residuals = spare;
+    spare = new Float64Array(n);
+    here = { u: next, residuals, chiSquare, columns: new Map() };
+    return { u: next, chiSquare };
+  };
+}
+
+/** x with m x = b for a small symmetric m (row-major, k x k): Cholesky, or elimination with pivoting if m is not positive definite; null if not finite. */
+function solveSymmetric(m: Float64Array, b: Float64Array, k: number): number[] | null {
+  for (let i = 0; i < k * k; i++) if (!Number.isFinite(m[i])) return null;
+  const l = new Float64Array(k * k);
+  let positive = true;
+  for (let j = 0; j < k && positive; j++) {
+    let d = m[j * k + j];
+    for (let p = 0; p < j; p++) d -= l[j * k + p] * l[j * k + p];
+    if (!(d > 0)) positive = false;
+    l[j * k + j] = Math.sqrt(d);
+    for (let i = j + 1; i < k; i++) {
+      let s = m[i * k + j];
+      for (let p = 0; p < j; p++) s -= l[i * k + p] * l[j * k + p];
+      l[i * k + j] = s / l[j * k + j];
+    }
+  }
+  const x = positive ? choleskySolve(l, b, k) : eliminate(m, b, k);
+  return x.every(Number.isFinite) ? x : null;
+}
+
+function choleskySolve(l: Float64Array, b: Float64Array, k: number): number[] {
+  const z = new Array<number>(k).fill(0);
+  for (let i = 0; i < k; i++) {
+    let s = b[i];
+    for (let p = 0; p < i; p++) s -= l[i * k + p] * z[p];
+    z[i] = s / l[i * k + i];
+  }
+  for (let i = k - 1; i >= 0; i--) {
+    let s = z[i];
+    for (let p = i + 1; p < k; p++) s -= l[p * k + i] * z[p];
+    z[i] = s / l[i * k + i];
+  }
+  return z;
+}
+
+/** Gaussian elimination with partial pivoting (a singular matrix gives non-finite values, which the caller refuses). */
+function eliminate(m: Float64Array, b: Float64Array, k: number): number[] {
+  const a = Array.from({ length: k }, (_, i) => [...m.subarray(i * k, i * k + k), b[i]]);
+  for (let col = 0; col < k; col++) {
+    let pivot = col;
+    for (let i = col + 1; i < k; i++) if (Math.abs(a[i][col]) > Math.abs(a[pivot][col])) pivot = i;
+    [a[col], a[pivot]] = [a[pivot], a[col]];
+    for (let i = col + 1; i < k; i++) {
+      const f = a[i][col] / a[col][col];
+      for (let j = col; j <= k; j++) a[i][j] -= f * a[col][j];
+    }
+  }
+  const x = new Array<number>(k).fill(0);
+  for (let i = k - 1; i >= 0; i--) {
+    let s = a[i][k];
+    for (let j = i + 1; j < k; j++) s -= a[i][j] * x[j];
+    x[i] = s / a[i][i];
+  }
+  return x;
 }
 
 /** Largest column norm of the scaled Jacobian at the start, so that max diag(J^T J / c^2) = 1 there. */
