@@ -156,12 +156,21 @@ export function extractParasitics(
   const residual = dof > 0 ? { chiSquare, dof } : null;
   const scale = frequencyScale(weighted, chiSquare, dof);
   warnings.push(...scale.warnings);
-  const partVariances = effective.map((m, i) => m.addedC ** 2 * (toleranceToRelativeUncertainty(m.addedCTolerance ?? 0) ** 2 + factors[i].ownVariance));
-  const shared = { gradientOf: effective.map((m, i) => (factors[i].source === 'dc-bias' ? m.addedC : 0)), variance: dcBiasVariance(options.dcBias) };
-  const cov = lineCovariance(line, x, w, partVariances, shared, probeC, probeTolerance, scale.value);
-
-  const propagate = (g: [number, number]): number | null =>
-    cov === null ? null : Math.sqrt(Math.max(0, g[0] * g[0] * cov[0][0] + 2 * g[0] * g[1] * cov[0][1] + g[1] * g[1] * cov[1][1]));
+  // Standard uncertainties of each x_i, F: the part's tolerance, its own derating factor's, the shared DC-bias factor's.
+  const toleranceU = effective.map((m) => m.addedC * toleranceToRelativeUncertainty(m.addedCTolerance ?? 0));
+  const ownFactorU = effective.map((m, i) => m.addedC * factors[i].ownRelativeU);
+  const dcBiasU = effective.map((m, i) => m.addedC * factors[i].sharedRelativeU);
+  // Parts' own deratings may err independently or together (parts of one kind read off one curve): both are
+  // propagated and each result takes the larger.
+  const covariances = [
+    lineCovariance(line, x, w, toleranceU.map((u, i) => u * u + ownFactorU[i] ** 2), [dcBiasU], probeC, probeTolerance, scale.value),
+    lineCovariance(line, x, w, toleranceU.map((u) => u * u), [dcBiasU, ownFactorU], probeC, probeTolerance, scale.value),
+  ];
+  const propagate = (g: [number, number]): number | null => {
+    const spread = (cov: number[][] | null) => (cov === null ? null : Math.sqrt(Math.max(0, g[0] * g[0] * cov[0][0] + 2 * g[0] * g[1] * cov[0][1] + g[1] * g[1] * cov[1][1])));
+    const [independent, together] = covariances.map(spread);
+    return independent === null || together === null ? null : Math.max(independent, together);
+  };
   const L = quantity(slope, propagate([1, 0]), 'H');
   const C = quantity(capacitance, propagate([-intercept / slope ** 2, 1 / slope]), 'F');
   const z0 = slope / Math.sqrt(intercept);
@@ -179,10 +188,13 @@ export function extractParasitics(
     'R_p = 2 alpha L_p assumes a series loop (alpha = R / (2 L)), with alpha from the capture with the least added capacitance.',
   ];
   if (factors.some((f) => f.source !== 'none')) {
-    notes.push('each added capacitance is taken at the operating voltage (nominal x its derating or the DC-bias factor), and the line is fitted to those values.');
+    notes.push(
+      'each added capacitance is taken at the operating voltage (nominal x its derating or the DC-bias factor), and the line is fitted to those values; ' +
+        'the DC-bias factor\'s error is shared by its parts, and the parts\' own deratings are taken as erring independently or together, whichever gives the larger uncertainty.',
+    );
   }
   const points = effective.map((m, i): LinePoint => {
-    const u = Math.sqrt(partVariances[i] + factors[i].sharedShare * shared.variance * m.addedC ** 2 + (probeC * toleranceToRelativeUncertainty(probeTolerance)) ** 2);
+    const u = Math.hypot(toleranceU[i], ownFactorU[i], dcBiasU[i], probeC * toleranceToRelativeUncertainty(probeTolerance));
     const uy = weighted ? 1 / Math.sqrt(w[i]) : null;
     return {
       effectiveC: quantity(m.addedC, u, 'F'),
@@ -199,22 +211,19 @@ export function extractParasitics(
 interface AppliedFactor {
   factor: number;
   source: LinePoint['factorSource'];
-  /** Relative variance of a factor of this capture's own (independent of the others). */
-  ownVariance: number;
-  /** 1 when the shared DC-bias factor applies. */
-  sharedShare: number;
+  /** Relative standard uncertainty of the part's own derating factor (0 without one). */
+  ownRelativeU: number;
+  /** Relative standard uncertainty of the shared DC-bias factor when it applies (else 0). */
+  sharedRelativeU: number;
 }
 
 /** The bare loop has nothing to derate; a part's own derating replaces the DC-bias factor. */
 function appliedFactor(m: AddedCapacitorMeasurement, dcBias: CapacitorDerating | undefined): AppliedFactor {
-  if (m.addedC === 0) return { factor: 1, source: 'none', ownVariance: 0, sharedShare: 0 };
-  if (m.derating) return { factor: m.derating.factor, source: 'derating', ownVariance: toleranceToRelativeUncertainty(m.derating.tolerance ?? 0) ** 2, sharedShare: 0 };
-  if (dcBias) return { factor: dcBias.factor, source: 'dc-bias', ownVariance: 0, sharedShare: 1 };
-  return { factor: 1, source: 'none', ownVariance: 0, sharedShare: 0 };
-}
-
-function dcBiasVariance(dcBias: CapacitorDerating | undefined): number {
-  return dcBias ? toleranceToRelativeUncertainty(dcBias.tolerance ?? 0) ** 2 : 0;
+  const none: AppliedFactor = { factor: 1, source: 'none', ownRelativeU: 0, sharedRelativeU: 0 };
+  if (m.addedC === 0) return none;
+  if (m.derating) return { ...none, factor: m.derating.factor, source: 'derating', ownRelativeU: toleranceToRelativeUncertainty(m.derating.tolerance ?? 0) };
+  if (dcBias) return { ...none, factor: dcBias.factor, source: 'dc-bias', sharedRelativeU: toleranceToRelativeUncertainty(dcBias.tolerance ?? 0) };
+  return none;
 }
 
 /**
@@ -294,17 +303,17 @@ function frequencyScale(weighted: boolean, chiSquare: number, dof: number): { va
 }
 
 /**
- * Covariance of (slope, intercept) to first order: the frequency part scale * A^-1, plus each added
- * part's own variance (tolerance and own derating) through d(slope, intercept)/d x_i = w_i A^-1 (r_i - slope x_i, -slope),
- * plus the shared DC-bias factor, which moves its captures' x_i in proportion, and the probe tolerance,
- * which moves every x_i together. Null when the frequency part is unknown.
+ * Covariance of (slope, intercept) to first order: the frequency part scale * A^-1, plus each x_i's own
+ * variance through d(slope, intercept)/d x_i = w_i A^-1 (r_i - slope x_i, -slope), plus each group of errors
+ * that move several x_i together (one standard uncertainty per x_i, F, zero where the group does not reach),
+ * and the probe tolerance, which moves every x_i together. Null when the frequency part is unknown.
  */
 function lineCovariance(
   line: LineFit,
   x: number[],
   w: number[],
   partVariances: readonly number[],
-  shared: { gradientOf: readonly number[]; variance: number },
+  sharedGroups: readonly (readonly number[])[],
   probeC: number,
   probeTolerance: number,
   scale: number | null,
@@ -319,16 +328,18 @@ function lineCovariance(
     cov[1][1] += g[1] * g[1] * variance;
   };
   const probeGradient: [number, number] = [0, 0];
-  const sharedGradient: [number, number] = [0, 0];
+  const groupGradients = sharedGroups.map((): [number, number] => [0, 0]);
   partVariances.forEach((variance, i) => {
     const g = applyInverse(inverse, w[i] * (residuals[i] - slope * x[i]), -w[i] * slope);
     addOuter(g, variance);
     probeGradient[0] += g[0];
     probeGradient[1] += g[1];
-    sharedGradient[0] += g[0] * shared.gradientOf[i];
-    sharedGradient[1] += g[1] * shared.gradientOf[i];
+    sharedGroups.forEach((u, k) => {
+      groupGradients[k][0] += g[0] * u[i];
+      groupGradients[k][1] += g[1] * u[i];
+    });
   });
-  addOuter(sharedGradient, shared.variance);
+  for (const gradient of groupGradients) addOuter(gradient, 1);
   addOuter(probeGradient, (probeC * toleranceToRelativeUncertainty(probeTolerance)) ** 2);
   return cov;
 }

@@ -86,6 +86,14 @@ describe('added capacitors at the operating voltage', () => {
     expect(r.C.stderr! / r.C.value).toBeCloseTo(0.1 / Math.sqrt(3), 4);
   });
 
+  it('the parts\' own deratings may err together (one curve read twice): L_p is never surer than with one shared factor', () => {
+    const own = { factor: 0.6, tolerance: 0.1 };
+    const nominal = [0, 470e-12, 1e-9];
+    const r = extractParasitics(nominal.map((c, i) => point(c, c * own.factor, 1e-7, 0, i ? own : undefined)));
+    expect(r.L.stderr! / r.L.value).toBeCloseTo(0.1 / Math.sqrt(3), 4);
+    expect(r.C.stderr! / r.C.value).toBeCloseTo(0.1 / Math.sqrt(3), 4);
+  });
+
   it('a capture\'s own derating replaces the DC-bias factor for it (a C0G part among class-II ceramics)', () => {
     const r = extractParasitics(
       [point(0, 0, 1e-5), point(470e-12, 470e-12, 1e-5, 0, { factor: 1 }), point(1e-9, 0.6e-9, 1e-5)],
