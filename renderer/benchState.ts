@@ -9,7 +9,7 @@ import type { Topology } from '../core/circuit/components';
 import type { ParasiticsResult } from '../core/report/parasiticsText';
 import type { Comparison } from '../core/report/comparisonText';
 import type { BenchLogView, DesignEntry, OpenedFile, SampleEntry } from './bridgeTypes';
-import { FILE_UNITS, type OverlayTrace, type CaptureInfo, type CaptureReading, type FitWindow, type TraceData, type UnitRefusal } from './workerProtocol';
+import { FILE_UNITS, type OverlayTrace, type CaptureInfo, type CaptureReading, type FitWindow, type ModeCurve, type TraceData, type UnitRefusal } from './workerProtocol';
 
 export interface OpenCaptureState {
   /** Worker cache key. */
@@ -74,6 +74,12 @@ export interface BenchState {
   userWindow: FitWindow;
   /** The event the user chose to fit in a record holding several (1-based); null for the default one. */
   chosenEvent: number | null;
+  /** How many ringing modes the user asked the fit for; null to let the data choose. Forgotten with the capture. */
+  modesAsked: number | null;
+  /** The ringing mode R, L and C are derived for (1-based); null for the dominant one. Forgotten with the capture. */
+  chosenMode: number | null;
+  /** Each mode's contribution at every sample of the fit shown, from the worker; empty when one ring is the whole fit. */
+  modeCurves: ModeCurve[];
   componentsInput: ComponentsInput;
   /** Where the known part came from: the sample list's entry for the capture, typed by the user, or none stated. */
   knownPartFrom: 'sample' | 'typed' | null;
@@ -119,6 +125,9 @@ export function initialState(face: 'window' | 'browser'): BenchState {
     eventTime: null,
     userWindow: {},
     chosenEvent: null,
+    modesAsked: null,
+    chosenMode: null,
+    modeCurves: [],
     componentsInput: { topology: 'series', knownName: 'C', knownText: '', toleranceText: '' },
     knownPartFrom: null,
     components: null,

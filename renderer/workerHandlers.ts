@@ -6,13 +6,15 @@ import type { Capture, CaptureOptions, Channel } from '../core/capture/types';
 import { parseStatedUnit } from '../core/units/unitText';
 import { compareCaptures, type ComparisonSide } from '../core/workflow/compare';
 import { checkAgainstDesign, measureCapture, type MeasureResult } from '../core/workflow/measure';
-import { measureParasitics, type EdgeRequest } from '../core/workflow/parasitics';
+import { measureParasitics } from '../core/workflow/parasitics';
 import { applyProbe, type ProbeScaling } from '../core/workflow/probeScaling';
 import { reduceMinMax } from '../core/report/decimate';
+import { modeContributions } from '../core/fit/modeContributions';
+import type { ResponseFit } from '../core/fit/responseFit';
 import { plainMessage } from './plainMessage';
 import { describeCapture, traceData } from './traceData';
 import { unitRefusal } from './unitRefusal';
-import { FILE_UNITS, type CaptureContent, type CaptureFile, type OverlayTrace, type ParasiticsEdgeAsk, type StatedUnits, type WorkerAsk, type WorkerReplyValue } from './workerProtocol';
+import { FILE_UNITS, type CaptureContent, type CaptureFile, type ModeCurve, type OverlayTrace, type StatedUnits, type WorkerAsk, type WorkerReplyValue } from './workerProtocol';
 
 export interface HandledReply {
   value: WorkerReplyValue;
@@ -61,15 +63,29 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
       progress(`fitting ${channel.values.length.toLocaleString('en')} samples`);
       let measured: MeasureResult;
       try {
-        measured = measureCapture({ file: name, channel, captureWarnings: capture.warnings, importSummary: capture.importSummary, window: request.window, knownPart: request.knownPart, design: request.design, eventTime: request.eventTime, event: request.event });
+        measured = measureCapture({
+          file: name,
+          channel,
+          captureWarnings: capture.warnings,
+          importSummary: capture.importSummary,
+          window: request.window,
+          knownPart: request.knownPart,
+          design: request.design,
+          eventTime: request.eventTime,
+          event: request.event,
+          modes: request.modes,
+          mode: request.mode,
+        });
       } catch (error) {
         // The samples are still shown; the window says why there is no fit.
-        return { value: { type: 'measure', reply: { result: null, fitError: plainMessage(error), verdictError: null, componentsError: null } }, transfer: [] };
+        return { value: { type: 'measure', reply: { result: null, fitError: plainMessage(error), verdictError: null, componentsError: null, modeCurves: [] } }, transfer: [] };
       }
       const { problems, ...result } = measured;
       // The verdict and the components each fail on their own, shown beside the fit in their panels.
       const message = (problem: Error | null) => (problem ? plainMessage(problem) : null);
-      return { value: { type: 'measure', reply: { result, fitError: null, verdictError: message(problems.verdict), componentsError: message(problems.components) } }, transfer: [] };
+      const modeCurves = curvesOf(result.fit, channel.time);
+      const reply = { result, fitError: null, verdictError: message(problems.verdict), componentsError: message(problems.components), modeCurves };
+      return { value: { type: 'measure', reply }, transfer: modeCurves.map((c) => c.values.buffer as ArrayBuffer) };
     }
     case 'check': {
       const { name } = openedCapture(request.captureId);
@@ -79,9 +95,8 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
       return { value: { type: 'check', verdict, verdictError }, transfer: [] };
     }
     case 'parasitics': {
-      const captures = request.captures.map((c) => ({ ...readSide(c, undefined, progress), addedC: c.addedC, derating: c.derating }));
-      const edge = request.edge ? readEdge(request.edge, progress) : undefined;
-      const result = measureParasitics({ ...request, captures, edge }, progress);
+      const captures = request.captures.map((c) => ({ ...readSide(c, undefined, progress), addedC: c.addedC }));
+      const result = measureParasitics({ ...request, captures }, progress);
       return { value: { type: 'parasitics', result }, transfer: [] };
     }
     case 'compare': {
@@ -94,6 +109,11 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
       return { value: { type: 'compare', comparison, overlay }, transfer };
     }
   }
+}
+
+/** Each mode's contribution at every sample, for the plot to draw under the fit: only when one ring is not the whole fit. */
+function curvesOf(fit: ResponseFit, time: Float64Array): ModeCurve[] {
+  return fit.modes.length > 1 || fit.slowTerm ? modeContributions(fit, time) : [];
 }
 
 /** A use case's answer, or why it gave none in plain words. */
@@ -113,14 +133,6 @@ function attempt<T>(run: () => T): Attempt<T> {
 /** A capture read from its bytes as written (any encoding the importer knows), or from text main decoded. */
 function readContent(content: CaptureContent, options: CaptureOptions = {}): Capture {
   return content.bytes ? parseCaptureFileBytes(new Uint8Array(content.bytes), options) : parseCapture(content.text, options);
-}
-
-/** The turn-on edge's current and, unless the plateau is given, its switch voltage: two channels of one file. */
-function readEdge(edge: ParasiticsEdgeAsk, progress: (stage: string) => void): EdgeRequest {
-  progress(`reading ${edge.file.name}`);
-  const capture = readContent(edge.file);
-  const voltage = edge.voltageChannel === undefined ? undefined : selectChannel(capture, edge.voltageChannel);
-  return { file: edge.file.name, current: selectChannel(capture, edge.currentChannel), voltage, plateau: edge.plateau };
 }
 
 /** A capture file read for a one-off use case, as the command line reads a file. */

@@ -1,8 +1,6 @@
 // Messages between the window and the fit worker: plain data, arrays transferred, never a stack.
 
 import type { ImportSummary } from '../core/capture/importSummary';
-import type { CapacitorDerating } from '../core/circuit/addedCapacitor';
-import type { Quantity } from '../core/quantity';
 import type { Design } from '../core/circuit/design';
 import type { Verdict } from '../core/circuit/verdict';
 import type { FitSummary } from '../core/report/fitSummary';
@@ -87,25 +85,13 @@ export type CaptureFile = { name: string } & CaptureContent;
 
 /** The added-capacitor run as the window asks for it: typed values already read (SI units, relative tolerances). */
 export interface ParasiticsAsk {
-  captures: (CaptureFile & { addedC: number; derating?: CapacitorDerating })[];
+  captures: (CaptureFile & { addedC: number })[];
   addedTolerance: number;
-  dcBias?: CapacitorDerating;
-  switchC?: { value: number; tolerance?: number };
-  /** A turn-on edge to cross-check L_p on: the file, its current channel, and the switch voltage channel or the plateau. */
-  edge?: ParasiticsEdgeAsk;
   probeC?: number;
   probeCTolerance?: number;
   bandwidth?: number;
   voltage?: number;
   switchingFrequency?: number;
-}
-
-export interface ParasiticsEdgeAsk {
-  file: CaptureFile;
-  /** Default: the first channel. */
-  currentChannel?: string | number;
-  voltageChannel?: string | number;
-  plateau?: Quantity;
 }
 
 export type WorkerRequest =
@@ -125,6 +111,10 @@ export type WorkerRequest =
       eventTime?: number;
       /** Which event of a record holding several to fit, 1-based. Default: the first complete one. */
       event?: number;
+      /** How many ringing modes to fit. Default: chosen from the data. */
+      modes?: number;
+      /** The ringing mode R, L and C are derived for (and the design checks), 1-based. Default: the dominant one. */
+      mode?: number;
     }
   | { id: number; type: 'check'; captureId: string; channel: number; design: Design; fit: FitSummary; eventTime?: number }
   | ({ id: number; type: 'parasitics' } & ParasiticsAsk)
@@ -140,10 +130,19 @@ interface SideErrors {
   componentsError: string | null;
 }
 
+/**
+ * Each ringing mode's (and the slow term's) contribution at every sample of the channel, zero before t0
+ * (modeContributions): given when the fit has several modes or a slow term, empty otherwise.
+ */
+export interface ModeCurve {
+  label: string;
+  values: Float64Array;
+}
+
 /** A measurement with what failed beside its fit, or why the capture could not be fitted (too few samples in the window, ...). */
 /** A measurement as the window receives it: its problems arrive as words in the side errors. */
 export type MeasuredInWindow = Omit<MeasureResult, 'problems'>;
-export type MeasureReply = ({ result: MeasuredInWindow; fitError: null } | { result: null; fitError: string }) & SideErrors;
+export type MeasureReply = ({ result: MeasuredInWindow; fitError: null } | { result: null; fitError: string }) & SideErrors & { modeCurves: ModeCurve[] };
 
 export type WorkerReplyValue =
   | { type: 'open'; info: CaptureInfo; refusal: null }

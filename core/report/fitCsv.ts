@@ -2,11 +2,11 @@
 
 import { csvCell } from './escape';
 import type { FitSummary } from './fitSummary';
-import { RESULT_ROWS, TRANSITION_ROWS, fitTransitionRows, regimeTag, rowQuantity } from './resultRows';
+import { MODE_RESULT_ROWS, RESULT_ROWS, TRANSITION_ROWS, fitTransitionRows, regimeTag, rowQuantity } from './resultRows';
 
 const HEADER = [
   'file', 'channel', 'channel_unit', 'status', 'regime',
-  ...RESULT_ROWS.flatMap((row) => [row.column, `${row.column}_stderr`]),
+  ...[...RESULT_ROWS, ...MODE_RESULT_ROWS].flatMap((row) => [row.column, `${row.column}_stderr`]),
   ...TRANSITION_ROWS.flatMap((row) => [row.columns.model, `${row.columns.model}_stderr`, row.columns.measured]),
   'known_part',
 ];
@@ -16,7 +16,7 @@ export function fitCsv(fit: FitSummary): string {
   const transitions = fitTransitionRows(fit);
   const row: (string | number | null)[] = [
     fit.file, fit.channel, fit.finalValue.unit, fit.status, regimeTag(fit),
-    ...RESULT_ROWS.flatMap((spec) => {
+    ...[...RESULT_ROWS, ...MODE_RESULT_ROWS].flatMap((spec) => {
       const q = rowQuantity(spec, fit);
       return [q?.value ?? null, q?.stderr ?? null];
     }),

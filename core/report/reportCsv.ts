@@ -2,12 +2,12 @@
 
 import type { BenchRecord } from './benchRecord';
 import { csvCell } from './escape';
-import { RESULT_ROWS, TRANSITION_ROWS, fitTransitionRows, regimeTag, rowQuantity } from './resultRows';
+import { MODE_RESULT_ROWS, RESULT_ROWS, TRANSITION_ROWS, fitTransitionRows, regimeTag, rowQuantity } from './resultRows';
 import { recordStatus } from './yieldSummary';
 
 const HEADER = [
   'id', 'time', 'unit', 'operator', 'station', 'note', 'file', 'channel', 'channel_unit', 'status', 'regime',
-  ...RESULT_ROWS.flatMap((row) => [row.column, `${row.column}_stderr`]),
+  ...[...RESULT_ROWS, ...MODE_RESULT_ROWS].flatMap((row) => [row.column, `${row.column}_stderr`]),
   ...TRANSITION_ROWS.flatMap((row) => [row.columns.model, `${row.columns.model}_stderr`, row.columns.measured]),
   'transition_levels',
   'verdict', 'decision', 'decision_rule', 'design', 'cautions', 'capture_path', 'capture_sha256', 'software_version',
@@ -17,7 +17,7 @@ export function renderReportCsv(records: readonly BenchRecord[]): string {
   const lines = [HEADER.join(',')];
   for (const r of records) {
     const fit = r.fit;
-    const quantities = RESULT_ROWS.map((spec) => rowQuantity(spec, fit));
+    const quantities = [...RESULT_ROWS, ...MODE_RESULT_ROWS].map((spec) => rowQuantity(spec, fit));
     // No transition rows (a ringdown, an older record): the columns stay empty.
     const transitions = fitTransitionRows(fit);
     const transitionCells = TRANSITION_ROWS.flatMap((_, k) => {

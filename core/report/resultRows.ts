@@ -111,17 +111,25 @@ export function rowQuantity(spec: ResultRowSpec, fit: FitSummary): Quantity | un
 
 /**
  * 'two ringing modes (BIC -5123.4): ...': the one line saying how many modes the fit holds and why that order
- * won (or that --modes forced it); null for a fit without a ring or a record logged before modes were fitted.
+ * won (or that it was forced: --modes, the window's choice); null for a fit without a ring or a record logged before modes were fitted.
  */
 export function modelOrderText(fit: Pick<FitSummary, 'modelOrder'>): string | null {
   const order = fit.modelOrder;
   if (!order) return null;
   const chosen = order.table.find((row) => row.chosen);
-  if (!chosen) return `${order.forced ? 'forced by --modes: ' : ''}${order.reason}`;
-  // The reason may name the model again ('two ringing modes: ...'): said once.
-  const why = order.reason.startsWith(`${chosen.model}: `) ? order.reason.slice(chosen.model.length + 2) : order.reason;
+  if (!chosen) return `${order.forced ? 'order forced: ' : ''}${order.reason}`;
+  const why = withoutModel(order.reason, chosen.model);
   const score = Number.isFinite(chosen.criterion) ? `${order.criterion} ${chosen.criterion.toFixed(1)}` : order.criterion;
-  return `${chosen.model} (${score}${order.forced ? ', forced by --modes' : ''}): ${why}`;
+  return `${chosen.model} (${score}${order.forced ? ', order forced' : ''}): ${why}`;
+}
+
+/** The reason without what the line already says: a leading 'forced: ' and the model's name ('two ringing modes: ...', '... (...)'). */
+function withoutModel(reason: string, model: string): string {
+  const rest = reason.replace(/^forced: /, '');
+  if (!rest.startsWith(model)) return rest;
+  const after = rest.slice(model.length).trim();
+  if (after.startsWith(': ')) return after.slice(2);
+  return after.startsWith('(') && after.endsWith(')') ? after.slice(1, -1) : after || rest;
 }
 
 /** 'for mode 2 of 2 (f0 95.00 MHz)': which ringing mode R, L and C are for, as every face writes it; '' with one mode. */

@@ -41,7 +41,7 @@ export function setComponentsInput(ctx: ActionContext, change: Partial<Component
     const part = knownPartForFit(state);
     if (part && state.fit) {
       try {
-        state.components = deriveComponents(state.fit, part);
+        state.components = deriveComponents(state.fit, part, state.chosenMode ?? undefined);
       } catch (error) {
         state.componentsError = plainMessage(error);
       }

@@ -19,9 +19,27 @@ export async function chooseEvent(ctx: ActionContext, event: number): Promise<vo
   await measure(ctx);
 }
 
+/** Fit this many ringing modes (null: as many as the data support); R, L and C go back to the dominant mode. */
+export async function setModes(ctx: ActionContext, modes: number | null): Promise<void> {
+  ctx.store.state.modesAsked = modes;
+  ctx.store.state.chosenMode = null;
+  await measure(ctx);
+}
+
+/** Derive R, L and C (and check the design) for another ringing mode of the fit shown, 1-based. */
+export async function chooseMode(ctx: ActionContext, mode: number): Promise<void> {
+  ctx.store.state.chosenMode = mode;
+  await measure(ctx);
+}
+
 export async function measure(ctx: ActionContext): Promise<void> {
   const state = ctx.store.state;
-  const { capture, trace, userWindow, design, chosenEvent } = state;
+  // A new capture or channel (its measurement forgotten) starts from the data's own order and the dominant mode.
+  if (!state.fit) {
+    state.modesAsked = null;
+    state.chosenMode = null;
+  }
+  const { capture, trace, userWindow, design, chosenEvent, modesAsked, chosenMode } = state;
   if (!capture || !trace) return;
   const generation = ++ctx.counters.fitGeneration;
   const knownPart = knownPartForFit(state);
@@ -29,16 +47,28 @@ export async function measure(ctx: ActionContext): Promise<void> {
   const eventTime = userWindow.start === undefined ? undefined : (state.eventTime ?? undefined);
   const answer = await runStep(ctx, 'fitting', () =>
     ctx.client.request(
-      { type: 'measure', captureId: capture.key, channel: capture.channel, window: userWindow, knownPart, design: design?.design, eventTime, event: chosenEvent ?? undefined },
+      {
+        type: 'measure',
+        captureId: capture.key,
+        channel: capture.channel,
+        window: userWindow,
+        knownPart,
+        design: design?.design,
+        eventTime,
+        event: chosenEvent ?? undefined,
+        modes: modesAsked ?? undefined,
+        mode: chosenMode ?? undefined,
+      },
       (stage) => showProgress(ctx, stage),
     ),
   );
   if (generation !== ctx.counters.fitGeneration || !answer) return ctx.store.update();
-  const { result, fitError, verdictError, componentsError } = answer.reply;
+  const { result, fitError, verdictError, componentsError, modeCurves } = answer.reply;
   ctx.store.update((s) => {
     if (result && s.userWindow.start === undefined && result.fit.status !== 'failed') s.eventTime = result.fit.t0.value;
     s.fit = result?.fit ?? null;
     s.summary = result?.summary ?? null;
+    s.modeCurves = modeCurves;
     s.fitError = fitError;
     s.fitCount++;
     s.components = result?.summary.components ?? null;

@@ -14,7 +14,7 @@ import type { ActionContext } from './context';
 import { clearDesign, loadDesignFromSamples, pickDesign, saveDesign, useEditedDesign } from './design';
 import { copyPlot, copyResults, exportPlot, exportReport } from './export';
 import { runExtraction, type ExtractionRow, type ExtractionSettings } from './extraction';
-import { chooseEvent, setWindow } from './fitWindow';
+import { chooseEvent, chooseMode, setModes, setWindow } from './fitWindow';
 import { pickCaptureFile, readSampleText } from './pickCaptures';
 import { stopWork } from './stopWork';
 import { setProbe } from './probe';
@@ -35,6 +35,8 @@ export function bindActions(ctx: ActionContext) {
     chooseSegment: (segment: number) => chooseSegment(ctx, segment),
     setWindow: (window: FitWindow) => setWindow(ctx, window),
     chooseEvent: (event: number) => chooseEvent(ctx, event),
+    setModes: (modes: number | null) => setModes(ctx, modes),
+    chooseMode: (mode: number) => chooseMode(ctx, mode),
     setComponentsInput: (change: Partial<ComponentsInput>) => setComponentsInput(ctx, change),
     loadDesignFromSamples: (id: string) => loadDesignFromSamples(ctx, id),
     pickDesign: () => pickDesign(ctx),

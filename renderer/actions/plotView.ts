@@ -18,5 +18,6 @@ export async function drawPlot(ctx: ActionContext): Promise<void> {
     eventTime: state.eventTime ?? fit?.t0.value ?? 0,
     events: events ? events.list.map((e) => ({ index: e.index, onset: e.onset, end: e.end, fitted: e.index === events.chosen })) : [],
     transitions: summary?.transitions ?? null,
+    modeCurves: fit ? state.modeCurves : [],
   });
 }

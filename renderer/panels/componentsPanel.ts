@@ -1,5 +1,6 @@
 // The components panel: topology and one known part in, the other two with their uncertainties out.
 
+import { componentModeText } from '../../core/report/resultRows';
 import { card, field, h, replaceChildren, select, textInput } from '../dom';
 import { quantityRow } from '../show';
 import type { BenchState } from '../benchState';
@@ -75,6 +76,7 @@ export function createComponentsPanel(actions: BenchActions) {
     replaceChildren(
       results,
       h('p', { class: 'known-part' }, 'Known: ', h('span', { id: 'known-part' }, components.known)),
+      components.mode ? h('p', { class: 'known-part', id: 'components-mode' }, `R, L and C ${componentModeText(components)}: choose the mode in the fit panel.`) : null,
       h(
         'table',
         { class: 'results' },

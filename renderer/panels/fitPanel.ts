@@ -1,4 +1,4 @@
-// The fit panel: regime, the fit rows of fitResultRows with uncertainties, the step metrics, and the fit window.
+// The fit panel: regime, the fit rows of fitResultRows with uncertainties, the ringing modes, the step metrics, and the fit window.
 
 import { button, card, field, h, replaceChildren, textInput } from '../dom';
 import { quantityRow, showValue } from '../show';
@@ -8,6 +8,7 @@ import { plainMessage } from '../plainMessage';
 import type { BenchState } from '../benchState';
 import { fitStanding } from '../fitStanding';
 import { eventsView } from './eventsView';
+import { modesView } from './modesView';
 import { transitionView } from './transitionView';
 import type { BenchActions } from '../actions';
 
@@ -63,7 +64,9 @@ export function createFitPanel(actions: BenchActions) {
   const extra = h('div', { class: 'details' });
   const steps = h('div', { id: 'transitions' });
   const eventList = h('div', { id: 'events' });
-  body.append(status, table, copyRow, eventList, steps, h('h3', {}, 'Fit window'), h('p', { class: 'field-hint' }, 'Drag the edges of the shaded region on the plot, or type the times.'), windowRow, windowNote, extra);
+  const modeList = h('div', { id: 'modes-section' });
+  const modeChoices = { setModes: (modes: number | null) => void actions.setModes(modes), chooseMode: (mode: number) => void actions.chooseMode(mode) };
+  body.append(status, table, copyRow, modeList, eventList, steps, h('h3', {}, 'Fit window'), h('p', { class: 'field-hint' }, 'Drag the edges of the shaded region on the plot, or type the times.'), windowRow, windowNote, extra);
 
   function render(state: BenchState): void {
     const { fit, summary, fitError } = state;
@@ -75,6 +78,7 @@ export function createFitPanel(actions: BenchActions) {
       replaceChildren(status, fitError ? h('p', { class: 'error-text' }, fitError) : h('p', { class: 'muted' }, state.capture ? 'Fitting…' : idle));
       table.replaceChildren();
       eventList.replaceChildren();
+      modeList.replaceChildren();
       steps.replaceChildren();
       extra.replaceChildren();
       return;
@@ -110,6 +114,7 @@ export function createFitPanel(actions: BenchActions) {
         }),
       ),
     );
+    replaceChildren(modeList, ...modesView(summary, state.modesAsked, state.chosenMode, modeChoices));
     replaceChildren(eventList, ...(summary.events ? eventsView(summary.events, (event) => void actions.chooseEvent(event)) : []));
     replaceChildren(steps, ...(summary.transitions ? transitionView(summary.transitions) : []));
     if (document.activeElement !== startInput && document.activeElement !== endInput) {

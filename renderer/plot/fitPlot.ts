@@ -1,5 +1,6 @@
 // The fit plot: measured samples, fitted curve, design prediction with its tolerance band, and the residuals in a linked
-// panel below (one shared time axis); the fit window with edge handles, measurement cursors and the step's markers.
+// panel below (one shared time axis; each ringing mode's contribution in a strip between them when the fit has several);
+// the fit window with edge handles, measurement cursors and the step's markers.
 
 import { evaluateResponse } from '../../core/response/secondOrder';
 import { predictResponse, toleranceBand } from '../../core/circuit/predict';
@@ -7,7 +8,7 @@ import type { Design } from '../../core/circuit/design';
 import type { ResponseParams } from '../../core/response/secondOrder';
 import { lowerBound, reduceMinMax } from '../../core/report/decimate';
 import type { TransitionSummary } from '../../core/circuit/transitionSummary';
-import type { TraceData } from '../workerProtocol';
+import type { ModeCurve, TraceData } from '../workerProtocol';
 import { h } from '../dom';
 import { palette, type Palette } from './plotPalette';
 import { axisTicks, quantityName, type AxisTicks } from './axes';
@@ -31,6 +32,11 @@ export interface PlotInput {
   events: PlotEvent[];
   /** The fit's step metrics, marked on the plot (overshoot, peak time, settling time); null without a fit. */
   transitions: TransitionSummary | null;
+  /**
+   * Each ringing mode's (and the slow term's) contribution at every sample, when one ring is not the whole fit:
+   * the fitted model is then their sum on the fit's levels, and each is drawn under the fit. Empty otherwise.
+   */
+  modeCurves: ModeCurve[];
 }
 
 /** What the plot asks of the page. */
@@ -56,7 +62,11 @@ interface Derived {
   model: Float64Array | null;
   residual: Float64Array | null;
   prediction: ResponseParams | null;
+  /** Each mode's contribution about zero, drawn in a strip of its own between the fit and the residual. */
+  modes: ModeCurve[];
 }
+
+const NOTHING_DERIVED: Derived = { model: null, residual: null, prediction: null, modes: [] };
 
 /** Points of the band per plot column: the band is computed on a grid, not at every sample. */
 const BAND_POINTS_PER_COLUMN = 1.5;
@@ -73,6 +83,9 @@ const RESIDUAL_PAD = 0.1;
 /** Domains of the main and residual panels on the plot's height. */
 const MAIN_DOMAIN: Range = [0.3, 1];
 const RESIDUAL_DOMAIN: Range = [0, 0.22];
+/** With the modes shown, the main panel gives up room to their strip, drawn between it and the residual. */
+const MAIN_DOMAIN_WITH_MODES: Range = [0.52, 1];
+const MODES_DOMAIN: Range = [0.27, 0.46];
 
 export class FitPlot {
   /** The plot with its handles, hover readout, cursor readouts and tools: what the page places. */
@@ -90,8 +103,9 @@ export class FitPlot {
   );
   private readonly cursorButton: HTMLButtonElement;
   private readonly markerButton: HTMLButtonElement;
+  private readonly modesButton: HTMLButtonElement;
   private input: PlotInput | null = null;
-  private derived: Derived = { model: null, residual: null, prediction: null };
+  private derived: Derived = NOTHING_DERIVED;
   /** The views chosen by zooming; null shows the whole capture (time) or fits the curves shown (levels). */
   private xRange: Range | null = null;
   private yRange: Range | null = null;
@@ -101,6 +115,7 @@ export class FitPlot {
   private cursors: CursorPositions | null = null;
   private cursorsShown = false;
   private markersShown = true;
+  private modesShown = true;
   private drawing: Promise<void> = Promise.resolve();
   private drawQueued = false;
   private bound = false;
@@ -120,6 +135,7 @@ export class FitPlot {
       h('button', { class: 'quiet plot-tool', id, title, attrs: { type: 'button' }, on: { click: run } }, text);
     this.cursorButton = tool('plot-cursors', 'Cursors', 'Two time and two level cursors with Δt, 1/Δt and ΔV (C)', () => this.toggleCursors());
     this.markerButton = tool('plot-markers', 'Markers', 'Overshoot, peak time and settling time of the step (M)', () => this.toggleMarkers());
+    this.modesButton = tool('plot-modes', 'Modes', "Each ringing mode's contribution, in a strip under the fit", () => this.toggleModes());
     this.view = h(
       'div',
       { class: 'plot-view' },
@@ -135,6 +151,7 @@ export class FitPlot {
           tool('plot-whole', 'Whole capture', 'Show the whole capture (0 or double-click)', () => this.showWhole()),
           this.cursorButton,
           this.markerButton,
+          this.modesButton,
           tool('plot-keys', 'Keys ?', 'Keys and gestures (?)', () => this.callbacks.onShowShortcuts()),
         ),
       ),
@@ -156,17 +173,21 @@ export class FitPlot {
     }
     this.input = input;
     const { trace, params } = input;
-    const model = params ? evaluateResponse(params, trace.time) : null;
+    const curves = params ? input.modeCurves : [];
+    const model = params ? (curves.length ? modelOfModes(params, trace.time, curves) : evaluateResponse(params, trace.time)) : null;
     const residual = model ? Float64Array.from(trace.values, (v, i) => v - model[i]) : null;
     const prediction = input.design ? predictResponse(input.design, input.eventTime) : null;
-    this.derived = { model, residual, prediction };
+    const modes = curves;
+    this.derived = { model, residual, prediction, modes };
+    this.showToolState();
     return this.redraw();
   }
 
   /** Show nothing (a capture that could not be read): no samples of the previous one stay on screen. */
   clear(): Promise<void> {
     this.input = null;
-    this.derived = { model: null, residual: null, prediction: null };
+    this.derived = NOTHING_DERIVED;
+    this.showToolState();
     this.bound = false;
     this.handles.place([], null);
     this.tip.hide();
@@ -245,6 +266,13 @@ export class FitPlot {
     void this.redraw();
   }
 
+  /** Show or hide each mode's contribution under the fit (the button is there only when the fit has several). */
+  toggleModes(): void {
+    this.modesShown = !this.modesShown;
+    this.showToolState();
+    void this.redraw();
+  }
+
   private span(): Range | null {
     const time = this.input?.trace.time;
     return time && time.length > 0 ? [time[0], time[time.length - 1]] : null;
@@ -253,6 +281,8 @@ export class FitPlot {
   private showToolState(): void {
     this.cursorButton.setAttribute('aria-pressed', String(this.cursorsShown));
     this.markerButton.setAttribute('aria-pressed', String(this.markersShown));
+    this.modesButton.setAttribute('aria-pressed', String(this.modesShown));
+    this.modesButton.hidden = this.derived.modes.length === 0;
   }
 
   private async draw(): Promise<void> {
@@ -268,16 +298,26 @@ export class FitPlot {
     const colors = palette();
 
     // Drawn bottom to top: the design (band, prediction), the samples over it, the fit over all.
-    const { model, residual, prediction } = this.derived;
+    const { model, residual, prediction, modes } = this.derived;
     if (input.design && prediction) traces.push(...this.designTraces(input.design, prediction.t0, x0, x1, width, colors));
     const measured = reduceMinMax(trace.time, trace.values, x0, x1, width);
     traces.push({ ...line('Measured', measured.x, measured.y, colors.data, 1, 'solid', 'y'), legendrank: 1 });
     let residualShown: ArrayLike<number>[] = [];
+    const modesShown: ArrayLike<number>[] = [];
     if (model && residual && window) {
       const w0 = Math.max(x0, window.start);
       const w1 = Math.min(x1, window.end);
       const columns = Math.max(1, Math.round((width * (w1 - w0)) / (x1 - x0 || 1)));
       if (w1 > w0) {
+        // Under the fit, in a strip of their own: each mode's contribution, whose sum on the final level is the fit.
+        if (this.modesShown) {
+          modes.forEach((mode, k) => {
+            const curve = reduceMinMax(trace.time, mode.values, w0, w1, columns);
+            const color = mode.label === SLOW_TERM_LABEL ? colors.slowTerm : colors.modes[k % colors.modes.length];
+            traces.push({ ...line(mode.label, curve.x, curve.y, color, 1.5, mode.label === SLOW_TERM_LABEL ? 'dash' : 'solid', 'y3'), legendrank: 5 + k });
+            modesShown.push(curve.y);
+          });
+        }
         const fit = reduceMinMax(trace.time, model, w0, w1, columns);
         traces.push({ ...line('Fit', fit.x, fit.y, colors.fit, 2, 'solid', 'y'), legendrank: 2 });
         const res = reduceMinMax(trace.time, residual, w0, w1, columns);
@@ -296,7 +336,10 @@ export class FitPlot {
     const residuals = this.y2Range ?? paddedExtent(residualShown, RESIDUAL_PAD) ?? [-1, 1];
     this.shownY = levels;
     const marks = this.markersShown ? transitionMarks(input.transitions ?? undefined, x1, colors) : null;
-    const mainHeight = height * (MAIN_DOMAIN[1] - MAIN_DOMAIN[0]);
+    const strip = modesShown.length > 0;
+    const mainDomain = strip ? MAIN_DOMAIN_WITH_MODES : MAIN_DOMAIN;
+    const mainHeight = height * (mainDomain[1] - mainDomain[0]);
+    const modeLevels = paddedExtent(modesShown, RESIDUAL_PAD) ?? [-1, 1];
     const residualHeight = height * (RESIDUAL_DOMAIN[1] - RESIDUAL_DOMAIN[0]);
 
     const layout = {
@@ -311,7 +354,7 @@ export class FitPlot {
       hoverlabel: { bgcolor: colors.surface, bordercolor: colors.accent, font: { family: colors.font, size: 12, color: colors.text } },
       dragmode: 'zoom',
       xaxis: { anchor: 'y2', range: [x0, x1], ...axisStyle(colors, axisTicks([x0, x1], 's', 'Time', width, 'x'), 6) },
-      yaxis: { domain: MAIN_DOMAIN, range: levels, autorange: false, ...axisStyle(colors, axisTicks(levels, trace.unit, quantityName(trace.unit), mainHeight, 'y'), 4) },
+      yaxis: { domain: mainDomain, range: levels, autorange: false, ...axisStyle(colors, axisTicks(levels, trace.unit, quantityName(trace.unit), mainHeight, 'y'), 4) },
       yaxis2: {
         domain: RESIDUAL_DOMAIN,
         range: residuals,
@@ -321,6 +364,19 @@ export class FitPlot {
         zerolinecolor: colors.axis,
         zerolinewidth: 1,
       },
+      ...(strip
+        ? {
+            yaxis3: {
+              domain: MODES_DOMAIN,
+              range: modeLevels,
+              autorange: false,
+              ...axisStyle(colors, axisTicks(modeLevels, trace.unit, 'Modes', height * (MODES_DOMAIN[1] - MODES_DOMAIN[0]), 'y'), 4),
+              zeroline: true,
+              zerolinecolor: colors.axis,
+              zerolinewidth: 1,
+            },
+          }
+        : {}),
       // The window: a shaded region below the traces and its two edges above them; the step's marks after them.
       shapes: [
         ...(window
@@ -510,6 +566,17 @@ export class FitPlot {
   }
 }
 
+/** The label modeContributions gives the slow term's contribution (drawn dashed, in its own colour). */
+const SLOW_TERM_LABEL = 'slow term';
+
+/**
+ * The fitted model of several modes at each time: the level before t0, the final level plus every mode's
+ * contribution after it (the contributions are zero before t0).
+ */
+function modelOfModes(params: ResponseParams, time: Float64Array, curves: ModeCurve[]): Float64Array {
+  return Float64Array.from(time, (t, i) => (t < params.t0 ? params.yPre : curves.reduce((sum, c) => sum + c.values[i], params.yFinal)));
+}
+
 function keyZoom(direction: 'in' | 'out'): number {
   return direction === 'in' ? 1 / KEY_ZOOM : KEY_ZOOM;
 }
@@ -540,7 +607,7 @@ function edgeLine(x: number, color: string): Record<string, unknown> {
   return { type: 'line', xref: 'x', yref: 'paper', x0: x, x1: x, y0: 0, y1: 1, line: { color, width: 3 }, layer: 'above' };
 }
 
-function line(name: string, x: ArrayLike<number>, y: ArrayLike<number>, color: string, width: number, dash: string, yaxis: 'y' | 'y2'): PlotlyTrace {
+function line(name: string, x: ArrayLike<number>, y: ArrayLike<number>, color: string, width: number, dash: string, yaxis: 'y' | 'y2' | 'y3'): PlotlyTrace {
   return { type: 'scatter', mode: 'lines', name, x, y, yaxis, line: { color, width, dash, simplify: false }, hoverinfo: 'none' };
 }
 

@@ -17,6 +17,9 @@ export interface Palette {
   surface: string;
   accent: string;
   marker: string;
+  /** Each ringing mode's contribution, dominant first, then the slow term's. */
+  modes: string[];
+  slowTerm: string;
   font: string;
 }
 
@@ -35,6 +38,8 @@ export function palette(): Palette {
     surface: themeColor('surface'),
     accent: themeColor('accent'),
     marker: themeColor('plot-marker'),
+    modes: [themeColor('plot-mode-1'), themeColor('plot-mode-2'), themeColor('plot-mode-3')],
+    slowTerm: themeColor('plot-slow-term'),
     font: themeColor('font-sans'),
   };
 }

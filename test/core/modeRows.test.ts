@@ -5,6 +5,8 @@ import { componentModeText, fitResultRows, MODE_RESULT_ROWS, modelOrderText, RES
 import { formatFitText } from '../../core/report/fitText';
 import { renderReportHtml } from '../../core/report/reportHtml';
 import { renderReportMarkdown } from '../../core/report/reportMarkdown';
+import { renderReportCsv } from '../../core/report/reportCsv';
+import { fitCsv } from '../../core/report/fitCsv';
 import { measurementShapeProblem } from '../../core/report/recordShape';
 import type { Json } from '../../core/report/jsonShape';
 import type { FitSummary } from '../../core/report/fitSummary';
@@ -72,8 +74,8 @@ describe('the rows of a fit with several ringing modes', () => {
 
   it('says in one line how many modes and why, and that --modes forced it', () => {
     expect(modelOrderText(twoModes)).toBe('two ringing modes (BIC -1412.4): lower than one mode by 412.0');
-    const forced = { modelOrder: { ...twoModes.modelOrder!, forced: true, reason: 'forced' } };
-    expect(modelOrderText(forced)).toContain('forced by --modes');
+    const forced = { modelOrder: { ...twoModes.modelOrder!, forced: true, reason: 'forced: two ringing modes (lowers the residual by 81 % against one ringing mode)' } };
+    expect(modelOrderText(forced)).toBe('two ringing modes (BIC -1412.4, order forced): lowers the residual by 81 % against one ringing mode');
     expect(modelOrderText(sampleFit())).toBeNull();
     expect(formatFitText(twoModes)).toMatch(/\n {2}order {12}two ringing modes \(BIC/);
   });
@@ -82,6 +84,17 @@ describe('the rows of a fit with several ringing modes', () => {
     const record = sampleRecord({ fit: twoModes });
     expect(renderReportHtml([record], { logPath: '/bench/bench.jsonl', generatedAt: '2025-03-14T12:00:00.000Z', software: { name: 'ringbench', version: '0.1.0' } })).toContain('mode 2 f0');
     expect(renderReportMarkdown([record])).toContain('mode 2 f0');
+  });
+
+  it('has its columns in the report CSV and the copied CSV row, empty where a fit has fewer modes', () => {
+    for (const csv of [renderReportCsv([sampleRecord({ fit: twoModes, note: null }), sampleRecord({ fit: sampleFit(), note: null })]), fitCsv(twoModes)]) {
+      const [header, ...rows] = csv.trim().split('\r\n').map((line) => line.split(','));
+      const cell = (r: number, name: string) => rows[r][header.indexOf(name)];
+      expect(Number(cell(0, 'mode2_f0_hz'))).toBeCloseTo(95e6, 0);
+      expect(Number(cell(0, 'mode1_energy_pct'))).toBe(80);
+      expect(header).toContain('mode3_zeta_stderr');
+      if (rows.length > 1) expect(cell(1, 'mode1_f0_hz')).toBe('');
+    }
   });
 });
 
