@@ -6,7 +6,7 @@ import type { Capture, CaptureOptions, Channel } from '../core/capture/types';
 import { parseStatedUnit } from '../core/units/unitText';
 import { compareCaptures, type ComparisonSide } from '../core/workflow/compare';
 import { checkAgainstDesign, measureCapture, type MeasureResult } from '../core/workflow/measure';
-import { measureParasitics } from '../core/workflow/parasitics';
+import { measureParasitics, type EdgeRequest } from '../core/workflow/parasitics';
 import { applyProbe, type ProbeScaling } from '../core/workflow/probeScaling';
 import { reduceMinMax } from '../core/report/decimate';
 import { modeContributions } from '../core/fit/modeContributions';
@@ -14,7 +14,7 @@ import type { ResponseFit } from '../core/fit/responseFit';
 import { plainMessage } from './plainMessage';
 import { describeCapture, traceData } from './traceData';
 import { unitRefusal } from './unitRefusal';
-import { FILE_UNITS, type CaptureContent, type CaptureFile, type ModeCurve, type OverlayTrace, type StatedUnits, type WorkerAsk, type WorkerReplyValue } from './workerProtocol';
+import { FILE_UNITS, type CaptureContent, type CaptureFile, type ModeCurve, type OverlayTrace, type ParasiticsEdgeAsk, type StatedUnits, type WorkerAsk, type WorkerReplyValue } from './workerProtocol';
 
 export interface HandledReply {
   value: WorkerReplyValue;
@@ -95,8 +95,9 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
       return { value: { type: 'check', verdict, verdictError }, transfer: [] };
     }
     case 'parasitics': {
-      const captures = request.captures.map((c) => ({ ...readSide(c, undefined, progress), addedC: c.addedC }));
-      const result = measureParasitics({ ...request, captures }, progress);
+      const captures = request.captures.map((c) => ({ ...readSide(c, undefined, progress), addedC: c.addedC, derating: c.derating }));
+      const edge = request.edge ? readEdge(request.edge, progress) : undefined;
+      const result = measureParasitics({ ...request, captures, edge }, progress);
       return { value: { type: 'parasitics', result }, transfer: [] };
     }
     case 'compare': {
@@ -133,6 +134,14 @@ function attempt<T>(run: () => T): Attempt<T> {
 /** A capture read from its bytes as written (any encoding the importer knows), or from text main decoded. */
 function readContent(content: CaptureContent, options: CaptureOptions = {}): Capture {
   return content.bytes ? parseCaptureFileBytes(new Uint8Array(content.bytes), options) : parseCapture(content.text, options);
+}
+
+/** The turn-on edge's current and, unless the plateau is given, its switch voltage: two channels of one file. */
+function readEdge(edge: ParasiticsEdgeAsk, progress: (stage: string) => void): EdgeRequest {
+  progress(`reading ${edge.file.name}`);
+  const capture = readContent(edge.file);
+  const voltage = edge.voltageChannel === undefined ? undefined : selectChannel(capture, edge.voltageChannel);
+  return { file: edge.file.name, current: selectChannel(capture, edge.currentChannel), voltage, plateau: edge.plateau };
 }
 
 /** A capture file read for a one-off use case, as the command line reads a file. */

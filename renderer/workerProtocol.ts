@@ -1,6 +1,8 @@
 // Messages between the window and the fit worker: plain data, arrays transferred, never a stack.
 
 import type { ImportSummary } from '../core/capture/importSummary';
+import type { CapacitorDerating } from '../core/circuit/addedCapacitor';
+import type { Quantity } from '../core/quantity';
 import type { Design } from '../core/circuit/design';
 import type { Verdict } from '../core/circuit/verdict';
 import type { FitSummary } from '../core/report/fitSummary';
@@ -85,13 +87,25 @@ export type CaptureFile = { name: string } & CaptureContent;
 
 /** The added-capacitor run as the window asks for it: typed values already read (SI units, relative tolerances). */
 export interface ParasiticsAsk {
-  captures: (CaptureFile & { addedC: number })[];
+  captures: (CaptureFile & { addedC: number; derating?: CapacitorDerating })[];
   addedTolerance: number;
+  dcBias?: CapacitorDerating;
+  switchC?: { value: number; tolerance?: number };
+  /** A turn-on edge to cross-check L_p on: the file, its current channel, and the switch voltage channel or the plateau. */
+  edge?: ParasiticsEdgeAsk;
   probeC?: number;
   probeCTolerance?: number;
   bandwidth?: number;
   voltage?: number;
   switchingFrequency?: number;
+}
+
+export interface ParasiticsEdgeAsk {
+  file: CaptureFile;
+  /** Default: the first channel. */
+  currentChannel?: string | number;
+  voltageChannel?: string | number;
+  plateau?: Quantity;
 }
 
 export type WorkerRequest =
