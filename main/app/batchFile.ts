@@ -6,6 +6,7 @@ import type { BenchRecord } from '../../core/report/benchRecord';
 import type { CautionResult } from '../../core/safety/evaluateCautions';
 import { fitSucceeded, type FitSummary } from '../../core/report/fitSummary';
 import type { Verdict } from '../../core/circuit/verdict';
+import type { SetupCheck } from '../../core/circuit/setupTypes';
 import type { MeasureSettings } from '../../core/workflow/measureSettings';
 import { verdictRefusal } from '../../core/workflow/measure';
 import { createBenchRecord } from './benchLogRecord';
@@ -27,6 +28,8 @@ export interface BatchMeasured {
   summary: FitSummary;
   verdict: Verdict | null;
   cautions: CautionResult;
+  /** Can this capture support the answer (setupChecks.ts): a refusal fails the capture. */
+  setupChecks: SetupCheck[];
   /** Why the design gave this capture no verdict (verdictRefusal), or null: without a design, or with a verdict. */
   noVerdict: string | null;
   /** The record to append to the bench log: only when logging and the fit succeeded. */
@@ -55,7 +58,7 @@ export function measureBatchFile(path: string, file: string, batch: BatchSetting
         ? createBenchRecord(measurement, { unit: basename(file, extname(file)), operator: batch.logging.operator, note: null }, batch.settings)
         : null;
     const noVerdict = batch.design ? verdictRefusal(batch.design.design, summary) : null;
-    return { file, summary, verdict, cautions, noVerdict, record };
+    return { file, summary, verdict, cautions, setupChecks: measurement.setupChecks, noVerdict, record };
   } catch (error) {
     return { file, failure: describeFailure(error) };
   }

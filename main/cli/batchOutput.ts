@@ -12,11 +12,11 @@ function failureMessage({ input, text }: FailureText): string {
   return messageFor(input ? new InputError(text) : new Error(text));
 }
 
-/** One element of `--json`: the fit summary with its file, verdict, noVerdict and cautions; { file, error } for a capture not measured. */
+/** One element of `--json`: the fit summary with its file, verdict, noVerdict, setupChecks and cautions; { file, error } for a capture not measured. */
 export function batchJsonOf(outcome: BatchOutcome): object {
   if (!isMeasured(outcome)) return { file: outcome.file, error: failureMessage(outcome.failure) };
-  const { summary, verdict, cautions, noVerdict, file } = outcome;
-  return { ...summary, file, verdict, ...(noVerdict ? { noVerdict } : {}), cautions };
+  const { summary, verdict, cautions, noVerdict, file, setupChecks } = outcome;
+  return { ...summary, file, verdict, ...(noVerdict ? { noVerdict } : {}), setupChecks, cautions };
 }
 
 /** One line of `--jsonl`: as `--json`'s element; a capture not measured is { file, status: 'error', message }. */
@@ -47,5 +47,7 @@ export function formatBatchTable(outcomes: readonly BatchOutcome[]): string {
   const line = (cells: string[]) => (cells.length === 2 ? cells.join('  ') : cells.map((cell, c) => cell.padEnd(widths[c])).join('  ').trimEnd());
   // Why a file got no verdict, one line each below the table (a reason is too long for a column).
   const refusals = outcomes.flatMap((o) => (isMeasured(o) && o.noVerdict ? [`${escapeControls(o.file)}: no verdict: ${o.noVerdict}`] : []));
-  return [line(header), ...rows.map(line), ...refusals].map((l) => `${l}\n`).join('');
+  // A setup check's refusal (the capture cannot support the answer), one line each below the table too.
+  const setupRefusals = outcomes.flatMap((o) => (isMeasured(o) ? o.setupChecks.filter((c) => c.level === 'refusal').map((c) => `${escapeControls(o.file)}: setup refused: ${c.message}`) : []));
+  return [line(header), ...rows.map(line), ...refusals, ...setupRefusals].map((l) => `${l}\n`).join('');
 }

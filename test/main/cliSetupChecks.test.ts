@@ -110,3 +110,19 @@ describe('check: setup checks', () => {
     expect((JSON.parse(out.out).setupChecks as SetupCheck[]).some((c) => c.id === 'sustained-oscillation' && c.level === 'refusal')).toBe(true);
   });
 });
+
+describe('batch: setup checks', () => {
+  it('takes the options for every capture, carries setupChecks in --json, and a refusal fails the batch (exit 1)', async () => {
+    const sub = mkdtempSync(path.join(folder, 'batch-'));
+    copyFileSync(SAMPLE, path.join(sub, 'switch-node-before.csv'));
+    writeRing(path.join(sub, 'tone.csv'), 0);
+    const json = await run(['batch', path.basename(sub), '--jobs', '1', '--scope-bandwidth', '500M', '--json']);
+    expect(json.code).toBe(1);
+    const byFile = Object.fromEntries((JSON.parse(json.out) as { file: string; setupChecks: SetupCheck[] }[]).map((o) => [o.file, o.setupChecks.map((c) => [c.id, c.level])]));
+    expect(byFile['switch-node-before.csv']).toEqual([['bandwidth', 'warning']]);
+    expect(byFile['tone.csv']).toContainEqual(['sustained-oscillation', 'refusal']);
+    const table = await run(['batch', path.basename(sub), '--jobs', '1']);
+    expect(table.code).toBe(1);
+    expect(table.out).toMatch(/^tone\.csv: setup refused: the 2 MHz ring .* sustained oscillation/m);
+  });
+});

@@ -6,7 +6,7 @@ import type { Command } from 'commander';
 import { join, resolve } from 'node:path';
 import type { CommandContext } from '../commandContext';
 import type { LogAddOptions } from './log';
-import { addCaptureOptions, addComponentOptions, addModeOptions, measureSettingsOf } from '../measureOptions';
+import { addSetupOptions, addCaptureOptions, addComponentOptions, addModeOptions, measureSettingsOf } from '../measureOptions';
 import { appendBenchLog, requireLogFolder } from '../../io/benchLog';
 import { loadDesignFile } from '../../app/measureFile';
 import { isMeasured, type BatchOutcome } from '../../app/batchFile';
@@ -16,6 +16,7 @@ import { fitSucceeded } from '../../../core/report/fitSummary';
 import { parseMeasureSettings } from '../../../core/workflow/measureSettings';
 import { describeFailure, UsageError } from '../../../core/inputError';
 import { EXIT } from '../errors';
+import { setupRefused } from '../../../core/workflow/setupChecks';
 import { FileError } from '../../io/fileError';
 import { parseJobs, parseShard } from '../batchOptions';
 import { startProgress } from '../batchProgress';
@@ -29,7 +30,7 @@ export function registerBatchCommand(program: Command, ctx: CommandContext): voi
     .description('fit every capture (*.csv, *.txt, *.dat) of a folder; exit 1 when a file could not be read, its fit failed or it got no verdict against the design, 3 when a unit was out of tolerance')
     .argument('<dir>', 'folder of capture files')
     .option('--design <file>', 'design file to check every unit against (instead of --topology/--known)');
-  addModeOptions(addCaptureOptions(addComponentOptions(command)))
+  addModeOptions(addSetupOptions(addCaptureOptions(addComponentOptions(command))))
     .option('--log <path>', 'append each converged result to this bench log as it finishes, the unit id taken from the file name')
     .option('--operator <name>', 'who measured (with --log)')
     .option('--jobs <n>', 'captures fitted at once, each on its own thread (default: one per core; 1: no threads)')
@@ -75,7 +76,7 @@ export function registerBatchCommand(program: Command, ctx: CommandContext): voi
       );
 
       if (!options.jsonl) ctx.io.out(options.json ? `${JSON.stringify(outcomes.map(batchJsonOf))}\n` : formatBatchTable(outcomes));
-      const failed = outcomes.some((o) => !isMeasured(o) || !fitSucceeded(o.summary) || o.noVerdict);
+      const failed = outcomes.some((o) => !isMeasured(o) || !fitSucceeded(o.summary) || o.noVerdict || setupRefused(o.setupChecks));
       const outOfTolerance = outcomes.some((o) => isMeasured(o) && o.verdict && !o.verdict.pass);
       ctx.setExitCode(failed ? EXIT.failure : outOfTolerance ? EXIT.outOfTolerance : EXIT.ok);
     });
