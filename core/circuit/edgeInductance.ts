@@ -41,8 +41,8 @@ export interface InductanceCrossCheck {
   coverageFactor: number;
 }
 
-/** Fewer samples than this between the 10 % and 90 % instants leave the slope to the interpolation: refused. */
-const MIN_EDGE_SAMPLES = 4;
+/** Fewer samples than this between the 10 % and 90 % instants leave too little to fit: refused. */
+const MIN_EDGE_SAMPLES = 6;
 /** Samples of the voltage before the edge needed for its level. */
 const MIN_LEVEL_SAMPLES = 8;
 /** The current step and the voltage drop must stand this many noise levels (of their means) out. */
@@ -51,16 +51,20 @@ const SIGNAL_SIGMAS = 5;
 const MAX_DROP_FRACTION = 0.9;
 /** GUM (JCGM 100:2008) 6.2-6.3: expanded uncertainty U = k u_c, k = 2 for about 95 % coverage. */
 export const COVERAGE_FACTOR = 2;
-/** The 10-90 % slope spans 80 % of the step. */
-const SPAN = 0.8;
+/**
+ * The instants are found on the current averaged over this fraction of the rise: on the raw samples noise makes the
+ * last 10 % crossing late and the first 90 % crossing early, and the samples at the window's ends noise-selected.
+ */
+const SMOOTHING_FRACTION = 1 / 8;
 
 /**
- * L = V_L / (di/dt) (v = L di/dt). di/dt is the 10-90 % slope of the current, 0.8 x step / (t90 - t10), with the
- * instants and state levels of IEEE Std 181 (histogram mode: transitionMetrics); V_L is the mean drop of the switch
- * voltage below its level before the edge over [t10, t90], or the plateau given. The mean drop times the interval over
- * the current change is the volt-seconds over the ampere change, exact for a constant L whatever the edge's shape
- * (derived). Uncertainty is first order: the noise of each record (first differences), the crossing instants
- * (noise over the local slope, and the sample interval as a rectangular interpolation error) and the level means.
+ * L from a turn-on edge (v = L di/dt). The interval is the current's rise from 10 % to 90 % of its step (IEEE Std 181
+ * reference levels on the histogram-mode state levels, the instants found on the current averaged over an eighth of
+ * the rise). With the switch voltage, V_L(t) is its drop below the level before the edge and i(t) - i(t10) =
+ * (1 / L) x the integral of V_L from t10: the raw current is fitted by least squares against those volt-seconds, which
+ * holds whatever the edge's shape (derived); di/dt is then the mean V_L over L. With the plateau given, di/dt is the
+ * slope of a line fitted to the current over the interval. Uncertainties: the fits' residual scatter (widened for
+ * correlated residuals, AR(1) effective sample size: common practice) and the level before the edge.
  * An edge that cannot give a slope throws CircuitInputError naming 'current', 'voltage' or 'plateau'.
  */
 export function inductanceFromEdge(input: EdgeInductanceInput): EdgeInductance {
@@ -70,19 +74,15 @@ export function inductanceFromEdge(input: EdgeInductanceInput): EdgeInductance {
     throw new CircuitInputError('plateau', 'give either the voltage capture or the plateau voltage, not both and not neither');
   }
   const edge = currentEdge(current);
-  const T = edge.t90 - edge.t10;
-  const uT = Math.hypot(edge.u10, edge.u90);
-  const didtValue = (SPAN * Math.abs(edge.step)) / T;
-  const didt = quantity(didtValue, didtValue * Math.hypot(edge.uStep / Math.abs(edge.step), uT / T), 'A/s');
-  const plateau = input.voltage ? voltageDrop(input.voltage, edge) : givenPlateau(input.plateau as Quantity);
-  const lValue = plateau.value / didt.value;
-  const L = quantity(lValue, lValue * Math.hypot((plateau.stderr ?? 0) / plateau.value, (didt.stderr ?? 0) / didt.value), 'H');
+  const fitted = input.voltage ? fitAgainstVoltSeconds(current, input.voltage, edge) : fitGivenPlateau(current, givenPlateau(input.plateau as Quantity), edge);
   const notes = [
-    'L from the edge = V_L / (di/dt) (v = L di/dt): di/dt is the 10-90 % slope of the current (IEEE 181 reference levels), V_L ' +
-      (input.voltage ? 'the mean drop of the switch voltage below its level before the edge over the same interval.' : 'the plateau voltage given.'),
+    input.voltage
+      ? 'L from the edge: the current over its 10-90 % rise (IEEE 181 reference levels) fitted against the volt-seconds of the switch voltage\'s drop ' +
+        '(i - i(t10) = (1 / L) x integral of V_L dt, from v = L di/dt); di/dt shown is the mean drop V_L over L.'
+      : 'L from the edge = V_L / (di/dt) (v = L di/dt): di/dt is the slope of a line fitted to the current over its 10-90 % rise (IEEE 181 reference levels), V_L the plateau given.',
     'the voltage and current probes must be deskewed against each other: a delay between them moves the interval the drop is read over (common practice).',
   ];
-  return { L, didt, plateau, plateauSource: input.voltage ? 'voltage capture' : 'given', edge: { t10: edge.t10, t90: edge.t90, step: edge.step }, notes };
+  return { ...fitted, plateauSource: input.voltage ? 'voltage capture' : 'given', edge: { t10: edge.t10, t90: edge.t90, step: edge.step }, notes };
 }
 
 /** L from the edge against L_p from the ring, within COVERAGE_FACTOR combined standard uncertainties. */
@@ -107,68 +107,57 @@ export function crossCheckLine(edgeL: Quantity, check: Omit<InductanceCrossCheck
 interface CurrentEdge {
   t10: number;
   t90: number;
-  u10: number;
-  u90: number;
   step: number;
-  uStep: number;
+  /** Indices of the current samples inside [t10, t90]. */
+  from: number;
+  to: number;
 }
 
 function currentEdge(current: EdgeTrace): CurrentEdge {
   const { time, values } = current;
-  const metrics = transitionMetrics(time, values);
-  const step = metrics.amplitude;
+  const rough = transitionMetrics(time, values);
+  const step = rough.amplitude;
   const noise = estimateNoise(values);
-  const { t10, t90 } = metrics.instants;
-  if (!(Math.abs(step) > SIGNAL_SIGMAS * noise) || t10 === null || t90 === null) {
+  const complete = (m: typeof rough) => m.instants.t10 !== null && m.instants.t90 !== null;
+  if (!(Math.abs(step) > SIGNAL_SIGMAS * noise) || !complete(rough)) {
     throw new CircuitInputError('current', 'no complete edge: the current does not step clearly between two levels, crossing 10 % and 90 % of its step');
   }
-  const inside = countBetween(time, t10, t90);
-  if (inside < MIN_EDGE_SAMPLES) {
-    throw new CircuitInputError('current', `the rise spans only ${inside} sample(s) between 10 % and 90 %; di/dt needs at least ${MIN_EDGE_SAMPLES}: sample faster`);
+  const roughInside = countBetween(time, rough.instants.t10 as number, rough.instants.t90 as number);
+  const smoothed = movingAverage(values, Math.floor((roughInside * SMOOTHING_FRACTION) / 2));
+  const m = transitionMetrics(time, smoothed, { initial: rough.levels.initial, final: rough.levels.final, method: 'given' });
+  if (!complete(m)) throw new CircuitInputError('current', 'no complete edge once the noise is averaged: the current does not cross 10 % and 90 % of its step');
+  const t10 = m.instants.t10 as number;
+  const t90 = m.instants.t90 as number;
+  const from = upperIndex(time, t10);
+  const to = upperIndex(time, t90);
+  if (to - from < MIN_EDGE_SAMPLES) {
+    throw new CircuitInputError('current', `the rise spans only ${to - from} sample(s) between 10 % and 90 %; di/dt needs at least ${MIN_EDGE_SAMPLES}: sample faster`);
   }
-  const before = countBetween(time, -Infinity, t10);
-  const after = countBetween(time, t90, Infinity);
-  const uStep = Math.hypot(noise / Math.sqrt(Math.max(1, before)), noise / Math.sqrt(Math.max(1, after)));
-  return { t10, t90, u10: crossingUncertainty(time, values, t10, noise), u90: crossingUncertainty(time, values, t90, noise), step, uStep };
+  return { t10, t90, step, from, to };
 }
 
-/** Noise over the local slope, and the sample interval as a rectangular interpolation error (GUM 4.3.7). */
-function crossingUncertainty(time: ArrayLike<number>, values: ArrayLike<number>, t: number, noise: number): number {
-  const k = Math.max(0, Math.min(time.length - 2, upperIndex(time, t) - 1));
-  const dt = time[k + 1] - time[k];
-  const slope = Math.abs((values[k + 1] - values[k]) / dt);
-  return Math.hypot(slope > 0 ? noise / slope : dt, dt / Math.sqrt(12));
-}
-
-/** The drop of the switch voltage below its level before the edge, averaged over [t10, t90]. */
-function voltageDrop(voltage: EdgeTrace, edge: CurrentEdge): Quantity {
+/** The current against the volt-seconds of the drop: slope 1 / L (least squares, the current's noise in y). */
+function fitAgainstVoltSeconds(current: EdgeTrace, voltage: EdgeTrace, edge: CurrentEdge): Pick<EdgeInductance, 'L' | 'didt' | 'plateau'> {
   checkTrace('voltage', voltage);
   const { time, values } = voltage;
-  const T = edge.t90 - edge.t10;
   if (time[0] > edge.t10 || time[time.length - 1] < edge.t90) {
     throw new CircuitInputError('voltage', 'the voltage capture does not cover the current\'s rise (the two records must share one time axis)');
   }
-  const noise = estimateNoise(values);
+  const T = edge.t90 - edge.t10;
   // The level before the edge, one rise time clear of it.
   const headEnd = countBetween(time, -Infinity, edge.t10 - T);
   if (headEnd < MIN_LEVEL_SAMPLES) {
     throw new CircuitInputError('voltage', `only ${headEnd} sample(s) before the edge: its level needs at least ${MIN_LEVEL_SAMPLES}`);
   }
-  let sum = 0;
-  for (let i = 0; i < headEnd; i++) sum += values[i];
-  const before = sum / headEnd;
+  const head = headNoise(values, headEnd);
+  const before = head.mean;
   const swing = before - transitionMetrics(time, values).levels.final;
   const direction = Math.sign(swing) || 1;
-  const drop = (t: number) => direction * (before - interpolate(time, values, t));
   const meanDrop = direction * (before - meanOver(time, values, edge.t10, edge.t90));
-  const inside = Math.max(1, countBetween(time, edge.t10, edge.t90));
-  const u = Math.hypot(
-    noise / Math.sqrt(headEnd),
-    noise / Math.sqrt(inside),
-    ((drop(edge.t10) - meanDrop) * edge.u10) / T,
-    ((drop(edge.t90) - meanDrop) * edge.u90) / T,
-  );
-  if (!(meanDrop > SIGNAL_SIGMAS * u)) {
+  // The head's noise, correlated as it is, on the mean of the head and on the mean over the rise.
+  const uMean = (n: number) => (head.sd / Math.sqrt(Math.max(1, n))) * head.correlationFactor;
+  const uDrop = Math.hypot(uMean(headEnd), uMean(countBetween(time, edge.t10, edge.t90)));
+  if (!(meanDrop > SIGNAL_SIGMAS * uDrop)) {
     throw new CircuitInputError('voltage', `the switch voltage does not drop clearly while the current rises (${formatEngineering(meanDrop, 'V')}): no L di/dt to read`);
   }
   if (meanDrop > MAX_DROP_FRACTION * Math.abs(swing)) {
@@ -177,7 +166,104 @@ function voltageDrop(voltage: EdgeTrace, edge: CurrentEdge): Quantity {
       'the switch voltage has all but finished its fall while the current rises: the drop is not L di/dt alone (soft switching, or the probes are skewed)',
     );
   }
-  return quantity(meanDrop, u, 'V');
+  // Volt-seconds of the drop from t10 to each current sample, built up sample interval by sample interval.
+  const dropArea = (a: number, b: number) => direction * (before - meanOver(time, values, a, b)) * (b - a);
+  const x: number[] = [];
+  const y: number[] = [];
+  let area = 0;
+  let last = edge.t10;
+  for (let k = edge.from; k < edge.to; k++) {
+    const t = current.time[k];
+    area += dropArea(last, t);
+    last = t;
+    x.push(area);
+    y.push(Math.sign(edge.step) * current.values[k]);
+  }
+  const line = fitStraightLine(x, y);
+  if (!(line.slope > 0)) throw new CircuitInputError('voltage', 'the current does not rise with the volt-seconds of the drop: no L to read');
+  const lValue = 1 / line.slope;
+  // The level before the edge shifts every drop alike, and the voltage's noise the volt-seconds: L moves with the mean drop.
+  const uL = lValue * Math.hypot(line.slopeStderr / line.slope, uDrop / meanDrop);
+  const L = quantity(lValue, uL, 'H');
+  const didtValue = meanDrop / lValue;
+  return { L, didt: quantity(didtValue, didtValue * (line.slopeStderr / line.slope), 'A/s'), plateau: quantity(meanDrop, uDrop, 'V') };
+}
+
+/** di/dt as the slope of a line through the current over [t10, t90]; L = V_L / (di/dt). */
+function fitGivenPlateau(current: EdgeTrace, plateau: Quantity, edge: CurrentEdge): Pick<EdgeInductance, 'L' | 'didt' | 'plateau'> {
+  const x: number[] = [];
+  const y: number[] = [];
+  for (let k = edge.from; k < edge.to; k++) {
+    x.push(current.time[k] - edge.t10);
+    y.push(Math.sign(edge.step) * current.values[k]);
+  }
+  const line = fitStraightLine(x, y);
+  if (!(line.slope > 0)) throw new CircuitInputError('current', 'the current does not rise over its 10-90 % interval');
+  const didt = quantity(line.slope, line.slopeStderr, 'A/s');
+  const lValue = plateau.value / line.slope;
+  const L = quantity(lValue, lValue * Math.hypot((plateau.stderr ?? 0) / plateau.value, line.slopeStderr / line.slope), 'H');
+  return { L, didt, plateau };
+}
+
+/**
+ * Ordinary least squares y = a + b x with the slope's standard error from the residual scatter, widened by
+ * sqrt((1 + rho) / (1 - rho)) for a positive lag-1 autocorrelation rho of the residuals (AR(1) effective sample size,
+ * common practice).
+ */
+function fitStraightLine(x: number[], y: number[]): { slope: number; slopeStderr: number } {
+  const n = x.length;
+  const mx = x.reduce((a, b) => a + b, 0) / n;
+  const my = y.reduce((a, b) => a + b, 0) / n;
+  let sxx = 0;
+  let sxy = 0;
+  for (let i = 0; i < n; i++) {
+    sxx += (x[i] - mx) ** 2;
+    sxy += (x[i] - mx) * (y[i] - my);
+  }
+  const slope = sxy / sxx;
+  const r = x.map((xi, i) => y[i] - my - slope * (xi - mx));
+  const ss = r.reduce((a, v) => a + v * v, 0);
+  let lag = 0;
+  for (let i = 1; i < n; i++) lag += r[i] * r[i - 1];
+  const rho = ss > 0 ? Math.max(0, Math.min(0.95, lag / ss)) : 0;
+  const slopeStderr = Math.sqrt(ss / (n - 2) / sxx) * Math.sqrt((1 + rho) / (1 - rho));
+  return { slope, slopeStderr };
+}
+
+/**
+ * Mean, standard deviation and the AR(1) widening sqrt((1 + rho) / (1 - rho)) of a mean (common practice) of the
+ * first n samples: the noise as the record shows it before the edge, band limit included.
+ */
+function headNoise(values: ArrayLike<number>, n: number): { mean: number; sd: number; correlationFactor: number } {
+  let sum = 0;
+  for (let i = 0; i < n; i++) sum += values[i];
+  const mean = sum / n;
+  let ss = 0;
+  let lag = 0;
+  for (let i = 0; i < n; i++) {
+    ss += (values[i] - mean) ** 2;
+    if (i > 0) lag += (values[i] - mean) * (values[i - 1] - mean);
+  }
+  const rho = ss > 0 ? Math.max(0, Math.min(0.95, lag / ss)) : 0;
+  return { mean, sd: Math.sqrt(ss / Math.max(1, n - 1)), correlationFactor: Math.sqrt((1 + rho) / (1 - rho)) };
+}
+
+/** Centred moving average over 2 half + 1 samples (fewer at the ends). */
+function movingAverage(values: ArrayLike<number>, half: number): Float64Array {
+  const n = values.length;
+  const out = new Float64Array(n);
+  if (half < 1) {
+    for (let i = 0; i < n; i++) out[i] = values[i];
+    return out;
+  }
+  const prefix = new Float64Array(n + 1);
+  for (let i = 0; i < n; i++) prefix[i + 1] = prefix[i] + values[i];
+  for (let i = 0; i < n; i++) {
+    const a = Math.max(0, i - half);
+    const b = Math.min(n, i + half + 1);
+    out[i] = (prefix[b] - prefix[a]) / (b - a);
+  }
+  return out;
 }
 
 function givenPlateau(plateau: Quantity): Quantity {

@@ -6,7 +6,7 @@ export interface TurnOnEdge {
   time: Float64Array;
   current: Float64Array;
   voltage: Float64Array;
-  /** The drop while the current rises, V: L x step / rise time. */
+  /** The drop while a ramp rises, V: L x step / rise time (the mean drop of a raised-cosine rise differs). */
   drop: number;
 }
 
@@ -22,10 +22,12 @@ export interface TurnOnEdgeSpec {
   samples?: number;
   currentNoise?: number;
   voltageNoise?: number;
+  /** 'ramp': a straight rise, the drop flat; 'raised-cosine': an S-shaped rise, the drop L di/dt a half sine. Default 'ramp'. */
+  shape?: 'ramp' | 'raised-cosine';
 }
 
 export function turnOnEdge(spec: TurnOnEdgeSpec): TurnOnEdge {
-  const { L, seed, bus = 48, step = 20, rise = 30e-9, dt = 0.5e-9, samples = 800, currentNoise = 0.05, voltageNoise = 0.2 } = spec;
+  const { L, seed, bus = 48, step = 20, rise = 30e-9, dt = 0.5e-9, samples = 800, currentNoise = 0.05, voltageNoise = 0.2, shape = 'ramp' } = spec;
   const random = createRandom(seed);
   const start = 0.375 * samples * dt;
   const fall = 10e-9;
@@ -37,10 +39,13 @@ export function turnOnEdge(spec: TurnOnEdgeSpec): TurnOnEdge {
     const t = i * dt;
     time[i] = t;
     const into = t - start;
-    const ramp = Math.min(1, Math.max(0, into / rise));
-    current[i] = step * ramp + currentNoise * random.normal();
-    const plateau = bus - drop;
-    const v = into < 0 ? bus : into < rise ? plateau : Math.max(0, plateau * (1 - (into - rise) / fall));
+    const phase = Math.min(1, Math.max(0, into / rise));
+    const smooth = shape === 'raised-cosine';
+    current[i] = step * (smooth ? (1 - Math.cos(Math.PI * phase)) / 2 : phase) + currentNoise * random.normal();
+    // v = L di/dt below the bus while the current rises.
+    const rising = smooth ? bus - L * step * (Math.PI / (2 * rise)) * Math.sin(Math.PI * phase) : bus - drop;
+    const atEnd = smooth ? bus : bus - drop;
+    const v = into < 0 ? bus : into < rise ? rising : Math.max(0, atEnd * (1 - (into - rise) / fall));
     voltage[i] = v + voltageNoise * random.normal();
   }
   return { time, current, voltage, drop };
