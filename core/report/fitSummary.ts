@@ -55,8 +55,10 @@ export interface FitSummary {
   window: { start: number; end: number };
   decimation: ResponseFit['decimation'];
   correlation: ResponseFit['correlation'];
-  /** The fitted model itself, for drawing it again. */
+  /** The fitted model itself, for drawing it again (with several modes or a slow term, its t0 and levels; see modeTerms). */
   params: ResponseParams;
+  /** The terms of a model with several modes or a slow term, to draw it again whole (fittedModel.ts); absent when params is the model. */
+  modeTerms?: ResponseFit['modeTerms'];
   warnings: string[];
   /** Rise time, overshoot, peak and settling times of a step, from the samples and from the fitted model. */
   transitions?: TransitionSummary;
@@ -112,6 +114,7 @@ export function summarizeFit(
   summary.modes = fit.modes;
   if (fit.slowTerm) summary.slowTerm = fit.slowTerm;
   summary.modelOrder = fit.modelOrder;
+  if (fit.modeTerms) summary.modeTerms = fit.modeTerms;
   if (components) summary.components = components;
   return summary;
 }

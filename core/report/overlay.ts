@@ -4,6 +4,7 @@ import { evaluateResponse } from '../response/secondOrder';
 import { predictResponse, probeUnit, toleranceBand } from '../circuit/predict';
 import type { BenchRecord } from './benchRecord';
 import { decimateMinMax } from './decimate';
+import { fittedModel } from './fittedModel';
 import { plotColumns, renderOverlayPlot, type OverlayPlotInput } from './svgPlot';
 
 /** The samples of a capture channel as reloaded for a report (SI units). */
@@ -18,7 +19,7 @@ export const PLOT_SIZE = { width: 880, height: 320 } as const;
 
 /**
  * The SVG plot and notes about what could not be drawn. The plot spans the fit window with some
- * context before it. The fitted curve is redrawn from the logged alpha, omega0 and t0 (fittedCurve.ts).
+ * context before it. The fitted curve is redrawn from the logged model: one ring's params, or every mode's terms (fittedModel.ts).
  */
 export function renderMeasurementPlot(record: BenchRecord, trace: ReportTrace, id: string): { svg: string; notes: string[] } {
   const notes: string[] = [];
@@ -66,7 +67,7 @@ function fittedCurve(record: BenchRecord, xRange: [number, number], points: numb
   const end = Math.min(xRange[1], window.end);
   if (!(end > start)) return null;
   const x = grid(start, end, points);
-  return { x, y: evaluateResponse(params, x) };
+  return { x, y: fittedModel(record.fit, x) };
 }
 
 function grid(start: number, end: number, count: number): Float64Array {

@@ -124,6 +124,14 @@ function modesProblem(value: Json): string | null {
     );
     if (row >= 0) return `modelOrder.table[${row}] must give model, ringingModes, slowTerm, parameters, sse, criterion and chosen`;
   }
+  const terms = value.modeTerms;
+  if (terms !== undefined) {
+    const ringOk = (r: unknown) => isObject(r) && ['alpha', 'omega0', 'a', 'b'].every((k) => isNumberOrNull(r[k]));
+    const slowOk = (s: unknown) => s === null || (isObject(s) && isNumberOrNull(s.rate) && isNumberOrNull(s.amplitude));
+    if (!(isObject(terms) && Array.isArray(terms.rings) && terms.rings.every(ringOk) && slowOk(terms.slow))) {
+      return 'modeTerms must give rings (alpha, omega0, a, b) and slow (rate, amplitude) or null';
+    }
+  }
   const mode = isObject(value.components) ? value.components.mode : undefined;
   if (mode !== undefined && !(isObject(mode) && isCount(mode.index) && isCount(mode.of) && isQuantity(mode.f0))) return 'components.mode must give index, of and f0';
   return null;

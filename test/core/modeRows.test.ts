@@ -12,6 +12,7 @@ import type { Json } from '../../core/report/jsonShape';
 import type { FitSummary } from '../../core/report/fitSummary';
 import type { ResponseMode } from '../../core/fit/responseFit';
 import { deriveComponents } from '../../core/workflow/measuredComponents';
+import { fittedModel } from '../../core/report/fittedModel';
 import { UsageError } from '../../core/inputError';
 import { sampleFit, sampleRecord } from '../fixtures/benchLog/sampleRecord';
 
@@ -119,6 +120,19 @@ describe('R, L and C with several modes', () => {
   });
 });
 
+describe('the fitted model of several modes, as the report redraws it', () => {
+  it('is the final level plus each ring from t0, the level before it; one ring is its params', () => {
+    const params = { t0: 0, yPre: 0, yFinal: 0.5, alpha: 1e6, omega0: 2e7, a: 3, b: 0 };
+    const modeTerms = { rings: [{ alpha: 1e6, omega0: 2e7, a: 3, b: 0 }, { alpha: 4e6, omega0: 9e7, a: 1, b: 0 }], slow: null };
+    const times = Float64Array.from([-1e-7, 0, 5e-8, 2e-7]);
+    const y = fittedModel({ params, modeTerms }, times);
+    // Each ring a e^(-alpha t) cos(omega_d t), omega_d = sqrt(omega0^2 - alpha^2) (b = 0: the slope term is absent).
+    const ring = (r: { alpha: number; omega0: number; a: number }, t: number) => r.a * Math.exp(-r.alpha * t) * Math.cos(Math.sqrt(r.omega0 ** 2 - r.alpha ** 2) * t);
+    times.forEach((t, i) => expect(y[i]).toBeCloseTo(t < 0 ? 0 : 0.5 + ring(modeTerms.rings[0], t) + ring(modeTerms.rings[1], t), 9));
+    expect(fittedModel({ params }, times)[2]).toBeCloseTo(0.5 + ring(modeTerms.rings[0], 5e-8), 9);
+  });
+});
+
 describe('a logged record with modes', () => {
   const check = (fit: FitSummary) => measurementShapeProblem(JSON.parse(JSON.stringify(sampleRecord({ fit }))) as Json);
 
@@ -126,5 +140,7 @@ describe('a logged record with modes', () => {
     expect(check({ ...twoModes, components: deriveComponents(twoModes, { topology: 'series', known: { name: 'C', value: 1e-9 } }, 2) })).toBeNull();
     expect(check({ ...twoModes, modes: [{ ...second, zeta: 0.03 } as never] })).toEqual({ field: 'fit', problem: expect.stringContaining('modes[0] must give') });
     expect(check({ ...twoModes, modelOrder: { ...twoModes.modelOrder!, table: [{ model: 'x' } as never] } })?.problem).toContain('modelOrder.table[0]');
+    expect(check({ ...twoModes, modeTerms: { rings: [{ alpha: 1, omega0: 2, a: 3, b: 4 }], slow: null } })).toBeNull();
+    expect(check({ ...twoModes, modeTerms: { rings: [{ alpha: 'fast' }], slow: null } as never })?.problem).toContain('modeTerms must give');
   });
 });
