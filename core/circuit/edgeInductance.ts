@@ -22,7 +22,7 @@ export interface EdgeInductanceInput {
 
 export interface EdgeInductance {
   L: Quantity;
-  /** Mean slope of the current between its 10 % and 90 % instants, A/s (magnitude). */
+  /** Slope of the current over its 10-90 % rise, A/s (magnitude): the line's, or with the switch voltage the mean drop over L. */
   didt: Quantity;
   /** Mean voltage across the loop inductance over the same interval, V. */
   plateau: Quantity;

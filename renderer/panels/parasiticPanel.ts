@@ -138,7 +138,7 @@ export function createParasiticPanel(actions: BenchActions, drawLine: Capacitanc
       h('div', { class: 'grid-2' }, field('Probe C (F)', probe, 'in parallel in every capture'), field('Probe C tolerance', probeTol, TOLERANCE_HINT)),
       h('div', { class: 'grid-2' }, field('DC-bias factor', dcBias, 'class-II ceramics: C at the operating voltage / nominal, for every part without its own derating'), field('Derating tolerance', deratingTol, 'of the factors; needed with any below 1')),
       field('Switch Coss at the operating voltage (F)', switchC, 'small-signal value, split off C_p; not Co(tr) or Co(er)'),
-      h('p', { class: 'field-hint' }, 'Cross-check L_p on a turn-on edge (optional): L = V_L / (di/dt), di/dt the 10–90 % slope of the current.'),
+      h('p', { class: 'field-hint' }, 'Cross-check L_p on a turn-on edge (optional): L = V_L / (di/dt) over the current’s 10–90 % rise.'),
       h('div', { class: 'row-head' }, edgeName, chooseEdge, clearEdge),
       h('div', { class: 'grid-3' }, field('Current channel', edgeCurrent), field('Switch voltage channel', edgeVoltage), field('or plateau V_L (V)', plateau)),
       h('div', { class: 'grid-2' }, field('Snubber voltage swing (V)', voltage, 'optional, for the dissipation'), field('Switching frequency (Hz)', switching)),
@@ -264,7 +264,7 @@ function edgeCheckView(check: EdgeCrossCheck, ringL: Quantity): HTMLElement {
       h(
         'tbody',
         {},
-        quantityRow('didt', `di/dt${SYMBOL_GAP}`, '10–90 % slope of the current', check.didt),
+        quantityRow('didt', `di/dt${SYMBOL_GAP}`, check.plateauSource === 'given' ? 'line through the 10–90 % rise' : 'mean over the 10–90 % rise', check.didt),
         quantityRow('VL', 'V_L', check.plateauSource === 'given' ? 'plateau given' : 'mean drop of the switch voltage', check.plateau),
         quantityRow('Ledge', 'L', 'V_L / (di/dt)', check.L),
       ),
