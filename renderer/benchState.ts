@@ -1,5 +1,6 @@
 // What the window shows at any moment: one plain object, re-rendered by every panel after each change.
 
+import type { SetupCheck } from '../core/circuit/setupTypes';
 import type { ResponseFit } from '../core/fit/fitResponse';
 import type { FitSummary } from '../core/report/fitSummary';
 import type { Design } from '../core/circuit/design';
@@ -90,6 +91,8 @@ export interface BenchState {
   verdict: Verdict | null;
   verdictError: string | null;
   cautions: CautionResult | null;
+  /** Can this capture support the answer (setupChecks.ts), from the last measurement; empty without one. */
+  setupChecks: SetupCheck[];
   extraction: ParasiticsResult | null;
   extractionError: string | null;
   /** The probe capacitance the extraction was run with, F: its line of 1/f0² against the added C is offset by it. */
@@ -137,6 +140,7 @@ export function initialState(face: 'window' | 'browser'): BenchState {
     verdict: null,
     verdictError: null,
     cautions: null,
+    setupChecks: [],
     extraction: null,
     extractionError: null,
     extractionProbeC: 0,

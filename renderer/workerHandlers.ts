@@ -68,6 +68,7 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
           channel,
           captureWarnings: capture.warnings,
           importSummary: capture.importSummary,
+          metadata: capture.metadata,
           window: request.window,
           knownPart: request.knownPart,
           design: request.design,

@@ -76,6 +76,7 @@ export async function measure(ctx: ActionContext): Promise<void> {
     s.componentsError ??= componentsError;
     s.verdict = result?.verdict ?? null;
     s.verdictError = verdictError;
+    s.setupChecks = result?.setupChecks ?? [];
     if (result) s.cautions = result.cautions;
     else reweighCautions(s);
   });

@@ -9,6 +9,7 @@ import type { BenchState } from '../benchState';
 import { fitStanding } from '../fitStanding';
 import { eventsView } from './eventsView';
 import { modesView } from './modesView';
+import { setupChecksView } from './setupChecksView';
 import { transitionView } from './transitionView';
 import type { BenchActions } from '../actions';
 
@@ -65,8 +66,9 @@ export function createFitPanel(actions: BenchActions) {
   const steps = h('div', { id: 'transitions' });
   const eventList = h('div', { id: 'events' });
   const modeList = h('div', { id: 'modes-section' });
+  const setupList = h('div', { id: 'setup-checks' });
   const modeChoices = { setModes: (modes: number | null) => void actions.setModes(modes), chooseMode: (mode: number) => void actions.chooseMode(mode) };
-  body.append(status, table, copyRow, modeList, eventList, steps, h('h3', {}, 'Fit window'), h('p', { class: 'field-hint' }, 'Drag the edges of the shaded region on the plot, or type the times.'), windowRow, windowNote, extra);
+  body.append(status, setupList, table, copyRow, modeList, eventList, steps, h('h3', {}, 'Fit window'), h('p', { class: 'field-hint' }, 'Drag the edges of the shaded region on the plot, or type the times.'), windowRow, windowNote, extra);
 
   function render(state: BenchState): void {
     const { fit, summary, fitError } = state;
@@ -79,6 +81,7 @@ export function createFitPanel(actions: BenchActions) {
       table.replaceChildren();
       eventList.replaceChildren();
       modeList.replaceChildren();
+      setupList.replaceChildren();
       steps.replaceChildren();
       extra.replaceChildren();
       return;
@@ -114,6 +117,7 @@ export function createFitPanel(actions: BenchActions) {
         }),
       ),
     );
+    replaceChildren(setupList, ...setupChecksView(state.setupChecks));
     replaceChildren(modeList, ...modesView(summary, state.modesAsked, state.chosenMode, modeChoices));
     replaceChildren(eventList, ...(summary.events ? eventsView(summary.events, (event) => void actions.chooseEvent(event)) : []));
     replaceChildren(steps, ...(summary.transitions ? transitionView(summary.transitions) : []));

@@ -1,0 +1,71 @@
+// The setup checks in the window: a capture whose preamble states a high-resolution acquisition and whose ring does
+// not decay shows the refusal and the warning in the fit panel, each with its level (screenshot for a person to look at).
+
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Browser, Page } from 'playwright-core';
+import { createRandom } from '../../core/random';
+import { buildBench, CHROMIUM, dropFile, hasChromium, launchChromium, outputDir, serveBench, waitForFit, type ServedBench } from './benchHarness';
+
+if (!hasChromium) console.warn(`test/e2e/windowSetupChecks.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
+
+/** Opening the bench, fitting the first sample and the dropped capture on a shared test machine. */
+const TEST_MS = 180_000;
+
+/** A 5 V step ringing at 2 MHz that never decays, 1 % noise (seeded), under a preamble stating a high-resolution mode: invented data. */
+function writeToneCapture(path: string): void {
+  const random = createRandom(11);
+  const omega = 2 * Math.PI * 2e6;
+  const lines = ['Title,setup check demo', 'Acquisition Mode,High Res', '', 'Time (s),CH1 (V)'];
+  for (let i = 0; i < 1200; i++) {
+    const t = (i - 100) * 25e-9;
+    const y = t < 0 ? 0 : 5 * (1 - Math.cos(omega * t));
+    lines.push(`${t.toExponential(6)},${(y + 0.05 * random.normal()).toFixed(5)}`);
+  }
+  writeFileSync(path, `${lines.join('\n')}\n`);
+}
+
+describe.skipIf(!hasChromium)('setup checks in the window', () => {
+  let bench: ServedBench;
+  let browser: Browser;
+  let folder: string;
+  let page: Page;
+
+  beforeAll(async () => {
+    buildBench();
+    mkdirSync(outputDir, { recursive: true });
+    folder = mkdtempSync(join(tmpdir(), 'ringbench-setupchecks-'));
+    bench = await serveBench(join(folder, 'bench-log.jsonl'), folder);
+    browser = await launchChromium();
+    page = await (await browser.newContext({ viewport: { width: 1280, height: 860 }, deviceScaleFactor: 1 })).newPage();
+    await page.goto(bench.url);
+    await waitForFit(page, 'input-filter-step.csv');
+  }, TEST_MS);
+
+  afterAll(async () => {
+    await browser?.close();
+    await bench?.stop();
+    if (folder) rmSync(folder, { recursive: true, force: true });
+  });
+
+  it('a sample capture shows no setup checks', async () => {
+    expect(await page.locator('#setup-checks li').count()).toBe(0);
+  });
+
+  it('shows the refusal first, then the acquisition-mode warning, each with its level', async () => {
+    const file = join(folder, 'tone-hires.csv');
+    writeToneCapture(file);
+    await dropFile(page, file, 'tone-hires.csv');
+    await waitForFit(page, 'tone-hires.csv');
+    const items = page.locator('#setup-checks-list li');
+    expect(await items.count()).toBe(2);
+    expect(await items.nth(0).getAttribute('data-level')).toBe('refusal');
+    expect(await items.nth(0).getAttribute('data-check')).toBe('sustained-oscillation');
+    expect(await items.nth(0).innerText()).toMatch(/refused\s+the 2 MHz ring .* sustained oscillation, so alpha, zeta and Q cannot be given/);
+    expect(await items.nth(1).getAttribute('data-check')).toBe('acquisition-mode');
+    expect(await items.nth(1).innerText()).toContain("'Acquisition Mode: High Res'");
+    await page.screenshot({ path: join(outputDir, 'setup-checks-1280.png') });
+  }, TEST_MS);
+});
