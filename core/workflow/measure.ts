@@ -141,8 +141,11 @@ export function measureCapture(request: MeasureRequest): MeasureResult {
   return { fit, summary, verdict: verdict.value, cautions, problems: { verdict: verdict.error, components: components.error }, setupChecks };
 }
 
-/** The summary with the rates of ringing mode `mode` at its top level, for a design to check (the dominant mode's are there already). */
-function ofMode(summary: FitSummary, mode = 1): FitSummary {
+/**
+ * The summary with the rates of ringing mode `mode` (1-based) at its top level, for a design to check (the dominant
+ * mode's are there already); a mode beyond those fitted is a UsageError.
+ */
+export function ofMode(summary: FitSummary, mode = 1): FitSummary {
   if (mode === 1) return summary;
   ratesOfMode(summary, mode); // refuses a mode beyond those fitted
   const { alpha, omega0, omegaD, zeta, Q } = summary.modes![mode - 1];

@@ -1,7 +1,7 @@
 // The design panel's actions: open, edit, save or remove a design, and check the fit on screen against it (no refit).
 
 import { parseDesign, serializeDesign } from '../../core/circuit/design';
-import { verdictRefusal } from '../../core/workflow/measure';
+import { ofMode, verdictRefusal } from '../../core/workflow/measure';
 import type { LoadedDesign } from '../benchState';
 import type { NamedText } from '../bridgeTypes';
 import { plainMessage } from '../plainMessage';
@@ -91,7 +91,7 @@ async function checkDesign(ctx: ActionContext): Promise<void> {
   state.verdictError = null;
   if (!capture || !summary || !design || verdictRefusal(design.design, summary)) return ctx.store.update();
   const answer = await runStep(ctx, 'checking against the design', () =>
-    ctx.client.request({ type: 'check', captureId: capture.key, channel: capture.channel, design: design.design, fit: summary, eventTime: state.eventTime ?? undefined }),
+    ctx.client.request({ type: 'check', captureId: capture.key, channel: capture.channel, design: design.design, fit: ofMode(summary, state.chosenMode ?? undefined), eventTime: state.eventTime ?? undefined }),
   );
   ctx.store.update((s) => {
     s.verdict = answer?.verdict ?? null;

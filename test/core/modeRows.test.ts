@@ -13,6 +13,7 @@ import type { FitSummary } from '../../core/report/fitSummary';
 import type { ResponseMode } from '../../core/fit/responseFit';
 import { deriveComponents } from '../../core/workflow/measuredComponents';
 import { fittedModel } from '../../core/report/fittedModel';
+import { ofMode } from '../../core/workflow/measure';
 import { UsageError } from '../../core/inputError';
 import { sampleFit, sampleRecord } from '../fixtures/benchLog/sampleRecord';
 
@@ -111,6 +112,12 @@ describe('R, L and C with several modes', () => {
     expect(other.mode).toMatchObject({ index: 2, of: 2 });
     expect(componentModeText(other)).toBe('for mode 2 of 2 (f0 95 MHz)');
     expect(formatFitText({ ...twoModes, components: other })).toContain('series, known C = 1 nF, for mode 2 of 2 (f0 95 MHz)');
+  });
+
+  it('puts the mode named at the top level for a design check (the window checks a design loaded later this way)', () => {
+    expect(ofMode(twoModes, 2)).toMatchObject({ alpha: second.alpha, omega0: second.omega0, zeta: second.zeta, Q: second.Q, omegaD: second.omegaD });
+    expect(ofMode(twoModes)).toBe(twoModes);
+    expect(() => ofMode(twoModes, 3)).toThrow('--mode 3: the fit found 2 ringing modes');
   });
 
   it('refuse a mode beyond those fitted, naming how many there are', () => {
