@@ -67,7 +67,7 @@ export function assembleFit(
     ? { modes: [], modelOrder: null }
     : multi
       ? { ...multi.fields(ring, trace.unit), modelOrder: choice.modeOrder ?? null }
-      : singleModeFields(best, t0Start, cov, ring, set, trace.unit, choice.modeOrder);
+      : singleModeFields(best, t0Start, cov, ring, set, trace.unit, choice.modeOrder ?? null);
   warnings.push(...modeWarnings);
   return {
     status: multi?.status ?? best.status,

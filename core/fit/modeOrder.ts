@@ -18,12 +18,17 @@ import { nestedFTestTail } from './significance';
 import { parameterCount, solveModes, startConstraintOf, ModesWorkspace, type ModeRates, type ModeSpec } from './modesModel';
 import { refineModes, type ModesFit } from './modesFit';
 import { residualAfter, ringStarts, slowStarts, type RingStart } from './modesStarts';
-import { modelName, multiModeModel, ORDER_CRITERION, type MultiModeModel } from './modesResult';
+import { modelName, multiModeModel, ORDER_CRITERION, termAmplitudes, type MultiModeModel } from './modesResult';
 
 /** Most ringing modes fitted (the pencil's closed-form eigenvalues reach three poles; three rings is already rare). */
 export const MAX_MODES = 3;
-/** Level of the F-test (after the search correction) a richer model must pass: the fit's level for a ring over a decay. */
-const SIGNIFICANCE_LEVEL = 1e-3;
+/**
+ * Level of the F-test (after the search correction) a richer model must pass: ten times stricter than the fit's
+ * level for a ring over a decay, because the lag-one count of independent samples only partly allows for the
+ * correlated residuals of a small model mismatch: a measured one-ring capture reached p = 4e-4 for a slow term
+ * that moved the ring's omega_d by 3.7 standard errors from the one-ring fit (a judgment of ours).
+ */
+const SIGNIFICANCE_LEVEL = 1e-4;
 /**
  * The gate: richer models are fitted only when one more term, at a pencil pole of the residual, explains
  * more than this many residual variances (noise alone: the best of a few dozen poles explains about 2 ln(count),
@@ -33,6 +38,8 @@ const GATE_VARIANCES = 25;
 const GATE_EXCESS = 2;
 /** Starts of each richer model refined to their minimum, the best by their residual after the linear solve. */
 const REFINED_STARTS = 2;
+/** Every term of an accepted richer model has an amplitude at least this many standard errors from zero. */
+const SUPPORTED_SIGMAS = 3;
 /** Fewest independent residuals the tests count beyond the parameters (as modelSelection.ts). */
 const MIN_RESIDUAL_DOF = 10;
 
@@ -100,7 +107,7 @@ export function fitModeOrder(set: FitSet, best: Attempt, t0Start: number, noise:
     let fit = search.fitOrder({ ...base, rings: Math.min(forced.rings, 2), slow: forced.rings < 3 && forced.slow }, known, residual);
     if (forced.rings === 3 && fit.fit) fit = search.fitOrder({ ...base, ...forced }, { rings: fit.fit.rates.rings }, residualAfter(set, fit.model, t0));
     const rich = candidateOf(fit);
-    const compared = compare(simple, rich, set, fit.model);
+    const compared = compare(simple, rich, set, fit.model, true);
     return outcome([simple, rich], rich, true, `forced: ${modelName(forced.rings, forced.slow)} (${compared.text} ${against})`, set, fit.model);
   }
 
@@ -176,11 +183,34 @@ function effectiveCount(set: FitSet, model: ArrayLike<number>, parameters: numbe
   return Math.max((set.values.length * (1 - rho)) / (1 + rho), parameters + MIN_RESIDUAL_DOF);
 }
 
+/**
+ * Why a richer model's rings are not distinct ringing modes, or null when they are: each must ring (zeta < 1)
+ * and lie apart from every other by more than their two decay rates (alpha is the half-width of a ring's
+ * spectral line, so closer lines merge into one: the resolution rule of common practice). Two rings closer
+ * than that are how a least-squares fit bends one ring to a small model mismatch (a drifting frequency, a
+ * slightly nonlinear part), which a capture with little noise shows as a significant drop in residual.
+ */
+function indistinctRings(fit: ModesFit): string | null {
+  const rings = fit.rates.rings.map((ring) => ({ ...ring, omegaD: Math.sqrt(Math.max(0, ring.omega0 ** 2 - ring.alpha ** 2)) }));
+  const overdamped = rings.find((ring) => !(ring.alpha < ring.omega0));
+  if (overdamped) return `finds a term with zeta ${(overdamped.alpha / overdamped.omega0).toPrecision(2)}, no ring`;
+  for (let j = 0; j < rings.length; j++) {
+    for (let k = j + 1; k < rings.length; k++) {
+      if (Math.abs(rings[j].omegaD - rings[k].omegaD) <= rings[j].alpha + rings[k].alpha) {
+        return `finds two rings closer in frequency than their line widths (${(rings[j].omegaD / (2 * Math.PI)).toPrecision(4)} and ${(rings[k].omegaD / (2 * Math.PI)).toPrecision(4)} Hz), not two modes`;
+      }
+    }
+  }
+  return null;
+}
+
 /** The richer model against the simpler: both on the criterion, and the F-test with the frequency search counted. */
-function compare(simple: Candidate, rich: Candidate, set: FitSet, richModel: ArrayLike<number>) {
+function compare(simple: Candidate, rich: Candidate, set: FitSet, richModel: ArrayLike<number>, forced = false) {
   if (!rich.fit || !(rich.sse < simple.sse)) {
     return { accepted: false, richCriterion: Infinity, text: rich.fit ? 'lowers the residual no further' : 'did not converge' };
   }
+  const indistinct = forced ? null : indistinctRings(rich.fit);
+  if (indistinct) return { accepted: false, richCriterion: Infinity, text: indistinct };
   const n = set.values.length;
   const nEff = effectiveCount(set, richModel, rich.parameters);
   const p = nestedFTestTail({ simpleSse: simple.sse, simpleParameters: simple.parameters, richSse: rich.sse, richParameters: rich.parameters, effectiveSamples: nEff }, n);
@@ -190,8 +220,15 @@ function compare(simple: Candidate, rich: Candidate, set: FitSet, richModel: Arr
   const gain = information(simple.sse, simple.parameters, nEff) - richCriterion;
   const drop = 100 * (1 - rich.sse / simple.sse);
   const pText = searched < 1e-6 ? 'p < 1e-6' : `p = ${searched.toPrecision(2)}`;
+  const significant = gain > 0 && searched < SIGNIFICANCE_LEVEL;
+  // Each term the richer model holds must stand clear of zero by its own standard error, not only the residual drop.
+  const weak = significant && !forced ? termAmplitudes(set, rich.fit).findIndex((q) => !(Math.abs(q.value) > SUPPORTED_SIGMAS * (q.stderr ?? Infinity))) : -1;
+  if (weak >= 0) {
+    const term = weak < rich.spec.rings ? `ring ${weak + 1}` : 'the slow term';
+    return { accepted: false, richCriterion, text: `lowers the residual by ${(100 * (1 - rich.sse / simple.sse)).toPrecision(2)} %, but ${term}'s amplitude is within ${SUPPORTED_SIGMAS} standard errors of zero` };
+  }
   return {
-    accepted: gain > 0 && searched < SIGNIFICANCE_LEVEL,
+    accepted: significant,
     richCriterion,
     text: `lowers the residual by ${drop.toPrecision(2)} % (${ORDER_CRITERION} ${gain > 0 ? 'better' : 'worse'} by ${Math.abs(gain).toPrecision(3)}, F-test ${pText} with the search counted)`,
   };

@@ -30,7 +30,10 @@ export interface ModesFit {
  * Levenberg-Marquardt over each ring's alpha and omega0 (scaled by its own starting omega0), the slow rate
  * (by its start) and t0 where fitted (1 + (t0 - t0 start) omega0 of the first ring); for each trial the
  * levels and amplitudes follow by linear least squares (variable projection, Golub and Pereyra 1973).
- * omega0 is held below twice the Nyquist rate: above it a ring aliases onto a slower one.
+ * omega0 is held below twice the Nyquist rate (or twice its start): above it a ring aliases onto a slower one.
+ * t0 is refitted where the one-ring layout fits it (a response continuous at the event: t0 trades against every
+ * ring's phase, so holding it at the one-ring value would leave its uncertainty out of every mode's), and held
+ * where the one-ring layout holds it (a jump, or no samples before the event), as that fit does.
  */
 export function refineModes(set: FitSet, spec: ModeSpec, start: ModeRates): ModesFit {
   const scales = [...start.rings.map((ring) => ring.omega0), ...(spec.slow ? [start.slowRate] : [])];
@@ -47,7 +50,8 @@ export function refineModes(set: FitSet, spec: ModeSpec, start: ModeRates): Mode
     ...(spec.fitsT0 ? [1] : []),
   ];
   const min = initial.map((_, j) => (spec.fitsT0 && j === initial.length - 1 ? -Infinity : MIN_SCALED_RATE));
-  const max = initial.map((_, j) => (j < 2 * spec.rings && j % 2 === 1 ? (2 * nyquist) / scales[Math.floor(j / 2)] : Infinity));
+  // A start already above that (a one-ring fit of a near-instant step) keeps room to move.
+  const max = initial.map((_, j) => (j < 2 * spec.rings && j % 2 === 1 ? Math.max(2 * nyquist / scales[Math.floor(j / 2)], 2) : Infinity));
   const names = initial.map((_, j) => `u${j}`);
   const workspace = new ModesWorkspace(set.time.length);
   const cache: { key: readonly number[]; model: Float64Array }[] = [];

@@ -112,8 +112,10 @@ function namedLinear(spec: ModeSpec, theta: readonly number[]): ModeLinear {
   return { yPre, yFinal, a, b, slow };
 }
 
-/** Most unconstrained linear parameters: two levels, a and b of three rings, the slow term. */
-const MAX_COLUMNS = 9;
+/** Most rings a model holds (modeOrder.ts fits up to three). */
+const MAX_RINGS = 3;
+/** Most unconstrained linear parameters: two levels, a and b of each ring, the slow term. */
+const MAX_COLUMNS = 3 + 2 * MAX_RINGS;
 
 /** Scratch space for one time axis: the basis columns and the constrained ones, reused across solves. */
 export class ModesWorkspace {
@@ -122,12 +124,32 @@ export class ModesWorkspace {
   readonly after: Float64Array;
   readonly basis: Float64Array[];
   readonly constrained: Float64Array[];
+  /**
+   * The damped basis of each term slot (ring k, then the slow term) for the rates it was last filled for: the
+   * solver's difference steps move one rate at a time, so the other terms' bases are copied, not recomputed.
+   */
+  private readonly terms: { key: [number, number, number]; ec: Float64Array; es: Float64Array; after: Float64Array }[] = [];
   constructor(readonly length: number) {
     this.ec = new Float64Array(length);
     this.es = new Float64Array(length);
     this.after = new Float64Array(length);
     this.basis = Array.from({ length: MAX_COLUMNS }, () => new Float64Array(length));
     this.constrained = Array.from({ length: MAX_COLUMNS }, () => new Float64Array(length));
+  }
+
+  /** e^(-alpha tau) C and e^(-alpha tau) S of term slot `slot` into ec and es (and the shares after t0 into this.after). */
+  fillTerm(slot: number, set: FitSet, alpha: number, omega0: number, t0: number, ec: Float64Array, es: Float64Array): void {
+    while (this.terms.length <= slot) {
+      this.terms.push({ key: [NaN, NaN, NaN], ec: new Float64Array(this.length), es: new Float64Array(this.length), after: new Float64Array(this.length) });
+    }
+    const term = this.terms[slot];
+    if (term.key[0] !== alpha || term.key[1] !== omega0 || term.key[2] !== t0) {
+      fillDampedBasis(alpha, omega0, t0, set.time, term.ec, term.es, set.block, term.after);
+      term.key = [alpha, omega0, t0];
+    }
+    ec.set(term.ec);
+    es.set(term.es);
+    this.after.set(term.after);
   }
 }
 
@@ -149,8 +171,8 @@ function unconstrainedBasis(set: FitSet, spec: ModeSpec, rates: ModeRates, ws: M
   const at = positions(spec);
   const columns = ws.basis.slice(0, at.size);
   const { after } = ws;
-  rates.rings.forEach((ring, k) => fillDampedBasis(ring.alpha, ring.omega0, rates.t0, set.time, columns[at.a(k)], columns[at.b(k)], set.block, after));
-  if (spec.slow) fillDampedBasis(rates.slowRate, rates.slowRate, rates.t0, set.time, columns[at.slow], ws.es, set.block, after);
+  rates.rings.forEach((ring, k) => ws.fillTerm(k, set, ring.alpha, ring.omega0, rates.t0, columns[at.a(k)], columns[at.b(k)]));
+  if (spec.slow) ws.fillTerm(MAX_RINGS, set, rates.slowRate, rates.slowRate, rates.t0, columns[at.slow], ws.es);
   for (let i = 0; i < n; i++) {
     const w = after[i];
     if (w !== 1) for (let j = at.final + 1; j < at.size; j++) columns[j][i] *= w;

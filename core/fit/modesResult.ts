@@ -11,7 +11,6 @@ import type { Attempt } from './attempt';
 import type { FitSet } from './fitSet';
 import type { ResponseCovariance } from './responseCovariance';
 import { LAYOUTS, unpackParams } from './responseModel';
-import { effectiveSamples, information } from './modelSelection';
 
 /** A smooth function of a parameter vector, to have its value and first-order standard error. */
 export type VectorFunction = (values: readonly number[]) => number;
@@ -88,7 +87,7 @@ export const ORDER_CRITERION = 'BIC';
 
 /**
  * The modes of a fit whose one ring is the whole model: that ring, its envelope at t0 with its standard
- * error (through the layout's covariance), all of the response's energy; the order table holds its one row.
+ * error (through the layout's covariance), all of the response's energy, and the order table modeOrder.ts made.
  */
 export function singleModeFields(
   best: Attempt,
@@ -97,7 +96,7 @@ export function singleModeFields(
   ring: RingQuantities,
   set: FitSet,
   unit: string,
-  order?: ModelOrder,
+  order: ModelOrder | null,
 ): Pick<ResponseFit, 'modes' | 'modelOrder'> & { warnings?: string[] } {
   const envelope = (values: readonly number[]) => {
     const p = unpackParams(best.layout, values, t0Start);
@@ -107,18 +106,7 @@ export function singleModeFields(
   const floors = parameterFloors(names, ring.omega0.value, set.range);
   const held = !LAYOUTS[best.layout].fitsT0 && LAYOUTS[best.layout].preLevelColumn !== null;
   const amplitude = withHeldT0(derivedQuantity(envelope, best.values, cov.names.join() === names.join() ? cov.covariance : null, floors, unit), ring.alpha.value, set, held);
-  return { modes: [responseMode(ring, amplitude, 1)], modelOrder: order ?? singleOrder(best, set, t0Start) };
-}
-
-/** The order table of a fit where only one ring was fitted. */
-function singleOrder(best: Attempt, set: FitSet, t0Start: number): ModelOrder {
-  const n = effectiveSamples([best], set, t0Start);
-  return {
-    criterion: ORDER_CRITERION,
-    forced: false,
-    reason: 'one ringing mode: no other order was fitted',
-    table: [{ model: modelName(1, false), ringingModes: 1, slowTerm: false, parameters: best.values.length, sse: best.sse, criterion: information(best.sse, best.values.length, n), chosen: true }],
-  };
+  return { modes: [responseMode(ring, amplitude, 1)], modelOrder: order };
 }
 
 /** A mode whose envelope at t0 is within this many standard errors of zero is not supported by the record. */
@@ -205,4 +193,33 @@ export function multiModeModel(set: FitSet, fit: ModesFit): MultiModeModel {
       return { modes, modeTerms, ...(slowTerm ? { slowTerm } : {}), warnings };
     },
   };
+}
+
+/**
+ * Each term's amplitude at t0 with its standard error: every ring's envelope, then the slow term's amplitude
+ * (what decides whether each term the richer model added is supported by the record).
+ */
+export function termAmplitudes(set: FitSet, fit: ModesFit): Quantity[] {
+  const cov = modesCovariance(set, fit);
+  const floors = stepFloors(cov.names, fit.rates.rings[0]?.omega0 ?? fit.rates.slowRate, set.range);
+  const held = fit.spec.start === 'jump';
+  const rings = fit.rates.rings.map((ring, k) =>
+    withHeldT0(
+      derivedQuantity(
+        (v) => {
+          const { rates: at, linear } = linearOf(fit, v);
+          return envelopeAtStart(linear.a[k], linear.b[k], at.rings[k].alpha, at.rings[k].omega0);
+        },
+        cov.values,
+        cov.covariance,
+        floors,
+        '',
+      ),
+      ring.alpha,
+      set,
+      held,
+    ),
+  );
+  const slow = fit.spec.slow ? [withHeldT0(derivedQuantity((v) => linearOf(fit, v).linear.slow, cov.values, cov.covariance, floors, ''), fit.rates.slowRate, set, held)] : [];
+  return [...rings, ...slow];
 }

@@ -29,15 +29,24 @@ export function residualAfter(set: FitSet, model: ArrayLike<number>, t0: number)
   return Float64Array.from({ length: set.time.length - first }, (_, i) => set.values[first + i] - model[first + i]);
 }
 
-/** Poles of the residual from pencils of 1 to 3 poles at block sizes 1, 4, 16...: each as (rate s^-1, angular frequency rad/s). */
+/** The poles found in each residual, kept while the residual is: the gate and every richer model ask for them. */
+const polesOf = new WeakMap<Float64Array, { decay: number; omega: number }[]>();
+
+/**
+ * Poles of the residual from pencils of 2 poles (a ring alone) and 3 (a ring and a decay, or three decays) at
+ * block sizes 1, 4, 16...: each as (rate s^-1, angular frequency rad/s).
+ */
 function residualPoles(residual: Float64Array, dt: number): { decay: number; omega: number }[] {
+  const known = polesOf.get(residual);
+  if (known) return known;
   const out: { decay: number; omega: number }[] = [];
+  polesOf.set(residual, out);
   const n = residual.length;
   for (let size = 1; size === 1 || n / size >= PENCIL_MIN_SPAN; size *= 4) {
     const y = blockMeans(residual, 0, n, size, PENCIL_POINTS);
     if (y.length < PENCIL_MIN_POINTS) break;
     const add = (poles: Pole[]) => poles.forEach((p) => out.push({ decay: -p.re / (dt * size), omega: Math.abs(p.im) / (dt * size) }));
-    for (const count of [1, 2, 3]) add(matrixPencil(y, count));
+    for (const count of [2, 3]) add(matrixPencil(y, count));
   }
   return out;
 }
