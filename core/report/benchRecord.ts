@@ -1,5 +1,6 @@
 // One bench-log record (a logged measurement of one unit) and the check of a line read back.
 
+import type { SetupCheck } from '../circuit/setupTypes';
 import { InputError } from '../inputError';
 import { isObject, isText } from './jsonShape';
 import { measurementShapeProblem, type ShapeProblem } from './recordShape';
@@ -55,6 +56,8 @@ export interface BenchRecord {
   verdict: Verdict | null;
   design: { path: string; name: string; sha256: string; spec: Design } | null;
   cautions: LoggedCautions;
+  /** Can this capture support the answer (setup checks); absent when none applied, and in records logged before they were kept. */
+  setupChecks?: SetupCheck[];
   software: { name: 'ringbench'; version: string };
 }
 

@@ -54,7 +54,18 @@ export function measurementShapeProblem(value: Json): ShapeProblem | null {
   if (design !== null && (!isObject(design) || !isText(design.path, MAX_PATH) || !isText(design.name) || !isSha256(design.sha256) || !isObject(design.spec))) {
     return at('design', 'must give path, name, sha256 and spec, or be null');
   }
-  return cautionsProblem(value.cautions);
+  return cautionsProblem(value.cautions) ?? setupChecksProblem(value.setupChecks);
+}
+
+/** The setup checks, when kept: each an id, a level (note, warning, refusal) and a one-line message; values an object when given. */
+function setupChecksProblem(value: unknown): ShapeProblem | null {
+  if (value === undefined) return null;
+  if (!Array.isArray(value)) return at('setupChecks', 'must be a list of setup checks when given');
+  for (const [i, c] of value.entries()) {
+    const ok = isObject(c) && isText(c.id) && ['note', 'warning', 'refusal'].includes(c.level as string) && isText(c.message) && (c.values === undefined || isObject(c.values));
+    if (!ok) return at(`setupChecks[${i}]`, 'must give id, level (note, warning or refusal) and message, and values only as an object');
+  }
+  return null;
 }
 
 function at(field: string, problem: string): ShapeProblem {

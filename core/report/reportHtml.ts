@@ -12,6 +12,7 @@ import { importRows } from './importText';
 import { renderMeasurementPlot, type ReportTrace } from './overlay';
 import { briefValue, fitResultRows, fitTransitionRows, marginText, regimeTag, showTime, transitionNote } from './resultRows';
 import { reproduceCommand } from './reproduce';
+import { setupChecksHtml } from './setupChecksText';
 import { REPORT_CSS } from './reportStyle';
 import { YIELD_RULE, recordStatus, summarizeYield, type UnitStatus, type UnitSummary, type YieldSummary } from './yieldSummary';
 
@@ -144,6 +145,7 @@ function measurement(record: BenchRecord, id: string, options: ReportOptions): s
   html += importBlock(fit);
   html += `<div class="block">${record.verdict ? verdictBlock(record.verdict, record.design?.name ?? 'design', fit.finalValue.unit) : '<h4>Verdict</h4><p class="fineprint">Not checked against a design.</p>'}</div>`;
   if (fit.warnings.length) html += `<div class="block"><h4>Warnings</h4><ul>${fit.warnings.map((w) => `<li class="warning">${e(w)}</li>`).join('')}</ul></div>`;
+  html += setupChecksHtml(record.setupChecks);
   html += cautionsBlock(record);
   html += reproduceBlock(record);
   return `${html}</article>`;

@@ -8,6 +8,7 @@ import { importRows } from './importText';
 import { decisionText, expandedUncertaintyText, limitsText, ruleText, zoneText } from './verdictText';
 import { fitResultRows, fitStateText, fitTransitionRows, marginText, showTime, transitionNote } from './resultRows';
 import { reproduceCommand } from './reproduce';
+import { setupChecksMarkdown } from './setupChecksText';
 import { YIELD_RULE, recordStatus, summarizeYield } from './yieldSummary';
 
 export interface MarkdownOptions {
@@ -83,6 +84,7 @@ function measurement(record: BenchRecord, notes: string[]): string[] {
       lines.push('', `Likely cause: ${cause.component} about ${(Math.abs(cause.change) * 100).toFixed(1)} % ${cause.change >= 0 ? 'high' : 'low'} (${m(formatEngineering(cause.impliedValue.value, cause.impliedValue.unit))}).`);
     }
   }
+  lines.push(...setupChecksMarkdown(record.setupChecks));
   for (const warning of fit.warnings) lines.push('', `Warning: ${m(warning)}`);
   for (const c of record.cautions.fired) {
     lines.push('', `**Caution**, ${m(c.checks)} ${m(formatEngineering(c.measured.value, c.measured.unit))}: ${m(c.message)} (${m(c.source)}, ${c.certainty})`);

@@ -52,6 +52,7 @@ export function createBenchRecord(m: FileMeasurement, label: MeasurementLabel, o
     verdict: m.verdict,
     design: m.design ? { path: m.design.path, name: m.design.design.name, sha256: m.design.sha256, spec: m.design.design } : null,
     cautions: { fired, energies, ...(charge ? { charge } : {}), ...(discharge ? { discharge } : {}) },
+    ...(m.setupChecks.length ? { setupChecks: m.setupChecks } : {}),
     software: { name: 'ringbench', version: VERSION },
   };
 }

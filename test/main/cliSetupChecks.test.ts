@@ -1,6 +1,6 @@
 // The setup checks on the command line: --scope-bandwidth, --probe-capacitance and --ground-lead, the "setup" block,
 // setupChecks in --json, a preamble's acquisition mode, and exit 1 on a refusal (a sustained oscillation).
-import { copyFileSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { copyFileSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -124,5 +124,18 @@ describe('batch: setup checks', () => {
     const table = await run(['batch', path.basename(sub), '--jobs', '1']);
     expect(table.code).toBe(1);
     expect(table.out).toMatch(/^tone\.csv: setup refused: the 2 MHz ring .* sustained oscillation/m);
+  });
+});
+
+describe('bench log and report: the setup checks of a logged measurement', () => {
+  it('keeps them in the record and shows them in the Markdown and HTML reports', async () => {
+    const logged = await run(['log', 'add', 'hires.csv', '--log', 'setup-log.jsonl', '--unit', 'U7']);
+    expect(logged.code).toBe(0);
+    const record = JSON.parse(readFileSync(path.join(folder, 'setup-log.jsonl'), 'utf8').trim().split('\n').pop()!);
+    expect((record.setupChecks as SetupCheck[]).map((c) => [c.id, c.level])).toEqual([['acquisition-mode', 'warning']]);
+    expect((await run(['report', 'setup-log.jsonl', '--out', 'setup.md'])).code).toBe(0);
+    expect(readFileSync(path.join(folder, 'setup.md'), 'utf8')).toContain("Setup warning: the preamble's 'Acquisition Mode: High Res' averages samples or acquisitions");
+    expect((await run(['report', 'setup-log.jsonl', '--out', 'setup.html'])).code).toBe(0);
+    expect(readFileSync(path.join(folder, 'setup.html'), 'utf8')).toMatch(/<h4>Setup checks<\/h4><ul><li class="warning"><strong>warning<\/strong> the preamble&#39;s &#39;Acquisition Mode: High Res&#39;|<h4>Setup checks<\/h4><ul><li class="warning"><strong>warning<\/strong> the preamble's 'Acquisition Mode: High Res'/);
   });
 });
