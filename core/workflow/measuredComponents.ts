@@ -74,13 +74,13 @@ export function ratesOfMode(
 }
 
 /**
- * The correlation of one mode's alpha and omega0 in a fit of several modes, its parameters named with the
- * mode's number ('alpha2', 'omega02'); 0 when the fit names them otherwise or gives no correlation.
+ * The correlation of one mode's alpha and omega0 in a fit of several modes, as the fit names them: the dominant
+ * mode's 'alpha' and 'omega0', the k-th mode's 'alpha_k' and 'omega0_k' (0 when the fit gives no correlation).
  */
 function modeCorrelation(correlation: ResponseFit['correlation'], mode: number): number {
-  if (!correlation) return 0;
-  const ia = correlation.names.indexOf(`alpha${mode}`);
-  const iw = correlation.names.indexOf(`omega0${mode}`);
+  if (!correlation || mode === 1) return alphaOmega0Correlation(correlation);
+  const ia = correlation.names.indexOf(`alpha_${mode}`);
+  const iw = correlation.names.indexOf(`omega0_${mode}`);
   const rho = ia >= 0 && iw >= 0 ? correlation.matrix[ia][iw] : 0;
   return Number.isFinite(rho) ? Math.max(-1, Math.min(1, rho)) : 0;
 }

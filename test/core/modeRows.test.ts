@@ -120,6 +120,23 @@ describe('R, L and C with several modes', () => {
     expect(() => ofMode(twoModes, 3)).toThrow('--mode 3: the fit found 2 ringing modes');
   });
 
+  it("carry the named mode's own alpha-omega0 correlation into their uncertainty", () => {
+    const names = ['alpha', 'omega0', 'alpha_2', 'omega0_2'];
+    const matrix = [
+      [1, 0, 0, 0],
+      [0, 1, 0, 0],
+      [0, 0, 1, 0.9],
+      [0, 0, 0.9, 1],
+    ];
+    const correlated = deriveComponents({ ...twoModes, correlation: { names, matrix } }, known, 2);
+    const independent = deriveComponents({ ...twoModes, correlation: { names, matrix: matrix.map((row, i) => row.map((_, j) => (i === j ? 1 : 0))) } }, known, 2);
+    // Series, C known: R = 2 alpha L = 2 alpha / (omega0^2 C), so u(ln R)^2 = u_a^2 + 4 u_w^2 - 4 rho u_a u_w (first-order propagation).
+    expect(correlated.R.stderr).not.toBeCloseTo(independent.R.stderr!, 12);
+    const ua = second.alpha.stderr! / second.alpha.value;
+    const uw = second.omega0.stderr! / second.omega0.value;
+    expect(correlated.R.stderr! / correlated.R.value).toBeCloseTo(Math.sqrt(ua ** 2 + 4 * uw ** 2 - 4 * 0.9 * ua * uw), 6);
+  });
+
   it('refuse a mode beyond those fitted, naming how many there are', () => {
     expect(() => deriveComponents(twoModes, known, 3)).toThrow(UsageError);
     expect(() => deriveComponents(twoModes, known, 3)).toThrow('--mode 3: the fit found 2 ringing modes');
