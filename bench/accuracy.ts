@@ -38,6 +38,18 @@ async function runCases(cases: AccuracyCase[], samples: number, runs: number, se
   return results.sort((a, b) => a.id - b.id);
 }
 
+/** The probability that the coverage count of exactly calibrated 95 % intervals over `runs` runs falls outside `band` (binomial, summed in logs). */
+function chanceOutside(runs: number, band: [number, number]): number {
+  const p = 0.95;
+  let logPmf = runs * Math.log(1 - p);
+  let outside = 0;
+  for (let k = 0; k <= runs; k++) {
+    if (k > 0) logPmf += Math.log((runs - k + 1) / k) + Math.log(p / (1 - p));
+    if (!inRange(k / runs, band)) outside += Math.exp(logPmf);
+  }
+  return outside;
+}
+
 function percent(x: number): string {
   return (100 * x).toFixed(1);
 }
@@ -71,6 +83,7 @@ function printWhite(cases: AccuracyCase[], results: CaseSummary[]): string[] {
         percent(r.convergedOmegaD.coverage),
         percent(r.convergedAlpha.coverage),
         `${r.worstSigmas[0].toFixed(1)}, ${r.worstSigmas[1].toFixed(1)}`,
+        `${fixed(r.omegaD.zRms)}, ${fixed(r.alpha.zRms)}`,
         String(r.notConverged),
         String(r.noOmegaD),
         String(r.freeSlope),
@@ -79,12 +92,12 @@ function printWhite(cases: AccuracyCase[], results: CaseSummary[]): string[] {
     });
   console.log(
     formatTable(
-      ['case', 'RMS/CRB omega_d', 'RMS/CRB alpha', 'cover omega_d %', 'cover alpha %', 'bias/CRB omega_d', 'bias/CRB alpha', 'converged: RMS/CRB omega_d', 'alpha', 'cover omega_d %', 'cover alpha %', 'worst |err|/se', 'not converged', 'no omega_d', 'free slope', 'ms/fit'],
+      ['case', 'RMS/CRB omega_d', 'RMS/CRB alpha', 'cover omega_d %', 'cover alpha %', 'bias/CRB omega_d', 'bias/CRB alpha', 'converged: RMS/CRB omega_d', 'alpha', 'cover omega_d %', 'cover alpha %', 'worst |err|/se', 'rms err/se', 'not converged', 'no omega_d', 'free slope', 'ms/fit'],
       rows,
     ),
   );
   console.log(
-    "RMS and bias over the runs that gave the estimate; converged: the same over runs with status converged (coverage as a fraction of those runs); worst |err|/se: the largest error in its own reported stderr among those (omega_d, alpha); not converged: status failed or stopped at the iteration limit; no omega_d: the fit called the response not underdamped; free slope: the fit's information criterion chose the layout with a free initial slope (the bound is for the zero-slope layout).",
+    "RMS and bias over the runs that gave the estimate; converged: the same over runs with status converged (coverage as a fraction of those runs); worst |err|/se: the largest error in its own reported stderr among those (omega_d, alpha); rms err/se: the rms of each run's error in its own stderr over all runs (1 when the stated errors are the real spread, whatever the coverage count says); not converged: status failed or stopped at the iteration limit; no omega_d: the fit called the response not underdamped; free slope: the fit's information criterion chose the layout with a free initial slope (the bound is for the zero-slope layout).",
   );
   return misses;
 }
@@ -270,6 +283,10 @@ async function main(): Promise<void> {
   );
   console.log(goalLine(efficient.length === white.length, `RMS error within ${RATIO_GOAL}x of the CRB (omega_d and alpha)`, `${efficient.length} of ${white.length} cases`));
   console.log(goalLine(covered.length === white.length, 'coverage of the 95 % intervals between 92 % and 98 %', `${covered.length} of ${white.length} cases`));
+  const figures = 2 * white.length;
+  console.log(
+    `      (by chance alone, exactly calibrated 95 % intervals over ${runs} runs fall outside ${percent(COVERAGE_GOAL[0])}..${percent(COVERAGE_GOAL[1])} % in ${fixed(figures * chanceOutside(runs, COVERAGE_GOAL), 2)} of these ${figures} coverage figures on average)`,
+  );
   console.log(
     goalLine(
       calibrated.length === correlated.length,

@@ -14,6 +14,8 @@ export interface Spread {
   /** Fraction of all runs whose value ± 1.96 stderr contains the truth (a missing estimate or uncertainty counts as a miss). */
   coverage: number;
   meanStderr: number;
+  /** Rms of error / reported stderr: 1 when the stated errors are the real spread, below 1 when they are wide. */
+  zRms: number;
 }
 
 export interface CaseSummary {
@@ -129,6 +131,7 @@ class Tally {
   private count = 0;
   private covered = 0;
   private stderrSum = 0;
+  private zSquares = 0;
   worst = 0;
 
   add(value: number, stderr: number, truth: number): void {
@@ -138,6 +141,7 @@ class Tally {
     this.sum += error;
     this.count++;
     this.stderrSum += stderr;
+    this.zSquares += (error / stderr) ** 2;
     if (Math.abs(error) <= 1.96 * stderr) this.covered++;
   }
 
@@ -148,6 +152,7 @@ class Tally {
       bias: this.sum / this.count,
       coverage: this.covered / runs,
       meanStderr: this.stderrSum / this.count,
+      zRms: Math.sqrt(this.zSquares / this.count),
     };
   }
 }

@@ -61,33 +61,95 @@ function autocovariance(residuals: Float64Array, maxLag: number): Float64Array {
   return gamma;
 }
 
+/** Levinson-Durbin recursion on an autocovariance (Yule-Walker; stable by construction): the coefficients and innovation sum of each order. */
+function levinson(gamma: Float64Array, maxOrder: number): { coefficients: number[]; error: number }[] {
+  const orders = [{ coefficients: [] as number[], error: gamma[0] }];
+  for (let m = 1; m <= maxOrder; m++) {
+    const { coefficients, error } = orders[m - 1];
+    let numerator = gamma[m];
+    for (let j = 0; j < m - 1; j++) numerator -= coefficients[j] * gamma[m - 1 - j];
+    const kappa = numerator / error;
+    orders.push({ coefficients: [...coefficients.map((c, j) => c - kappa * coefficients[m - 2 - j]), kappa], error: error * (1 - kappa * kappa) });
+  }
+  return orders;
+}
+
+/** Rounds of re-reading the autocovariance with the correction of the model just found (the second changes it by well under 1 %). */
+const CORRECTION_ROUNDS = 2;
+
 /**
- * The autoregression of the residuals whose order the Bayesian information criterion picks, by the
- * Levinson-Durbin recursion on their autocovariance (Yule-Walker; stable by construction); null when
- * order 0 wins, that is, when the residuals look white.
+ * The autoregression of the residuals whose order the Bayesian information criterion picks; null when
+ * order 0 wins, that is, when the residuals look white. Fitted residuals are the noise less its projection P
+ * onto the model's columns, and that projection takes out the slow components where correlated noise has its
+ * power: the residuals' autocovariance reads the correlation low (neighbour correlation 0.795 for 0.8 over a
+ * 2000-sample step, stderr 1.5 % short). So the autocovariance is read as the noise's own by adding back what
+ * the projection takes on average under the model found, E[r^T M_k r] = tr(M_k (I - P) S (I - P)), and the
+ * coefficients of the chosen order are fitted again (for white noise this is dividing by n - p).
  */
-function residualNoiseModel(residuals: Float64Array): NoiseModel | null {
+export function residualNoiseModel(residuals: Float64Array, J: readonly Float64Array[], bread: readonly number[][]): NoiseModel | null {
   const n = residuals.length;
   const maxOrder = Math.min(MAX_NOISE_ORDER, Math.floor(n / 10));
   const gamma = autocovariance(residuals, maxOrder);
   if (!(gamma[0] > 0)) return null;
-  let coefficients: number[] = [];
-  let error = gamma[0];
-  let best: NoiseModel | null = null;
-  let bestScore = n * Math.log(error);
-  for (let m = 1; m <= maxOrder; m++) {
-    let numerator = gamma[m];
-    for (let j = 0; j < m - 1; j++) numerator -= coefficients[j] * gamma[m - 1 - j];
-    const kappa = numerator / error;
-    coefficients = [...coefficients.map((c, j) => c - kappa * coefficients[m - 2 - j]), kappa];
-    error *= 1 - kappa * kappa;
-    const score = n * Math.log(error) + m * Math.log(n);
-    if (score < bestScore) {
-      bestScore = score;
-      best = { coefficients, varianceRatio: gamma[0] / error };
+  const orders = levinson(gamma, maxOrder);
+  const score = (m: number) => n * Math.log(orders[m].error) + m * Math.log(n);
+  let order = 0;
+  for (let m = 1; m <= maxOrder; m++) if (score(m) < score(order)) order = m;
+  if (order === 0) return null;
+  let { coefficients, error } = orders[order];
+  let gamma0 = gamma[0];
+  for (let round = 0; round < CORRECTION_ROUNDS; round++) {
+    const removed = projectionLoss(J, bread, coefficients);
+    const corrected = gamma.slice(0, order + 1).map((g, k) => g + (error / n) * removed[k]);
+    const refitted = levinson(corrected, order)[order];
+    // A correction that leaves no valid autocovariance (rounding on a near-degenerate Jacobian) keeps the last reading.
+    if (!(corrected[0] > 0 && refitted.error > 0)) break;
+    ({ coefficients, error } = refitted);
+    gamma0 = corrected[0];
+  }
+  return { coefficients, varianceRatio: gamma0 / error };
+}
+
+/**
+ * For each lag k up to the model's order, tr(M_k S) - E[r^T M_k r] for the model's S at unit innovation variance:
+ * 2 tr(B W^T M_k J) - tr(B G B H_k), with B the bread, W = S J, G = J^T W, H_k = J^T M_k J and M_k the symmetric
+ * lag-k operator. What the projection onto the model's columns takes out of the residuals' lag-k sum, on average.
+ */
+function projectionLoss(J: readonly Float64Array[], bread: readonly number[][], coefficients: readonly number[]): number[] {
+  const n = J.length;
+  const p = bread.length;
+  // S = F^-1 F^-T: the recoloured Jacobian F^-T J, then F^-1 of it (W[i] = K[i] + sum_j c_j W[i - 1 - j]).
+  const W = recolouredJacobian(J, coefficients);
+  for (let i = 1; i < n; i++) {
+    for (let j = 0; j < coefficients.length && i - 1 - j >= 0; j++) {
+      const earlier = W[i - 1 - j];
+      for (let a = 0; a < p; a++) W[i][a] += coefficients[j] * earlier[a];
     }
   }
-  return best;
+  const G = crossLag(W, J, 0);
+  const BGB = multiply(multiply(bread, G), bread);
+  return Array.from({ length: coefficients.length + 1 }, (_, k) => {
+    const A = crossLag(W, J, k);
+    const H = crossLag(J, J, k);
+    let loss = 0;
+    for (let a = 0; a < p; a++) for (let b = 0; b < p; b++) loss += 2 * bread[a][b] * A[a][b] - BGB[a][b] * H[b][a];
+    return loss;
+  });
+}
+
+/** X^T M_k Y: (1/2) sum_i (X[i] Y[i + k]^T + X[i + k] Y[i]^T). */
+function crossLag(X: readonly Float64Array[], Y: readonly Float64Array[], k: number): number[][] {
+  const p = X[0].length;
+  const out = Array.from({ length: p }, () => new Array<number>(p).fill(0));
+  for (let i = 0; i + k < X.length; i++) {
+    const [x, y, xk, yk] = [X[i], Y[i + k], X[i + k], Y[i]];
+    for (let a = 0; a < p; a++) for (let b = 0; b < p; b++) out[a][b] += 0.5 * (x[a] * y[b] + xk[a] * yk[b]);
+  }
+  return out;
+}
+
+function multiply(x: readonly number[][], y: readonly number[][]): number[][] {
+  return x.map((row) => y[0].map((_, b) => row.reduce((sum, v, k) => sum + v * y[k][b], 0)));
 }
 
 /**
@@ -183,7 +245,7 @@ function localCovariance(
   const bread = estimate.covariance;
   const warnings = [...estimate.warnings];
   const plain = bread?.map((row) => row.map((v) => residualVariance * v)) ?? null;
-  const noise = bread ? residualNoiseModel(residuals) : null;
+  const noise = bread ? residualNoiseModel(residuals, J, bread) : null;
   if (!bread || !plain || !noise) return { names, covariance: plain, correlation: estimate.correlation, inflation: 1, warnings };
   const { covariance, correlation } = correlatedCovariance(J, bread, residuals, noise);
   const rates = ['alpha', 'omega0'].filter((name) => name in index);
