@@ -1,5 +1,6 @@
-// Plain warnings about how a ringdown was captured: bandwidth and samples per ring period.
-// Both limits are common practice (no single source; see shared/reference/trade-facts.md).
+// Plain warnings about how a ringdown was captured: bandwidth and samples per ring period, the one place their limits
+// live for the added-capacitor method (checkRingCapture) and the setup checks of every measurement (core/workflow/setupChecks.ts).
+// Both warning limits are common practice (no single source; see shared/reference/trade-facts.md).
 import { formatEngineering } from '../units/format';
 
 export interface RingCaptureSetup {
@@ -13,6 +14,13 @@ export interface RingCaptureSetup {
 export const BANDWIDTH_FRACTION = 1 / 3;
 /** Fewer samples than this per ring period draws a warning (common practice). */
 export const MIN_SAMPLES_PER_PERIOD = 10;
+/** Fewer samples than this per ring period and the frequency may be an alias: refused (2 is the Nyquist limit; the margin is our choice). */
+export const REFUSED_SAMPLES_PER_PERIOD = 2.5;
+
+/** Samples per period of a ring at `frequency` Hz sampled every `sampleInterval` s. */
+export function samplesPerRingPeriod(frequency: number, sampleInterval: number): number {
+  return 1 / (frequency * sampleInterval);
+}
 
 /** Warnings for a ring at `frequency` (Hz) captured with `setup`; empty when nothing is amiss. */
 export function checkRingCapture(frequency: number, setup: RingCaptureSetup, label = 'ring'): string[] {
@@ -25,7 +33,7 @@ export function checkRingCapture(frequency: number, setup: RingCaptureSetup, lab
     );
   }
   if (sampleInterval !== undefined) {
-    const perPeriod = 1 / (frequency * sampleInterval);
+    const perPeriod = samplesPerRingPeriod(frequency, sampleInterval);
     if (perPeriod < MIN_SAMPLES_PER_PERIOD) {
       warnings.push(
         `${label} period holds only ${perPeriod.toFixed(1)} samples (interval ${formatEngineering(sampleInterval, 's')}); ` +

@@ -5,7 +5,7 @@
 // bias the setup puts on the answer; a note adds what the setup changes, with values.
 
 import type { Channel } from '../capture/types';
-import { BANDWIDTH_FRACTION, MIN_SAMPLES_PER_PERIOD } from '../circuit/measurementChecks';
+import { BANDWIDTH_FRACTION, MIN_SAMPLES_PER_PERIOD, REFUSED_SAMPLES_PER_PERIOD, samplesPerRingPeriod } from '../circuit/measurementChecks';
 import { frontEndBias } from '../circuit/setupFrontEnd';
 import { ringFrequencyAlong } from '../circuit/setupDrift';
 import {
@@ -37,8 +37,6 @@ export interface SetupCheckInput {
   knownPart?: KnownPartRequest;
 }
 
-/** Under this many samples per ring period the fitted frequency may be an alias: refused (2 is the Nyquist limit; the margin is our choice). */
-export const REFUSED_SAMPLES_PER_PERIOD = 2.5;
 /** A drift beyond this many combined standard errors between the first and the last window is reported (about 0.3 % false alarms for honest errors). */
 const DRIFT_SIGMAS = 3;
 /** The ring is followed until its envelope falls to this many times the fit's residual; beyond, the windows would fit noise. */
@@ -98,7 +96,7 @@ function samplesPerPeriod(input: SetupCheckInput): SetupCheck[] {
   const dt = sampleInterval(input.channel.time);
   if (omega === null || dt === null || !(dt > 0)) return [];
   const frequency = omega / (2 * Math.PI);
-  const perPeriod = 1 / (frequency * dt);
+  const perPeriod = samplesPerRingPeriod(frequency, dt);
   const values = { samplesPerPeriod: perPeriod, frequency, sampleInterval: dt };
   const at = `${perPeriod.toFixed(1)} samples per ring period (${formatEngineering(frequency, 'Hz')} sampled every ${formatEngineering(dt, 's')})`;
   if (perPeriod < REFUSED_SAMPLES_PER_PERIOD) {
