@@ -141,7 +141,7 @@ async function main(): Promise<void> {
     ),
   );
   console.log(
-    'The profiler samples the main thread (CPU time, not waiting); its own cost makes profiled times longer than plain ones, so the last column spreads the plain wall time by the median shares.',
+    'The profiler samples the main thread over wall time (a busy machine stretches every phase) and costs time itself, so the last column spreads the plain wall time by the median shares.',
   );
   console.log(
     "start-up: node's own start and loading the bundle; options and output: the command line's parsing, settings, JSON and writing; after the fit: components, transition metrics, cautions and the other checks of measureCapture.",
