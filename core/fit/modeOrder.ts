@@ -17,7 +17,7 @@ import { information } from './modelSelection';
 import { nestedFTestTail } from './significance';
 import { parameterCount, solveModes, startConstraintOf, ModesWorkspace, type ModeRates, type ModeSpec } from './modesModel';
 import { refineModes, type ModesFit } from './modesFit';
-import { residualAfter, ringStarts, slowStarts, type RingStart } from './modesStarts';
+import { GRID_NYQUIST_SHARE, gridNyquist, residualAfter, ringStarts, slowStarts, type RingStart } from './modesStarts';
 import { modelName, multiModeModel, ORDER_CRITERION, termAmplitudes, type MultiModeModel } from './modesResult';
 
 /** Most ringing modes fitted (the pencil's closed-form eigenvalues reach three poles; three rings is already rare). */
@@ -190,10 +190,13 @@ function effectiveCount(set: FitSet, model: ArrayLike<number>, parameters: numbe
  * than that are how a least-squares fit bends one ring to a small model mismatch (a drifting frequency, a
  * slightly nonlinear part), which a capture with little noise shows as a significant drop in residual.
  */
-function indistinctRings(fit: ModesFit): string | null {
+function indistinctRings(fit: ModesFit, set: FitSet): string | null {
   const rings = fit.rates.rings.map((ring) => ({ ...ring, omegaD: Math.sqrt(Math.max(0, ring.omega0 ** 2 - ring.alpha ** 2)) }));
   const overdamped = rings.find((ring) => !(ring.alpha < ring.omega0));
   if (overdamped) return `finds a term with zeta ${(overdamped.alpha / overdamped.omega0).toPrecision(2)}, no ring`;
+  const nyquist = gridNyquist(set);
+  const aliased = rings.find((ring) => ring.omegaD > GRID_NYQUIST_SHARE * nyquist);
+  if (aliased) return `finds a ring at ${(aliased.omegaD / nyquist).toPrecision(3)} of the Nyquist rate of the values fitted, the alternating pattern of the residual, no mode`;
   for (let j = 0; j < rings.length; j++) {
     for (let k = j + 1; k < rings.length; k++) {
       if (Math.abs(rings[j].omegaD - rings[k].omegaD) <= rings[j].alpha + rings[k].alpha) {
@@ -209,7 +212,7 @@ function compare(simple: Candidate, rich: Candidate, set: FitSet, richModel: Arr
   if (!rich.fit || !(rich.sse < simple.sse)) {
     return { accepted: false, richCriterion: Infinity, text: rich.fit ? 'lowers the residual no further' : 'did not converge' };
   }
-  const indistinct = forced ? null : indistinctRings(rich.fit);
+  const indistinct = forced ? null : indistinctRings(rich.fit, set);
   if (indistinct) return { accepted: false, richCriterion: Infinity, text: indistinct };
   const n = set.values.length;
   const nEff = effectiveCount(set, richModel, rich.parameters);

@@ -4,6 +4,7 @@ import { fitCurve } from './fitCurve';
 import { stallAsConvergence } from './projectedModel';
 import { ModesWorkspace, solveModes, type ModeLinear, type ModeRates, type ModeSpec } from './modesModel';
 import type { FitSet } from './fitSet';
+import { gridNyquist } from './modesStarts';
 import type { FitStatus } from './types';
 
 /** A start that has not converged by then is crawling along a degenerate valley (as in refine.ts). */
@@ -30,7 +31,7 @@ export interface ModesFit {
  * Levenberg-Marquardt over each ring's alpha and omega0 (scaled by its own starting omega0), the slow rate
  * (by its start) and t0 where fitted (1 + (t0 - t0 start) omega0 of the first ring); for each trial the
  * levels and amplitudes follow by linear least squares (variable projection, Golub and Pereyra 1973).
- * omega0 is held below twice the Nyquist rate (or twice its start): above it a ring aliases onto a slower one.
+ * omega0 is held below twice the Nyquist rate of the values fitted (or twice its start): above it a ring aliases onto a slower one.
  * t0 is refitted where the one-ring layout fits it (a response continuous at the event: t0 trades against every
  * ring's phase, so holding it at the one-ring value would leave its uncertainty out of every mode's), and held
  * where the one-ring layout holds it (a jump, or no samples before the event), as that fit does.
@@ -38,7 +39,7 @@ export interface ModesFit {
 export function refineModes(set: FitSet, spec: ModeSpec, start: ModeRates): ModesFit {
   const scales = [...start.rings.map((ring) => ring.omega0), ...(spec.slow ? [start.slowRate] : [])];
   const reference = start.rings[0].omega0;
-  const nyquist = Math.PI / (set.block?.spacing ?? set.dt);
+  const nyquist = gridNyquist(set);
   const physical = (u: readonly number[]): ModeRates => ({
     rings: start.rings.map((_, k) => ({ alpha: u[2 * k] * scales[k], omega0: u[2 * k + 1] * scales[k] })),
     slowRate: spec.slow ? u[2 * spec.rings] * scales[spec.rings] : 0,

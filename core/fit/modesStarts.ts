@@ -16,6 +16,18 @@ const FALLBACK_ZETA = 0.05;
 /** Fallback slow rates, in units of the first ring's alpha: a decay several times slower than the ring's envelope. */
 const FALLBACK_SLOW_RATIOS = [0.3, 0.1];
 
+/**
+ * A ring is looked for below this share of the Nyquist rate of the values fitted (block means where the record
+ * is long): a pole near it is the alternating pattern any residual holds some of, not a mode (a long two-mode
+ * record found one at 0.9999 of it, zeta 0.002).
+ */
+export const GRID_NYQUIST_SHARE = 0.8;
+
+/** The Nyquist rate of the values fitted, rad/s: of the block means where the record is long (above it a ring is not seen). */
+export function gridNyquist(set: FitSet): number {
+  return Math.PI / set.dt;
+}
+
 export interface RingStart {
   alpha: number;
   omega0: number;
@@ -56,8 +68,7 @@ function residualPoles(residual: Float64Array, dt: number): { decay: number; ome
  * below the Nyquist rate), then fallbacks around the first ring.
  */
 export function ringStarts(set: FitSet, residual: Float64Array, first: RingStart): RingStart[] {
-  const dt = set.block?.spacing ?? set.dt;
-  const nyquist = Math.PI / dt;
+  const nyquist = GRID_NYQUIST_SHARE * gridNyquist(set);
   const poles = residualPoles(residual, set.dt).filter((p) => p.omega > 0 && p.decay > 0 && p.omega < nyquist);
   const found = poles.map((p) => ({ alpha: p.decay, omega0: Math.hypot(p.decay, p.omega) }));
   const fallback = FALLBACK_RING_RATIOS.map((r) => ({ alpha: FALLBACK_ZETA * r * first.omega0, omega0: r * first.omega0 })).filter((s) => s.omega0 < nyquist);
