@@ -1,6 +1,6 @@
 // What the window shows at any moment: one plain object, re-rendered by every panel after each change.
 
-import type { SetupCheck } from '../core/circuit/setupTypes';
+import type { SetupCheck, SetupOptions } from '../core/circuit/setupTypes';
 import type { ResponseFit } from '../core/fit/fitResponse';
 import type { FitSummary } from '../core/report/fitSummary';
 import type { Design } from '../core/circuit/design';
@@ -93,6 +93,8 @@ export interface BenchState {
   cautions: CautionResult | null;
   /** Can this capture support the answer (setupChecks.ts), from the last measurement; empty without one. */
   setupChecks: SetupCheck[];
+  /** What was stated about the scope and probe in the fit panel; every measurement carries it to the setup checks. */
+  setupOptions: SetupOptions;
   extraction: ParasiticsResult | null;
   extractionError: string | null;
   /** The probe capacitance the extraction was run with, F: its line of 1/f0² against the added C is offset by it. */
@@ -141,6 +143,7 @@ export function initialState(face: 'window' | 'browser'): BenchState {
     verdictError: null,
     cautions: null,
     setupChecks: [],
+    setupOptions: {},
     extraction: null,
     extractionError: null,
     extractionProbeC: 0,

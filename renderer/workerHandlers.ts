@@ -69,6 +69,7 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
           captureWarnings: capture.warnings,
           importSummary: capture.importSummary,
           metadata: capture.metadata,
+          setup: request.setup,
           window: request.window,
           knownPart: request.knownPart,
           design: request.design,

@@ -11,6 +11,7 @@ import type { Comparison } from '../core/report/comparisonText';
 import type { FitWindow, MeasureResult } from '../core/workflow/measure';
 import type { KnownPartRequest } from '../core/workflow/measuredComponents';
 import type { ProbeScaling } from '../core/workflow/probeScaling';
+import type { SetupOptions } from '../core/circuit/setupTypes';
 
 export type { FitWindow } from '../core/workflow/measure';
 
@@ -121,6 +122,8 @@ export type WorkerRequest =
       window: FitWindow;
       knownPart?: KnownPartRequest;
       design?: Design;
+      /** What was stated about the scope and probe, for the setup checks. Default: nothing stated. */
+      setup?: SetupOptions;
       /** Where the design's prediction starts when the window was set by hand, s. */
       eventTime?: number;
       /** Which event of a record holding several to fit, 1-based. Default: the first complete one. */

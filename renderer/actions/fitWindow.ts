@@ -1,5 +1,6 @@
 // Measuring the open channel in the worker (fit, then verdict and parts beside it, then cautions); a new fit window measures again.
 
+import type { SetupOptions } from '../../core/circuit/setupTypes';
 import type { FitWindow } from '../workerProtocol';
 import { reweighCautions } from './cautions';
 import { knownPartForFit } from './components';
@@ -32,6 +33,12 @@ export async function chooseMode(ctx: ActionContext, mode: number): Promise<void
   await measure(ctx);
 }
 
+/** What was stated about the scope and probe: the setup checks weigh the capture against it from the next fit on. */
+export async function setSetup(ctx: ActionContext, setup: SetupOptions): Promise<void> {
+  ctx.store.state.setupOptions = setup;
+  await measure(ctx);
+}
+
 export async function measure(ctx: ActionContext): Promise<void> {
   const state = ctx.store.state;
   // A new capture or channel (its measurement forgotten) starts from the data's own order and the dominant mode.
@@ -53,6 +60,7 @@ export async function measure(ctx: ActionContext): Promise<void> {
         channel: capture.channel,
         window: userWindow,
         knownPart,
+        setup: state.setupOptions,
         design: design?.design,
         eventTime,
         event: chosenEvent ?? undefined,

@@ -1,5 +1,6 @@
 // Every action of the window bound to one context: what the panels and the page entry call.
 
+import type { SetupOptions } from '../../core/circuit/setupTypes';
 import type { ComponentsInput } from '../benchState';
 import type { OpenedFile, ReportFormat } from '../bridgeTypes';
 import type { CorrectionForm, LogForm } from '../logRequest';
@@ -14,7 +15,7 @@ import type { ActionContext } from './context';
 import { clearDesign, loadDesignFromSamples, pickDesign, saveDesign, useEditedDesign } from './design';
 import { copyPlot, copyResults, exportPlot, exportReport } from './export';
 import { runExtraction, type ExtractionRow, type ExtractionSettings } from './extraction';
-import { chooseEvent, chooseMode, setModes, setWindow } from './fitWindow';
+import { chooseEvent, chooseMode, setModes, setSetup, setWindow } from './fitWindow';
 import { pickCaptureFile, readSampleText } from './pickCaptures';
 import { stopWork } from './stopWork';
 import { setProbe } from './probe';
@@ -36,6 +37,7 @@ export function bindActions(ctx: ActionContext) {
     setWindow: (window: FitWindow) => setWindow(ctx, window),
     chooseEvent: (event: number) => chooseEvent(ctx, event),
     setModes: (modes: number | null) => setModes(ctx, modes),
+    setSetup: (setup: SetupOptions) => setSetup(ctx, setup),
     chooseMode: (mode: number) => chooseMode(ctx, mode),
     setComponentsInput: (change: Partial<ComponentsInput>) => setComponentsInput(ctx, change),
     loadDesignFromSamples: (id: string) => loadDesignFromSamples(ctx, id),

@@ -9,7 +9,7 @@ import type { BenchState } from '../benchState';
 import { fitStanding } from '../fitStanding';
 import { eventsView } from './eventsView';
 import { modesView } from './modesView';
-import { setupChecksView } from './setupChecksView';
+import { setupChecksView, setupOptionsForm } from './setupChecksView';
 import { transitionView } from './transitionView';
 import type { BenchActions } from '../actions';
 
@@ -68,7 +68,7 @@ export function createFitPanel(actions: BenchActions) {
   const modeList = h('div', { id: 'modes-section' });
   const setupList = h('div', { id: 'setup-checks' });
   const modeChoices = { setModes: (modes: number | null) => void actions.setModes(modes), chooseMode: (mode: number) => void actions.chooseMode(mode) };
-  body.append(status, setupList, table, copyRow, modeList, eventList, steps, h('h3', {}, 'Fit window'), h('p', { class: 'field-hint' }, 'Drag the edges of the shaded region on the plot, or type the times.'), windowRow, windowNote, extra);
+  body.append(status, setupList, table, copyRow, modeList, eventList, steps, h('h3', {}, 'Fit window'), h('p', { class: 'field-hint' }, 'Drag the edges of the shaded region on the plot, or type the times.'), windowRow, windowNote, setupOptionsForm((setup) => void actions.setSetup(setup)), extra);
 
   function render(state: BenchState): void {
     const { fit, summary, fitError } = state;

@@ -1,7 +1,9 @@
-// The setup checks in the fit panel: can this capture support the answer? Refusals, then warnings, then notes, one line each.
+// The setup checks in the fit panel: can this capture support the answer? Refusals, then warnings, then notes, one line each; and the scope and probe they weigh.
 
-import type { SetupCheck } from '../../core/circuit/setupTypes';
-import { h } from '../dom';
+import type { SetupCheck, SetupOptions } from '../../core/circuit/setupTypes';
+import { parseLength, parsePositiveValue } from '../../core/workflow/userValues';
+import { button, field, h, textInput } from '../dom';
+import { plainMessage } from '../plainMessage';
 
 /** The words and tone of each level (the tones of the fit's badge). */
 const LEVEL = { refusal: ['refused', 'bad'], warning: ['warning', 'warn'], note: ['note', 'muted'] } as const;
@@ -20,4 +22,39 @@ export function setupChecksView(checks: readonly SetupCheck[]): HTMLElement[] {
       }),
     ),
   ];
+}
+
+/**
+ * What the person states about the scope and probe, typed as on the command line ('200M', '10p', '6in'), read by the
+ * same parsers; `apply` refits with them. A value that cannot be read is said beside the fields and nothing changes.
+ */
+export function setupOptionsForm(apply: (setup: SetupOptions) => void): HTMLElement {
+  const bandwidth = textInput('', { id: 'setup-bandwidth', attrs: { 'aria-label': 'Scope bandwidth', placeholder: 'preamble' } });
+  const probeC = textInput('', { id: 'setup-probe-c', attrs: { 'aria-label': 'Probe capacitance', placeholder: 'none' } });
+  const lead = textInput('', { id: 'setup-ground-lead', attrs: { 'aria-label': 'Ground-lead length', placeholder: '6in' } });
+  const note = h('p', { class: 'field-note', id: 'setup-note' });
+  const read = () => {
+    try {
+      const text = (input: HTMLInputElement) => (input.value.trim() === '' ? undefined : input.value.trim());
+      const setup: SetupOptions = {};
+      const hertz = parsePositiveValue(text(bandwidth), 'scope bandwidth', 'Hz');
+      const farad = parsePositiveValue(text(probeC), 'probe capacitance', 'F');
+      const leadText = text(lead);
+      if (hertz !== undefined) setup.scopeBandwidth = hertz;
+      if (farad !== undefined) setup.probeCapacitance = farad;
+      if (leadText !== undefined) setup.groundLead = parseLength(leadText, 'ground lead');
+      note.textContent = '';
+      apply(setup);
+    } catch (error) {
+      note.textContent = plainMessage(error);
+    }
+  };
+  for (const input of [bandwidth, probeC, lead]) input.addEventListener('keydown', (e) => e.key === 'Enter' && read());
+  return h(
+    'details',
+    { class: 'setup-options', id: 'setup-options' },
+    h('summary', {}, 'Scope and probe'),
+    h('div', { class: 'window-row' }, field('Bandwidth', bandwidth), field('Probe C', probeC), field('Ground lead', lead), button('Check', read, { id: 'apply-setup' })),
+    note,
+  );
 }

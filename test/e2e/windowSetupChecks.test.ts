@@ -1,5 +1,6 @@
 // The setup checks in the window: a capture whose preamble states a high-resolution acquisition and whose ring does
-// not decay shows the refusal and the warning in the fit panel, each with its level (screenshot for a person to look at).
+// not decay shows the refusal and the warning in the fit panel, each with its level; a bandwidth typed in the panel is weighed
+// (screenshots for a person to look at).
 
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
@@ -7,7 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { createRandom } from '../../core/random';
-import { buildBench, CHROMIUM, dropFile, hasChromium, launchChromium, outputDir, serveBench, waitForFit, type ServedBench } from './benchHarness';
+import { buildBench, CHROMIUM, dropFile, fitCount, hasChromium, launchChromium, outputDir, serveBench, waitForFit, waitForRefit, type ServedBench } from './benchHarness';
 
 if (!hasChromium) console.warn(`test/e2e/windowSetupChecks.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
 
@@ -53,6 +54,26 @@ describe.skipIf(!hasChromium)('setup checks in the window', () => {
   it('a sample capture shows no setup checks', async () => {
     expect(await page.locator('#setup-checks li').count()).toBe(0);
   });
+
+  it('a scope bandwidth typed under "Scope and probe" refits and warns of its bias on alpha; cleared, the warning goes', async () => {
+    await page.click('#setup-options summary');
+    let before = await fitCount(page);
+    await page.fill('#setup-bandwidth', '30k');
+    await page.press('#setup-bandwidth', 'Enter');
+    await waitForRefit(page, before);
+    const item = page.locator('#setup-checks-list li[data-check="bandwidth"]');
+    expect(await item.innerText()).toMatch(/warning\s+a first-order front end at 30 kHz \(the stated bandwidth\) moves the fitted alpha/);
+    await item.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: join(outputDir, 'setup-bandwidth-1280.png') });
+    await page.fill('#setup-bandwidth', 'wide');
+    await page.press('#setup-bandwidth', 'Enter');
+    expect(await page.locator('#setup-note').innerText()).toContain("scope bandwidth 'wide'");
+    before = await fitCount(page);
+    await page.fill('#setup-bandwidth', '');
+    await page.click('#apply-setup');
+    await waitForRefit(page, before);
+    expect(await page.locator('#setup-checks li').count()).toBe(0);
+  }, TEST_MS);
 
   it('shows the refusal first, then the acquisition-mode warning, each with its level', async () => {
     const file = join(folder, 'tone-hires.csv');
