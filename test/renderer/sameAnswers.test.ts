@@ -58,7 +58,7 @@ describe('the window and the command line give the same answers', () => {
       const knownPart = { topology: parseTopology(entry.topology), known: parseKnown(entry.known.option) };
       const { reply } = ask({ type: 'measure', captureId, channel, window: {}, knownPart });
       expect(reply.fitError).toBeNull();
-      const window = asJson({ ...reply.result!.summary, cautions: reply.result!.cautions }) as Record<string, any>;
+      const window = asJson({ ...reply.result!.summary, setupChecks: reply.result!.setupChecks, cautions: reply.result!.cautions }) as Record<string, any>;
       expect(window.components.known).toBe((cli as Record<string, any>).components.known);
       expect(window.cautions).toEqual((cli as Record<string, any>).cautions);
       expect(window).toEqual(cli);
