@@ -71,6 +71,8 @@ describe('setup checks on seeded captures (invented data)', () => {
     { name: '6 samples per period warns', spec: { ...BASE, samplesPerPeriod: 6 }, id: 'samples-per-period', level: 'warning', says: /6\.0 samples per ring period/ },
     { name: '2.4 samples per period refuses the frequency', spec: { ...BASE, zeta: 0.01, samplesPerPeriod: 2.4, periods: 60 }, id: 'samples-per-period', level: 'refusal', says: /2\.4 samples per ring period .* alias/ },
     { name: 'a tone that does not decay is refused as sustained', spec: { ...BASE, zeta: 0 }, id: 'sustained-oscillation', level: 'refusal', says: /sustained oscillation/ },
+    { name: 'a ring that grows is refused, said to grow', spec: { ...BASE, zeta: -0.01 }, id: 'sustained-oscillation', level: 'refusal', says: /ring grows \(×\d\.\d\d from the first to the last third\)/ },
+    { name: 'a ring growing ninetyfold is refused too', spec: { ...BASE, zeta: -0.03, noise: 0.01 }, id: 'sustained-oscillation', level: 'refusal', says: /(grows|does not decay) .*cannot be given/ },
     { name: 'a high-resolution acquisition mode in the preamble warns', spec: BASE, request: { metadata: { 'Acquisition Mode': 'High Res' } }, id: 'acquisition-mode', level: 'warning', says: /'Acquisition Mode: High Res'/ },
     { name: 'averaging, any spelling, warns', spec: BASE, request: { metadata: { ACQ: 'AVERage (16)' } }, id: 'acquisition-mode', level: 'warning', says: /low-pass/ },
     {
@@ -110,6 +112,25 @@ describe('setup checks on seeded captures (invented data)', () => {
       expect(setupRefused(checks)).toBe(checks.some((check) => check.level === 'refusal'));
     });
   }
+
+  it('a growing sine no decaying response fits (status no-response) is refused as growing', () => {
+    const time = Float64Array.from({ length: 2000 }, (_, i) => i * 1e-8);
+    const random = createRandom(4);
+    const values = time.map((t) => Math.exp(2e5 * t) * Math.sin(2 * Math.PI * 1e6 * t + 0.3) + 0.005 * random.normal());
+    const measured = measureCapture({ file: 'growing.csv', channel: { name: 'CH1', unit: 'V', time, values, clipped: new Uint8Array(2000), dropped: 0 } });
+    expect(measured.fit.status).not.toBe('converged');
+    expect(measured.setupChecks.map((c) => [c.id, c.level])).toEqual([['sustained-oscillation', 'refusal']]);
+    expect(measured.setupChecks[0].message).toMatch(/^a 1\.000 MHz ring grows|^a 999\.\d kHz ring grows/);
+  });
+
+  it('noise alone (no ring at all) raises none', () => {
+    for (const seed of [1, 2, 3]) {
+      const random = createRandom(seed);
+      const time = Float64Array.from({ length: 2000 }, (_, i) => i * 1e-8);
+      const values = time.map(() => random.normal());
+      expect(checksOf({ name: 'CH1', unit: 'V', time, values, clipped: new Uint8Array(2000), dropped: 0 }), `seed ${seed}`).toEqual([]);
+    }
+  });
 
   it('a current channel at the ground-lead resonance is not flagged (no voltage probe lead)', () => {
     const spec = { ...BASE, frequency: groundLeadResonance(DEFAULT_GROUND_LEAD, DEFAULT_PROBE_CAPACITANCE), unit: 'A' };
