@@ -8,6 +8,7 @@ import type { Channel } from '../capture/types';
 import { BANDWIDTH_FRACTION, MIN_SAMPLES_PER_PERIOD, REFUSED_SAMPLES_PER_PERIOD, samplesPerRingPeriod } from '../circuit/measurementChecks';
 import { frontEndBias } from '../circuit/setupFrontEnd';
 import { ringFrequencyAlong } from '../circuit/setupDrift';
+import { growingRingIn } from '../circuit/setupGrowth';
 import {
   DEFAULT_GROUND_LEAD,
   DEFAULT_PROBE_CAPACITANCE,
@@ -51,18 +52,6 @@ const SUSTAINED_PERIODS = 2;
 const GROWTH_WINDOWS = 3;
 /** The last window's amplitude above the first's by this factor: the ring grows. */
 const GROWTH_RATIO = 1.1;
-/** For a ring the fit could not take: each window's frequency within this fraction of the crossings' estimate... */
-const GROWTH_FREQUENCY_SPREAD = 0.05;
-/** ...and its standard error under this fraction of it: a clear ring in every window, not noise. */
-const GROWTH_FREQUENCY_STDERR = 0.01;
-/**
- * ...and every window's ring at least this share of the record's half-range: a fitted sinusoid in noise alone is far
- * smaller (about 0.05 of it over a few hundred samples), a growing ring's first third larger unless it grows tenfold.
- */
-const GROWTH_MIN_AMPLITUDE = 0.15;
-/** Crossings of the median count once the record is this share of its half-range beyond it. */
-const CROSSING_HYSTERESIS = 0.1;
-
 /** Every setup check that applies to this measurement, in a fixed order: refusals first, then warnings, then notes. */
 export function runSetupChecks(input: SetupCheckInput): SetupCheck[] {
   const sustained = sustainedOscillation(input);
@@ -149,62 +138,19 @@ function sustainedOscillation(input: SetupCheckInput): SetupCheck[] {
   ];
 }
 
-/**
- * A ring the fit could not take (a growing one finds no decaying model and reads as no response): its frequency from
- * the crossings of the record's median, then its amplitude in windows from the first crossing on. Reported only when
- * every window holds a clear ring at that frequency (within GROWTH_FREQUENCY_SPREAD, its standard error under
- * GROWTH_FREQUENCY_STDERR of it) and the last is GROWTH_RATIO above the first.
- */
+/** A ring the fit could not take (a growing one finds no decaying model and reads as no response), found growing. */
 function growingRing(channel: SetupCheckInput['channel']): SetupCheck[] {
-  const { crossings, halfRange } = medianCrossings(channel.time, channel.values);
-  if (crossings.length < 2 * GROWTH_WINDOWS * 3) return [];
-  const start = crossings[0];
-  const end = channel.time[channel.time.length - 1];
-  const omega = (Math.PI * (crossings.length - 1)) / (crossings[crossings.length - 1] - start);
-  const windows = ringFrequencyAlong(channel.time, channel.values, { start, end, alpha: 0, omegaD: omega, windows: GROWTH_WINDOWS });
-  const frequency = omega / (2 * Math.PI);
-  const clear =
-    windows.length === GROWTH_WINDOWS &&
-    windows.every(
-      (w) =>
-        Math.abs(w.frequency.value / frequency - 1) < GROWTH_FREQUENCY_SPREAD &&
-        (w.frequency.stderr ?? Infinity) < GROWTH_FREQUENCY_STDERR * w.frequency.value &&
-        w.amplitude > GROWTH_MIN_AMPLITUDE * halfRange,
-    );
-  const growth = clear ? windows[GROWTH_WINDOWS - 1].amplitude / windows[0].amplitude : 0;
-  if (!(growth > GROWTH_RATIO)) return [];
-  const periods = (omega * (end - start)) / (2 * Math.PI);
+  const grows = growingRingIn(channel.time, channel.values, GROWTH_WINDOWS, GROWTH_RATIO);
+  if (!grows) return [];
+  const { frequency, growth, periods } = grows;
   return [
     {
       id: 'sustained-oscillation',
       level: 'refusal',
-      message: `a ${formatEngineering(windows[0].frequency.value, 'Hz')} ring grows (×${growth.toFixed(2)} from the first to the last third) over ${periods.toFixed(0)} periods: no decaying response fits it, so alpha, zeta and Q cannot be given`,
-      values: { frequency: windows[0].frequency.value, periods, growth },
+      message: `a ${formatEngineering(frequency, 'Hz')} ring grows (×${growth.toFixed(2)} from the first to the last third) over ${periods.toFixed(0)} periods: no decaying response fits it, so alpha, zeta and Q cannot be given`,
+      values: { frequency, periods, growth },
     },
   ];
-}
-
-/**
- * Times the record crosses its median, counting a crossing only once it reaches CROSSING_HYSTERESIS of its half-range
- * beyond (against noise), and that half-range (half the spread between its 5th and 95th percentiles).
- */
-function medianCrossings(time: ArrayLike<number>, values: ArrayLike<number>): { crossings: number[]; halfRange: number } {
-  const sorted = Float64Array.from(values).sort();
-  const n = sorted.length;
-  if (n < 3) return { crossings: [], halfRange: 0 };
-  const level = sorted[Math.floor(n / 2)];
-  const halfRange = (sorted[Math.floor(0.95 * (n - 1))] - sorted[Math.floor(0.05 * (n - 1))]) / 2;
-  const band = CROSSING_HYSTERESIS * halfRange;
-  const out: number[] = [];
-  let side = 0;
-  for (let i = 0; i < n; i++) {
-    const now = values[i] > level + band ? 1 : values[i] < level - band ? -1 : 0;
-    if (now !== 0 && now !== side) {
-      if (side !== 0) out.push(time[i]);
-      side = now;
-    }
-  }
-  return { crossings: out, halfRange };
 }
 
 function bandwidth(input: SetupCheckInput): SetupCheck[] {
