@@ -1,6 +1,7 @@
 // How far the fit on screen can be trusted: green only for a converged fit with nothing to doubt, never beside a failure.
 
 import { fitSucceeded, type FitSummary } from '../core/report/fitSummary';
+import type { SetupCheck } from '../core/circuit/setupTypes';
 
 /** ok: converged, no warning of its own; warn: converged with doubts; bad: the fit did not give a measurement. */
 export type FitTone = 'ok' | 'warn' | 'bad';
@@ -22,15 +23,23 @@ const FAILED_WORDS: Readonly<Record<string, string>> = {
   'no-response': 'no second-order response found',
 };
 
+/** The badge when a setup check refuses the answer (the command line exits 1 for it). */
+const REFUSED_WORDS = 'refused: the capture cannot support the answer';
+
 /**
  * The standing of a fit. The summary's warnings hold the import's too (dropped rows, notes on units), which the
- * capture panel shows; those alone do not turn the badge amber.
+ * capture panel shows; those alone do not turn the badge amber. A setup check's refusal is a failure (red), its
+ * warning a doubt (amber), as on the command line.
  */
-export function fitStanding(summary: Pick<FitSummary, 'status' | 'warnings'>, importWarnings: readonly string[]): FitStanding {
+export function fitStanding(summary: Pick<FitSummary, 'status' | 'warnings'>, importWarnings: readonly string[], setupChecks: readonly SetupCheck[] = []): FitStanding {
   const fromImport = new Set(importWarnings);
-  const doubts = summary.warnings.filter((warning) => !fromImport.has(warning));
+  const setupDoubts = setupChecks.filter((check) => check.level !== 'note').map((check) => check.message);
+  const doubts = [...new Set([...setupDoubts, ...summary.warnings.filter((warning) => !fromImport.has(warning))])];
   if (!fitSucceeded(summary)) {
     return { tone: 'bad', label: FAILED_WORDS[summary.status] ?? summary.status, doubts, showRegime: false };
+  }
+  if (setupChecks.some((check) => check.level === 'refusal')) {
+    return { tone: 'bad', label: REFUSED_WORDS, doubts, showRegime: false };
   }
   if (doubts.length > 0) {
     return { tone: 'warn', label: `converged, ${doubts.length} warning${doubts.length === 1 ? '' : 's'}`, doubts, showRegime: true };

@@ -86,7 +86,7 @@ export function createFitPanel(actions: BenchActions) {
       extra.replaceChildren();
       return;
     }
-    const standing = fitStanding(summary, state.capture?.info.warnings ?? []);
+    const standing = fitStanding(summary, state.capture?.info.warnings ?? [], state.setupChecks);
     const [firstDoubt, ...otherDoubts] = standing.doubts;
     replaceChildren(
       status,
@@ -96,7 +96,8 @@ export function createFitPanel(actions: BenchActions) {
         h('span', { class: `badge ${standing.tone}`, id: 'fit-state', data: { status: fit.status, tone: standing.tone } }, standing.label),
         standing.showRegime ? h('span', { class: 'regime', id: 'fit-regime', data: { regime: fit.regime } }, fit.regime) : null,
       ),
-      standing.tone === 'bad' && fit.message !== standing.label ? h('p', { class: 'error-text', id: 'fit-message' }, fit.message) : null,
+      // The solver's message explains a failed fit; beside a setup check's refusal (a converged fit) it would only confuse.
+      standing.tone === 'bad' && fit.status !== 'converged' && fit.message !== standing.label ? h('p', { class: 'error-text', id: 'fit-message' }, fit.message) : null,
       firstDoubt ? h('p', { class: `first-warning ${standing.tone}`, id: 'fit-first-warning' }, firstDoubt, otherDoubts.length ? h('span', { class: 'muted' }, ` (${otherDoubts.length} more below)`) : null) : null,
       standing.showRegime ? h('p', { class: 'muted small' }, fit.regimeEvidence) : null,
     );

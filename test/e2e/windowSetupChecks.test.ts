@@ -87,6 +87,12 @@ describe.skipIf(!hasChromium)('setup checks in the window', () => {
     expect(await items.nth(0).innerText()).toMatch(/refused\s+the 2 MHz ring .* sustained oscillation, so alpha, zeta and Q cannot be given/);
     expect(await items.nth(1).getAttribute('data-check')).toBe('acquisition-mode');
     expect(await items.nth(1).innerText()).toContain("'Acquisition Mode: High Res'");
+    // The badge says the answer was refused, in red, with no regime: never green beside a refusal.
+    expect(await page.locator('#fit-state').getAttribute('data-tone')).toBe('bad');
+    expect(await page.locator('#fit-state').innerText()).toContain('refused');
+    expect(await page.locator('#fit-regime').count()).toBe(0);
+    await page.locator('#fit-state').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: join(outputDir, 'setup-checks-badge-1280.png') });
     await page.screenshot({ path: join(outputDir, 'setup-checks-1280.png') });
   }, TEST_MS);
 });

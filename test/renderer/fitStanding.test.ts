@@ -29,6 +29,14 @@ describe('fitStanding', () => {
     expect(standing.doubts).toEqual(['implausible: a ring of 2 mHz in a 1 ms record', RESIDUAL]);
   });
 
+  it('turns red when a setup check refuses the answer and amber when one warns, as the command line exits 1 and 0', () => {
+    const converged = { status: 'converged' as const, warnings: [] };
+    const refused = fitStanding(converged, [], [{ id: 'sustained-oscillation', level: 'refusal', message: 'the ring does not decay' }]);
+    expect([refused.tone, refused.showRegime, refused.doubts]).toEqual(['bad', false, ['the ring does not decay']]);
+    const warned = fitStanding(converged, [], [{ id: 'bandwidth', level: 'warning', message: 'the front end moves alpha' }, { id: 'record-length', level: 'note', message: 'short' }]);
+    expect([warned.tone, warned.doubts]).toEqual(['warn', ['the front end moves alpha']]);
+  });
+
   it('never shows green beside the fit of a flat, noisy record', () => {
     handleWorkerRequest({ type: 'open', captureId: 'flat', name: 'flat-noise.csv', content: { text: flatNoiseCapture() } }, () => undefined);
     const reply = handleWorkerRequest({ type: 'measure', captureId: 'flat', channel: 0, window: {} }, () => undefined).value as Extract<WorkerReplyValue, { type: 'measure' }>;
