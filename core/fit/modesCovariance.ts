@@ -1,14 +1,13 @@
 // Covariance of every parameter of a model with several modes: its Jacobian, as a sandwich when the residuals are correlated.
 
-import { covarianceFromJacobian, sandwichCovariance } from './covariance';
+import { covarianceFromJacobian } from './covariance';
+import { residualSandwich } from './responseCovariance';
 import { expandLinear, linearNames, modesValues, ModesWorkspace, solverLinear, type ModeRates } from './modesModel';
 import type { ModesFit } from './modesFit';
 import type { FitSet } from './fitSet';
 
 /** Relative central-difference step of the Jacobian (as responseCovariance.ts takes it). */
 const STEP = 1e-6;
-/** Longest autoregression tried for the residuals (a scope front end's noise needs a few lags). */
-const MAX_NOISE_ORDER = 20;
 /** Above this variance ratio against white noise for a ring's rates, the widening is worth a warning. */
 const WARN_INFLATION = 1.5;
 
@@ -90,69 +89,13 @@ export function modesCovariance(set: FitSet, fit: ModesFit): ModesCovariance {
   if (!bread) return { names, values, covariance: null, correlation: estimate.correlation, warnings };
   const variance = fit.sse / Math.max(1, rows.length - values.length);
   const plain = bread.map((row) => row.map((v) => variance * v));
-  const noise = residualAutoregression(residuals);
-  if (!noise) return { names, values, covariance: plain, correlation: estimate.correlation, warnings };
-  const { covariance, correlation } = correlatedCovariance(J, bread, residuals, noise);
+  const sandwich = residualSandwich(J, bread, residuals);
+  if (!sandwich) return { names, values, covariance: plain, correlation: estimate.correlation, warnings };
+  const { covariance, correlation } = sandwich;
   const rateIndex = names.map((name, j) => (/^(alpha|omega0)\d/.test(name) ? j : -1)).filter((j) => j >= 0);
   const inflation = Math.max(...rateIndex.map((j) => covariance[j][j] / plain[j][j]));
   if (inflation > WARN_INFLATION) {
     warnings.push(`the residuals are correlated (noise bandwidth-limited or model mismatch): the modes' uncertainties widened by up to ${Math.sqrt(inflation).toFixed(2)}x`);
   }
   return { names, values, covariance, correlation, warnings };
-}
-
-interface NoiseModel {
-  coefficients: number[];
-  /** Variance of the residuals over that of the innovations. */
-  varianceRatio: number;
-}
-
-/** The autoregression of the residuals the BIC picks (Levinson-Durbin on their autocovariance); null when white wins. */
-function residualAutoregression(residuals: Float64Array): NoiseModel | null {
-  const n = residuals.length;
-  const maxOrder = Math.min(MAX_NOISE_ORDER, Math.floor(n / 10));
-  const gamma = Array.from({ length: maxOrder + 1 }, (_, k) => {
-    let sum = 0;
-    for (let i = 0; i + k < n; i++) sum += residuals[i] * residuals[i + k];
-    return sum;
-  });
-  if (!(gamma[0] > 0)) return null;
-  let coefficients: number[] = [];
-  let error = gamma[0];
-  let best: NoiseModel | null = null;
-  let bestScore = n * Math.log(error);
-  for (let m = 1; m <= maxOrder; m++) {
-    let numerator = gamma[m];
-    for (let j = 0; j < m - 1; j++) numerator -= coefficients[j] * gamma[m - 1 - j];
-    const kappa = numerator / error;
-    coefficients = [...coefficients.map((c, j) => c - kappa * coefficients[m - 2 - j]), kappa];
-    error *= 1 - kappa * kappa;
-    const score = n * Math.log(error) + m * Math.log(n);
-    if (score < bestScore) {
-      bestScore = score;
-      best = { coefficients, varianceRatio: gamma[0] / error };
-    }
-  }
-  return best;
-}
-
-/** The sandwich with S = s F^-1 F^-T of the noise model, scaled so that E[r^T r] = tr((I - P) S). */
-function correlatedCovariance(J: readonly Float64Array[], bread: number[][], residuals: Float64Array, noise: NoiseModel) {
-  const n = J.length;
-  const K = J.map((row) => Float64Array.from(row));
-  for (let i = n - 2; i >= 0; i--) {
-    for (let j = 0; j < noise.coefficients.length && i + 1 + j < n; j++) {
-      const later = K[i + 1 + j];
-      for (let a = 0; a < later.length; a++) K[i][a] += noise.coefficients[j] * later[a];
-    }
-  }
-  const p = bread.length;
-  const shape = Array.from({ length: p }, () => new Array<number>(p).fill(0));
-  for (const row of K) for (let a = 0; a < p; a++) for (let b = 0; b < p; b++) shape[a][b] += row[a] * row[b];
-  let leverage = 0;
-  for (let a = 0; a < p; a++) for (let b = 0; b < p; b++) leverage += bread[a][b] * shape[b][a];
-  let sse = 0;
-  for (const r of residuals) sse += r * r;
-  const scale = sse / Math.max(residuals.length * noise.varianceRatio - leverage, 1);
-  return sandwichCovariance(bread, shape.map((row) => row.map((v) => scale * v)));
 }

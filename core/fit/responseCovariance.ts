@@ -202,6 +202,20 @@ function correlatedCovariance(
 }
 
 /**
+ * The covariance allowing for correlated residuals, from the Jacobian J at the solution, the bread (J^T J)^-1 and
+ * the residuals; null when the residuals look white (then the white-noise covariance stands). Every fit with
+ * a Jacobian (one ring here, several in modesCovariance.ts) reads its residuals' noise this one way.
+ */
+export function residualSandwich(
+  J: readonly Float64Array[],
+  bread: number[][],
+  residuals: Float64Array,
+): { covariance: number[][]; correlation: number[][] } | null {
+  const noise = residualNoiseModel(residuals, J, bread);
+  return noise ? correlatedCovariance(J, bread, residuals, noise) : null;
+}
+
+/**
  * The covariance of the fitted parameters: the local one (white or sandwich), widened along zeta's profile
  * where the fit is not clearly underdamped (there the residual is far from a parabola in the damping).
  */
@@ -245,9 +259,9 @@ function localCovariance(
   const bread = estimate.covariance;
   const warnings = [...estimate.warnings];
   const plain = bread?.map((row) => row.map((v) => residualVariance * v)) ?? null;
-  const noise = bread ? residualNoiseModel(residuals, J, bread) : null;
-  if (!bread || !plain || !noise) return { names, covariance: plain, correlation: estimate.correlation, inflation: 1, warnings };
-  const { covariance, correlation } = correlatedCovariance(J, bread, residuals, noise);
+  const sandwich = bread ? residualSandwich(J, bread, residuals) : null;
+  if (!bread || !plain || !sandwich) return { names, covariance: plain, correlation: estimate.correlation, inflation: 1, warnings };
+  const { covariance, correlation } = sandwich;
   const rates = ['alpha', 'omega0'].filter((name) => name in index);
   const ratios = rates.map((name) => covariance[index[name]][index[name]] / plain[index[name]][index[name]]);
   if (Math.max(...ratios) > WARN_INFLATION) {
