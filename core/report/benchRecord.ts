@@ -32,6 +32,16 @@ export interface MeasurementSettings {
   /** The probe attenuation and reversal applied to the channel, given only when stated (--probe-ratio, --invert). */
   probeRatio?: string;
   invert?: boolean;
+  /** The event measured (--event), the stated jump at it (--jump-start), given only when asked for. */
+  event?: string;
+  jumpStart?: boolean;
+  /** The ringing modes fitted (--modes) and the mode R, L and C are for (--mode), given only when asked for. */
+  modes?: string;
+  mode?: string;
+  /** What the setup checks weighed (--scope-bandwidth, --probe-capacitance, --ground-lead), given only when stated. */
+  scopeBandwidth?: string;
+  probeCapacitance?: string;
+  groundLead?: string;
 }
 
 /** Cautions as logged: the standing advice and deferral are the same for every record and left out. */

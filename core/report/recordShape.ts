@@ -28,7 +28,7 @@ const FIT_QUANTITY_ROWS: readonly ResultRowSpec[] = RESULT_ROWS.filter((row: Res
 const PARAM_NAMES = ['t0', 'yPre', 'yFinal', 'alpha', 'omega0', 'a', 'b'];
 const SETTING_TEXTS = ['topology', 'known', 'column', 'sampleInterval', 'from', 'to'];
 /** Settings left out when not given (and by records of earlier versions). */
-const OPTIONAL_SETTING_TEXTS = ['timeUnit', 'valueUnit', 'segment', 'probeRatio'];
+const OPTIONAL_SETTING_TEXTS = ['timeUnit', 'valueUnit', 'segment', 'probeRatio', 'event', 'modes', 'mode', 'scopeBandwidth', 'probeCapacitance', 'groundLead'];
 
 /**
  * The first thing wrong with the measured part of a record (unit ... cautions), or null. The same
@@ -44,7 +44,7 @@ export function measurementShapeProblem(value: Json): ShapeProblem | null {
     return at('capture', 'must give path, channel, sha256 (64 hex digits) and bytes');
   }
   if (!isSettings(value.settings)) {
-    return at('settings', 'must give topology, known, column, sampleInterval, from, to (text or null) and sortTime, and timeUnit, valueUnit, segment, probeRatio only as text, invert only as true or false');
+    return at('settings', 'must give topology, known, column, sampleInterval, from, to (text or null) and sortTime, and timeUnit, valueUnit, segment, probeRatio, event, modes, mode, scopeBandwidth, probeCapacitance, groundLead only as text, invert and jumpStart only as true or false');
   }
   const fit = fitSummaryProblem(value.fit);
   if (fit) return nested('fit', fit);
@@ -199,7 +199,8 @@ function isSettings(value: unknown): boolean {
   if (!isObject(value) || typeof value.sortTime !== 'boolean') return false;
   const given = SETTING_TEXTS.every((key) => value[key] === null || isText(value[key]));
   const stated = OPTIONAL_SETTING_TEXTS.every((key) => value[key] === undefined || isText(value[key]));
-  return given && stated && (value.invert === undefined || typeof value.invert === 'boolean');
+  const flags = ['invert', 'jumpStart'].every((key) => value[key] === undefined || typeof value[key] === 'boolean');
+  return given && stated && flags;
 }
 
 /** JSON turns NaN and Infinity into null, so a number that could not be formed arrives as null. */

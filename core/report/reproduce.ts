@@ -21,5 +21,19 @@ export function reproduceCommand(record: BenchRecord): string {
   option('topology', s.topology);
   option('known', s.known);
   if (s.sortTime) words.push('--sort-time');
+  // Stated only in records that asked for them (older records have none of these).
+  option('time-unit', s.timeUnit ?? null);
+  option('value-unit', s.valueUnit ?? null);
+  option('segment', s.segment ?? null);
+  option('event', s.event ?? null);
+  option('probe-ratio', s.probeRatio ?? null);
+  if (s.invert) words.push('--invert');
+  if (s.jumpStart) words.push('--jump-start');
+  option('modes', s.modes ?? null);
+  // fit takes --mode only with a known part (a record checked against a design has none).
+  option('mode', s.known === null ? null : (s.mode ?? null));
+  option('scope-bandwidth', s.scopeBandwidth ?? null);
+  option('probe-capacitance', s.probeCapacitance ?? null);
+  option('ground-lead', s.groundLead ?? null);
   return words.map(shellQuote).join(' ');
 }

@@ -307,4 +307,18 @@ describe('formatLogTable and reproduceCommand', () => {
     });
     expect(reproduceCommand(record)).toBe(`ringbench fit '/bench/o'\\''brien run/cap.csv' --column 'V C' --sample-interval 2n --from -10n --sort-time`);
   });
+
+  it('runs a logged fit again with every reading, mode and setup option the record states', () => {
+    const record = sampleRecord({
+      settings: {
+        topology: 'series', known: 'C=1n', column: null, sampleInterval: null, from: null, to: null, sortTime: false,
+        segment: '2', event: '3', probeRatio: '10', invert: true, jumpStart: true, modes: '2', mode: '2', scopeBandwidth: '200M', probeCapacitance: '10p', groundLead: '6in',
+      },
+    });
+    expect(reproduceCommand(record)).toBe(
+      `ringbench fit ${record.capture.path} --topology series --known C=1n --segment 2 --event 3 --probe-ratio 10 --invert --jump-start --modes 2 --mode 2 --scope-bandwidth 200M --probe-capacitance 10p --ground-lead 6in`,
+    );
+    // Without a known part (a record checked against a design) fit would refuse --mode: it is left out.
+    expect(reproduceCommand(sampleRecord({ settings: { ...record.settings, known: null, topology: null } }))).not.toContain('--mode ');
+  });
 });

@@ -138,4 +138,16 @@ describe('bench log and report: the setup checks of a logged measurement', () =>
     expect((await run(['report', 'setup-log.jsonl', '--out', 'setup.html'])).code).toBe(0);
     expect(readFileSync(path.join(folder, 'setup.html'), 'utf8')).toMatch(/<h4>Setup checks<\/h4><ul><li class="warning"><strong>warning<\/strong> the preamble&#39;s &#39;Acquisition Mode: High Res&#39;|<h4>Setup checks<\/h4><ul><li class="warning"><strong>warning<\/strong> the preamble's 'Acquisition Mode: High Res'/);
   });
+
+  it('log add takes the setup options and keeps them in the record; a refused answer is not logged (exit 1)', async () => {
+    const logged = await run(['log', 'add', 'switch-node-before.csv', '--log', 'options-log.jsonl', '--unit', 'U8', '--ground-lead', '10in', '--json']);
+    expect(logged.code).toBe(0);
+    const record = JSON.parse(logged.out).logged;
+    expect(record.settings.groundLead).toBe('10in');
+    expect((record.setupChecks as SetupCheck[]).map((c) => c.id)).toEqual(['ground-lead']);
+    const refused = await run(['log', 'add', 'tone.csv', '--log', 'options-log.jsonl', '--unit', 'U9']);
+    expect(refused.code).toBe(1);
+    expect(refused.err).toMatch(/a setup check refused the answer, nothing was logged: the 2 MHz ring/);
+    expect(readFileSync(path.join(folder, 'options-log.jsonl'), 'utf8').trim().split('\n')).toHaveLength(1);
+  });
 });

@@ -4,7 +4,9 @@
 import type { Command } from 'commander';
 import { resolve } from 'node:path';
 import type { CommandContext } from '../commandContext';
-import { addCaptureOptions, addComponentOptions, measureSettingsOf, type MeasureCommandOptions } from '../measureOptions';
+import { addCaptureOptions, addComponentOptions, addModeOptions, addSetupOptions, measureSettingsOf, type MeasureCommandOptions } from '../measureOptions';
+import { setupRefused } from '../../../core/workflow/setupChecks';
+import { formatSetupChecksText } from '../../../core/report/setupChecksText';
 import { appendBenchLog, describeTornTail, readCleanBenchLog, requireBenchLogFile, requireLogFolder } from '../../io/benchLog';
 import { correctLoggedMeasurement } from '../../app/logCorrection';
 import type { CorrectionAction, LabelChanges, WithdrawnMeasurement } from '../../../core/report/logCorrection';
@@ -41,7 +43,7 @@ export function registerLogCommand(program: Command, ctx: CommandContext): void 
     .requiredOption('--log <path>', 'bench log file (created when missing; its folder must exist)')
     .requiredOption('--unit <id>', 'unit under test, e.g. a serial number (1 to 100 characters)')
     .option('--design <file>', 'design file to check the unit against (instead of --topology/--known)');
-  addCaptureOptions(addComponentOptions(add))
+  addModeOptions(addSetupOptions(addCaptureOptions(addComponentOptions(add))))
     .option('--operator <name>', 'who measured')
     .option('--station <name>', 'fixture or test station the unit was measured on')
     .option('--note <text>', 'free text kept with the record')
@@ -64,6 +66,14 @@ export function registerLogCommand(program: Command, ctx: CommandContext): void 
       if (!fitSucceeded(measurement.summary)) {
         ctx.io.out(options.json ? `${JSON.stringify({ logged: null, fit: measurement.summary })}\n` : formatFitText(measurement.summary));
         ctx.io.err(`ringbench: the fit failed (${measurement.summary.status}), nothing was logged: ${measurement.summary.message}\n`);
+        ctx.setExitCode(EXIT.failure);
+        return;
+      }
+      // A setup check's refusal (an aliased frequency, a ring that does not decay): the answer cannot be stated, so it is not logged.
+      if (setupRefused(measurement.setupChecks)) {
+        const { setupChecks } = measurement;
+        ctx.io.out(options.json ? `${JSON.stringify({ logged: null, fit: measurement.summary, setupChecks })}\n` : formatFitText(measurement.summary) + formatSetupChecksText(setupChecks));
+        ctx.io.err(`ringbench: a setup check refused the answer, nothing was logged: ${setupChecks.find((c) => c.level === 'refusal')?.message}\n`);
         ctx.setExitCode(EXIT.failure);
         return;
       }
