@@ -20,6 +20,8 @@ export function buildLogRequest(state: BenchState, form: LogForm): BenchLogReque
   if (!capture || !summary) throw new BenchError('there is no fitted measurement to log: open a capture first');
   if (!fitSucceeded(summary)) throw new BenchError(`the fit did not converge (${summary.status}): there is no measurement to log`);
   if (form.unit.trim() === '') throw new BenchError('give the unit under test a name or serial number before logging');
+  const refusal = state.setupChecks.find((check) => check.level === 'refusal');
+  if (refusal) throw new BenchError(`a setup check refused the answer, so there is no measurement to log: ${refusal.message}`);
   const channel = capture.info.channels[capture.channel];
   const { units } = state.reading;
   const segment = segmentRead(capture.info);
@@ -50,6 +52,7 @@ export function buildLogRequest(state: BenchState, form: LogForm): BenchLogReque
     verdict,
     design: design ? { path: design.path, name: design.design.name, sha256: design.sha256, spec: design.design } : null,
     cautions: logged,
+    ...(state.setupChecks.length ? { setupChecks: state.setupChecks } : {}),
   };
 }
 

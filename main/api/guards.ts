@@ -59,7 +59,7 @@ export function benchLogRequestProblem(value: unknown): string | null {
   return problem && `${problem.field.split('.').join(': ')}: ${problem.problem}`;
 }
 
-const LOG_REQUEST_KEYS = ['unit', 'operator', 'note', 'capture', 'settings', 'fit', 'verdict', 'design', 'cautions'];
+const LOG_REQUEST_KEYS = ['unit', 'operator', 'note', 'capture', 'settings', 'fit', 'verdict', 'design', 'cautions', 'setupChecks'];
 
 /** The first thing wrong with a request to amend or withdraw a logged measurement, naming the field, or null. */
 export function logCorrectionRequestProblem(value: unknown): string | null {

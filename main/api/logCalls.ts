@@ -9,9 +9,13 @@ import { parseDesign } from '../../core/circuit/design';
 import type { BenchLogRequest, BenchLogView, LogCorrectionRequest } from '../../core/bench/benchApiTypes';
 import { VERSION } from '../version';
 import { checkLabel, checkNote } from '../app/labels';
+import { UsageError } from '../../core/inputError';
 
 /** The record for a request: the window's results plus the id, the time and the software. */
 export function recordFromRequest(request: BenchLogRequest, now: Date, id = randomBytes(6).toString('hex')): BenchRecord {
+  // As `ringbench log add`: an answer a setup check refused is not a measurement to log.
+  const refusal = request.setupChecks?.find((check) => check.level === 'refusal');
+  if (refusal) throw new UsageError(`a setup check refused the answer, nothing was logged: ${refusal.message}`);
   const record: BenchRecord = {
     record: RECORD_KIND,
     schema: RECORD_SCHEMA,
@@ -28,6 +32,7 @@ export function recordFromRequest(request: BenchLogRequest, now: Date, id = rand
     // Re-reading the spec checks every field as a design file would be checked.
     design: request.design ? { ...request.design, spec: parseDesign(JSON.stringify(request.design.spec)) } : null,
     cautions: request.cautions,
+    ...(request.setupChecks?.length ? { setupChecks: request.setupChecks } : {}),
     software: { name: 'ringbench', version: VERSION },
   };
   // The same check the log applies to every line it reads back.

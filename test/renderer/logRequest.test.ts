@@ -92,6 +92,19 @@ describe('buildLogRequest', () => {
     expect(() => buildLogRequest(state, { unit: 'X', operator: '', note: '' })).toThrow(/did not converge \(max-iterations\)/);
   });
 
+  it('carries the setup checks into the record, and refuses an answer a setup check refused, as log add does (window and main)', () => {
+    const state = fittedState();
+    const warning = { id: 'acquisition-mode' as const, level: 'warning' as const, message: 'averaged record' };
+    state.setupChecks = [warning];
+    const request = buildLogRequest(state, { unit: 'X', operator: '', note: '' });
+    expect(benchLogRequestProblem(JSON.parse(JSON.stringify(request)))).toBeNull();
+    expect(recordFromRequest(request, new Date(), '0123456789ab').setupChecks).toEqual([warning]);
+    const refusal = { id: 'sustained-oscillation' as const, level: 'refusal' as const, message: 'the ring does not decay' };
+    state.setupChecks = [refusal];
+    expect(() => buildLogRequest(state, { unit: 'X', operator: '', note: '' })).toThrow(/setup check refused the answer.*does not decay/);
+    expect(() => recordFromRequest({ ...request, setupChecks: [refusal] }, new Date())).toThrow(/setup check refused the answer, nothing was logged/);
+  });
+
   it('refuses when nothing is fitted', () => {
     expect(() => buildLogRequest(initialState('browser'), { unit: 'X', operator: '', note: '' })).toThrow(/no fitted measurement/);
   });
