@@ -33,6 +33,10 @@ export const MIN_PERIODS_PER_WINDOW = 3;
 /** Fewer samples than this in a window: too few for four parameters and a residual. */
 const MIN_SAMPLES_PER_WINDOW = 16;
 const DEFAULT_WINDOWS = 3;
+/** Points a window's search works on at most: the profile is evaluated about 80 times, so a 10^6-sample record is averaged down. */
+const MAX_POINTS_PER_WINDOW = 4096;
+/** Block means per ring period at least: a mean over 1/16 of a period keeps 99.4 % of the ring (sinc(pi/16)). */
+const MIN_POINTS_PER_PERIOD = 16;
 /** The search reaches this many frequency resolutions (2 pi / window length) either side of the record's frequency. */
 const SEARCH_REACH = 2;
 const SEARCH_POINTS = 41;
@@ -50,18 +54,12 @@ export function ringFrequencyAlong(time: ArrayLike<number>, values: ArrayLike<nu
   const width = (ring.end - ring.start) / count;
   const period = (2 * Math.PI) / ring.omegaD;
   if (!(width >= MIN_PERIODS_PER_WINDOW * period)) return [];
+  const block = blockLength(time, ring, count, period);
   const out: RingWindowFrequency[] = [];
   for (let w = 0; w < count; w++) {
     const start = ring.start + w * width;
     const end = start + width;
-    const u: number[] = [];
-    const y: number[] = [];
-    for (let i = 0; i < time.length; i++) {
-      if (time[i] >= start && time[i] < end) {
-        u.push(time[i] - start);
-        y.push(values[i]);
-      }
-    }
+    const { u, y } = windowMeans(time, values, start, end, block);
     if (u.length < MIN_SAMPLES_PER_WINDOW) continue;
     // Centred: the level is solved anyway, and SSE = y'y - x'r then loses no digits to a large offset.
     const mean = y.reduce((sum, v) => sum + v, 0) / y.length;
@@ -69,6 +67,40 @@ export function ringFrequencyAlong(time: ArrayLike<number>, values: ArrayLike<nu
     if (fitted) out.push({ start, end, ...fitted });
   }
   return out;
+}
+
+/**
+ * Samples averaged per point, the same in every window (so amplitudes compare): enough to leave each window about
+ * MAX_POINTS_PER_WINDOW points, never fewer than MIN_POINTS_PER_PERIOD per ring period. A mean over a block centred
+ * on its time scales a ring by one factor in every block and shifts no phase, so the frequency is unchanged and its
+ * standard error comes from the means' own scatter.
+ */
+function blockLength(time: ArrayLike<number>, ring: RingAlong, count: number, period: number): number {
+  let inside = 0;
+  for (let i = 0; i < time.length; i++) if (time[i] >= ring.start && time[i] < ring.end) inside++;
+  const perWindow = inside / count;
+  const perPeriod = (inside * period) / (ring.end - ring.start);
+  return Math.max(1, Math.floor(Math.min(perWindow / MAX_POINTS_PER_WINDOW, perPeriod / MIN_POINTS_PER_PERIOD)));
+}
+
+/** The window's samples, u from its start, as means over consecutive blocks of `block` samples (a short last block dropped). */
+function windowMeans(time: ArrayLike<number>, values: ArrayLike<number>, start: number, end: number, block: number): { u: number[]; y: number[] } {
+  const u: number[] = [];
+  const y: number[] = [];
+  let sumT = 0;
+  let sumY = 0;
+  let held = 0;
+  for (let i = 0; i < time.length; i++) {
+    if (!(time[i] >= start && time[i] < end)) continue;
+    sumT += time[i] - start;
+    sumY += values[i];
+    if (++held === block) {
+      u.push(sumT / block);
+      y.push(sumY / block);
+      sumT = sumY = held = 0;
+    }
+  }
+  return { u, y };
 }
 
 interface Profile {
@@ -116,11 +148,20 @@ function fitWindow(u: number[], y: number[], alpha: number, omegaGuess: number, 
   let lo = best - gridStep;
   let hi = best + gridStep;
   const ratio = (Math.sqrt(5) - 1) / 2;
+  let a = hi - ratio * (hi - lo);
+  let b = lo + ratio * (hi - lo);
+  let sseA = sse(a);
+  let sseB = sse(b);
   for (let k = 0; k < GOLDEN_STEPS; k++) {
-    const a = hi - ratio * (hi - lo);
-    const b = lo + ratio * (hi - lo);
-    if (sse(a) < sse(b)) hi = b;
-    else lo = a;
+    if (sseA < sseB) {
+      [hi, b, sseB] = [b, a, sseA];
+      a = hi - ratio * (hi - lo);
+      sseA = sse(a);
+    } else {
+      [lo, a, sseA] = [a, b, sseB];
+      b = lo + ratio * (hi - lo);
+      sseB = sse(b);
+    }
   }
   const omega = (lo + hi) / 2;
   const at = profile(u, y, alpha, omega);

@@ -1,11 +1,72 @@
 // Robust noise level of a sampled record, from its first differences and its flat head.
 
-/** Median of a copy of the values (NaN for an empty list). */
+/** Median of a copy of the values (NaN for an empty list), by selection: the sorted median's value in linear time. */
 export function median(values: ArrayLike<number>): number {
-  const sorted = Float64Array.from(values).sort();
-  const n = sorted.length;
+  const copy = Float64Array.from(values);
+  const n = copy.length;
   if (n === 0) return NaN;
-  return n % 2 ? sorted[(n - 1) >> 1] : 0.5 * (sorted[n / 2 - 1] + sorted[n / 2]);
+  if (copy.some(Number.isNaN)) {
+    copy.sort();
+    return n % 2 ? copy[(n - 1) >> 1] : 0.5 * (copy[n / 2 - 1] + copy[n / 2]);
+  }
+  const upper = selectInPlace(copy, n >> 1);
+  if (n % 2) return upper;
+  // After the selection every value before index n/2 is at most the upper middle: the lower middle is their largest.
+  let lower = -Infinity;
+  for (let i = 0; i < n >> 1; i++) if (copy[i] > lower) lower = copy[i];
+  return 0.5 * (lower + upper);
+}
+
+/** Partitions beyond this many times log2(n) fall back to sorting what is left, so no input makes the selection quadratic. */
+const SELECT_PARTITIONS_PER_LOG = 3;
+
+/**
+ * The k-th smallest value (0-based) of NaN-free values, rearranged in place so that everything before index k is at most it
+ * and everything after at least it (Hoare's selection, median-of-three pivots).
+ */
+function selectInPlace(a: Float64Array, k: number): number {
+  let left = 0;
+  let right = a.length - 1;
+  let budget = SELECT_PARTITIONS_PER_LOG * Math.ceil(Math.log2(a.length + 1)) + 4;
+  let state = SELECT_SEED;
+  while (right > left) {
+    if (budget-- <= 0) {
+      a.subarray(left, right + 1).sort();
+      return a[k];
+    }
+    // Three positions spread by a fixed-seed generator: ordered inputs (ramps, organ pipes) partition evenly too.
+    const span = right - left + 1;
+    state = nextState(state);
+    const pivot = middleOfThree(a[left + (state % span)], a[left + ((state >>> 8) % span)], a[left + ((state >>> 16) % span)]);
+    let i = left;
+    let j = right;
+    while (i <= j) {
+      while (a[i] < pivot) i++;
+      while (a[j] > pivot) j--;
+      if (i <= j) {
+        const held = a[i];
+        a[i++] = a[j];
+        a[j--] = held;
+      }
+    }
+    if (k <= j) right = j;
+    else if (k >= i) left = i;
+    else return a[k];
+  }
+  return a[k];
+}
+
+/** The pivot generator's seed and step (a 32-bit xorshift): fixed, so a median never depends on the run. */
+const SELECT_SEED = 0x9e3779b9;
+function nextState(x: number): number {
+  x ^= x << 13;
+  x ^= x >>> 17;
+  x ^= x << 5;
+  return x >>> 0;
+}
+
+function middleOfThree(a: number, b: number, c: number): number {
+  return a < b ? (b < c ? b : a < c ? c : a) : a < c ? a : b < c ? c : b;
 }
 
 /** Smallest non-zero step between sample values: the quantisation step of an ADC record, or 0. */
@@ -60,9 +121,11 @@ const HEAD_NOISE_CAP = 4;
 const HEAD_NOISE_GATE = 1.5;
 
 /** 1.4826 times the median absolute deviation from the median: the standard deviation of normal samples, robustly. */
-export function robustSpread(values: number[]): number {
+export function robustSpread(values: ArrayLike<number>): number {
   const centre = median(values);
-  return 1.4826 * median(values.map((v) => Math.abs(v - centre)));
+  const deviations = new Float64Array(values.length);
+  for (let i = 0; i < values.length; i++) deviations[i] = Math.abs(values[i] - centre);
+  return 1.4826 * median(deviations);
 }
 
 /**

@@ -19,6 +19,7 @@ import {
 } from '../circuit/setupProbe';
 import { averagingAcquisition, statedBandwidth } from '../circuit/setupPreamble';
 import type { ResponseFit } from '../fit/responseFit';
+import { median } from '../fit/noise';
 import { fitSucceeded, type FitSummary } from '../report/fitSummary';
 import { hertz } from '../report/resultRows';
 import { formatEngineering, formatWithUncertainty } from '../units/format';
@@ -87,8 +88,9 @@ function ringOmega(input: SetupCheckInput): number | null {
 function sampleInterval(time: ArrayLike<number>): number | null {
   const n = time.length;
   if (n < 2) return null;
-  const steps = Array.from({ length: n - 1 }, (_, i) => time[i + 1] - time[i]).sort((a, b) => a - b);
-  return steps[Math.floor(steps.length / 2)];
+  const steps = new Float64Array(n - 1);
+  for (let i = 0; i < n - 1; i++) steps[i] = time[i + 1] - time[i];
+  return median(steps);
 }
 
 function samplesPerPeriod(input: SetupCheckInput): SetupCheck[] {

@@ -191,6 +191,19 @@ describe('ringFrequencyAlong', () => {
       expect(Math.abs(w.frequency.value - expected)).toBeLessThan(4 * w.frequency.stderr!);
     }
   });
+  it('follows a ring sampled 1000 times a period on block means (the long-record path), within its standard errors', () => {
+    const spec: RingSpec = { ...BASE, zeta: 0, samplesPerPeriod: 1000, periods: 100, noise: 0.01, chirp: 0.97 };
+    const channel = ringChannel(spec);
+    const span = spec.periods / spec.frequency;
+    const windows = ringFrequencyAlong(channel.time, channel.values, { start: 0, end: span, alpha: 0, omegaD: 2 * Math.PI * spec.frequency, windows: 4 });
+    expect(windows).toHaveLength(4);
+    for (const w of windows) {
+      const expected = spec.frequency * (1 + ((0.97 - 1) * (w.start + w.end)) / 2 / span);
+      expect(Math.abs(w.frequency.value - expected)).toBeLessThan(4 * w.frequency.stderr!);
+      // The ring's amplitude (1 V) survives the averaging over 1/16 period or less.
+      expect(w.amplitude).toBeGreaterThan(0.99);
+    }
+  });
   it('gives no window shorter than three ring periods', () => {
     const channel = ringChannel(BASE);
     expect(ringFrequencyAlong(channel.time, channel.values, { start: 0, end: 5 / BASE.frequency, alpha: 0, omegaD: 2 * Math.PI * BASE.frequency })).toEqual([]);
