@@ -29,11 +29,12 @@ function pretty(text: string): string {
 }
 
 /** One row of a result table: the symbol, its words, and the value with its uncertainty. */
-export function quantityRow(key: string, symbol: string, words: string, q: Quantity | null | undefined): HTMLTableRowElement {
+export function quantityRow(key: string, symbol: string, words: string, q: Quantity | null | undefined, title = words): HTMLTableRowElement {
   return h(
     'tr',
     { data: { quantity: key, ...(q ? { value: String(q.value), stderr: String(q.stderr) } : {}) } },
-    h('th', { attrs: { scope: 'row' } }, h('span', { class: 'symbol' }, symbol), h('span', { class: 'words' }, words)),
+    // The title keeps the words whole where a narrow readout cuts them short.
+    h('th', { title, attrs: { scope: 'row' } }, h('span', { class: 'symbol' }, symbol), h('span', { class: 'words' }, words)),
     h('td', { class: 'number' }, showQuantity(q)),
   );
 }

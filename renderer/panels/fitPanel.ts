@@ -14,8 +14,9 @@ import { transitionView } from './transitionView';
 import type { BenchActions } from '../actions';
 
 /** The window's words for each row of fitResultRows (its name and symbol come from there). */
-const WORDS: Record<string, [symbol: string, words: string]> = {
-  alpha: ['α', 'damping (neper frequency)'],
+const WORDS: Record<string, [symbol: string, words: string, title?: string]> = {
+  // Short enough to show whole in the readout at 1280 px; the title gives the longer name.
+  alpha: ['α', 'damping rate', 'damping rate (neper frequency): the envelope falls as e^(−αt)'],
   omega0: ['ω₀', 'natural frequency'],
   omegaD: ['ω_d', 'ring frequency'],
   f0: ['f₀', 'natural frequency'],
@@ -112,8 +113,8 @@ export function createFitPanel(actions: BenchActions) {
         'tbody',
         {},
         ...rows.flatMap((row) => {
-          const [symbol, words] = WORDS[row.name];
-          const tr = quantityRow(row.name, symbol, words, row.quantity);
+          const [symbol, words, title] = WORDS[row.name];
+          const tr = quantityRow(row.name, symbol, words, row.quantity, title);
           return row.name === 'omegaD' ? [tr, ringHz] : [tr];
         }),
       ),
