@@ -98,13 +98,7 @@ export function solveAmplitudes(
   descriptor.fillColumns(columns, alpha, ec, es);
   mixPreLevel(columns, descriptor.preLevelColumn, after);
   const skipBefore = descriptor.preLevelColumn === null;
-  const m = new Float64Array(k * k);
-  const r = new Float64Array(k);
-  for (let p = 0; p < k; p++) {
-    r[p] = dot(columns[p], values, n, after, skipBefore);
-    for (let q = p; q < k; q++) m[p * k + q] = dot(columns[p], columns[q], n, after, skipBefore);
-  }
-  for (let p = 0; p < k; p++) for (let q = 0; q < p; q++) m[p * k + q] = m[q * k + p];
+  const { m, r } = normalEquations(columns, values, n, after, skipBefore);
   const coefficients = solveNormal(m, r, k);
   let sse = 0;
   for (let i = 0; i < n; i++) {
@@ -129,13 +123,30 @@ function mixPreLevel(columns: readonly Float64Array[], preLevelColumn: number | 
   for (let i = 0; i < level.length; i++) if (after[i] !== 1) level[i] += 1 - after[i];
 }
 
-/** Sum of a[i] b[i] over the first n values in order, without those with samples before t0 when skipBefore. */
-function dot(a: ArrayLike<number>, b: ArrayLike<number>, n: number, after: Float64Array, skipBefore: boolean): number {
-  let sum = 0;
-  if (skipBefore) {
-    for (let i = 0; i < n; i++) if (!(after[i] < 1)) sum += a[i] * b[i];
-  } else {
-    for (let i = 0; i < n; i++) sum += a[i] * b[i];
+/**
+ * The normal equations m c = r of the basis columns against the values, over the first n values (without those
+ * with samples before t0 when skipBefore), in one pass: every sum gathers its terms in the order of the values,
+ * as a dot product per pair would.
+ */
+function normalEquations(
+  columns: readonly Float64Array[],
+  values: ArrayLike<number>,
+  n: number,
+  after: Float64Array,
+  skipBefore: boolean,
+): { m: Float64Array; r: Float64Array } {
+  const k = columns.length;
+  const m = new Float64Array(k * k);
+  const r = new Float64Array(k);
+  for (let i = 0; i < n; i++) {
+    if (skipBefore && after[i] < 1) continue;
+    const y = values[i];
+    for (let p = 0; p < k; p++) {
+      const cp = columns[p][i];
+      r[p] += cp * y;
+      for (let q = p; q < k; q++) m[p * k + q] += cp * columns[q][i];
+    }
   }
-  return sum;
+  for (let p = 0; p < k; p++) for (let q = 0; q < p; q++) m[p * k + q] = m[q * k + p];
+  return { m, r };
 }

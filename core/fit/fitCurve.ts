@@ -35,7 +35,7 @@ export function fitCurve(model: CurveModel, data: CurveData, initial: number[], 
   });
 
   let estimate = null;
-  if (Number.isFinite(outcome.chiSquare)) {
+  if (options?.covariance !== false && Number.isFinite(outcome.chiSquare)) {
     const J = numericJacobian(problem, outcome.p, scales, min, max);
     estimate = covarianceFromJacobian(J, reducedChiSquare, svdCutoff, names);
     warnings.push(...estimate.warnings);

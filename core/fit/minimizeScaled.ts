@@ -170,15 +170,18 @@ function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number): Trial
     const columns = free.map(column);
     const normal = new Float64Array(k * k);
     const rhs = new Float64Array(k);
+    const pointResiduals = point.residuals;
     for (let a = 0; a < k; a++) {
+      const ca = columns[a];
       for (let b = a; b < k; b++) {
+        const cb = columns[b];
         let sum = 0;
-        for (let i = 0; i < n; i++) sum += columns[a][i] * columns[b][i];
+        for (let i = 0; i < n; i++) sum += ca[i] * cb[i];
         normal[a * k + b] = normal[b * k + a] = sum;
       }
       normal[a * k + a] += damping;
       let sum = 0;
-      for (let i = 0; i < n; i++) sum += columns[a][i] * point.residuals[i];
+      for (let i = 0; i < n; i++) sum += ca[i] * pointResiduals[i];
       rhs[a] = sum;
     }
     const step = solveSymmetric(normal, rhs, k);

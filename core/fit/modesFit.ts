@@ -1,7 +1,7 @@
 // Refines one model with several modes from one start: Levenberg-Marquardt over the rates (and t0), the rest solved linearly.
 
 import { fitCurve } from './fitCurve';
-import { stallAsConvergence } from './projectedModel';
+import { indexedModel, stallAsConvergence } from './projectedModel';
 import { ModesWorkspace, solveModes, type ModeLinear, type ModeRates, type ModeSpec } from './modesModel';
 import type { FitSet } from './fitSet';
 import { gridNyquist } from './modesStarts';
@@ -66,10 +66,11 @@ export function refineModes(set: FitSet, spec: ModeSpec, start: ModeRates): Mode
   };
   const indices = Float64Array.from(set.time, (_, i) => i);
   const weights = fittedWeights(set, spec, start.t0);
-  const result = fitCurve({ names, evaluate: (u, index) => modelFor(u)[index] }, { x: indices, y: set.values, weights }, initial, {
+  const result = fitCurve({ names, ...indexedModel(modelFor) }, { x: indices, y: set.values, weights }, initial, {
     min,
     max,
     maxIterations: MAX_ITERATIONS,
+    covariance: false,
   });
   const rates = physical(result.parameters.map((p) => p.value));
   const solution = solveModes(set, spec, rates, workspace);

@@ -3,7 +3,7 @@
 import { solveAmplitudes, type Workspace } from './amplitudes';
 import type { ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
-import type { FitStatus } from './types';
+import type { CurveModel, FitStatus } from './types';
 
 /** How many recent parameter vectors' models are kept (the solver revisits the last few). */
 const MODEL_CACHE_SIZE = 4;
@@ -13,10 +13,11 @@ export type PhysicalRates = (u: readonly number[]) => { alpha: number; omega0: n
 
 /**
  * y at sample `index` for solver vector u: the layout's levels and amplitudes solved for the rates and t0
- * that u stands for. The solver asks point by point, alternating between vectors for central differences,
- * so the models of the last few vectors are kept and each vector costs one pass over the data.
+ * that u stands for. The solver asks for whole vectors (evaluateAll) or point by point, alternating between
+ * vectors for central differences, so the models of the last few vectors are kept and each vector costs one
+ * pass over the data.
  */
-export function projectedModel(set: FitSet, layout: ParameterLayout, physical: PhysicalRates, workspace: Workspace): (u: readonly number[], index: number) => number {
+export function projectedModel(set: FitSet, layout: ParameterLayout, physical: PhysicalRates, workspace: Workspace): Pick<CurveModel, 'evaluate' | 'evaluateAll'> {
   const cache: { key: readonly number[]; model: Float64Array }[] = [];
   const modelFor = (u: readonly number[]): Float64Array => {
     const hit = cache.find((entry) => entry.key === u);
@@ -29,7 +30,18 @@ export function projectedModel(set: FitSet, layout: ParameterLayout, physical: P
     cache.unshift(entry);
     return entry.model;
   };
-  return (u, index) => modelFor(u)[index];
+  return indexedModel(modelFor);
+}
+
+/** A model known as whole vectors over the sample indices, as the solver's point and vector evaluations. */
+export function indexedModel(modelFor: (u: readonly number[]) => Float64Array): Pick<CurveModel, 'evaluate' | 'evaluateAll'> {
+  return {
+    evaluate: (u, index) => modelFor(u)[index],
+    evaluateAll: (u, indices, out) => {
+      const model = modelFor(u);
+      for (let i = 0; i < indices.length; i++) out[i] = model[indices[i]];
+    },
+  };
 }
 
 /**

@@ -78,12 +78,12 @@ export function refine(set: FitSet, layout: ParameterLayout, start: RateCandidat
   const workspace = new Workspace(set.time.length);
   const model = {
     names: fitsT0 ? [...rates.names, 't0'] : rates.names,
-    evaluate: projectedModel(set, layout, physical, workspace),
+    ...projectedModel(set, layout, physical, workspace),
   };
   const indices = Float64Array.from(set.time, (_, i) => i);
   const min = fitsT0 ? [...rates.min, -Infinity] : rates.min;
   const initial = fitsT0 ? [...rates.start, 1] : rates.start;
-  const result = fitCurve(model, { x: indices, y: set.values }, initial, { min, maxIterations: MAX_ITERATIONS });
+  const result = fitCurve(model, { x: indices, y: set.values }, initial, { min, maxIterations: MAX_ITERATIONS, covariance: false });
   const { alpha, omega0, t0 } = physical(result.parameters.map((p) => p.value));
   const linear = solveAmplitudes(layout, set.time, set.values, alpha, omega0, t0, workspace, set.block);
   const named: Record<string, number> = { alpha, omega0, t0 };

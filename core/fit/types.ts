@@ -11,6 +11,8 @@ export interface CurveModel {
   names: string[];
   /** y at x for parameters p. Must be pure. */
   evaluate(p: readonly number[], x: number): number;
+  /** The same at every x into out, where one pass is cheaper than a call per point (optional). */
+  evaluateAll?(p: readonly number[], x: Float64Array, out: Float64Array): void;
 }
 
 export interface CurveData {
@@ -30,6 +32,8 @@ export interface FitOptions {
   tolerance?: number;
   /** Singular values below cutoff * largest are dropped in the covariance. Default 1e-10. */
   svdCutoff?: number;
+  /** False: a caller that only wants the minimum skips the covariance (stderr null, no covariance warnings). Default true. */
+  covariance?: boolean;
 }
 
 export interface FittedParameter {

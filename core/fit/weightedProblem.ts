@@ -14,7 +14,13 @@ export interface WeightedProblem {
 /** sqrt(w_i) f(p, x_i) for every kept row. */
 export function weightedModel(problem: WeightedProblem, p: readonly number[], out?: Float64Array): Float64Array {
   const f = out ?? new Float64Array(problem.x.length);
-  for (let i = 0; i < f.length; i++) f[i] = problem.sqrtWeight[i] * problem.model.evaluate(p, problem.x[i]);
+  const { model, x, sqrtWeight } = problem;
+  if (model.evaluateAll) {
+    model.evaluateAll(p, x, f);
+    for (let i = 0; i < f.length; i++) f[i] = sqrtWeight[i] * f[i];
+  } else {
+    for (let i = 0; i < f.length; i++) f[i] = sqrtWeight[i] * model.evaluate(p, x[i]);
+  }
   return f;
 }
 

@@ -225,6 +225,25 @@ describe('states that are not errors', () => {
     expect(result.parameters[0]).toEqual({ name: 'k', value: -1, stderr: null, atBound: false });
   });
 
+  it('without the covariance asked for, the same minimum and no standard errors', () => {
+    const full = fitCurve(discharge, data, [10, 1.5e-6, 0]);
+    const bare = fitCurve(discharge, data, [10, 1.5e-6, 0], { covariance: false });
+    expect(bare.parameters.map((p) => p.value)).toEqual(full.parameters.map((p) => p.value));
+    expect(bare.parameters.every((p) => p.stderr === null)).toBe(true);
+    expect(bare.covariance).toBeNull();
+    expect(full.parameters.every((p) => p.stderr !== null && p.stderr > 0)).toBe(true);
+  });
+
+  it('a model that evaluates whole vectors gives what its point evaluation gives', () => {
+    const vectorised: CurveModel = {
+      ...discharge,
+      evaluateAll: (p, xs, out) => xs.forEach((x, i) => (out[i] = discharge.evaluate(p, x))),
+    };
+    const byPoint = fitCurve(discharge, data, [10, 1.5e-6, 0]);
+    const byVector = fitCurve(vectorised, data, [10, 1.5e-6, 0]);
+    expect(byVector.parameters).toEqual(byPoint.parameters);
+  });
+
   it('an error thrown by the model itself reaches the caller', () => {
     const model: CurveModel = {
       names: ['k'],
