@@ -57,11 +57,14 @@ async function svgColours(browser: Browser, svg: string): Promise<{ background: 
   }
 }
 
-/** A PNG's corner pixel (its background: alpha too) and the strongest contrast of any pixel against it, as seen on white. */
-async function pngContrast(browser: Browser, png: Buffer): Promise<{ cornerAlpha: number; best: number }> {
+/**
+ * A PNG's corner pixel (its background: alpha too), its size, and the strongest contrast against it, as seen on white,
+ * of any pixel (best) and of any pixel in the top `band` rows (bandBest).
+ */
+async function pngContrast(browser: Browser, png: Buffer, band: number): Promise<{ cornerAlpha: number; best: number; bandBest: number; width: number; height: number }> {
   const page = await browser.newPage();
   try {
-    const { corner, pixels } = await page.evaluate(async (base64) => {
+    const { corner, pixels, bandPixels, width, height } = await page.evaluate(async ([base64, band]) => {
       const image = new Image();
       image.src = `data:image/png;base64,${base64}`;
       await image.decode();
@@ -72,20 +75,30 @@ async function pngContrast(browser: Browser, png: Buffer): Promise<{ cornerAlpha
       context.drawImage(image, 0, 0);
       const { data } = context.getImageData(0, 0, image.width, image.height);
       // Distinct colours only: the contrast check runs in Node over a few thousand, not millions of pixels.
-      const seen = new Set<number>();
-      const pixels: number[][] = [];
-      for (let i = 0; i < data.length; i += 4) {
-        const onWhite = [0, 1, 2].map((k) => Math.round((data[i + k] * data[i + 3] + 255 * (255 - data[i + 3])) / 255));
-        const key = (onWhite[0] << 16) | (onWhite[1] << 8) | onWhite[2];
-        if (!seen.has(key)) {
-          seen.add(key);
-          pixels.push(onWhite);
+      const distinct = (from: number, to: number) => {
+        const seen = new Set<number>();
+        const found: number[][] = [];
+        for (let i = from; i < to; i += 4) {
+          const onWhite = [0, 1, 2].map((k) => Math.round((data[i + k] * data[i + 3] + 255 * (255 - data[i + 3])) / 255));
+          const key = (onWhite[0] << 16) | (onWhite[1] << 8) | onWhite[2];
+          if (!seen.has(key)) {
+            seen.add(key);
+            found.push(onWhite);
+          }
         }
-      }
-      return { corner: [data[0], data[1], data[2], data[3]], pixels };
-    }, png.toString('base64'));
+        return found;
+      };
+      return {
+        corner: [data[0], data[1], data[2], data[3]],
+        pixels: distinct(0, data.length),
+        bandPixels: distinct(0, Math.min(band, image.height) * image.width * 4),
+        width: image.width,
+        height: image.height,
+      };
+    }, [png.toString('base64'), band] as const);
     const background = corner.slice(0, 3).map((v) => Math.round((v * corner[3] + 255 * (255 - corner[3])) / 255));
-    return { cornerAlpha: corner[3], best: Math.max(...pixels.map((p) => contrast(p, background))) };
+    const strongest = (found: number[][]) => Math.max(...found.map((p) => contrast(p, background)));
+    return { cornerAlpha: corner[3], best: strongest(pixels), bandBest: strongest(bandPixels), width, height };
   } finally {
     await page.close();
   }
@@ -215,9 +228,14 @@ describe.skipIf(!hasChromium)('the window from one capture to the next, its caut
 
       const png = await download(page, '#export-png');
       expect(png.bytes.subarray(0, 8).toString('hex')).toBe('89504e470d0a1a0a');
-      const seen = await pngContrast(browser, png.bytes);
+      // The PNG is the captioned SVG drawn at twice its size: the caption band on top holds legible text (the plot is below it).
+      const svgSize = (/<svg[^>]*\swidth="([\d.]+)"[^>]*\sheight="([\d.]+)"/.exec(markup) ?? []).slice(1).map(Number);
+      const captionRows = 2 * 40;
+      const seen = await pngContrast(browser, png.bytes, captionRows);
       expect(seen.cornerAlpha).toBe(255);
       expect(seen.best).toBeGreaterThan(7);
+      expect([seen.width, seen.height]).toEqual(svgSize.map((v) => Math.round(2 * v)));
+      expect(seen.bandBest, 'caption text in the PNG').toBeGreaterThan(4.5);
     } finally {
       await page.click('#theme-toggle');
       await page.waitForFunction(() => document.documentElement.dataset.theme === 'light');
