@@ -100,13 +100,17 @@ export function solveAmplitudes(
   const skipBefore = descriptor.preLevelColumn === null;
   const { m, r } = normalEquations(columns, values, n, after, skipBefore);
   const coefficients = solveNormal(m, r, k);
+  // Column by column: each value still sums its terms in the order of the columns.
+  model.fill(0, 0, n);
+  for (let p = 0; p < k; p++) {
+    const column = columns[p];
+    const coefficient = coefficients[p];
+    for (let i = 0; i < n; i++) model[i] += column[i] * coefficient;
+  }
   let sse = 0;
   for (let i = 0; i < n; i++) {
-    let y = 0;
-    for (let p = 0; p < k; p++) y += columns[p][i] * coefficients[p];
-    model[i] = y;
     if (after[i] < 1 && skipBefore) continue;
-    const d = values[i] - y;
+    const d = values[i] - model[i];
     sse += d * d;
   }
   return { coefficients, sse };

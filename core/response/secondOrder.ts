@@ -68,32 +68,97 @@ export function fillDampedBasis(
   else if (after) for (let i = 0; i < time.length; i++) after[i] = time[i] < t0 ? 0 : 1;
 }
 
-/** The basis at each instant of the time axis (zero before t0), written in place. */
+/**
+ * Samples taken in one run of the recurrence below: its rounding grows by a few ulps a step, so 16 steps keep
+ * it near 1e-15 while 15 of every 16 samples skip exp, cos and sin.
+ */
+const RECURRENCE_RUN = 16;
+/**
+ * A run counts as evenly spaced when no time strays from its line by more than this share of a step: the
+ * rounding of times printed to 10 significant digits in a record of 1000 samples is about 5e-7 of a step. The
+ * model on the line then differs from the model at the printed times by at most omega_d h 1e-6 (under 4e-6 of
+ * the ring's amplitude), far under the noise of any record; an axis with real jitter is computed point by point.
+ */
+const EVEN_SPACING = 1e-6;
+
+/**
+ * The basis at each instant of the time axis (zero before t0), written in place. On an evenly spaced run
+ * past the series range the first instant is computed directly and the rest by multiplying by the step's
+ * own factor (a rotation by omega_d h with decay e^(-alpha h), or the two poles' e^(s h)): the values are
+ * those of the instants on the run's line, within EVEN_SPACING of a step of the recorded ones.
+ */
 function fillPointBasis(alpha: number, omega0: number, t0: number, time: ArrayLike<number>, ec: Float64Array, es: Float64Array): void {
   const q = omega0 * omega0 - alpha * alpha;
   const w = Math.sqrt(Math.abs(q));
-  for (let i = 0; i < time.length; i++) {
-    const tau = time[i] - t0;
-    if (tau < 0) {
-      ec[i] = 0;
-      es[i] = 0;
-      continue;
-    }
-    const x = q * tau * tau;
-    if (Math.abs(x) < SERIES_LIMIT) {
-      const e = Math.exp(-alpha * tau);
-      ec[i] = e * (1 - x / 2 + (x * x) / 24 - (x * x * x) / 720 + (x * x * x * x) / 40320);
-      es[i] = e * tau * (1 - x / 6 + (x * x) / 120 - (x * x * x) / 5040 + (x * x * x * x) / 362880);
+  for (let first = 0; first < time.length; first += RECURRENCE_RUN) {
+    const end = Math.min(time.length, first + RECURRENCE_RUN);
+    const tau = time[first] - t0;
+    const step = end - first > 2 ? evenStep(time, first, end) : null;
+    if (step === null || !(tau >= 0) || !(Math.abs(q) * tau * tau >= SERIES_LIMIT)) {
+      for (let i = first; i < end; i++) pointBasis(alpha, q, w, time[i] - t0, ec, es, i);
     } else if (q > 0) {
       const e = Math.exp(-alpha * tau);
-      ec[i] = e * Math.cos(w * tau);
-      es[i] = (e * Math.sin(w * tau)) / w;
+      let c = e * Math.cos(w * tau);
+      let s = e * Math.sin(w * tau);
+      const decay = Math.exp(-alpha * step);
+      const cosStep = decay * Math.cos(w * step);
+      const sinStep = decay * Math.sin(w * step);
+      ec[first] = c;
+      es[first] = s / w;
+      for (let i = first + 1; i < end; i++) {
+        const rotated = c * cosStep - s * sinStep;
+        s = c * sinStep + s * cosStep;
+        c = rotated;
+        ec[i] = c;
+        es[i] = s / w;
+      }
     } else {
-      const slow = Math.exp((w - alpha) * tau);
-      const fast = Math.exp(-(alpha + w) * tau);
-      ec[i] = (slow + fast) / 2;
-      es[i] = (slow - fast) / (2 * w);
+      let slow = Math.exp((w - alpha) * tau);
+      let fast = Math.exp(-(alpha + w) * tau);
+      const slowStep = Math.exp((w - alpha) * step);
+      const fastStep = Math.exp(-(alpha + w) * step);
+      for (let i = first; i < end; i++) {
+        if (i > first) {
+          slow *= slowStep;
+          fast *= fastStep;
+        }
+        ec[i] = (slow + fast) / 2;
+        es[i] = (slow - fast) / (2 * w);
+      }
     }
+  }
+}
+
+/** The step of times [first, end) when they rise evenly (each within EVEN_SPACING of a step of its line), else null. */
+function evenStep(time: ArrayLike<number>, first: number, end: number): number | null {
+  const step = (time[end - 1] - time[first]) / (end - 1 - first);
+  if (!(step > 0)) return null;
+  const allowed = EVEN_SPACING * step;
+  for (let i = first + 1; i < end - 1; i++) if (!(Math.abs(time[i] - time[first] - (i - first) * step) <= allowed)) return null;
+  return step;
+}
+
+/** The basis at one instant tau = t - t0 into ec[i], es[i] (q = omega0^2 - alpha^2, w = sqrt|q|). */
+function pointBasis(alpha: number, q: number, w: number, tau: number, ec: Float64Array, es: Float64Array, i: number): void {
+  if (tau < 0) {
+    ec[i] = 0;
+    es[i] = 0;
+    return;
+  }
+  const x = q * tau * tau;
+  if (Math.abs(x) < SERIES_LIMIT) {
+    const e = Math.exp(-alpha * tau);
+    ec[i] = e * (1 - x / 2 + (x * x) / 24 - (x * x * x) / 720 + (x * x * x * x) / 40320);
+    es[i] = e * tau * (1 - x / 6 + (x * x) / 120 - (x * x * x) / 5040 + (x * x * x * x) / 362880);
+  } else if (q > 0) {
+    const e = Math.exp(-alpha * tau);
+    ec[i] = e * Math.cos(w * tau);
+    es[i] = (e * Math.sin(w * tau)) / w;
+  } else {
+    const slow = Math.exp((w - alpha) * tau);
+    const fast = Math.exp(-(alpha + w) * tau);
+    ec[i] = (slow + fast) / 2;
+    es[i] = (slow - fast) / (2 * w);
   }
 }
 

@@ -94,3 +94,38 @@ describe('fillDampedBasis with blocks', () => {
     expect(after[2]).toBe(1);
   });
 });
+
+describe('fillDampedBasis over an evenly spaced axis (the recurrence) against each instant alone', () => {
+  const dt = 1e-8;
+  const cases: [string, number, number][] = [
+    ['underdamped, 100 periods', 1e5, 2 * Math.PI * 1e6],
+    ['near critical', 1e6, 1e6 * 1.0001],
+    ['overdamped', 5e6, 1e6],
+    ['heavily overdamped', 2e8, 1e6],
+    ['a ring near the Nyquist rate', 1e5, 0.9 * Math.PI / dt],
+  ];
+  for (const [name, alpha, omega0] of cases) {
+    it(name, () => {
+      const n = 10000;
+      const t0 = 3.3e-7;
+      const time = Float64Array.from({ length: n }, (_, i) => -1e-6 + i * dt);
+      const ec = new Float64Array(n);
+      const es = new Float64Array(n);
+      fillDampedBasis(alpha, omega0, t0, time, ec, es);
+      for (let i = 0; i < n; i++) {
+        const [c, s] = time[i] < t0 ? [0, 0] : dampedBasis(alpha, omega0, time[i] - t0);
+        // Within 1e-12: cos and sin of an argument of 10^4 rad are themselves only good to about that.
+        expect(Math.abs(ec[i] - c)).toBeLessThan(1e-12);
+        expect(Math.abs(es[i] - s) * omega0).toBeLessThan(1e-12);
+      }
+    });
+  }
+  it('an axis with jitter is computed instant by instant', () => {
+    const n = 64;
+    const time = Float64Array.from({ length: n }, (_, i) => i * 1e-8 + (i % 3) * 1e-12);
+    const ec = new Float64Array(n);
+    const es = new Float64Array(n);
+    fillDampedBasis(1e5, 2e7, 0, time, ec, es);
+    for (let i = 0; i < n; i++) expect(ec[i]).toBe(dampedBasis(1e5, 2e7, time[i])[0]);
+  });
+});
