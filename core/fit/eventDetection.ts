@@ -1,7 +1,7 @@
 // Where the response starts in a record: the first clear departure from the level the record starts at.
 
 import { blockMeans } from './blockMeans';
-import { HEAD_FRACTION, median, robustSpread } from './noise';
+import { HEAD_FRACTION, median, robustSpread, stretchOf } from './noise';
 
 export interface EventEstimate {
   /** Index of the first sample of the response (0 when the record starts inside it). */
@@ -50,7 +50,7 @@ function detectEventAt(values: ArrayLike<number>, noise: number, step: number, r
     // (a bandwidth-limited front end): its own spread, where clearly larger, is tried once.
     const before = found.onset * size;
     if (retry && before >= 2 * MIN_PRE_EVENT) {
-      const spread = robustSpread(Array.prototype.slice.call(values, 0, before) as number[]);
+      const spread = robustSpread(stretchOf(values, 0, before));
       if (spread > NOISE_RETRY_GATE * noise) return detectEventAt(values, Math.min(spread, NOISE_RETRY_CAP * noise), step, false);
     }
     // A level too short to fit before the departure: the response surely runs from the departure on.
@@ -72,7 +72,7 @@ const NOISE_RETRY_CAP = 4;
  */
 function detectByEnergy(values: ArrayLike<number>, noise: number): EventEstimate {
   const n = values.length;
-  const baseline = median(Array.prototype.slice.call(values, 0, Math.max(MIN_PRE_EVENT, Math.floor(n * HEAD_FRACTION))));
+  const baseline = median(stretchOf(values, 0, Math.max(MIN_PRE_EVENT, Math.floor(n * HEAD_FRACTION))));
   const variance = noise * noise;
   for (let size = 16; n / size >= MIN_BLOCKS; size *= 2) {
     const blocks = Math.floor(n / size);
@@ -104,7 +104,7 @@ function detectAtScale(
 ): { onset: number; first: number; hasPreEvent: boolean; quietStart: boolean; peak: number } {
   const n = values.length;
   const head = Math.max(minFlat, Math.floor(n * HEAD_FRACTION));
-  const baseline = median(Array.prototype.slice.call(values, 0, head));
+  const baseline = median(stretchOf(values, 0, head));
   let peak = 0;
   for (let i = 0; i < n; i++) peak = Math.max(peak, Math.abs(values[i] - baseline));
   const quiet = 4 * noise + step;

@@ -1,6 +1,6 @@
 // The events of a record driven again and again (a square wave, a pulse train): where each ring starts and ends.
 
-import { estimateNoise, robustSpread } from './noise';
+import { estimateNoise, robustSpread, stretchOf } from './noise';
 
 /** One event of a record, in sample indices of the values searched. */
 export interface EventSpan {
@@ -192,11 +192,11 @@ function noiseModel(values: ArrayLike<number>): { sigma: number; independentShar
   const stretch = Math.max(NOISE_STRETCH, Math.floor(values.length / 32));
   const spreads: number[] = [];
   for (let from = 0; from + stretch <= values.length; from += stretch) {
-    spreads.push(robustSpread(Array.prototype.slice.call(values, from, from + stretch) as number[]));
+    spreads.push(robustSpread(stretchOf(values, from, from + stretch)));
   }
   if (spreads.length === 0) return { sigma: fromDifferences, independentShare: 1 };
   // The record's head (a pre-trigger stretch) is quiet where a train rings throughout the rest.
-  const head = robustSpread(Array.prototype.slice.call(values, 0, Math.max(HEAD_MIN, Math.floor(values.length * HEAD_SHARE))) as number[]);
+  const head = robustSpread(stretchOf(values, 0, Math.max(HEAD_MIN, Math.floor(values.length * HEAD_SHARE))));
   spreads.sort((a, b) => a - b);
   const quiet = Math.min(head, spreads[Math.floor(spreads.length * QUIET_QUANTILE)]);
   const sigma = Math.max(fromDifferences, Math.min(quiet, QUIET_NOISE_CAP * fromDifferences));

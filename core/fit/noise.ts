@@ -69,6 +69,11 @@ function middleOfThree(a: number, b: number, c: number): number {
   return a < b ? (b < c ? b : a < c ? c : a) : a < c ? a : b < c ? c : b;
 }
 
+/** values[from, to) without copying a typed array (a view), and as a copy of an ordinary one. */
+export function stretchOf(values: ArrayLike<number>, from: number, to: number): ArrayLike<number> {
+  return ArrayBuffer.isView(values) ? (values as Float64Array).subarray(from, to) : (Array.prototype.slice.call(values, from, to) as number[]);
+}
+
 /** Smallest non-zero step between sample values: the quantisation step of an ADC record, or 0. */
 export function quantisationStep(values: ArrayLike<number>, limit = 4096): number {
   const n = Math.min(values.length, limit);
@@ -104,7 +109,7 @@ export function estimateNoise(values: ArrayLike<number>, start = 0, end = values
   const diffs: number[] = [];
   for (let i = start + 1; i < end; i += stride) diffs.push(Math.abs(values[i] - values[i - 1]));
   const sigma = median(diffs) / (0.6745 * Math.SQRT2);
-  const q = quantisationStep(values.length > 4096 ? Array.prototype.slice.call(values, start, start + 4096) : values);
+  const q = quantisationStep(values.length > 4096 ? stretchOf(values, start, start + 4096) : values);
   return Math.max(sigma, q / Math.sqrt(12));
 }
 
@@ -137,7 +142,7 @@ export function robustSpread(values: ArrayLike<number>): number {
  */
 export function recordNoise(values: ArrayLike<number>): number {
   const fromDifferences = estimateNoise(values);
-  const head = Array.prototype.slice.call(values, 0, Math.max(HEAD_MIN, Math.floor(values.length * HEAD_FRACTION))) as number[];
+  const head = stretchOf(values, 0, Math.max(HEAD_MIN, Math.floor(values.length * HEAD_FRACTION)));
   const spread = robustSpread(head);
   return spread > HEAD_NOISE_GATE * fromDifferences ? Math.min(spread, HEAD_NOISE_CAP * fromDifferences) : fromDifferences;
 }

@@ -174,9 +174,11 @@ function unclippedValues(trace: Trace, window: FitWindow, end: number): Float64A
   const { time, values, clipped } = trace;
   const from = window.start ?? -Infinity;
   const to = window.end ?? Infinity;
-  const out: number[] = [];
-  for (let i = 0; i < time.length; i++) {
-    if (time[i] >= from && time[i] <= to && time[i] < end && !(clipped && clipped[i]) && Number.isFinite(values[i])) out.push(values[i]);
-  }
-  return Float64Array.from(out);
+  const kept = (i: number) => time[i] >= from && time[i] <= to && time[i] < end && !(clipped && clipped[i]) && Number.isFinite(values[i]);
+  // Counted first, then copied: a long record is never held as a list of numbers.
+  let count = 0;
+  for (let i = 0; i < time.length; i++) if (kept(i)) count++;
+  const out = new Float64Array(count);
+  for (let i = 0, j = 0; i < time.length; i++) if (kept(i)) out[j++] = values[i];
+  return out;
 }

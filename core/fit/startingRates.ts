@@ -1,7 +1,7 @@
 // Starting values of (alpha, omega0) for the response fit from the data alone: matrix pencils and crossings.
 
 import { blockMeans } from './blockMeans';
-import { median } from './noise';
+import { median, stretchOf } from './noise';
 import { matrixPencil, type Pole } from './pencil';
 
 export interface RateCandidate {
@@ -43,7 +43,7 @@ function pairsOf(poles: Pole[], dt: number, source: string): RateCandidate[] {
 
 /** Ring frequency from crossings of the late-time level, and decay from successive extremes. */
 function crossingEstimate(values: ArrayLike<number>, start: number, end: number, dt: number): RateCandidate | null {
-  const level = median(Array.prototype.slice.call(values, Math.floor(end - (end - start) * 0.1), end));
+  const level = median(stretchOf(values, Math.floor(end - (end - start) * 0.1), end));
   const crossings: number[] = [];
   const extremes: number[] = [];
   let extreme = 0;
