@@ -1,7 +1,7 @@
 // Starting rates for one more ring or a slow term: matrix pencils of what a fitted model leaves, and a few fallbacks.
 
 import { blockMeans } from './blockMeans';
-import { matrixPencil, type Pole } from './pencil';
+import { matrixPencils, type Pole } from './pencil';
 import type { FitSet } from './fitSet';
 
 /** Block means one pencil looks at: a few ring periods, few enough for a quick SVD (as startingRates.ts). */
@@ -58,7 +58,7 @@ function residualPoles(residual: Float64Array, dt: number): { decay: number; ome
     const y = blockMeans(residual, 0, n, size, PENCIL_POINTS);
     if (y.length < PENCIL_MIN_POINTS) break;
     const add = (poles: Pole[]) => poles.forEach((p) => out.push({ decay: -p.re / (dt * size), omega: Math.abs(p.im) / (dt * size) }));
-    for (const count of [2, 3]) add(matrixPencil(y, count));
+    for (const poles of matrixPencils(y, [2, 3])) add(poles);
   }
   return out;
 }

@@ -1,6 +1,6 @@
 // Matrix pencil estimate of the poles of a sum of damped exponentials (Hua and Sarkar, IEEE Trans. ASSP 38(5), 1990).
 
-import { boundedSvd } from './boundedSvd';
+import { boundedSvd, type Svd } from './boundedSvd';
 
 export interface Pole {
   /** ln|z| per sample (negative for decay). */
@@ -19,23 +19,39 @@ const MAX_MODES = 3;
  * ends in a bounded number of operations.
  */
 export function matrixPencil(y: ArrayLike<number>, modes: number): Pole[] {
-  if (!(Number.isInteger(modes) && modes >= 1 && modes <= MAX_MODES)) throw new RangeError(`matrixPencil: modes must be 1..${MAX_MODES}, got ${modes}`);
+  return matrixPencils(y, [modes])[0];
+}
+
+/**
+ * matrixPencil of y for each number of modes in `orders`, decomposing each distinct Hankel matrix once (the
+ * orders share it whenever N/3 is at least the largest): the same poles as one call per order.
+ */
+export function matrixPencils(y: ArrayLike<number>, orders: readonly number[]): Pole[][] {
+  for (const modes of orders) {
+    if (!(Number.isInteger(modes) && modes >= 1 && modes <= MAX_MODES)) throw new RangeError(`matrixPencil: modes must be 1..${MAX_MODES}, got ${modes}`);
+  }
   const n = y.length;
-  if (isConstant(y)) return [];
-  const pencil = Math.max(modes, Math.floor(n / 3));
-  const rows = n - pencil;
-  if (rows <= modes) return [];
-  const hankel = Array.from({ length: rows }, (_, i) => Array.from({ length: pencil + 1 }, (_, j) => y[i + j]));
-  const svd = boundedSvd(hankel);
-  if (!svd || !svd.converged || !(svd.values[modes - 1] > 0)) return [];
-  const v1 = svd.V.slice(0, pencil).map((row) => row.slice(0, modes));
-  const v2 = svd.V.slice(1, pencil + 1).map((row) => row.slice(0, modes));
-  // pinv(V1) V2 is modes x modes; its eigenvalues are the poles z.
-  const system = leastSquares(v1, v2);
-  if (!system) return [];
-  return eigenvalues(system)
-    .filter(([re, im]) => Number.isFinite(re) && Number.isFinite(im) && (re !== 0 || im !== 0))
-    .map(([re, im]) => ({ re: 0.5 * Math.log(re * re + im * im), im: Math.atan2(im, re) }));
+  if (isConstant(y)) return orders.map(() => []);
+  const decompositions = new Map<number, Svd | null>();
+  return orders.map((modes) => {
+    const pencil = Math.max(modes, Math.floor(n / 3));
+    const rows = n - pencil;
+    if (rows <= modes) return [];
+    if (!decompositions.has(pencil)) {
+      const hankel = Array.from({ length: rows }, (_, i) => Array.from({ length: pencil + 1 }, (_, j) => y[i + j]));
+      decompositions.set(pencil, boundedSvd(hankel));
+    }
+    const svd = decompositions.get(pencil) ?? null;
+    if (!svd || !svd.converged || !(svd.values[modes - 1] > 0)) return [];
+    const v1 = svd.V.slice(0, pencil).map((row) => row.slice(0, modes));
+    const v2 = svd.V.slice(1, pencil + 1).map((row) => row.slice(0, modes));
+    // pinv(V1) V2 is modes x modes; its eigenvalues are the poles z.
+    const system = leastSquares(v1, v2);
+    if (!system) return [];
+    return eigenvalues(system)
+      .filter(([re, im]) => Number.isFinite(re) && Number.isFinite(im) && (re !== 0 || im !== 0))
+      .map(([re, im]) => ({ re: 0.5 * Math.log(re * re + im * im), im: Math.atan2(im, re) }));
+  });
 }
 
 function isConstant(y: ArrayLike<number>): boolean {
