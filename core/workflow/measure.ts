@@ -10,6 +10,7 @@ import { hertz } from '../report/resultRows';
 import { summarizeTransitions } from '../circuit/transitionSummary';
 import { checkDesign, singleDecayRefusal, type Verdict } from '../circuit/verdict';
 import { fitResponse, type ResponseFit, type ResponseFitOptions } from '../fit/fitResponse';
+import { isThinSamplingWarning } from '../fit/fitWarnings';
 import { InputError, UsageError } from '../inputError';
 import { fitSucceeded, summarizeFit, type FitSummary } from '../report/fitSummary';
 import { cautionInputsFromCapture, type CautionComponents } from '../safety/cautionInputs';
@@ -138,6 +139,8 @@ export function measureCapture(request: MeasureRequest): MeasureResult {
     design && verdictRefusal(design, summary) === null ? attempt(() => checkAgainstDesign(design, ofMode(summary, request.mode), request.channel, request.file, request.eventTime)) : NOT_ASKED;
   const cautions = weighCautions(request.channel, { design, components: summary.components });
   const setupChecks = runSetupChecks({ fit, summary, channel: request.channel, metadata: request.metadata, options: request.setup, knownPart });
+  // The setup check says it with its level (warning or refusal): the fit's own line would repeat it.
+  if (setupChecks.some((check) => check.id === 'samples-per-period')) summary.warnings = summary.warnings.filter((w) => !isThinSamplingWarning(w));
   return { fit, summary, verdict: verdict.value, cautions, problems: { verdict: verdict.error, components: components.error }, setupChecks };
 }
 

@@ -173,6 +173,14 @@ describe('preamble reading', () => {
   });
 });
 
+describe('the fit and the setup checks say thin sampling once', () => {
+  it('6 samples per period: the setup warning, and no fit warning repeating it', () => {
+    const result = measureCapture({ file: 'seeded.csv', channel: ringChannel({ ...BASE, samplesPerPeriod: 6 }) });
+    expect(result.setupChecks.map((c) => c.id)).toContain('samples-per-period');
+    expect(result.summary.warnings.filter((w) => /samples per ring period/.test(w))).toEqual([]);
+  });
+});
+
 describe('ringFrequencyAlong', () => {
   it('follows a chirped ring within its standard errors, and a steady one stays put', () => {
     const fit = (spec: RingSpec) => {
