@@ -28,3 +28,22 @@ describe('parasitics refusals', () => {
     expect(r.err).toMatch(/does not fall as capacitance is added: switch-node-before\.csv \(added 1 nF, f0 99\.94\d* MHz.*switch-node-after-470p\.csv \(added 0 F, f0 67\.3\d* MHz/);
   });
 });
+
+describe('parasitics takes the probe and bandwidth options by the names fit uses', () => {
+  it('--probe-capacitance and --scope-bandwidth give what --probe-c and --bandwidth give', async () => {
+    const common = ['parasitics', BEFORE, AFTER, '--added', 'C=470p', '--json'];
+    const named = await run([...common, '--probe-capacitance', '12p', '--scope-bandwidth', '500M']);
+    const earlier = await run([...common, '--probe-c', '12p', '--bandwidth', '500M']);
+    const bare = await run(common);
+    expect(named.code).toBe(0);
+    expect(named.out).toBe(earlier.out);
+    // The probe's capacitance is taken off C_p: the options are read, not ignored.
+    expect(named.out).not.toBe(bare.out);
+  });
+
+  it('both spellings of one option at once exit 2 naming both', async () => {
+    const r = await run(['parasitics', BEFORE, AFTER, '--added', 'C=470p', '--probe-capacitance', '12p', '--probe-c', '10p']);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/--probe-capacitance and --probe-c are the same option/);
+  });
+});

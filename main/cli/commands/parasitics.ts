@@ -27,12 +27,20 @@ interface ParasiticsOptions {
   switchVoltageColumn?: string;
   plateauVoltage?: string;
   probeC?: string;
+  probeCapacitance?: string;
   probeCTolerance?: string;
   bandwidth?: string;
+  scopeBandwidth?: string;
   voltage?: string;
   switchingFrequency?: string;
   column?: string;
   json?: boolean;
+}
+
+/** An option given by either of its two spellings, with the flag it came by; both at once is bad input. */
+function eitherSpelling(value: string | undefined, flag: string, earlier: string | undefined, earlierFlag: string): [string | undefined, string] {
+  if (value !== undefined && earlier !== undefined) throw new UsageError(`${flag} and ${earlierFlag} are the same option: give one`);
+  return value !== undefined ? [value, flag] : [earlier, earlierFlag];
 }
 
 export function registerParasiticsCommand(program: Command, ctx: CommandContext): void {
@@ -49,9 +57,11 @@ export function registerParasiticsCommand(program: Command, ctx: CommandContext)
     .option('--current-column <name|index>', 'the current channel in the --current-capture file (default: the first)')
     .option('--switch-voltage-column <name|index>', 'the switch voltage in the --current-capture file: its drop while the current rises is V_L')
     .option('--plateau-voltage <V[,TOL]>', 'V_L read by hand instead: the voltage across the loop inductance while the current rises, e.g. 9.5,10')
-    .option('--probe-c <value>', 'probe input capacitance in parallel with the node, e.g. 12p (default none)')
+    .option('--probe-capacitance <value>', 'probe input capacitance in parallel with the node, e.g. 12p (default none; the same option as on fit)')
+    .option('--probe-c <value>', 'the same as --probe-capacitance (the earlier spelling)')
     .option('--probe-c-tolerance <TOL>', 'tolerance of the probe capacitance in %, e.g. 10')
-    .option('--bandwidth <value>', 'scope or probe bandwidth, e.g. 200M: warns when the ring is above a third of it')
+    .option('--scope-bandwidth <value>', 'scope or probe bandwidth, e.g. 200M: warns when the ring is above a third of it (the same option as on fit)')
+    .option('--bandwidth <value>', 'the same as --scope-bandwidth (the earlier spelling)')
     .option('--voltage <value>', 'voltage the snubber capacitor swings each edge, for its dissipation only, e.g. 48 (the cautions use the captures\' own peak)')
     .option('--switching-frequency <value>', 'switching frequency, for the snubber dissipation only, e.g. 250k')
     .option('--column <name|index>', 'channel to fit in every capture (default: the first)')
@@ -73,9 +83,9 @@ export function registerParasiticsCommand(program: Command, ctx: CommandContext)
         dcBias,
         switchC: switchCoss,
         edge,
-        probeC: parsePositiveValue(options.probeC, '--probe-c', 'F') ?? 0,
+        probeC: parsePositiveValue(...eitherSpelling(options.probeCapacitance, '--probe-capacitance', options.probeC, '--probe-c'), 'F') ?? 0,
         probeCTolerance: options.probeCTolerance === undefined ? 0 : parseTolerance(options.probeCTolerance, '--probe-c-tolerance'),
-        bandwidth: parsePositiveValue(options.bandwidth, '--bandwidth', 'Hz'),
+        bandwidth: parsePositiveValue(...eitherSpelling(options.scopeBandwidth, '--scope-bandwidth', options.bandwidth, '--bandwidth'), 'Hz'),
         voltage: parsePositiveValue(options.voltage, '--voltage', 'V'),
         switchingFrequency: parsePositiveValue(options.switchingFrequency, '--switching-frequency', 'Hz'),
       };
