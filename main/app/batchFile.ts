@@ -9,7 +9,9 @@ import type { Verdict } from '../../core/circuit/verdict';
 import type { SetupCheck } from '../../core/circuit/setupTypes';
 import type { MeasureSettings } from '../../core/workflow/measureSettings';
 import { verdictRefusal } from '../../core/workflow/measure';
+import { setupRefused } from '../../core/workflow/setupChecks';
 import { createBenchRecord } from './benchLogRecord';
+import { checkLabel } from './labels';
 import { measureFile, type LoadedDesign } from './measureFile';
 
 /** What every capture of one batch shares: how to read and measure it, and whether to make a record. */
@@ -18,8 +20,8 @@ export interface BatchSettings {
   /** Working folder that relative option paths are taken from. */
   cwd: string;
   design: LoadedDesign | null;
-  /** With a bench log: who measured (the unit id is the file name without its extension); null: no records. */
-  logging: { operator: string | null } | null;
+  /** With a bench log: who measured, where, and a note for every record (the unit id is the file name without its extension); null: no records. */
+  logging: { operator: string | null; station: string | null; note: string | null } | null;
 }
 
 /** A capture measured: the plain results, without the samples. */
@@ -32,7 +34,7 @@ export interface BatchMeasured {
   setupChecks: SetupCheck[];
   /** Why the design gave this capture no verdict (verdictRefusal), or null: without a design, or with a verdict. */
   noVerdict: string | null;
-  /** The record to append to the bench log: only when logging and the fit succeeded. */
+  /** The record to append to the bench log: only when logging, the fit succeeded and no setup check refused the answer. */
   record: BenchRecord | null;
 }
 
@@ -53,10 +55,11 @@ export function measureBatchFile(path: string, file: string, batch: BatchSetting
   try {
     const measurement = measureFile(path, batch.settings, batch.cwd, batch.design);
     const { summary, verdict, cautions } = measurement;
-    const record =
-      batch.logging && fitSucceeded(summary)
-        ? createBenchRecord(measurement, { unit: basename(file, extname(file)), operator: batch.logging.operator, note: null }, batch.settings)
-        : null;
+    // As log add: a failed fit or an answer a setup check refused is not logged.
+    const logged = batch.logging && fitSucceeded(summary) && !setupRefused(measurement.setupChecks) ? batch.logging : null;
+    const record = logged
+      ? createBenchRecord(measurement, { unit: checkLabel(basename(file, extname(file)), 'the unit id (the file name without its extension)'), ...logged }, batch.settings)
+      : null;
     const noVerdict = batch.design ? verdictRefusal(batch.design.design, summary) : null;
     return { file, summary, verdict, cautions, setupChecks: measurement.setupChecks, noVerdict, record };
   } catch (error) {

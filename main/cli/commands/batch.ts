@@ -7,7 +7,8 @@ import { join, resolve } from 'node:path';
 import type { CommandContext } from '../commandContext';
 import type { LogAddOptions } from './log';
 import { addSetupOptions, addCaptureOptions, addComponentOptions, addModeOptions, measureSettingsOf } from '../measureOptions';
-import { appendBenchLog, requireLogFolder } from '../../io/benchLog';
+import { appendBenchLog, requireBenchLogFile, requireLogFolder } from '../../io/benchLog';
+import { checkLabel, checkNote } from '../../app/labels';
 import { loadDesignFile } from '../../app/measureFile';
 import { isMeasured, type BatchOutcome } from '../../app/batchFile';
 import { listCaptureFiles, shardShare } from '../../app/batchFolder';
@@ -33,6 +34,8 @@ export function registerBatchCommand(program: Command, ctx: CommandContext): voi
   addModeOptions(addSetupOptions(addCaptureOptions(addComponentOptions(command))))
     .option('--log <path>', 'append each converged result to this bench log as it finishes, the unit id taken from the file name')
     .option('--operator <name>', 'who measured (with --log)')
+    .option('--station <name>', 'fixture or test station the units were measured on (with --log)')
+    .option('--note <text>', 'a free note kept in every record (with --log)')
     .option('--jobs <n>', 'captures fitted at once, each on its own thread (default: one per core; 1: no threads)')
     .option('--shard <K/N>', "fit shard K of N only: file i of the folder (0-based, by code-point order of its name) belongs to shard (i mod N) + 1")
     .option('--json', 'print a JSON array in folder order, one fit summary per file with its status and warnings, and noVerdict when the design gave it no verdict ({ file, error } for a file that could not be read)')
@@ -51,14 +54,24 @@ export function registerBatchCommand(program: Command, ctx: CommandContext): voi
       const settings = measureSettingsOf(options);
       parseMeasureSettings(settings); // a bad measuring option is refused here, once, not once per file
       const logPath = options.log === undefined ? null : resolve(ctx.io.cwd, options.log);
-      if (logPath) requireLogFolder(logPath);
+      if (logPath) {
+        requireLogFolder(logPath);
+        requireBenchLogFile(logPath);
+      }
+      const logging = logPath
+        ? {
+            operator: options.operator === undefined ? null : checkLabel(options.operator, '--operator'),
+            station: options.station === undefined ? null : checkLabel(options.station, '--station'),
+            note: options.note === undefined ? null : checkNote(options.note, '--note'),
+          }
+        : null;
       const design = options.design === undefined ? null : loadDesignFile(options.design, ctx.io.cwd);
       const files = listCaptureFiles(folder);
       if (!files.length) throw new FileError(`no capture files (*.csv, *.txt, *.dat) in '${dir}'`);
       const share = shard ? shardShare(files, shard) : files;
       if (shard && !share.length) ctx.io.err(`ringbench: shard ${shard.index}/${shard.count} holds none of the ${files.length} captures in '${dir}'\n`);
 
-      const batch = { settings, cwd: ctx.io.cwd, design, logging: logPath ? { operator: options.operator?.trim() || null } : null };
+      const batch = { settings, cwd: ctx.io.cwd, design, logging };
       const progress = startProgress(ctx.io, share.length);
       // Kept in folder order for the table and --json, whatever finishes first.
       const outcomes: BatchOutcome[] = new Array(share.length);
