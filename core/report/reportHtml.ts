@@ -10,7 +10,7 @@ import { escapeHtml as e } from './escape';
 import { ZONE_WORDS, decisionText, expandedUncertaintyText, isCounted, limitsText, quantityZoneOf, ruleText } from './verdictText';
 import { importRows } from './importText';
 import { renderMeasurementPlot, type ReportTrace } from './overlay';
-import { briefValue, fitResultRows, fitTransitionRows, marginText, regimeTag, showTime, transitionNote } from './resultRows';
+import { briefValue, fitResultRows, fitTransitionRows, marginText, modelOrderText, regimeTag, showTime, transitionNote } from './resultRows';
 import { reproduceCommand } from './reproduce';
 import { setupChecksHtml } from './setupChecksText';
 import { REPORT_CSS } from './reportStyle';
@@ -170,8 +170,10 @@ function resultsTable(record: BenchRecord): string {
     rows += `<tr><th scope="row">${e(cells[i][0])}</th><td class="num">${e(cells[i][1])}</td>`;
     rows += right ? `<th scope="row">${e(right[0])}</th><td class="num">${e(right[1])}</td></tr>` : '<td></td><td></td></tr>';
   }
+  const order = modelOrderText(fit);
+  const orderLine = order ? `<p class="fineprint">Order: ${e(order)}.</p>` : '';
   const components = fit.components ? `<p class="fineprint">R, L, C: ${e(fit.components.topology)}, known ${e(fit.components.known)}.</p>` : '';
-  return `<table class="results"><tbody>${rows}</tbody></table>${components}`;
+  return `<table class="results"><tbody>${rows}</tbody></table>${orderLine}${components}`;
 }
 
 function transitionsBlock(fit: FitSummary): string {

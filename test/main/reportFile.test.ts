@@ -66,6 +66,17 @@ describe('writeReport', () => {
     expect(readFileSync(join(folder, name), 'utf8')).toMatch(marker);
   });
 
+  it('states each measurement\'s order line (how many ringing modes, and why) in HTML and Markdown, as the text does', () => {
+    const record = recordOf('00000000000d', 'SN043', 'sn043.csv');
+    const row = { ringingModes: 2, slowTerm: false, parameters: 9, sse: 0.52, criterion: -4821.3, chosen: true };
+    const modelOrder = { criterion: 'BIC', forced: false, reason: 'two ringing modes: the second lowers BIC by 212 and passes the F-test', table: [{ ...row, model: 'two ringing modes' }] };
+    appendBenchLog(log, { ...record, fit: { ...record.fit, modelOrder } });
+    for (const name of ['r.html', 'r.md']) {
+      writeReport(log, join(folder, name), { clock });
+      expect(readFileSync(join(folder, name), 'utf8')).toContain('Order: two ringing modes (BIC -4821.3): the second lowers BIC by 212 and passes the F-test.');
+    }
+  });
+
   it('reports a torn tail of the log and uses the records before it', () => {
     appendBenchLog(log, recordOf('00000000000a', 'SN040', 'sn040.csv'));
     appendFileSync(log, '{"record":"ringbench-meas');
