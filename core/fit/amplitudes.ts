@@ -142,6 +142,19 @@ function normalEquations(
   const k = columns.length;
   const m = new Float64Array(k * k);
   const r = new Float64Array(k);
+  // The layouts have 2 to 4 linear parameters: their sums in local variables, one pass each (the same sums in the same order).
+  if (k === 2) twoColumns(columns, values, n, after, skipBefore, m, r);
+  else if (k === 3) threeColumns(columns, values, n, after, skipBefore, m, r);
+  else if (k === 4) fourColumns(columns, values, n, after, skipBefore, m, r);
+  else anyColumns(columns, values, n, after, skipBefore, m, r);
+  for (let p = 0; p < k; p++) for (let q = 0; q < p; q++) m[p * k + q] = m[q * k + p];
+  return { m, r };
+}
+
+type Kernel = (columns: readonly Float64Array[], values: ArrayLike<number>, n: number, after: Float64Array, skipBefore: boolean, m: Float64Array, r: Float64Array) => void;
+
+const anyColumns: Kernel = (columns, values, n, after, skipBefore, m, r) => {
+  const k = columns.length;
   for (let i = 0; i < n; i++) {
     if (skipBefore && after[i] < 1) continue;
     const y = values[i];
@@ -151,6 +164,56 @@ function normalEquations(
       for (let q = p; q < k; q++) m[p * k + q] += cp * columns[q][i];
     }
   }
-  for (let p = 0; p < k; p++) for (let q = 0; q < p; q++) m[p * k + q] = m[q * k + p];
-  return { m, r };
-}
+};
+
+const twoColumns: Kernel = (columns, values, n, after, skipBefore, m, r) => {
+  const [c0, c1] = columns;
+  let r0 = 0, r1 = 0, m00 = 0, m01 = 0, m11 = 0; // prettier-ignore
+  for (let i = 0; i < n; i++) {
+    if (skipBefore && after[i] < 1) continue;
+    const y = values[i];
+    const a0 = c0[i];
+    const a1 = c1[i];
+    r0 += a0 * y; m00 += a0 * a0; m01 += a0 * a1; // prettier-ignore
+    r1 += a1 * y; m11 += a1 * a1; // prettier-ignore
+  }
+  r[0] = r0; r[1] = r1; // prettier-ignore
+  m[0] = m00; m[1] = m01; m[3] = m11; // prettier-ignore
+};
+
+const threeColumns: Kernel = (columns, values, n, after, skipBefore, m, r) => {
+  const [c0, c1, c2] = columns;
+  let r0 = 0, r1 = 0, r2 = 0, m00 = 0, m01 = 0, m02 = 0, m11 = 0, m12 = 0, m22 = 0; // prettier-ignore
+  for (let i = 0; i < n; i++) {
+    if (skipBefore && after[i] < 1) continue;
+    const y = values[i];
+    const a0 = c0[i];
+    const a1 = c1[i];
+    const a2 = c2[i];
+    r0 += a0 * y; m00 += a0 * a0; m01 += a0 * a1; m02 += a0 * a2; // prettier-ignore
+    r1 += a1 * y; m11 += a1 * a1; m12 += a1 * a2; // prettier-ignore
+    r2 += a2 * y; m22 += a2 * a2; // prettier-ignore
+  }
+  r[0] = r0; r[1] = r1; r[2] = r2; // prettier-ignore
+  m[0] = m00; m[1] = m01; m[2] = m02; m[4] = m11; m[5] = m12; m[8] = m22; // prettier-ignore
+};
+
+const fourColumns: Kernel = (columns, values, n, after, skipBefore, m, r) => {
+  const [c0, c1, c2, c3] = columns;
+  let r0 = 0, r1 = 0, r2 = 0, r3 = 0; // prettier-ignore
+  let m00 = 0, m01 = 0, m02 = 0, m03 = 0, m11 = 0, m12 = 0, m13 = 0, m22 = 0, m23 = 0, m33 = 0; // prettier-ignore
+  for (let i = 0; i < n; i++) {
+    if (skipBefore && after[i] < 1) continue;
+    const y = values[i];
+    const a0 = c0[i];
+    const a1 = c1[i];
+    const a2 = c2[i];
+    const a3 = c3[i];
+    r0 += a0 * y; m00 += a0 * a0; m01 += a0 * a1; m02 += a0 * a2; m03 += a0 * a3; // prettier-ignore
+    r1 += a1 * y; m11 += a1 * a1; m12 += a1 * a2; m13 += a1 * a3; // prettier-ignore
+    r2 += a2 * y; m22 += a2 * a2; m23 += a2 * a3; // prettier-ignore
+    r3 += a3 * y; m33 += a3 * a3; // prettier-ignore
+  }
+  r[0] = r0; r[1] = r1; r[2] = r2; r[3] = r3; // prettier-ignore
+  m[0] = m00; m[1] = m01; m[2] = m02; m[3] = m03; m[5] = m11; m[6] = m12; m[7] = m13; m[10] = m22; m[11] = m23; m[15] = m33; // prettier-ignore
+};

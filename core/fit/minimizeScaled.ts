@@ -140,7 +140,7 @@ function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number): Trial
     }
     return error * c * c;
   };
-  let here: { u: readonly number[]; residuals: Float64Array; chiSquare: number; columns: Map<number, Float64Array> } | null = null;
+  let here: { u: readonly number[]; residuals: Float64Array; chiSquare: number; columns: Map<number, Float64Array>; normal: Map<string, { gram: Float64Array; gradient: Float64Array }> } | null = null;
   const up = new Float64Array(n);
   let spare = new Float64Array(n);
   /**
@@ -162,30 +162,43 @@ function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number): Trial
     point.columns.set(j, out);
     return out;
   };
-  return (u, free, damping) => {
-    if (here === null || here.u !== u) {
-      const residuals = new Float64Array(n);
-      here = { u, residuals, chiSquare: residualsAt(u, residuals), columns: new Map() };
-    }
-    const point = here;
+  /** J^T J and J^T r over the free parameters at the point, kept with it: a failed trial from the same point only changes the damping. */
+  const normalEquations = (point: NonNullable<typeof here>, free: readonly number[]): { gram: Float64Array; gradient: Float64Array } => {
+    const key = free.join(',');
+    const known = point.normal.get(key);
+    if (known) return known;
     const k = free.length;
     const columns = free.map(column);
-    const normal = new Float64Array(k * k);
-    const rhs = new Float64Array(k);
-    const pointResiduals = point.residuals;
+    const gram = new Float64Array(k * k);
+    const gradient = new Float64Array(k);
+    const residuals = point.residuals;
     for (let a = 0; a < k; a++) {
       const ca = columns[a];
       for (let b = a; b < k; b++) {
         const cb = columns[b];
         let sum = 0;
         for (let i = 0; i < n; i++) sum += ca[i] * cb[i];
-        normal[a * k + b] = normal[b * k + a] = sum;
+        gram[a * k + b] = gram[b * k + a] = sum;
       }
-      normal[a * k + a] += damping;
       let sum = 0;
-      for (let i = 0; i < n; i++) sum += ca[i] * pointResiduals[i];
-      rhs[a] = sum;
+      for (let i = 0; i < n; i++) sum += ca[i] * residuals[i];
+      gradient[a] = sum;
     }
+    const equations = { gram, gradient };
+    point.normal.set(key, equations);
+    return equations;
+  };
+  return (u, free, damping) => {
+    if (here === null || here.u !== u) {
+      const residuals = new Float64Array(n);
+      here = { u, residuals, chiSquare: residualsAt(u, residuals), columns: new Map(), normal: new Map() };
+    }
+    const point = here;
+    const k = free.length;
+    const { gram, gradient } = normalEquations(point, free);
+    const normal = Float64Array.from(gram);
+    for (let a = 0; a < k; a++) normal[a * k + a] += damping;
+    const rhs = gradient;
     const step = solveSymmetric(normal, rhs, k);
     if (step === null) return null;
     const next = [...u];
@@ -195,7 +208,7 @@ function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number): Trial
     // The trial's residuals become those of the new point, should the caller move there.
     const residuals = spare;
     spare = new Float64Array(n);
-    here = { u: next, residuals, chiSquare, columns: new Map() };
+    here = { u: next, residuals, chiSquare, columns: new Map(), normal: new Map() };
     return { u: next, chiSquare };
   };
 }
