@@ -28,7 +28,7 @@ const ROUNDING = 10 * Number.EPSILON;
 
 /*
  * Classic Levenberg-Marquardt: one damped Gauss-Newton trial at a time from the best point so far
- * (central-difference Jacobian, Cholesky solve), kept only when it lowers chi^2. The damping then
+ * (a central- or forward-difference Jacobian, Cholesky solve), kept only when it lowers chi^2. The damping then
  * falls after a success and rises after a failure (Marquardt's rule); a success counts as convergence
  * when chi^2 moved by less than the tolerance and the gradient vanishes. Parameters are divided by
  * their scales (u = p / s) and residuals by c, the largest column norm of the scaled Jacobian at the
@@ -36,7 +36,7 @@ const ROUNDING = 10 * Number.EPSILON;
  * bound is held out of the trials (a clipped step would couple into the others) until the gradient
  * says it wants back into the box. The trials were first made by ml-levenberg-marquardt called for
  * one iteration; they are the same step, computed here so that a failed trial reuses the point's
- * Jacobian. Running a library's own loop (which keeps uphill steps too, and stops only when chi^2
+ * Jacobian and normal equations. Running a library's own loop (which keeps uphill steps too, and stops only when chi^2
  * falls below an absolute threshold) in rounds reached the NIST certified values less often.
  */
 export function minimizeScaled(
@@ -52,7 +52,7 @@ export function minimizeScaled(
   }
   const box = scaledBox(scales, options);
   const toP = (u: readonly number[]) => box.unscale(u);
-  const trial = scaledTrial(problem, box, residualScale(problem, initial, scales, options));
+  const trial = scaledTrial(problem, box, residualScale(problem, initial, scales, options), options.trialDifferences);
 
   let u: readonly number[] = box.scale(initial);
   let released = new Set<number>();
@@ -119,7 +119,7 @@ type Trial = (u: readonly number[], free: readonly number[], damping: number) =>
 
 /**
  * One Levenberg-Marquardt trial over the free parameters in scaled units, the step the library computed:
- * central-difference Jacobian J of the model divided by c, (J^T J + damping I) d = J^T r by Cholesky
+ * Jacobian J of the model (central or forward differences) divided by c, (J^T J + damping I) d = J^T r by Cholesky
  * (Gaussian elimination where rounding leaves the matrix short of positive definite), the new point
  * clipped to the box. Returns the better of the point and the trial with its chi^2 (the point's own
  * chi^2, computed here, can differ from the caller's by rounding), or null if the trial broke down (a
@@ -127,7 +127,7 @@ type Trial = (u: readonly number[], free: readonly number[], damping: number) =>
  * moves: a failed trial only raises the damping, so the next one from the same point costs one model
  * pass instead of 2 per free parameter and 3 more.
  */
-function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number): Trial {
+function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number, differences: 'central' | 'forward'): Trial {
   const n = problem.x.length;
   const y = problem.y.map((v) => v / c);
   /** Residuals y/c - f/c at u into `out`, and their sum of squares times c^2 (NaN if not finite). */
@@ -142,23 +142,34 @@ function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number): Trial
   };
   let here: { u: readonly number[]; residuals: Float64Array; chiSquare: number; columns: Map<number, Float64Array>; normal: Map<string, { gram: Float64Array; gradient: Float64Array }> } | null = null;
   const up = new Float64Array(n);
+  const down = new Float64Array(n);
   let spare = new Float64Array(n);
   /**
-   * d(residual)/du_j at the current point by a forward difference from the point's own residuals (one model pass
-   * per column; backward where the step would leave the box). The trials only need a direction: an error of the
-   * step's size (1e-6 relative) in it slows nothing, and the stationarity test takes central differences.
+   * d(residual)/du_j at the current point by central differences, or by a forward difference from the point's own
+   * residuals (one model pass per column; backward where the step would leave the box). Forward ones suit a
+   * well-scaled model whose trials only need a direction (the response fit: an error of the step's size, 1e-6
+   * relative, slows nothing there); a narrow valley like NIST's MGH17 needs central ones to reach its minimum.
+   * The stationarity test always takes central differences.
    */
   const column = (j: number): Float64Array => {
     const point = here as NonNullable<typeof here>;
     const known = point.columns.get(j);
     if (known) return known;
     const size = STEP.relative * Math.max(Math.abs(point.u[j]), STEP.floor);
-    const h = point.u[j] + size <= box.max[j] ? size : -size;
     const shifted = [...point.u];
-    shifted[j] = point.u[j] + h;
-    residualsAt(shifted, up);
     const out = new Float64Array(n);
-    for (let i = 0; i < n; i++) out[i] = (point.residuals[i] - up[i]) / h;
+    if (differences === 'central') {
+      shifted[j] = point.u[j] + size;
+      residualsAt(shifted, up);
+      shifted[j] = point.u[j] - size;
+      residualsAt(shifted, down);
+      for (let i = 0; i < n; i++) out[i] = (down[i] - up[i]) / (2 * size);
+    } else {
+      const h = point.u[j] + size <= box.max[j] ? size : -size;
+      shifted[j] = point.u[j] + h;
+      residualsAt(shifted, up);
+      for (let i = 0; i < n; i++) out[i] = (point.residuals[i] - up[i]) / h;
+    }
     point.columns.set(j, out);
     return out;
   };

@@ -71,6 +71,7 @@ export function refineModes(set: FitSet, spec: ModeSpec, start: ModeRates): Mode
     max,
     maxIterations: MAX_ITERATIONS,
     covariance: false,
+    trialDifferences: 'forward',
   });
   const rates = physical(result.parameters.map((p) => p.value));
   const solution = solveModes(set, spec, rates, workspace);

@@ -11,6 +11,7 @@ export interface NormalizedFitOptions {
   max: number[];
   tolerance: number;
   svdCutoff: number;
+  trialDifferences: 'central' | 'forward';
 }
 
 export interface NormalizedFitInput {
@@ -93,5 +94,7 @@ function normalizeOptions(options: FitOptions, names: string[], initial: readonl
       throw new FitInputError('initial', `${names[j]} = ${initial[j]} is outside its bounds [${min[j]}, ${max[j]}]`, j);
     }
   }
-  return { maxIterations, min, max, tolerance, svdCutoff };
+  const trialDifferences = options.trialDifferences ?? 'central';
+  if (trialDifferences !== 'central' && trialDifferences !== 'forward') throw new FitInputError('options.trialDifferences', `${String(trialDifferences)} is not 'central' or 'forward'`);
+  return { maxIterations, min, max, tolerance, svdCutoff, trialDifferences };
 }

@@ -83,7 +83,7 @@ export function refine(set: FitSet, layout: ParameterLayout, start: RateCandidat
   const indices = Float64Array.from(set.time, (_, i) => i);
   const min = fitsT0 ? [...rates.min, -Infinity] : rates.min;
   const initial = fitsT0 ? [...rates.start, 1] : rates.start;
-  const result = fitCurve(model, { x: indices, y: set.values }, initial, { min, maxIterations: MAX_ITERATIONS, covariance: false });
+  const result = fitCurve(model, { x: indices, y: set.values }, initial, { min, maxIterations: MAX_ITERATIONS, covariance: false, trialDifferences: 'forward' });
   const { alpha, omega0, t0 } = physical(result.parameters.map((p) => p.value));
   const linear = solveAmplitudes(layout, set.time, set.values, alpha, omega0, t0, workspace, set.block);
   const named: Record<string, number> = { alpha, omega0, t0 };

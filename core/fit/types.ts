@@ -34,6 +34,11 @@ export interface FitOptions {
   svdCutoff?: number;
   /** False: a caller that only wants the minimum skips the covariance (stderr null, no covariance warnings). Default true. */
   covariance?: boolean;
+  /**
+   * How the trials' Jacobian is taken: 'central' differences (default), or 'forward' from the point's own residuals,
+   * one model pass per parameter instead of two, sharpened to central where the trials stall at a narrow minimum.
+   */
+  trialDifferences?: 'central' | 'forward';
 }
 
 export interface FittedParameter {

@@ -244,6 +244,14 @@ describe('states that are not errors', () => {
     expect(byVector.parameters).toEqual(byPoint.parameters);
   });
 
+  it('forward-difference trials reach the minimum central ones reach, within the tolerance', () => {
+    const central = fitCurve(discharge, data, [10, 1.5e-6, 0]);
+    const forward = fitCurve(discharge, data, [10, 1.5e-6, 0], { trialDifferences: 'forward' });
+    expect(forward.status).toBe('converged');
+    forward.parameters.forEach((p, j) => expect(Math.abs(p.value - central.parameters[j].value)).toBeLessThan(1e-4 * (central.parameters[j].stderr ?? 0)));
+    expect(() => fitCurve(discharge, data, [10, 1.5e-6, 0], { trialDifferences: 'backward' as 'forward' })).toThrow(FitInputError);
+  });
+
   it('an error thrown by the model itself reaches the caller', () => {
     const model: CurveModel = {
       names: ['k'],
