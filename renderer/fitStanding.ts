@@ -2,6 +2,7 @@
 
 import { fitSucceeded, type FitSummary } from '../core/report/fitSummary';
 import type { SetupCheck } from '../core/circuit/setupTypes';
+import { inWindowTerms } from './windowTerms';
 
 /** ok: converged, no warning of its own; warn: converged with doubts; bad: the fit did not give a measurement. */
 export type FitTone = 'ok' | 'warn' | 'bad';
@@ -34,7 +35,7 @@ const REFUSED_WORDS = 'refused: the capture cannot support the answer';
 export function fitStanding(summary: Pick<FitSummary, 'status' | 'warnings'>, importWarnings: readonly string[], setupChecks: readonly SetupCheck[] = []): FitStanding {
   const fromImport = new Set(importWarnings);
   const setupDoubts = setupChecks.filter((check) => check.level !== 'note').map((check) => check.message);
-  const doubts = [...new Set([...setupDoubts, ...summary.warnings.filter((warning) => !fromImport.has(warning))])];
+  const doubts = [...new Set([...setupDoubts, ...summary.warnings.filter((warning) => !fromImport.has(warning))])].map(inWindowTerms);
   if (!fitSucceeded(summary)) {
     return { tone: 'bad', label: FAILED_WORDS[summary.status] ?? summary.status, doubts, showRegime: false };
   }

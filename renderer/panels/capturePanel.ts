@@ -8,6 +8,7 @@ import type { CaptureInfo, StatedUnits, UnitRefusal } from '../workerProtocol';
 import { segmentRead } from '../traceData';
 import { readRecent } from '../benchMemory';
 import type { BenchActions } from '../actions';
+import { inWindowTerms } from '../windowTerms';
 
 export function createCapturePanel(actions: BenchActions) {
   const { root, body } = card('Capture', 'capture-panel');
@@ -141,7 +142,7 @@ export function createCapturePanel(actions: BenchActions) {
         { class: 'facts', id: 'capture-import' },
         ...importRows(info.import).flatMap((row) => [h('dt', {}, capitalized(row.label)), h('dd', { id: `import-${row.label.replace(/ /g, '-')}` }, row.text)]),
       ),
-      info.warnings.length ? h('ul', { class: 'warnings', id: 'capture-warnings' }, ...info.warnings.map((w) => h('li', {}, w))) : null,
+      info.warnings.length ? h('ul', { class: 'warnings', id: 'capture-warnings' }, ...info.warnings.map((w) => h('li', {}, inWindowTerms(w)))) : null,
     );
   }
 

@@ -4,6 +4,7 @@ import type { SetupCheck, SetupOptions } from '../../core/circuit/setupTypes';
 import { parseLength, parsePositiveValue } from '../../core/workflow/userValues';
 import { button, field, h, textInput } from '../dom';
 import { plainMessage } from '../plainMessage';
+import { inWindowTerms } from '../windowTerms';
 
 /** The words and tone of each level (the tones of the fit's badge). */
 const LEVEL = { refusal: ['refused', 'bad'], warning: ['warning', 'warn'], note: ['note', 'muted'] } as const;
@@ -18,7 +19,7 @@ export function setupChecksView(checks: readonly SetupCheck[]): HTMLElement[] {
       { class: 'setup-checks', id: 'setup-checks-list' },
       ...checks.map((check) => {
         const [word, tone] = LEVEL[check.level];
-        return h('li', { class: `setup-check ${tone}`, data: { check: check.id, level: check.level } }, h('span', { class: `badge ${tone}` }, word), ' ', check.message);
+        return h('li', { class: `setup-check ${tone}`, data: { check: check.id, level: check.level } }, h('span', { class: `badge ${tone}` }, word), ' ', inWindowTerms(check.message));
       }),
     ),
   ];
