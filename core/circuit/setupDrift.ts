@@ -33,8 +33,8 @@ export const MIN_PERIODS_PER_WINDOW = 3;
 /** Fewer samples than this in a window: too few for four parameters and a residual. */
 const MIN_SAMPLES_PER_WINDOW = 16;
 const DEFAULT_WINDOWS = 3;
-/** Points a window's search works on at most: the profile is evaluated about 80 times, so a 10^6-sample record is averaged down. */
-const MAX_POINTS_PER_WINDOW = 4096;
+/** Points a window's search works on at most: the profile is evaluated about 85 times, so a 10^6-sample record is averaged down (still 16 or more a period). */
+const MAX_POINTS_PER_WINDOW = 1024;
 /** Block means per ring period at least: a mean over 1/16 of a period keeps 99.4 % of the ring (sinc(pi/16)). */
 const MIN_POINTS_PER_PERIOD = 16;
 /** The search reaches this many frequency resolutions (2 pi / window length) either side of the record's frequency. */
