@@ -1,8 +1,9 @@
 // Shared by the end-to-end tests and the screenshot script: build, `ringbench serve`, Chromium, pixel checks.
 
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { existsSync, readFileSync } from 'node:fs';
-import { dirname, resolve } from 'node:path';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { chromium, type Browser, type Page } from 'playwright-core';
 
@@ -63,6 +64,38 @@ export function launchChromium(): Promise<Browser> {
 }
 
 export const hasChromium = existsSync(CHROMIUM);
+
+/** A bench served from a temporary folder of its own (its working folder, the bench log in it) and open in Chromium. */
+export interface OpenedBench {
+  folder: string;
+  bench: ServedBench;
+  browser: Browser;
+  page: Page;
+}
+
+/**
+ * Build the bench, serve it from a fresh temporary folder named after `name` (where `prepare` may first write the
+ * captures a test opens), open it in Chromium at `viewport` and wait for the first sample's fit.
+ */
+export async function openServedBench(name: string, viewport: { width: number; height: number }, prepare: (folder: string) => void = () => {}): Promise<OpenedBench> {
+  buildBench();
+  mkdirSync(outputDir, { recursive: true });
+  const folder = mkdtempSync(join(tmpdir(), `ringbench-${name}-`));
+  prepare(folder);
+  const bench = await serveBench(join(folder, 'bench-log.jsonl'), folder);
+  const browser = await launchChromium();
+  const page = await (await browser.newContext({ viewport, deviceScaleFactor: 1 })).newPage();
+  await page.goto(bench.url);
+  await waitForFit(page, 'input-filter-step.csv');
+  return { folder, bench, browser, page };
+}
+
+/** Close what openServedBench opened (any part may be missing when it failed half-way). */
+export async function closeServedBench(opened: Partial<OpenedBench> | undefined): Promise<void> {
+  await opened?.browser?.close();
+  await opened?.bench?.stop();
+  if (opened?.folder) rmSync(opened.folder, { recursive: true, force: true });
+}
 
 /** Wait until the bench is idle with a fit (or a fit error) shown for `file`. */
 export async function waitForFit(page: Page, file: string, timeout = 90_000): Promise<void> {

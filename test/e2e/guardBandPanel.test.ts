@@ -2,36 +2,22 @@
 // (ISO 14253-1:2017 / ILAC-G8:09/2019 terms); a design's own limits and rule stay with values edited in the form.
 
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import type { Browser, Page } from 'playwright-core';
-import { buildBench, CHROMIUM, hasChromium, launchChromium, outputDir, serveBench, waitForFit, type ServedBench } from './benchHarness';
+import type { Page } from 'playwright-core';
+import { CHROMIUM, closeServedBench, hasChromium, openServedBench, outputDir, type OpenedBench } from './benchHarness';
 
 if (!hasChromium) console.warn(`test/e2e/guardBandPanel.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
 
 describe.skipIf(!hasChromium)('decision zones in the design panel', () => {
-  let bench: ServedBench;
-  let browser: Browser;
+  let opened: OpenedBench | undefined;
   let page: Page;
-  let folder: string;
 
   beforeAll(async () => {
-    buildBench();
-    mkdirSync(outputDir, { recursive: true });
-    folder = mkdtempSync(join(tmpdir(), 'ringbench-zones-'));
-    bench = await serveBench(join(folder, 'bench-log.jsonl'), folder);
-    browser = await launchChromium();
-    page = await (await browser.newContext({ viewport: { width: 1600, height: 1200 }, deviceScaleFactor: 1 })).newPage();
-    await page.goto(bench.url);
-    await waitForFit(page, 'input-filter-step.csv');
+    opened = await openServedBench('zones', { width: 1600, height: 1200 });
+    ({ page } = opened);
   });
 
-  afterAll(async () => {
-    await browser?.close();
-    await bench?.stop();
-    if (folder) rmSync(folder, { recursive: true, force: true });
-  });
+  afterAll(() => closeServedBench(opened));
 
   const row = (name: string) => page.locator(`#verdict tr[data-quantity="${name}"]`);
 

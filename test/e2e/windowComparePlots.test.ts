@@ -2,11 +2,9 @@
 // and the before / after captures overlaid with their fits; each drawn from what its use case returned.
 
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import type { Browser, Page } from 'playwright-core';
-import { buildBench, CHROMIUM, hasChromium, launchChromium, outputDir, serveBench, waitForFit, type ServedBench } from './benchHarness';
+import type { Page } from 'playwright-core';
+import { CHROMIUM, closeServedBench, hasChromium, openServedBench, outputDir, type OpenedBench } from './benchHarness';
 
 if (!hasChromium) console.warn(`test/e2e/windowComparePlots.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
 
@@ -19,27 +17,15 @@ async function drawnTraces(page: Page, selector: string): Promise<number> {
 }
 
 describe.skipIf(!hasChromium)('plots over several captures', () => {
-  let bench: ServedBench;
-  let browser: Browser;
-  let folder: string;
+  let opened: OpenedBench | undefined;
   let page: Page;
 
   beforeAll(async () => {
-    buildBench();
-    mkdirSync(outputDir, { recursive: true });
-    folder = mkdtempSync(join(tmpdir(), 'ringbench-compareplots-'));
-    bench = await serveBench(join(folder, 'bench-log.jsonl'), folder);
-    browser = await launchChromium();
-    page = await (await browser.newContext({ viewport: { width: 1600, height: 1000 }, deviceScaleFactor: 1 })).newPage();
-    await page.goto(bench.url);
-    await waitForFit(page, 'input-filter-step.csv');
+    opened = await openServedBench('compareplots', { width: 1600, height: 1000 });
+    ({ page } = opened);
   });
 
-  afterAll(async () => {
-    await browser?.close();
-    await bench?.stop();
-    if (folder) rmSync(folder, { recursive: true, force: true });
-  });
+  afterAll(() => closeServedBench(opened));
 
   it('plots 1/f0² of each capture against its added C with the line whose slope is the extracted L_p', async () => {
     await page.click('#use-sample-set');

@@ -2,11 +2,10 @@
 // and L_p cross-checked on a turn-on edge chosen from a file; the screenshot shows the whole panel.
 
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Browser, Page } from 'playwright-core';
-import { buildBench, CHROMIUM, hasChromium, launchChromium, outputDir, serveBench, waitForFit, type ServedBench } from './benchHarness';
+import type { Page } from 'playwright-core';
+import { CHROMIUM, closeServedBench, hasChromium, openServedBench, outputDir, type OpenedBench } from './benchHarness';
 import { turnOnEdge, turnOnEdgeCsv } from '../core/turnOnEdgeCapture';
 
 if (!hasChromium) console.warn(`test/e2e/windowExtractionReal.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
@@ -18,28 +17,16 @@ const NOMINAL_LP = 6.4979e-9;
 const DERATING = 0.9;
 
 describe.skipIf(!hasChromium)('extraction with real capacitors', () => {
-  let bench: ServedBench;
-  let browser: Browser;
+  let opened: OpenedBench | undefined;
   let folder: string;
   let page: Page;
 
   beforeAll(async () => {
-    buildBench();
-    mkdirSync(outputDir, { recursive: true });
-    folder = mkdtempSync(join(tmpdir(), 'ringbench-extraction-real-'));
-    writeFileSync(join(folder, 'turn-on-edge.csv'), turnOnEdgeCsv(turnOnEdge({ L: NOMINAL_LP / DERATING, seed: 21 })));
-    bench = await serveBench(join(folder, 'bench-log.jsonl'), folder);
-    browser = await launchChromium();
-    page = await (await browser.newContext({ viewport: { width: 1600, height: 1000 }, deviceScaleFactor: 1 })).newPage();
-    await page.goto(bench.url);
-    await waitForFit(page, 'input-filter-step.csv');
+    opened = await openServedBench('extraction-real', { width: 1600, height: 1000 }, (dir) => writeFileSync(join(dir, 'turn-on-edge.csv'), turnOnEdgeCsv(turnOnEdge({ L: NOMINAL_LP / DERATING, seed: 21 }))));
+    ({ folder, page } = opened);
   });
 
-  afterAll(async () => {
-    await browser?.close();
-    await bench?.stop();
-    if (folder) rmSync(folder, { recursive: true, force: true });
-  });
+  afterAll(() => closeServedBench(opened));
 
   it('a derating without its tolerance is refused in plain words before any fit', async () => {
     await page.click('#use-sample-set');

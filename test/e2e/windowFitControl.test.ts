@@ -2,12 +2,11 @@
 // still open for a refit), and the probe ratio and polarity scaling the channel before the fit.
 
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { createRandom } from '../../core/random';
-import { buildBench, CHROMIUM, fitCount, hasChromium, launchChromium, outputDir, serveBench, waitForFit, waitForRefit, type ServedBench } from './benchHarness';
+import { CHROMIUM, closeServedBench, fitCount, hasChromium, openServedBench, outputDir, waitForRefit, type OpenedBench } from './benchHarness';
 
 if (!hasChromium) console.warn(`test/e2e/windowFitControl.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
 
@@ -37,27 +36,16 @@ async function finalValue(page: Page): Promise<number> {
 }
 
 describe.skipIf(!hasChromium)('fit control in the window', () => {
-  let bench: ServedBench;
-  let browser: Browser;
+  let opened: OpenedBench | undefined;
   let folder: string;
   let page: Page;
 
   beforeAll(async () => {
-    buildBench();
-    mkdirSync(outputDir, { recursive: true });
-    folder = mkdtempSync(join(tmpdir(), 'ringbench-fitcontrol-'));
-    bench = await serveBench(join(folder, 'bench-log.jsonl'), folder);
-    browser = await launchChromium();
-    page = await (await browser.newContext({ viewport: { width: 1280, height: 720 }, deviceScaleFactor: 1 })).newPage();
-    await page.goto(bench.url);
-    await waitForFit(page, 'input-filter-step.csv');
+    opened = await openServedBench('fitcontrol', { width: 1280, height: 720 });
+    ({ folder, page } = opened);
   });
 
-  afterAll(async () => {
-    await browser?.close();
-    await bench?.stop();
-    if (folder) rmSync(folder, { recursive: true, force: true });
-  });
+  afterAll(() => closeServedBench(opened));
 
   it('scales the fitted final value by the probe ratio, turns it over when inverted, and refuses a bad ratio', async () => {
     const plain = await finalValue(page);

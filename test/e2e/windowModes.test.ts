@@ -3,12 +3,11 @@
 // the whole fit, a forced order of one mode, and R, L, C for the mode chosen.
 
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { TWO_MODES, twoModeCapture } from '../fixtures/twoModeCapture';
-import { buildBench, CHROMIUM, dropFile, fitCount, hasChromium, launchChromium, outputDir, serveBench, waitForFit, waitForRefit, type ServedBench } from './benchHarness';
+import { CHROMIUM, closeServedBench, dropFile, fitCount, hasChromium, openServedBench, outputDir, waitForFit, waitForRefit, type OpenedBench } from './benchHarness';
 
 if (!hasChromium) console.warn(`test/e2e/windowModes.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
 
@@ -29,28 +28,16 @@ async function plotTraces(page: Page): Promise<{ name: string; yaxis: string; y:
 }
 
 describe.skipIf(!hasChromium)('two ringing modes in the window', () => {
-  let bench: ServedBench;
-  let browser: Browser;
+  let opened: OpenedBench | undefined;
   let folder: string;
   let page: Page;
 
   beforeAll(async () => {
-    buildBench();
-    mkdirSync(outputDir, { recursive: true });
-    folder = mkdtempSync(join(tmpdir(), 'ringbench-modes-'));
-    writeFileSync(join(folder, FILE), twoModeCapture());
-    bench = await serveBench(join(folder, 'bench-log.jsonl'), folder);
-    browser = await launchChromium();
-    page = await (await browser.newContext({ viewport: { width: 1280, height: 800 }, deviceScaleFactor: 1 })).newPage();
-    await page.goto(bench.url);
-    await waitForFit(page, 'input-filter-step.csv');
+    opened = await openServedBench('modes', { width: 1280, height: 800 }, (dir) => writeFileSync(join(dir, FILE), twoModeCapture()));
+    ({ folder, page } = opened);
   }, TEST_MS);
 
-  afterAll(async () => {
-    await browser?.close();
-    await bench?.stop();
-    if (folder) rmSync(folder, { recursive: true, force: true });
-  });
+  afterAll(() => closeServedBench(opened));
 
   it('shows each mode in the fit panel and draws its contribution under the fit, with a toggle', async () => {
     // One ring: no modes table and no Modes button, but the order line.

@@ -3,12 +3,11 @@
 // (screenshots for a person to look at).
 
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { createRandom } from '../../core/random';
-import { buildBench, CHROMIUM, dropFile, fitCount, hasChromium, launchChromium, outputDir, serveBench, waitForFit, waitForRefit, type ServedBench } from './benchHarness';
+import { CHROMIUM, closeServedBench, dropFile, fitCount, hasChromium, openServedBench, outputDir, waitForFit, waitForRefit, type OpenedBench } from './benchHarness';
 
 if (!hasChromium) console.warn(`test/e2e/windowSetupChecks.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
 
@@ -29,27 +28,16 @@ function writeToneCapture(path: string): void {
 }
 
 describe.skipIf(!hasChromium)('setup checks in the window', () => {
-  let bench: ServedBench;
-  let browser: Browser;
+  let opened: OpenedBench | undefined;
   let folder: string;
   let page: Page;
 
   beforeAll(async () => {
-    buildBench();
-    mkdirSync(outputDir, { recursive: true });
-    folder = mkdtempSync(join(tmpdir(), 'ringbench-setupchecks-'));
-    bench = await serveBench(join(folder, 'bench-log.jsonl'), folder);
-    browser = await launchChromium();
-    page = await (await browser.newContext({ viewport: { width: 1280, height: 860 }, deviceScaleFactor: 1 })).newPage();
-    await page.goto(bench.url);
-    await waitForFit(page, 'input-filter-step.csv');
+    opened = await openServedBench('setupchecks', { width: 1280, height: 860 });
+    ({ folder, page } = opened);
   }, TEST_MS);
 
-  afterAll(async () => {
-    await browser?.close();
-    await bench?.stop();
-    if (folder) rmSync(folder, { recursive: true, force: true });
-  });
+  afterAll(() => closeServedBench(opened));
 
   it('a sample capture shows no setup checks', async () => {
     expect(await page.locator('#setup-checks li').count()).toBe(0);
