@@ -48,11 +48,11 @@ async function waitForOtherBuild() {
 
 /** Build under the lock, unless another process's build, waited for, leaves nothing to do. */
 async function build() {
-  mkdirSync(join(ROOT, 'dist'), { recursive: true });
   for (;;) {
     await waitForOtherBuild();
     if (!needsBuild()) return;
     try {
+      mkdirSync(join(ROOT, 'dist'), { recursive: true });
       mkdirSync(LOCK);
       break;
     } catch {

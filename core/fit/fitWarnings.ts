@@ -13,13 +13,9 @@ const UNCERTAIN_OMEGA0 = 0.0067;
 /** Noise below this share of a converter code does not dither the quantisation (see subCodeNoiseWarning). */
 const DITHER_NOISE = 0.5;
 
-/** How the fit's thin-sampling warning begins, so that a face showing the setup checks' own can leave it out. */
-const THIN_SAMPLING = 'only';
-const THIN_SAMPLING_PATTERN = /^only [\d.]+ samples per ring period /;
-
-/** Whether a fit warning is the thin-sampling one (which the setup checks state again, with their level). */
+/** Whether a fit warning is the thin-sampling one below (which the setup checks state again, with their level). */
 export function isThinSamplingWarning(warning: string): boolean {
-  return THIN_SAMPLING_PATTERN.test(warning);
+  return /^only [\d.]+ samples per ring period /.test(warning);
 }
 
 /** Thin sampling, short record, poor match. */
@@ -29,7 +25,7 @@ export function plausibilityWarnings(set: FitSet, p: ResponseParams, omegaD: num
   if (omegaD !== null) {
     const perPeriod = (2 * Math.PI) / omegaD / dtRaw;
     if (perPeriod < MIN_SAMPLES_PER_PERIOD) {
-      warnings.push(`${THIN_SAMPLING} ${perPeriod.toFixed(1)} samples per ring period (${MIN_SAMPLES_PER_PERIOD} or more is the usual margin for a fit)`);
+      warnings.push(`only ${perPeriod.toFixed(1)} samples per ring period (${MIN_SAMPLES_PER_PERIOD} or more is the usual margin for a fit)`);
     }
   }
   const span = set.window.end - p.t0;

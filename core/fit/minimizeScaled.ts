@@ -209,8 +209,7 @@ function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number, differ
     const { gram, gradient } = normalEquations(point, free);
     const normal = Float64Array.from(gram);
     for (let a = 0; a < k; a++) normal[a * k + a] += damping;
-    const rhs = gradient;
-    const step = solveSymmetric(normal, rhs, k);
+    const step = solveSymmetric(normal, gradient, k);
     if (step === null) return null;
     const next = [...u];
     free.forEach((j, a) => (next[j] = Math.min(Math.max(box.min[j], u[j] + step[a]), box.max[j])));

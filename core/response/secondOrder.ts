@@ -225,7 +225,6 @@ function averageOverBlocks(
   const d = (dBlock * gmSample - gmBlock * dSample) / norm;
   const reach = ((samples - 1) / 2) * spacing;
   const dq = d * q;
-  const share = after ?? new Float64Array(time.length);
   for (let i = 0; i < time.length; i++) {
     const first = time[i] - reach;
     if (first >= t0) {
@@ -233,9 +232,9 @@ function averageOverBlocks(
       const s = es[i];
       ec[i] = gm * c - dq * s;
       es[i] = gm * s + d * c;
-      share[i] = 1;
+      if (after) after[i] = 1;
     } else if (time[i] + reach < t0) {
-      share[i] = 0;
+      if (after) after[i] = 0;
     } else {
       // The event falls inside this block: the mean over its samples at or after t0, and their share.
       const times = Float64Array.from({ length: samples }, (_, j) => first + j * spacing).filter((t) => t >= t0);
@@ -245,7 +244,7 @@ function averageOverBlocks(
       fillPointBasis(alpha, omega0, t0, times, c, s);
       ec[i] = count ? c.reduce((sum, v) => sum + v, 0) / count : 0;
       es[i] = count ? s.reduce((sum, v) => sum + v, 0) / count : 0;
-      share[i] = count / samples;
+      if (after) after[i] = count / samples;
     }
   }
 }

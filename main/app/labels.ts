@@ -31,3 +31,12 @@ export function checkNote(text: string, option: string): string | null {
   if (BIDI_CONTROLS.test(value)) throw new UsageError(`${option} must not contain bidirectional control characters (they show the text reversed)`);
   return value;
 }
+
+/** The test conditions typed for every record (`log add`, `batch --log`), each checked as above and named by its flag. */
+export function checkConditions(typed: { operator?: string; station?: string; note?: string }): { operator: string | null; station: string | null; note: string | null } {
+  return {
+    operator: typed.operator === undefined ? null : checkLabel(typed.operator, '--operator'),
+    station: typed.station === undefined ? null : checkLabel(typed.station, '--station'),
+    note: typed.note === undefined ? null : checkNote(typed.note, '--note'),
+  };
+}

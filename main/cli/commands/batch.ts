@@ -8,7 +8,7 @@ import type { CommandContext } from '../commandContext';
 import type { LogAddOptions } from './log';
 import { addSetupOptions, addCaptureOptions, addComponentOptions, addModeOptions, measureSettingsOf } from '../measureOptions';
 import { appendBenchLog, requireBenchLogFile, requireLogFolder } from '../../io/benchLog';
-import { checkLabel, checkNote } from '../../app/labels';
+import { checkConditions } from '../../app/labels';
 import { loadDesignFile } from '../../app/measureFile';
 import { isMeasured, type BatchOutcome } from '../../app/batchFile';
 import { listCaptureFiles, shardShare } from '../../app/batchFolder';
@@ -58,13 +58,7 @@ export function registerBatchCommand(program: Command, ctx: CommandContext): voi
         requireLogFolder(logPath);
         requireBenchLogFile(logPath);
       }
-      const logging = logPath
-        ? {
-            operator: options.operator === undefined ? null : checkLabel(options.operator, '--operator'),
-            station: options.station === undefined ? null : checkLabel(options.station, '--station'),
-            note: options.note === undefined ? null : checkNote(options.note, '--note'),
-          }
-        : null;
+      const logging = logPath ? checkConditions(options) : null;
       const design = options.design === undefined ? null : loadDesignFile(options.design, ctx.io.cwd);
       const files = listCaptureFiles(folder);
       if (!files.length) throw new FileError(`no capture files (*.csv, *.txt, *.dat) in '${dir}'`);

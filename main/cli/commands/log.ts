@@ -13,7 +13,7 @@ import type { CorrectionAction, LabelChanges, WithdrawnMeasurement } from '../..
 import type { BenchRecord } from '../../../core/report/benchRecord';
 import { createBenchRecord } from '../../app/benchLogRecord';
 import { loadDesignFile, measureFile } from '../../app/measureFile';
-import { checkLabel, checkNote } from '../../app/labels';
+import { checkConditions, checkLabel, checkNote } from '../../app/labels';
 import { readMergedLogs } from '../../app/mergedLogs';
 import { UsageError } from '../../../core/inputError';
 import { formatFitText } from '../../../core/report/fitText';
@@ -52,12 +52,7 @@ export function registerLogCommand(program: Command, ctx: CommandContext): void 
     .configureOutput(output)
     .action((file: string, options: LogAddOptions) => {
       const logPath = resolve(ctx.io.cwd, options.log);
-      const label = {
-        unit: checkLabel(options.unit, '--unit'),
-        operator: options.operator === undefined ? null : checkLabel(options.operator, '--operator'),
-        station: options.station === undefined ? null : checkLabel(options.station, '--station'),
-        note: options.note === undefined ? null : checkNote(options.note, '--note'),
-      };
+      const label = { unit: checkLabel(options.unit, '--unit'), ...checkConditions(options) };
       requireLogFolder(logPath);
       requireBenchLogFile(logPath);
       const design = options.design === undefined ? null : namingFile(options.design, () => loadDesignFile(options.design as string, ctx.io.cwd));
