@@ -23,8 +23,17 @@ export interface FitSet {
 
 /** Fewest usable samples a response fit runs on: a handful per parameter, with the event among them. */
 export const MIN_FIT_SAMPLES = 20;
-/** Above this many samples the fit runs on block means (the poles of a damped exponential survive averaging). */
-export const MAX_FIT_POINTS = 3000;
+/**
+ * Above this many samples the fit runs on block means (the poles of a damped exponential survive averaging,
+ * and the model is averaged over the same blocks, so the means are fitted without approximation).
+ */
+const MAX_RAW_POINTS = 3000;
+/**
+ * How many block means a longer record is reduced to, unless a block would then pass BLOCK_PER_PERIOD. A block
+ * of at most 1/8 of the ring period keeps at least sinc(pi/8)^2 = 95 % of the ring's power, and 1000 means still
+ * carry the decay and the event in hundreds of points; every solve of the fit costs in proportion to the points.
+ */
+const BLOCK_MEANS_TARGET = 1000;
 /** A block spans at most this fraction of the shortest period the sampling could carry. */
 const BLOCK_PER_PERIOD = 1 / 8;
 
@@ -62,9 +71,9 @@ export function prepareFitSet(trace: Trace, window: { start?: number; end?: numb
   const dt = spacing.length ? median(spacing) : NaN;
   let used = t.length;
   let decimation: FitSet['decimation'] = null;
-  if (t.length > MAX_FIT_POINTS) {
+  if (t.length > MAX_RAW_POINTS) {
     const ringPeriod = roughPeriodSamples(y);
-    const factor = Math.max(1, Math.min(Math.ceil(t.length / MAX_FIT_POINTS), Math.floor(ringPeriod * BLOCK_PER_PERIOD)));
+    const factor = Math.max(1, Math.min(Math.ceil(t.length / BLOCK_MEANS_TARGET), Math.floor(ringPeriod * BLOCK_PER_PERIOD)));
     if (factor > 1) {
       [t, y] = blockAverage(t, y, gapBefore, factor);
       used = t.length * factor;
