@@ -15,40 +15,41 @@ export interface LinearSolution {
  * a vanishing pivot (a basis column the data cannot see) gives a zero coefficient.
  */
 function solveNormal(m: Float64Array, r: Float64Array, k: number): number[] {
-  const d = Array.from({ length: k }, (_, i) => (m[i * k + i] > 0 ? Math.sqrt(m[i * k + i]) : 1));
-  const a = Array.from({ length: k }, (_, i) => Array.from({ length: k }, (_, j) => m[i * k + j] / (d[i] * d[j])));
-  const b = Array.from({ length: k }, (_, i) => r[i] / d[i]);
-  const l = a.map(() => new Array<number>(k).fill(0));
-  const dead = new Array<boolean>(k).fill(false);
+  const d = new Float64Array(k);
+  for (let i = 0; i < k; i++) d[i] = m[i * k + i] > 0 ? Math.sqrt(m[i * k + i]) : 1;
+  // The Cholesky factor of the scaled matrix m[i][j] / (d[i] d[j]), row-major; a dead pivot's column stays zero.
+  const l = new Float64Array(k * k);
+  const dead = new Uint8Array(k);
   for (let j = 0; j < k; j++) {
-    let s = a[j][j];
-    for (let p = 0; p < j; p++) s -= l[j][p] * l[j][p];
+    let s = m[j * k + j] / (d[j] * d[j]);
+    for (let p = 0; p < j; p++) s -= l[j * k + p] * l[j * k + p];
     if (s < 1e-14) {
-      dead[j] = true;
+      dead[j] = 1;
       continue;
     }
-    l[j][j] = Math.sqrt(s);
+    l[j * k + j] = Math.sqrt(s);
     for (let i = j + 1; i < k; i++) {
-      let t = a[i][j];
-      for (let p = 0; p < j; p++) t -= l[i][p] * l[j][p];
-      l[i][j] = t / l[j][j];
+      let t = m[i * k + j] / (d[i] * d[j]);
+      for (let p = 0; p < j; p++) t -= l[i * k + p] * l[j * k + p];
+      l[i * k + j] = t / l[j * k + j];
     }
   }
-  const z = new Array<number>(k).fill(0);
+  const z = new Float64Array(k);
   for (let i = 0; i < k; i++) {
     if (dead[i]) continue;
-    let s = b[i];
-    for (let p = 0; p < i; p++) s -= l[i][p] * z[p];
-    z[i] = s / l[i][i];
+    let s = r[i] / d[i];
+    for (let p = 0; p < i; p++) s -= l[i * k + p] * z[p];
+    z[i] = s / l[i * k + i];
   }
   const x = new Array<number>(k).fill(0);
   for (let i = k - 1; i >= 0; i--) {
     if (dead[i]) continue;
     let s = z[i];
-    for (let p = i + 1; p < k; p++) s -= l[p][i] * x[p];
-    x[i] = s / l[i][i];
+    for (let p = i + 1; p < k; p++) s -= l[p * k + i] * x[p];
+    x[i] = s / l[i * k + i];
   }
-  return x.map((v, i) => v / d[i]);
+  for (let i = 0; i < k; i++) x[i] /= d[i];
+  return x;
 }
 
 /** Scratch arrays for one time axis, reused across the many solves of a fit. */
@@ -96,21 +97,18 @@ export function solveAmplitudes(
   fillDampedBasis(alpha, omega0, t0, time, ec, es, block, after);
   const columns = workspace.basisColumns(k);
   descriptor.fillColumns(columns, alpha, ec, es);
-  mixPreLevel(columns, descriptor.preLevelColumn, after);
+  mixPreLevel(columns, descriptor.preLevelColumn, after, n);
   const skipBefore = descriptor.preLevelColumn === null;
   const { m, r } = normalEquations(columns, values, n, after, skipBefore);
   const coefficients = solveNormal(m, r, k);
-  // Column by column: each value still sums its terms in the order of the columns.
-  model.fill(0, 0, n);
-  for (let p = 0; p < k; p++) {
-    const column = columns[p];
-    const coefficient = coefficients[p];
-    for (let i = 0; i < n; i++) model[i] += column[i] * coefficient;
-  }
   let sse = 0;
   for (let i = 0; i < n; i++) {
+    // Each value sums its terms in the order of the columns.
+    let value = 0;
+    for (let p = 0; p < k; p++) value += columns[p][i] * coefficients[p];
+    model[i] = value;
     if (after[i] < 1 && skipBefore) continue;
-    const d = values[i] - model[i];
+    const d = values[i] - value;
     sse += d * d;
   }
   return { coefficients, sse };
@@ -120,11 +118,14 @@ export function solveAmplitudes(
  * Turns the response basis into the basis at each value: the response row weighted by the share of the
  * value's samples at or after t0, plus the pre-event row (the level before the event) by the share before.
  */
-function mixPreLevel(columns: readonly Float64Array[], preLevelColumn: number | null, after: Float64Array): void {
-  for (const column of columns) for (let i = 0; i < column.length; i++) if (after[i] !== 1) column[i] *= after[i];
+function mixPreLevel(columns: readonly Float64Array[], preLevelColumn: number | null, after: Float64Array, n: number): void {
+  // Only values up to the last one with samples before t0 change (the share is 1 from the event's block on).
+  let end = n;
+  while (end > 0 && after[end - 1] === 1) end--;
+  for (const column of columns) for (let i = 0; i < end; i++) if (after[i] !== 1) column[i] *= after[i];
   if (preLevelColumn === null) return;
   const level = columns[preLevelColumn];
-  for (let i = 0; i < level.length; i++) if (after[i] !== 1) level[i] += 1 - after[i];
+  for (let i = 0; i < end; i++) if (after[i] !== 1) level[i] += 1 - after[i];
 }
 
 /**

@@ -1,7 +1,7 @@
 // Levenberg-Marquardt on scaled parameters: each damped step computed here, the loop deciding on it.
 
 import type { NormalizedFitOptions } from './normalizeFitInput';
-import { numericJacobian } from './numericJacobian';
+import { jacobianColumns } from './numericJacobian';
 import type { FitStatus } from './types';
 import { sumOfSquares, weightedModel, weightedResiduals, type WeightedProblem } from './weightedProblem';
 
@@ -281,11 +281,10 @@ function eliminate(m: Float64Array, b: Float64Array, k: number): number[] {
 
 /** Largest column norm of the scaled Jacobian at the start, so that max diag(J^T J / c^2) = 1 there. */
 function residualScale(problem: WeightedProblem, p: readonly number[], scales: readonly number[], options: NormalizedFitOptions): number {
-  const J = numericJacobian(problem, p, scales, options.min, options.max);
   let largest = 0;
-  for (let j = 0; j < p.length; j++) {
-    const column = Math.sqrt(sumOfSquares(J.map((row) => row[j]))) * scales[j];
-    if (column > largest) largest = column;
+  for (const [j, column] of jacobianColumns(problem, p, scales, options.min, options.max).entries()) {
+    const norm = Math.sqrt(sumOfSquares(column)) * scales[j];
+    if (norm > largest) largest = norm;
   }
   return largest > 0 ? largest : 1;
 }
@@ -301,14 +300,15 @@ function inwardAtBound(problem: WeightedProblem, p: readonly number[], scales: r
   const rNorm = Math.sqrt(sumOfSquares(r));
   if (rNorm === 0) return [];
   const limit = Math.max(GRADIENT_TOLERANCE, (ROUNDING * Math.sqrt(sumOfSquares(problem.y))) / rNorm);
-  const J = numericJacobian(problem, p, scales, options.min, options.max);
+  const J = jacobianColumns(problem, p, scales, options.min, options.max);
   const inward: number[] = [];
   for (let j = 0; j < p.length; j++) {
+    const column = J[j];
     let dot = 0;
     let norm = 0;
     for (let i = 0; i < r.length; i++) {
-      dot += J[i][j] * r[i];
-      norm += J[i][j] * J[i][j];
+      dot += column[i] * r[i];
+      norm += column[i] * column[i];
     }
     if (!Number.isFinite(dot) || !Number.isFinite(norm)) return null;
     if (norm === 0) continue;

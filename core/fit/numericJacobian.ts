@@ -19,20 +19,32 @@ export function numericJacobian(
   min: readonly number[],
   max: readonly number[],
 ): Float64Array[] {
+  const columns = jacobianColumns(problem, p, typical, min, max);
+  return Array.from({ length: problem.x.length }, (_, i) => Float64Array.from(columns, (column) => column[i]));
+}
+
+/** The same Jacobian as numericJacobian, one array per parameter (column j holds J[i][j] for every row i). */
+export function jacobianColumns(
+  problem: WeightedProblem,
+  p: readonly number[],
+  typical: readonly number[],
+  min: readonly number[],
+  max: readonly number[],
+): Float64Array[] {
   const n = problem.x.length;
-  const rows = Array.from({ length: n }, () => new Float64Array(p.length));
   const up = new Float64Array(n);
   const down = new Float64Array(n);
-  for (let j = 0; j < p.length; j++) {
-    const h = RELATIVE_STEP * Math.max(Math.abs(p[j]), FLOOR_FRACTION * typical[j]);
+  return p.map((value, j) => {
+    const h = RELATIVE_STEP * Math.max(Math.abs(value), FLOOR_FRACTION * typical[j]);
     const hi = [...p];
     const lo = [...p];
-    hi[j] = Math.min(p[j] + h, max[j]);
-    lo[j] = Math.max(p[j] - h, min[j]);
+    hi[j] = Math.min(value + h, max[j]);
+    lo[j] = Math.max(value - h, min[j]);
     const span = hi[j] - lo[j];
     weightedModel(problem, hi, up);
     weightedModel(problem, lo, down);
-    for (let i = 0; i < n; i++) rows[i][j] = span > 0 ? (up[i] - down[i]) / span : 0;
-  }
-  return rows;
+    const column = new Float64Array(n);
+    for (let i = 0; i < n; i++) column[i] = span > 0 ? (up[i] - down[i]) / span : 0;
+    return column;
+  });
 }

@@ -237,16 +237,34 @@ function averageOverBlocks(
       if (after) after[i] = 0;
     } else {
       // The event falls inside this block: the mean over its samples at or after t0, and their share.
-      const times = Float64Array.from({ length: samples }, (_, j) => first + j * spacing).filter((t) => t >= t0);
-      const count = times.length;
-      const c = new Float64Array(count);
-      const s = new Float64Array(count);
-      fillPointBasis(alpha, omega0, t0, times, c, s);
-      ec[i] = count ? c.reduce((sum, v) => sum + v, 0) / count : 0;
-      es[i] = count ? s.reduce((sum, v) => sum + v, 0) / count : 0;
+      const scratch = eventBlockScratch(samples);
+      let count = 0;
+      for (let j = 0; j < samples; j++) {
+        const t = first + j * spacing;
+        if (t >= t0) scratch.times[count++] = t;
+      }
+      const c = scratch.c.subarray(0, count);
+      const s = scratch.s.subarray(0, count);
+      fillPointBasis(alpha, omega0, t0, scratch.times.subarray(0, count), c, s);
+      let sumC = 0;
+      let sumS = 0;
+      for (let j = 0; j < count; j++) {
+        sumC += c[j];
+        sumS += s[j];
+      }
+      ec[i] = count ? sumC / count : 0;
+      es[i] = count ? sumS / count : 0;
       if (after) after[i] = count / samples;
     }
   }
+}
+
+/** Times and basis values of the samples of the block the event falls in, reused across solves (grown as needed). */
+let eventBlock = { times: new Float64Array(0), c: new Float64Array(0), s: new Float64Array(0) };
+
+function eventBlockScratch(samples: number): typeof eventBlock {
+  if (eventBlock.times.length < samples) eventBlock = { times: new Float64Array(samples), c: new Float64Array(samples), s: new Float64Array(samples) };
+  return eventBlock;
 }
 
 /** The model at one instant. */
