@@ -4,10 +4,11 @@ import { spawnSync } from 'node:child_process';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { truthPath } from './speedCapture';
+import { BLOCK_MEANS_TARGET } from '../core/fit/fitSet';
 
 const HERE = path.dirname(fileURLToPath(import.meta.url));
-/** Block means the scipy script fits: about as many points as the fit's own decimation keeps of a long record. */
-const SCIPY_BLOCKS = 3000;
+/** Block means the scipy script fits: as many points as the fit's own decimation keeps of a long record. */
+const SCIPY_BLOCKS = BLOCK_MEANS_TARGET;
 /** The goal: the command line in at most half the script's time. */
 export const PIPELINE_GOAL = 0.5;
 

@@ -33,7 +33,7 @@ const MAX_RAW_POINTS = 3000;
  * of at most 1/8 of the ring period keeps at least sinc(pi/8)^2 = 95 % of the ring's power, and 1000 means still
  * carry the decay and the event in hundreds of points; every solve of the fit costs in proportion to the points.
  */
-const BLOCK_MEANS_TARGET = 1000;
+export const BLOCK_MEANS_TARGET = 1000;
 /** A block spans at most this fraction of the shortest period the sampling could carry. */
 const BLOCK_PER_PERIOD = 1 / 8;
 
