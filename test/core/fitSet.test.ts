@@ -37,6 +37,23 @@ describe('prepareFitSet', () => {
     expect(set.samplesUsed).toBe(set.time.length * factor);
   });
 
+  it('reduces a long record to about 1000 block means, or to blocks of 1/8 of a ring period when the ring is fast', () => {
+    const slow = prepareFitSet({ ...trace([]), clipped: undefined }, {});
+    expect(slow.decimation?.factor).toBe(30);
+    expect(slow.time.length).toBe(1_000);
+    // 80 samples a period: blocks of 10, so 3000 means of the 30 000 samples.
+    const time = Float64Array.from({ length: 30_000 }, (_, i) => i * DT);
+    const fast = prepareFitSet({ time, values: time.map((t) => Math.cos((2 * Math.PI * t) / (80 * DT))), unit: 'V' }, {});
+    expect(fast.decimation?.factor).toBe(10);
+    expect(fast.time.length).toBe(3_000);
+  });
+
+  it('keeps every sample of a record of up to 3000', () => {
+    const set = prepareFitSet({ ...trace([]), clipped: undefined }, { end: 2_999 * DT });
+    expect(set.decimation).toBeNull();
+    expect(set.time.length).toBe(3_000);
+  });
+
   it('keeps every sample when nothing is left out and the record is short', () => {
     const set = prepareFitSet({ ...trace([]), clipped: undefined }, { end: 2_000 * DT });
     expect(set.decimation).toBeNull();
