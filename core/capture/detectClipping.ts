@@ -14,6 +14,11 @@ const RUN_SLOPE_STEPS = 16;
  * samples beyond the run it lies at most 9 q below it; a signal that falls further than this there was cut off.
  */
 const RUN_DROP_STEPS = 16;
+/**
+ * Runs at the extreme this few samples apart are judged as one stretch at the rail: where a clipped signal
+ * stands only a few codes beyond the rail, noise carries single samples back under it, breaking the flat run.
+ */
+const MERGE_GAP = 3;
 
 export interface Clipping {
   /** 1 where the sample is part of a rail run. */
@@ -59,42 +64,59 @@ function dropBeyond(values: Float64Array, edge: number, direction: 1 | -1, dista
 
 /** Marks the rail runs on one side (sign 1: top at `rail`, the maximum; -1: bottom, the minimum); returns how many samples were marked. */
 function markSide(values: Float64Array, sign: 1 | -1, rail: number, step: number, clipped: Uint8Array): { count: number; level: number } {
-  const runs: { start: number; end: number }[] = [];
-  let confirmed = false;
-  for (let i = 0; i < values.length; ) {
-    if (values[i] !== rail) {
-      i++;
-      continue;
-    }
-    let end = i;
-    while (end + 1 < values.length && values[end + 1] === rail) end++;
-    const length = end - i + 1;
-    if (length >= MIN_RUN) {
-      runs.push({ start: i, end });
-      const interior = i > 0 && end < values.length - 1;
-      const steep = (slope: number): boolean => slope >= step && slope * length >= RUN_SLOPE_STEPS * step;
-      const falls = (edge: number, direction: 1 | -1): boolean =>
-        dropBeyond(values, edge, direction, Math.max(FLANK, length), rail, sign) >= RUN_DROP_STEPS * step;
-      const steepBothSides = steep(flankSlope(values, i - 1, -1, rail, sign)) && steep(flankSlope(values, end + 1, 1, rail, sign));
-      if (interior && (steepBothSides || (falls(i, -1) && falls(end, 1)))) confirmed = true;
-    }
-    i = end + 1;
-  }
+  const runs = runsAt(values, rail);
+  const confirmed = stretches(runs).some((stretch) => {
+    if (!stretch.some((run) => run.end - run.start + 1 >= MIN_RUN)) return false;
+    const start = stretch[0].start;
+    const end = stretch[stretch.length - 1].end;
+    const length = end - start + 1;
+    const interior = start > 0 && end < values.length - 1;
+    const steep = (slope: number): boolean => slope >= step && slope * length >= RUN_SLOPE_STEPS * step;
+    const falls = (edge: number, direction: 1 | -1): boolean =>
+      dropBeyond(values, edge, direction, Math.max(FLANK, length), rail, sign) >= RUN_DROP_STEPS * step;
+    const steepBothSides = steep(flankSlope(values, start - 1, -1, rail, sign)) && steep(flankSlope(values, end + 1, 1, rail, sign));
+    return interior && (steepBothSides || (falls(start, -1) && falls(end, 1)));
+  });
   if (!confirmed) return { count: 0, level: rail };
   let count = 0;
   for (const run of runs) {
+    if (run.end - run.start + 1 < MIN_RUN) continue;
     clipped.fill(1, run.start, run.end + 1);
     count += run.end - run.start + 1;
   }
   return { count, level: rail };
 }
 
+/** The runs of samples exactly at `rail` (a single sample is a run of one), in order. */
+function runsAt(values: Float64Array, rail: number): { start: number; end: number }[] {
+  const runs: { start: number; end: number }[] = [];
+  for (let i = 0; i < values.length; i++) {
+    if (values[i] !== rail) continue;
+    const start = i;
+    while (i + 1 < values.length && values[i + 1] === rail) i++;
+    runs.push({ start, end: i });
+  }
+  return runs;
+}
+
+/** The runs grouped into stretches: a run at most MERGE_GAP samples after the one before joins its stretch. */
+function stretches(runs: { start: number; end: number }[]): { start: number; end: number }[][] {
+  const out: { start: number; end: number }[][] = [];
+  for (const run of runs) {
+    const last = out[out.length - 1];
+    if (last && run.start - last[last.length - 1].end - 1 <= MERGE_GAP) last.push(run);
+    else out.push([run]);
+  }
+  return out;
+}
+
 /**
- * Rule: the channel's maximum (or minimum) is a rail when some run of at least 3 samples exactly at it lies inside
- * the record and the signal moves into and out of it steeply: on both sides, either by at least one code step per
- * sample (averaged over 3 samples) with that slope times the run length at least 16 code steps, or (finely sampled
- * records) by at least 16 code steps at a distance of the run's length beyond it. Then every run of 3 or
- * more at that level is marked, those touching the start or end of the record included. A smooth peak repeating
+ * Rule: the channel's maximum (or minimum) is a rail when some stretch at it lies inside the record (runs exactly at
+ * it, at most 3 samples apart, one of them at least 3 long) and the signal moves into and out of the stretch steeply:
+ * on both sides, either by at least one code step per sample (averaged over 3 samples) with that slope times the
+ * stretch's length at least 16 code steps, or (finely sampled records) by at least 16 code steps at a distance of
+ * the stretch's length beyond it. Then every run of 3 or more at that level is marked, those touching the start or
+ * end of the record included (the fit's rail guard leaves out the samples beside them). A smooth peak repeating
  * its top code, a level the signal settles onto, or a flat pre-trigger baseline is not marked; a pulse top that is
  * exactly flat between steep edges cannot be told from a rail and is marked.
  */
