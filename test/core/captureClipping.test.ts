@@ -83,6 +83,28 @@ describe('detectClipping', () => {
     expect(clipping.low).toBe(0);
   });
 
+  // A finely sampled ring whose first peak stands about 3 codes over the rail, with noise of 1.5 codes rms: noise
+  // carries single samples back under the rail, breaking its flat run. Over 20 seeded records each way.
+  const noisyPeak = (amplitude: number, seed: number): Float64Array => {
+    const random = createRandom(seed);
+    return ringdown(4000, 340, amplitude, 60, 3).map((v) => quantise(v + 1.5 * LSB * random.normal()));
+  };
+
+  it('finds a rail the signal stands only a few codes beyond, where noise carries samples back under it', () => {
+    const rail = 8;
+    for (let seed = 1; seed <= 20; seed++) {
+      const values = noisyPeak(8.75, seed).map((v) => Math.min(rail, v));
+      const clipping = detectClipping(values);
+      expect(clipping.high, `seed ${seed}`).toBeGreaterThan(0);
+      expect(clipping.highLevel).toBe(rail);
+      for (let i = 0; i < values.length; i++) if (clipping.clipped[i]) expect(values[i]).toBe(rail);
+    }
+  });
+
+  it('does not flag the noisy peak of a ring that stays inside the rails', () => {
+    for (let seed = 1; seed <= 20; seed++) expect(count(detectClipping(noisyPeak(8, seed)).clipped), `seed ${seed}`).toBe(0);
+  });
+
   it('does not flag a step response settling onto its top code, nor a flat pre-trigger baseline', () => {
     // Overdamped step on the grid: baseline at the minimum code, a steep rise, a long settled top.
     const values = Float64Array.from({ length: 1200 }, (_, i) => (i < 100 ? 0 : quantise(5 * (1 - Math.exp(-(i - 100) / 60)))));
