@@ -70,6 +70,7 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   if (explanation.choice === 'none') return noResponseFit(set, noise, warnings, explanation.evidence, trace.unit);
   let tail: number | undefined;
   if (explanation.choice === 'first-order' && firstOrder) {
+    if (explanation.doubt) warnings.push(explanation.doubt);
     tail = tailTimeConstant(set, firstOrder.attempt, firstOrder.t0)?.tau;
     ({ attempt: best, t0: t0Start } = firstOrder);
     jumpStart = !LAYOUTS[best.layout].fitsT0 && hasPreEvent;

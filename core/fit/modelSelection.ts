@@ -38,6 +38,11 @@ export function effectiveSamples(attempts: Attempt[], set: FitSet, t0Start: numb
  * this (the F-test's level, after the search correction below).
  */
 const SIGNIFICANCE_LEVEL = 1e-3;
+/**
+ * A ring the F-test puts below this level, though not below SIGNIFICANCE_LEVEL, is suggested but not established:
+ * the single decay is kept and said to be in doubt (0.05, the usual level of a suggestive result; common practice).
+ */
+const SUGGESTIVE_LEVEL = 0.05;
 /** Most parameters of a response layout (a ring with a level before it, a jump and t0). */
 const RING_PARAMETERS_MAX = 6;
 /**
@@ -55,6 +60,8 @@ export interface Explanation {
   choice: 'second-order' | 'first-order' | 'none';
   /** The comparison behind the choice, in words. */
   evidence: string;
+  /** Set when a single decay was chosen although the record suggests a ring: the doubt, in words. */
+  doubt?: string;
 }
 
 /**
@@ -83,11 +90,18 @@ export function explainRecord(ring: Attempt, t0Start: number, decay: { attempt: 
   const pText = (p: number) => (p < 1e-6 ? 'p < 1e-6' : `p = ${p.toPrecision(2)}`);
   let response = ring;
   let evidence = '';
+  let doubt: string | undefined;
   if (firstOrder) {
     const ringOverDecay = test(firstOrder.sse, firstOrder.values.length, ring, 1);
     if (!ringOverDecay.accepted) {
       response = firstOrder;
       evidence = `a single decay explains the record as well as a ring (F-test of the ring against it: ${pText(ringOverDecay.p)})`;
+      if (ringOverDecay.p < SUGGESTIVE_LEVEL) {
+        doubt =
+          `a ring is suggested but not established (F-test of the ring against the single decay: ${pText(ringOverDecay.p)}; ` +
+          `a ring is accepted below ${SIGNIFICANCE_LEVEL}): the record may hold a damped ring its noise hides, and tau then only ` +
+          'approximates the response (more signal, or averaging, would tell)';
+      }
     }
   }
   const overConstant = test(constantSse, 1, response, nEff);
@@ -97,7 +111,7 @@ export function explainRecord(ring: Attempt, t0Start: number, decay: { attempt: 
       evidence: `a constant level explains the record: the best response fit lowers the residual by ${(100 * (1 - response.sse / constantSse)).toFixed(2)} % (F-test against the constant with the search counted: ${pText(overConstant.p)}; accepted below ${SIGNIFICANCE_LEVEL})`,
     };
   }
-  return { choice: LAYOUTS[response.layout].order === 1 ? 'first-order' : 'second-order', evidence };
+  return LAYOUTS[response.layout].order === 1 ? { choice: 'first-order', evidence, doubt } : { choice: 'second-order', evidence };
 }
 
 function sumOfSquaresAboutMean(values: ArrayLike<number>): number {
