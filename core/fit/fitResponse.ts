@@ -32,7 +32,8 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   if (set.time.length < MIN_FIT_SAMPLES) {
     throw new FitInputError('trace', `only ${set.time.length} usable samples in the fit window; at least ${MIN_FIT_SAMPLES} are needed`);
   }
-  const noise = recordNoise(set.values);
+  // Block means lie few to a ring period: their noise is read from second differences (noise.ts).
+  const noise = recordNoise(set.values, set.block !== null);
   const step = quantisationStep(set.values);
   // The event is looked for inside any window; without a level before it the fit starts where the response surely runs.
   const start = locateResponse(trace, set, window, noise, step);

@@ -1,7 +1,7 @@
 // Noise level and code step of a record: white and band-limited noise, quantised samples and their block means.
 
 import { describe, expect, it } from 'vitest';
-import { estimateNoise, quantisationStep, recordNoise } from '../../core/fit/noise';
+import { estimateNoise, estimateNoiseOfMeans, quantisationStep, recordNoise } from '../../core/fit/noise';
 import { createRandom } from '../../core/random';
 
 /** 4000 samples: a flat first 30 %, then a slow swing; noise of rms 1 with neighbour correlation rho (first-order low-pass). */
@@ -37,6 +37,30 @@ describe('recordNoise', () => {
   it('does not take a head inside the response for noise beyond 4x the difference estimate', () => {
     const values = Float64Array.from({ length: 4000 }, (_, i) => 100 * Math.exp(-i / 50) + 0.01 * Math.sin(i * 2.1));
     expect(recordNoise(values)).toBeLessThanOrEqual(4 * estimateNoise(values));
+  });
+});
+
+describe('estimateNoiseOfMeans', () => {
+  // 1000 block means of a ring 25 points a period (40 periods, decaying over 10), white noise of rms 1 on them.
+  const means = (amplitude: number, seed: number): Float64Array => {
+    const random = createRandom(seed);
+    return Float64Array.from({ length: 1000 }, (_, i) => amplitude * Math.exp(-i / 250) * Math.sin((2 * Math.PI * i) / 25) + random.normal());
+  };
+
+  it('reads white noise alone to within 10 %, as first differences do', () => {
+    for (const seed of [1, 2, 3]) {
+      expect(estimateNoiseOfMeans(means(0, seed))).toBeGreaterThan(0.9);
+      expect(estimateNoiseOfMeans(means(0, seed))).toBeLessThan(1.1);
+    }
+  });
+
+  it('stays within 15 % of the noise where a ring 40 times the noise makes first differences read 1.5x or more', () => {
+    for (const seed of [1, 2, 3]) {
+      const values = means(40, seed);
+      expect(estimateNoise(values)).toBeGreaterThan(1.5);
+      expect(estimateNoiseOfMeans(values)).toBeLessThan(1.15);
+      expect(estimateNoiseOfMeans(values)).toBeGreaterThan(0.85);
+    }
   });
 });
 
