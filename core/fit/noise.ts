@@ -103,13 +103,8 @@ export function quantisationStep(values: ArrayLike<number>, limit = 4096): numbe
  * On a quantised record whose noise is below one step the MAD is 0; then q / sqrt(12) is the floor.
  */
 export function estimateNoise(values: ArrayLike<number>, start = 0, end = values.length): number {
-  const n = end - start;
-  if (n < 3) return 0;
-  const stride = Math.max(1, Math.floor(n / 20000));
-  const diffs: number[] = [];
-  for (let i = start + 1; i < end; i += stride) diffs.push(Math.abs(values[i] - values[i - 1]));
-  const sigma = median(diffs) / (0.6745 * Math.SQRT2);
-  return Math.max(sigma, quantisationFloor(values, start));
+  if (end - start < 3) return 0;
+  return Math.max(differenceNoise(values, start, end, 1), quantisationFloor(values, start));
 }
 
 /**
@@ -120,12 +115,18 @@ export function estimateNoise(values: ArrayLike<number>, start = 0, end = values
  * percentile 1.44 (5.1).
  */
 export function estimateNoiseOfMeans(values: ArrayLike<number>): number {
-  const n = values.length;
-  if (n < 4) return estimateNoise(values);
-  const stride = Math.max(1, Math.floor(n / 20000));
+  if (values.length < 4) return estimateNoise(values);
+  return Math.max(differenceNoise(values, 0, values.length, 2), quantisationFloor(values, 0));
+}
+
+/** White noise's standard deviation from the MAD of the differences of `order` 1 or 2 over [start, end), at most 20000 of them. */
+function differenceNoise(values: ArrayLike<number>, start: number, end: number, order: 1 | 2): number {
+  const stride = Math.max(1, Math.floor((end - start) / 20000));
   const diffs: number[] = [];
-  for (let i = 1; i < n - 1; i += stride) diffs.push(Math.abs(values[i + 1] - 2 * values[i] + values[i - 1]));
-  return Math.max(median(diffs) / (0.6745 * Math.sqrt(6)), quantisationFloor(values, 0));
+  if (order === 1) for (let i = start + 1; i < end; i += stride) diffs.push(Math.abs(values[i] - values[i - 1]));
+  else for (let i = start + 1; i < end - 1; i += stride) diffs.push(Math.abs(values[i + 1] - 2 * values[i] + values[i - 1]));
+  // The variance of a difference of white noise: 2 sigma^2 (first), 6 sigma^2 (second).
+  return median(diffs) / (0.6745 * (order === 1 ? Math.SQRT2 : Math.sqrt(6)));
 }
 
 /** q / sqrt(12) for a record on a grid of step q (0 off a grid): the noise a quantised record has at least. */
