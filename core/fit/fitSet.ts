@@ -56,12 +56,18 @@ export function prepareFitSet(trace: Trace, window: { start?: number; end?: numb
   let y: Float64Array = new Float64Array(count);
   // Where a left-out sample breaks the run of consecutive samples (a block mean must not straddle it).
   const gapBefore = new Uint8Array(count);
+  // The range of the values kept, read while copying them (a long record is passed over as few times as possible).
+  let lo = Infinity;
+  let hi = -Infinity;
   for (let i = 0, j = 0, last = -2; i < time.length; i++) {
     if (!usable(i) || (clipped && clipped[i])) continue;
     gapBefore[j] = i === last + 1 ? 0 : 1;
     last = i;
+    const v = values[i];
+    if (v < lo) lo = v;
+    if (v > hi) hi = v;
     t[j] = time[i];
-    y[j++] = values[i];
+    y[j++] = v;
   }
   const warnings: string[] = [];
   if (clippedCount > 0) warnings.push(`${clippedCount} clipped samples were left out of the fit`);
@@ -72,22 +78,17 @@ export function prepareFitSet(trace: Trace, window: { start?: number; end?: numb
   let used = t.length;
   let decimation: FitSet['decimation'] = null;
   if (t.length > MAX_RAW_POINTS) {
-    const ringPeriod = roughPeriodSamples(y);
+    const ringPeriod = roughPeriodSamples(y, hi - lo);
     const factor = Math.max(1, Math.min(Math.ceil(t.length / BLOCK_MEANS_TARGET), Math.floor(ringPeriod * BLOCK_PER_PERIOD)));
     if (factor > 1) {
       [t, y] = blockAverage(t, y, gapBefore, factor);
+      [lo, hi] = extremes(y);
       used = t.length * factor;
       decimation = {
         factor,
         note: `fitted on means of ${factor} consecutive samples (${t.length} points), each block at most 1/8 of the ring period, against the model averaged over the same blocks`,
       };
     }
-  }
-  let lo = Infinity;
-  let hi = -Infinity;
-  for (const v of y) {
-    lo = Math.min(lo, v);
-    hi = Math.max(hi, v);
   }
   return {
     time: t,
@@ -102,20 +103,28 @@ export function prepareFitSet(trace: Trace, window: { start?: number; end?: numb
   };
 }
 
-/** Samples per ring period from the spacing of crossings of the median (a coarse, safe upper bound for blocks). */
-function roughPeriodSamples(y: Float64Array): number {
+/** The smallest and the largest value (Infinity and -Infinity for none). */
+function extremes(y: Float64Array): [number, number] {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let i = 0; i < y.length; i++) {
+    if (y[i] < lo) lo = y[i];
+    if (y[i] > hi) hi = y[i];
+  }
+  return [lo, hi];
+}
+
+/**
+ * Samples per ring period from the spacing of crossings of the median (a coarse, safe upper bound for blocks),
+ * with `range` the spread of the finite values y.
+ */
+function roughPeriodSamples(y: Float64Array, range: number): number {
   const level = median(y.subarray(Math.floor(y.length * 0.8)));
   let crossings = 0;
   let first = -1;
   let last = -1;
   // Hysteresis of a tenth of the range, and of 4 noise levels, keeps noise from counting as crossings.
-  let lo = Infinity;
-  let hi = -Infinity;
-  for (const v of y) {
-    lo = Math.min(lo, v);
-    hi = Math.max(hi, v);
-  }
-  const band = Math.max((hi - lo) / 10, 4 * estimateNoise(y));
+  const band = Math.max(range / 10, 4 * estimateNoise(y));
   let state = 0;
   for (let i = 0; i < y.length; i++) {
     const s = y[i] > level + band ? 1 : y[i] < level - band ? -1 : 0;

@@ -43,7 +43,8 @@ export function locateResponse(trace: Trace, set: FitSet, window: FitWindow, noi
   const event = detectEvent(set.values, noise, step);
   if (event.responseFrom === 0) return { set, window, event, warnings: [] };
   const departure = firstSampleTime(set, event.responseFrom);
-  const onRail = railHeadCount(unclippedValues(trace, window, departure), unclippedValues(trace, window, Infinity), noise);
+  const { head, all } = unclippedValues(trace, window, departure);
+  const onRail = railHeadCount(head, all, noise);
   if (onRail === 0) return { set, window, event, warnings: [] };
   const moved = setFrom(trace, window, departure);
   if (moved.set.time.length < MIN_FIT_SAMPLES) {
@@ -169,16 +170,26 @@ function setFrom(trace: Trace, window: FitWindow, start: number): { set: FitSet;
   return { set: prepareFitSet(trace, moved), window: moved };
 }
 
-/** The unclipped samples of the window before `end`, s. */
-function unclippedValues(trace: Trace, window: FitWindow, end: number): Float64Array {
+/** The unclipped samples of the window, all of them and those before `end`, s. */
+function unclippedValues(trace: Trace, window: FitWindow, end: number): { head: Float64Array; all: Float64Array } {
   const { time, values, clipped } = trace;
   const from = window.start ?? -Infinity;
   const to = window.end ?? Infinity;
-  const kept = (i: number) => time[i] >= from && time[i] <= to && time[i] < end && !(clipped && clipped[i]) && Number.isFinite(values[i]);
-  // Counted first, then copied: a long record is never held as a list of numbers.
-  let count = 0;
-  for (let i = 0; i < time.length; i++) if (kept(i)) count++;
-  const out = new Float64Array(count);
-  for (let i = 0, j = 0; i < time.length; i++) if (kept(i)) out[j++] = values[i];
-  return out;
+  const kept = (i: number) => time[i] >= from && time[i] <= to && !(clipped && clipped[i]) && Number.isFinite(values[i]);
+  // Counted first, then copied: a long record is never held as a list of numbers, nor as an array longer than needed.
+  let inHead = 0;
+  let inAll = 0;
+  for (let i = 0; i < time.length; i++) {
+    if (!kept(i)) continue;
+    inAll++;
+    if (time[i] < end) inHead++;
+  }
+  const head = new Float64Array(inHead);
+  const all = new Float64Array(inAll);
+  for (let i = 0, h = 0, a = 0; i < time.length; i++) {
+    if (!kept(i)) continue;
+    all[a++] = values[i];
+    if (time[i] < end) head[h++] = values[i];
+  }
+  return { head, all };
 }
