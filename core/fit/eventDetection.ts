@@ -18,7 +18,7 @@ export interface EventEstimate {
 const NO_EVENT: EventEstimate = { index: 0, hasPreEvent: false, responseFrom: 0 };
 
 /** Fewest flat samples before the event for t0 and the pre-event level to be fitted. */
-const MIN_PRE_EVENT = 10;
+export const MIN_PRE_EVENT = 10;
 /** At the scale the event is looked for, its largest excursion must stand this many noise levels clear. */
 const CONFIDENT_PEAK = 12;
 /** Coarsest scale: at least this many block means over the record. */

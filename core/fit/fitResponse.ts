@@ -53,7 +53,7 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   const settled = settleEvent(trace, set, window, best, event, candidates, noise);
   if (settled) {
     ({ set, window, best, t0Start } = settled);
-    warnings.push(settled.warning);
+    if (settled.warning) warnings.push(settled.warning);
   }
 
   const hasPreEvent = LAYOUTS[best.layout].preLevelColumn !== null;

@@ -1,17 +1,17 @@
 // Where the fit starts: at the event the record holds, or, with no level before it to fit, where the response surely runs.
 
 import type { Trace } from './trace';
-import { detectEvent, type EventEstimate } from './eventDetection';
+import { detectEvent, MIN_PRE_EVENT, type EventEstimate } from './eventDetection';
 import { firstSampleTime, MIN_FIT_SAMPLES, prepareFitSet, type FitSet } from './fitSet';
 import { railHeadCount } from './railGuard';
 import { attemptValue, type Attempt } from './attempt';
 import { refine } from './refine';
-import { LAYOUTS, layoutValues } from './responseModel';
+import { LAYOUTS, layoutsFor, layoutValues } from './responseModel';
 import { searchLayouts } from './layoutSearch';
-import { effectiveSamples, information } from './modelSelection';
+import { chooseByInformation, effectiveSamples, information } from './modelSelection';
 import type { RateCandidate } from './startingRates';
 import { FitInputError } from './fitInputError';
-import { estimateNoise } from './noise';
+import { estimateNoise, median } from './noise';
 
 type FitWindow = { start?: number; end?: number };
 
@@ -60,7 +60,8 @@ export interface SettledStart {
   window: FitWindow;
   best: Attempt;
   t0Start: number;
-  warning: string;
+  /** Why the fit moved, for the reader; null when it only found an event the search had missed. */
+  warning: string | null;
 }
 
 /**
@@ -84,7 +85,10 @@ export function settleEvent(
   const recordStart = firstSampleTime(set);
   const rates = { alpha: attemptValue(best, 'alpha'), omega0: attemptValue(best, 'omega0'), source: 'fit before' };
   if (!LAYOUTS[best.layout].fitsT0) {
-    if (event.responseFrom === 0 || !headMisfit(set, best, recordStart, event.responseFrom)) return null;
+    if (event.responseFrom === 0) return null;
+    const fromRest = eventBeforeDeparture(set, best, event, [rates, ...candidates], noise);
+    if (fromRest) return { set, window, best: fromRest.best, t0Start: fromRest.t0Start, warning: null };
+    if (!headMisfit(set, best, recordStart, event.responseFrom)) return null;
     return fromDeparture(trace, set, window, event, rates, SHORT_LEVEL);
   }
   const inProgress = `the record starts inside the response (it is explained better without an event in it): fitted from the first sample with the initial state free (${NOT_MEASURED})`;
@@ -102,6 +106,57 @@ export function settleEvent(
   if (gap > CLEAR_EVIDENCE) return null;
   if (gap < -CLEAR_EVIDENCE) return { set, window, best: fromStart, t0Start: recordStart, warning: inProgress };
   return fromDeparture(trace, set, window, event, rates, UNDECIDED);
+}
+
+/** Where between the record's start and the first clear departure the event's search starts t0 (a quarter, half and three quarters of the way). */
+const EVENT_STARTS = [0.25, 0.5, 0.75];
+
+/**
+ * The fit with an event before the first clear departure, when it explains the record clearly better than the
+ * fit from the first sample: a response that leaves its level from rest (zero slope, as a capacitor's voltage
+ * or an inductor's current in a natural response does) rises as the square of the time, and the event search,
+ * fitting a level and a square up to a tenth of the swing, can place its start at the record's first sample
+ * although the record holds a flat head. Fitted from that head's start as well, a free response bends through
+ * the head and comes out biased by several standard errors. Null when no such fit wins.
+ */
+function eventBeforeDeparture(set: FitSet, best: Attempt, event: EventEstimate, candidates: RateCandidate[], noise: number): { best: Attempt; t0Start: number } | null {
+  if (flatHeadLength(set.values, noise) < MIN_PRE_EVENT) return null;
+  const recordStart = firstSampleTime(set);
+  const departure = set.time[event.responseFrom];
+  const layouts = layoutsFor({ hasPreEvent: true, continuity: 'continuous' });
+  // The best attempt of each layout over the starts; the layouts then compared as the first search compares them.
+  const byLayout = new Map<string, { best: Attempt; t0Start: number }>();
+  for (const share of EVENT_STARTS) {
+    const t0Start = recordStart + share * (departure - recordStart);
+    for (const attempt of searchLayouts(set, layouts, candidates, t0Start, noise)) {
+      const t0 = attemptValue(attempt, 't0');
+      if (!(t0 > recordStart && t0 < departure) || !Number.isFinite(attempt.sse)) continue;
+      const known = byLayout.get(attempt.layout);
+      if (!known || attempt.sse < known.best.sse) byLayout.set(attempt.layout, { best: attempt, t0Start });
+    }
+  }
+  const found = [...byLayout.values()];
+  if (found.length === 0) return null;
+  const chosen = chooseByInformation(found.map((f) => f.best), set, recordStart);
+  const n = effectiveSamples([best, chosen], set, recordStart);
+  const gap = information(best.sse, best.values.length, n) - information(chosen.sse, chosen.values.length, n);
+  return gap > CLEAR_EVIDENCE ? (found.find((f) => f.best === chosen) ?? null) : null;
+}
+
+/** A sample of a flat head lies within this many noise levels of the head's level (4: a normal sample falls outside once in 16000). */
+const FLAT_HEAD_NOISES = 4;
+
+/**
+ * How many samples from the record's start stay within FLAT_HEAD_NOISES noise levels of the median of its first
+ * MIN_PRE_EVENT: a record that starts moving (a ring caught near a peak) has few, so the search for an event
+ * before the departure is not paid for there.
+ */
+function flatHeadLength(values: Float64Array, noise: number): number {
+  if (values.length < MIN_PRE_EVENT) return 0;
+  const level = median(values.subarray(0, MIN_PRE_EVENT));
+  let count = 0;
+  while (count < values.length && Math.abs(values[count] - level) <= FLAT_HEAD_NOISES * noise) count++;
+  return count;
 }
 
 /** Below this zeta a fitted response is a clear ring: it swings through its amplitude every half period. */

@@ -1,5 +1,6 @@
 // Where the response fit starts: the event found inside a hand-set window, a record caught in progress and one whose
-// level before the event sits at a converter rail fitted without an event (t0 not reported as measured), the rail test.
+// level before the event sits at a converter rail fitted without an event (t0 not reported as measured), a response
+// from rest after a short flat level, the rail test.
 
 import { describe, expect, it } from 'vitest';
 import { fitResponse } from '../../core/fit/fitResponse';
@@ -28,6 +29,23 @@ describe('a record caught with its ringdown in progress', () => {
     const fit = fitResponse(makeRecord({ ...RINGDOWN, eventAt: -((eighths / 8) * 50 + 3.3), seed: 4400 + eighths }).trace);
     expect(fit.t0.stderr).toBeNull();
     expect(fit.warnings.join(' ')).toMatch(NOT_MEASURED);
+  });
+});
+
+describe('a response that leaves a short flat level from rest', () => {
+  // A natural response with no initial slope rises as the square of the time; with a flat head of 2 % the event search
+  // placed its start at the first sample, and the free fit from there came out 3 to 5 standard errors low.
+  it.each([
+    [1.11, 1],
+    [2, 2],
+  ])('zeta %d: the event is fitted inside the record and alpha and omega0 lie within 3 standard errors', (zeta, seed) => {
+    const spec: RecordSpec = { zeta, omega0: 2 * Math.PI * 56e3, samples: 20000, perPeriod: 24000, eventAt: 400.4, kind: 'ringdown', snrDb: 60, noise: { kind: 'white' }, seed: 9100 + seed };
+    const { trace, truth } = makeRecord(spec);
+    const fit = fitResponse(trace);
+    expect(fit.t0.stderr).not.toBeNull();
+    expect(fit.t0.value).toBeGreaterThan(trace.time[0]);
+    expect(Math.abs(fit.alpha.value - truth.alpha)).toBeLessThan(3 * (fit.alpha.stderr as number));
+    expect(Math.abs(fit.omega0.value - truth.omega0)).toBeLessThan(3 * (fit.omega0.stderr as number));
   });
 });
 
