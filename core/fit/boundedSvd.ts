@@ -133,7 +133,13 @@ export function boundedSvd(a: readonly (ArrayLike<number>)[]): Svd | null {
       if (norms[k] > 0) for (let i = 0; i < n; i++) u[col * m + i] = w[k * n + i] / norms[k];
     });
     applyQ(qr, tau, m, n, u);
-    return Array.from({ length: m }, (_, i) => Array.from({ length: n }, (_, col) => u[col * m + i]));
+    const rows: number[][] = [];
+    for (let i = 0; i < m; i++) {
+      const row = new Array<number>(n);
+      for (let col = 0; col < n; col++) row[col] = u[col * m + i];
+      rows.push(row);
+    }
+    return rows;
   };
   return {
     values: order.map((k) => norms[k] * scale),

@@ -1,6 +1,7 @@
 // Matrix pencil estimate of the poles of a sum of damped exponentials (Hua and Sarkar, IEEE Trans. ASSP 38(5), 1990).
 
-import { boundedSvd, type Svd } from './boundedSvd';
+import { boundedSvd } from './boundedSvd';
+import { dominantRightVectors, type DominantRight } from './dominantRightVectors';
 
 export interface Pole {
   /** ln|z| per sample (negative for decay). */
@@ -32,17 +33,18 @@ export function matrixPencils(y: ArrayLike<number>, orders: readonly number[]): 
   }
   const n = y.length;
   if (isConstant(y)) return orders.map(() => []);
-  const decompositions = new Map<number, Svd | null>();
+  const samples = Float64Array.from(y);
+  const decompositions = new Map<number, DominantRight | null>();
   return orders.map((modes) => {
     const pencil = Math.max(modes, Math.floor(n / 3));
     const rows = n - pencil;
     if (rows <= modes) return [];
     if (!decompositions.has(pencil)) {
-      const hankel = Array.from({ length: rows }, (_, i) => Array.from({ length: pencil + 1 }, (_, j) => y[i + j]));
-      decompositions.set(pencil, boundedSvd(hankel));
+      const hankel = Array.from({ length: rows }, (_, i) => samples.subarray(i, i + pencil + 1));
+      decompositions.set(pencil, dominantRightVectors(hankel, Math.min(MAX_MODES, pencil + 1)));
     }
     const svd = decompositions.get(pencil) ?? null;
-    if (!svd || !svd.converged || !(svd.values[modes - 1] > 0)) return [];
+    if (!svd || !(svd.values[modes - 1] > 0)) return [];
     const v1 = svd.V.slice(0, pencil).map((row) => row.slice(0, modes));
     const v2 = svd.V.slice(1, pencil + 1).map((row) => row.slice(0, modes));
     // pinv(V1) V2 is modes x modes; its eigenvalues are the poles z.
