@@ -1,12 +1,14 @@
-// The hot loop on UTF-8 bytes: reads a plain data line of a known layout into the column store, or declines it to the text path.
+// The hot loop on UTF-8 bytes: reads the plain data lines of a known layout into the column store, declining any other line to the text path.
 
-import { leadingNumber, numberEnd } from './cellValue';
+import { MAX_LINE_LENGTH, lineTooLong } from './captureLimits';
+import { NOT_PLAIN, storeLeadingNumber } from './cellValue';
 import type { ColumnStore } from './columnStore';
+import type { LineMap } from './lineMap';
 import { ROW, SKIP } from './rowReader';
 import { WHITESPACE } from './splitLine';
 
 /** The line holds something only the text path judges (quotes, a cell that is not a plain number, extra cells). */
-export const DECLINED = 2;
+const DECLINED = 2;
 
 const LF = 10;
 const CR = 13;
@@ -19,8 +21,10 @@ const TAB = 9;
  * It finds the end of each line as it reads the cells, in one pass over the bytes.
  */
 export class ByteRowReader {
+  /** File line of the last line read. */
+  line = 0;
   /** Index of the LF ending the line last read. */
-  lineFeed = 0;
+  private lineFeed = 0;
   private readonly count: number;
   private readonly delimiterCode: number;
   /** Tabs pad cells unless they separate them. */
@@ -28,6 +32,7 @@ export class ByteRowReader {
 
   constructor(
     private readonly store: ColumnStore,
+    private readonly lines: LineMap,
     delimiter: string,
     private readonly decimalCode: number,
   ) {
@@ -36,18 +41,45 @@ export class ByteRowReader {
     this.tabPads = this.delimiterCode !== TAB;
   }
 
-  /** Reads the line starting at `start` (an LF lies before `limit`): ROW, SKIP or DECLINED; sets lineFeed. */
-  read(bytes: Uint8Array, start: number, limit: number): number {
+  /**
+   * Reads the lines from `pos` (after file line `line`) up to `complete` (just after an LF) while each is a row of
+   * plain numbers, blank or a comment; returns where the first declined line starts, or `complete`. Each row's file
+   * line goes to the line map; `this.line` is left at the last line read.
+   */
+  readRows(bytes: Uint8Array, pos: number, complete: number, line: number): number {
+    // The line map needs a row's line only where it does not follow from the row before (at the start, after a skip).
+    let follows = false;
+    while (pos < complete) {
+      const outcome = this.read(bytes, pos);
+      if (outcome === DECLINED) break;
+      line++;
+      if (this.lineFeed - pos > MAX_LINE_LENGTH) throw lineTooLong(line);
+      if (outcome === SKIP) follows = false;
+      else if (!follows) {
+        this.lines.record(this.store.length - 1, line);
+        follows = true;
+      }
+      pos = this.lineFeed + 1;
+    }
+    this.line = line;
+    return pos;
+  }
+
+  /** Reads the line starting at `start`: ROW, SKIP or DECLINED; sets lineFeed unless declined. */
+  private read(bytes: Uint8Array, start: number): number {
     let p = start;
     let c = 0;
     while ((c = bytes[p]) === SPACE || c === TAB) p++;
     if (this.endsLine(bytes, p)) return SKIP;
-    if (c === 35 || c === 37 || (c === 47 && bytes[p + 1] === 47) || (c === 59 && this.delimiterCode !== 59)) return this.passLine(bytes, p, SKIP);
+    if (c === 35 || c === 37 || (c === 47 && bytes[p + 1] === 47) || (c === 59 && this.delimiterCode !== 59)) {
+      this.lineFeed = bytes.indexOf(LF, p);
+      return SKIP;
+    }
     this.store.reserve();
-    return this.delimiterCode < 0 ? this.readWhitespace(bytes, p, limit) : this.readDelimited(bytes, start, limit);
+    return this.delimiterCode < 0 ? this.readWhitespace(bytes, p) : this.readDelimited(bytes, start);
   }
 
-  private readDelimited(bytes: Uint8Array, start: number, limit: number): number {
+  private readDelimited(bytes: Uint8Array, start: number): number {
     const columns = this.store.columns;
     const row = this.store.length;
     const delimiter = this.delimiterCode;
@@ -55,34 +87,32 @@ export class ByteRowReader {
     let p = this.skipPads(bytes, start);
     for (;;) {
       if (col < this.count) {
-        const value = leadingNumber(bytes, p, limit, this.decimalCode);
-        if (value !== value) return this.passLine(bytes, p, DECLINED);
-        columns[col][row] = value;
-        p = this.skipPads(bytes, numberEnd);
+        p = storeLeadingNumber(bytes, p, this.decimalCode, columns[col], row);
+        if (p === NOT_PLAIN) return DECLINED;
+        p = this.skipPads(bytes, p);
       }
       col++;
       if (bytes[p] !== delimiter) break;
       p = this.skipPads(bytes, p + 1);
     }
-    if (!this.endsLine(bytes, p)) return this.passLine(bytes, p, DECLINED);
+    if (!this.endsLine(bytes, p)) return DECLINED;
     return this.commit(columns, row, col, start);
   }
 
-  private readWhitespace(bytes: Uint8Array, p: number, limit: number): number {
+  private readWhitespace(bytes: Uint8Array, p: number): number {
     const start = p;
     const columns = this.store.columns;
     const row = this.store.length;
     let col = 0;
     for (;;) {
-      if (col >= this.count) return this.passLine(bytes, p, DECLINED);
-      const value = leadingNumber(bytes, p, limit, this.decimalCode);
-      if (value !== value) return this.passLine(bytes, p, DECLINED);
-      columns[col][row] = value;
+      if (col >= this.count) return DECLINED;
+      const end = storeLeadingNumber(bytes, p, this.decimalCode, columns[col], row);
+      if (end === NOT_PLAIN) return DECLINED;
       col++;
-      p = this.skipPads(bytes, numberEnd);
+      p = this.skipPads(bytes, end);
       if (this.endsLine(bytes, p)) break;
       // A number must be followed by whitespace to be the whole cell.
-      if (p === numberEnd) return this.passLine(bytes, p, DECLINED);
+      if (p === end) return DECLINED;
     }
     return this.commit(columns, row, col, start);
   }
@@ -100,12 +130,6 @@ export class ByteRowReader {
     else if (c === CR && bytes[p + 1] === LF) this.lineFeed = p + 1;
     else return false;
     return true;
-  }
-
-  /** Finds the end of a line not read to its end, and returns `outcome`. */
-  private passLine(bytes: Uint8Array, p: number, outcome: number): number {
-    this.lineFeed = bytes.indexOf(LF, p);
-    return outcome;
   }
 
   /** Missing trailing cells are empty (NaN); the row, from `start` to lineFeed, is kept and counted as input. */

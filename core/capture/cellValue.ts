@@ -69,76 +69,69 @@ export function fastNumber(text: string, start: number, end: number, decimalCode
     if (expDigits === 0) return NaN;
     exponent += expNegative ? -written : written;
   }
-  return composeNumber(mantissa, exponent, negative);
+  return composeNumber(mantissa, exponent, negative ? -1 : 1, ONE_VALUE, 0) ? ONE_VALUE[0] : NaN;
 }
-
-/** Where leadingNumber stopped reading. */
-export let numberEnd = 0;
 
 /**
- * fastNumber over UTF-8 bytes, read from a cell's first byte after its leading spaces up to the first byte that
- * cannot continue the number (left in numberEnd): when only spaces and tabs follow it in the cell, the value is
- * fastNumber's for that cell, NaN included (same rules, step for step). The decimal separator must not be the
- * cell delimiter.
+ * fastNumber over UTF-8 bytes, straight into column[row]: reads from a cell's first byte after its leading spaces up
+ * to the first byte that cannot continue the number, and returns where it stopped. When only spaces and tabs follow
+ * it in the cell, what it stores is fastNumber's value for that cell (same rules, step for step); where fastNumber
+ * gives NaN it stores nothing and returns NOT_PLAIN. An LF must follow `start`; the decimal separator must not be
+ * the cell delimiter.
  */
-export function leadingNumber(bytes: Uint8Array, start: number, end: number, decimalCode: number): number {
-  let i = start;
-  let c = bytes[i];
-  let negative = false;
-  if (i < end && (c === 45 || c === 43)) {
-    negative = c === 45;
-    i++;
-  }
+export function storeLeadingNumber(bytes: Uint8Array, start: number, decimalCode: number, column: Float64Array, row: number): number {
+  // Signs are read without a branch of their own: a file's first negative number then costs no recompilation.
+  let c = bytes[start];
+  const sign = c === 45 ? -1 : 1;
+  let i = start + (c === 45 || c === 43 ? 1 : 0);
+  c = bytes[i];
+  const integerStart = i;
+  while (c === 48) c = bytes[++i];
+  // Leading zeros are not significant digits: the mantissa's digits start at the first other digit.
+  let significant = i;
   let mantissa = 0;
-  let digits = 0;
-  let seen = false;
+  let d = 0;
+  while ((d = c - 48) >= 0 && d <= 9) {
+    mantissa = mantissa * 10 + d;
+    c = bytes[++i];
+  }
+  let digits = i - significant;
+  let seen = i > integerStart;
   let exponent = 0;
-  for (; i < end; i++) {
-    const d = bytes[i] - 48;
-    if (d < 0 || d > 9) break;
-    seen = true;
-    if (mantissa !== 0 || d !== 0) {
+  if (c === decimalCode) {
+    c = bytes[++i];
+    const fractionStart = i;
+    if (digits === 0) while (c === 48) c = bytes[++i];
+    significant = i;
+    while ((d = c - 48) >= 0 && d <= 9) {
       mantissa = mantissa * 10 + d;
-      digits++;
+      c = bytes[++i];
     }
+    digits += i - significant;
+    exponent = fractionStart - i;
+    seen ||= i > fractionStart;
   }
-  if (i < end && bytes[i] === decimalCode) {
-    for (i++; i < end; i++) {
-      const d = bytes[i] - 48;
-      if (d < 0 || d > 9) break;
-      seen = true;
-      exponent--;
-      if (mantissa !== 0 || d !== 0) {
-        mantissa = mantissa * 10 + d;
-        digits++;
-      }
-    }
-  }
-  numberEnd = i;
-  if (!seen || digits > MAX_EXACT_DIGITS) return NaN;
-  if (i < end && ((c = bytes[i]) === 101 || c === 69)) {
-    i++;
-    let expNegative = false;
+  if (!seen || digits > MAX_EXACT_DIGITS) return NOT_PLAIN;
+  if (c === 101 || c === 69) {
+    c = bytes[++i];
+    const expSign = c === 45 ? -1 : 1;
+    i += c === 45 || c === 43 ? 1 : 0;
     c = bytes[i];
-    if (i < end && (c === 45 || c === 43)) {
-      expNegative = c === 45;
-      i++;
-    }
+    const expStart = i;
     let written = 0;
-    let expDigits = 0;
-    for (; i < end; i++) {
-      const d = bytes[i] - 48;
-      if (d < 0 || d > 9) break;
-      if (expDigits > 4) return NaN;
+    while ((d = c - 48) >= 0 && d <= 9) {
+      if (i - expStart > 4) return NOT_PLAIN;
       written = written * 10 + d;
-      expDigits++;
+      c = bytes[++i];
     }
-    numberEnd = i;
-    if (expDigits === 0) return NaN;
-    exponent += expNegative ? -written : written;
+    if (i === expStart) return NOT_PLAIN;
+    exponent += expSign * written;
   }
-  return composeNumber(mantissa, exponent, negative);
+  return composeNumber(mantissa, exponent, sign, column, row) ? i : NOT_PLAIN;
 }
+
+/** storeLeadingNumber's answer when the slow path must decide. */
+export const NOT_PLAIN = -1;
 
 const MISSING = new Set(['', 'nan', '-nan', '+nan', 'inf', '-inf', '+inf', 'infinity', '-infinity', '+infinity', 'null', 'none', 'n/a', 'na', 'over', 'under', 'overrange', 'ovf', 'clip', '?']);
 const STARS = /^\*+$/;
@@ -172,17 +165,24 @@ export function isTimestamp(cell: string): boolean {
   return DATE_TIME.test(text) || TIME_OF_DAY.test(text);
 }
 
+/** Where fastNumber has composeNumber put its value. */
+const ONE_VALUE = new Float64Array(1);
+
 /**
- * mantissa x 10^exponent, exact when both are exactly representable (|exponent| <= 22, a mantissa of at
- * most 15 digits): one correctly rounded multiplication or division. NaN outside that range or at overrange.
+ * Stores sign x mantissa x 10^exponent in column[row] (sign 1 or -1), exact when both are exactly representable
+ * (|exponent| <= 22, a mantissa of at most 15 digits): one correctly rounded multiplication or division. False,
+ * storing nothing, outside that range or at overrange. (Storing, not returning, the double spares the hot loop a
+ * boxed number per cell.)
  */
-function composeNumber(mantissa: number, exponent: number, negative: boolean): number {
-  if (mantissa === 0) return negative ? -0 : 0;
-  let value: number;
-  if (exponent === 0) value = mantissa;
-  else if (exponent < 0 && exponent >= -22) value = mantissa / POW10[-exponent];
-  else if (exponent > 0 && exponent <= 22) value = mantissa * POW10[exponent];
-  else return NaN;
-  if (value >= OVERRANGE) return NaN;
-  return negative ? -value : value;
+function composeNumber(mantissa: number, exponent: number, sign: number, column: Float64Array, row: number): boolean {
+  let value = 0;
+  if (mantissa !== 0) {
+    if (exponent === 0) value = mantissa;
+    else if (exponent < 0 && exponent >= -22) value = mantissa / POW10[-exponent];
+    else if (exponent > 0 && exponent <= 22) value = mantissa * POW10[exponent];
+    else return false;
+    if (value >= OVERRANGE) return false;
+  }
+  column[row] = sign * value;
+  return true;
 }

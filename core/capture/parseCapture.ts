@@ -34,7 +34,7 @@
 //   much shorter than their table that storing them would take more cells than the file has bytes (ColumnStore).
 
 import { assembleCapture } from './assembleCapture';
-import { ByteRowReader, DECLINED } from './byteRowReader';
+import { ByteRowReader } from './byteRowReader';
 import { ColumnStore } from './columnStore';
 import { dataShape, sameShape, type DataShape } from './dataShape';
 import { decideLayout, rowDelimiter, type Layout } from './layout';
@@ -53,6 +53,10 @@ import { CaptureError, type Capture, type CaptureOptions } from './types';
 const CONFIRMING_ROWS = 3;
 /** Bytes decoded to text at a time while the layout is not yet known. */
 const HEAD_BYTES = 1 << 14;
+/** Places the line length is sampled to reserve rows for a piece of the table. */
+const ESTIMATE_WINDOWS = 8;
+/** Rows reserved beyond the estimate: unused room is never touched, so it costs address space, not memory. */
+const ESTIMATE_MARGIN = 1.05;
 const LF = 10;
 const CR = 13;
 
@@ -280,24 +284,24 @@ class StreamingReader implements CaptureReader {
     this.lines.record((this.store as ColumnStore).length - 1, line);
   }
 
-  /** The complete lines bytes[pos, complete) of the table, each from the bytes or, when declined, as text. */
+  /** The complete lines bytes[pos, complete) of the table, runs of them from the bytes, each line declined as text. */
   private readByteLines(bytes: Uint8Array, pos: number, complete: number): void {
     const byteRows = this.byteRows as ByteRowReader;
     while (pos < complete) {
-      const line = ++this.line;
       // After a line that is not data, every line goes to the text path, which tells junk from a later section.
-      const broken = this.pending !== null;
-      const outcome = broken ? DECLINED : byteRows.read(bytes, pos, complete);
-      const at = broken ? bytes.indexOf(LF, pos) : byteRows.lineFeed;
-      if (at - pos > MAX_LINE_LENGTH) throw lineTooLong(line);
-      if (outcome === ROW) this.rowStored(line);
-      else if (outcome === DECLINED) {
-        let end = at;
-        while (end > pos && bytes[end - 1] === CR) end--;
-        const text = this.decoder().decode(bytes.subarray(pos, end), line);
-        (this.rows as RowReader).begin(text);
-        this.readRow(text, line, 0, text.length);
+      if (this.pending === null) {
+        pos = byteRows.readRows(bytes, pos, complete, this.line);
+        this.line = byteRows.line;
+        if (pos === complete) return;
       }
+      const line = ++this.line;
+      const at = bytes.indexOf(LF, pos);
+      if (at - pos > MAX_LINE_LENGTH) throw lineTooLong(line);
+      let end = at;
+      while (end > pos && bytes[end - 1] === CR) end--;
+      const text = this.decoder().decode(bytes.subarray(pos, end), line);
+      (this.rows as RowReader).begin(text);
+      this.readRow(text, line, 0, text.length);
       pos = at + 1;
     }
   }
@@ -309,7 +313,7 @@ class StreamingReader implements CaptureReader {
     const delimiter = rowDelimiter(layout);
     // A decimal comma in a comma-separated table (from quoted fields) needs the cells split first: the text path.
     if (layout.decimalComma && delimiter === ',') return null;
-    return new ByteRowReader(this.store as ColumnStore, delimiter, layout.decimalComma ? 44 : 46);
+    return new ByteRowReader(this.store as ColumnStore, this.lines, delimiter, layout.decimalComma ? 44 : 46);
   }
 
   private decoder(): LineDecoder {
@@ -394,12 +398,22 @@ function joinBytes(a: Uint8Array, b: Uint8Array): Uint8Array {
   return joined;
 }
 
-/** Lines in bytes[from, to), from the line length over the first HEAD_BYTES (a little over, so one allocation holds them). */
+/**
+ * Lines in bytes[from, to), a little over: from the shortest lines of ESTIMATE_WINDOWS windows of HEAD_BYTES spread
+ * over the range (lines often lengthen further on, as a signal starts to ring), so that one allocation holds them.
+ */
 function estimateLines(bytes: Uint8Array, from: number, to: number): number {
-  const sampleEnd = Math.min(to, from + HEAD_BYTES);
+  if (to - from <= ESTIMATE_WINDOWS * HEAD_BYTES) return countLines(bytes, from, to);
+  const spacing = Math.floor((to - from - HEAD_BYTES) / (ESTIMATE_WINDOWS - 1));
+  let densest = 0;
+  for (let k = 0; k < ESTIMATE_WINDOWS; k++) densest = Math.max(densest, countLines(bytes, from + k * spacing, from + k * spacing + HEAD_BYTES));
+  return Math.ceil((densest * (to - from) * ESTIMATE_MARGIN) / HEAD_BYTES);
+}
+
+function countLines(bytes: Uint8Array, from: number, to: number): number {
   let lines = 0;
-  for (let i = from; i < sampleEnd; i++) if (bytes[i] === LF) lines++;
-  return Math.ceil((lines * (to - from) * 1.01) / (sampleEnd - from));
+  for (let at = bytes.indexOf(LF, from); at >= 0 && at < to; at = bytes.indexOf(LF, at + 1)) lines++;
+  return lines;
 }
 
 /** The position just after the first LF at or beyond `from` - 1, at most `limit` (itself just after an LF). */
