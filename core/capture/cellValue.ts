@@ -2,6 +2,13 @@
 
 const POW10 = Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
 const MAX_EXACT_DIGITS = 15;
+/**
+ * The smallest mantissa of more than MAX_EXACT_DIGITS significant digits: a mantissa read digit by digit (leading
+ * zeros adding nothing) has more exactly when it reaches this, even where the reading has stopped being exact.
+ */
+const MANTISSA_LIMIT = 1e15;
+/** Most digits an exponent may have on the fast path. */
+const MAX_EXPONENT_DIGITS = 5;
 /** Magnitude at or above which a value is a scope's overrange marker (9.9E37 is the usual one; common practice). */
 export const OVERRANGE = 9.9e37;
 
@@ -75,57 +82,46 @@ export function fastNumber(text: string, start: number, end: number, decimalCode
 /**
  * fastNumber over UTF-8 bytes, straight into column[row]: reads from a cell's first byte after its leading spaces up
  * to the first byte that cannot continue the number, and returns where it stopped. When only spaces and tabs follow
- * it in the cell, what it stores is fastNumber's value for that cell (same rules, step for step); where fastNumber
- * gives NaN it stores nothing and returns NOT_PLAIN. An LF must follow `start`; the decimal separator must not be
- * the cell delimiter.
+ * it in the cell, what it stores is fastNumber's value for that cell; where fastNumber gives NaN it stores nothing
+ * and returns NOT_PLAIN. An LF must follow `start`; the decimal separator must not be the cell delimiter.
+ * Kept small enough for the compiler to inline into the row loop (a larger function is called for every cell).
  */
 export function storeLeadingNumber(bytes: Uint8Array, start: number, decimalCode: number, column: Float64Array, row: number): number {
   // Signs are read without a branch of their own: a file's first negative number then costs no recompilation.
   let c = bytes[start];
   const sign = c === 45 ? -1 : 1;
-  let i = start + (c === 45 || c === 43 ? 1 : 0);
-  c = bytes[i];
-  const integerStart = i;
-  while (c === 48) c = bytes[++i];
-  // Leading zeros are not significant digits: the mantissa's digits start at the first other digit.
-  let significant = i;
+  const integerStart = start + (c === 45 || c === 43 ? 1 : 0);
+  let i = integerStart;
   let mantissa = 0;
   let d = 0;
-  while ((d = c - 48) >= 0 && d <= 9) {
+  while ((d = bytes[i] - 48) >= 0 && d <= 9) {
     mantissa = mantissa * 10 + d;
-    c = bytes[++i];
+    i++;
   }
-  let digits = i - significant;
-  let seen = i > integerStart;
+  let written = i - integerStart;
   let exponent = 0;
-  if (c === decimalCode) {
-    c = bytes[++i];
-    const fractionStart = i;
-    if (digits === 0) while (c === 48) c = bytes[++i];
-    significant = i;
-    while ((d = c - 48) >= 0 && d <= 9) {
+  if (bytes[i] === decimalCode) {
+    const fractionStart = ++i;
+    while ((d = bytes[i] - 48) >= 0 && d <= 9) {
       mantissa = mantissa * 10 + d;
-      c = bytes[++i];
+      i++;
     }
-    digits += i - significant;
     exponent = fractionStart - i;
-    seen ||= i > fractionStart;
+    written -= exponent;
   }
-  if (!seen || digits > MAX_EXACT_DIGITS) return NOT_PLAIN;
-  if (c === 101 || c === 69) {
+  if (written === 0 || mantissa >= MANTISSA_LIMIT) return NOT_PLAIN;
+  if ((c = bytes[i]) === 101 || c === 69) {
     c = bytes[++i];
-    const expSign = c === 45 ? -1 : 1;
+    const exponentSign = c === 45 ? -1 : 1;
     i += c === 45 || c === 43 ? 1 : 0;
-    c = bytes[i];
-    const expStart = i;
-    let written = 0;
-    while ((d = c - 48) >= 0 && d <= 9) {
-      if (i - expStart > 4) return NOT_PLAIN;
-      written = written * 10 + d;
-      c = bytes[++i];
+    const exponentStart = i;
+    let power = 0;
+    while ((d = bytes[i] - 48) >= 0 && d <= 9) {
+      power = power * 10 + d;
+      i++;
     }
-    if (i === expStart) return NOT_PLAIN;
-    exponent += expSign * written;
+    if (i === exponentStart || i - exponentStart > MAX_EXPONENT_DIGITS) return NOT_PLAIN;
+    exponent += exponentSign * power;
   }
   return composeNumber(mantissa, exponent, sign, column, row) ? i : NOT_PLAIN;
 }
