@@ -105,35 +105,51 @@ function intervalAxis(layout: Layout, rows: number, warnings: string[], stamped:
 /** One channel: samples with both a time and a value, scaled to SI, with its clipping. */
 function buildChannel(column: ColumnPlan, values: Float64Array, axis: Axis): { channel: Channel; clipping: Clipping } {
   const n = axis.time.length;
-  const order = axis.order;
+  // Copy in one pass while every sample is usable (the usual case); filter only when one is not.
   let time = axis.time;
-  // Copy in one pass while every sample is usable (the usual case); count and filter only when one is not.
-  let out = new Float64Array(n);
-  let usable = 0;
-  for (; usable < n; usable++) {
-    const v = values[order ? order[usable] : usable];
-    if (v !== v || time[usable] !== time[usable]) break;
-    out[usable] = v * column.scale + column.offset;
-  }
-  if (usable < n) {
-    for (let k = usable; k < n; k++) {
-      const v = values[order ? order[k] : k];
-      if (v === v && axis.time[k] === axis.time[k]) usable++;
-    }
-    time = new Float64Array(usable);
-    out = new Float64Array(usable);
-    let j = 0;
-    for (let k = 0; k < n; k++) {
-      const v = values[order ? order[k] : k];
-      const t = axis.time[k];
-      if (v !== v || t !== t) continue;
-      time[j] = t;
-      out[j++] = v * column.scale + column.offset;
-    }
+  let out: Float64Array = new Float64Array(n);
+  if (copyWhileUsable(values, axis, column.scale, column.offset, out) < n) {
+    ({ time, values: out } = usableSamples(values, axis, column.scale, column.offset));
   }
   const clipping = detectClipping(out);
-  const channel = { name: column.name, unit: column.unit, time, values: out, clipped: clipping.clipped, dropped: n - usable };
+  const channel = { name: column.name, unit: column.unit, time, values: out, clipped: clipping.clipped, dropped: n - out.length };
   return { channel, clipping };
+}
+
+// The loops over a channel's samples are small functions of their own: each runs once over a long record, and a
+// small function is compiled (on the fly, mid-loop) far sooner than one holding several loops.
+
+/** Fills out[k] with value x scale + offset until the first sample without a time or a value; returns how many. */
+function copyWhileUsable(values: Float64Array, axis: Axis, scale: number, offset: number, out: Float64Array): number {
+  const { time, order } = axis;
+  let k = 0;
+  for (; k < out.length; k++) {
+    const v = values[order ? order[k] : k];
+    if (v !== v || time[k] !== time[k]) break;
+    out[k] = v * scale + offset;
+  }
+  return k;
+}
+
+/** The samples with both a time and a value, the value x scale + offset. */
+function usableSamples(values: Float64Array, axis: Axis, scale: number, offset: number): { time: Float64Array; values: Float64Array } {
+  const { time, order } = axis;
+  let usable = 0;
+  for (let k = 0; k < time.length; k++) {
+    const v = values[order ? order[k] : k];
+    if (v === v && time[k] === time[k]) usable++;
+  }
+  const keptTime = new Float64Array(usable);
+  const kept = new Float64Array(usable);
+  let j = 0;
+  for (let k = 0; k < time.length; k++) {
+    const v = values[order ? order[k] : k];
+    const t = time[k];
+    if (v !== v || t !== t) continue;
+    keptTime[j] = t;
+    kept[j++] = v * scale + offset;
+  }
+  return { time: keptTime, values: kept };
 }
 
 function clippingWarning(channel: Channel, clipping: Clipping): string | null {

@@ -87,11 +87,10 @@ function markSide(values: Float64Array, sign: 1 | -1, rail: number, step: number
   return { count, level: rail };
 }
 
-/** The runs of samples exactly at `rail` (a single sample is a run of one), in order. */
+/** The runs of samples exactly at `rail` (a single sample is a run of one), in order; found by indexOf, which scans natively. */
 function runsAt(values: Float64Array, rail: number): { start: number; end: number }[] {
   const runs: { start: number; end: number }[] = [];
-  for (let i = 0; i < values.length; i++) {
-    if (values[i] !== rail) continue;
+  for (let i = values.indexOf(rail); i >= 0; i = values.indexOf(rail, i + 1)) {
     const start = i;
     while (i + 1 < values.length && values[i + 1] === rail) i++;
     runs.push({ start, end: i });

@@ -77,6 +77,8 @@ function steps(axis: ImportedAxis): { mean: number; jitter: number | null } {
 /** Rows of a column axis that have no time (empty or unreadable time cell): left out of every channel on it. */
 function timelessRows(axis: ImportedAxis, lines: RowLines): RowDrop | null {
   const { time, order } = axis;
+  // includes() scans natively: the usual axis has a time on every row.
+  if (!time.includes(NaN)) return null;
   let count = 0;
   let first: number | null = null;
   for (let k = 0; k < time.length; k++) {
@@ -90,6 +92,8 @@ function timelessRows(axis: ImportedAxis, lines: RowLines): RowDrop | null {
 
 /** Samples marked in a channel's clipped flags (each 0 or 1). */
 function countMarked(flags: Uint8Array): number {
+  // indexOf() scans natively: most channels have no clipped sample.
+  if (flags.indexOf(1) < 0) return 0;
   let count = 0;
   for (let k = 0; k < flags.length; k++) count += flags[k];
   return count;
