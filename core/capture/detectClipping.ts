@@ -31,21 +31,33 @@ export interface Clipping {
   lowLevel: number;
 }
 
-/** The smallest non-zero step between neighbouring samples (one code for quantised data), and the extremes, in one pass. */
-function codeStepAndExtremes(values: Float64Array): { step: number; highest: number; lowest: number } {
+// The passes over a whole channel are small loops that carry integers, not doubles, from one sample to the next: each
+// runs once over a long record, a small loop is compiled mid-loop far sooner, and a double carried through a loop that
+// was entered before it was compiled is boxed (a heap allocation) at every change.
+
+/** The smallest non-zero step between neighbouring samples: one code for quantised data. */
+function codeStep(values: Float64Array): number {
   let step = Infinity;
-  let highest = -Infinity;
-  let lowest = Infinity;
-  let previous = values.length > 0 ? values[0] : NaN;
-  for (let i = 0; i < values.length; i++) {
-    const v = values[i];
-    if (v > highest) highest = v;
-    if (v < lowest) lowest = v;
-    const d = Math.abs(v - previous);
+  for (let i = 1; i < values.length; i++) {
+    const d = Math.abs(values[i] - values[i - 1]);
     if (d > 0 && d < step) step = d;
-    previous = v;
   }
-  return { step, highest, lowest };
+  return step;
+}
+
+/** The largest and smallest values, NaN skipped (-Infinity and Infinity when there is none). */
+function extremes(values: Float64Array): { highest: number; lowest: number } {
+  let first = 0;
+  while (first < values.length && values[first] !== values[first]) first++;
+  if (first === values.length) return { highest: -Infinity, lowest: Infinity };
+  let high = first;
+  let low = first;
+  for (let i = first + 1; i < values.length; i++) {
+    const v = values[i];
+    if (v > values[high]) high = i;
+    if (v < values[low]) low = i;
+  }
+  return { highest: values[high], lowest: values[low] };
 }
 
 /** Mean slope towards the run (units per sample) over up to FLANK samples beside it, from index `near` outwards. */
@@ -121,8 +133,9 @@ function stretches(runs: { start: number; end: number }[]): { start: number; end
  */
 export function detectClipping(values: Float64Array): Clipping {
   const clipped = new Uint8Array(values.length);
-  const { step, highest, lowest } = codeStepAndExtremes(values);
+  const step = codeStep(values);
   if (!Number.isFinite(step)) return { clipped, high: 0, low: 0, highLevel: NaN, lowLevel: NaN };
+  const { highest, lowest } = extremes(values);
   const high = markSide(values, 1, highest, step, clipped);
   const low = markSide(values, -1, lowest, step, clipped);
   return {

@@ -46,12 +46,13 @@ export function findSegments(layout: Layout, rows: StoredRows, separatorRows: nu
 /** Row 0 and each row whose time is not after the last readable time before it. */
 function restarts(time: Float64Array): number[] {
   const starts = [0];
-  let previous = NaN;
+  // The row of the last readable time, not the time: a double carried through this long loop would be boxed at every row.
+  let previous = -1;
   for (let r = 0; r < time.length; r++) {
     const t = time[r];
     if (t !== t) continue;
-    if (t <= previous) starts.push(r);
-    previous = t;
+    if (previous >= 0 && t <= time[previous]) starts.push(r);
+    previous = r;
   }
   return starts;
 }

@@ -10,12 +10,13 @@ export interface OrderProblem {
 
 /** The first row whose time does not exceed the previous time (rows without a time are skipped); null if none. */
 export function findOrderProblem(time: Float64Array): OrderProblem | null {
-  let previous = NaN;
+  // The row of the previous time, not the time: a double carried through this long loop would be boxed at every row.
+  let previous = -1;
   for (let i = 0; i < time.length; i++) {
     const t = time[i];
     if (t !== t) continue;
-    if (t <= previous) return { row: i, time: t, previous };
-    previous = t;
+    if (previous >= 0 && t <= time[previous]) return { row: i, time: t, previous: time[previous] };
+    previous = i;
   }
   return null;
 }
