@@ -85,12 +85,13 @@ export function modelTransitions(fit: ModelFitInput): ModelTransitionsResult {
   const sw = fit.omega0.stderr;
   const rho = correlationOf(fit.correlation, 'alpha', 'omega0');
   const warnings: string[] = [];
+  // Each metric reads the same four moved shapes: their metrics are found once.
+  const nudged = sa === null || sw === null ? null : movedMetrics(shape, DIFF_STEP * shape.alpha, DIFF_STEP * shape.omega0);
+  const spread = sa === null || sw === null ? null : movedMetrics(shape, sa, sw);
   const errors = (pick: (m: Metrics) => number | null): number | null => {
-    if (sa === null || sw === null) return null;
-    const ha = DIFF_STEP * shape.alpha;
-    const hw = DIFF_STEP * shape.omega0;
-    const ga = difference(pick, { ...shape, alpha: shape.alpha + ha }, { ...shape, alpha: shape.alpha - ha }, ha);
-    const gw = difference(pick, { ...shape, omega0: shape.omega0 + hw }, { ...shape, omega0: shape.omega0 - hw }, hw);
+    if (sa === null || sw === null || nudged === null) return null;
+    const ga = difference(pick, nudged.alphaUp, nudged.alphaDown, DIFF_STEP * shape.alpha);
+    const gw = difference(pick, nudged.omega0Up, nudged.omega0Down, DIFF_STEP * shape.omega0);
     if (ga === null || gw === null) return null;
     return Math.sqrt(Math.max(0, ga * ga * sa * sa + gw * gw * sw * sw + 2 * rho * ga * gw * sa * sw));
   };
@@ -100,14 +101,8 @@ export function modelTransitions(fit: ModelFitInput): ModelTransitionsResult {
    * standard error is widened to the largest move seen within one standard error (never a tight wrong number).
    */
   const settlingError = (pick: (m: Metrics) => number, band: string, se: number | null): number | null => {
-    if (sa === null || sw === null || se === null) return se;
-    const spread = [
-      { ...shape, alpha: shape.alpha + sa },
-      { ...shape, alpha: shape.alpha - sa },
-      { ...shape, omega0: shape.omega0 + sw },
-      { ...shape, omega0: shape.omega0 - sw },
-    ].map((s) => Math.abs(pick(shapeMetrics(s)) - pick(base)));
-    const largest = Math.max(...spread);
+    if (spread === null || se === null) return se;
+    const largest = Math.max(...[spread.alphaUp, spread.alphaDown, spread.omega0Up, spread.omega0Down].map((m) => Math.abs(pick(m) - pick(base))));
     if (!(largest > 3 * se + 1e-12 * pick(base))) return se;
     warnings.push(
       `the model's ${band} settling time sits near a jump (a peak grazing the band edge): within one standard error of alpha or omega0 it moves by ${largest.toPrecision(2)} s, so its standard error is widened to that.`,
@@ -157,10 +152,27 @@ function correlationOf(c: ModelFitInput['correlation'], first: string, second: s
   return Number.isFinite(r) ? Math.max(-1, Math.min(1, r)) : 0;
 }
 
+/** The metrics of the shape with alpha, then omega0, moved up and down. */
+interface Moved {
+  alphaUp: Metrics;
+  alphaDown: Metrics;
+  omega0Up: Metrics;
+  omega0Down: Metrics;
+}
+
+function movedMetrics(s: Shape, byAlpha: number, byOmega0: number): Moved {
+  return {
+    alphaUp: shapeMetrics({ ...s, alpha: s.alpha + byAlpha }),
+    alphaDown: shapeMetrics({ ...s, alpha: s.alpha - byAlpha }),
+    omega0Up: shapeMetrics({ ...s, omega0: s.omega0 + byOmega0 }),
+    omega0Down: shapeMetrics({ ...s, omega0: s.omega0 - byOmega0 }),
+  };
+}
+
 /** Central difference of a metric; null when it is undefined on either side. */
-function difference(pick: (m: Metrics) => number | null, up: Shape, down: Shape, h: number): number | null {
-  const u = pick(shapeMetrics(up));
-  const d = pick(shapeMetrics(down));
+function difference(pick: (m: Metrics) => number | null, up: Metrics, down: Metrics, h: number): number | null {
+  const u = pick(up);
+  const d = pick(down);
   return u === null || d === null ? null : (u - d) / (2 * h);
 }
 
@@ -239,21 +251,22 @@ function bisect(f: (t: number) => number, lo: number, hi: number): number {
 function shapeMetrics(s: Shape): Metrics {
   const points = criticalPoints(s);
   const d = points.map((t) => level(s, t));
-  /** Rising crossings of a level, one per monotone segment at most, in time order. */
-  const rising = (target: number): number[] => {
-    const found: number[] = [];
+  /**
+   * Rising crossings of a level in time order (one per monotone segment at most, each inside its segment), found
+   * one at a time: the caller stops at the one it needs, and a ring crosses 0.9 and 1 again every period.
+   */
+  function* rising(target: number): Generator<number> {
     for (let i = 0; i + 1 < points.length; i++) {
-      if (d[i] < target && d[i + 1] >= target) found.push(bisect((t) => level(s, t) - target, points[i], points[i + 1]));
+      if (d[i] < target && d[i + 1] >= target) yield bisect((t) => level(s, t) - target, points[i], points[i + 1]);
     }
-    return found;
-  };
-  const t50 = rising(0.5)[0] ?? null;
-  const t10 = t50 === null ? null : (rising(0.1).filter((t) => t <= t50).pop() ?? null);
-  const t90 = t50 === null ? null : (rising(0.9).find((t) => t >= t50) ?? null);
-  const t100 = rising(1)[0];
+  }
+  const t50 = firstOf(rising(0.5), () => true);
+  const t10 = t50 === null ? null : lastBefore(rising(0.1), t50);
+  const t90 = t50 === null ? null : firstOf(rising(0.9), (t) => t >= t50);
+  const t100 = firstOf(rising(1), () => true);
   let overshoot = 0;
   let peakTime: number | null = null;
-  if (t100 !== undefined) {
+  if (t100 !== null) {
     points.forEach((t, i) => {
       if (t > t100 && d[i] - 1 > overshoot / 100) {
         overshoot = 100 * (d[i] - 1);
@@ -268,6 +281,21 @@ function shapeMetrics(s: Shape): Metrics {
     settling2: settling(s, points, 0.02),
     settling5: settling(s, points, 0.05),
   };
+}
+
+function firstOf(times: Iterable<number>, wanted: (t: number) => boolean): number | null {
+  for (const t of times) if (wanted(t)) return t;
+  return null;
+}
+
+/** The last of ascending times at or before `limit`. */
+function lastBefore(times: Iterable<number>, limit: number): number | null {
+  let last: number | null = null;
+  for (const t of times) {
+    if (t > limit) break;
+    last = t;
+  }
+  return last;
 }
 
 /** The last instant where |x| equals band |step|: x is monotone between critical points. */
