@@ -75,14 +75,13 @@ export function transitionMetrics(
     warnings.push('the initial and final state levels coincide: there is no transition to measure.');
     return result;
   }
-  // d runs from 0 (initial state) to 1 (final state) whichever way the step goes.
   const n = time.length;
-  const d = new Float64Array(n);
-  for (let i = 0; i < n; i++) d[i] = (values[i] - levels.initial) / amplitude;
   let start = 0;
   if (reference?.eventTime !== undefined) {
     while (start < n - 1 && time[start] < reference.eventTime) start++;
   }
+  // Every reader below starts at the sample before the event's or later.
+  const d = normalised(values, levels.initial, amplitude, Math.max(start, 1) - 1);
 
   const i50 = firstRisingCrossing(d, 0.5, start, n);
   if (i50 === null) {
@@ -99,16 +98,12 @@ export function transitionMetrics(
   if (t10 === null) warnings.push('the 10 % reference level is not crossed before the 50 % instant: the record starts inside the transition.');
 
   const i100 = firstRisingCrossing(d, 1, i50, n);
-  if (i100 === null) {
+  const extremes = i100 === null ? null : extremesFrom(d, i100);
+  if (extremes === null) {
     result.overshoot = 0;
     result.undershoot = 0;
   } else {
-    let peak = i100;
-    let trough = i100;
-    for (let i = i100; i < n; i++) {
-      if (d[i] > d[peak]) peak = i;
-      if (d[i] < d[trough]) trough = i;
-    }
+    const { peak, trough } = extremes;
     result.overshoot = Math.max(0, d[peak] - 1) * 100;
     result.undershoot = Math.max(0, 1 - d[trough]) * 100;
     if (d[peak] > 1) {
@@ -127,8 +122,32 @@ export function transitionMetrics(
         'the 2 % settling time reads late.',
     );
   }
-  if (i100 !== null) result.ringFrequency = ringFrequency(time, d, i100, noise);
+  if (i100 !== null && extremes !== null) result.ringFrequency = ringFrequency(time, d, i100, noise, extremes.largest);
   return result;
+}
+
+/**
+ * d = (value - initial) / amplitude from sample `from` on (zero before it): 0 at the initial state, 1 at the final one,
+ * whichever way the step goes. Each pass over the samples is a small function of its own, so each is optimised on
+ * what it alone has run.
+ */
+function normalised(values: ArrayLike<number>, initial: number, amplitude: number, from: number): Float64Array {
+  const d = new Float64Array(values.length);
+  for (let i = from; i < d.length; i++) d[i] = (values[i] - initial) / amplitude;
+  return d;
+}
+
+/** From sample i100 on: the first largest and first smallest sample, and the largest |d - 1|. */
+function extremesFrom(d: Float64Array, i100: number): { peak: number; trough: number; largest: number } {
+  let peak = i100;
+  let trough = i100;
+  let largest = 0;
+  for (let i = i100; i < d.length; i++) {
+    if (d[i] > d[peak]) peak = i;
+    if (d[i] < d[trough]) trough = i;
+    largest = Math.max(largest, Math.abs(d[i] - 1));
+  }
+  return { peak, trough, largest };
 }
 
 /** RMS of d - 1 over the last fifth of the record (not before sample from): the settled noise. */
@@ -179,12 +198,10 @@ function settlingTime(time: ArrayLike<number>, d: Float64Array, i50: number, t50
  * passed. Successive crossings are half a ring period apart. The threshold is 2 % of the largest
  * excursion past the final level or the noise peak sqrt(2 ln N) times the settled noise RMS (the
  * expected largest of N Gaussian samples), whichever is larger;
- * an excursion under twice the noise peak is not taken for a ring.
+ * an excursion under twice the noise peak is not taken for a ring. `largest` is max |d - 1| from i100 on.
  */
-function ringFrequency(time: ArrayLike<number>, d: Float64Array, i100: number, settled: number): number | null {
+function ringFrequency(time: ArrayLike<number>, d: Float64Array, i100: number, settled: number, largest: number): number | null {
   const n = d.length;
-  let largest = 0;
-  for (let i = i100; i < n; i++) largest = Math.max(largest, Math.abs(d[i] - 1));
   const noisePeak = settled * Math.sqrt(2 * Math.log(n));
   if (largest < 2 * noisePeak) return null;
   const h = Math.max(CROSSING_HYSTERESIS * largest, noisePeak);
@@ -195,9 +212,11 @@ function ringFrequency(time: ArrayLike<number>, d: Float64Array, i100: number, s
   let firstChange = i100;
   let lastChange = i100;
   let lobe = largest;
+  let above = d[i100] - 1 >= 0;
   for (let i = i100 + 1; i < n; i++) {
     const e = d[i] - 1;
-    if (e >= 0 !== d[i - 1] - 1 >= 0) {
+    if (e >= 0 !== above) {
+      above = !above;
       if (firstChange < 0) firstChange = i;
       lastChange = i;
     }
