@@ -45,28 +45,55 @@ const GOLDEN_STEPS = 40;
 const CURVATURE_STEP = 0.02;
 
 /**
- * The ring frequency in `ring.windows` equal windows between ring.start and ring.end. Windows holding fewer than
- * MIN_PERIODS_PER_WINDOW periods or too few samples are left out, so the answer may hold fewer (or none).
- * Exported for any use case that needs the frequency at the same point of several captures.
+ * The ring frequency in `ring.windows` equal windows between ring.start and ring.end, of samples in ascending time
+ * (as a channel's). Windows holding fewer than MIN_PERIODS_PER_WINDOW periods or too few samples are left out, so
+ * the answer may hold fewer (or none). Exported for any use case that needs the frequency at the same point of
+ * several captures.
  */
 export function ringFrequencyAlong(time: ArrayLike<number>, values: ArrayLike<number>, ring: RingAlong): RingWindowFrequency[] {
+  return fittedWindows(ringWindowsAlong(time, values, ring));
+}
+
+/** Every window that is not left out, in order. */
+export function fittedWindows(windows: RingWindows): RingWindowFrequency[] {
+  const out: RingWindowFrequency[] = [];
+  for (let w = 0; w < windows.count; w++) {
+    const fitted = windows.fit(w);
+    if (fitted) out.push(fitted);
+  }
+  return out;
+}
+
+/** The windows of ringFrequencyAlong, each fitted when first asked for: a caller comparing the two ends may need no others. */
+export interface RingWindows {
+  /** How many windows (0 when they would hold too few periods). */
+  count: number;
+  /** Window w (0-based), or null when it is left out. */
+  fit(w: number): RingWindowFrequency | null;
+}
+
+export function ringWindowsAlong(time: ArrayLike<number>, values: ArrayLike<number>, ring: RingAlong): RingWindows {
   const count = ring.windows ?? DEFAULT_WINDOWS;
   const width = (ring.end - ring.start) / count;
   const period = (2 * Math.PI) / ring.omegaD;
-  if (!(width >= MIN_PERIODS_PER_WINDOW * period)) return [];
+  if (!(width >= MIN_PERIODS_PER_WINDOW * period)) return { count: 0, fit: () => null };
   const block = blockLength(time, ring, count, period);
-  const out: RingWindowFrequency[] = [];
-  for (let w = 0; w < count; w++) {
+  const fitted = new Map<number, RingWindowFrequency | null>();
+  const fitAt = (w: number): RingWindowFrequency | null => {
     const start = ring.start + w * width;
     const end = start + width;
     const { u, y } = windowMeans(time, values, start, end, block);
-    if (u.length < MIN_SAMPLES_PER_WINDOW) continue;
-    // Centred: the level is solved anyway, and SSE = y'y - x'r then loses no digits to a large offset.
-    const mean = y.reduce((sum, v) => sum + v, 0) / y.length;
-    const fitted = fitWindow(u, y.map((v) => v - mean), ring.alpha, ring.omegaD, width);
-    if (fitted) out.push({ start, end, ...fitted });
-  }
-  return out;
+    if (u.length < MIN_SAMPLES_PER_WINDOW) return null;
+    const found = fitWindow(windowSeries(u, y, ring.alpha), ring.omegaD, width);
+    return found && { start, end, ...found };
+  };
+  return {
+    count,
+    fit: (w) => {
+      if (!fitted.has(w)) fitted.set(w, fitAt(w));
+      return fitted.get(w) ?? null;
+    },
+  };
 }
 
 /**
@@ -76,31 +103,67 @@ export function ringFrequencyAlong(time: ArrayLike<number>, values: ArrayLike<nu
  * standard error comes from the means' own scatter.
  */
 function blockLength(time: ArrayLike<number>, ring: RingAlong, count: number, period: number): number {
-  let inside = 0;
-  for (let i = 0; i < time.length; i++) if (time[i] >= ring.start && time[i] < ring.end) inside++;
+  const inside = firstAtOrAfter(time, ring.end) - firstAtOrAfter(time, ring.start);
   const perWindow = inside / count;
   const perPeriod = (inside * period) / (ring.end - ring.start);
   return Math.max(1, Math.floor(Math.min(perWindow / MAX_POINTS_PER_WINDOW, perPeriod / MIN_POINTS_PER_PERIOD)));
 }
 
+/** Index of the first sample at or after instant t (time ascending): the samples in [start, end) are those from start's index to end's. */
+function firstAtOrAfter(time: ArrayLike<number>, t: number): number {
+  let lo = 0;
+  let hi = time.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (time[mid] < t) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
 /** The window's samples, u from its start, as means over consecutive blocks of `block` samples (a short last block dropped). */
-function windowMeans(time: ArrayLike<number>, values: ArrayLike<number>, start: number, end: number, block: number): { u: number[]; y: number[] } {
-  const u: number[] = [];
-  const y: number[] = [];
-  let sumT = 0;
-  let sumY = 0;
-  let held = 0;
-  for (let i = 0; i < time.length; i++) {
-    if (!(time[i] >= start && time[i] < end)) continue;
-    sumT += time[i] - start;
-    sumY += values[i];
-    if (++held === block) {
-      u.push(sumT / block);
-      y.push(sumY / block);
-      sumT = sumY = held = 0;
+function windowMeans(time: ArrayLike<number>, values: ArrayLike<number>, start: number, end: number, block: number): { u: Float64Array; y: Float64Array } {
+  const from = firstAtOrAfter(time, start);
+  const points = Math.floor((firstAtOrAfter(time, end) - from) / block);
+  const u = new Float64Array(points);
+  const y = new Float64Array(points);
+  for (let k = 0, i = from; k < points; k++) {
+    let sumT = 0;
+    let sumY = 0;
+    for (const last = i + block; i < last; i++) {
+      sumT += time[i] - start;
+      sumY += values[i];
     }
+    u[k] = sumT / block;
+    y[k] = sumY / block;
   }
   return { u, y };
+}
+
+/** A window's block means ready for the profile: y centred, and what does not depend on omega found once. */
+interface WindowSeries {
+  u: Float64Array;
+  /** The means less their mean. Centred: the level is solved anyway, and SSE = y'y - x'r then loses no digits to a large offset. */
+  y: Float64Array;
+  /** e^(-alpha u), held across the search. */
+  decay: Float64Array;
+  sumY: number;
+  sumSquares: number;
+}
+
+function windowSeries(u: Float64Array, means: Float64Array, alpha: number): WindowSeries {
+  let total = 0;
+  for (let i = 0; i < means.length; i++) total += means[i];
+  const mean = total / means.length;
+  const y = means.map((v) => v - mean);
+  const decay = u.map((t) => Math.exp(-alpha * t));
+  let sumY = 0;
+  let sumSquares = 0;
+  for (let i = 0; i < y.length; i++) {
+    sumY += y[i];
+    sumSquares += y[i] * y[i];
+  }
+  return { u, y, decay, sumY, sumSquares };
 }
 
 interface Profile {
@@ -109,33 +172,38 @@ interface Profile {
 }
 
 /** SSE of the best A, B, c at this omega (3x3 normal equations). */
-function profile(u: number[], y: number[], alpha: number, omega: number): Profile {
-  const g = [0, 0, 0, 0, 0, 0];
-  const r = [0, 0, 0];
-  let yy = 0;
+function profile(w: WindowSeries, omega: number): Profile {
+  const { u, y, decay } = w;
+  let cc = 0;
+  let cs = 0;
+  let sc = 0;
+  let ss = 0;
+  let ssum = 0;
+  let cy = 0;
+  let sy = 0;
   for (let i = 0; i < u.length; i++) {
-    const e = Math.exp(-alpha * u[i]);
-    const c = e * Math.cos(omega * u[i]);
-    const s = e * Math.sin(omega * u[i]);
-    g[0] += c * c; g[1] += c * s; g[2] += c; g[3] += s * s; g[4] += s; g[5] += 1; // prettier-ignore
-    r[0] += c * y[i]; r[1] += s * y[i]; r[2] += y[i]; // prettier-ignore
-    yy += y[i] * y[i];
+    const c = decay[i] * Math.cos(omega * u[i]);
+    const s = decay[i] * Math.sin(omega * u[i]);
+    cc += c * c; cs += c * s; sc += c; ss += s * s; ssum += s; // prettier-ignore
+    cy += c * y[i]; sy += s * y[i]; // prettier-ignore
   }
   const m = [
-    [g[0], g[1], g[2]],
-    [g[1], g[3], g[4]],
-    [g[2], g[4], g[5]],
+    [cc, cs, sc],
+    [cs, ss, ssum],
+    [sc, ssum, u.length],
   ];
+  const r = [cy, sy, w.sumY];
   const x = solve3(m, r);
   if (!x) return { sse: Infinity, amplitude: 0 };
   // SSE = y'y - x'r at the least-squares solution.
-  const sse = Math.max(0, yy - (x[0] * r[0] + x[1] * r[1] + x[2] * r[2]));
+  const sse = Math.max(0, w.sumSquares - (x[0] * r[0] + x[1] * r[1] + x[2] * r[2]));
   return { sse, amplitude: Math.hypot(x[0], x[1]) };
 }
 
-function fitWindow(u: number[], y: number[], alpha: number, omegaGuess: number, width: number): Omit<RingWindowFrequency, 'start' | 'end'> | null {
+function fitWindow(w: WindowSeries, omegaGuess: number, width: number): Omit<RingWindowFrequency, 'start' | 'end'> | null {
+  const { u } = w;
   const resolution = (2 * Math.PI) / width;
-  const sse = (omega: number) => profile(u, y, alpha, omega).sse;
+  const sse = (omega: number) => profile(w, omega).sse;
   // A grid over the reach, then golden-section refinement around its best point.
   let best = omegaGuess;
   let bestSse = Infinity;
@@ -164,7 +232,7 @@ function fitWindow(u: number[], y: number[], alpha: number, omegaGuess: number, 
     }
   }
   const omega = (lo + hi) / 2;
-  const at = profile(u, y, alpha, omega);
+  const at = profile(w, omega);
   const h = CURVATURE_STEP * resolution;
   const curvature = (sse(omega + h) - 2 * at.sse + sse(omega - h)) / (h * h);
   const dof = u.length - 4;

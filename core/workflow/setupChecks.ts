@@ -7,7 +7,7 @@
 import type { Channel } from '../capture/types';
 import { BANDWIDTH_FRACTION, MIN_SAMPLES_PER_PERIOD, REFUSED_SAMPLES_PER_PERIOD, samplesPerRingPeriod } from '../circuit/measurementChecks';
 import { frontEndBias } from '../circuit/setupFrontEnd';
-import { ringFrequencyAlong } from '../circuit/setupDrift';
+import { fittedWindows, ringFrequencyAlong, ringWindowsAlong } from '../circuit/setupDrift';
 import { growingRingIn } from '../circuit/setupGrowth';
 import {
   DEFAULT_GROUND_LEAD,
@@ -19,6 +19,7 @@ import {
 } from '../circuit/setupProbe';
 import { averagingAcquisition, statedBandwidth } from '../circuit/setupPreamble';
 import type { ResponseFit } from '../fit/responseFit';
+import type { Quantity } from '../quantity';
 import { median } from '../fit/noise';
 import { fitSucceeded, type FitSummary } from '../report/fitSummary';
 import { hertz } from '../report/resultRows';
@@ -279,13 +280,19 @@ function frequencyDrift(input: SetupCheckInput): SetupCheck[] {
   const { fit, channel } = input;
   const omega = fit.omegaD?.value;
   if (!fitSucceeded(fit) || fit.regime !== 'underdamped' || !omega) return [];
-  const windows = ringFrequencyAlong(channel.time, channel.values, { start: fit.t0.value, end: ringEnd(fit), alpha: fit.alpha.value, omegaD: omega });
+  const along = ringWindowsAlong(channel.time, channel.values, { start: fit.t0.value, end: ringEnd(fit), alpha: fit.alpha.value, omegaD: omega });
+  // The first and last windows decide when both are fitted: those between are only counted, and only for a drift.
+  if (along.count >= 2) {
+    const first = along.fit(0);
+    const last = along.fit(along.count - 1);
+    if (first && last && !shift(first.frequency, last.frequency).drifts) return [];
+  }
+  const windows = fittedWindows(along);
   if (windows.length < 2) return [];
   const early = windows[0].frequency;
   const late = windows[windows.length - 1].frequency;
-  const drift = late.value - early.value;
-  const combined = Math.hypot(early.stderr ?? Infinity, late.stderr ?? Infinity);
-  if (!(Math.abs(drift) > DRIFT_SIGMAS * combined)) return [];
+  const { drift, combined, drifts } = shift(early, late);
+  if (!drifts) return [];
   return [
     {
       id: 'frequency-drift',
@@ -296,6 +303,13 @@ function frequencyDrift(input: SetupCheckInput): SetupCheck[] {
       values: { early, late, drift, windows: windows.length },
     },
   ];
+}
+
+/** The late window's frequency less the early one's, their combined standard error, and whether the difference exceeds DRIFT_SIGMAS of it. */
+function shift(early: Quantity, late: Quantity): { drift: number; combined: number; drifts: boolean } {
+  const drift = late.value - early.value;
+  const combined = Math.hypot(early.stderr ?? Infinity, late.stderr ?? Infinity);
+  return { drift, combined, drifts: Math.abs(drift) > DRIFT_SIGMAS * combined };
 }
 
 /** Kept from the fit's warnings as a setup note: a ring shorter than one time constant leaves alpha's error wide (already in it). */
