@@ -85,13 +85,77 @@ function ringOmega(input: SetupCheckInput): number | null {
   return fit.zeta.value < 1 && fit.omega0.value > 0 ? fit.omega0.value : null;
 }
 
-/** The median sample interval of the channel, s. */
+/** The median sample interval of the channel, s: the median of its steps, found exactly in one pass without copying them all. */
 function sampleInterval(time: ArrayLike<number>): number | null {
   const n = time.length;
   if (n < 2) return null;
-  const steps = new Float64Array(n - 1);
-  for (let i = 0; i < n - 1; i++) steps[i] = time[i + 1] - time[i];
-  return median(steps);
+  const count = n - 1;
+  const upper = count >> 1;
+  const middle = count >= MIN_BRACKETED_STEPS ? bracketedSteps(time, count % 2 ? upper : upper - 1, upper) : null;
+  if (middle === null) return median(steps(time));
+  return count % 2 ? middle.upper : 0.5 * (middle.lower + middle.upper);
+}
+
+function steps(time: ArrayLike<number>): Float64Array {
+  const out = new Float64Array(time.length - 1);
+  for (let i = 0; i < out.length; i++) out[i] = time[i + 1] - time[i];
+  return out;
+}
+
+/** Steps sampled to bracket the median: the sample median's rank among all the steps is known to 1/sqrt(STEP_SAMPLE) of their count. */
+const STEP_SAMPLE = 4096;
+/** The bracket reaches this many sampled ranks either side of the sample median: 4 standard deviations (sqrt(STEP_SAMPLE) / 2 each). */
+const BRACKET_REACH = 128;
+/** Fewer steps than this are copied and selected: a bracket would save nothing. */
+const MIN_BRACKETED_STEPS = 4 * STEP_SAMPLE;
+/** A bracket holding more than this share of the steps brackets nothing: they are copied and selected instead. */
+const MAX_BRACKETED_SHARE = 0.25;
+/** Sampled positions step by the golden ratio's fraction of the record: no period of the axis lines up with them. */
+const GOLDEN_FRACTION = (Math.sqrt(5) - 1) / 2;
+
+/**
+ * The steps time[i+1] - time[i] of ranks lowerRank <= upperRank (0-based, ascending), exactly, or null when a step is
+ * NaN or either rank falls outside the bracket (then the caller selects from a copy). A sample of the steps gives a
+ * bracket [a, b] holding the median with near certainty; one pass counts the steps below a, equal to a or b, and
+ * keeps only those strictly between, so the ranks are read from the counts or from the few kept.
+ */
+function bracketedSteps(time: ArrayLike<number>, lowerRank: number, upperRank: number): { lower: number; upper: number } | null {
+  const count = time.length - 1;
+  const sample = new Float64Array(STEP_SAMPLE);
+  for (let j = 0; j < STEP_SAMPLE; j++) {
+    const i = Math.floor(((j * GOLDEN_FRACTION) % 1) * count);
+    sample[j] = time[i + 1] - time[i];
+  }
+  sample.sort();
+  const a = sample[STEP_SAMPLE / 2 - BRACKET_REACH];
+  const b = sample[STEP_SAMPLE / 2 + BRACKET_REACH];
+  if (!(a <= b)) return null;
+  const between = new Float64Array(Math.ceil(count * MAX_BRACKETED_SHARE));
+  let below = 0;
+  let atA = 0;
+  let atB = 0;
+  let kept = 0;
+  for (let i = 0; i < count; i++) {
+    const step = time[i + 1] - time[i];
+    if (step < a) below++;
+    else if (step > b) continue;
+    else if (step === a) atA++;
+    else if (step === b) atB++;
+    else if (step !== step || kept === between.length) return null;
+    else between[kept++] = step;
+  }
+  const inside = between.subarray(0, kept).sort();
+  const rankOf = (rank: number): number | null => {
+    let r = rank - below;
+    if (r < 0) return null;
+    if (r < atA) return a;
+    r -= atA;
+    if (r < kept) return inside[r];
+    return r - kept < atB ? b : null;
+  };
+  const lower = rankOf(lowerRank);
+  const upper = rankOf(upperRank);
+  return lower === null || upper === null ? null : { lower, upper };
 }
 
 function samplesPerPeriod(input: SetupCheckInput): SetupCheck[] {
