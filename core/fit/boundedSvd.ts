@@ -197,8 +197,8 @@ function applyQ(qr: Float64Array, tau: Float64Array, m: number, n: number, x: Fl
   }
 }
 
-/** The inner product of x's entries p..p+length-1 and y's q..q+length-1, in four running sums (no one chain of dependent adds). */
-function dot(x: Float64Array, p: number, y: Float64Array, q: number, length: number): number {
+/** The inner product of x's entries p..p+length-1 and y's q..q+length-1 (x and y may be one array), in four running sums (no one chain of dependent adds). */
+export function dot(x: Float64Array, p: number, y: Float64Array, q: number, length: number): number {
   let s0 = 0;
   let s1 = 0;
   let s2 = 0;

@@ -1,5 +1,7 @@
 // The few dominant right singular vectors of a tall matrix, by Golub-Kahan bidiagonalization and implicit-shift bidiagonal QR.
 
+import { dot } from './boundedSvd';
+
 /** Singular values (all of them, largest first) and the right singular vectors of the first few. */
 export interface DominantRight {
   values: number[];
@@ -115,7 +117,7 @@ function bidiagonalize(x: Float64Array, m: number, n: number, d: Float64Array, e
         const u = k * n + k + 1;
         for (let i = k + 1; i < m; i++) {
           const row = i * n + k + 1;
-          const h = t * (x[row] + dot(x, row + 1, u + 1, n - k - 2));
+          const h = t * (x[row] + dot(x, row + 1, x, u + 1, n - k - 2));
           x[row] -= h;
           for (let j = 1; j < n - k - 1; j++) x[row + j] -= h * x[u + j];
         }
@@ -125,23 +127,6 @@ function bidiagonalize(x: Float64Array, m: number, n: number, d: Float64Array, e
     }
   }
   return rightTau;
-}
-
-/** The inner product of x's entries p..p+length-1 and q..q+length-1, in four running sums (no one chain of dependent adds). */
-function dot(x: Float64Array, p: number, q: number, length: number): number {
-  let s0 = 0;
-  let s1 = 0;
-  let s2 = 0;
-  let s3 = 0;
-  let i = 0;
-  for (; i + 3 < length; i += 4) {
-    s0 += x[p + i] * x[q + i];
-    s1 += x[p + i + 1] * x[q + i + 1];
-    s2 += x[p + i + 2] * x[q + i + 2];
-    s3 += x[p + i + 3] * x[q + i + 3];
-  }
-  for (; i < length; i++) s0 += x[p + i] * x[q + i];
-  return s0 + s1 + (s2 + s3);
 }
 
 /** column <- V_B column, V_B = P_0 P_1 ... P_{n-3} the right reflectors (P_k acting on entries k+1..). */
