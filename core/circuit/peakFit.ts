@@ -84,7 +84,7 @@ function invert3(a: number[][]): number[][] | null {
 }
 
 /** Index of the first sample at or after t (time sorted ascending); time.length when there is none. */
-function firstAtOrAfter(time: ArrayLike<number>, t: number): number {
+export function firstAtOrAfter(time: ArrayLike<number>, t: number): number {
   let lo = 0;
   let hi = time.length;
   while (lo < hi) {

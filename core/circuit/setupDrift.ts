@@ -6,6 +6,7 @@
 // s^2 = SSE / (n - 4): the Gauss-Newton variance of omega with A, B and c free (the Schur complement of least squares).
 
 import type { Quantity } from '../quantity';
+import { firstAtOrAfter } from './peakFit';
 
 export interface RingWindowFrequency {
   /** The window, s. */
@@ -107,18 +108,6 @@ function blockLength(time: ArrayLike<number>, ring: RingAlong, count: number, pe
   const perWindow = inside / count;
   const perPeriod = (inside * period) / (ring.end - ring.start);
   return Math.max(1, Math.floor(Math.min(perWindow / MAX_POINTS_PER_WINDOW, perPeriod / MIN_POINTS_PER_PERIOD)));
-}
-
-/** Index of the first sample at or after instant t (time ascending): the samples in [start, end) are those from start's index to end's. */
-function firstAtOrAfter(time: ArrayLike<number>, t: number): number {
-  let lo = 0;
-  let hi = time.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >>> 1;
-    if (time[mid] < t) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo;
 }
 
 /** The window's samples, u from its start, as means over consecutive blocks of `block` samples (a short last block dropped). */
