@@ -87,15 +87,17 @@ function refineFirstOrder(set: FitSet, layout: ParameterLayout, rate: number, t0
     const values = toPhysical(u);
     return { values, alpha: values[0], t0: nonlinear.includes('t0') ? values[nonlinear.indexOf('t0')] : t0Start };
   };
-  const curve = { names: [...nonlinear], ...projectedModel(set, layout, (u) => {
+  const projected = projectedModel(set, layout, (u) => {
     const { alpha, t0 } = physical(u);
     return { alpha, omega0: alpha, t0 };
-  }, workspace) };
+  }, workspace);
+  const curve = { names: [...nonlinear], evaluate: projected.evaluate, evaluateAll: projected.evaluateAll };
   const indices = Float64Array.from(set.time, (_, i) => i);
   const min = nonlinear.map((name) => (name === 't0' ? -Infinity : MIN_SCALED_RATE));
   const result = fitCurve(curve, { x: indices, y: set.values }, nonlinear.map(() => 1), { min, maxIterations: MAX_ITERATIONS, covariance: false });
-  const { values, alpha, t0 } = physical(result.parameters.map((p) => p.value));
-  const linear = solveAmplitudes(layout, set.time, set.values, alpha, alpha, t0, workspace, set.block);
+  const fitted = result.parameters.map((p) => p.value);
+  const { values } = physical(fitted);
+  const linear = projected.solutionAt(fitted);
   return {
     layout,
     values: [...values, ...linear.coefficients],

@@ -1,7 +1,7 @@
 // Refines one layout from one start: Levenberg-Marquardt over the nonlinear parameters, the linear ones solved exactly.
 
 import { fitCurve } from './fitCurve';
-import { solveAmplitudes, Workspace } from './amplitudes';
+import { Workspace } from './amplitudes';
 import { projectedModel, stallAsConvergence } from './projectedModel';
 import { LAYOUTS, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
@@ -76,16 +76,15 @@ export function refine(set: FitSet, layout: ParameterLayout, start: RateCandidat
   // t0 enters as 1 + (t0 - t0Start) omega0, so that every solver variable starts near 1.
   const physical = (u: readonly number[]) => ({ ...rates.toRates(u.slice(0, k)), t0: fitsT0 ? t0Start + (u[k] - 1) / rate : t0Start });
   const workspace = new Workspace(set.time.length);
-  const model = {
-    names: fitsT0 ? [...rates.names, 't0'] : rates.names,
-    ...projectedModel(set, layout, physical, workspace),
-  };
+  const projected = projectedModel(set, layout, physical, workspace);
+  const model = { names: fitsT0 ? [...rates.names, 't0'] : rates.names, evaluate: projected.evaluate, evaluateAll: projected.evaluateAll };
   const indices = Float64Array.from(set.time, (_, i) => i);
   const min = fitsT0 ? [...rates.min, -Infinity] : rates.min;
   const initial = fitsT0 ? [...rates.start, 1] : rates.start;
   const result = fitCurve(model, { x: indices, y: set.values }, initial, { min, maxIterations: MAX_ITERATIONS, covariance: false, trialDifferences: 'forward' });
-  const { alpha, omega0, t0 } = physical(result.parameters.map((p) => p.value));
-  const linear = solveAmplitudes(layout, set.time, set.values, alpha, omega0, t0, workspace, set.block);
+  const fitted = result.parameters.map((p) => p.value);
+  const { alpha, omega0, t0 } = physical(fitted);
+  const linear = projected.solutionAt(fitted);
   const named: Record<string, number> = { alpha, omega0, t0 };
   return {
     layout,
