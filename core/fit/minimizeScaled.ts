@@ -52,7 +52,8 @@ export function minimizeScaled(
   }
   const box = scaledBox(scales, options);
   const toP = (u: readonly number[]) => box.unscale(u);
-  const trial = scaledTrial(problem, box, residualScale(problem, initial, scales, options), options.trialDifferences);
+  const c = options.trialDifferences === 'forward' ? forwardResidualScale(problem, box, initial) : residualScale(problem, initial, scales, options);
+  const trial = scaledTrial(problem, box, c, options.trialDifferences);
 
   let u: readonly number[] = box.scale(initial);
   let released = new Set<number>();
@@ -79,6 +80,7 @@ export function minimizeScaled(
       if (chi === 0 || (drop <= tolerance && stationary())) {
         return { p: toP(u), chiSquare: chi, iterations, status: 'converged', message: `chi^2 changed by ${drop.toExponential(1)} (relative) in the last step` };
       }
+      if (options.stopAt?.(toP(u), chi)) return { p: toP(u), chiSquare: chi, iterations, status: 'converged', message: 'stopped where the caller asked' };
     } else {
       damping *= growth;
       growth *= 2;
@@ -155,7 +157,7 @@ function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number, differ
     const point = here as NonNullable<typeof here>;
     const known = point.columns.get(j);
     if (known) return known;
-    const size = STEP.relative * Math.max(Math.abs(point.u[j]), STEP.floor);
+    const size = forwardStep(point.u[j]);
     const shifted = [...point.u];
     const out = new Float64Array(n);
     if (differences === 'central') {
@@ -165,7 +167,7 @@ function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number, differ
       residualsAt(shifted, down);
       for (let i = 0; i < n; i++) out[i] = (down[i] - up[i]) / (2 * size);
     } else {
-      const h = point.u[j] + size <= box.max[j] ? size : -size;
+      const h = inBox(point.u[j], size, box.max[j]);
       shifted[j] = point.u[j] + h;
       residualsAt(shifted, up);
       for (let i = 0; i < n; i++) out[i] = (point.residuals[i] - up[i]) / h;
@@ -277,6 +279,38 @@ function eliminate(m: Float64Array, b: Float64Array, k: number): number[] {
     x[i] = s / a[i][i];
   }
   return x;
+}
+
+/** The step of a trial's difference in scaled coordinates. */
+function forwardStep(u: number): number {
+  return STEP.relative * Math.max(Math.abs(u), STEP.floor);
+}
+
+/** A forward step, or a backward one where it would leave the box. */
+function inBox(u: number, size: number, max: number): number {
+  return u + size <= max ? size : -size;
+}
+
+/**
+ * residualScale from the forward differences the first trial takes (at the same points, so a model that keeps its
+ * last few vectors' values computes them once): one model pass per parameter instead of two.
+ */
+function forwardResidualScale(problem: WeightedProblem, box: ScaledBox, initial: readonly number[]): number {
+  const u = box.scale(initial);
+  const here = weightedModel(problem, box.unscale(u));
+  const moved = new Float64Array(here.length);
+  let largest = 0;
+  for (let j = 0; j < u.length; j++) {
+    const shifted = [...u];
+    const h = inBox(u[j], forwardStep(u[j]), box.max[j]);
+    shifted[j] = u[j] + h;
+    weightedModel(problem, box.unscale(shifted), moved);
+    let sum = 0;
+    for (let i = 0; i < moved.length; i++) sum += ((moved[i] - here[i]) / h) ** 2;
+    const norm = Math.sqrt(sum);
+    if (Number.isFinite(norm) && norm > largest) largest = norm;
+  }
+  return largest > 0 ? largest : 1;
 }
 
 /** Largest column norm of the scaled Jacobian at the start, so that max diag(J^T J / c^2) = 1 there. */

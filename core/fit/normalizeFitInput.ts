@@ -12,6 +12,7 @@ export interface NormalizedFitOptions {
   tolerance: number;
   svdCutoff: number;
   trialDifferences: 'central' | 'forward';
+  stopAt: ((p: readonly number[], chiSquare: number) => boolean) | null;
 }
 
 export interface NormalizedFitInput {
@@ -96,5 +97,7 @@ function normalizeOptions(options: FitOptions, names: string[], initial: readonl
   }
   const trialDifferences = options.trialDifferences ?? 'central';
   if (trialDifferences !== 'central' && trialDifferences !== 'forward') throw new FitInputError('options.trialDifferences', `${String(trialDifferences)} is not 'central' or 'forward'`);
-  return { maxIterations, min, max, tolerance, svdCutoff, trialDifferences };
+  const stopAt = options.stopAt ?? null;
+  if (stopAt !== null && typeof stopAt !== 'function') throw new FitInputError('options.stopAt', 'is not a function');
+  return { maxIterations, min, max, tolerance, svdCutoff, trialDifferences, stopAt };
 }

@@ -6,7 +6,7 @@ import { projectedModel, stallAsConvergence } from './projectedModel';
 import { LAYOUTS, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
 import type { RateCandidate } from './startingRates';
-import type { Attempt } from './attempt';
+import { attemptT0, attemptValue, type Attempt } from './attempt';
 
 /** A start that has not converged by then is crawling along a degenerate valley; a better start exists. */
 const MAX_ITERATIONS = 60;
@@ -20,9 +20,21 @@ const MIN_SCALED_START_ALPHA = 1e-6;
  * the split of the two roots in the response's basis (alpha - sqrt(alpha^2 - omega0^2)) well above rounding.
  */
 const MIN_SCALED_PRODUCT = 1e-6;
+/**
+ * A refinement whose rates and event time come within this share of a converged attempt's (alpha and omega0
+ * relative to themselves, t0 times omega0) is in that minimum's bowl, where the residual is quadratic: it would
+ * only find the same minimum again, to within the solver's tolerance.
+ */
+const JOIN_SHARE = 1e-3;
+
 export interface RefineOptions {
   /** Hold zeta = alpha / omega0 at this value and fit the rest (a point of zeta's profile). */
   fixedZeta?: number;
+  /**
+   * Attempts of this layout found from other starts (held at the same t0 where t0 is not fitted): a refinement
+   * that comes within JOIN_SHARE of a converged one stops and returns that attempt itself.
+   */
+  known?: readonly Attempt[];
 }
 
 /** The solver's variables for the rates and how they map back to alpha and omega0. */
@@ -81,7 +93,26 @@ export function refine(set: FitSet, layout: ParameterLayout, start: RateCandidat
   const indices = Float64Array.from(set.time, (_, i) => i);
   const min = fitsT0 ? [...rates.min, -Infinity] : rates.min;
   const initial = fitsT0 ? [...rates.start, 1] : rates.start;
-  const result = fitCurve(model, { x: indices, y: set.values }, initial, { min, maxIterations: MAX_ITERATIONS, covariance: false, trialDifferences: 'forward' });
+  const others = (options.known ?? []).filter((a) => a.layout === layout);
+  const known = others.filter((a) => a.status === 'converged');
+  const bestKnown = others.reduce((x, a) => Math.min(x, a.sse), Infinity);
+  const path: number[] = [];
+  let joined: Attempt | null = null;
+  let outpaced = false;
+  const stopAt = (u: readonly number[], chiSquare: number) => {
+    joined = known.find((a) => withinBowl(a, physical(u), t0Start)) ?? null;
+    path.push(chiSquare);
+    outpaced = joined === null && cannotWin(path, bestKnown);
+    return joined !== null || outpaced;
+  };
+  const result = fitCurve(model, { x: indices, y: set.values }, initial, {
+    min,
+    maxIterations: MAX_ITERATIONS,
+    covariance: false,
+    trialDifferences: 'forward',
+    stopAt: others.length > 0 ? stopAt : undefined,
+  });
+  if (joined) return joined;
   const fitted = result.parameters.map((p) => p.value);
   const { alpha, omega0, t0 } = physical(fitted);
   const linear = projected.solutionAt(fitted);
@@ -90,7 +121,9 @@ export function refine(set: FitSet, layout: ParameterLayout, start: RateCandidat
     layout,
     values: [...LAYOUTS[layout].nonlinear.map((name) => named[name]), ...linear.coefficients],
     sse: Number.isFinite(linear.sse) ? linear.sse : Infinity,
-    ...stallAsConvergence(result.status, result.message),
+    ...(outpaced
+      ? { status: 'max-iterations' as const, message: 'abandoned: at its pace it could not get below the residual of another start' }
+      : stallAsConvergence(result.status, result.message)),
     iterations: result.iterations,
     warnings: [
       ...result.warnings.filter((w) => !/covariance|^time(Sum|Product) /i.test(w)),
@@ -99,4 +132,31 @@ export function refine(set: FitSet, layout: ParameterLayout, start: RateCandidat
         : []),
     ],
   };
+}
+
+/** Accepted steps a refinement takes before its progress is judged, and how many back its pace is measured over. */
+const PACE = { after: 10, over: 5 };
+
+/**
+ * Whether a refinement crawling at its recent pace could not get below another start's residual in the steps
+ * its iteration limit leaves: chi^2 less the last PACE.over steps' mean drop times the steps left (a crawl along
+ * a degenerate valley only slows) stays above the best known residual.
+ */
+function cannotWin(path: readonly number[], best: number): boolean {
+  const steps = path.length;
+  if (steps < PACE.after || !Number.isFinite(best)) return false;
+  const chi = path[steps - 1];
+  const pace = (path[steps - 1 - PACE.over] - chi) / PACE.over;
+  return chi - pace * (MAX_ITERATIONS - steps) > best;
+}
+
+/** Whether rates and an event time lie within JOIN_SHARE of an attempt's (see that constant). */
+function withinBowl(attempt: Attempt, at: { alpha: number; omega0: number; t0: number }, heldT0: number): boolean {
+  const alpha = attemptValue(attempt, 'alpha');
+  const omega0 = attemptValue(attempt, 'omega0');
+  return (
+    Math.abs(at.alpha - alpha) <= JOIN_SHARE * alpha &&
+    Math.abs(at.omega0 - omega0) <= JOIN_SHARE * omega0 &&
+    Math.abs(at.t0 - attemptT0(attempt, heldT0)) * omega0 <= JOIN_SHARE
+  );
 }

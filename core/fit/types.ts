@@ -39,6 +39,11 @@ export interface FitOptions {
    * one model pass per parameter instead of two, sharpened to central where the trials stall at a narrow minimum.
    */
   trialDifferences?: 'central' | 'forward';
+  /**
+   * Asked after every accepted step with the parameters and chi^2 reached: true ends the fit there (status 'converged'),
+   * for a caller that knows where this start is going (a minimum found from another start, or one it cannot beat). Default: never.
+   */
+  stopAt?: (p: readonly number[], chiSquare: number) => boolean;
 }
 
 export interface FittedParameter {
