@@ -9,6 +9,11 @@ export type RememberedCapture =
 const DB = 'ringbench';
 const STORE = 'last-capture';
 const KEY = 'last';
+/**
+ * The longest a start or an open waits for this memory: a commit takes milliseconds (about half a second for 10^6
+ * samples), but a browser whose IndexedDB never answers must not hold the window back; a put may still land later.
+ */
+const STORAGE_WAIT_MS = 3000;
 
 function openDb(): Promise<IDBDatabase> {
   return new Promise((resolve, reject) => {
@@ -20,30 +25,72 @@ function openDb(): Promise<IDBDatabase> {
 }
 
 /** The remembered capture, or null (first start, or storage unavailable). */
-export async function recallCapture(): Promise<RememberedCapture | null> {
+export function recallCapture(): Promise<RememberedCapture | null> {
+  return withinWait(getCapture(), null, 'the last capture could not be read');
+}
+
+/**
+ * Remember the capture; resolves once it is committed (a reload from then on reopens it), or when storage failed or
+ * did not answer in time. Best effort: a private window or a full disk simply starts from the sample again.
+ */
+export function rememberCapture(capture: RememberedCapture): Promise<void> {
+  return withinWait(putCapture(capture), undefined, 'the last capture could not be remembered');
+}
+
+async function getCapture(): Promise<RememberedCapture | null> {
+  const db = await openDb();
   try {
-    const db = await openDb();
-    return await new Promise((resolve) => {
+    return await new Promise((resolve, reject) => {
       const request = db.transaction(STORE, 'readonly').objectStore(STORE).get(KEY);
       request.onsuccess = () => resolve((request.result as RememberedCapture | undefined) ?? null);
-      request.onerror = () => resolve(null);
+      request.onerror = () => reject(request.error ?? new Error('the read failed'));
     });
-  } catch {
-    return null;
+  } finally {
+    db.close();
   }
 }
 
-/** Best effort: a private window without storage simply starts from the sample again. */
-export async function rememberCapture(capture: RememberedCapture): Promise<void> {
+/** One put in its own transaction, settled by its commit (quota and other failures end in an abort). */
+async function putCapture(capture: RememberedCapture): Promise<void> {
+  const db = await openDb();
   try {
-    const db = await openDb();
-    await new Promise<void>((resolve) => {
+    await new Promise<void>((resolve, reject) => {
       const tx = db.transaction(STORE, 'readwrite');
-      tx.objectStore(STORE).put(capture, KEY);
       tx.oncomplete = () => resolve();
-      tx.onerror = () => resolve();
+      tx.onabort = () => reject(tx.error ?? new Error('the transaction was aborted'));
+      tx.objectStore(STORE).put(capture, KEY);
     });
-  } catch {
-    // nothing to do
+  } finally {
+    db.close();
   }
+}
+
+/** The work's answer, or the fallback when it fails or takes longer than STORAGE_WAIT_MS (said once on the console). */
+function withinWait<T>(work: Promise<T>, fallback: T, what: string): Promise<T> {
+  return new Promise<T>((resolve) => {
+    const timer = setTimeout(() => {
+      warnOnce(`${what}: no answer from the browser's storage in ${STORAGE_WAIT_MS} ms`);
+      resolve(fallback);
+    }, STORAGE_WAIT_MS);
+    work.then(
+      (value) => {
+        clearTimeout(timer);
+        resolve(value);
+      },
+      (error: unknown) => {
+        clearTimeout(timer);
+        warnOnce(`${what} (${error instanceof Error ? error.message : String(error)})`);
+        resolve(fallback);
+      },
+    );
+  });
+}
+
+let warned = false;
+
+/** Said once a page: the bench works on without this memory (the start opens a sample instead). */
+function warnOnce(message: string): void {
+  if (warned) return;
+  warned = true;
+  console.warn(`Ringbench: ${message}; the bench works on without it.`);
 }

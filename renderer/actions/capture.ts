@@ -3,7 +3,7 @@
 import { BenchError } from '../benchError';
 import type { NamedText, OpenedFile, SampleEntry } from '../bridgeTypes';
 import { FitCancelled } from '../fitClient';
-import { rememberCapture, recallCapture } from '../lastCapture';
+import { rememberCapture, recallCapture, type RememberedCapture } from '../lastCapture';
 import { plainMessage } from '../plainMessage';
 import { sha256Hex } from '../sha256';
 import { reweighCautions } from './cautions';
@@ -107,11 +107,12 @@ async function readCapture(ctx: ActionContext, opened: OpenedFile, sample: Sampl
       return 'refused' as const;
     }
     const { info } = reply;
-    const digest = await sha256Hex(opened);
     const byName = sample?.options.column ? info.channels.findIndex((c) => c.name === sample.options.column) : -1;
-    const chosen = channel ?? (byName >= 0 ? byName : 0);
+    const chosen = Math.min(channel ?? (byName >= 0 ? byName : 0), info.channels.length - 1);
+    // Remembered before it shows as opened: a reload from the moment the user sees it reopens this capture.
+    const [digest] = await Promise.all([sha256Hex(opened), rememberCapture(remembered(opened, chosen, reading))]);
     ctx.store.update((s) => {
-      s.capture = { key, opened, info, channel: Math.min(chosen, info.channels.length - 1), sample, ...digest };
+      s.capture = { key, opened, info, channel: chosen, sample, ...digest };
       s.refused = null;
       s.reading = reading;
       forgetMeasurement(s);
@@ -121,34 +122,30 @@ async function readCapture(ctx: ActionContext, opened: OpenedFile, sample: Sampl
   return read ?? 'failed';
 }
 
-/** Draw the channel read, fit it, and remember the capture for the next start. */
+/** Draw the channel read and fit it. */
 async function showAndMeasure(ctx: ActionContext): Promise<void> {
   await loadTrace(ctx);
   await measure(ctx);
-  rememberShown(ctx);
 }
 
-/** The capture on screen, its channel and how it was read, for the next start (a sample by id, a file by its content). */
-function rememberShown(ctx: ActionContext): void {
-  const capture = ctx.store.state.capture;
-  if (!capture) return;
-  const { opened } = capture;
-  void rememberCapture(
-    opened.sampleId
-      ? { kind: 'sample', id: opened.sampleId, channel: capture.channel }
-      : { kind: 'file', name: opened.name, path: opened.path, ...contentOf(opened), channel: capture.channel, reading: ctx.store.state.reading },
-  );
+/** A capture, its channel and how it was read, as the next start reopens it (a sample by id, a file by its content). */
+function remembered(opened: OpenedFile, channel: number, reading: CaptureReading): RememberedCapture {
+  return opened.sampleId
+    ? { kind: 'sample', id: opened.sampleId, channel }
+    : { kind: 'file', name: opened.name, path: opened.path, ...contentOf(opened), channel, reading };
 }
 
 export async function chooseChannel(ctx: ActionContext, index: number): Promise<void> {
   const capture = ctx.store.state.capture;
   if (!capture) return;
+  // Remembered before it shows: a reload from then on, during the fit too, comes back to this channel.
+  await rememberCapture(remembered(capture.opened, index, ctx.store.state.reading));
+  // Another capture opened meanwhile is the one shown (and remembered after this one).
+  if (capture !== ctx.store.state.capture) return;
   ctx.store.update((s) => {
     capture.channel = index;
     forgetMeasurement(s);
   });
-  // Remembered at once: a reload during the fit still comes back to this channel.
-  rememberShown(ctx);
   await loadTrace(ctx);
   await measure(ctx);
 }
