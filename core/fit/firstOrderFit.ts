@@ -7,6 +7,7 @@ import { firstOrderLayoutFor, LAYOUTS, type ParameterLayout } from './responseMo
 import type { FitSet } from './fitSet';
 import { attemptT0, attemptValue, type Attempt } from './attempt';
 import { beatsContinuous, jumpOf, scanEventTime, showsJump } from './jumpStart';
+import { indexRamp } from './indexVectors';
 
 /** A first-order attempt and the event time a layout that holds t0 is held at. */
 export interface FirstOrderFit {
@@ -92,7 +93,7 @@ function refineFirstOrder(set: FitSet, layout: ParameterLayout, rate: number, t0
     return { alpha, omega0: alpha, t0 };
   }, workspace);
   const curve = { names: [...nonlinear], evaluate: projected.evaluate, evaluateAll: projected.evaluateAll };
-  const indices = Float64Array.from(set.time, (_, i) => i);
+  const indices = indexRamp(set.time.length);
   const min = nonlinear.map((name) => (name === 't0' ? -Infinity : MIN_SCALED_RATE));
   const result = fitCurve(curve, { x: indices, y: set.values }, nonlinear.map(() => 1), { min, maxIterations: MAX_ITERATIONS, covariance: false });
   const fitted = result.parameters.map((p) => p.value);

@@ -142,10 +142,19 @@ function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number, differ
     }
     return error * c * c;
   };
-  let here: { u: readonly number[]; residuals: Float64Array; chiSquare: number; columns: Map<number, Float64Array>; normal: Map<string, { gram: Float64Array; gradient: Float64Array }> } | null = null;
+  type Point = { u: readonly number[]; residuals: Float64Array; chiSquare: number; columns: Map<number, Float64Array>; normal: Map<string, { gram: Float64Array; gradient: Float64Array }> };
+  let here: Point | null = null;
+  // Vectors of the points the solver has left, handed out again: a fresh array of n values for every residual
+  // vector and Jacobian column was most of a batch's garbage (each one a separately allocated buffer).
+  const freed: Float64Array[] = [];
+  const vector = (): Float64Array => freed.pop() ?? new Float64Array(n);
+  const moveTo = (point: Point): Point => {
+    if (here) freed.push(here.residuals, ...here.columns.values());
+    return (here = point);
+  };
   const up = new Float64Array(n);
   const down = new Float64Array(n);
-  let spare = new Float64Array(n);
+  let spare: Float64Array = new Float64Array(n);
   /**
    * d(residual)/du_j at the current point by central differences, or by a forward difference from the point's own
    * residuals (one model pass per column; backward where the step would leave the box). Forward ones suit a
@@ -159,7 +168,7 @@ function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number, differ
     if (known) return known;
     const size = forwardStep(point.u[j]);
     const shifted = [...point.u];
-    const out = new Float64Array(n);
+    const out = vector();
     if (differences === 'central') {
       shifted[j] = point.u[j] + size;
       residualsAt(shifted, up);
@@ -202,11 +211,11 @@ function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number, differ
     return equations;
   };
   return (u, free, damping) => {
-    if (here === null || here.u !== u) {
-      const residuals = new Float64Array(n);
-      here = { u, residuals, chiSquare: residualsAt(u, residuals), columns: new Map(), normal: new Map() };
+    let point = here;
+    if (point === null || point.u !== u) {
+      const residuals = vector();
+      point = moveTo({ u, residuals, chiSquare: residualsAt(u, residuals), columns: new Map(), normal: new Map() });
     }
-    const point = here;
     const k = free.length;
     const { gram, gradient } = normalEquations(point, free);
     const normal = Float64Array.from(gram);
@@ -219,8 +228,8 @@ function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number, differ
     if (!(chiSquare < point.chiSquare)) return { u, chiSquare: point.chiSquare };
     // The trial's residuals become those of the new point, should the caller move there.
     const residuals = spare;
-    spare = new Float64Array(n);
-    here = { u: next, residuals, chiSquare, columns: new Map(), normal: new Map() };
+    moveTo({ u: next, residuals, chiSquare, columns: new Map(), normal: new Map() });
+    spare = vector();
     return { u: next, chiSquare };
   };
 }

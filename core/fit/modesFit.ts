@@ -6,6 +6,7 @@ import { ModesWorkspace, solveModes, type ModeLinear, type ModeRates, type ModeS
 import type { FitSet } from './fitSet';
 import { gridNyquist } from './modesStarts';
 import type { FitStatus } from './types';
+import { indexRamp } from './indexVectors';
 
 /** A start that has not converged by then is crawling along a degenerate valley (as in refine.ts). */
 const MAX_ITERATIONS = 80;
@@ -64,7 +65,7 @@ export function refineModes(set: FitSet, spec: ModeSpec, start: ModeRates): Mode
     cache.unshift({ key: u, model });
     return model;
   };
-  const indices = Float64Array.from(set.time, (_, i) => i);
+  const indices = indexRamp(set.time.length);
   const weights = fittedWeights(set, spec, start.t0);
   const result = fitCurve({ names, ...indexedModel(modelFor) }, { x: indices, y: set.values, weights }, initial, {
     min,

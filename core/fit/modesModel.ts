@@ -11,6 +11,7 @@
 import { fillDampedBasis } from '../response/secondOrder';
 import type { FitSet } from './fitSet';
 import { LAYOUTS, type ParameterLayout } from './responseModel';
+import { gathered } from './indexVectors';
 
 /** How the response may start at t0, after the one-mode layout it extends. */
 export type StartConstraint = 'smooth' | 'continuous' | 'jump' | 'no-pre-event';
@@ -211,7 +212,7 @@ export function solveModes(set: FitSet, spec: ModeSpec, rates: ModeRates, ws: Mo
   const B = unconstrainedBasis(set, spec, rates, ws);
   const T = substitution(spec, rates);
   const A = constrainedBasis(B, T, ws);
-  const use = spec.start === 'no-pre-event' ? Uint8Array.from(ws.after, (w) => (w >= 1 ? 1 : 0)) : null;
+  const use = spec.start === 'no-pre-event' ? wholeAfter(ws.after) : null;
   const phi = normalSolve(A, set.values, use) ?? qrSolve(A, set.values, use);
   const theta = T.map((row) => row.reduce((s, v, j) => s + v * phi[j], 0));
   const model = new Float64Array(n);
@@ -225,6 +226,13 @@ export function solveModes(set: FitSet, spec: ModeSpec, rates: ModeRates, ws: Mo
     sse += d * d;
   }
   return { linear: namedLinear(spec, theta), sse: Number.isFinite(sse) ? sse : Infinity, model };
+}
+
+/** 1 where a value's samples all lie at or after t0 (its share after t0 is 1), else 0. */
+function wholeAfter(after: Float64Array): Uint8Array {
+  const use = new Uint8Array(after.length);
+  for (let i = 0; i < after.length; i++) use[i] = after[i] >= 1 ? 1 : 0;
+  return use;
 }
 
 /** Below this pivot of the unit-diagonal Gram matrix the normal equations lose too many digits: the QR is used. */
@@ -288,10 +296,10 @@ function qrSolve(columns: Float64Array[], y: ArrayLike<number>, use: Uint8Array 
   for (let i = 0; i < y.length; i++) if (!use || use[i]) rows.push(i);
   const r = columns.length;
   const m = rows.length;
-  const A = columns.map((c) => Float64Array.from(rows, (i) => c[i]));
+  const A = columns.map((c) => gathered(rows, (i) => c[i]));
   const scale = A.map((c) => Math.sqrt(c.reduce((s, v) => s + v * v, 0)) || 1);
   A.forEach((c, j) => c.forEach((v, i) => (c[i] = v / scale[j])));
-  const b = Float64Array.from(rows, (i) => y[i]);
+  const b = gathered(rows, (i) => y[i]);
   const diagonal = new Array<number>(r).fill(0);
   const dead = new Array<boolean>(r).fill(false);
   for (let j = 0; j < r && j < m; j++) {

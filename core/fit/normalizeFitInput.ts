@@ -3,6 +3,7 @@
 import { FitInputError } from './fitInputError';
 import type { CurveData, CurveModel, FitOptions } from './types';
 import type { WeightedProblem } from './weightedProblem';
+import { gathered } from './indexVectors';
 
 /** FitOptions with every default filled in (defaults are documented on FitOptions). */
 export interface NormalizedFitOptions {
@@ -60,9 +61,9 @@ export function normalizeFitInput(
 
   const problem: WeightedProblem = {
     model,
-    x: Float64Array.from(rows, (i) => data.x[i]),
-    y: Float64Array.from(rows, (i) => Math.sqrt(data.weights === undefined ? 1 : data.weights[i]) * data.y[i]),
-    sqrtWeight: Float64Array.from(rows, (i) => Math.sqrt(data.weights === undefined ? 1 : data.weights[i])),
+    x: gathered(rows, (i) => data.x[i]),
+    y: gathered(rows, (i) => Math.sqrt(data.weights === undefined ? 1 : data.weights[i]) * data.y[i]),
+    sqrtWeight: gathered(rows, (i) => Math.sqrt(data.weights === undefined ? 1 : data.weights[i])),
   };
   return { problem, initial: [...initial], options: normalizeOptions(options, model.names, initial) };
 }

@@ -7,6 +7,7 @@ import { LAYOUTS, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
 import type { RateCandidate } from './startingRates';
 import { attemptT0, attemptValue, type Attempt } from './attempt';
+import { indexRamp } from './indexVectors';
 
 /** A start that has not converged by then is crawling along a degenerate valley; a better start exists. */
 const MAX_ITERATIONS = 60;
@@ -90,7 +91,7 @@ export function refine(set: FitSet, layout: ParameterLayout, start: RateCandidat
   const workspace = new Workspace(set.time.length);
   const projected = projectedModel(set, layout, physical, workspace);
   const model = { names: fitsT0 ? [...rates.names, 't0'] : rates.names, evaluate: projected.evaluate, evaluateAll: projected.evaluateAll };
-  const indices = Float64Array.from(set.time, (_, i) => i);
+  const indices = indexRamp(set.time.length);
   const min = fitsT0 ? [...rates.min, -Infinity] : rates.min;
   const initial = fitsT0 ? [...rates.start, 1] : rates.start;
   const others = (options.known ?? []).filter((a) => a.layout === layout);
