@@ -44,7 +44,8 @@ import { isBlankOrComment, type PreambleLine } from './preamble';
 import { ROW, RowReader, SKIP } from './rowReader';
 import type { LineEnd, TextEncoding } from './importSummary';
 import type { TextSource } from './summarizeImport';
-import { DetectingDecoder, decodeUtf16, utf16Of, utf8LineDecoder, type LineDecoder } from './textEncoding';
+import { DetectingDecoder, utf16Decoder, utf16Of, utf8LineDecoder, type LineDecoder } from './textEncoding';
+import { HeldBytes } from './heldBytes';
 import { chooseSegment, findSegments, linesOfSpan, rowsOfSpan } from './segments';
 import { TrailingSections } from './trailingSections';
 import { CaptureError, type Capture, type CaptureOptions } from './types';
@@ -57,6 +58,11 @@ const HEAD_BYTES = 1 << 14;
 const ESTIMATE_WINDOWS = 8;
 /** Rows reserved beyond the estimate: unused room is never touched, so it costs address space, not memory. */
 const ESTIMATE_MARGIN = 1.05;
+/**
+ * Further margin on the rows reserved for a whole file from the density of its first piece: lines lengthen or shorten
+ * along a record by a character or two (a time stamp's exponent, a value's sign and digits as the signal rings).
+ */
+const EXTRAPOLATION_MARGIN = 1.25;
 const LF = 10;
 const CR = 13;
 
@@ -100,13 +106,21 @@ class StreamingReader implements CaptureReader {
   /** Lines inside the table that repeat its header: skipped, counted; `rows` are the rows right after them. */
   private repeatedHeader: { line: number; count: number; rows: number[] } | null = null;
   private byteRows: ByteRowReader | null = null;
-  /** Bytes after the last complete line pushed. */
-  private carriedBytes: Uint8Array = new Uint8Array(0);
+  /** Bytes pushed and not yet read: the unfinished last line, or pieces whose end is not yet known. */
+  private readonly held = new HeldBytes();
+  /** Bytes pushed so far. */
+  private received = 0;
+  /** Set when text read as text must wait for the end of the bytes (see readLines). */
+  private textWaitsForEnd = false;
+  /** Set once rows are reserved for the whole file (see reserveRows). */
+  private reservedForFile = false;
 
+  /** `size`: the bytes the whole file will push, when known (no byte may come after them), so that its rows are reserved at once. */
   constructor(
     private readonly options: CaptureOptions,
     private readonly decode: LineDecoder | null,
     encoding: TextEncoding = { name: 'UTF-8', byteOrderMark: false },
+    private readonly size: number | null = null,
   ) {
     this.encoding = decode?.encoding ?? encoding;
   }
@@ -146,31 +160,43 @@ class StreamingReader implements CaptureReader {
 
   pushBytes(chunk: Uint8Array): void {
     if (this.finished) throw new CaptureError('bytes pushed after finish()');
+    this.decoder(); // refused at once by a reader without one, though the bytes may wait to be decoded
     // A plain Uint8Array view (not a Buffer) keeps the hot loop's element reads monomorphic.
-    const bytes = this.carriedBytes.length === 0 ? new Uint8Array(chunk.buffer, chunk.byteOffset, chunk.byteLength) : joinBytes(this.carriedBytes, chunk);
-    const complete = bytes.lastIndexOf(LF) + 1;
-    let pos = 0;
-    while (pos < complete && this.byteRows === null) {
-      const cut = this.layout === null ? lineEndAfter(bytes, pos + HEAD_BYTES, complete) : complete;
-      checkLastLine(bytes, pos, cut, this.line + 1);
-      this.push(this.decoder().decode(bytes.subarray(pos, cut), this.line + 1));
-      pos = cut;
-      this.byteRows = this.byteRowReader();
+    const piece = new Uint8Array(chunk.buffer, chunk.byteOffset, chunk.byteLength);
+    const held = this.held;
+    this.received += piece.length;
+    const last = this.received === this.size;
+    if (held.length === 0) held.keep(piece, this.readLines(piece, last));
+    else {
+      held.append(piece);
+      // A piece without a line end finishes no line, and cuts no piece of the head: the held bytes stay as they are.
+      if (piece.includes(LF)) held.keep(held.bytes, this.readLines(held.bytes, last));
     }
-    if (pos < complete) {
-      (this.store as ColumnStore).expect(estimateLines(bytes, pos, complete), complete - pos);
-      this.readByteLines(bytes, pos, complete);
-    }
-    checkUnfinishedLine(bytes, complete, this.line + 1);
-    this.carriedBytes = bytes.slice(complete);
+    this.refuseLongUnfinishedLine();
+  }
+
+  /**
+   * Refuses the unfinished last line once it is over the limit, rather than hold more of it: after the lines before
+   * it are read, or while they wait in a piece of the head (which, whole, would end with this line and be refused for
+   * it first). Only where it has no CR: a CR there may end lines or not, known only at the end, and the lines counted
+   * before it depend on which.
+   */
+  private refuseLongUnfinishedLine(): void {
+    const bytes = this.held.bytes;
+    if (bytes.length <= MAX_LINE_LENGTH) return;
+    const start = bytes.lastIndexOf(LF) + 1;
+    if (bytes.length - start <= MAX_LINE_LENGTH || bytes.includes(CR, start) || (start > 0 && this.layout !== null)) return;
+    throw lineTooLong(this.line + 1 + countLines(bytes, 0, start));
   }
 
   finish(): Capture {
     if (this.finished) throw new CaptureError('finish() called twice');
-    if (this.carriedBytes.length > 0) {
-      const rest = this.carriedBytes;
-      this.carriedBytes = new Uint8Array(0);
-      this.push(this.decoder().decode(rest, this.line + 1));
+    if (this.held.length > 0) {
+      const bytes = this.held.bytes;
+      const complete = this.readLines(bytes, true);
+      checkUnfinishedLine(bytes, complete, this.line + 1);
+      if (complete < bytes.length) this.push(this.decoder().decode(bytes.subarray(complete), this.line + 1));
+      this.held.keep(bytes, bytes.length);
     }
     const last = this.carry.endsWith('\r') ? this.carry.slice(0, -1) : this.carry;
     this.carry = '';
@@ -284,6 +310,54 @@ class StreamingReader implements CaptureReader {
     this.lines.record((this.store as ColumnStore).length - 1, line);
   }
 
+  /**
+   * Reads the complete lines of `bytes` (which end with the last byte pushed) as far as can be done now, and returns
+   * where the bytes not yet read start. Until the `final` bytes, a piece of the head is cut only once the line end that closes
+   * it has come, and text that reads as text waits while its encoding may still turn on later bytes: so the decoder
+   * sees the pieces it would see were all the bytes pushed at once, and decides the same.
+   */
+  private readLines(bytes: Uint8Array, final: boolean): number {
+    const complete = bytes.lastIndexOf(LF) + 1;
+    let pos = 0;
+    while (pos < complete && this.byteRows === null) {
+      let cut = complete;
+      if (this.layout === null) {
+        // The piece ends at the first line end at least HEAD_BYTES on (bytes[complete - 1] is a line end).
+        if (!final && complete < pos + HEAD_BYTES) return pos;
+        cut = lineEndAfter(bytes, pos + HEAD_BYTES, complete);
+      } else if (!final && (this.textWaitsForEnd || !this.decoder().settles(bytes.subarray(pos, complete)))) {
+        // The rest is one piece of text: it waits, once, for the end of the bytes.
+        this.textWaitsForEnd = true;
+        return pos;
+      }
+      checkLastLine(bytes, pos, cut, this.line + 1);
+      this.push(this.decoder().decode(bytes.subarray(pos, cut), this.line + 1));
+      pos = cut;
+      this.byteRows = this.byteRowReader();
+    }
+    if (pos < complete) {
+      this.reserveRows(bytes, pos, complete);
+      this.readByteLines(bytes, pos, complete);
+    }
+    return complete;
+  }
+
+  /**
+   * Reserves the rows of bytes[pos, complete) at once. When the file's size is known and more of it is to come, the
+   * rows of all of it are reserved the first time, at the density of these lines, so that the columns are allocated
+   * once; rows beyond that grow them as they come.
+   */
+  private reserveRows(bytes: Uint8Array, pos: number, complete: number): void {
+    if (this.reservedForFile) return;
+    const store = this.store as ColumnStore;
+    const rows = estimateLines(bytes, pos, complete);
+    const later = this.size === null ? 0 : this.size - this.received;
+    if (later <= 0) return store.expect(rows, complete - pos);
+    this.reservedForFile = true;
+    const coming = complete - pos + later;
+    store.expect(Math.ceil((rows * coming * EXTRAPOLATION_MARGIN) / (complete - pos)), coming);
+  }
+
   /** The complete lines bytes[pos, complete) of the table, runs of them from the bytes, each line declined as text. */
   private readByteLines(bytes: Uint8Array, pos: number, complete: number): void {
     const byteRows = this.byteRows as ByteRowReader;
@@ -354,7 +428,8 @@ class StreamingReader implements CaptureReader {
 
 /**
  * An incremental reader: push the text (or, given a decoder, the bytes) in pieces of any size, then finish().
- * A UTF-8 function reads UTF-8 bytes; a DetectingDecoder also reads Windows-1252 (UTF-16 needs parseCaptureFileBytes).
+ * A UTF-8 function reads UTF-8 bytes; a DetectingDecoder also reads Windows-1252 (createCaptureFileReader reads any
+ * capture file).
  */
 export function createCaptureReader(options: CaptureOptions = {}, decode: Utf8Decoder | LineDecoder | null = null): CaptureReader {
   return new StreamingReader(options, typeof decode === 'function' ? utf8LineDecoder(decode) : decode);
@@ -373,15 +448,49 @@ export function parseCaptureBytes(bytes: Uint8Array, decode: Utf8Decoder, option
  * the bytes are not valid UTF-8. The encoding found, and why, is in importSummary.encoding. Pure: uses TextDecoder only.
  */
 export function parseCaptureFileBytes(bytes: Uint8Array, options: CaptureOptions = {}): Capture {
-  const utf16 = utf16Of(bytes);
-  if (utf16 !== null) {
-    const reader = new StreamingReader(options, null, utf16);
-    reader.push(decodeUtf16(bytes, utf16));
-    return reader.finish();
-  }
-  const reader = new StreamingReader(options, new DetectingDecoder());
+  const reader = createCaptureFileReader(options, bytes.length);
   reader.pushBytes(bytes);
   return reader.finish();
+}
+
+/** A reader of a file's bytes in any encoding (the text itself is not pushed). */
+export type CaptureFileReader = Pick<CaptureReader, 'pushBytes' | 'finish'>;
+
+/** Bytes of the start of a file that tell UTF-16 without a byte-order mark (see utf16Of). */
+const ENCODING_BYTES = 4;
+
+/**
+ * A capture file's bytes pushed in pieces of any size, then finish(): the capture parseCaptureFileBytes gives for all
+ * of them. `size`, the file's length when known (no byte may be pushed beyond it), lets the columns be reserved once
+ * rather than grown, and the last piece be read at once.
+ */
+export function createCaptureFileReader(options: CaptureOptions = {}, size: number | null = null): CaptureFileReader {
+  let start: Uint8Array = new Uint8Array(0);
+  let reader: StreamingReader | null = null;
+  let utf16: ((bytes?: Uint8Array) => string) | null = null;
+  const pass = (bytes: Uint8Array): void => (utf16 ? (reader as StreamingReader).push(utf16(bytes)) : (reader as StreamingReader).pushBytes(bytes));
+  /** The encoding is told from the first bytes; they go to the reader it needs. */
+  const begin = (first: Uint8Array): void => {
+    const encoding = utf16Of(first);
+    if (encoding === null) reader = new StreamingReader(options, new DetectingDecoder(), undefined, size);
+    else {
+      reader = new StreamingReader(options, null, encoding);
+      utf16 = utf16Decoder(encoding);
+    }
+    pass(first);
+  };
+  return {
+    pushBytes(chunk) {
+      if (reader !== null) pass(chunk);
+      else if (start.length + chunk.length < ENCODING_BYTES) start = joinBytes(start, chunk);
+      else begin(start.length === 0 ? chunk : joinBytes(start, chunk));
+    },
+    finish() {
+      if (reader === null) begin(start);
+      if (utf16) (reader as StreamingReader).push(utf16());
+      return (reader as StreamingReader).finish();
+    },
+  };
 }
 
 /** The line end of a text by its first terminator: CR alone, or LF with or without a CR before it. */

@@ -5,7 +5,7 @@ import type { TextEncoding } from './importSummary';
 /** The WHATWG decoder every host has (Node, browsers, workers); core's library list names no host, so its shape is stated here. */
 declare class TextDecoder {
   constructor(label?: string, options?: { fatal?: boolean; ignoreBOM?: boolean });
-  decode(input?: Uint8Array): string;
+  decode(input?: Uint8Array, options?: { stream?: boolean }): string;
 }
 
 const LF = 10;
@@ -14,6 +14,11 @@ const CR = 13;
 /** Decodes pieces of a file that end at line ends; `firstLine` is the 1-based line the piece starts on. */
 export interface LineDecoder {
   decode(bytes: Uint8Array, firstLine: number): string;
+  /**
+   * True when decode(bytes) now gives what it would give these bytes as the start of a longer piece: a reader that
+   * has not yet seen where its piece ends may decode them without waiting.
+   */
+  settles(bytes: Uint8Array): boolean;
   /** What the pieces decoded so far were read as (a byte-order mark is noted by the reader, which drops it). */
   readonly encoding: TextEncoding;
 }
@@ -31,9 +36,13 @@ export function utf16Of(bytes: Uint8Array): TextEncoding | null {
   return null;
 }
 
-/** Decodes a whole UTF-16 file (the byte-order mark kept, for the reader to note and drop). */
-export function decodeUtf16(bytes: Uint8Array, encoding: TextEncoding): string {
-  return new TextDecoder(encoding.name === 'UTF-16BE' ? 'utf-16be' : 'utf-16le', { ignoreBOM: true }).decode(bytes);
+/**
+ * Decodes a UTF-16 file piece by piece, a character split between pieces included (the byte-order mark kept, for the
+ * reader to note and drop); with no bytes, returns what an odd last byte leaves.
+ */
+export function utf16Decoder(encoding: TextEncoding): (bytes?: Uint8Array) => string {
+  const decoder = new TextDecoder(encoding.name === 'UTF-16BE' ? 'utf-16be' : 'utf-16le', { ignoreBOM: true });
+  return (bytes) => (bytes ? decoder.decode(bytes, { stream: true }) : decoder.decode());
 }
 
 /**
@@ -66,11 +75,27 @@ export class DetectingDecoder implements LineDecoder {
       return this.fallback.decode(bytes);
     }
   }
+
+  /** Only valid UTF-8 beyond ASCII, before any such character, waits: it is read as Windows-1252 when a later byte of its piece is not UTF-8. */
+  settles(bytes: Uint8Array): boolean {
+    if (this.fallback || this.sawNonAscii || isAscii(bytes)) return true;
+    try {
+      this.utf8.decode(bytes);
+      return false;
+    } catch {
+      return true;
+    }
+  }
 }
 
 /** A host's UTF-8 decoding function as a line decoder. */
 export function utf8LineDecoder(decode: (bytes: Uint8Array) => string): LineDecoder {
-  return { decode: (bytes) => decode(bytes), encoding: { name: 'UTF-8', byteOrderMark: false } };
+  return { decode: (bytes) => decode(bytes), settles: () => true, encoding: { name: 'UTF-8', byteOrderMark: false } };
+}
+
+function isAscii(bytes: Uint8Array): boolean {
+  for (let i = 0; i < bytes.length; i++) if (bytes[i] >= 0x80) return false;
+  return true;
 }
 
 /** Offset of the first byte that does not start a well-formed UTF-8 sequence, or -1 (only used to name the line). */

@@ -3,7 +3,7 @@
 import { closeSync, constants, fstatSync, openSync, readFileSync, readSync, statSync, type Stats } from 'node:fs';
 import { createHash } from 'node:crypto';
 import { isAbsolute, resolve } from 'node:path';
-import { parseCaptureFileBytes } from '../../core/capture/parseCapture';
+import { createCaptureFileReader, type CaptureFileReader } from '../../core/capture/parseCapture';
 import { selectChannel } from '../../core/capture/selectChannel';
 import type { Capture, CaptureOptions, Channel } from '../../core/capture/types';
 import { FileError } from './fileError';
@@ -23,6 +23,11 @@ export interface LoadedCapture {
 const MAX_FILE_BYTES = 2 ** 31 - 1;
 /** Opening never waits for a writer (a FIFO); a regular file reads as usual. Absent on Windows, where FIFOs are not files. */
 const OPEN_FLAGS = constants.O_RDONLY | (constants.O_NONBLOCK ?? 0);
+/**
+ * Bytes a capture file is read in, into one reused buffer: where the first touch of fresh memory is dear (a VM taking
+ * a page fault per 4 KiB), reading 22 MB (10^6 rows) into a fresh buffer of its size took 57 ms, into a touched one 1.4 ms.
+ */
+const PIECE_BYTES = 1 << 20;
 
 /** Read bytes, failing with a message that names the path; only a regular file is read (never a FIFO, device or socket). */
 export function readFileBytes(path: string): Buffer {
@@ -32,11 +37,53 @@ export function readFileBytes(path: string): Buffer {
     refuseUnreadable(path, fstatSync(fd));
     return readFileSync(fd);
   } catch (error) {
-    if (error instanceof FileError) throw error;
-    const code = (error as NodeJS.ErrnoException).code;
-    if (code === 'EISDIR') throw new FileError(`'${path}' is a folder, not a capture file`, path);
-    const why = code === 'ENOENT' ? 'no such file' : code === 'EACCES' ? 'permission denied' : String(code ?? error);
-    throw new FileError(`cannot read '${path}': ${why}`, path);
+    throw readFailure(path, error);
+  } finally {
+    if (fd !== null) closeSync(fd);
+  }
+}
+
+/** The FileError for what opening or reading `path` threw, naming the path. */
+function readFailure(path: string, error: unknown): FileError {
+  if (error instanceof FileError) return error;
+  const code = (error as NodeJS.ErrnoException).code;
+  if (code === 'EISDIR') return new FileError(`'${path}' is a folder, not a capture file`, path);
+  const why = code === 'ENOENT' ? 'no such file' : code === 'EACCES' ? 'permission denied' : String(code ?? error);
+  return new FileError(`cannot read '${path}': ${why}`, path);
+}
+
+/**
+ * Reads a file as readFileBytes does (the same refusals and messages, the size it had when opened, or up to its end
+ * when that is 0), but in pieces of PIECE_BYTES into one reused buffer: `open` gets the file's size and gives what
+ * takes each piece, valid only during that call. What they throw passes through. Returns the bytes read.
+ */
+function readFileInPieces(path: string, open: (size: number) => (piece: Uint8Array) => void): number {
+  let fd: number | null = null;
+  try {
+    let size: number;
+    try {
+      fd = openSync(path, OPEN_FLAGS);
+      const stats = fstatSync(fd);
+      refuseUnreadable(path, stats);
+      size = stats.size;
+    } catch (error) {
+      throw readFailure(path, error);
+    }
+    const take = open(size);
+    const buffer = Buffer.allocUnsafe(size > 0 ? Math.min(size, PIECE_BYTES) : PIECE_BYTES);
+    let done = 0;
+    for (;;) {
+      const wanted = size > 0 ? Math.min(buffer.length, size - done) : buffer.length;
+      let n = 0;
+      try {
+        n = wanted > 0 ? readSync(fd, buffer, 0, wanted, null) : 0;
+      } catch (error) {
+        throw readFailure(path, error);
+      }
+      if (n === 0) return done;
+      done += n;
+      take(buffer.subarray(0, n));
+    }
   } finally {
     if (fd !== null) closeSync(fd);
   }
@@ -104,18 +151,21 @@ export function decodeUtf8(bytes: Uint8Array): string {
   return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString('utf8');
 }
 
+/** Reads a capture file in pieces (never whole: see PIECE_BYTES), hashing each as it is parsed. */
 export function loadCapture(
   path: string,
   options: CaptureOptions & { channel?: string | number; cwd?: string } = {},
 ): LoadedCapture {
   const full = resolve(options.cwd ?? process.cwd(), path);
-  const bytes = readFileBytes(full);
-  const capture = parseCaptureFileBytes(bytes, options);
-  return {
-    path: full,
-    sha256: createHash('sha256').update(bytes).digest('hex'),
-    bytes: bytes.length,
-    capture,
-    channel: selectChannel(capture, options.channel),
-  };
+  const hash = createHash('sha256');
+  let reader!: CaptureFileReader;
+  const bytes = readFileInPieces(full, (size) => {
+    reader = createCaptureFileReader(options, size);
+    return (piece) => {
+      hash.update(piece);
+      reader.pushBytes(piece);
+    };
+  });
+  const capture = reader.finish();
+  return { path: full, sha256: hash.digest('hex'), bytes, capture, channel: selectChannel(capture, options.channel) };
 }
