@@ -25,12 +25,10 @@ function seconds(value: number): string {
   return formatEngineering(value, 's');
 }
 
-/** column x scale; a column already in seconds is copied natively (x 1 changes no value). */
-function scaled(column: Float64Array, scale: number): Float64Array {
-  if (scale === 1) return column.slice();
-  const out = new Float64Array(column.length);
-  for (let i = 0; i < out.length; i++) out[i] = column[i] * scale;
-  return out;
+/** column x scale, in place; a column already in seconds is left as it is (x 1 changes no value). */
+function scaleInPlace(column: Float64Array, scale: number): Float64Array {
+  if (scale !== 1) for (let i = 0; i < column.length; i++) column[i] = column[i] * scale;
+  return column;
 }
 
 function label(column: ColumnPlan): string {
@@ -65,7 +63,7 @@ function resolveFirstColumn(layout: Layout, store: StoredRows, lines: RowLines, 
 
 function columnAxis(index: number, layout: Layout, store: StoredRows, lines: RowLines, options: CaptureOptions, warnings: string[]): Axis {
   const column = layout.columns[index];
-  const time = scaled(store.column(index), column.scale);
+  const time = scaleInPlace(store.keep(index), column.scale);
   const problem = findOrderProblem(time);
   if (problem === null) return { time, order: null, interval: uniformInterval(time), leftOut: null };
   const line = lines.lineOf(problem.row);
@@ -104,14 +102,21 @@ function intervalAxis(layout: Layout, rows: number, warnings: string[], stamped:
   return { time: rebuildAxis(rows, interval.value, start), order: null, interval: interval.value, leftOut: null };
 }
 
-/** One channel: samples with both a time and a value, scaled to SI, with its clipping. */
-function buildChannel(column: ColumnPlan, values: Float64Array, axis: Axis): { channel: Channel; clipping: Clipping } {
+/** One channel (stored column c): samples with both a time and a value, scaled to SI, with its clipping. */
+function buildChannel(column: ColumnPlan, store: StoredRows, c: number, axis: Axis): { channel: Channel; clipping: Clipping } {
   const n = axis.time.length;
-  // Copy in one pass while every sample is usable (the usual case); filter only when one is not.
+  const values = store.column(c);
   let time = axis.time;
-  let out: Float64Array = new Float64Array(n);
-  if (copyWhileUsable(values, axis, column.scale, column.offset, out) < n) {
-    ({ time, values: out } = usableSamples(values, axis, column.scale, column.offset));
+  let out: Float64Array;
+  if (axis.order === null && !values.includes(NaN) && !time.includes(NaN)) {
+    // Every sample usable, in file order (the usual case): the stored column becomes the channel, scaled in place.
+    out = valuesInPlace(store.keep(c), column.scale, column.offset);
+  } else {
+    // Copy in one pass while every sample is usable; filter only when one is not.
+    out = new Float64Array(n);
+    if (copyWhileUsable(values, axis, column.scale, column.offset, out) < n) {
+      ({ time, values: out } = usableSamples(values, axis, column.scale, column.offset));
+    }
   }
   const clipping = detectClipping(out);
   const channel = { name: column.name, unit: column.unit, time, values: out, clipped: clipping.clipped, dropped: n - out.length };
@@ -124,7 +129,6 @@ function buildChannel(column: ColumnPlan, values: Float64Array, axis: Axis): { c
 /** Fills out[k] with value x scale + offset until the first sample without a time or a value; returns how many. */
 function copyWhileUsable(values: Float64Array, axis: Axis, scale: number, offset: number, out: Float64Array): number {
   const { time, order } = axis;
-  if (order === null && scale === 1 && offset === 0 && !values.includes(NaN) && !time.includes(NaN)) return copyAsIs(values, out);
   let k = 0;
   for (; k < out.length; k++) {
     const v = values[order ? order[k] : k];
@@ -134,11 +138,11 @@ function copyWhileUsable(values: Float64Array, axis: Axis, scale: number, offset
   return k;
 }
 
-/** values x 1 + 0 for a channel every sample of which is usable, copied natively: of the values only -0 changes (to 0). */
-function copyAsIs(values: Float64Array, out: Float64Array): number {
-  out.set(values);
-  for (let i = out.indexOf(0); i >= 0; i = out.indexOf(0, i + 1)) out[i] = 0;
-  return out.length;
+/** values x scale + offset in place, for a channel every sample of which is usable; x 1 + 0 changes only -0 (to 0), found natively. */
+function valuesInPlace(values: Float64Array, scale: number, offset: number): Float64Array {
+  if (scale === 1 && offset === 0) for (let i = values.indexOf(0); i >= 0; i = values.indexOf(0, i + 1)) values[i] = 0;
+  else for (let i = 0; i < values.length; i++) values[i] = values[i] * scale + offset;
+  return values;
 }
 
 /** The samples with both a time and a value, the value x scale + offset. */
@@ -204,7 +208,7 @@ export function assembleCapture(
     const column = layout.columns[c];
     if (column.kind !== 'value') continue;
     const axis = axisOf(column);
-    const { channel, clipping } = buildChannel(column, store.column(c), axis);
+    const { channel, clipping } = buildChannel(column, store, c, axis);
     const usable = channel.values.length;
     if (usable < MIN_SAMPLES) {
       warnings.push(`channel '${channel.name}' has only ${usable} usable sample(s) and was left out`);

@@ -78,4 +78,9 @@ export class ColumnStore {
   column(c: number): Float64Array {
     return this.columns[c].subarray(0, this.length);
   }
+
+  /** Column c for a capture to keep and change in place: its rows as they are stored (the store is done with). */
+  keep(c: number): Float64Array {
+    return this.column(c);
+  }
 }

@@ -14,6 +14,11 @@ export interface RowSpan {
 export interface StoredRows {
   readonly length: number;
   column(c: number): Float64Array;
+  /**
+   * Column c's rows for the capture to keep, which may be changed in place: the stored rows themselves where they are
+   * all the column holds (its room beyond them is never touched), else a copy. Column c is not read again after.
+   */
+  keep(c: number): Float64Array;
 }
 
 /** The file line of each stored row (a LineMap, or a segment's view of one). */
@@ -91,9 +96,14 @@ export function chooseSegment(spans: RowSpan[] | null, rows: number, asked: numb
   return { span: all[asked - 1], index: asked - 1 };
 }
 
-/** The rows of one span, as the assembler reads a whole table. */
+/** The rows of one span, as the assembler reads a whole table; a segment's column is kept as a copy, not with the others around it. */
 export function rowsOfSpan(rows: StoredRows, span: RowSpan): StoredRows {
-  return { length: span.end - span.start, column: (c) => rows.column(c).subarray(span.start, span.end) };
+  const whole = span.start === 0 && span.end === rows.length;
+  return {
+    length: span.end - span.start,
+    column: (c) => rows.column(c).subarray(span.start, span.end),
+    keep: (c) => (whole ? rows.keep(c) : rows.column(c).slice(span.start, span.end)),
+  };
 }
 
 /** The file lines of one span's rows. */
