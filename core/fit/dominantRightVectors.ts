@@ -41,14 +41,14 @@ export function dominantRightVectors(a: readonly ArrayLike<number>[], count: num
   }
   const scale = largest > 0 ? largest : 1;
   // The scaled matrix, row-major; row k keeps right reflector k's vector right of the superdiagonal.
-  const x = new Float64Array(m * n);
+  const x = scratchMatrix(m * n);
   for (let i = 0; i < m; i++) for (let j = 0; j < n; j++) x[i * n + j] = a[i][j] / scale;
   const d = new Float64Array(n);
   const e = new Float64Array(Math.max(n - 1, 0));
   const rightTau = bidiagonalize(x, m, n, d, e);
 
   // About n^2 rotations in all (two steps a value, each through half the matrix on average).
-  const rotations = new RotationLog(Math.max(n * n, 1));
+  const rotations = scratchRotations(Math.max(n * n, 1));
   if (!diagonalize(d, e, rotations)) return null;
 
   const order = Array.from({ length: n }, (_, k) => k).sort((p, q) => Math.abs(d[q]) - Math.abs(d[p]));
@@ -142,6 +142,30 @@ function applyRightReflectors(x: Float64Array, n: number, tau: Float64Array, col
   }
 }
 
+/**
+ * The matrix and the rotation log are kept from one call to the next (a thread runs one decomposition at a
+ * time): the search's pencils are thousands of small matrices, and a fresh matrix and log for each, the log
+ * often grown by copying, were a tenth of a batch's garbage. Larger ones than this many values are not kept.
+ */
+const MAX_KEPT_VALUES = 1 << 18;
+let keptMatrix = new Float64Array(0);
+let keptRotations: RotationLog | null = null;
+
+/** A matrix of `size` values to overwrite. */
+function scratchMatrix(size: number): Float64Array {
+  if (size > MAX_KEPT_VALUES) return new Float64Array(size);
+  if (keptMatrix.length < size) keptMatrix = new Float64Array(size);
+  return keptMatrix.subarray(0, size);
+}
+
+/** An empty rotation log with room for `capacity` rotations. */
+function scratchRotations(capacity: number): RotationLog {
+  if (capacity > MAX_KEPT_VALUES) return new RotationLog(capacity);
+  if (!keptRotations || keptRotations.capacity < capacity) keptRotations = new RotationLog(capacity);
+  keptRotations.clear();
+  return keptRotations;
+}
+
 /** Right rotations applied to V: columns (p, q) <- (c v_p + s v_q, -s v_p + c v_q), in order. */
 class RotationLog {
   private count = 0;
@@ -151,6 +175,14 @@ class RotationLog {
   constructor(capacity: number) {
     this.pairs = new Int32Array(2 * capacity);
     this.cs = new Float64Array(2 * capacity);
+  }
+
+  get capacity(): number {
+    return this.cs.length / 2;
+  }
+
+  clear(): void {
+    this.count = 0;
   }
 
   push(p: number, q: number, c: number, s: number): void {
@@ -185,22 +217,26 @@ class RotationLog {
 
 /** Below this (or above its inverse) y^2 + z^2 may underflow (overflow): such rotations take Math.hypot, which is slow. */
 const SQUARE_SAFE = 1e-150;
-/** The last rotation's cosine and sine, set by givens (no array a call: a step makes thousands). */
-let cosine = 1;
-let sine = 0;
+/**
+ * The last rotation's cosine and sine, set by givens: in a typed array, because a module variable given a
+ * fraction holds a fresh heap number each time (no array a call either: a step makes thousands).
+ */
+const rotation = new Float64Array([1, 0]);
+const COSINE = 0;
+const SINE = 1;
 
-/** r = hypot(y, z), with cosine and sine set so that c y + s z = r and -s y + c z = 0. */
+/** r = hypot(y, z), with the rotation's cosine and sine set so that c y + s z = r and -s y + c z = 0. */
 function givens(y: number, z: number): number {
   if (z === 0) {
-    cosine = 1;
-    sine = 0;
+    rotation[COSINE] = 1;
+    rotation[SINE] = 0;
     return y;
   }
   let r = Math.sqrt(y * y + z * z);
   if (!(r > SQUARE_SAFE && r < 1 / SQUARE_SAFE)) r = Math.hypot(y, z);
   const inverse = 1 / r;
-  cosine = y * inverse;
-  sine = z * inverse;
+  rotation[COSINE] = y * inverse;
+  rotation[SINE] = z * inverse;
   return r;
 }
 
@@ -236,8 +272,8 @@ function zeroRow(d: Float64Array, e: Float64Array, i: number, hi: number): void 
   e[i] = 0;
   for (let j = i + 1; j <= hi && f !== 0; j++) {
     d[j] = givens(d[j], f);
-    const c = cosine;
-    const s = sine;
+    const c = rotation[COSINE];
+    const s = rotation[SINE];
     if (j < hi) {
       f = -s * e[j];
       e[j] = c * e[j];
@@ -252,8 +288,8 @@ function zeroColumn(d: Float64Array, e: Float64Array, lo: number, hi: number, ro
   e[hi - 1] = 0;
   for (let j = hi - 1; j >= lo && f !== 0; j--) {
     d[j] = givens(d[j], f);
-    const c = cosine;
-    const s = sine;
+    const c = rotation[COSINE];
+    const s = rotation[SINE];
     rotations.push(j, hi, c, s);
     if (j > lo) {
       f = -s * e[j - 1];
@@ -277,8 +313,8 @@ function golubKahanStep(d: Float64Array, e: Float64Array, lo: number, hi: number
   for (let k = lo; k < hi; k++) {
     // Right rotation of columns k, k+1: clears the bulge z above (k-1, k+1), leaves one below at (k+1, k).
     const r = givens(y, z);
-    let c = cosine;
-    let s = sine;
+    let c = rotation[COSINE];
+    let s = rotation[SINE];
     if (k > lo) e[k - 1] = r;
     rotations.push(k, k + 1, c, s);
     const dk = c * d[k] + s * e[k];
@@ -287,8 +323,8 @@ function golubKahanStep(d: Float64Array, e: Float64Array, lo: number, hi: number
     d[k + 1] = c * d[k + 1];
     // Left rotation of rows k, k+1: clears it, leaves one at (k, k+2).
     d[k] = givens(dk, below);
-    c = cosine;
-    s = sine;
+    c = rotation[COSINE];
+    s = rotation[SINE];
     const ek = e[k];
     e[k] = c * ek + s * d[k + 1];
     d[k + 1] = -s * ek + c * d[k + 1];
