@@ -190,13 +190,16 @@ function periodMean(mean: Float64Array, from: number, count: number): number {
 function noiseModel(values: ArrayLike<number>): { sigma: number; independentShare: number } {
   const fromDifferences = estimateNoise(values);
   const stretch = Math.max(NOISE_STRETCH, Math.floor(values.length / 32));
+  const headLength = Math.max(HEAD_MIN, Math.floor(values.length * HEAD_SHARE));
+  if (stretch > values.length) return { sigma: fromDifferences, independentShare: 1 };
+  // One room holds each stretch's copy, then the head's: fresh memory costs its first touch, and a copy each would add up to the record.
+  const room = new Float64Array(Math.max(stretch, Math.min(headLength, values.length)));
   const spreads: number[] = [];
   for (let from = 0; from + stretch <= values.length; from += stretch) {
-    spreads.push(robustSpread(stretchOf(values, from, from + stretch)));
+    spreads.push(robustSpread(stretchOf(values, from, from + stretch), room));
   }
-  if (spreads.length === 0) return { sigma: fromDifferences, independentShare: 1 };
   // The record's head (a pre-trigger stretch) is quiet where a train rings throughout the rest.
-  const head = robustSpread(stretchOf(values, 0, Math.max(HEAD_MIN, Math.floor(values.length * HEAD_SHARE))));
+  const head = robustSpread(stretchOf(values, 0, headLength), room);
   spreads.sort((a, b) => a - b);
   const quiet = Math.min(head, spreads[Math.floor(spreads.length * QUIET_QUANTILE)]);
   const sigma = Math.max(fromDifferences, Math.min(quiet, QUIET_NOISE_CAP * fromDifferences));

@@ -2,7 +2,14 @@
 
 /** Median of a copy of the values (NaN for an empty list), by selection: the sorted median's value in linear time. */
 export function median(values: ArrayLike<number>): number {
-  return medianInPlace(Float64Array.from(values));
+  return medianInPlace(copyOf(values, new Float64Array(values.length)));
+}
+
+/** The values copied into the start of `room` (a block copy from a typed array; Float64Array.from walks an iterator). */
+function copyOf(values: ArrayLike<number>, room: Float64Array): Float64Array {
+  const copy = room.subarray(0, values.length);
+  copy.set(values);
+  return copy;
 }
 
 /** The median of values the caller no longer needs, which are rearranged (NaN for an empty list). */
@@ -98,7 +105,8 @@ export function quantisationStep(values: ArrayLike<number>, limit = 4096): numbe
     if (d > resolution) steps[count++] = d;
   }
   if (count === 0) return 0;
-  const smallest = steps.subarray(0, count).sort()[0];
+  let smallest = Infinity;
+  for (let i = 0; i < count; i++) if (steps[i] < smallest) smallest = steps[i];
   // Accept only when most steps are near-integer multiples of the smallest one.
   let onGrid = 0;
   for (let i = 0; i < count; i++) {
@@ -132,11 +140,13 @@ export function estimateNoiseOfMeans(values: ArrayLike<number>): number {
 /** White noise's standard deviation from the MAD of the differences of `order` 1 or 2 over [start, end), at most 20000 of them. */
 function differenceNoise(values: ArrayLike<number>, start: number, end: number, order: 1 | 2): number {
   const stride = Math.max(1, Math.floor((end - start) / 20000));
-  const diffs: number[] = [];
-  if (order === 1) for (let i = start + 1; i < end; i += stride) diffs.push(Math.abs(values[i] - values[i - 1]));
-  else for (let i = start + 1; i < end - 1; i += stride) diffs.push(Math.abs(values[i + 1] - 2 * values[i] + values[i - 1]));
+  const last = order === 1 ? end : end - 1;
+  const diffs = new Float64Array(Math.max(0, Math.ceil((last - start - 1) / stride)));
+  let count = 0;
+  if (order === 1) for (let i = start + 1; i < last; i += stride) diffs[count++] = Math.abs(values[i] - values[i - 1]);
+  else for (let i = start + 1; i < last; i += stride) diffs[count++] = Math.abs(values[i + 1] - 2 * values[i] + values[i - 1]);
   // The variance of a difference of white noise: 2 sigma^2 (first), 6 sigma^2 (second).
-  return median(diffs) / (0.6745 * (order === 1 ? Math.SQRT2 : Math.sqrt(6)));
+  return medianInPlace(diffs) / (0.6745 * (order === 1 ? Math.SQRT2 : Math.sqrt(6)));
 }
 
 /** q / sqrt(12) for a record on a grid of step q (0 off a grid): the noise a quantised record has at least. */
@@ -157,12 +167,16 @@ const HEAD_NOISE_CAP = 4;
 /** Below this many times the difference estimate, a head's spread is sampling error (about 2 sd for 16 white samples). */
 const HEAD_NOISE_GATE = 1.5;
 
-/** 1.4826 times the median absolute deviation from the median: the standard deviation of normal samples, robustly. */
-export function robustSpread(values: ArrayLike<number>): number {
-  const centre = median(values);
-  const deviations = new Float64Array(values.length);
-  for (let i = 0; i < values.length; i++) deviations[i] = Math.abs(values[i] - centre);
-  return 1.4826 * medianInPlace(deviations);
+/**
+ * 1.4826 times the median absolute deviation from the median: the standard deviation of normal samples, robustly.
+ * `room` holds the one copy it works on (a caller reading many stretches passes the same room to each): a median
+ * depends only on which values there are, so the deviations overwrite the copy the selection left rearranged.
+ */
+export function robustSpread(values: ArrayLike<number>, room = new Float64Array(values.length)): number {
+  const copy = copyOf(values, room);
+  const centre = medianInPlace(copy);
+  for (let i = 0; i < copy.length; i++) copy[i] = Math.abs(copy[i] - centre);
+  return 1.4826 * medianInPlace(copy);
 }
 
 /**

@@ -45,4 +45,20 @@ describe('median by selection', () => {
     // median 3, deviations 2 1 0 1 97: their median is 1.
     expect(robustSpread(values)).toBeCloseTo(1.4826, 12);
   });
+
+  it('robustSpread gives exactly the sorted definition, in a room of its own or one shared by longer stretches before', () => {
+    const room = new Float64Array(5_000).fill(7);
+    for (const [name, make] of Object.entries(shapes)) {
+      for (const n of [1, 2, 5, 16, 1001, 4096]) {
+        const values = Float64Array.from(make(n));
+        const untouched = Float64Array.from(values);
+        const centre = sortedMedian(values);
+        const definition = 1.4826 * sortedMedian(values.map((v) => Math.abs(v - centre)));
+        const same = (x: number) => Object.is(x, definition) || x === definition;
+        expect(same(robustSpread(values)), name).toBe(true);
+        expect(same(robustSpread(values, room)), name).toBe(true);
+        expect(values).toEqual(untouched);
+      }
+    }
+  });
 });
