@@ -6,6 +6,7 @@ import { estimateNoise, median } from './noise';
 import { FitInputError } from './fitInputError';
 
 export interface FitSet {
+  /** The times and values fitted: views of the trace's own when they are its unbroken run (read, never written). */
   time: Float64Array;
   values: Float64Array;
   /** Median sample interval of the set, s. */
@@ -43,32 +44,31 @@ export function prepareFitSet(trace: Trace, window: { start?: number; end?: numb
   const start = window.start ?? -Infinity;
   const end = window.end ?? Infinity;
   if (start >= end) throw new FitInputError('window', `the fit window starts (${start} s) at or after its end (${end} s)`);
-  // Two passes over the trace (count, then copy) so that a long record is never held as a list of indices.
   const usable = (i: number) => time[i] >= start && time[i] <= end && Number.isFinite(values[i]) && Number.isFinite(time[i]);
+  // The samples kept are counted, with the range of their values and whether they form one unbroken run.
   let count = 0;
   let clippedCount = 0;
-  for (let i = 0; i < time.length; i++) {
-    if (!usable(i)) continue;
-    if (clipped && clipped[i]) clippedCount++;
-    else count++;
-  }
-  let t: Float64Array = new Float64Array(count);
-  let y: Float64Array = new Float64Array(count);
-  // Where a left-out sample breaks the run of consecutive samples (a block mean must not straddle it).
-  const gapBefore = new Uint8Array(count);
-  // The range of the values kept, read while copying them (a long record is passed over as few times as possible).
+  let first = -1;
+  let last = -1;
   let lo = Infinity;
   let hi = -Infinity;
-  for (let i = 0, j = 0, last = -2; i < time.length; i++) {
-    if (!usable(i) || (clipped && clipped[i])) continue;
-    gapBefore[j] = i === last + 1 ? 0 : 1;
+  for (let i = 0; i < time.length; i++) {
+    if (!usable(i)) continue;
+    if (clipped && clipped[i]) {
+      clippedCount++;
+      continue;
+    }
+    if (first < 0) first = i;
     last = i;
+    count++;
     const v = values[i];
     if (v < lo) lo = v;
     if (v > hi) hi = v;
-    t[j] = time[i];
-    y[j++] = v;
   }
+  // An unbroken run is read in place: a copy of a long record would cost the first touch of as much fresh memory.
+  const kept = count === last - first + 1 ? { t: time.subarray(first, last + 1), y: values.subarray(first, last + 1), gapBefore: null } : keptSamples(trace, usable, count);
+  let t: Float64Array = kept.t;
+  let y: Float64Array = kept.y;
   const warnings: string[] = [];
   if (clippedCount > 0) warnings.push(`${clippedCount} clipped samples were left out of the fit`);
   const spacing: number[] = [];
@@ -81,7 +81,7 @@ export function prepareFitSet(trace: Trace, window: { start?: number; end?: numb
     const ringPeriod = roughPeriodSamples(y, hi - lo);
     const factor = Math.max(1, Math.min(Math.ceil(t.length / BLOCK_MEANS_TARGET), Math.floor(ringPeriod * BLOCK_PER_PERIOD)));
     if (factor > 1) {
-      [t, y] = blockAverage(t, y, gapBefore, factor);
+      [t, y] = blockAverage(t, y, kept.gapBefore, factor);
       [lo, hi] = extremes(y);
       used = t.length * factor;
       decimation = {
@@ -142,10 +142,29 @@ function roughPeriodSamples(y: Float64Array, range: number): number {
 }
 
 /**
- * Means of `factor` consecutive samples. A block is restarted after a gap (left-out samples), and the
- * partial block before a gap is dropped: the model is averaged over a whole, unbroken block.
+ * Copies of the kept samples (a long record is never held as a list of indices), and where a left-out sample
+ * breaks their run (1 before the first sample after a gap): a block mean must not straddle it.
  */
-function blockAverage(t: Float64Array, y: Float64Array, gapBefore: Uint8Array, factor: number): [Float64Array, Float64Array] {
+function keptSamples(trace: Trace, usable: (i: number) => boolean, count: number): { t: Float64Array; y: Float64Array; gapBefore: Uint8Array } {
+  const { time, values, clipped } = trace;
+  const t = new Float64Array(count);
+  const y = new Float64Array(count);
+  const gapBefore = new Uint8Array(count);
+  for (let i = 0, j = 0, last = -2; i < time.length; i++) {
+    if (!usable(i) || (clipped && clipped[i])) continue;
+    gapBefore[j] = i === last + 1 ? 0 : 1;
+    last = i;
+    t[j] = time[i];
+    y[j++] = values[i];
+  }
+  return { t, y, gapBefore };
+}
+
+/**
+ * Means of `factor` consecutive samples. A block is restarted after a gap (left-out samples; `gapBefore` null:
+ * none), and the partial block before a gap is dropped: the model is averaged over a whole, unbroken block.
+ */
+function blockAverage(t: Float64Array, y: Float64Array, gapBefore: Uint8Array | null, factor: number): [Float64Array, Float64Array] {
   const tb = new Float64Array(Math.floor(t.length / factor));
   const yb = new Float64Array(tb.length);
   let blocks = 0;
@@ -153,7 +172,7 @@ function blockAverage(t: Float64Array, y: Float64Array, gapBefore: Uint8Array, f
   let st = 0;
   let sy = 0;
   for (let i = 0; i < t.length; i++) {
-    if (gapBefore[i]) filled = st = sy = 0;
+    if (gapBefore && gapBefore[i]) filled = st = sy = 0;
     st += t[i];
     sy += y[i];
     if (++filled === factor) {

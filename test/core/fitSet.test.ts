@@ -48,6 +48,24 @@ describe('prepareFitSet', () => {
     expect(fast.time.length).toBe(3_000);
   });
 
+  it('averages an unbroken run inside the window from its first sample, each block mean exactly the mean of its samples', () => {
+    const t = { ...trace([]), clipped: undefined };
+    const set = prepareFitSet(t, { start: 1_234.5 * DT, end: 29_000 * DT });
+    const factor = set.decimation?.factor ?? 1;
+    expect(factor).toBeGreaterThan(1);
+    expect(set.time.length).toBe(Math.floor((29_000 - 1_235 + 1) / factor));
+    for (let k = 0; k < set.time.length; k++) {
+      let sumT = 0;
+      let sumY = 0;
+      for (let i = 1_235 + k * factor; i < 1_235 + (k + 1) * factor; i++) {
+        sumT += t.time[i];
+        sumY += t.values[i];
+      }
+      expect(set.time[k]).toBe(sumT / factor);
+      expect(set.values[k]).toBe(sumY / factor);
+    }
+  });
+
   it('keeps every sample of a record of up to 3000', () => {
     const set = prepareFitSet({ ...trace([]), clipped: undefined }, { end: 2_999 * DT });
     expect(set.decimation).toBeNull();
