@@ -81,7 +81,7 @@ export function transitionMetrics(
     while (start < n - 1 && time[start] < reference.eventTime) start++;
   }
   // Every reader below starts at the sample before the event's or later.
-  const d = normalised(values, levels.initial, amplitude, Math.max(start, 1) - 1);
+  const d: StepFraction = { values, initial: levels.initial, amplitude };
 
   const i50 = firstRisingCrossing(d, 0.5, start, n);
   if (i50 === null) {
@@ -104,9 +104,9 @@ export function transitionMetrics(
     result.undershoot = 0;
   } else {
     const { peak, trough } = extremes;
-    result.overshoot = Math.max(0, d[peak] - 1) * 100;
-    result.undershoot = Math.max(0, 1 - d[trough]) * 100;
-    if (d[peak] > 1) {
+    result.overshoot = Math.max(0, fractionAt(d, peak) - 1) * 100;
+    result.undershoot = Math.max(0, 1 - fractionAt(d, trough)) * 100;
+    if (fractionAt(d, peak) > 1) {
       result.peakInstant = time[peak];
       if (reference?.eventTime !== undefined) result.peakTime = time[peak] - reference.eventTime;
     }
@@ -127,68 +127,105 @@ export function transitionMetrics(
 }
 
 /**
- * d = (value - initial) / amplitude from sample `from` on (zero before it): 0 at the initial state, 1 at the final one,
- * whichever way the step goes. Each pass over the samples is a small function of its own, so each is optimised on
- * what it alone has run.
+ * The samples as fractions of the step, d = (value - initial) / amplitude: 0 at the initial state, 1 at the final one,
+ * whichever way the step goes. Computed where read, inline in the passes: a stored copy of a long record would cost
+ * the first touch of as much fresh memory. Each pass over the samples is a small function of its own, so each is
+ * optimised on what it alone has run.
  */
-function normalised(values: ArrayLike<number>, initial: number, amplitude: number, from: number): Float64Array {
-  const d = new Float64Array(values.length);
-  for (let i = from; i < d.length; i++) d[i] = (values[i] - initial) / amplitude;
-  return d;
+interface StepFraction {
+  values: ArrayLike<number>;
+  initial: number;
+  amplitude: number;
+}
+
+/** d at sample i. */
+function fractionAt(d: StepFraction, i: number): number {
+  return (d.values[i] - d.initial) / d.amplitude;
 }
 
 /** From sample i100 on: the first largest and first smallest sample, and the largest |d - 1|. */
-function extremesFrom(d: Float64Array, i100: number): { peak: number; trough: number; largest: number } {
+function extremesFrom(d: StepFraction, i100: number): { peak: number; trough: number; largest: number } {
+  const { values, initial, amplitude } = d;
   let peak = i100;
   let trough = i100;
+  let high = fractionAt(d, i100);
+  let low = high;
   let largest = 0;
-  for (let i = i100; i < d.length; i++) {
-    if (d[i] > d[peak]) peak = i;
-    if (d[i] < d[trough]) trough = i;
-    largest = Math.max(largest, Math.abs(d[i] - 1));
+  for (let i = i100; i < values.length; i++) {
+    const di = (values[i] - initial) / amplitude;
+    if (di > high) {
+      peak = i;
+      high = di;
+    }
+    if (di < low) {
+      trough = i;
+      low = di;
+    }
+    largest = Math.max(largest, Math.abs(di - 1));
   }
   return { peak, trough, largest };
 }
 
 /** RMS of d - 1 over the last fifth of the record (not before sample from): the settled noise. */
-function settledNoise(d: Float64Array, from: number): number {
-  const start = Math.max(from, Math.floor(0.8 * d.length));
+function settledNoise(d: StepFraction, from: number): number {
+  const { values, initial, amplitude } = d;
+  const n = values.length;
+  const start = Math.max(from, Math.floor(0.8 * n));
   let squares = 0;
-  for (let i = start; i < d.length; i++) squares += (d[i] - 1) ** 2;
-  return Math.sqrt(squares / Math.max(1, d.length - start));
+  for (let i = start; i < n; i++) squares += ((values[i] - initial) / amplitude - 1) ** 2;
+  return Math.sqrt(squares / Math.max(1, n - start));
 }
 
 /** Index i (> from) of the first step d[i-1] < level <= d[i]. */
-function firstRisingCrossing(d: Float64Array, level: number, from: number, to: number): number | null {
-  for (let i = Math.max(from, 1); i < to; i++) if (d[i - 1] < level && d[i] >= level) return i;
+function firstRisingCrossing(d: StepFraction, level: number, from: number, to: number): number | null {
+  const { values, initial, amplitude } = d;
+  const first = Math.max(from, 1);
+  if (first >= to) return null;
+  let before = fractionAt(d, first - 1);
+  for (let i = first; i < to; i++) {
+    const di = (values[i] - initial) / amplitude;
+    if (before < level && di >= level) return i;
+    before = di;
+  }
   return null;
 }
 
 /** Index i (<= to) of the last step d[i-1] < level <= d[i] at or after from. */
-function lastRisingCrossing(d: Float64Array, level: number, from: number, to: number): number | null {
-  for (let i = to; i >= Math.max(from, 1); i--) if (d[i - 1] < level && d[i] >= level) return i;
+function lastRisingCrossing(d: StepFraction, level: number, from: number, to: number): number | null {
+  const { values, initial, amplitude } = d;
+  const last = Math.max(from, 1);
+  if (to < last) return null;
+  let after = fractionAt(d, to);
+  for (let i = to; i >= last; i--) {
+    const before = (values[i - 1] - initial) / amplitude;
+    if (before < level && after >= level) return i;
+    after = before;
+  }
   return null;
 }
 
 /** Linear interpolation of the instant where d passes level between samples i - 1 and i. */
-function crossingTime(time: ArrayLike<number>, d: Float64Array, i: number, level: number): number {
-  const f = (level - d[i - 1]) / (d[i] - d[i - 1]);
+function crossingTime(time: ArrayLike<number>, d: StepFraction, i: number, level: number): number {
+  const before = fractionAt(d, i - 1);
+  const f = (level - before) / (fractionAt(d, i) - before);
   return time[i - 1] + f * (time[i] - time[i - 1]);
 }
 
-function settlingTime(time: ArrayLike<number>, d: Float64Array, i50: number, t50: number, band: number): number | null {
-  const n = d.length;
+function settlingTime(time: ArrayLike<number>, d: StepFraction, i50: number, t50: number, band: number): number | null {
+  const { values, initial, amplitude } = d;
+  const n = values.length;
   let last = -1;
   for (let i = n - 1; i >= i50; i--) {
-    if (Math.abs(d[i] - 1) > band) {
+    if (Math.abs((values[i] - initial) / amplitude - 1) > band) {
       last = i;
       break;
     }
   }
   if (last === n - 1) return null;
   if (last < 0) return 0;
-  const target = d[last] > 1 ? 1 + band : 1 - band;
-  const f = (target - d[last]) / (d[last + 1] - d[last]);
+  const atLast = fractionAt(d, last);
+  const target = atLast > 1 ? 1 + band : 1 - band;
+  const f = (target - atLast) / (fractionAt(d, last + 1) - atLast);
   return time[last] + f * (time[last + 1] - time[last]) - t50;
 }
 
@@ -200,8 +237,9 @@ function settlingTime(time: ArrayLike<number>, d: Float64Array, i50: number, t50
  * expected largest of N Gaussian samples), whichever is larger;
  * an excursion under twice the noise peak is not taken for a ring. `largest` is max |d - 1| from i100 on.
  */
-function ringFrequency(time: ArrayLike<number>, d: Float64Array, i100: number, settled: number, largest: number): number | null {
-  const n = d.length;
+function ringFrequency(time: ArrayLike<number>, d: StepFraction, i100: number, settled: number, largest: number): number | null {
+  const { values, initial, amplitude } = d;
+  const n = values.length;
   const noisePeak = settled * Math.sqrt(2 * Math.log(n));
   if (largest < 2 * noisePeak) return null;
   const h = Math.max(CROSSING_HYSTERESIS * largest, noisePeak);
@@ -212,9 +250,9 @@ function ringFrequency(time: ArrayLike<number>, d: Float64Array, i100: number, s
   let firstChange = i100;
   let lastChange = i100;
   let lobe = largest;
-  let above = d[i100] - 1 >= 0;
+  let above = fractionAt(d, i100) - 1 >= 0;
   for (let i = i100 + 1; i < n; i++) {
-    const e = d[i] - 1;
+    const e = (values[i] - initial) / amplitude - 1;
     if (e >= 0 !== above) {
       above = !above;
       if (firstChange < 0) firstChange = i;
