@@ -46,11 +46,11 @@ const PEAK_HALF_PHASE = Math.PI / 6;
 /** The largest sample exceeding the parabola's peak by more than this many standard errors is flagged. */
 const LIFT_SIGMAS = 3;
 
-/** The samples measured, time ascending; `clipped` flags samples at an ADC rail (nonzero), whose values are not the waveform's. */
+/** The samples measured, time ascending; `clipped` flags samples at an ADC rail (1, else 0), whose values are not the waveform's. */
 export interface TransitionTrace {
   time: ArrayLike<number>;
   values: ArrayLike<number>;
-  clipped?: ArrayLike<number>;
+  clipped?: Uint8Array;
 }
 
 /**
@@ -101,11 +101,12 @@ export function summarizeTransitions(trace: TransitionTrace, fit: ResponseFit): 
   };
 }
 
-/** How many samples at or after the event are flagged as clipped. */
+/** How many samples at or after the event are flagged as clipped (indexOf() scans natively: most records hold none). */
 function clippedAfter(trace: TransitionTrace, eventTime: number): number {
-  if (!trace.clipped) return 0;
+  const { clipped, time } = trace;
+  if (!clipped) return 0;
   let count = 0;
-  for (let i = 0; i < trace.clipped.length; i++) if (trace.clipped[i] && trace.time[i] >= eventTime) count++;
+  for (let i = clipped.indexOf(1); i >= 0; i = clipped.indexOf(1, i + 1)) if (time[i] >= eventTime) count++;
   return count;
 }
 

@@ -39,7 +39,8 @@ function guardRails(
   sampleNoise: number,
 ): { set: FitSet; warning: string } | null {
   const { clipped, values, time } = trace;
-  if (!clipped) return null;
+  // indexOf() scans natively: most records hold no clipped sample (flags are 0 or 1, as the importer marks them).
+  if (!clipped || clipped.indexOf(1) < 0) return null;
   let top = -Infinity;
   let bottom = Infinity;
   let unclippedTop = -Infinity;
@@ -54,7 +55,7 @@ function guardRails(
   if (top === bottom) [top, bottom] = top >= unclippedTop ? [top, -Infinity] : [Infinity, bottom];
   const margin = RAIL_MARGIN * sampleNoise;
   const model = layoutValues(best.layout, best.values, t0Start, time);
-  const guard = Uint8Array.from(clipped);
+  const guard = clipped.slice();
   let added = 0;
   for (let i = 0; i < values.length; i++) {
     if (!guard[i] && (model[i] > top - margin || model[i] < bottom + margin)) {

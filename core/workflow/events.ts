@@ -78,7 +78,8 @@ function eventsOf(channel: Channel, window: { start?: number; end?: number }): {
   const { time, values } = channel;
   let first = 0;
   while (first < time.length && time[first] < (window.start ?? -Infinity)) first++;
-  let last = first;
+  // A channel's time axis increases strictly: without an end, every sample from the first on is inside.
+  let last = window.end === undefined ? time.length : first;
   while (last < time.length && time[last] <= (window.end ?? Infinity)) last++;
   return { first, ...findEventTrain(values.subarray(first, last)) };
 }
