@@ -6,7 +6,6 @@ import { MIN_FIT_SAMPLES, prepareFitSet, type FitSet } from './fitSet';
 import { layoutValues } from './responseModel';
 import { attemptT0, attemptValue, type Attempt } from './attempt';
 import { refine } from './refine';
-import { quantisationStep } from './noise';
 
 /** Samples whose fitted value lies within this many noise levels of a rail are left out. */
 const RAIL_MARGIN = 3;
@@ -87,22 +86,25 @@ const PILE_SHARE = 0.1;
  */
 const SPREAD_CODES = 0.5;
 
+/** The lowest and highest unclipped sample of the window, and the quantisation step of the first of them. */
+export interface KeptRange {
+  lo: number;
+  hi: number;
+  step: number;
+}
+
+/** How many of the first kept samples the range's quantisation step is read from (quantisationStep's own default). */
+export const STEP_SAMPLES = 4096;
+
 /**
  * How many samples of the record's head (`head`: the unclipped samples before the response surely runs)
- * sit at the record's highest or lowest value (`values`: every unclipped sample of the window) because
+ * sit at the record's highest or lowest value (`range`: of every unclipped sample of the window) because
  * the level before the event lies at or beyond a converter rail: those samples are censored, not a flat
  * pre-event stretch. 0 when the head is not at a rail. `noise` is the record's noise level.
  */
-export function railHeadCount(head: ArrayLike<number>, values: ArrayLike<number>, noise: number): number {
+export function railHeadCount(head: ArrayLike<number>, range: KeptRange, noise: number): number {
   if (head.length < MIN_RAIL_HEAD) return 0;
-  let lo = Infinity;
-  let hi = -Infinity;
-  for (let i = 0; i < values.length; i++) {
-    lo = Math.min(lo, values[i]);
-    hi = Math.max(hi, values[i]);
-  }
-  const step = quantisationStep(values);
-  return Math.max(pileAt(head, lo, 1, step, noise), pileAt(head, hi, -1, step, noise));
+  return Math.max(pileAt(head, range.lo, 1, range.step, noise), pileAt(head, range.hi, -1, range.step, noise));
 }
 
 /** Samples of the head on `rail` when they pile up there (inward: +1 above a bottom rail, -1 below a top one), else 0. */

@@ -3,7 +3,7 @@
 import type { Trace } from './trace';
 import { detectEvent, MIN_PRE_EVENT, type EventEstimate } from './eventDetection';
 import { firstSampleTime, MIN_FIT_SAMPLES, prepareFitSet, type FitSet } from './fitSet';
-import { railHeadCount } from './railGuard';
+import { railHeadCount, STEP_SAMPLES, type KeptRange } from './railGuard';
 import { attemptValue, type Attempt } from './attempt';
 import { refine } from './refine';
 import { LAYOUTS, layoutsFor, layoutValues } from './responseModel';
@@ -11,7 +11,7 @@ import { searchLayouts } from './layoutSearch';
 import { chooseByInformation, effectiveSamples, information } from './modelSelection';
 import type { RateCandidate } from './startingRates';
 import { FitInputError } from './fitInputError';
-import { estimateNoise, median } from './noise';
+import { estimateNoise, median, quantisationStep } from './noise';
 
 type FitWindow = { start?: number; end?: number };
 
@@ -43,8 +43,8 @@ export function locateResponse(trace: Trace, set: FitSet, window: FitWindow, noi
   const event = detectEvent(set.values, noise, step);
   if (event.responseFrom === 0) return { set, window, event, warnings: [] };
   const departure = firstSampleTime(set, event.responseFrom);
-  const { head, all } = unclippedValues(trace, window, departure);
-  const onRail = railHeadCount(head, all, noise);
+  const { head, range } = unclippedValues(trace, window, departure);
+  const onRail = railHeadCount(head, range, noise);
   if (onRail === 0) return { set, window, event, warnings: [] };
   const moved = setFrom(trace, window, departure);
   if (moved.set.time.length < MIN_FIT_SAMPLES) {
@@ -219,26 +219,34 @@ function setFrom(trace: Trace, window: FitWindow, start: number): { set: FitSet;
   return { set: prepareFitSet(trace, moved), window: moved };
 }
 
-/** The unclipped samples of the window, all of them and those before `end`, s. */
-function unclippedValues(trace: Trace, window: FitWindow, end: number): { head: Float64Array; all: Float64Array } {
+/**
+ * The unclipped samples of the window before `end` (s), and the range of all of them: the range needs only the
+ * extremes and the first STEP_SAMPLES values, so a long record is read in place, not copied.
+ */
+function unclippedValues(trace: Trace, window: FitWindow, end: number): { head: Float64Array; range: KeptRange } {
   const { time, values, clipped } = trace;
   const from = window.start ?? -Infinity;
   const to = window.end ?? Infinity;
   const kept = (i: number) => time[i] >= from && time[i] <= to && !(clipped && clipped[i]) && Number.isFinite(values[i]);
-  // Counted first, then copied: a long record is never held as a list of numbers, nor as an array longer than needed.
+  const opening = new Float64Array(STEP_SAMPLES);
+  let inOpening = 0;
   let inHead = 0;
-  let inAll = 0;
+  let lastInHead = -1;
+  let lo = Infinity;
+  let hi = -Infinity;
   for (let i = 0; i < time.length; i++) {
     if (!kept(i)) continue;
-    inAll++;
-    if (time[i] < end) inHead++;
+    const v = values[i];
+    lo = Math.min(lo, v);
+    hi = Math.max(hi, v);
+    if (inOpening < STEP_SAMPLES) opening[inOpening++] = v;
+    if (time[i] < end) {
+      inHead++;
+      lastInHead = i;
+    }
   }
+  // Counted first, then copied: the head is never held as a list of numbers, nor as an array longer than needed.
   const head = new Float64Array(inHead);
-  const all = new Float64Array(inAll);
-  for (let i = 0, h = 0, a = 0; i < time.length; i++) {
-    if (!kept(i)) continue;
-    all[a++] = values[i];
-    if (time[i] < end) head[h++] = values[i];
-  }
-  return { head, all };
+  for (let i = 0, h = 0; i <= lastInHead; i++) if (time[i] < end && kept(i)) head[h++] = values[i];
+  return { head, range: { lo, hi, step: quantisationStep(opening.subarray(0, inOpening), STEP_SAMPLES) } };
 }

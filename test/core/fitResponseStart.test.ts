@@ -4,7 +4,8 @@
 
 import { describe, expect, it } from 'vitest';
 import { fitResponse } from '../../core/fit/fitResponse';
-import { railHeadCount } from '../../core/fit/railGuard';
+import { railHeadCount, STEP_SAMPLES, type KeptRange } from '../../core/fit/railGuard';
+import { quantisationStep } from '../../core/fit/noise';
 import { createRandom } from '../../core/random';
 import { makeRecord, sampleCaptureTrace, type RecordSpec } from './trust/startRecords';
 
@@ -61,24 +62,25 @@ describe('a level before the event at a converter rail', () => {
 });
 
 describe('railHeadCount', () => {
+  const keptRangeOf = (values: number[]): KeptRange => ({ lo: Math.min(...values), hi: Math.max(...values), step: quantisationStep(values, STEP_SAMPLES) });
   const random = createRandom(77);
   const codes = (level: number, rms: number, n: number) => Array.from({ length: n }, () => Math.max(0, Math.round(level + rms * random.normal())));
   const response = Array.from({ length: 200 }, (_, i) => Math.round(40 + 10 * Math.sin(i / 5)));
 
   it('finds no rail in a level a few codes above the lowest value, nor in a noiseless flat one', () => {
     const head = codes(20, 0.4, 200);
-    expect(railHeadCount(head, [...head, ...response], 0.4)).toBe(0);
+    expect(railHeadCount(head, keptRangeOf([...head, ...response]), 0.4)).toBe(0);
     const flat = new Array(200).fill(20);
-    expect(railHeadCount(flat, [...flat, ...response], 0.2)).toBe(0);
+    expect(railHeadCount(flat, keptRangeOf([...flat, ...response]), 0.2)).toBe(0);
     // Noise of a fifth of a code: the level's code is the lowest value with a few samples one code above it.
     const quiet = [...new Array(197).fill(20), 21, 21, 21];
-    expect(railHeadCount(quiet, [...quiet, ...response], 0.2)).toBe(0);
+    expect(railHeadCount(quiet, keptRangeOf([...quiet, ...response]), 0.2)).toBe(0);
   });
 
   it('finds the samples piled up at the lowest code when the level sits on it or beyond it', () => {
     const atRail = codes(0, 2, 200);
-    expect(railHeadCount(atRail, [...atRail, ...response], 2)).toBe(atRail.filter((v) => v === 0).length);
+    expect(railHeadCount(atRail, keptRangeOf([...atRail, ...response]), 2)).toBe(atRail.filter((v) => v === 0).length);
     const beyond = new Array(200).fill(0);
-    expect(railHeadCount(beyond, [...beyond, ...response], 2)).toBe(200);
+    expect(railHeadCount(beyond, keptRangeOf([...beyond, ...response]), 2)).toBe(200);
   });
 });
