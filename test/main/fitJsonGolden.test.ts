@@ -18,7 +18,15 @@ const ADDED_FIELDS = ['modes', 'modelOrder', 'transitions', 'import', 'setupChec
  * trial Jacobian by forward differences) moves a small level or correlation up to about 3e-6 relative, a
  * millionth of its standard error; a change of method moves far more.
  */
-const ROUNDING = { relative: 1e-5, absolute: 1e-9 };
+const ROUNDING = 1e-5;
+/**
+ * The one absolute allowance: a correlation is a pure number no larger than 1, so one of 1e-9 is zero, and where
+ * the search stops a refinement that has reached another start's minimum, the solver's stopping point moves it by
+ * about that much (1.0e-9 between two otherwise orthogonal parameters of resonant-tank-coil-current). Every other
+ * number is compared relative to itself: an absolute allowance of 1e-9 would pass any capacitance in farads.
+ */
+const CORRELATION_ROUNDING = 1e-8;
+const CORRELATIONS = '$.correlation.';
 /**
  * Which of two stopping tests is met first at convergence ('chi^2 changed by 7e-14...', 'no step lowers
  * chi^2 any further') depends on those digits too: the message is left out, the status is compared.
@@ -29,7 +37,8 @@ const WORDING_OF_CONVERGENCE = '$.message';
 function firstDifference(actual: unknown, expected: unknown, path = '$'): string {
   if (path === WORDING_OF_CONVERGENCE) return '';
   if (typeof actual === 'number' && typeof expected === 'number') {
-    const tolerance = Math.max(ROUNDING.absolute, ROUNDING.relative * Math.max(Math.abs(actual), Math.abs(expected)));
+    const absolute = path.startsWith(CORRELATIONS) ? CORRELATION_ROUNDING : 0;
+    const tolerance = Math.max(absolute, ROUNDING * Math.max(Math.abs(actual), Math.abs(expected)));
     return Math.abs(actual - expected) <= tolerance ? '' : `${path}: ${actual} != ${expected}`;
   }
   if (typeof actual !== 'object' || typeof expected !== 'object' || actual === null || expected === null) {
