@@ -1,6 +1,6 @@
 // The linear part of the response (levels and amplitudes) by least squares for given alpha, omega0, t0.
 
-import { fillDampedBasis, type BlockAverage } from '../response/secondOrder';
+import { evenRunSteps, fillDampedBasis, type BlockAverage } from '../response/secondOrder';
 import { LAYOUTS, type ParameterLayout } from './responseModel';
 
 export interface LinearSolution {
@@ -14,12 +14,12 @@ export interface LinearSolution {
  * Solves the small normal equations after scaling them to unit diagonal, with Cholesky;
  * a vanishing pivot (a basis column the data cannot see) gives a zero coefficient.
  */
-function solveNormal(m: Float64Array, r: Float64Array, k: number): number[] {
-  const d = new Float64Array(k);
+function solveNormal({ m, r, d, l, dead, z }: Scratch, k: number): number[] {
   for (let i = 0; i < k; i++) d[i] = m[i * k + i] > 0 ? Math.sqrt(m[i * k + i]) : 1;
   // The Cholesky factor of the scaled matrix m[i][j] / (d[i] d[j]), row-major; a dead pivot's column stays zero.
-  const l = new Float64Array(k * k);
-  const dead = new Uint8Array(k);
+  l.fill(0);
+  dead.fill(0);
+  z.fill(0);
   for (let j = 0; j < k; j++) {
     let s = m[j * k + j] / (d[j] * d[j]);
     for (let p = 0; p < j; p++) s -= l[j * k + p] * l[j * k + p];
@@ -34,7 +34,6 @@ function solveNormal(m: Float64Array, r: Float64Array, k: number): number[] {
       l[i * k + j] = t / l[j * k + j];
     }
   }
-  const z = new Float64Array(k);
   for (let i = 0; i < k; i++) {
     if (dead[i]) continue;
     let s = r[i] / d[i];
@@ -52,6 +51,17 @@ function solveNormal(m: Float64Array, r: Float64Array, k: number): number[] {
   return x;
 }
 
+/** What one solve with k linear parameters works in: its k basis columns, the normal equations and their factor. */
+interface Scratch {
+  columns: readonly Float64Array[];
+  m: Float64Array;
+  r: Float64Array;
+  d: Float64Array;
+  l: Float64Array;
+  dead: Uint8Array;
+  z: Float64Array;
+}
+
 /** Scratch arrays for one time axis, reused across the many solves of a fit. */
 export class Workspace {
   readonly ec: Float64Array;
@@ -61,6 +71,11 @@ export class Workspace {
   readonly model: Float64Array;
   /** Basis columns of the linear part, as many as the largest layout solved so far needed. */
   private readonly columns: Float64Array[] = [];
+  /** The scratch of a solve with k linear parameters, at index k. */
+  private readonly scratches: Scratch[] = [];
+  /** The time axis the even runs were found for, and their steps (see evenRunSteps). */
+  private stepsTime: ArrayLike<number> | null = null;
+  private steps: Float64Array = new Float64Array(0);
   constructor(readonly length: number) {
     this.ec = new Float64Array(length);
     this.es = new Float64Array(length);
@@ -68,10 +83,31 @@ export class Workspace {
     this.model = new Float64Array(length);
   }
 
-  /** The first `count` basis columns. */
-  basisColumns(count: number): Float64Array[] {
+  /** The scratch of a solve with `count` linear parameters: the first `count` basis columns, always the same list. */
+  scratch(count: number): Scratch {
+    const kept = this.scratches[count];
+    if (kept) return kept;
     while (this.columns.length < count) this.columns.push(new Float64Array(this.length));
-    return this.columns.slice(0, count);
+    const made = {
+      columns: this.columns.slice(0, count),
+      m: new Float64Array(count * count),
+      r: new Float64Array(count),
+      d: new Float64Array(count),
+      l: new Float64Array(count * count),
+      dead: new Uint8Array(count),
+      z: new Float64Array(count),
+    };
+    this.scratches[count] = made;
+    return made;
+  }
+
+  /** The even runs of `time`, found once per time axis (a fit's axis does not change between its solves). */
+  runSteps(time: ArrayLike<number>): Float64Array {
+    if (this.stepsTime !== time) {
+      this.steps = evenRunSteps(time);
+      this.stepsTime = time;
+    }
+    return this.steps;
   }
 }
 
@@ -94,44 +130,69 @@ export function solveAmplitudes(
   const k = descriptor.linear.length;
   const n = time.length;
   const { ec, es, after, model } = workspace;
-  fillDampedBasis(alpha, omega0, t0, time, ec, es, block, after);
-  const columns = workspace.basisColumns(k);
+  const eventEnd = fillDampedBasis(alpha, omega0, t0, time, ec, es, block, after, workspace.runSteps(time));
+  const scratch = workspace.scratch(k);
+  const { columns } = scratch;
   descriptor.fillColumns(columns, alpha, ec, es);
-  mixPreLevel(columns, descriptor.preLevelColumn, after, n);
+  mixPreLevel(columns, descriptor.preLevelColumn, after, eventEnd);
   const skipBefore = descriptor.preLevelColumn === null;
-  const { m, r } = normalEquations(columns, values, n, after, skipBefore);
-  const coefficients = solveNormal(m, r, k);
+  normalEquations(columns, values, n, after, skipBefore, scratch.m, scratch.r);
+  const coefficients = solveNormal(scratch, k);
+  return { coefficients, sse: modelAndSse(columns, coefficients, values, n, after, skipBefore, model) };
+}
+
+/**
+ * The model values into `model` and their residual sum of squares (without the values with samples before t0 when
+ * skipBefore). Each value sums its terms in the order of the columns, starting from 0 (for the layouts' 2 to 4
+ * columns a loop of its own with them in local variables: the same sums in the same order).
+ */
+function modelAndSse(
+  columns: readonly Float64Array[],
+  x: readonly number[],
+  values: ArrayLike<number>,
+  n: number,
+  after: Float64Array,
+  skipBefore: boolean,
+  model: Float64Array,
+): number {
+  const k = columns.length;
+  const [c0, c1, c2, c3] = columns;
+  const [x0, x1, x2, x3] = x;
+  if (k === 2) for (let i = 0; i < n; i++) model[i] = 0 + c0[i] * x0 + c1[i] * x1;
+  else if (k === 3) for (let i = 0; i < n; i++) model[i] = 0 + c0[i] * x0 + c1[i] * x1 + c2[i] * x2;
+  else if (k === 4) for (let i = 0; i < n; i++) model[i] = 0 + c0[i] * x0 + c1[i] * x1 + c2[i] * x2 + c3[i] * x3;
+  else {
+    for (let i = 0; i < n; i++) {
+      let value = 0;
+      for (let p = 0; p < k; p++) value += columns[p][i] * x[p];
+      model[i] = value;
+    }
+  }
   let sse = 0;
   for (let i = 0; i < n; i++) {
-    // Each value sums its terms in the order of the columns.
-    let value = 0;
-    for (let p = 0; p < k; p++) value += columns[p][i] * coefficients[p];
-    model[i] = value;
     if (after[i] < 1 && skipBefore) continue;
-    const d = values[i] - value;
+    const d = values[i] - model[i];
     sse += d * d;
   }
-  return { coefficients, sse };
+  return sse;
 }
 
 /**
  * Turns the response basis into the basis at each value: the response row weighted by the share of the
  * value's samples at or after t0, plus the pre-event row (the level before the event) by the share before.
+ * Only values before eventEnd change (the share is 1 from there on: see fillDampedBasis).
  */
-function mixPreLevel(columns: readonly Float64Array[], preLevelColumn: number | null, after: Float64Array, n: number): void {
-  // Only values up to the last one with samples before t0 change (the share is 1 from the event's block on).
-  let end = n;
-  while (end > 0 && after[end - 1] === 1) end--;
-  for (const column of columns) for (let i = 0; i < end; i++) if (after[i] !== 1) column[i] *= after[i];
+function mixPreLevel(columns: readonly Float64Array[], preLevelColumn: number | null, after: Float64Array, eventEnd: number): void {
+  for (const column of columns) for (let i = 0; i < eventEnd; i++) if (after[i] !== 1) column[i] *= after[i];
   if (preLevelColumn === null) return;
   const level = columns[preLevelColumn];
-  for (let i = 0; i < end; i++) if (after[i] !== 1) level[i] += 1 - after[i];
+  for (let i = 0; i < eventEnd; i++) if (after[i] !== 1) level[i] += 1 - after[i];
 }
 
 /**
  * The normal equations m c = r of the basis columns against the values, over the first n values (without those
- * with samples before t0 when skipBefore), in one pass: every sum gathers its terms in the order of the values,
- * as a dot product per pair would.
+ * with samples before t0 when skipBefore), in one pass into m and r: every sum gathers its terms in the order of
+ * the values, as a dot product per pair would.
  */
 function normalEquations(
   columns: readonly Float64Array[],
@@ -139,17 +200,20 @@ function normalEquations(
   n: number,
   after: Float64Array,
   skipBefore: boolean,
-): { m: Float64Array; r: Float64Array } {
+  m: Float64Array,
+  r: Float64Array,
+): void {
   const k = columns.length;
-  const m = new Float64Array(k * k);
-  const r = new Float64Array(k);
   // The layouts have 2 to 4 linear parameters: their sums in local variables, one pass each (the same sums in the same order).
   if (k === 2) twoColumns(columns, values, n, after, skipBefore, m, r);
   else if (k === 3) threeColumns(columns, values, n, after, skipBefore, m, r);
   else if (k === 4) fourColumns(columns, values, n, after, skipBefore, m, r);
-  else anyColumns(columns, values, n, after, skipBefore, m, r);
+  else {
+    m.fill(0);
+    r.fill(0);
+    anyColumns(columns, values, n, after, skipBefore, m, r);
+  }
   for (let p = 0; p < k; p++) for (let q = 0; q < p; q++) m[p * k + q] = m[q * k + p];
-  return { m, r };
 }
 
 type Kernel = (columns: readonly Float64Array[], values: ArrayLike<number>, n: number, after: Float64Array, skipBefore: boolean, m: Float64Array, r: Float64Array) => void;

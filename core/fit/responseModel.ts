@@ -66,6 +66,7 @@ function defineLayout<const N extends string, const L extends string>(spec: Layo
   const names: string[] = [...spec.nonlinear, ...spec.linear];
   const index = Object.fromEntries(names.map((name, i) => [name, i])) as Record<N | L, number>;
   const preLevel = (spec.linear as readonly string[]).indexOf('yPre');
+  let named = {} as Record<L, Float64Array>;
   return {
     order: spec.order ?? 2,
     nonlinear: spec.nonlinear,
@@ -76,8 +77,9 @@ function defineLayout<const N extends string, const L extends string>(spec: Layo
     preLevelColumn: preLevel >= 0 ? preLevel : null,
     appliesTo: spec.appliesTo,
     fillColumns: (columns, alpha, ec, es) => {
-      const column = Object.fromEntries(spec.linear.map((name, i) => [name, columns[i]])) as Record<L, Float64Array>;
-      spec.fillColumns(column, alpha, ec, es);
+      // A solve's workspace hands the same columns every time: their map by name is made once for them.
+      if (!spec.linear.every((name, i) => named[name] === columns[i])) named = Object.fromEntries(spec.linear.map((name, i) => [name, columns[i]])) as Record<L, Float64Array>;
+      spec.fillColumns(named, alpha, ec, es);
     },
     unpack: (values, fixedT0) => spec.unpack((name) => values[index[name]], fixedT0),
   };

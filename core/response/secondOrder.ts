@@ -52,6 +52,8 @@ export interface BlockAverage {
  * overflows nor cancels: cosh and sinh are split into the two poles. With a block average, the means
  * over each block's samples at or after t0, and in `after` the fraction of the block's samples that
  * is (1 after the event, 0 before it, in between for the block the event falls in; 0 or 1 without blocks).
+ * `steps`, when given, are evenRunSteps(time), kept by a caller that fills the same axis many times.
+ * Returns one past the last value whose share in `after` is not 1 (0 when every share is 1, or without `after`).
  */
 export function fillDampedBasis(
   alpha: number,
@@ -62,10 +64,20 @@ export function fillDampedBasis(
   es: Float64Array,
   block: BlockAverage | null = null,
   after?: Float64Array,
-): void {
-  fillPointBasis(alpha, omega0, t0, time, ec, es);
-  if (block && block.samples > 1) averageOverBlocks(alpha, omega0, t0, time, ec, es, block, after);
-  else if (after) for (let i = 0; i < time.length; i++) after[i] = time[i] < t0 ? 0 : 1;
+  steps?: Float64Array,
+): number {
+  fillPointBasis(alpha, omega0, t0, time, ec, es, steps);
+  if (block && block.samples > 1) return averageOverBlocks(alpha, omega0, t0, time, ec, es, block, after);
+  let eventEnd = 0;
+  if (after) {
+    for (let i = 0; i < time.length; i++) {
+      if (time[i] < t0) {
+        after[i] = 0;
+        eventEnd = i + 1;
+      } else after[i] = 1;
+    }
+  }
+  return eventEnd;
 }
 
 /**
@@ -87,14 +99,22 @@ const EVEN_SPACING = 1e-6;
  * own factor (a rotation by omega_d h with decay e^(-alpha h), or the two poles' e^(s h)): the values are
  * those of the instants on the run's line, within EVEN_SPACING of a step of the recorded ones.
  */
-function fillPointBasis(alpha: number, omega0: number, t0: number, time: ArrayLike<number>, ec: Float64Array, es: Float64Array): void {
+function fillPointBasis(
+  alpha: number,
+  omega0: number,
+  t0: number,
+  time: ArrayLike<number>,
+  ec: Float64Array,
+  es: Float64Array,
+  steps?: Float64Array,
+): void {
   const q = omega0 * omega0 - alpha * alpha;
   const w = Math.sqrt(Math.abs(q));
   for (let first = 0; first < time.length; first += RECURRENCE_RUN) {
     const end = Math.min(time.length, first + RECURRENCE_RUN);
     const tau = time[first] - t0;
-    const step = end - first > 2 ? evenStep(time, first, end) : null;
-    if (step === null || !(tau >= 0) || !(Math.abs(q) * tau * tau >= SERIES_LIMIT)) {
+    const step = steps ? steps[first / RECURRENCE_RUN] : evenStep(time, first, end);
+    if (!(step > 0) || !(tau >= 0) || !(Math.abs(q) * tau * tau >= SERIES_LIMIT)) {
       for (let i = first; i < end; i++) pointBasis(alpha, q, w, time[i] - t0, ec, es, i);
     } else if (q > 0) {
       const e = Math.exp(-alpha * tau);
@@ -129,12 +149,29 @@ function fillPointBasis(alpha: number, omega0: number, t0: number, time: ArrayLi
   }
 }
 
-/** The step of times [first, end) when they rise evenly (each within EVEN_SPACING of a step of its line), else null. */
-function evenStep(time: ArrayLike<number>, first: number, end: number): number | null {
+/**
+ * The step of each run of RECURRENCE_RUN times of the axis (the last run may be shorter) when its times rise
+ * evenly, else NaN: what fillPointBasis asks of the axis, for a caller to keep (a record of 1000 values has 63 runs).
+ */
+export function evenRunSteps(time: ArrayLike<number>): Float64Array {
+  const steps = new Float64Array(Math.ceil(time.length / RECURRENCE_RUN));
+  for (let run = 0; run < steps.length; run++) {
+    const first = run * RECURRENCE_RUN;
+    steps[run] = evenStep(time, first, Math.min(time.length, first + RECURRENCE_RUN));
+  }
+  return steps;
+}
+
+/**
+ * The step of times [first, end) when they rise evenly (each within EVEN_SPACING of a step of its line), else NaN
+ * (so too for a run of 2 times or fewer).
+ */
+function evenStep(time: ArrayLike<number>, first: number, end: number): number {
+  if (end - first <= 2) return NaN;
   const step = (time[end - 1] - time[first]) / (end - 1 - first);
-  if (!(step > 0)) return null;
+  if (!(step > 0)) return NaN;
   const allowed = EVEN_SPACING * step;
-  for (let i = first + 1; i < end - 1; i++) if (!(Math.abs(time[i] - time[first] - (i - first) * step) <= allowed)) return null;
+  for (let i = first + 1; i < end - 1; i++) if (!(Math.abs(time[i] - time[first] - (i - first) * step) <= allowed)) return NaN;
   return step;
 }
 
@@ -204,7 +241,7 @@ function windowGain(alpha: number, omega0: number, h: number): [number, number] 
  * from those of the two windows (q = omega0^2 - alpha^2 = -((s1 - s2)/2)^2):
  *   Gm = (Gm_h Gm_dt + D_h D_dt q) / n,  D = (D_h Gm_dt - Gm_h D_dt) / n,  n = Gm_dt^2 + D_dt^2 q,
  * and then mean(ec) = Gm ec - D q es, mean(es) = Gm es + D ec. A block the event falls in is averaged
- * sample by sample over its samples at or after t0.
+ * sample by sample over its samples at or after t0. Returns one past the last value whose share is not 1.
  */
 function averageOverBlocks(
   alpha: number,
@@ -215,7 +252,7 @@ function averageOverBlocks(
   es: Float64Array,
   block: BlockAverage,
   after?: Float64Array,
-): void {
+): number {
   const { samples, spacing } = block;
   const q = omega0 * omega0 - alpha * alpha;
   const [gmBlock, dBlock] = windowGain(alpha, omega0, samples * spacing);
@@ -225,6 +262,7 @@ function averageOverBlocks(
   const d = (dBlock * gmSample - gmBlock * dSample) / norm;
   const reach = ((samples - 1) / 2) * spacing;
   const dq = d * q;
+  let eventEnd = 0;
   for (let i = 0; i < time.length; i++) {
     const first = time[i] - reach;
     if (first >= t0) {
@@ -234,7 +272,10 @@ function averageOverBlocks(
       es[i] = gm * s + d * c;
       if (after) after[i] = 1;
     } else if (time[i] + reach < t0) {
-      if (after) after[i] = 0;
+      if (after) {
+        after[i] = 0;
+        eventEnd = i + 1;
+      }
     } else {
       // The event falls inside this block: the mean over its samples at or after t0, and their share.
       const scratch = eventBlockScratch(samples);
@@ -254,9 +295,13 @@ function averageOverBlocks(
       }
       ec[i] = count ? sumC / count : 0;
       es[i] = count ? sumS / count : 0;
-      if (after) after[i] = count / samples;
+      if (after) {
+        after[i] = count / samples;
+        if (after[i] !== 1) eventEnd = i + 1;
+      }
     }
   }
+  return eventEnd;
 }
 
 /** Times and basis values of the samples of the block the event falls in, reused across solves (grown as needed). */
