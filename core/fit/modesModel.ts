@@ -123,6 +123,8 @@ export class ModesWorkspace {
   readonly ec: Float64Array;
   readonly es: Float64Array;
   readonly after: Float64Array;
+  /** Which values a fit without a level before t0 uses (see wholeAfter). */
+  readonly use: Uint8Array;
   readonly basis: Float64Array[];
   readonly constrained: Float64Array[];
   /**
@@ -134,6 +136,7 @@ export class ModesWorkspace {
     this.ec = new Float64Array(length);
     this.es = new Float64Array(length);
     this.after = new Float64Array(length);
+    this.use = new Uint8Array(length);
     this.basis = Array.from({ length: MAX_COLUMNS }, () => new Float64Array(length));
     this.constrained = Array.from({ length: MAX_COLUMNS }, () => new Float64Array(length));
   }
@@ -212,7 +215,7 @@ export function solveModes(set: FitSet, spec: ModeSpec, rates: ModeRates, ws: Mo
   const B = unconstrainedBasis(set, spec, rates, ws);
   const T = substitution(spec, rates);
   const A = constrainedBasis(B, T, ws);
-  const use = spec.start === 'no-pre-event' ? wholeAfter(ws.after) : null;
+  const use = spec.start === 'no-pre-event' ? wholeAfter(ws.after, ws.use) : null;
   const phi = normalSolve(A, set.values, use) ?? qrSolve(A, set.values, use);
   const theta = T.map((row) => row.reduce((s, v, j) => s + v * phi[j], 0));
   const model = new Float64Array(n);
@@ -228,9 +231,8 @@ export function solveModes(set: FitSet, spec: ModeSpec, rates: ModeRates, ws: Mo
   return { linear: namedLinear(spec, theta), sse: Number.isFinite(sse) ? sse : Infinity, model };
 }
 
-/** 1 where a value's samples all lie at or after t0 (its share after t0 is 1), else 0. */
-function wholeAfter(after: Float64Array): Uint8Array {
-  const use = new Uint8Array(after.length);
+/** 1 where a value's samples all lie at or after t0 (its share after t0 is 1), else 0; into `use`. */
+function wholeAfter(after: Float64Array, use: Uint8Array): Uint8Array {
   for (let i = 0; i < after.length; i++) use[i] = after[i] >= 1 ? 1 : 0;
   return use;
 }
