@@ -37,16 +37,27 @@ export function readRecent(): RecentCapture[] {
   return Array.isArray(list) ? list.filter(isRecentCapture).slice(0, RECENT_KEPT) : [];
 }
 
-/** Put the capture first; a file's content is kept (a sample needs none). Best effort: storage may be full or off. */
+/**
+ * Put the capture first; a file's content is kept (a sample needs none). A file is listed only once its content
+ * is stored: listed at once, a reload before the store commits would list a file the browser does not have. Best
+ * effort: storage may be full or off (the file is then not listed). Resolves once the list is written.
+ */
 export async function rememberRecent(entry: RecentCapture, content: CaptureContent | null): Promise<void> {
   const before = readRecent();
-  const list = [entry, ...before.filter((e) => e.id !== entry.id)].slice(0, RECENT_KEPT);
-  writeJson(RECENT_KEY, list);
-  const dropped = before.filter((e) => !list.some((kept) => kept.id === e.id));
-  await withContents('readwrite', (store) => {
+  const planned = listWith(entry, before);
+  const dropped = before.filter((e) => !planned.some((kept) => kept.id === e.id));
+  const stored = await withContents('readwrite', (store) => {
     if (content) store.put(content, entry.id);
     for (const e of dropped) store.delete(e.id);
   });
+  if (content && !stored) return;
+  // Read again: another capture may have been listed while this one was stored.
+  writeJson(RECENT_KEY, listWith(entry, readRecent()));
+}
+
+/** The list with `entry` in it, newest first, at most RECENT_KEPT long. */
+function listWith(entry: RecentCapture, list: RecentCapture[]): RecentCapture[] {
+  return [entry, ...list.filter((e) => e.id !== entry.id)].sort((a, b) => b.openedAt.localeCompare(a.openedAt)).slice(0, RECENT_KEPT);
 }
 
 /** The kept content of a recent file, or null when the browser no longer has it. */
@@ -74,24 +85,31 @@ export function saveSession(session: SessionMemory): boolean {
   return true;
 }
 
-function withContents(mode: IDBTransactionMode, work: (store: IDBObjectStore) => void): Promise<void> {
+/** Runs `work` in one transaction on the kept contents; resolves whether it committed (false when storage is off or failed). */
+function withContents(mode: IDBTransactionMode, work: (store: IDBObjectStore) => void): Promise<boolean> {
   return new Promise((resolve) => {
     let request: IDBOpenDBRequest;
     try {
       request = indexedDB.open(DB, 1);
     } catch {
-      return resolve();
+      return resolve(false);
     }
     request.onupgradeneeded = () => request.result.createObjectStore(CONTENTS);
-    request.onerror = () => resolve();
+    request.onerror = () => resolve(false);
     request.onsuccess = () => {
       const db = request.result;
-      const tx = db.transaction(CONTENTS, mode);
-      work(tx.objectStore(CONTENTS));
-      tx.oncomplete = tx.onerror = tx.onabort = () => {
+      const ended = (committed: boolean) => () => {
         db.close();
-        resolve();
+        resolve(committed);
       };
+      try {
+        const tx = db.transaction(CONTENTS, mode);
+        work(tx.objectStore(CONTENTS));
+        tx.oncomplete = ended(true);
+        tx.onerror = tx.onabort = ended(false);
+      } catch {
+        ended(false)();
+      }
     };
   });
 }

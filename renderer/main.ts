@@ -119,7 +119,7 @@ function boot(): void {
   void actions
     .start(new URLSearchParams(location.search).get('sample'))
     .then(() => actions.restoreSession(savedSession))
-    .finally(() => store.subscribe(sessionKeeper()));
+    .finally(() => store.subscribe(sessionKeeper(() => store.update())));
 }
 
 boot();

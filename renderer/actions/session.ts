@@ -42,8 +42,11 @@ export async function restoreSession(ctx: ActionContext, saved: SessionMemory | 
   await measure(ctx);
 }
 
-/** A store subscriber noting each capture opened in the recent list, and the session as it stands once a fit is shown. */
-export function sessionKeeper(): (state: BenchState) => void {
+/**
+ * A store subscriber noting each capture opened in the recent list, and the session as it stands once a fit is
+ * shown. A file is listed once its content is stored, which may come after the last draw: `listed` draws again.
+ */
+export function sessionKeeper(listed: () => void): (state: BenchState) => void {
   let noted = '';
   return (state) => {
     const capture = state.capture;
@@ -54,7 +57,7 @@ export function sessionKeeper(): (state: BenchState) => void {
       void rememberRecent(
         { id: capture.sha256, name: opened.name, sampleId: opened.sampleId, path: opened.path, openedAt: new Date().toISOString() },
         opened.sampleId ? null : contentOf(opened),
-      );
+      ).then(listed);
     }
     if (!state.fit || state.busy !== null) return;
     const { componentsInput, knownPartFrom, design, userWindow } = state;
