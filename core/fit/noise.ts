@@ -91,8 +91,11 @@ export function stretchOf(values: ArrayLike<number>, from: number, to: number): 
   return ArrayBuffer.isView(values) ? (values as Float64Array).subarray(from, to) : (Array.prototype.slice.call(values, from, to) as number[]);
 }
 
-/** Smallest non-zero step between sample values: the quantisation step of an ADC record, or 0. */
-export function quantisationStep(values: ArrayLike<number>, limit = 4096): number {
+/** How many of a record's first values its quantisation step is read from: enough steps to see the grid. */
+export const STEP_SAMPLES = 4096;
+
+/** Smallest non-zero step between sample values (the first `limit` of them): the quantisation step of an ADC record, or 0. */
+export function quantisationStep(values: ArrayLike<number>, limit = STEP_SAMPLES): number {
   const n = Math.min(values.length, limit);
   const steps = new Float64Array(n);
   // Differences at the resolution of the floating-point values (block means of equal codes) are not steps.
@@ -151,7 +154,7 @@ function differenceNoise(values: ArrayLike<number>, start: number, end: number, 
 
 /** q / sqrt(12) for a record on a grid of step q (0 off a grid): the noise a quantised record has at least. */
 function quantisationFloor(values: ArrayLike<number>, start: number): number {
-  const q = quantisationStep(values.length > 4096 ? stretchOf(values, start, start + 4096) : values);
+  const q = quantisationStep(values.length > STEP_SAMPLES ? stretchOf(values, start, start + STEP_SAMPLES) : values);
   return q / Math.sqrt(12);
 }
 

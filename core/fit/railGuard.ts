@@ -93,9 +93,6 @@ export interface KeptRange {
   step: number;
 }
 
-/** How many of the first kept samples the range's quantisation step is read from (quantisationStep's own default). */
-export const STEP_SAMPLES = 4096;
-
 /**
  * How many samples of the record's head (`head`: the unclipped samples before the response surely runs)
  * sit at the record's highest or lowest value (`range`: of every unclipped sample of the window) because

@@ -3,7 +3,7 @@
 import type { Trace } from './trace';
 import { detectEvent, MIN_PRE_EVENT, type EventEstimate } from './eventDetection';
 import { firstSampleTime, MIN_FIT_SAMPLES, prepareFitSet, type FitSet } from './fitSet';
-import { railHeadCount, STEP_SAMPLES, type KeptRange } from './railGuard';
+import { railHeadCount, type KeptRange } from './railGuard';
 import { attemptValue, type Attempt } from './attempt';
 import { refine } from './refine';
 import { LAYOUTS, layoutsFor, layoutValues } from './responseModel';
@@ -11,7 +11,7 @@ import { searchLayouts } from './layoutSearch';
 import { chooseByInformation, effectiveSamples, information } from './modelSelection';
 import type { RateCandidate } from './startingRates';
 import { FitInputError } from './fitInputError';
-import { estimateNoise, median, quantisationStep } from './noise';
+import { estimateNoise, median, quantisationStep, STEP_SAMPLES } from './noise';
 
 type FitWindow = { start?: number; end?: number };
 
@@ -248,5 +248,5 @@ function unclippedValues(trace: Trace, window: FitWindow, end: number): { head: 
   // Counted first, then copied: the head is never held as a list of numbers, nor as an array longer than needed.
   const head = new Float64Array(inHead);
   for (let i = 0, h = 0; i <= lastInHead; i++) if (time[i] < end && kept(i)) head[h++] = values[i];
-  return { head, range: { lo, hi, step: quantisationStep(opening.subarray(0, inOpening), STEP_SAMPLES) } };
+  return { head, range: { lo, hi, step: quantisationStep(opening.subarray(0, inOpening)) } };
 }

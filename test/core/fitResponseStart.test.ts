@@ -4,7 +4,7 @@
 
 import { describe, expect, it } from 'vitest';
 import { fitResponse } from '../../core/fit/fitResponse';
-import { railHeadCount, STEP_SAMPLES, type KeptRange } from '../../core/fit/railGuard';
+import { railHeadCount, type KeptRange } from '../../core/fit/railGuard';
 import { quantisationStep } from '../../core/fit/noise';
 import { createRandom } from '../../core/random';
 import { makeRecord, sampleCaptureTrace, type RecordSpec } from './trust/startRecords';
@@ -62,7 +62,7 @@ describe('a level before the event at a converter rail', () => {
 });
 
 describe('railHeadCount', () => {
-  const keptRangeOf = (values: number[]): KeptRange => ({ lo: Math.min(...values), hi: Math.max(...values), step: quantisationStep(values, STEP_SAMPLES) });
+  const keptRangeOf = (values: number[]): KeptRange => ({ lo: Math.min(...values), hi: Math.max(...values), step: quantisationStep(values) });
   const random = createRandom(77);
   const codes = (level: number, rms: number, n: number) => Array.from({ length: n }, () => Math.max(0, Math.round(level + rms * random.normal())));
   const response = Array.from({ length: 200 }, (_, i) => Math.round(40 + 10 * Math.sin(i / 5)));
