@@ -15,7 +15,7 @@ import type { FitSet } from './fitSet';
 import type { ModelOrder, ModelOrderRow, ResponseFitOptions } from './responseFit';
 import { information } from './modelSelection';
 import { nestedFTestTail } from './significance';
-import { parameterCount, solveModes, startConstraintOf, ModesWorkspace, type ModeRates, type ModeSpec } from './modesModel';
+import { modeSpec, NO_PRE_EVENT, parameterCount, solveModes, startConstraintOf, ModesWorkspace, type ModeRates, type ModeSpec } from './modesModel';
 import { refineModes, type ModesFit } from './modesFit';
 import { GRID_NYQUIST_SHARE, gridNyquist, residualAfter, ringStarts, slowStarts, type RingStart } from './modesStarts';
 import { modelName, multiModeModel, ORDER_CRITERION, termAmplitudes, type MultiModeModel } from './modesResult';
@@ -95,7 +95,7 @@ export function fitModeOrder(set: FitSet, best: Attempt, t0Start: number, noise:
   // A single decay's fallback ring: ten times faster than the decay (the pencil's poles come first).
   const first: RingStart = ringFitted ? { alpha: rate, omega0: attemptValue(best, 'omega0') } : { alpha: rate, omega0: 10 * rate };
   const known: Known = ringFitted ? { rings: [first] } : { rings: [], slowRate: rate };
-  const simple: Candidate = { spec: { ...base, rings: ringFitted ? 1 : 0, slow: !ringFitted }, sse: best.sse, parameters: best.values.length, fit: null };
+  const simple: Candidate = { spec: modeSpec(base, ringFitted ? 1 : 0, !ringFitted), sse: best.sse, parameters: best.values.length, fit: null };
   const simpleModel = layoutValues(best.layout, best.values, t0Start, set.time, set.block);
   const residual = residualAfter(set, simpleModel, t0);
   const search = new ModelSearch(set, t0, first);
@@ -104,8 +104,8 @@ export function fitModeOrder(set: FitSet, best: Attempt, t0Start: number, noise:
   if (forced) {
     if (ringFitted && forced.rings === 1 && !forced.slow) return outcome([simple], simple, true, 'forced: one ringing mode', set, simpleModel);
     // Three rings are reached through two: the third starts from what two leave.
-    let fit = search.fitOrder({ ...base, rings: Math.min(forced.rings, 2), slow: forced.rings < 3 && forced.slow }, known, residual);
-    if (forced.rings === 3 && fit.fit) fit = search.fitOrder({ ...base, ...forced }, { rings: fit.fit.rates.rings }, residualAfter(set, fit.model, t0));
+    let fit = search.fitOrder(modeSpec(base, Math.min(forced.rings, 2), forced.rings < 3 && forced.slow), known, residual);
+    if (forced.rings === 3 && fit.fit) fit = search.fitOrder(modeSpec(base, forced.rings, forced.slow), { rings: fit.fit.rates.rings }, residualAfter(set, fit.model, t0));
     const rich = candidateOf(fit);
     const compared = compare(simple, rich, set, fit.model, true);
     return outcome([simple, rich], rich, true, `forced: ${modelName(forced.rings, forced.slow)} (${compared.text} ${against})`, set, fit.model);
@@ -114,7 +114,7 @@ export function fitModeOrder(set: FitSet, best: Attempt, t0Start: number, noise:
   const gate = gateOpens(set, best, residual, first, t0, noise);
   if (!ringFitted) {
     if (!gate.ring) return null;
-    const fit = search.fitOrder({ ...base, rings: 1, slow: true }, known, residual);
+    const fit = search.fitOrder(modeSpec(base, 1, true), known, residual);
     const rich = candidateOf(fit);
     const verdict = compare(simple, rich, set, fit.model);
     if (!verdict.accepted) return null;
@@ -133,8 +133,8 @@ export function fitModeOrder(set: FitSet, best: Attempt, t0Start: number, noise:
     const verdict = compare(simpler, rich, set, fit.model);
     return { rich, fit, verdict };
   };
-  const twoRings = gate.ring ? consider(simple, { ...base, rings: 2, slow: false }, known, residual) : null;
-  const ringOnSlow = gate.slow ? consider(simple, { ...base, rings: 1, slow: true }, known, residual) : null;
+  const twoRings = gate.ring ? consider(simple, modeSpec(base, 2, false), known, residual) : null;
+  const ringOnSlow = gate.slow ? consider(simple, modeSpec(base, 1, true), known, residual) : null;
   const tried = [twoRings, ringOnSlow].filter((c) => c !== null);
   const winners = tried.filter((c) => c.verdict.accepted).sort((x, y) => x.verdict.richCriterion - y.verdict.richCriterion);
   if (winners.length > 0) {
@@ -147,7 +147,7 @@ export function fitModeOrder(set: FitSet, best: Attempt, t0Start: number, noise:
   if (twoRings && chosen === twoRings.rich && twoRings.fit.fit) {
     const two = twoRings.fit.fit;
     const rest = residualAfter(set, twoRings.fit.model, two.rates.t0);
-    const three = consider(chosen, { ...base, rings: 3, slow: false }, { rings: two.rates.rings }, rest);
+    const three = consider(chosen, modeSpec(base, 3, false), { rings: two.rates.rings }, rest);
     if (three.verdict.accepted) {
       chosen = three.rich;
       chosenModel = three.fit.model;
@@ -285,7 +285,7 @@ function explainedByTerm(time: Float64Array, residual: Float64Array, alpha: numb
     block: null,
     warnings: [],
   };
-  const spec: ModeSpec = columns === 2 ? { rings: 1, slow: false, start: 'no-pre-event', fitsT0: false } : { rings: 0, slow: true, start: 'no-pre-event', fitsT0: false };
+  const spec = columns === 2 ? modeSpec(NO_PRE_EVENT, 1, false) : modeSpec(NO_PRE_EVENT, 0, true);
   const rates: ModeRates = { rings: columns === 2 ? [{ alpha, omega0 }] : [], slowRate: alpha, t0 };
   let total = 0;
   for (const r of residual) total += r * r;

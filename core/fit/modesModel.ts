@@ -25,6 +25,21 @@ export interface ModeSpec {
   fitsT0: boolean;
 }
 
+/** How a model starts at t0 and whether t0 is fitted: what every model extending one layout shares. */
+export type ModeStart = Pick<ModeSpec, 'start' | 'fitsT0'>;
+
+/** A model for a record with no samples before a t0 that is held (a residual's own fit). */
+export const NO_PRE_EVENT: ModeStart = { start: 'no-pre-event', fitsT0: false };
+
+/**
+ * A model spec, always built here with its fields in one order: the solver's hot code then sees a single object
+ * shape (specs spread from a shared base took several, and V8 discarded and recompiled solveModes hundreds of
+ * times over a batch).
+ */
+export function modeSpec(base: ModeStart, rings: number, slow: boolean): ModeSpec {
+  return { rings, slow, start: base.start, fitsT0: base.fitsT0 };
+}
+
 /** The nonlinear parameters of a model: each ring's rates, the slow term's rate, and t0. */
 export interface ModeRates {
   rings: { alpha: number; omega0: number }[];
@@ -109,7 +124,10 @@ function namedLinear(spec: ModeSpec, theta: readonly number[]): ModeLinear {
   const yFinal = theta[at.final];
   const slow = spec.slow ? theta[at.slow] : 0;
   // Without samples before t0 the level reported before the event is y(t0+).
-  const yPre = at.pre >= 0 ? theta[at.pre] : yFinal + a.reduce((s, v) => s + v, 0) + slow;
+  // A loop, not a.reduce: reduce inlined in solveModes deopted on every ring count's array kind (333 times a batch).
+  let ringSum = 0;
+  for (let k = 0; k < a.length; k++) ringSum += a[k];
+  const yPre = at.pre >= 0 ? theta[at.pre] : yFinal + ringSum + slow;
   return { yPre, yFinal, a, b, slow };
 }
 
