@@ -15,7 +15,7 @@ const GOAL_RATIO = 8;
 
 interface Run {
   wallS: number;
-  /** User plus system CPU time of the process and its threads, s (null where /proc is not there). */
+  /** User plus system CPU time of the process, its threads and its worker processes, s (null where /proc is not there). */
   cpuS: number | null;
   stdout: string;
 }

@@ -1,4 +1,4 @@
-// One capture of a batch measured (fit, verdict, cautions, the record to log) as plain data a worker thread can send back.
+// One capture of a batch measured (fit, verdict, cautions, the record to log) as plain data a worker process can send back.
 
 import { basename, extname } from 'node:path';
 import { describeFailure, type FailureText } from '../../core/inputError';

@@ -1,10 +1,10 @@
-// Measures the captures of a batch on worker threads (or, with one job, in this thread) and hands each
+// Measures the captures of a batch on worker processes (or, with one job, in this thread) and hands each
 // outcome over as it finishes; every capture gets exactly one outcome, even when its worker dies.
 
-import type { Worker } from 'node:worker_threads';
+import { availableParallelism } from 'node:os';
 import { measureBatchFile, type BatchOutcome, type BatchSettings } from './batchFile';
-import type { BatchReply, BatchRequest } from './batchProtocol';
-import { startBatchWorker } from './batchWorkerStart';
+import type { BatchReply } from './batchProtocol';
+import { startBatchWorker, type BatchWorker } from './batchWorkerStart';
 
 /** One capture of the batch: its path, and its name as shown (relative to the folder). */
 export interface BatchCapture {
@@ -15,16 +15,17 @@ export interface BatchCapture {
 /**
  * Measure every capture with `jobs` threads at once (1, or a single capture: in this thread, no worker); `onOutcome` is called
  * once per capture, in completion order, with the capture's index in `captures`. A handler that throws ends the batch.
- * `startWorker` starts one worker thread (default: the batch worker of main/app/batchWorker.ts).
+ * `startWorker` starts one worker (default: a process running main/app/batchWorker.ts), told whether the batch's
+ * workers take every core of this machine.
  */
 export async function measureBatch(
   captures: readonly BatchCapture[],
   batch: BatchSettings,
   jobs: number,
   onOutcome: (index: number, outcome: BatchOutcome) => void,
-  startWorker: (batch: BatchSettings) => Worker = startBatchWorker,
+  startWorker: (batch: BatchSettings, allCores: boolean) => BatchWorker = startBatchWorker,
 ): Promise<void> {
-  // A thread of its own only pays when two captures or more can be fitted at once.
+  // A worker of its own only pays when two captures or more can be fitted at once.
   const threads = Math.min(jobs, captures.length);
   if (threads <= 1) {
     captures.forEach(({ path, file }, index) => onOutcome(index, measureBatchFile(path, file, batch)));
@@ -38,14 +39,14 @@ function runOnWorkers(
   batch: BatchSettings,
   threads: number,
   finish: (index: number, outcome: BatchOutcome) => void,
-  startWorker: (batch: BatchSettings) => Worker,
+  startWorker: (batch: BatchSettings, allCores: boolean) => BatchWorker,
 ): Promise<void> {
   return new Promise((resolve, reject) => {
     let next = 0;
     let done = 0;
     let running = 0;
     let failed = false;
-    const workers = new Set<Worker>();
+    const workers = new Set<BatchWorker>();
     const abort = (error: unknown) => {
       failed = true;
       for (const w of workers) void w.terminate();
@@ -62,10 +63,11 @@ function runOnWorkers(
       }
     };
 
+    const allCores = threads >= availableParallelism();
     const launch = () => {
-      let worker: Worker;
+      let worker: BatchWorker;
       try {
-        worker = startWorker(batch);
+        worker = startWorker(batch, allCores);
       } catch (error) {
         abort(error);
         return;
@@ -81,9 +83,9 @@ function runOnWorkers(
           return;
         }
         current = next++;
-        worker.postMessage({ index: current, ...captures[current] } satisfies BatchRequest);
+        worker.postMessage({ index: current, ...captures[current] });
       };
-      // A worker that dies (a crash, memory exhausted) fails only the capture it held; a new one takes the rest.
+      // A worker that dies (a crash, memory exhausted, killed) fails only the capture it held; a new one takes the rest.
       const stop = (why: string) => {
         if (stopped) return;
         stopped = true;
@@ -104,7 +106,7 @@ function runOnWorkers(
         if (settle(index, outcome)) feed();
       });
       worker.on('error', (error) => stop(error.message));
-      worker.on('exit', (code) => stop(`exit code ${code}`));
+      worker.on('exit', (code) => stop(typeof code === 'number' ? `exit code ${code}` : `ended by ${code}`));
       feed();
     };
 

@@ -1,4 +1,4 @@
-// `batch --jobs`: the captures fitted on worker threads give the same table, JSON and log as in one thread, in folder
+// `batch --jobs`: the captures fitted on worker processes give the same table, JSON and log as in one thread, in folder
 // order whatever finishes first; the progress bar only on a terminal; the built command finds its worker from any folder.
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';

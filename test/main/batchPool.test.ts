@@ -16,7 +16,7 @@ parentPort.on('message', ({ index, file }) => {
 const startStandIn = () => new Worker(STAND_IN, { eval: true });
 const BATCH: BatchSettings = { settings: {}, cwd: '/', design: null, logging: null };
 
-describe('measureBatch on worker threads', () => {
+describe('measureBatch on workers (thread stand-ins)', () => {
   it('gives every capture one outcome; a dying worker fails only the capture it held', async () => {
     const files = ['a.csv', 'exit.csv', 'b.csv', 'c.csv', 'throw.csv', 'd.csv', 'e.csv', 'f.csv'];
     const seen: [number, BatchOutcome][] = [];

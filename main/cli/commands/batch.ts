@@ -1,4 +1,4 @@
-// `ringbench batch DIR`: fit every capture of a folder (or one shard's share of it) on worker threads, one result each; a bad file does not stop the rest.
+// `ringbench batch DIR`: fit every capture of a folder (or one shard's share of it) on worker processes, one result each; a bad file does not stop the rest.
 // Exit 0 when every fit converged (and was in tolerance), 1 when any file could not be read, its fit failed
 // (any status but converged) or, with a design, it got no verdict (verdictRefusal), else 3 when any unit was out of tolerance.
 
