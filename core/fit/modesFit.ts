@@ -1,8 +1,8 @@
 // Refines one model with several modes from one start: Levenberg-Marquardt over the rates (and t0), the rest solved linearly.
 
 import { fitCurve } from './fitCurve';
-import { indexedModel, stallAsConvergence } from './projectedModel';
-import { ModesWorkspace, solveModes, type ModeLinear, type ModeRates, type ModeSpec } from './modesModel';
+import { indexedModel, sameValues, stallAsConvergence } from './projectedModel';
+import { ModesWorkspace, solveModes, type ModeLinear, type ModeRates, type ModeSpec, type ModesSolution } from './modesModel';
 import type { FitSet } from './fitSet';
 import { gridNyquist } from './modesStarts';
 import type { FitStatus } from './types';
@@ -56,26 +56,28 @@ export function refineModes(set: FitSet, spec: ModeSpec, start: ModeRates): Mode
   const max = initial.map((_, j) => (j < 2 * spec.rings && j % 2 === 1 ? Math.max(2 * nyquist / scales[Math.floor(j / 2)], 2) : Infinity));
   const names = initial.map((_, j) => `u${j}`);
   const workspace = new ModesWorkspace(set.time.length);
-  const cache: { key: readonly number[]; model: Float64Array }[] = [];
-  const modelFor = (u: readonly number[]): Float64Array => {
-    const hit = cache.find((entry) => entry.key === u);
-    if (hit) return hit.model;
-    const { model } = solveModes(set, spec, physical(u), workspace);
+  // Keyed by value: the solver asks again for points it holds in new arrays (its accepted step, the final point).
+  const cache: { key: number[]; solution: ModesSolution }[] = [];
+  const solutionAt = (u: readonly number[]): ModesSolution => {
+    const hit = cache.find((entry) => sameValues(entry.key, u));
+    if (hit) return hit.solution;
+    const solution = solveModes(set, spec, physical(u), workspace);
     if (cache.length >= MODEL_CACHE_SIZE) cache.pop();
-    cache.unshift({ key: u, model });
-    return model;
+    cache.unshift({ key: [...u], solution });
+    return solution;
   };
   const indices = indexRamp(set.time.length);
   const weights = fittedWeights(set, spec, start.t0);
-  const result = fitCurve({ names, ...indexedModel(modelFor) }, { x: indices, y: set.values, weights }, initial, {
+  const result = fitCurve({ names, ...indexedModel((u) => solutionAt(u).model) }, { x: indices, y: set.values, weights }, initial, {
     min,
     max,
     maxIterations: MAX_ITERATIONS,
     covariance: false,
     trialDifferences: 'forward',
   });
-  const rates = physical(result.parameters.map((p) => p.value));
-  const solution = solveModes(set, spec, rates, workspace);
+  const best = result.parameters.map((p) => p.value);
+  const rates = physical(best);
+  const solution = solutionAt(best);
   return {
     spec,
     rates,

@@ -45,7 +45,8 @@ export function projectedModel(set: FitSet, layout: ParameterLayout, physical: P
   return { ...indexedModel((u) => solved(u).model), solutionAt: (u) => solved(u).solution };
 }
 
-function sameValues(a: readonly number[], b: readonly number[]): boolean {
+/** Whether two parameter vectors hold the same values (Object.is: a cache must tell -0 from 0 and find NaN). */
+export function sameValues(a: readonly number[], b: readonly number[]): boolean {
   if (a.length !== b.length) return false;
   for (let j = 0; j < a.length; j++) if (!Object.is(a[j], b[j])) return false;
   return true;
