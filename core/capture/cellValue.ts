@@ -134,14 +134,18 @@ const STARS = /^\*+$/;
 /** A run of dashes ('----'): how some exports fill a cell they have no sample for. */
 const DASHES = /^-+$/;
 const HEX = /^[+-]?0[xob]/i;
+/** U+2212 MINUS SIGN: what typeset exports (spreadsheet locales, report tools) write for '-' in a number. */
+const MINUS_SIGN = /\u2212/g;
 
 /**
  * A cell the fast path did not take: its value, NaN for a missing or overrange cell (empty, NaN, inf, '****', '----',
- * |x| >= 9.9e37), or null for junk that is not a number. `decimalComma` lets '1,5' mean 1.5.
+ * |x| >= 9.9e37), or null for junk that is not a number. `decimalComma` lets '1,5' mean 1.5; a Unicode minus sign
+ * (U+2212) reads as '-'.
  */
 export function slowCellValue(cell: string, decimalComma: boolean): number | null {
   let text = cell.trim();
   if (text.length >= 2 && text.startsWith('"') && text.endsWith('"')) text = text.slice(1, -1).trim();
+  text = text.replace(MINUS_SIGN, '-');
   const lower = text.toLowerCase();
   if (MISSING.has(lower) || STARS.test(text) || DASHES.test(text)) return NaN;
   if (HEX.test(text)) return null;

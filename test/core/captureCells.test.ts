@@ -96,6 +96,12 @@ describe('slowCellValue', () => {
     expect(slowCellValue('2,25', true)).toBe(2.25);
     expect(slowCellValue('2,25', false)).toBeNull();
   });
+
+  it('reads the Unicode minus sign (U+2212) as a minus, in the number and in its exponent', () => {
+    expect(slowCellValue('\u22122.5', false)).toBe(-2.5);
+    expect(slowCellValue('1.5E\u22126', false)).toBe(1.5e-6);
+    expect(slowCellValue('\u22121,5', true)).toBe(-1.5);
+  });
 });
 
 describe('isTimestamp', () => {

@@ -62,6 +62,14 @@ describe('delimiters and decimal separators', () => {
     expectClose(channel.values, values);
   });
 
+  it('reads a capture written with the Unicode minus sign (U+2212) as the same numbers, not as no data', () => {
+    const minus = (x: number): string => String(x).replace('-', '\u2212');
+    const capture = parseCapture(`Time (s),CH1 (V)\n${rowsOf((i) => `${minus(times[i])},${minus(values[i])}`)}\n`);
+    expect(capture.layout.firstDataLine).toBe(2);
+    expectClose(capture.channels[0].time, times);
+    expectClose(capture.channels[0].values, values);
+  });
+
   it('reads "1,5;2,25" as 1.5 and 2.25', () => {
     const text = `Time;CH1\n${rowsOf((i) => `${i + 1},5;${i},25`)}`;
     const capture = parseCapture(text, {});
