@@ -49,7 +49,7 @@ function boot(): void {
     onShowShortcuts: () => shortcutList.toggle(),
   });
   const page = { showCaptureName: (name: string) => (document.title = `${name} — Ringbench`) };
-  const actions = bindActions({ store, bridge, client: new FitClient('worker.js'), plot, page, counters: { running: 0, fitGeneration: 0, captures: 0 } });
+  const actions = bindActions({ store, bridge, client: new FitClient('worker.js'), plot, page, counters: { running: 0, fitGeneration: 0, captures: 0, opens: 0 } });
   const toggleTheme = () => {
     applyTheme(currentTheme() === 'dark' ? 'light' : 'dark');
     void plot.redraw();
@@ -119,7 +119,7 @@ function boot(): void {
   void actions
     .start(new URLSearchParams(location.search).get('sample'))
     .then(() => actions.restoreSession(savedSession))
-    .finally(() => store.subscribe(sessionKeeper(() => store.update())));
+    .finally(() => store.subscribe(sessionKeeper()));
 }
 
 boot();

@@ -3,7 +3,7 @@
 import { BenchError } from '../benchError';
 import type { NamedText, OpenedFile, SampleEntry } from '../bridgeTypes';
 import { FitCancelled } from '../fitClient';
-import { rememberCapture, recallCapture, type RememberedCapture } from '../lastCapture';
+import { rememberCapture, recallCapture, type RecentCapture, type RememberedCapture } from '../captureMemory';
 import { plainMessage } from '../plainMessage';
 import { sha256Hex } from '../sha256';
 import { reweighCautions } from './cautions';
@@ -18,26 +18,41 @@ import { segmentRead } from '../traceData';
 
 /** First start: the sample the page asks for, else the last capture again, else a bundled sample with its design. */
 export async function start(ctx: ActionContext, requestedSample: string | null): Promise<void> {
+  const ticket = beginOpen(ctx);
   const lists = await runStep(ctx, 'reading the sample list', async () => ({ samples: await ctx.bridge.listSamples(), designs: await ctx.bridge.listDesigns() }));
   const state = ctx.store.state;
   if (lists) ctx.store.update((s) => Object.assign(s, lists));
   void refreshLog(ctx);
-  if (requestedSample) return openSample(ctx, requestedSample);
+  // Read even when a sample is asked for: it also brings the recent list.
   const last = await recallCapture();
-  if (last?.kind === 'file') return openCapture(ctx, { name: last.name, path: last.path, sampleId: null, ...contentOf(last) }, { channel: last.channel, reading: last.reading });
-  if (last?.kind === 'sample' && state.samples.some((s) => s.id === last.id)) return openSample(ctx, last.id, last.channel);
+  if (requestedSample) return openSample(ctx, requestedSample, undefined, ticket);
+  if (last?.kind === 'file') return openCapture(ctx, { name: last.name, path: last.path, sampleId: null, ...contentOf(last) }, { channel: last.channel, reading: last.reading, ticket });
+  if (last?.kind === 'sample' && state.samples.some((s) => s.id === last.id)) return openSample(ctx, last.id, last.channel, ticket);
   const first = state.samples.find((s) => s.designId !== null) ?? state.samples[0];
-  if (first) return openSample(ctx, first.id);
+  if (first) return openSample(ctx, first.id, undefined, ticket);
 }
 
-export async function openSample(ctx: ActionContext, id: string, channel?: number): Promise<void> {
+/**
+ * Number an open as the user starts it: an open started later supersedes it, whichever finishes reading first (a large
+ * file opened just before a small one must not land last and replace it).
+ */
+export function beginOpen(ctx: ActionContext): number {
+  return ++ctx.counters.opens;
+}
+
+function superseded(ctx: ActionContext, ticket: number): boolean {
+  return ticket !== ctx.counters.opens;
+}
+
+export async function openSample(ctx: ActionContext, id: string, channel?: number, ticket = beginOpen(ctx)): Promise<void> {
   const sample = await runStep(ctx, 'opening the sample capture', () => ctx.bridge.readSample(id));
-  if (sample) await openCapture(ctx, sample, { sample: sample.sample, design: sample.design, channel });
+  if (sample) await openCapture(ctx, sample, { sample: sample.sample, design: sample.design, channel, ticket });
 }
 
 export async function pickCapture(ctx: ActionContext): Promise<void> {
+  const ticket = beginOpen(ctx);
   const opened = await runStep(ctx, 'opening a capture', () => ctx.bridge.pickCapture());
-  if (opened) await openCapture(ctx, opened, {});
+  if (opened) await openCapture(ctx, opened, { ticket });
 }
 
 /** A design file's extension: a dropped .json is a design, anything else a capture. */
@@ -45,22 +60,25 @@ const DESIGN_FILE = /\.json$/i;
 
 export async function openDropped(ctx: ActionContext, file: File): Promise<void> {
   if (DESIGN_FILE.test(file.name)) return openDroppedDesign(ctx, file);
+  const ticket = beginOpen(ctx);
   const opened = await runStep(ctx, `opening ${file.name}`, () => ctx.bridge.openDropped(file));
-  if (opened) await openCapture(ctx, opened, {});
+  if (opened) await openCapture(ctx, opened, { ticket });
 }
 
 export async function openCapture(
   ctx: ActionContext,
   opened: OpenedFile,
-  options: { sample?: SampleEntry; design?: NamedText | null; channel?: number; reading?: CaptureReading },
+  options: { sample?: SampleEntry; design?: NamedText | null; channel?: number; reading?: CaptureReading; ticket?: number },
 ): Promise<void> {
-  const read = await readCapture(ctx, opened, options.sample ?? null, options.reading ?? { units: FILE_UNITS }, options.channel);
-  if (read === 'failed') return;
+  const ticket = options.ticket ?? beginOpen(ctx);
+  if (superseded(ctx, ticket)) return;
+  const read = await readCapture(ctx, ticket, opened, options.sample ?? null, options.reading ?? { units: FILE_UNITS }, options.channel);
+  if (read === 'failed' || read === 'superseded') return;
   ctx.store.update((s) => startKnownPart(s, options.sample ?? null));
   ctx.page.showCaptureName(opened.name);
   if (options.design) await loadDesignText(ctx, options.design, `sample-captures/designs/${options.design.name}`, 'sample');
   else if (options.sample || ctx.store.state.design?.origin === 'sample') clearDesign(ctx);
-  if (read === 'read') await showAndMeasure(ctx);
+  if (read === 'read' && !superseded(ctx, ticket)) await showAndMeasure(ctx);
 }
 
 /** Read the capture shown (or refused) again with the units the user states, in the same segment. */
@@ -79,15 +97,23 @@ async function readAgain(ctx: ActionContext, reading: CaptureReading): Promise<v
   const { capture, refused } = ctx.store.state;
   const opened = capture?.opened ?? refused?.opened;
   if (!opened) return;
-  const read = await readCapture(ctx, opened, capture?.sample ?? refused?.sample ?? null, reading, capture?.channel);
+  const read = await readCapture(ctx, beginOpen(ctx), opened, capture?.sample ?? refused?.sample ?? null, reading, capture?.channel);
   if (read === 'read') await showAndMeasure(ctx);
 }
 
 /**
  * Read a capture in the worker into the state: 'read', 'refused' for a unit the user can state (the capture panel
- * then says why and offers the units), or 'failed' with the reason in the window's message.
+ * then says why and offers the units), 'failed' with the reason in the window's message, or 'superseded' (nothing
+ * stored or shown) when an open started after `ticket` meanwhile.
  */
-async function readCapture(ctx: ActionContext, opened: OpenedFile, sample: SampleEntry | null, reading: CaptureReading, channel?: number): Promise<'read' | 'refused' | 'failed'> {
+async function readCapture(
+  ctx: ActionContext,
+  ticket: number,
+  opened: OpenedFile,
+  sample: SampleEntry | null,
+  reading: CaptureReading,
+  channel?: number,
+): Promise<'read' | 'refused' | 'failed' | 'superseded'> {
   const key = `capture-${++ctx.counters.captures}`;
   // A long fit of the previous capture must not hold this one up.
   if (ctx.client.busy) ctx.client.cancelAll();
@@ -95,6 +121,7 @@ async function readCapture(ctx: ActionContext, opened: OpenedFile, sample: Sampl
     const reply = await ctx.client.request({ type: 'open', captureId: key, name: opened.name, content: contentOf(opened), reading }, (stage) => showProgress(ctx, stage)).catch((error: unknown) => {
       throw error instanceof FitCancelled ? error : new BenchError(`${opened.name}: ${plainMessage(error)}`);
     });
+    if (superseded(ctx, ticket)) return 'superseded' as const;
     if (reply.refusal) {
       const refusal = reply.refusal;
       ctx.store.update((s) => {
@@ -109,8 +136,12 @@ async function readCapture(ctx: ActionContext, opened: OpenedFile, sample: Sampl
     const { info } = reply;
     const byName = sample?.options.column ? info.channels.findIndex((c) => c.name === sample.options.column) : -1;
     const chosen = Math.min(channel ?? (byName >= 0 ? byName : 0), info.channels.length - 1);
-    // Remembered before it shows as opened: a reload from the moment the user sees it reopens this capture.
-    const [digest] = await Promise.all([sha256Hex(opened), rememberCapture(remembered(opened, chosen, reading))]);
+    const digest = await sha256Hex(opened);
+    if (superseded(ctx, ticket)) return 'superseded' as const;
+    // Remembered and listed before it shows as opened: a reload from the moment the user sees it reopens this capture.
+    await rememberCapture(remembered(opened, digest.sha256, chosen, reading), recentEntry(opened, digest.sha256));
+    // A newer open that started during the write is remembered after it, and shown instead.
+    if (superseded(ctx, ticket)) return 'superseded' as const;
     ctx.store.update((s) => {
       s.capture = { key, opened, info, channel: chosen, sample, ...digest };
       s.refused = null;
@@ -129,17 +160,22 @@ async function showAndMeasure(ctx: ActionContext): Promise<void> {
 }
 
 /** A capture, its channel and how it was read, as the next start reopens it (a sample by id, a file by its content). */
-function remembered(opened: OpenedFile, channel: number, reading: CaptureReading): RememberedCapture {
+function remembered(opened: OpenedFile, sha256: string, channel: number, reading: CaptureReading): RememberedCapture {
   return opened.sampleId
     ? { kind: 'sample', id: opened.sampleId, channel }
-    : { kind: 'file', name: opened.name, path: opened.path, ...contentOf(opened), channel, reading };
+    : { kind: 'file', name: opened.name, path: opened.path, ...contentOf(opened), channel, reading, sha256 };
+}
+
+/** The capture's entry in the recent list, opened now. */
+function recentEntry(opened: OpenedFile, sha256: string): RecentCapture {
+  return { id: sha256, name: opened.name, sampleId: opened.sampleId, path: opened.path, openedAt: new Date().toISOString() };
 }
 
 export async function chooseChannel(ctx: ActionContext, index: number): Promise<void> {
   const capture = ctx.store.state.capture;
   if (!capture) return;
   // Remembered before it shows: a reload from then on, during the fit too, comes back to this channel.
-  await rememberCapture(remembered(capture.opened, index, ctx.store.state.reading));
+  await rememberCapture(remembered(capture.opened, capture.sha256, index, ctx.store.state.reading), null);
   // Another capture opened meanwhile is the one shown (and remembered after this one).
   if (capture !== ctx.store.state.capture) return;
   ctx.store.update((s) => {

@@ -18,8 +18,8 @@ export interface ActionContext {
   client: FitClient;
   plot: FitPlot;
   page: PageAdapter;
-  /** Counters shared by the actions: steps running, the newest fit, captures opened. */
-  counters: { running: number; fitGeneration: number; captures: number };
+  /** Counters shared by the actions: steps running, the newest fit, captures read, opens started (the newest wins). */
+  counters: { running: number; fitGeneration: number; captures: number; opens: number };
 }
 
 /** Run one step with a progress line; a failure becomes the window's error message and null. */

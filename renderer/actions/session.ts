@@ -1,25 +1,26 @@
-// The session kept across reloads: the recent captures noted as they open, the window, known part and design put back
-// on the capture they were set for (never on another), and a recent capture opened again from the list.
+// The session kept across reloads: the window, known part and design put back on the capture they were set for (never
+// on another), and a recent capture opened again from the list.
 
 import type { BenchState } from '../benchState';
-import { readRecent, recallContent, rememberRecent, saveSession, type SessionMemory } from '../benchMemory';
-import { contentOf } from '../workerProtocol';
-import { openCapture, openSample } from './capture';
+import { saveSession, type SessionMemory } from '../benchMemory';
+import { recallContent, recentCaptures } from '../captureMemory';
+import { beginOpen, openCapture, openSample } from './capture';
 import type { ActionContext } from './context';
 import { loadDesignText } from './design';
 import { measure } from './fitWindow';
 
 /** Open a capture from the recent list: a sample by its id, a file from the content the browser kept. */
 export async function openRecent(ctx: ActionContext, id: string): Promise<void> {
-  const entry = readRecent().find((e) => e.id === id);
+  const entry = recentCaptures().find((e) => e.id === id);
   if (!entry) return;
-  if (entry.sampleId) return openSample(ctx, entry.sampleId);
+  const ticket = beginOpen(ctx);
+  if (entry.sampleId) return openSample(ctx, entry.sampleId, undefined, ticket);
   const content = await recallContent(id);
   if (!content) {
     ctx.store.update((s) => (s.error = `${entry.name} is no longer kept by the browser: open the file again`));
     return;
   }
-  await openCapture(ctx, { name: entry.name, path: entry.path, sampleId: null, ...content }, {});
+  await openCapture(ctx, { name: entry.name, path: entry.path, sampleId: null, ...content }, { ticket });
 }
 
 /**
@@ -42,24 +43,11 @@ export async function restoreSession(ctx: ActionContext, saved: SessionMemory | 
   await measure(ctx);
 }
 
-/**
- * A store subscriber noting each capture opened in the recent list, and the session as it stands once a fit is
- * shown. A file is listed once its content is stored, which may come after the last draw: `listed` draws again.
- */
-export function sessionKeeper(listed: () => void): (state: BenchState) => void {
-  let noted = '';
+/** A store subscriber keeping the session as it stands once a fit is shown (the captures are remembered as they open). */
+export function sessionKeeper(): (state: BenchState) => void {
   return (state) => {
     const capture = state.capture;
-    if (!capture) return;
-    if (capture.key !== noted) {
-      noted = capture.key;
-      const { opened } = capture;
-      void rememberRecent(
-        { id: capture.sha256, name: opened.name, sampleId: opened.sampleId, path: opened.path, openedAt: new Date().toISOString() },
-        opened.sampleId ? null : contentOf(opened),
-      ).then(listed);
-    }
-    if (!state.fit || state.busy !== null) return;
+    if (!capture || !state.fit || state.busy !== null) return;
     const { componentsInput, knownPartFrom, design, userWindow } = state;
     saveSession({
       capture: { sha256: capture.sha256, channel: capture.channel, name: capture.opened.name },

@@ -6,7 +6,7 @@ import { importRows } from '../../core/report/importText';
 import type { BenchState } from '../benchState';
 import type { CaptureInfo, StatedUnits, UnitRefusal } from '../workerProtocol';
 import { segmentRead } from '../traceData';
-import { readRecent } from '../benchMemory';
+import { recentCaptures } from '../captureMemory';
 import type { BenchActions } from '../actions';
 import { inWindowTerms } from '../windowTerms';
 
@@ -55,7 +55,7 @@ export function createCapturePanel(actions: BenchActions) {
       replaceChildren(sampleSelect, h('option', { attrs: { value: '' } }, 'choose a sample…'), ...state.samples.map((s) => h('option', { attrs: { value: s.id }, title: s.description }, s.title)));
     }
     sampleSelect.value = state.capture?.opened.sampleId ?? '';
-    const recent = readRecent();
+    const recent = recentCaptures();
     const recentList = recent.map((r) => r.id).join(',');
     if (recentList !== recentShown) {
       recentShown = recentList;
