@@ -17,8 +17,11 @@ import { contentOf, FILE_UNITS, type CaptureReading, type StatedUnits } from '..
 import { segmentRead } from '../traceData';
 
 /** First start: the sample the page asks for, else the last capture again, else a bundled sample with its design. */
-export async function start(ctx: ActionContext, requestedSample: string | null): Promise<void> {
-  const ticket = beginOpen(ctx);
+export function start(ctx: ActionContext, requestedSample: string | null): Promise<void> {
+  return opening(ctx, (ticket) => startWith(ctx, requestedSample, ticket));
+}
+
+async function startWith(ctx: ActionContext, requestedSample: string | null, ticket: number): Promise<void> {
   const lists = await runStep(ctx, 'reading the sample list', async () => ({ samples: await ctx.bridge.listSamples(), designs: await ctx.bridge.listDesigns() }));
   const state = ctx.store.state;
   if (lists) ctx.store.update((s) => Object.assign(s, lists));
@@ -33,26 +36,42 @@ export async function start(ctx: ActionContext, requestedSample: string | null):
 }
 
 /**
- * Number an open as the user starts it: an open started later supersedes it, whichever finishes reading first (a large
- * file opened just before a small one must not land last and replace it).
+ * Run one open of a capture, numbered as the user starts it: the newest open wins, whichever finishes reading first (a
+ * large file opened just before a small one must not land last and replace it). An open that ends showing nothing (a
+ * dismissed dialog, a file that could not be read) no longer holds back older ones still running.
  */
-export function beginOpen(ctx: ActionContext): number {
-  return ++ctx.counters.opens;
+export async function opening(ctx: ActionContext, run: (ticket: number) => Promise<void>): Promise<void> {
+  const ticket = ++ctx.opens.started;
+  ctx.opens.running.add(ticket);
+  try {
+    await run(ticket);
+  } finally {
+    ctx.opens.running.delete(ticket);
+  }
 }
 
+/** Whether a newer open has shown its capture, or is still running. */
 function superseded(ctx: ActionContext, ticket: number): boolean {
-  return ticket !== ctx.counters.opens;
+  return ticket < ctx.opens.shown || [...ctx.opens.running].some((other) => other > ticket);
 }
 
-export async function openSample(ctx: ActionContext, id: string, channel?: number, ticket = beginOpen(ctx)): Promise<void> {
+/** The open is about to show its capture (or its refusal): every older one is superseded for good. */
+function shows(ctx: ActionContext, ticket: number): void {
+  ctx.opens.shown = Math.max(ctx.opens.shown, ticket);
+}
+
+/** Open a bundled sample; `ticket` is the open it belongs to (the start's), else it is an open of its own. */
+export async function openSample(ctx: ActionContext, id: string, channel?: number, ticket?: number): Promise<void> {
+  if (ticket === undefined) return opening(ctx, (own) => openSample(ctx, id, channel, own));
   const sample = await runStep(ctx, 'opening the sample capture', () => ctx.bridge.readSample(id));
   if (sample) await openCapture(ctx, sample, { sample: sample.sample, design: sample.design, channel, ticket });
 }
 
-export async function pickCapture(ctx: ActionContext): Promise<void> {
-  const ticket = beginOpen(ctx);
-  const opened = await runStep(ctx, 'opening a capture', () => ctx.bridge.pickCapture());
-  if (opened) await openCapture(ctx, opened, { ticket });
+export function pickCapture(ctx: ActionContext): Promise<void> {
+  return opening(ctx, async (ticket) => {
+    const opened = await runStep(ctx, 'opening a capture', () => ctx.bridge.pickCapture());
+    if (opened) await openCapture(ctx, opened, { ticket });
+  });
 }
 
 /** A design file's extension: a dropped .json is a design, anything else a capture. */
@@ -60,9 +79,10 @@ const DESIGN_FILE = /\.json$/i;
 
 export async function openDropped(ctx: ActionContext, file: File): Promise<void> {
   if (DESIGN_FILE.test(file.name)) return openDroppedDesign(ctx, file);
-  const ticket = beginOpen(ctx);
-  const opened = await runStep(ctx, `opening ${file.name}`, () => ctx.bridge.openDropped(file));
-  if (opened) await openCapture(ctx, opened, { ticket });
+  return opening(ctx, async (ticket) => {
+    const opened = await runStep(ctx, `opening ${file.name}`, () => ctx.bridge.openDropped(file));
+    if (opened) await openCapture(ctx, opened, { ticket });
+  });
 }
 
 export async function openCapture(
@@ -70,7 +90,8 @@ export async function openCapture(
   opened: OpenedFile,
   options: { sample?: SampleEntry; design?: NamedText | null; channel?: number; reading?: CaptureReading; ticket?: number },
 ): Promise<void> {
-  const ticket = options.ticket ?? beginOpen(ctx);
+  const ticket = options.ticket;
+  if (ticket === undefined) return opening(ctx, (own) => openCapture(ctx, opened, { ...options, ticket: own }));
   if (superseded(ctx, ticket)) return;
   const read = await readCapture(ctx, ticket, opened, options.sample ?? null, options.reading ?? { units: FILE_UNITS }, options.channel);
   if (read === 'failed' || read === 'superseded') return;
@@ -97,8 +118,10 @@ async function readAgain(ctx: ActionContext, reading: CaptureReading): Promise<v
   const { capture, refused } = ctx.store.state;
   const opened = capture?.opened ?? refused?.opened;
   if (!opened) return;
-  const read = await readCapture(ctx, beginOpen(ctx), opened, capture?.sample ?? refused?.sample ?? null, reading, capture?.channel);
-  if (read === 'read') await showAndMeasure(ctx);
+  await opening(ctx, async (ticket) => {
+    const read = await readCapture(ctx, ticket, opened, capture?.sample ?? refused?.sample ?? null, reading, capture?.channel);
+    if (read === 'read') await showAndMeasure(ctx);
+  });
 }
 
 /**
@@ -124,6 +147,7 @@ async function readCapture(
     if (superseded(ctx, ticket)) return 'superseded' as const;
     if (reply.refusal) {
       const refusal = reply.refusal;
+      shows(ctx, ticket);
       ctx.store.update((s) => {
         s.capture = null;
         s.refused = { opened, refusal, sample };
@@ -142,6 +166,7 @@ async function readCapture(
     await rememberCapture(remembered(opened, digest.sha256, chosen, reading), recentEntry(opened, digest.sha256));
     // A newer open that started during the write is remembered after it, and shown instead.
     if (superseded(ctx, ticket)) return 'superseded' as const;
+    shows(ctx, ticket);
     ctx.store.update((s) => {
       s.capture = { key, opened, info, channel: chosen, sample, ...digest };
       s.refused = null;

@@ -18,8 +18,10 @@ export interface ActionContext {
   client: FitClient;
   plot: FitPlot;
   page: PageAdapter;
-  /** Counters shared by the actions: steps running, the newest fit, captures read, opens started (the newest wins). */
-  counters: { running: number; fitGeneration: number; captures: number; opens: number };
+  /** Counters shared by the actions: steps running, the newest fit, captures opened. */
+  counters: { running: number; fitGeneration: number; captures: number };
+  /** The opens of captures, numbered as they start: the last number given, the newest shown, and those still running. */
+  opens: { started: number; shown: number; running: Set<number> };
 }
 
 /** Run one step with a progress line; a failure becomes the window's error message and null. */

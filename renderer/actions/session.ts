@@ -4,7 +4,7 @@
 import type { BenchState } from '../benchState';
 import { saveSession, type SessionMemory } from '../benchMemory';
 import { recallContent, recentCaptures } from '../captureMemory';
-import { beginOpen, openCapture, openSample } from './capture';
+import { openCapture, opening, openSample } from './capture';
 import type { ActionContext } from './context';
 import { loadDesignText } from './design';
 import { measure } from './fitWindow';
@@ -13,14 +13,15 @@ import { measure } from './fitWindow';
 export async function openRecent(ctx: ActionContext, id: string): Promise<void> {
   const entry = recentCaptures().find((e) => e.id === id);
   if (!entry) return;
-  const ticket = beginOpen(ctx);
-  if (entry.sampleId) return openSample(ctx, entry.sampleId, undefined, ticket);
-  const content = await recallContent(id);
-  if (!content) {
-    ctx.store.update((s) => (s.error = `${entry.name} is no longer kept by the browser: open the file again`));
-    return;
-  }
-  await openCapture(ctx, { name: entry.name, path: entry.path, sampleId: null, ...content }, { ticket });
+  if (entry.sampleId) return openSample(ctx, entry.sampleId);
+  await opening(ctx, async (ticket) => {
+    const content = await recallContent(id);
+    if (!content) {
+      ctx.store.update((s) => (s.error = `${entry.name} is no longer kept by the browser: open the file again`));
+      return;
+    }
+    await openCapture(ctx, { name: entry.name, path: entry.path, sampleId: null, ...content }, { ticket });
+  });
 }
 
 /**

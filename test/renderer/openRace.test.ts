@@ -47,11 +47,12 @@ async function context(reader: ReturnType<typeof heldReader>): Promise<ActionCon
   };
   return {
     store: createStore(initialState('browser'), (run) => run()),
-    bridge: { openDropped: reader.read },
+    bridge: { openDropped: reader.read, pickCapture: () => Promise.resolve(null) },
     client,
     plot: { clear: () => undefined },
     page: { showCaptureName: () => undefined },
-    counters: { running: 0, fitGeneration: 0, captures: 0, opens: 0 },
+    counters: { running: 0, fitGeneration: 0, captures: 0 },
+    opens: { started: 0, shown: 0, running: new Set<number>() },
   } as unknown as ActionContext;
 }
 
@@ -74,5 +75,16 @@ describe('opening captures in quick succession', () => {
     const last = await memory.recallCapture();
     expect(last?.kind === 'file' ? last.name : null).toBe('small.csv');
     expect(memory.recentCaptures().map((e) => e.name)).toEqual(['small.csv', 'first.csv']);
+  });
+
+  it('still shows an older open when a newer one ends showing nothing (a dismissed dialog)', async () => {
+    const reader = heldReader();
+    const ctx = await context(reader);
+    const large = capture.openDropped(ctx, new File([''], 'large.csv'));
+    await capture.pickCapture(ctx);
+    reader.finish('large.csv');
+    await large;
+    expect(ctx.store.state.capture?.opened.name).toBe('large.csv');
+    expect(memory.recentCaptures().map((e) => e.name)).toEqual(['large.csv']);
   });
 });
