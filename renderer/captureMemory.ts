@@ -87,7 +87,8 @@ async function readMemory(): Promise<RememberedCapture | null> {
     if (!content) return null;
     const path = typeof last.path === 'string' ? last.path : null;
     const sha256 = typeof last.sha256 === 'string' ? last.sha256 : '';
-    return { kind: 'file', name: last.name, path, channel: last.channel, reading: last.reading as CaptureReading | undefined, sha256, ...content };
+    const reading = isObject(last.reading) && isObject(last.reading.units) ? (last.reading as unknown as CaptureReading) : undefined;
+    return { kind: 'file', name: last.name, path, channel: last.channel, reading, sha256, ...content };
   });
 }
 

@@ -1,4 +1,5 @@
-// What the browser bench keeps across a reload: the recent captures (a dropped file opened again from the list), and the
+// What the browser bench keeps across a reload: the recent captures (a dropped file opened again from the list), a last
+// capture a previous version kept (reopened, stored once), and the
 // session as it was left (window and known part) put back on that same capture only, never on another.
 
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -80,5 +81,42 @@ describe.skipIf(!hasChromium)('session kept across reloads', () => {
     await waitForFit(page, 'rc-charge.csv');
     expect(await page.inputValue('#known-value')).toBe('');
     expect(await page.inputValue('#window-end')).not.toBe('600µs');
+  }, SESSION_TEST_MS);
+
+  it('reopens the last capture a previous version kept whole, and drops its recent list', async () => {
+    const fresh = await (await browser.newContext({ viewport: { width: 1280, height: 720 }, deviceScaleFactor: 1 })).newPage();
+    const warnings: string[] = [];
+    fresh.on('console', (message) => ['warning', 'error'].includes(message.type()) && warnings.push(message.text()));
+    await fresh.goto(bench.url);
+    await waitForFit(fresh, `${SAMPLE}.csv`);
+    // The previous layout: the last capture with its content in 'ringbench' version 1, the recent list apart.
+    await fresh.evaluate(async (text) => {
+      const done = (request: IDBRequest | IDBOpenDBRequest) => new Promise((resolve, reject) => ((request.onsuccess = () => resolve(request.result)), (request.onerror = () => reject(request.error))));
+      await done(indexedDB.deleteDatabase('ringbench'));
+      const open = indexedDB.open('ringbench', 1);
+      open.onupgradeneeded = () => open.result.createObjectStore('last-capture').put({ kind: 'file', name: 'kept-whole.csv', path: null, channel: 0, text }, 'last');
+      (await done(open) as IDBDatabase).close();
+      const recent = indexedDB.open('ringbench-recent', 1);
+      recent.onupgradeneeded = () => recent.result.createObjectStore('contents').put({ text }, 'old-id');
+      (await done(recent) as IDBDatabase).close();
+      localStorage.setItem('ringbench.recent-captures', JSON.stringify([{ id: 'old-id', name: 'listed-before.csv', sampleId: null, path: null, openedAt: '2020-01-01T00:00:00Z' }]));
+    }, rcStepCapture());
+    await fresh.reload();
+    await waitForFit(fresh, 'kept-whole.csv');
+    expect(await fresh.locator('#capture-samples').innerText()).toBe('1,500');
+    expect(await recentNames(fresh)).toEqual(['kept-whole.csv']);
+    // Reopened, its content is stored once, under its digest, and the last capture only refers to it.
+    const left = await fresh.evaluate(async () => {
+      const done = <T>(request: IDBRequest<T>) => new Promise<T>((resolve, reject) => ((request.onsuccess = () => resolve(request.result)), (request.onerror = () => reject(request.error))));
+      const db = (await done(indexedDB.open('ringbench'))) as IDBDatabase;
+      const tx = db.transaction(['contents', 'memory']);
+      const [keys, last] = await Promise.all([done(tx.objectStore('contents').getAllKeys()), done(tx.objectStore('memory').get('last'))]);
+      db.close();
+      const databases = (await indexedDB.databases()).map((d) => `${d.name} ${d.version}`).sort();
+      return { databases, list: localStorage.getItem('ringbench.recent-captures'), keys, lastKeeps: Object.keys(last).sort() };
+    });
+    expect(left).toMatchObject({ databases: ['ringbench 2'], list: null, keys: [expect.stringMatching(/^[0-9a-f]{64}$/)] });
+    expect(left.lastKeeps).toEqual(['channel', 'kind', 'name', 'path', 'reading', 'sha256']);
+    expect(warnings).toEqual([]);
   }, SESSION_TEST_MS);
 });
