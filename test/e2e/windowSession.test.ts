@@ -1,6 +1,6 @@
 // What the browser bench keeps across a reload: the recent captures (a dropped file opened again from the list), a last
-// capture a previous version kept (reopened, stored once), and the
-// session as it was left (window and known part) put back on that same capture only, never on another.
+// capture a previous version kept (reopened, stored once), and the session as it was left (window and known part) put
+// back on that same capture only, never on another.
 
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
