@@ -49,8 +49,8 @@ function boot(): void {
     onShowShortcuts: () => shortcutList.toggle(),
   });
   const page = { showCaptureName: (name: string) => (document.title = `${name} — Ringbench`) };
-  const actions = bindActions({ store, bridge, client: new FitClient('worker.js'), plot, page, counters: { running: 0, fitGeneration: 0, captures: 0 },
-    opens: { started: 0, shown: 0, running: new Set() }, });
+  const opens = { started: 0, shown: 0, running: new Set<number>() };
+  const actions = bindActions({ store, bridge, client: new FitClient('worker.js'), plot, page, counters: { running: 0, fitGeneration: 0, captures: 0 }, opens });
   const toggleTheme = () => {
     applyTheme(currentTheme() === 'dark' ? 'light' : 'dark');
     void plot.redraw();
