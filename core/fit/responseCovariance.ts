@@ -259,14 +259,49 @@ function localCovariance(
   const bread = estimate.covariance;
   const warnings = [...estimate.warnings];
   const plain = bread?.map((row) => row.map((v) => residualVariance * v)) ?? null;
-  const sandwich = bread ? residualSandwich(J, bread, residuals) : null;
-  if (!bread || !plain || !sandwich) return { names, covariance: plain, correlation: estimate.correlation, inflation: 1, warnings };
-  const { covariance, correlation } = sandwich;
+  if (!bread || !plain) return { names, covariance: plain, correlation: estimate.correlation, inflation: 1, warnings };
   const rates = ['alpha', 'omega0'].filter((name) => name in index);
-  const ratios = rates.map((name) => covariance[index[name]][index[name]] / plain[index[name]][index[name]]);
+  const ratiosOf = (c: number[][]) => rates.map((name) => c[index[name]][index[name]] / plain[index[name]][index[name]]);
+  const sandwich = residualSandwich(J, bread, residuals);
+  const uneven = unevenNoiseSandwich(J, bread, residuals);
+  // Uneven noise (sampling jitter, noise that scales with the signal) is taken only when it widens beyond the correlated reading.
+  const unevenRatios = uneven ? ratiosOf(uneven.covariance) : [];
+  if (uneven && Math.max(...unevenRatios) > Math.max(UNEVEN_GATE, ...(sandwich ? ratiosOf(sandwich.covariance) : [1]))) {
+    const widened = rates.map((name, k) => `${Math.sqrt(unevenRatios[k]).toFixed(2)}x (${name})`).join(' and ');
+    warnings.push(`the residuals are larger where the response changes fast (sampling jitter, or noise that scales with the signal): uncertainties widened by ${widened}`);
+    return { names, ...uneven, inflation: Math.max(...unevenRatios), warnings };
+  }
+  if (!sandwich) return { names, covariance: plain, correlation: estimate.correlation, inflation: 1, warnings };
+  const { covariance, correlation } = sandwich;
+  const ratios = ratiosOf(covariance);
   if (Math.max(...ratios) > WARN_INFLATION) {
     const widened = rates.map((name, k) => `${Math.sqrt(ratios[k]).toFixed(2)}x (${name})`).join(' and ');
     warnings.push(`the residuals are correlated (noise bandwidth-limited or model mismatch): uncertainties widened by ${widened}`);
   }
   return { names, covariance, correlation, inflation: Math.max(...ratios), warnings };
+}
+
+/**
+ * Above this variance ratio (alpha or omega0) against white noise the uneven-noise sandwich is taken: white noise
+ * of a few hundred samples or more leaves its ratio within some 10 % of 1, so a good capture keeps its covariance.
+ */
+export const UNEVEN_GATE = WARN_INFLATION;
+
+/**
+ * The heteroscedasticity-consistent sandwich (J^T J)^-1 (sum r_i^2 J_i J_i^T) (J^T J)^-1 n / (n - p) of White
+ * (Econometrica 1980, HC1; from memory): right when the noise variance varies along the record, as sampling
+ * jitter makes it (its error is the slope times the time error, largest on the ring's first swings, exactly where
+ * alpha and omega0 are read). Null when there are no more samples than parameters.
+ */
+export function unevenNoiseSandwich(J: readonly Float64Array[], bread: number[][], residuals: Float64Array): { covariance: number[][]; correlation: number[][] } | null {
+  const n = residuals.length;
+  const p = bread.length;
+  if (n <= p) return null;
+  const meat = Array.from({ length: p }, () => new Array<number>(p).fill(0));
+  for (let i = 0; i < n; i++) {
+    const w = (residuals[i] * residuals[i] * n) / (n - p);
+    const row = J[i];
+    for (let a = 0; a < p; a++) for (let b = 0; b < p; b++) meat[a][b] += w * row[a] * row[b];
+  }
+  return sandwichCovariance(bread, meat);
 }
