@@ -1,6 +1,7 @@
 // Turns the stored columns and the layout into a Capture: time axes, per-channel dropping, clipping, interval.
 
 import { formatEngineering } from '../units/format';
+import { printable } from '../units/unitText';
 import { MIN_SAMPLES } from './captureLimits';
 import { detectClipping, type Clipping } from './detectClipping';
 import { nameChannels, type ColumnPlan, type Layout } from './layout';
@@ -35,6 +36,25 @@ function label(column: ColumnPlan): string {
   return column.heading || column.name;
 }
 
+/**
+ * A note naming the time columns of the kept channels that state no unit (none in the header, a units row or the
+ * timeUnit option): they are read as seconds, the usual export convention, but a column in microseconds read so
+ * would put every frequency 10^6 off without a sign.
+ */
+function unitlessTimeNote(columns: ColumnPlan[], kept: KeptChannel[]): string | null {
+  const unitless = new Set<number>();
+  for (const { column } of kept) {
+    const index = column.timeColumn;
+    if (index !== null && columns[index].kind === 'time' && columns[index].unit === '') unitless.add(index);
+  }
+  if (unitless.size === 0) return null;
+  const names = [...unitless].map((index) => (columns[index].heading ? `'${printable(columns[index].heading)}'` : `${index + 1}`));
+  const advice = 'state another unit with --time-unit';
+  if (names.length === 1) return `time column ${names[0]} states no unit and was read as seconds; ${advice}`;
+  const listed = `${names.slice(0, -1).join(', ')} and ${names[names.length - 1]}`;
+  return `time columns ${listed} state no unit and were read as seconds; ${advice}`;
+}
+
 /** A headerless first column is time when strictly increasing (or to be sorted); otherwise it is a channel. */
 function resolveFirstColumn(layout: Layout, store: StoredRows, lines: RowLines, options: CaptureOptions): void {
   // The first column that is not ignored (a leading empty field or a sample index may come before it).
@@ -44,6 +64,7 @@ function resolveFirstColumn(layout: Layout, store: StoredRows, lines: RowLines, 
   const problem = findOrderProblem(store.column(index));
   if (problem === null || options.sortTime) {
     first.kind = 'time';
+    first.unit = options.timeUnit?.unit ?? '';
     first.scale = options.timeUnit?.scale ?? 1;
     return;
   }
@@ -225,6 +246,8 @@ export function assembleCapture(
   if (channels.length === 0) {
     throw new CaptureError(`no channel has at least ${MIN_SAMPLES} usable samples`, layout.firstDataLine);
   }
+  const unitless = unitlessTimeNote(layout.columns, kept);
+  if (unitless) warnings.push(unitless);
   const sampleInterval = commonInterval(kept.map((k) => k.axis));
   const stated = layout.interval;
   if (stated && kept.some((k) => k.axis.interval !== null && Math.abs(k.axis.interval - stated.value) > 0.01 * stated.value)) {

@@ -249,7 +249,8 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
     const counting = countsUp(column(c));
     const indexNamed = INDEX_NAME.test(p.name) || INDEX_NAME.test(units?.[c]?.trim() ?? '');
     const beforeTime = !header && c === skip && evenSteps(column(c + 1), decimalComma) && !countsUp(column(c + 1));
-    const timeNamed = header !== null && (isTimeName(p.name) || readsAsTime(p.reading));
+    // A unit of time names a time column, in a header or in a units row (of a table without a header too).
+    const timeNamed = (header !== null && isTimeName(p.name)) || readsAsTime(p.reading);
     let kind: ColumnKind = 'value';
     if (c < skip || timing?.cells.has(c)) kind = 'ignored';
     else if (counting && (indexNamed || beforeTime || (statesTiming && (timeNamed || c === skip)))) kind = 'ignored';

@@ -18,6 +18,7 @@
 //   Without a header, the first of two or more columns is time when strictly increasing (or when sortTime is set);
 //   otherwise every column is a channel. An empty field opening every row, and a column counting samples (an index
 //   beside a time column, or a sequence number where the start and increment are stated) are no channels; see layout.
+//   A time column whose unit neither its header, a units row nor timeUnit states is read in seconds, with a note.
 // - Without a numeric time column, t = t0 + i * dt: dt from the sampleInterval option or a preamble key meaning
 //   the sample interval (sample interval, sampling period, xincrement, delta t, dt, time per point, increment;
 //   never a per-division scale), t0 from a numeric 't0', 'x origin' or 'start time' key, else 0.

@@ -53,7 +53,8 @@ const cases: Expected[] = [
     ],
     sampleInterval: 1e-9,
     metadata: {},
-    warnings: [],
+    // 'Time Vsw' and 'Time Vgate' state no unit: read as seconds, and said so.
+    warnings: [/^time columns 'Time Vsw' and 'Time Vgate' state no unit and were read as seconds; state another unit with --time-unit$/],
   },
   {
     // Values only, '=' key/value lines, an origin, a per-division scale that is not the interval, overrange cells.

@@ -158,11 +158,12 @@ describe('a unit that cannot be read is refused, naming where and the option', (
     expect(error.message).not.toMatch(/[\u0000-\u001f]/);
   });
 
-  it('a column without a unit keeps being read as written (time in s)', () => {
+  it('a column without a unit keeps being read as written (time in s), with a note', () => {
     const capture = parseCapture(`Time,CH1\n${timedRows()}`);
     expect(capture.channels[0].time[0]).toBe(10);
     expect(capture.channels[0].unit).toBe('');
     expect(capture.channels[0].values[0]).toBe(values[0]);
+    expect(capture.warnings).toEqual(["time column 'Time' states no unit and was read as seconds; state another unit with --time-unit"]);
   });
 
   it('a label in brackets is no unit', () => {
@@ -178,6 +179,53 @@ describe('a unit that cannot be read is refused, naming where and the option', (
     const capture = parseCapture(`Start Time,2024-03-14 09:26:05\nSample Interval,1e-6\nCH1 (V)\n${values.join('\n')}`);
     expect(capture.sampleInterval).toBe(1e-6);
     expect(capture.channels[0].time[0]).toBe(0);
+  });
+});
+
+describe('a time column that states no unit is read as seconds, with a note', () => {
+  const timeUnit = (text: string) => parseStatedUnit(text, true, '--time-unit');
+  // Times written '10.0' (not '10'): a headerless 'whole number,digit' row would read as one number with a decimal comma.
+  const rows = values.map((v, i) => `${10 + i}.0,${v}`).join('\n');
+
+  it.each([
+    ['t,v', "time column 't' states"],
+    ['Time,CH1 (V)', "time column 'Time' states"],
+    ['', 'time column 1 states'],
+  ])("'%s': the note names the column and --time-unit, in the import summary too", (header, named) => {
+    const capture = parseCapture(`${header === '' ? '' : `${header}\n`}${rows}`);
+    close(capture.channels[0].time[1], 11);
+    expect(capture.warnings).toEqual([`${named} no unit and was read as seconds; state another unit with --time-unit`]);
+    expect(capture.importSummary.warnings).toEqual(capture.warnings);
+    expect(capture.importSummary.time).toMatchObject({ kind: 'column', unit: '' });
+  });
+
+  it('time/value pairs: one note naming every time column without a unit', () => {
+    const rows = values.map((v, i) => `${i},${v},${i + 0.5},${-v},${i},${v}`).join('\n');
+    const capture = parseCapture(`TimeA,A,TimeB,B,Time (s),C\n${rows}`);
+    expect(capture.warnings).toEqual([
+      "time columns 'TimeA' and 'TimeB' state no unit and were read as seconds; state another unit with --time-unit",
+    ]);
+  });
+
+  it('no note when the unit comes from the header, a units row or timeUnit', () => {
+    const stated = [
+      parseCapture(`Time (us),CH1 (V)\n${rows}`),
+      parseCapture(`Time,CH1\n(us),(V)\n${rows}`),
+      parseCapture(`(us),(V)\n${rows}`),
+      parseCapture(`Time,CH1\n${rows}`, { timeUnit: timeUnit('us') }),
+      parseCapture(rows, { timeUnit: timeUnit('us') }),
+    ];
+    for (const capture of stated) {
+      close(capture.channels[0].time[1], 11e-6);
+      expect(capture.warnings).toEqual([]);
+      expect(capture.importSummary.time).toMatchObject({ kind: 'column', unit: 'µs' });
+    }
+  });
+
+  it('no note for an axis built from a sample interval, nor for a headerless first column read as a channel', () => {
+    const capture = parseCapture(values.map((v) => `${v},${-v}`).join('\n'), { sampleInterval: 1e-6 });
+    expect(capture.channels.map((c) => c.name)).toEqual(['channel 1', 'channel 2']);
+    expect(capture.warnings).toEqual([]);
   });
 });
 
