@@ -2,6 +2,8 @@
 //
 // How a text is read:
 // - Bytes are UTF-8, UTF-16 (told by its byte-order mark) or, when not valid UTF-8, Windows-1252 (textEncoding).
+//   A file that is not text (a known binary signature, or a NUL byte not in a run of them ending the file) is refused,
+//   naming the telltale (binaryContent).
 // - Lines end in LF, CRLF or CR; a byte-order mark is dropped (both noted in the capture's importSummary).
 //   Blank lines and comments ('#', ';', '%', '//') are skipped anywhere; 'CR CR LF' ends a line like CR LF.
 // - The table starts at the first of 3 rows that split the same way into numbers (or missing-value markers, or
@@ -35,6 +37,7 @@
 //   much shorter than their table that storing them would take more cells than the file has bytes (ColumnStore).
 
 import { assembleCapture } from './assembleCapture';
+import { BinaryWatch, SIGNATURE_BYTES } from './binaryContent';
 import { ByteRowReader } from './byteRowReader';
 import { ColumnStore } from './columnStore';
 import { dataShape, sameShape, type DataShape } from './dataShape';
@@ -459,6 +462,8 @@ export type CaptureFileReader = Pick<CaptureReader, 'pushBytes' | 'finish'>;
 
 /** Bytes of the start of a file that tell UTF-16 without a byte-order mark (see utf16Of). */
 const ENCODING_BYTES = 4;
+/** Bytes of the start of a file held until its reader is chosen: its encoding, or the signature of a binary file, told from them. */
+const START_BYTES = Math.max(ENCODING_BYTES, SIGNATURE_BYTES);
 
 /**
  * A capture file's bytes pushed in pieces of any size, then finish(): the capture parseCaptureFileBytes gives for all
@@ -469,7 +474,13 @@ export function createCaptureFileReader(options: CaptureOptions = {}, size: numb
   let start: Uint8Array = new Uint8Array(0);
   let reader: StreamingReader | null = null;
   let utf16: ((bytes?: Uint8Array) => string) | null = null;
-  const pass = (bytes: Uint8Array): void => (utf16 ? (reader as StreamingReader).push(utf16(bytes)) : (reader as StreamingReader).pushBytes(bytes));
+  // Bytes read as UTF-8 or Windows-1252 are checked for binary content before they are read (UTF-16 text holds NUL bytes).
+  const binary = new BinaryWatch();
+  const pass = (bytes: Uint8Array): void => {
+    if (utf16) return (reader as StreamingReader).push(utf16(bytes));
+    binary.check(bytes);
+    (reader as StreamingReader).pushBytes(bytes);
+  };
   /** The encoding is told from the first bytes; they go to the reader it needs. */
   const begin = (first: Uint8Array): void => {
     const encoding = utf16Of(first);
@@ -483,12 +494,13 @@ export function createCaptureFileReader(options: CaptureOptions = {}, size: numb
   return {
     pushBytes(chunk) {
       if (reader !== null) pass(chunk);
-      else if (start.length + chunk.length < ENCODING_BYTES) start = joinBytes(start, chunk);
+      else if (start.length + chunk.length < START_BYTES) start = joinBytes(start, chunk);
       else begin(start.length === 0 ? chunk : joinBytes(start, chunk));
     },
     finish() {
       if (reader === null) begin(start);
       if (utf16) (reader as StreamingReader).push(utf16());
+      else binary.end();
       return (reader as StreamingReader).finish();
     },
   };

@@ -1,9 +1,10 @@
 // Bad capture files: one CaptureError naming the 1-based line and what was wrong; footers and sorting as states.
 
 import { describe, expect, it } from 'vitest';
-import { parseCapture } from '../../core/capture/parseCapture';
+import { parseCapture, parseCaptureFileBytes } from '../../core/capture/parseCapture';
 import { CaptureError } from '../../core/capture/types';
 import type { CaptureOptions } from '../../core/capture/types';
+import { encodeText } from '../fixtures/exportHabits';
 
 const N = 30;
 const value = (i: number): number => Number((1.5 * Math.exp(-i / 25) * Math.sin(i / 2)).toFixed(5));
@@ -16,9 +17,10 @@ function table(rows: string[]): string {
 }
 const good = Array.from({ length: N }, (_, i) => row(i));
 
-function captureError(text: string, options: CaptureOptions = {}): CaptureError {
+function captureError(text: string | Uint8Array, options: CaptureOptions = {}): CaptureError {
   try {
-    parseCapture(text, options);
+    if (typeof text === 'string') parseCapture(text, options);
+    else parseCaptureFileBytes(text, options);
   } catch (error) {
     expect(error).toBeInstanceOf(CaptureError);
     expect((error as Error).name).toBe('CaptureError');
@@ -118,5 +120,43 @@ describe('options', () => {
   it.each([0, -1e-9, Number.NaN, Number.POSITIVE_INFINITY])('rejects sampleInterval %d naming the option', (interval) => {
     const values = Array.from({ length: N }, (_, i) => `${value(i)}`).join('\n');
     expect(captureError(`CH1\n${values}`, { sampleInterval: interval }).message).toMatch(/^option sampleInterval must be a positive number/);
+  });
+});
+
+describe('a file that is not text', () => {
+  const bytes = (...parts: (string | number[])[]): Uint8Array =>
+    Uint8Array.from(parts.flatMap((p) => (typeof p === 'string' ? [...new TextEncoder().encode(p)] : p)));
+  const advice = 'export the capture as CSV or text';
+  /** The first 16 bytes of a PNG image: its signature, then the length and name of its first chunk. */
+  const png = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52];
+
+  it.each([
+    ['a PNG image', bytes(png, [0, 0, 2, 0]), 'its first bytes are those of a PNG image'],
+    ['an .xlsx workbook (a zip archive)', bytes([0x50, 0x4b, 3, 4, 20, 0, 6, 0], '[Content_Types].xml'), 'its first bytes are those of a zip archive (as an .xlsx workbook is)'],
+    ['a PDF (no NUL byte)', bytes('%PDF-1.7\n%\u00e2\u00e3\n1 0 obj\n'), 'its first bytes are those of a PDF document'],
+    ['a NUL byte inside the table', bytes(table(good).replace(good[5], `${good[5]}\u0000`)), `a NUL byte at byte offset ${table(good).indexOf(good[5]) + good[5].length}`],
+    ['a binary waveform after a text preamble', bytes(':WFMPRE:BYT_NR 2;ENCDG BIN;\n:CURVE #3500', [1, 0, 255, 127, 10, 0, 3]), 'a NUL byte at byte offset 41'],
+    ['NUL bytes only', new Uint8Array(4096), 'all 4096 bytes are NUL'],
+  ])('%s: one CaptureError saying so, with the telltale', (_, file, telltale) => {
+    const error = captureError(file);
+    expect(error.message).toBe(`the file is not text but binary content: ${telltale}; ${advice}`);
+    expect(error.line).toBeNull();
+  });
+
+  it('UTF-16 without a byte-order mark that starts beyond ASCII (not told as UTF-16): says what it looks like', () => {
+    const error = captureError(encodeText(`\u00b5s,V\n${good.join('\n')}`, 'UTF-16LE without BOM'));
+    expect(error.message).toBe(
+      'the file is not text as read: a NUL byte at byte offset 1 and at every other byte from the start, as UTF-16 text without a ' +
+        'byte-order mark has; save it as UTF-8, or as UTF-16 with a byte-order mark',
+    );
+  });
+
+  it('still reads UTF-16 (whose bytes hold NULs), and a capture padded with NUL bytes to its end', () => {
+    for (const encoding of ['UTF-16LE', 'UTF-16BE', 'UTF-16LE without BOM'] as const) {
+      expect(parseCaptureFileBytes(encodeText(table(good), encoding)).channels[0].values.length).toBe(N);
+    }
+    const padded = parseCaptureFileBytes(bytes(table(good), new Array<number>(512).fill(0)));
+    expect(padded.channels[0].values.length).toBe(N);
+    expect(padded.warnings.at(-1)).toMatch(/^1 line\(s\) after the last data row were ignored \(from line 32: '\u0000/);
   });
 });

@@ -5,7 +5,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { parseCapture } from '../../core/capture/parseCapture';
+import { parseCaptureFileBytes } from '../../core/capture/parseCapture';
 import { InputError } from '../../core/inputError';
 import { messageFor, namingFile } from '../../main/cli/errors';
 import { runCliIn } from './cliHarness';
@@ -16,10 +16,10 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 const run = (args: string[]) => runCliIn(dir, args);
 
-/** What the importer alone says about the text, as the command line prints it: null when it reads. */
-function importError(text: string): string | null {
+/** What the importer alone says about the file's bytes (or text, as UTF-8), as the command line prints it: null when it reads. */
+function importError(file: Uint8Array | string): string | null {
   try {
-    namingFile(FILE, () => parseCapture(text));
+    namingFile(FILE, () => parseCaptureFileBytes(typeof file === 'string' ? new TextEncoder().encode(file) : file));
     return null;
   } catch (error) {
     if (error instanceof InputError) return messageFor(error);
@@ -68,7 +68,7 @@ describe('ringbench fit on arbitrary files (fast-check)', () => {
     await fc.assert(
       fc.asyncProperty(fc.uint8Array({ maxLength: 400 }), async (bytes) => {
         const { code, err } = await checkFit(bytes);
-        const expected = importError(Buffer.from(bytes).toString('utf8'));
+        const expected = importError(bytes);
         if (expected !== null) {
           expect(code).toBe(2);
           expect(err).toBe(`ringbench: ${expected}\n`);
