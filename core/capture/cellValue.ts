@@ -143,9 +143,7 @@ const MINUS_SIGN = /\u2212/g;
  * (U+2212) reads as '-'.
  */
 export function slowCellValue(cell: string, decimalComma: boolean): number | null {
-  let text = cell.trim();
-  if (text.length >= 2 && text.startsWith('"') && text.endsWith('"')) text = text.slice(1, -1).trim();
-  text = text.replace(MINUS_SIGN, '-');
+  const text = cellText(cell);
   const lower = text.toLowerCase();
   if (MISSING.has(lower) || STARS.test(text) || DASHES.test(text)) return NaN;
   if (HEX.test(text)) return null;
@@ -153,6 +151,41 @@ export function slowCellValue(cell: string, decimalComma: boolean): number | nul
   const value = Number(normal);
   if (Number.isNaN(value)) return null;
   return Number.isFinite(value) && Math.abs(value) < OVERRANGE ? value : NaN;
+}
+
+/** A cell's text as a number would be read from it: trimmed, unquoted, a Unicode minus sign (U+2212) as '-'. */
+function cellText(cell: string): string {
+  let text = cell.trim();
+  if (text.length >= 2 && text.startsWith('"') && text.endsWith('"')) text = text.slice(1, -1).trim();
+  return text.replace(MINUS_SIGN, '-');
+}
+
+/**
+ * A number written with digit groups: 1 to 3 digits, then groups of 3 after one separator (a comma, a point, an
+ * apostrophe, or a space: plain, no-break, narrow no-break or thin), then decimals after the other mark
+ * ('1,234.5', '1.234,5', '1 234,5', "1'234'567.8"). How spreadsheets and localised exports write thousands.
+ */
+const GROUPED = /^[+-]?\d{1,3}([,.'\u2019 \u00a0\u202f\u2009])\d{3}(?:\1\d{3})*(?:(?!\1)[.,]\d*)?$/;
+/** Each separator GROUPED allows, in words. */
+const SEPARATOR_NAMES: Record<string, string> = {
+  ',': 'a comma',
+  '.': 'a point',
+  "'": 'an apostrophe',
+  '\u2019': 'an apostrophe',
+  ' ': 'a space',
+  '\u00a0': 'a no-break space',
+  '\u202f': 'a narrow no-break space',
+  '\u2009': 'a thin space',
+};
+
+/**
+ * Why a cell that is no number is not read, when it is a number written with digit groups (see GROUPED), in words
+ * for an error message naming it; null for any other cell.
+ */
+export function groupingCause(cell: string): string | null {
+  const match = GROUPED.exec(cellText(cell));
+  if (match === null) return null;
+  return `a number written with a thousands separator (${SEPARATOR_NAMES[match[1]]}); export the numbers without digit grouping`;
 }
 
 const DATE_TIME =

@@ -1,6 +1,6 @@
 // Recognises a row of numbers and the delimiter it uses, before the layout of the file is known.
 
-import { isTimestamp, slowCellValue } from './cellValue';
+import { groupingCause, isTimestamp, slowCellValue } from './cellValue';
 import { isBlankOrComment } from './preamble';
 import { WHITESPACE, splitLine } from './splitLine';
 
@@ -59,4 +59,27 @@ function emptyFirstField(text: string): DataShape | null {
 /** Two rows belong to the same table when they split the same way into the same number of cells. */
 export function sameShape(a: DataShape, b: DataShape): boolean {
   return a.delimiter === b.delimiter && a.cells.length === b.cells.length;
+}
+
+/**
+ * The first cell written with digit groups ('1,234.5', see groupingCause) of a line split at `delimiter` whose other
+ * cells are numbers, missing-value markers or time stamps: a row of data the reader cannot take; else null.
+ */
+export function groupedCell(text: string, delimiter: string): string | null {
+  let grouped: string | null = null;
+  for (const cell of splitLine(text, delimiter)) {
+    if (slowCellValue(cell, delimiter !== ',' || cell.includes(',')) !== null || isTimestamp(cell)) continue;
+    if (groupingCause(cell) === null) return null;
+    grouped ??= cell;
+  }
+  return grouped;
+}
+
+/** groupedCell for a line whose delimiter is not known: the first of the candidates that finds one. */
+export function groupedCellAnyDelimiter(text: string): string | null {
+  for (const delimiter of CANDIDATES) {
+    const cell = groupedCell(text, delimiter);
+    if (cell !== null) return cell;
+  }
+  return null;
 }

@@ -1,10 +1,10 @@
 // Decides how a capture text is laid out: delimiter, header, units, time columns, channels and stated timing.
 
 import { CaptureError, type CaptureOptions } from './types';
-import { isTimestamp, slowCellValue } from './cellValue';
+import { groupingCause, isTimestamp, slowCellValue } from './cellValue';
 import { checkColumnCount } from './captureLimits';
 import { columnUnit, isTimeName, isUnitsRow, parseColumnHeading, readsAsTime, unitCellText, type ColumnHeading } from './columnHeader';
-import { sameShape, dataShape, type DataShape } from './dataShape';
+import { sameShape, dataShape, groupedCell, type DataShape } from './dataShape';
 import {
   INDEX_NAME,
   countsUp,
@@ -152,7 +152,9 @@ function rejectBrokenTable(head: PreambleLine[], runStart: number, shape: DataSh
       if (isBlankOrComment(head[j].text)) continue;
       const next = dataShape(head[j].text);
       if (next && sameShape(next, shape)) continue;
-      throw new CaptureError(`expected ${dataCount} numeric columns, found '${preview(head[j].text)}'`, head[j].line);
+      const grouped = groupedCell(head[j].text, shape.delimiter);
+      const cause = grouped === null ? '' : `: '${grouped.trim()}' is ${groupingCause(grouped)}`;
+      throw new CaptureError(`expected ${dataCount} numeric columns, found '${preview(head[j].text)}'${cause}`, head[j].line);
     }
   }
 }

@@ -27,7 +27,8 @@
 // - Empty, NaN, inf, '****', '----' and overrange (|x| >= 9.9e37) cells are dropped per channel and counted; a line
 //   repeating the header is skipped with a warning. Any other text in the table is an error naming its line, unless
 //   no row of the table's shape follows it (a footer or a later section of another shape: left out, listed in
-//   importSummary.ignoredSections), or the time goes back there to start another segment.
+//   importSummary.ignoredSections), or the time goes back there to start another segment. A number written with digit
+//   groups ('1,234.5', '1.234,5', '1 234,5') is refused naming its thousands separator, on the line after the table too.
 // - Segments: blocks of the same shape whose time restarts where the first block's did (after a line of text, a
 //   blank line and the header, or nothing), or blocks after lines of text in a table without a time column, each of
 //   at least 20 rows, are repeated acquisitions: the first is read, or the one `segment` names (see segments).
@@ -40,7 +41,8 @@ import { assembleCapture } from './assembleCapture';
 import { BinaryWatch, SIGNATURE_BYTES } from './binaryContent';
 import { ByteRowReader } from './byteRowReader';
 import { ColumnStore } from './columnStore';
-import { dataShape, sameShape, type DataShape } from './dataShape';
+import { groupingCause } from './cellValue';
+import { dataShape, groupedCell, groupedCellAnyDelimiter, sameShape, type DataShape } from './dataShape';
 import { decideLayout, rowDelimiter, type Layout } from './layout';
 import { MAX_LINE_LENGTH, checkLastLine, checkUnfinishedLine, lineTooLong } from './captureLimits';
 import { LineMap } from './lineMap';
@@ -210,7 +212,7 @@ class StreamingReader implements CaptureReader {
     }
     this.finished = true;
     if (this.layout === null) {
-      if (this.run.length === 0) throw new CaptureError(`no rows of numbers found in ${this.line} line(s)`);
+      if (this.run.length === 0) throw noRowsOfNumbers(this.line, this.head);
       this.startTable();
     }
     const layout = this.layout as Layout;
@@ -268,6 +270,8 @@ class StreamingReader implements CaptureReader {
       this.repeatedHeader.rows.push((this.store as ColumnStore).length);
       return;
     }
+    // A row of numbers written with digit groups is data the reader cannot take: refused here, not left out as a later section.
+    if (groupedCell(text.slice(start, end), rowDelimiter(this.layout as Layout)) !== null) throw new CaptureError(outcome as string, line);
     const shown = text.slice(start, Math.min(end, start + 60)).trim();
     this.pending = { line, message: outcome as string, text: shown };
     this.pendingCount = 1;
@@ -504,6 +508,25 @@ export function createCaptureFileReader(options: CaptureOptions = {}, size: numb
       return (reader as StreamingReader).finish();
     },
   };
+}
+
+/**
+ * Lines (not blank, not comments) of a text without a table searched for a row written with digit groups: such rows
+ * start near the top of an export, and a long text of another kind is not searched to its end.
+ */
+const GROUPED_SEARCH_LINES = 1000;
+
+/** The error for a text without a table, naming the first line that would be a row of numbers but for digit groups. */
+function noRowsOfNumbers(lines: number, head: PreambleLine[]): CaptureError {
+  const message = `no rows of numbers found in ${lines} line(s)`;
+  let searched = 0;
+  for (const { text, line } of head) {
+    if (isBlankOrComment(text)) continue;
+    if (++searched > GROUPED_SEARCH_LINES) break;
+    const cell = groupedCellAnyDelimiter(text);
+    if (cell !== null) return new CaptureError(`${message}; line ${line} holds '${cell.trim()}': ${groupingCause(cell)}`);
+  }
+  return new CaptureError(message);
 }
 
 /** The line end of a text by its first terminator: CR alone, or LF with or without a CR before it. */

@@ -1,6 +1,6 @@
 // The hot loop: reads one data line of a known layout straight into the column store.
 
-import { fastNumber, slowCellValue } from './cellValue';
+import { fastNumber, groupingCause, slowCellValue } from './cellValue';
 import type { ColumnStore } from './columnStore';
 import { WHITESPACE, splitLine } from './splitLine';
 
@@ -9,6 +9,13 @@ export const ROW = 0;
 export const SKIP = 1;
 
 const NOT_FOUND = Number.MAX_SAFE_INTEGER;
+
+/** The message for cell `col` (0-based) of a table of `count` columns that is not a number, with its likely cause. */
+function notANumber(count: number, cell: string, col: number): string {
+  const found = `expected ${count} numeric columns, found '${cell.trim()}' (column ${col + 1})`;
+  const cause = groupingCause(cell);
+  return cause === null ? found : `${found}: ${cause}`;
+}
 
 export class RowReader {
   private readonly count: number;
@@ -106,7 +113,7 @@ export class RowReader {
     if (value !== value) {
       const cell = text.slice(start, end);
       const slow = slowCellValue(cell, this.delimiterCode !== 44);
-      if (slow === null) return `expected ${this.count} numeric columns, found '${cell.trim()}' (column ${col + 1})`;
+      if (slow === null) return notANumber(this.count, cell, col);
       value = slow;
     }
     columns[col][row] = value;
@@ -127,7 +134,7 @@ export class RowReader {
       let value = fastNumber(cell, 0, cell.length, this.decimalCode);
       if (value !== value) {
         const slow = slowCellValue(cell, this.delimiterCode !== 44 || cell.includes(','));
-        if (slow === null) return `expected ${this.count} numeric columns, found '${cell.trim()}' (column ${col + 1})`;
+        if (slow === null) return notANumber(this.count, cell, col);
         value = slow;
       }
       columns[col][row] = value;

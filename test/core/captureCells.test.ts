@@ -2,7 +2,7 @@
 
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { fastNumber, isTimestamp, slowCellValue } from '../../core/capture/cellValue';
+import { fastNumber, groupingCause, isTimestamp, slowCellValue } from '../../core/capture/cellValue';
 
 const DOT = 46;
 const COMMA = 44;
@@ -101,6 +101,24 @@ describe('slowCellValue', () => {
     expect(slowCellValue('\u22122.5', false)).toBe(-2.5);
     expect(slowCellValue('1.5E\u22126', false)).toBe(1.5e-6);
     expect(slowCellValue('\u22121,5', true)).toBe(-1.5);
+  });
+});
+
+describe('groupingCause', () => {
+  it.each([
+    ['1,234.5', 'a comma'],
+    ['-1.234,5', 'a point'],
+    ['1 234,5', 'a space'],
+    ['1\u00a0234\u00a0567,25', 'a no-break space'],
+    ['12\u202f345', 'a narrow no-break space'],
+    ["1'234.5", 'an apostrophe'],
+    ['"1,234,567.0"', 'a comma'],
+  ])('%s: a thousands separator (%s)', (cell, separator) => {
+    expect(groupingCause(cell)).toBe(`a number written with a thousands separator (${separator}); export the numbers without digit grouping`);
+  });
+
+  it.each(['1,2345.6', '1234,567.8', '1,23.4', '1.234.5', '1,234,56', '1, 234', '1e3', 'abc', '1.2k', '12,5'])('%s: no digit groups', (cell) => {
+    expect(groupingCause(cell)).toBeNull();
   });
 });
 

@@ -123,6 +123,48 @@ describe('options', () => {
   });
 });
 
+describe('a number written with a thousands separator', () => {
+  /** Time in ns and a value in mV, 40 rows (row i on line i + 2); `value` writes row i's value, its mark included. */
+  const grouped = (delimiter: string, value: (i: number) => string, time = (i: number) => `${i * 50}`): string =>
+    `Time (ns)${delimiter}CH1 (mV)\n${Array.from({ length: 40 }, (_, i) => `${time(i)}${delimiter}${value(i)}`).join('\n')}\n`;
+  const mV = (i: number, mark = '.'): string => (i * 10.5).toFixed(1).replace('.', mark);
+  const cause = (separator: string) => `a number written with a thousands separator (${separator}); export the numbers without digit grouping`;
+
+  it.each([
+    ["'1,234.5' in a ';' table", grouped(';', (i) => (i === 20 ? '1,234.5' : mV(i))), 22, "'1,234.5' (column 2)", 'a comma'],
+    ["'1.234,5' in a table of decimal commas", grouped(';', (i) => (i === 20 ? '1.234,5' : mV(i, ','))), 22, "'1.234,5' (column 2)", 'a point'],
+    ["'1 234,5'", grouped(';', (i) => (i === 20 ? '1 234,5' : mV(i, ','))), 22, "'1 234,5' (column 2)", 'a space'],
+    ["'1\u00a0234,5' (a no-break space)", grouped(';', (i) => (i === 20 ? '1\u00a0234,5' : mV(i, ','))), 22, "'1\u00a0234,5' (column 2)", 'a no-break space'],
+    ["a quoted '1,234.5' in a ',' table", grouped(',', (i) => (i === 20 ? '"1,234.5"' : mV(i))), 22, "'1,234.5' (column 2)", 'a comma'],
+  ])('%s: refused at its line and cell, naming the cause', (_, text, line, cell, separator) => {
+    const error = captureError(text);
+    expect(error.message).toBe(`line ${line}: expected 2 numeric columns, found ${cell}: ${cause(separator)}`);
+    expect(error.line).toBe(line);
+  });
+
+  it('a time column grouped from 1.000 on is refused there, not cut short as if a later section began', () => {
+    const text = grouped('\t', (i) => mV(i, ','), (i) => (i < 20 ? `${i * 50}` : `${Math.floor((i * 50) / 1000)}.${String((i * 50) % 1000).padStart(3, '0')},0`));
+    const error = captureError(text);
+    expect(error.message).toBe(`line 22: expected 2 numeric columns, found '1.000,0' (column 1): ${cause('a point')}`);
+  });
+
+  it('a grouped row among the first rows: the line and the cell', () => {
+    const error = captureError(grouped(';', (i) => (i === 2 ? '1,234.5' : mV(i))));
+    expect(error.message).toBe(`line 4: expected 2 numeric columns, found '100;1,234.5': '1,234.5' is ${cause('a comma')}`);
+  });
+
+  it('every row grouped: no table, and the first such line named', () => {
+    const error = captureError(grouped(';', (i) => `1.${String(i * 25).padStart(3, '0')},5`));
+    expect(error.message).toBe(`no rows of numbers found in 41 line(s); line 2 holds '1.000,5': ${cause('a point')}`);
+  });
+
+  it('a footer of settings after the table is still left out, whatever its numbers', () => {
+    const capture = parseCapture(`${grouped(';', (i) => mV(i))}Points;10,000.0\n`);
+    expect(capture.channels[0].values.length).toBe(40);
+    expect(capture.warnings.at(-1)).toBe("1 line(s) after the last data row were ignored (from line 42: 'Points;10,000.0')");
+  });
+});
+
 describe('a file that is not text', () => {
   const bytes = (...parts: (string | number[])[]): Uint8Array =>
     Uint8Array.from(parts.flatMap((p) => (typeof p === 'string' ? [...new TextEncoder().encode(p)] : p)));
