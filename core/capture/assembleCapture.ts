@@ -64,8 +64,6 @@ function resolveFirstColumn(layout: Layout, store: StoredRows, lines: RowLines, 
   const problem = findOrderProblem(store.column(index));
   if (problem === null || options.sortTime) {
     first.kind = 'time';
-    first.unit = options.timeUnit?.unit ?? '';
-    first.scale = options.timeUnit?.scale ?? 1;
     return;
   }
   first.kind = 'value';

@@ -16,9 +16,9 @@ import {
   type HeaderTiming,
 } from './layoutHabits';
 import { readConverterCodes } from './converterCodes';
-import { isBlankOrComment, readPreamble, type Preamble, type PreambleLine, type StatedTime } from './preamble';
+import { isBlankOrComment, readPreamble, usableTimeUnit, type Preamble, type PreambleLine, type StatedTime } from './preamble';
 import { WHITESPACE, splitLine, trimTrailingEmpty } from './splitLine';
-import { readUnitText } from '../units/unitText';
+import { printable, readUnitText } from '../units/unitText';
 
 /**
  * 'time': numbers on a time axis; 'timestamp': wall-clock stamps, axis rebuilt from the interval;
@@ -176,6 +176,35 @@ function chooseInterval(preamble: Preamble, options: CaptureOptions, warnings: s
 }
 
 /**
+ * The unit a column is read in. A time column whose header gives no unit is in the preamble's time unit when it states
+ * one ('Horizontal units,us'), with a note when that is not seconds. A headerless first column may still turn out a
+ * channel: it keeps the time unit stated for it, and gets a channel's once it is known to be one (assembleCapture).
+ */
+function planUnit(
+  kind: ColumnKind,
+  heading: ColumnHeading & { heading: string },
+  options: CaptureOptions,
+  preamble: Preamble,
+  line: number | null,
+  warnings: string[],
+): { unit: string; scale: number } {
+  if (kind === 'ignored') return { unit: '', scale: 1 };
+  // The preamble states no unit when the option does (readPreamble): the option is over it.
+  const stated = preamble.timeUnit;
+  if (kind === 'maybe-time') {
+    const unit = options.timeUnit ?? (stated && usableTimeUnit(stated));
+    return unit ? { unit: unit.unit, scale: unit.scale } : { unit: '', scale: 1 };
+  }
+  const label = heading.heading || heading.name;
+  if (kind !== 'time' || heading.unitText !== null || stated === null) return columnUnit(heading, label, kind !== 'value', options, line, warnings);
+  const fromPreamble = usableTimeUnit(stated);
+  if (fromPreamble.scale !== 1) {
+    warnings.push(`column '${printable(label)}' gives no unit: read in ${fromPreamble.text}, as '${printable(fromPreamble.key)}' on line ${fromPreamble.line} states`);
+  }
+  return { unit: fromPreamble.unit, scale: fromPreamble.scale };
+}
+
+/**
  * The layout from the lines read so far: `head` holds every line up to and including the confirming data rows,
  * `run` the indexes into `head` of those rows. Throws CaptureError for a table broken by junk, or time that
  * cannot be known (time stamps or no time column, and no stated interval).
@@ -241,6 +270,7 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
   if (unnamedTime) headings = [...Array<string>(skip + 1).fill(''), ...names];
   const statesTiming = timing !== null && timing.timing.interval !== null;
 
+  const preamble = readPreamble(head.slice(0, header ? header.i : runStart), delimiter, decimalComma, options.timeUnit);
   const count = Math.max(headings.length, dataCount);
   checkColumnCount(count, header && headings.length > dataCount ? header.line : head[runStart].line);
   const firstCells = first.cells;
@@ -250,26 +280,21 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
     const p = plan(headings[c] ?? '', units?.[c]);
     const counting = countsUp(column(c));
     const indexNamed = INDEX_NAME.test(p.name) || INDEX_NAME.test(units?.[c]?.trim() ?? '');
-    const beforeTime = !header && c === skip && evenSteps(column(c + 1), decimalComma) && !countsUp(column(c + 1));
-    // A unit of time names a time column, in a header or in a units row (of a table without a header too).
-    const timeNamed = (header !== null && isTimeName(p.name)) || readsAsTime(p.reading);
+    const timeNamed = (header !== null || units !== undefined) && (isTimeName(p.name) || readsAsTime(p.reading));
+    // A headerless column counting up beside an evenly stepped one is a sample index, unless a units row makes it time.
+    const beforeTime = !header && !timeNamed && c === skip && evenSteps(column(c + 1), decimalComma) && !countsUp(column(c + 1));
     let kind: ColumnKind = 'value';
     if (c < skip || timing?.cells.has(c)) kind = 'ignored';
     else if (counting && (indexNamed || beforeTime || (statesTiming && (timeNamed || c === skip)))) kind = 'ignored';
     else if (firstCells[c] !== undefined && isTimestamp(firstCells[c])) kind = 'timestamp';
     else if (timeNamed || (unnamedTime && c === skip)) kind = 'time';
     else if (!header && columns.every((k) => k.kind === 'ignored') && count - c >= 2) kind = 'maybe-time';
-    // A headerless first column gets its unit once it is known to be time or a channel (assembleCapture).
-    const { unit, scale } =
-      kind === 'maybe-time' || kind === 'ignored'
-        ? { unit: '', scale: 1 }
-        : columnUnit(p, p.heading || p.name, kind !== 'value', options, header?.line ?? (units && last ? last.line : null), warnings);
+    const { unit, scale } = planUnit(kind, p, options, preamble, header?.line ?? (units && last ? last.line : null), warnings);
     columns.push({ kind, heading: p.heading, name: p.name, unit, scale, offset: 0, timeColumn: null });
   }
   assignTimeColumns(columns);
   nameChannels(columns, header !== null);
 
-  const preamble = readPreamble(head.slice(0, header ? header.i : runStart), delimiter, decimalComma, options.timeUnit);
   preamble.interval ??= timing?.timing.interval ?? null;
   preamble.offset ??= timing?.timing.offset ?? null;
   warnings.unshift(...preamble.warnings);

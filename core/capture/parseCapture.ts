@@ -12,7 +12,9 @@
 // - The non-blank line just above the table is its header when none of its cells is a number (a line of units
 //   such as '(s),(mV)' under the names is read too; a line of units alone, or one cell holding a number, is no
 //   header; start and increment may sit in header cells or under the names in the row below). Units come from
-//   'name (unit)', 'name [unit]', 'name/unit' or 'time_ns'; values are scaled to SI. Everything above the header is
+//   'name (unit)', 'name [unit]', 'name/unit' or 'time_ns'; values are scaled to SI. A time column without a unit, and
+//   a stated time without one, are in the unit a preamble line gives the horizontal axis ('Horizontal units,us',
+//   '# Time unit: ms', 'X unit'; a comment line counts), else in seconds. Everything above the header is
 //   the preamble of key/value lines. A ',' table of one whole number and fixed decimals per row is one column
 //   written with decimal commas (see layout for when).
 // - Time columns: a column holding wall-clock stamps; a header named time, t, x, sec(onds), timestamp or starting

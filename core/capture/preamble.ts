@@ -1,6 +1,7 @@
-// The lines before the header: key/value metadata, and the sample interval and start time they may state.
+// The lines before the header: key/value metadata, and the sample interval, start time and time unit they may state.
 
 import { isUnitAttempt, printable, readUnitText, unitProblem, type StatedUnit } from '../units/unitText';
+import { readsAsTime } from './columnHeader';
 import { WHITESPACE, splitLine, trimTrailingEmpty } from './splitLine';
 import { CaptureError } from './types';
 
@@ -22,6 +23,19 @@ const INTERVAL_KEYS = new Set([
 ]);
 /** Keys that state the time of the first sample (used only when numeric). */
 const OFFSET_KEYS = new Set(['t0', 'x0', 'x origin', 'xorigin', 'start', 'start time', 'time offset', 'first time']);
+/** Keys that state the unit of the horizontal axis: of a time column without a unit, and of times stated without one. */
+const TIME_UNIT_KEYS = new Set([
+  'horizontal unit',
+  'horizontal units',
+  'time unit',
+  'time units',
+  'x unit',
+  'x units',
+  'xunit',
+  'xunits',
+  'x axis unit',
+  'x axis units',
+]);
 
 export interface StatedTime {
   /** Value in s. */
@@ -32,10 +46,22 @@ export interface StatedTime {
   line: number;
 }
 
+/** A time unit a preamble line states, read ('Horizontal units,us': 1e-6 s). */
+export interface StatedTimeUnit extends StatedUnit {
+  /** The key as written. */
+  key: string;
+  /** 1-based line. */
+  line: number;
+  /** Why the text is no unit of time ('' when it is one): refused only where the unit is needed (usableTimeUnit). */
+  problem: string;
+}
+
 export interface Preamble {
   metadata: Record<string, string>;
   interval: StatedTime | null;
   offset: StatedTime | null;
+  /** The unit of the horizontal axis the preamble states, or null. */
+  timeUnit: StatedTimeUnit | null;
   warnings: string[];
 }
 
@@ -103,18 +129,56 @@ function readCell(cell: string, decimalComma: boolean): TimeReading | null {
   return UNIT_SHAPED.test(token) ? { number: Number(number), unitText: token } : null;
 }
 
-/** Readings of a value such as '2.000000E-6,2.000000E-6', '2 ns' or '2,5E-6' (decimal comma). */
+/**
+ * Readings of a value such as '2.000000E-6,2.000000E-6', '2 ns', '2,5E-6' (decimal comma) or '0.2,us' (the unit in
+ * the cell after the number).
+ */
 function timeReadings(value: string, decimalComma: boolean): TimeReading[] {
-  const cells = value.split(decimalComma ? /[;\t]/ : /[,;\t]/);
-  return cells.map((cell) => readCell(cell, decimalComma)).filter((r): r is TimeReading => r !== null);
+  const cells = value.split(decimalComma ? /[;\t]/ : /[,;\t]/).map((c) => c.trim());
+  const readings: TimeReading[] = [];
+  cells.forEach((cell, k) => {
+    const reading = readCell(cell, decimalComma);
+    if (reading === null) return;
+    const next = cells[k + 1] ?? '';
+    if (reading.unitText === null && UNIT_SHAPED.test(next) && readsAsTime(readUnitText(next))) reading.unitText = next;
+    readings.push(reading);
+  });
+  return readings;
+}
+
+/** The time unit a preamble line states ('us', 'S', 'Seconds'), or why it is none. */
+function readTimeUnit(text: string, key: string, line: number): StatedTimeUnit {
+  const written = text.split(/[,;\t]/)[0].trim();
+  const reading = readUnitText(written);
+  const problem = written === '' ? 'no unit given' : unitProblem(written, reading, true);
+  return reading.kind === 'known' && problem === '' ? { text: written, scale: reading.scale, unit: reading.unit, key, line, problem } : { text: written, scale: 1, unit: '', key, line, problem };
+}
+
+/** The stated time unit, to read times in: a CaptureError on its line when it is no unit of time. */
+export function usableTimeUnit(stated: StatedTimeUnit): StatedTimeUnit {
+  if (stated.problem !== '') throw new CaptureError(`'${printable(stated.key)}': ${stated.problem}; state the time unit with --time-unit`, stated.line);
+  return stated;
 }
 
 /**
  * Seconds in a stated time: the --time-unit when given (with a note when the file writes another unit), else the unit
- * after the number, else the key's, else seconds. A unit that does not read as time is a CaptureError on `line`.
+ * after the number, else the key's, else the preamble's time unit, else seconds. A unit that does not read as time is
+ * a CaptureError on `line`.
  */
-function secondsOf(reading: TimeReading, keyUnit: string | null, timeUnit: StatedUnit | undefined, key: string, line: number, notes: string[]): number {
+function secondsOf(
+  reading: TimeReading,
+  keyUnit: string | null,
+  timeUnit: StatedUnit | undefined,
+  stated: StatedTimeUnit | null,
+  key: string,
+  line: number,
+  notes: string[],
+): number {
   const written = reading.unitText ?? keyUnit;
+  if (!timeUnit && written === null && stated) {
+    if (usableTimeUnit(stated).scale !== 1) notes.push(`line ${line}: '${printable(key)}' gives no unit: read in ${stated.text}, as '${printable(stated.key)}' on line ${stated.line} states`);
+    return reading.number * stated.scale;
+  }
   if (timeUnit) {
     const file = written === null ? null : readUnitText(written);
     const same = file?.kind === 'known' && file.unit === timeUnit.unit && file.scale === timeUnit.scale;
@@ -128,9 +192,28 @@ function secondsOf(reading: TimeReading, keyUnit: string | null, timeUnit: State
   return reading.number * file.scale;
 }
 
-/** Metadata and stated timing of the preamble lines (blank and comment lines skipped). */
+/** The comment marker and the space after it, at the start of a comment line. */
+const COMMENT_MARKER = /^\s*(?:#+|;+|%+|\/\/+)\s*/;
+
+/**
+ * The first line stating the unit of the horizontal axis, read. A comment line counts ('# Time units = us'): a unit
+ * stated only there is still the unit the times are written in.
+ */
+function statedTimeUnit(lines: PreambleLine[], delimiter: string): StatedTimeUnit | null {
+  for (const { text, line } of lines) {
+    const pair = splitKeyValue(text.replace(COMMENT_MARKER, ''), delimiter);
+    if (pair && TIME_UNIT_KEYS.has(normaliseKey(pair[0]).words)) return readTimeUnit(pair[1], pair[0], line);
+  }
+  return null;
+}
+
+/**
+ * Metadata and stated timing of the preamble lines (blank and comment lines skipped, but for the time unit). Times
+ * stated without a unit are in the preamble's time unit when it states one; `timeUnit` (the option) is over both.
+ */
 export function readPreamble(lines: PreambleLine[], delimiter: string, decimalComma: boolean, timeUnit?: StatedUnit): Preamble {
-  const preamble: Preamble = { metadata: {}, interval: null, offset: null, warnings: [] };
+  const stated = timeUnit ? null : statedTimeUnit(lines, delimiter);
+  const preamble: Preamble = { metadata: {}, interval: null, offset: null, timeUnit: stated, warnings: [] };
   for (const { text, line } of lines) {
     if (isBlankOrComment(text)) continue;
     const pair = splitKeyValue(text, delimiter);
@@ -141,15 +224,15 @@ export function readPreamble(lines: PreambleLine[], delimiter: string, decimalCo
     const isInterval = INTERVAL_KEYS.has(words);
     if (!isInterval && !OFFSET_KEYS.has(words)) continue;
     const notes: string[] = [];
-    const readings = timeReadings(value, decimalComma).map((r) => secondsOf(r, unitText, timeUnit, key, line, notes));
+    const readings = timeReadings(value, decimalComma).map((r) => secondsOf(r, unitText, timeUnit, stated, key, line, notes));
     if (readings.length === 0) continue;
     preamble.warnings.push(...notes.slice(0, 1));
-    const stated: StatedTime = { value: readings[0], key, line };
+    const time: StatedTime = { value: readings[0], key, line };
     if (readings.some((v) => Math.abs(v - readings[0]) > 1e-9 * Math.abs(readings[0]))) {
       preamble.warnings.push(`line ${line}: '${key}' gives several different values; the first (${value.split(/[,;\t]/)[0].trim()}) is used`);
     }
-    if (isInterval && preamble.interval === null && readings[0] > 0) preamble.interval = stated;
-    if (!isInterval && preamble.offset === null) preamble.offset = stated;
+    if (isInterval && preamble.interval === null && readings[0] > 0) preamble.interval = time;
+    if (!isInterval && preamble.offset === null) preamble.offset = time;
   }
   return preamble;
 }

@@ -282,3 +282,65 @@ describe('the stated units fix each refusal', () => {
     expect(() => parseStatedUnit(text, isTime, option)).toThrow(message);
   });
 });
+
+describe('the time unit a preamble states for the horizontal axis', () => {
+  it.each([
+    ['Horizontal Units,us', ',', 1e-6, 'Horizontal Units'],
+    ['Time unit: ms', ',', 1e-3, 'Time unit'],
+    ['X Unit\tns', '\t', 1e-9, 'X Unit'],
+    ['# Time units = us', ',', 1e-6, 'Time units'],
+    ['Horizontal Units;US', ';', 1e-6, 'Horizontal Units'],
+  ])("'%s' gives the unit of a time column whose header gives none, with a note", (line, d, scale, key) => {
+    const rows = values.map((v, i) => `${10 + i}${d}${v}`).join('\n');
+    const capture = parseCapture(`Model${d === ',' ? ',' : d}bench scope\n${line}\nTime${d}CH1\n${rows}`);
+    close(capture.channels[0].time[0], 10 * scale);
+    close(capture.sampleInterval as number, scale);
+    expect(capture.importSummary.time).toMatchObject({ kind: 'column', column: 'Time' });
+    expect(capture.warnings.join('\n')).toContain(`column 'Time' gives no unit: read in`);
+    expect(capture.warnings.join('\n')).toContain(`as '${key}' on line 2 states`);
+  });
+
+  it('gives the unit of a headerless time column', () => {
+    const capture = parseCapture(`Time unit: us\n${values.map((v, i) => `${10 + 2.5 * i},${v}`).join('\n')}`);
+    close(capture.channels[0].time[0], 10e-6);
+    expect(capture.importSummary.time).toMatchObject({ kind: 'column', unit: 'µs' });
+  });
+
+  it('gives the unit of a stated interval without one, with a note; a unit in the cell after the number is read too', () => {
+    const body = `CH1\n${values.join('\n')}`;
+    const stated = parseCapture(`Horizontal units: us\nSample interval: 0.2\n${body}`);
+    close(stated.sampleInterval as number, 2e-7);
+    expect(stated.warnings.join('\n')).toContain("line 2: 'Sample interval' gives no unit: read in us, as 'Horizontal units' on line 1 states");
+    close(parseCapture(`Sample Interval,0.2,us\n${body}`).sampleInterval as number, 2e-7);
+  });
+
+  it("is under the header's own unit and the --time-unit option", () => {
+    const header = parseCapture(`Horizontal Units,ms\nTime (us),CH1\n${timedRows()}`);
+    close(header.channels[0].time[0], 10e-6);
+    expect(header.warnings).toEqual([]);
+    const option = parseCapture(`Horizontal Units,Hz\nTime,CH1\n${timedRows()}`, { timeUnit: parseStatedUnit('ns', true, '--time-unit') });
+    close(option.channels[0].time[0], 10e-9);
+  });
+
+  it.each([
+    ['Horizontal Units,Hz', "'Hz' is not a unit of time"],
+    ['Horizontal Units,MS', "'MS' is ambiguous"],
+    ['X units: div', "'div' is not recognised"],
+  ])("'%s' is refused on its line, naming --time-unit", (line, problem) => {
+    const error = captureError(() => parseCapture(`Model,bench scope\n${line}\nTime,CH1\n${timedRows()}`));
+    expect(error.line).toBe(2);
+    expect(error.message).toContain(problem);
+    expect(error.message).toContain('--time-unit');
+  });
+
+  it('one that is no unit of time is refused only where it is needed', () => {
+    const capture = parseCapture(`X units: div\nTime (us),CH1\n${timedRows()}`);
+    close(capture.channels[0].time[0], 10e-6);
+  });
+
+  it('a units row over a headerless table gives its time column the unit, whole numbers too', () => {
+    const capture = parseCapture(`x-axis,1\nms,Volt\n${timedRows()}`);
+    close(capture.channels[0].time[0], 10e-3);
+    expect(capture.channels[0].unit).toBe('V');
+  });
+});
