@@ -16,6 +16,7 @@ import {
   type HeaderTiming,
 } from './layoutHabits';
 import { readConverterCodes } from './converterCodes';
+import { sideLine } from './sideMetadata';
 import { isBlankOrComment, readPreamble, usableTimeUnit, type Preamble, type PreambleLine, type StatedTime } from './preamble';
 import { WHITESPACE, splitLine, trimTrailingEmpty } from './splitLine';
 import { printable, readUnitText } from '../units/unitText';
@@ -143,6 +144,13 @@ export function nameChannels(columns: ColumnPlan[], hasHeader: boolean): void {
   });
 }
 
+/** The leading columns empty in every row (a column with data, at least, is left): the data rows' empty fields. */
+function leadingEmptyColumns(dataCount: number, column: (c: number) => (string | undefined)[]): number {
+  let count = 0;
+  while (count < dataCount - 1 && column(count).every((c) => c?.trim() === '')) count++;
+  return count;
+}
+
 /** Throws when a row of the same shape as the data sits above a non-data line: junk inside the table. */
 function rejectBrokenTable(head: PreambleLine[], runStart: number, shape: DataShape, dataCount: number): void {
   for (let i = 0; i < runStart; i++) {
@@ -176,41 +184,42 @@ function chooseInterval(preamble: Preamble, options: CaptureOptions, warnings: s
 }
 
 /**
- * The unit a column is read in. A time column whose header gives no unit is in the preamble's time unit when it states
- * one ('Horizontal units,us'), with a note when that is not seconds. A headerless first column may still turn out a
- * channel: it keeps the time unit stated for it, and gets a channel's once it is known to be one (assembleCapture).
+ * The unit column `index` is read in. A time column whose header gives no unit is in the preamble's time unit when it
+ * states one ('Horizontal units,us'), with a note when that is not seconds; so is a headerless first column, which may
+ * still turn out a channel and then gets a channel's unit (assembleCapture).
  */
 function planUnit(
   kind: ColumnKind,
   heading: ColumnHeading & { heading: string },
+  index: number,
   options: CaptureOptions,
   preamble: Preamble,
   line: number | null,
   warnings: string[],
 ): { unit: string; scale: number } {
   if (kind === 'ignored') return { unit: '', scale: 1 };
+  const label = heading.heading || heading.name || `column ${index + 1}`;
   // The preamble states no unit when the option does (readPreamble): the option is over it.
   const stated = preamble.timeUnit;
-  if (kind === 'maybe-time') {
-    const unit = options.timeUnit ?? (stated && usableTimeUnit(stated));
-    return unit ? { unit: unit.unit, scale: unit.scale } : { unit: '', scale: 1 };
+  const unitless = kind === 'maybe-time' || (kind === 'time' && heading.unitText === null);
+  if (!unitless || stated === null) {
+    if (kind !== 'maybe-time') return columnUnit(heading, label, kind !== 'value', options, line, warnings);
+    return options.timeUnit ? { unit: options.timeUnit.unit, scale: options.timeUnit.scale } : { unit: '', scale: 1 };
   }
-  const label = heading.heading || heading.name;
-  if (kind !== 'time' || heading.unitText !== null || stated === null) return columnUnit(heading, label, kind !== 'value', options, line, warnings);
-  const fromPreamble = usableTimeUnit(stated);
-  if (fromPreamble.scale !== 1) {
-    warnings.push(`column '${printable(label)}' gives no unit: read in ${fromPreamble.text}, as '${printable(fromPreamble.key)}' on line ${fromPreamble.line} states`);
-  }
-  return { unit: fromPreamble.unit, scale: fromPreamble.scale };
+  const unit = usableTimeUnit(stated);
+  if (unit.scale !== 1) warnings.push(`column '${printable(label)}' gives no unit: read in ${unit.text}, as '${printable(unit.key)}' on line ${unit.line} states`);
+  return { unit: unit.unit, scale: unit.scale };
 }
 
 /**
  * The layout from the lines read so far: `head` holds every line up to and including the confirming data rows,
- * `run` the indexes into `head` of those rows. Throws CaptureError for a table broken by junk, or time that
- * cannot be known (time stamps or no time column, and no stated interval).
+ * `run` the indexes into `head` of those rows, `side` those of the table's rows with metadata beside the data (their
+ * metadata cells are read as preamble lines). Throws CaptureError for a table broken by junk, or time that cannot be
+ * known (time stamps or no time column, and no stated interval).
  */
-export function decideLayout(head: PreambleLine[], run: number[], options: CaptureOptions): Layout {
-  const runStart = run[0];
+export function decideLayout(head: PreambleLine[], run: number[], options: CaptureOptions, side: number[] = []): Layout {
+  // The table starts at its first row: a data row, or one with metadata beside the data.
+  const runStart = Math.min(run[0], side[0] ?? run[0]);
   const above = head.slice(0, runStart).map((l, i) => ({ ...l, i }));
   let meaningful = above.filter((l) => !isBlankOrComment(l.text));
   let shapes = run.map((i) => dataShape(head[i].text) as DataShape);
@@ -221,13 +230,15 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
   const delimiter = first.delimiter;
   const decimalComma = shapes.some((s) => s.decimalComma);
   const dataCount = Math.max(...shapes.map((s) => trimTrailingEmpty(s.cells).length));
-  rejectBrokenTable(head, runStart, dataShape(head[runStart].text) as DataShape, dataCount);
+  const runShape = dataShape(head[run[0]].text) as DataShape;
+  rejectBrokenTable(head, runStart, runShape, dataCount);
   const column = (c: number): (string | undefined)[] => shapes.map((s) => s.cells[c]);
-  // Every row opening with an empty field: the field is no column, and a header may or may not have it.
-  const skip = delimiter !== WHITESPACE && dataCount > 1 && column(0).every((c) => c?.trim() === '') ? 1 : 0;
+  // Every row opening with empty fields: the fields are no columns (metadata may sit there beside the first rows),
+  // and a header may or may not have them.
+  const skip = delimiter === WHITESPACE ? 0 : leadingEmptyColumns(dataCount, column);
   const width = dataCount - skip;
   // Rows opening with an empty ';'-separated field: a header written the same way opens with ';' too, and is no comment.
-  if (skip === 1 && delimiter === ';') meaningful = above.filter((l) => !isBlankOrComment(l.text) || /^\s*;.*[^;\s]/.test(l.text));
+  if (skip > 0 && delimiter === ';') meaningful = above.filter((l) => !isBlankOrComment(l.text) || /^\s*;.*[^;\s]/.test(l.text));
 
   let header: (typeof meaningful)[number] | null = null;
   let units: string[] | undefined;
@@ -237,14 +248,14 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
     const lastCells = headerCells(last.text, delimiter);
     const before = meaningful[meaningful.length - 2];
     const beforeCells = before ? headerCells(before.text, delimiter) : [];
-    if (isUnitsRow(lastCells) && before && looksLikeHeader(beforeCells, width, skip === 1, decimalComma)) {
+    if (isUnitsRow(lastCells) && before && looksLikeHeader(beforeCells, width, skip > 0, decimalComma)) {
       header = before;
       units = lastCells;
-    } else if (looksLikeHeader(lastCells, width, skip === 1, decimalComma)) {
+    } else if (looksLikeHeader(lastCells, width, skip > 0, decimalComma)) {
       // A line of units only is no header: it gives the units of header-less columns.
       if (isUnitsRow(lastCells)) units = lastCells;
       else header = last;
-    } else if (before && looksLikeHeader(beforeCells, width, skip === 1, decimalComma)) {
+    } else if (before && looksLikeHeader(beforeCells, width, skip > 0, decimalComma)) {
       const below = headerTiming(trimTrailingEmpty(beforeCells), lastCells, last.line, decimalComma);
       if (below.timing.interval !== null) {
         header = before;
@@ -254,9 +265,11 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
     }
   }
   let headings = header ? trimTrailingEmpty(headerCells(header.text, delimiter)) : [];
-  if (skip === 1 && header && headings[0] !== '') {
-    headings = ['', ...headings];
-    if (units && units[0] !== '') units = ['', ...units];
+  // A header (and units row) naming only the data columns is shifted over the empty fields.
+  const shift = header ? Math.min(skip, dataCount - headings.length) : 0;
+  if (shift > 0) {
+    headings = [...Array<string>(shift).fill(''), ...headings];
+    if (units && units.length < dataCount) units = [...Array<string>(shift).fill(''), ...units];
   }
   if (header && timing === null) timing = headerTiming(headings, null, header.line, decimalComma);
   // One name fewer than data columns, none of them time: the first data column is an unnamed time axis.
@@ -270,7 +283,8 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
   if (unnamedTime) headings = [...Array<string>(skip + 1).fill(''), ...names];
   const statesTiming = timing !== null && timing.timing.interval !== null;
 
-  const preamble = readPreamble(head.slice(0, header ? header.i : runStart), delimiter, decimalComma, options.timeUnit);
+  const besideData = side.map((i) => sideLine(head[i], runShape));
+  const preamble = readPreamble([...head.slice(0, header ? header.i : runStart), ...besideData], delimiter, decimalComma, options.timeUnit);
   const count = Math.max(headings.length, dataCount);
   checkColumnCount(count, header && headings.length > dataCount ? header.line : head[runStart].line);
   const firstCells = first.cells;
@@ -289,7 +303,7 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
     else if (firstCells[c] !== undefined && isTimestamp(firstCells[c])) kind = 'timestamp';
     else if (timeNamed || (unnamedTime && c === skip)) kind = 'time';
     else if (!header && columns.every((k) => k.kind === 'ignored') && count - c >= 2) kind = 'maybe-time';
-    const { unit, scale } = planUnit(kind, p, options, preamble, header?.line ?? (units && last ? last.line : null), warnings);
+    const { unit, scale } = planUnit(kind, p, c, options, preamble, header?.line ?? (units && last ? last.line : null), warnings);
     columns.push({ kind, heading: p.heading, name: p.name, unit, scale, offset: 0, timeColumn: null });
   }
   assignTimeColumns(columns);

@@ -8,7 +8,9 @@
 //   Blank lines and comments ('#', ';', '%', '//') are skipped anywhere; 'CR CR LF' ends a line like CR LF.
 // - The table starts at the first of 3 rows that split the same way into numbers (or missing-value markers, or
 //   wall-clock stamps). The delimiter is the one of tab, ';', ',', whitespace giving the most cells; ',' inside a
-//   cell of a ';', tab or whitespace table (or of a quoted field) is a decimal comma.
+//   cell of a ';', tab or whitespace table (or of a quoted field) is a decimal comma. Rows opening with empty fields
+//   may carry key/value metadata there beside the data in the table's first rows ('Sample Interval,2e-7,s,-1e-4,0.5'):
+//   those rows are rows of the table, their metadata cells preamble lines; the layout is decided on 16 rows after the last.
 // - The non-blank line just above the table is its header when none of its cells is a number (a line of units
 //   such as '(s),(mV)' under the names is read too; a line of units alone, or one cell holding a number, is no
 //   header; start and increment may sit in header cells or under the names in the row below). Units come from
@@ -54,6 +56,7 @@ import type { LineEnd, TextEncoding } from './importSummary';
 import type { TextSource } from './summarizeImport';
 import { DetectingDecoder, utf16Decoder, utf16Of, utf8LineDecoder, type LineDecoder } from './textEncoding';
 import { HeldBytes } from './heldBytes';
+import { SIDE_SETTLING_ROWS, isSideRow, sideRowsAbove, sideWidth, withoutSide } from './sideMetadata';
 import { chooseSegment, findSegments, linesOfSpan, rowsOfSpan } from './segments';
 import { TrailingSections } from './trailingSections';
 import { CaptureError, type Capture, type CaptureOptions } from './types';
@@ -101,6 +104,9 @@ class StreamingReader implements CaptureReader {
   private head: PreambleLine[] = [];
   private run: number[] = [];
   private runShape: DataShape | null = null;
+  /** Head lines of the run's table with metadata beside the data (see sideMetadata), and the data rows since the last. */
+  private side: number[] = [];
+  private plainSinceSide = 0;
   private layout: Layout | null = null;
   private store: ColumnStore | null = null;
   private rows: RowReader | null = null;
@@ -407,28 +413,45 @@ class StreamingReader implements CaptureReader {
 
   private takeHeadLine(text: string): void {
     this.head.push({ text, line: this.line });
+    const index = this.head.length - 1;
     const shape = dataShape(text);
     if (shape === null && isBlankOrComment(text)) return;
-    if (shape && this.runShape && sameShape(shape, this.runShape)) this.run.push(this.head.length - 1);
-    else if (shape) {
-      this.run = [this.head.length - 1];
+    if (this.runShape && isSideRow(text, this.runShape)) {
+      this.side.push(index);
+      this.plainSinceSide = 0;
+    } else if (shape && this.runShape && sameShape(shape, this.runShape)) {
+      this.run.push(index);
+      this.plainSinceSide++;
+    } else if (shape) {
+      this.run = [index];
       this.runShape = shape;
+      this.side = sideRowsAbove(this.head, index, shape);
+      this.plainSinceSide = 1;
     } else {
       this.run = [];
       this.runShape = null;
+      this.side = [];
+      this.plainSinceSide = 0;
     }
-    if (this.run.length === CONFIRMING_ROWS) this.startTable();
+    // Rows opening with empty fields may have metadata beside the first of them: all of it is read before the layout.
+    const confirming = this.runShape && sideWidth(this.runShape) > 0 ? SIDE_SETTLING_ROWS : CONFIRMING_ROWS;
+    if (this.plainSinceSide === confirming) this.startTable();
   }
 
-  /** The table has started at the first confirming row: fix the layout, then read the rows held back. */
+  /** The table has started at its first row (one with metadata beside it, or the first confirming row): fix the layout, then read the rows held back. */
   private startTable(): void {
-    const layout = decideLayout(this.head, this.run, this.options);
+    const layout = decideLayout(this.head, this.run, this.options, this.side);
     const parsed = layout.columns.map((c) => c.kind !== 'timestamp');
     this.layout = layout;
     this.store = new ColumnStore(parsed, () => this.line);
     const rows = new RowReader(this.store, parsed, rowDelimiter(layout), layout.decimalComma);
     this.rows = rows;
-    for (const { text, line } of this.head.slice(this.run[0])) {
+    const side = new Set(this.side);
+    const start = Math.min(this.run[0], this.side[0] ?? this.run[0]);
+    for (let i = start; i < this.head.length; i++) {
+      const { line } = this.head[i];
+      // Metadata beside the data went to the preamble (decideLayout): the row reader reads the data cells only.
+      const text = side.has(i) ? withoutSide(this.head[i].text, this.runShape as DataShape) : this.head[i].text;
       rows.begin(text);
       this.readRow(text, line, 0, text.length);
     }
