@@ -11,6 +11,7 @@ import {
   evenSteps,
   headerTiming,
   increases,
+  numberedTimeColumns,
   oneColumnWithDecimalCommas,
   statesANumber,
   type HeaderTiming,
@@ -290,11 +291,15 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
   const firstCells = first.cells;
   const warnings: string[] = [];
   const columns: ColumnPlan[] = [];
+  const plans = Array.from({ length: count }, (_, c) => plan(headings[c] ?? '', units?.[c]));
+  const named = header !== null || units !== undefined;
+  const timeNames = plans.map((p) => named && (isTimeName(p.name) || readsAsTime(p.reading)));
+  const numbered = timeNames.includes(true) ? new Set<number>() : numberedTimeColumns(plans.map((p) => p.name), (c) => evenSteps(column(c), decimalComma));
   for (let c = 0; c < count; c++) {
-    const p = plan(headings[c] ?? '', units?.[c]);
+    const p = plans[c];
     const counting = countsUp(column(c));
     const indexNamed = INDEX_NAME.test(p.name) || INDEX_NAME.test(units?.[c]?.trim() ?? '');
-    const timeNamed = (header !== null || units !== undefined) && (isTimeName(p.name) || readsAsTime(p.reading));
+    const timeNamed = timeNames[c] || numbered.has(c);
     // A headerless column counting up beside an evenly stepped one is a sample index, unless a units row makes it time.
     const beforeTime = !header && !timeNamed && c === skip && evenSteps(column(c + 1), decimalComma) && !countsUp(column(c + 1));
     let kind: ColumnKind = 'value';

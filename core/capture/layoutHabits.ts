@@ -1,4 +1,4 @@
-// Export habits a layout recognises: sample-count columns, timing stated in the header, one decimal-comma column.
+// Export habits a layout recognises: sample-count columns, timing stated in the header, numbered time columns, one decimal-comma column.
 
 import { slowCellValue } from './cellValue';
 import type { DataShape } from './dataShape';
@@ -43,6 +43,23 @@ export function oneColumnWithDecimalCommas(shapes: DataShape[], above: string | 
   if (!decimals.every((d) => d.length === decimals[0].length) || decimals[0].length < FIXED_DECIMALS || countsUp(wholes)) return false;
   const named = above !== undefined && !statesANumber(above);
   return named || wholes.some((w) => /^[-+]?0$/.test(w)) || decimals.some((d) => d.startsWith('0'));
+}
+
+/** A time column's name numbered for the channel beside it ('t1', 'X2', 'T_3'). */
+const NUMBERED_TIME = /^[tx][\s_-]?\d{1,2}$/i;
+
+/**
+ * Columns named as numbered times ('t1,CH1,t2,CH2', 'x1,y1,x2,y2'), in a header that names no column time otherwise:
+ * time columns, each paired with the channel after it, when followed by a column of another name and stepping evenly
+ * in the first rows (a temperature logger's 'T1,T2' stays channels).
+ */
+export function numberedTimeColumns(names: string[], stepsEvenly: (c: number) => boolean): Set<number> {
+  const found = new Set<number>();
+  names.forEach((name, c) => {
+    const next = names[c + 1];
+    if (NUMBERED_TIME.test(name.trim()) && next !== undefined && next.trim() !== '' && !NUMBERED_TIME.test(next.trim()) && stepsEvenly(c)) found.add(c);
+  });
+  return found;
 }
 
 /** True when the cells are numbers in equal steps (to 1 % of a step), as a time column's first rows are. */

@@ -20,7 +20,8 @@
 //   the preamble of key/value lines. A ',' table of one whole number and fixed decimals per row is one column
 //   written with decimal commas (see layout for when).
 // - Time columns: a column holding wall-clock stamps; a header named time, t, x, sec(onds), timestamp or starting
-//   with 'time', or with a time unit. Each channel uses the nearest time column on its left (time/value pairs).
+//   with 'time', or with a time unit; where no column is so named, 't1', 'x2'... stepping evenly with a channel after
+//   each. Each channel uses the nearest time column on its left (time/value pairs).
 //   Without a header, the first of two or more columns is time when strictly increasing (or when sortTime is set);
 //   otherwise every column is a channel. An empty field opening every row, and a column counting samples (an index
 //   beside a time column, or a sequence number where the start and increment are stated) are no channels; see layout.

@@ -237,6 +237,26 @@ describe('headers and units', () => {
     expect(capture.channels[0].time).not.toBe(capture.channels[1].time);
   });
 
+  it.each([
+    ['t1,CH1,t2,CH2', ['CH1', 'CH2']],
+    ['x1,y1,x2,y2', ['y1', 'y2']],
+    ['T_1,Vsw,T_2,Vgate', ['Vsw', 'Vgate']],
+  ])("takes numbered time names '%s' as a time column per channel", (header, names) => {
+    const capture = parseCapture(`${header}\n${rowsOf((i) => `${times[i]},${values[i]},${times[i] + 5e-7},${-values[i]}`)}`);
+    expect(capture.channels.map((c) => c.name)).toEqual(names);
+    expectClose(capture.channels[0].time, times);
+    expectClose(capture.channels[1].time, times.map((t) => t + 5e-7));
+  });
+
+  it('keeps numbered names as channels beside a time column, beside each other, or not stepping evenly', () => {
+    const beside = parseCapture(`Time,T1,T2\n${rowsOf((i) => `${times[i]},${values[i]},${values[i]}`)}`);
+    expect(beside.channels.map((c) => c.name)).toEqual(['T1', 'T2']);
+    const temperatures = parseCapture(`T1,T2,T3\n${rowsOf((i) => `${20 + values[i]},${21 + values[i]},${22 + values[i]}`)}`, { sampleInterval: 1 });
+    expect(temperatures.channels.map((c) => c.name)).toEqual(['T1', 'T2', 'T3']);
+    const uneven = parseCapture(`T1,P1\n${rowsOf((i) => `${20 + values[i]},${values[i]}`)}`, { sampleInterval: 1 });
+    expect(uneven.channels.map((c) => c.name)).toEqual(['T1', 'P1']);
+  });
+
   it('names repeated headings apart', () => {
     const capture = parseCapture(`Time,CH,CH\n${rowsOf((i) => `${times[i]},${values[i]},${values[i]}`)}`);
     expect(capture.channels.map((c) => c.name)).toEqual(['CH', 'CH (column 3)']);
