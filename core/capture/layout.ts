@@ -17,6 +17,7 @@ import {
   type HeaderTiming,
 } from './layoutHabits';
 import { readConverterCodes } from './converterCodes';
+import { fixedFormats, type NumberFormat } from './cutLastLine';
 import { sideLine } from './sideMetadata';
 import { isBlankOrComment, readPreamble, usableTimeUnit, type Preamble, type PreambleLine, type StatedTime } from './preamble';
 import { WHITESPACE, splitLine, trimTrailingEmpty } from './splitLine';
@@ -55,6 +56,8 @@ export interface Layout {
   preamble: Preamble;
   /** The interval used to build axes (option before file), or null. */
   interval: (StatedTime & { source: string }) | null;
+  /** Per data cell, the digits the first data rows all write it with (null where they differ): tells a cut-off last line. */
+  cellFormats: (NumberFormat | null)[];
   warnings: string[];
 }
 
@@ -341,5 +344,6 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
     throw new CaptureError('the table has no value columns, only time', header ? header.line : firstDataLine);
   }
   const headerLine = header ? header.line : null;
-  return { delimiter, decimalComma, headerLine, headerText: header ? header.text : null, firstDataLine, columns, preamble, interval, warnings };
+  const headerText = header ? header.text : null;
+  return { delimiter, decimalComma, headerLine, headerText, firstDataLine, columns, preamble, interval, cellFormats: fixedFormats(shapes), warnings };
 }

@@ -37,6 +37,8 @@
 // - Segments: blocks of the same shape whose time restarts where the first block's did (after a line of text, a
 //   blank line and the header, or nothing), or blocks after lines of text in a table without a time column, each of
 //   at least 20 rows, are repeated acquisitions: the first is read, or the one `segment` names (see segments).
+// - A last line without a line end that lacks cells, or digits its column is always written with, was cut off (a copy
+//   or a write broken off): it is left out with a warning.
 // - Time must increase strictly (sortTime sorts instead, keeping the first of repeated stamps); at least 20
 //   samples are needed; flat runs at an ADC rail are marked in `clipped` (see detectClipping).
 // - A line over 1 MiB or a table over 1,000 columns is refused naming its line (captureLimits), and so are rows so
@@ -44,6 +46,7 @@
 
 import { assembleCapture } from './assembleCapture';
 import { BinaryWatch, SIGNATURE_BYTES } from './binaryContent';
+import { cutOffReason } from './cutLastLine';
 import { ByteRowReader } from './byteRowReader';
 import { ColumnStore } from './columnStore';
 import { groupingCause } from './cellValue';
@@ -129,6 +132,8 @@ class StreamingReader implements CaptureReader {
   private textWaitsForEnd = false;
   /** Set once rows are reserved for the whole file (see reserveRows). */
   private reservedForFile = false;
+  /** Why the last line, cut off, was left out; null when it was read. */
+  private cutOff: string | null = null;
 
   /** `size`: the bytes the whole file will push, when known (no byte may come after them), so that its rows are reserved at once. */
   constructor(
@@ -214,8 +219,11 @@ class StreamingReader implements CaptureReader {
       this.held.keep(bytes, bytes.length);
     }
     const last = this.carry.endsWith('\r') ? this.carry.slice(0, -1) : this.carry;
+    // The last line has no line end (a CR left there ended it): when it lacks cells or digits, it was cut off.
+    const cut = last === this.carry && last !== '' && this.layout ? cutOffReason(last, rowDelimiter(this.layout), this.layout.cellFormats) : null;
     this.carry = '';
-    if (last !== '') {
+    if (cut !== null) this.cutOff = `line ${++this.line}, the last, has no line end and ${cut}: it was cut off and is left out`;
+    else if (last !== '') {
       this.rows?.begin(last);
       this.take(last, 0, last.length);
     }
@@ -234,6 +242,7 @@ class StreamingReader implements CaptureReader {
       this.pending === null
         ? []
         : [`${this.pendingCount} line(s) after the last data row were ignored (from line ${this.pending.line}: '${this.pending.text}')`];
+    if (this.cutOff !== null) footer.push(this.cutOff);
     const headers = this.repeatedHeader;
     // A header repeated at the start of each segment is part of the segments' layout, not worth a warning.
     if (headers && !(spans && headers.rows.every((row) => spans.some((s) => s.start === row)))) {
