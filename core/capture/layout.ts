@@ -19,7 +19,7 @@ import {
 import { readConverterCodes } from './converterCodes';
 import { fixedFormats, type NumberFormat } from './cutLastLine';
 import { sideLine } from './sideMetadata';
-import { isBlankOrComment, readPreamble, usableTimeUnit, type Preamble, type PreambleLine, type StatedTime } from './preamble';
+import { isBlankOrComment, readPreamble, uncommented, usableTimeUnit, type Preamble, type PreambleLine, type StatedTime } from './preamble';
 import { WHITESPACE, splitLine, trimTrailingEmpty } from './splitLine';
 import { printable, readUnitText } from '../units/unitText';
 
@@ -91,6 +91,21 @@ function looksLikeHeader(cells: string[], dataCount: number, shifted: boolean, d
   if (cells.length === 0 || (cells.length < dataCount && !unnamedFirst)) return false;
   if (cells.length === 1 && statesANumber(cells[0])) return false;
   return cells.every((c) => c === '' || (slowCellValue(c, decimalComma) === null && !isTimestamp(c)));
+}
+
+/**
+ * A header written as a comment ('# t[us]  CH1[V]') on the line just above the data (blank lines aside), taken when
+ * no other line is the header: it names every data column, the first of them time (so that its unit is read).
+ */
+function commentedHeader<L extends PreambleLine>(above: L[], width: number, shifted: boolean, delimiter: string, decimalComma: boolean): L | null {
+  const line = [...above].reverse().find((l) => l.text.trim() !== '');
+  if (line === undefined || !isBlankOrComment(line.text)) return null;
+  const text = uncommented(line.text);
+  const cells = headerCells(text, delimiter);
+  const names = cells.filter((c) => c !== '');
+  if (names.length !== width || !looksLikeHeader(cells, width, shifted, decimalComma)) return null;
+  const first = parseColumnHeading(names[0]);
+  return isTimeName(first.name) || readsAsTime(first.reading) ? { ...line, text } : null;
 }
 
 /** A header cell and the unit under it in a units row, if the cell gives none and the one below reads as a unit. */
@@ -268,6 +283,7 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
       }
     }
   }
+  if (header === null && units === undefined) header = commentedHeader(above, width, skip > 0, delimiter, decimalComma);
   let headings = header ? trimTrailingEmpty(headerCells(header.text, delimiter)) : [];
   // A header (and units row) naming only the data columns is shifted over the empty fields.
   const shift = header ? Math.min(skip, dataCount - headings.length) : 0;

@@ -13,7 +13,8 @@
 //   those rows are rows of the table, their metadata cells preamble lines; the layout is decided on 16 rows after the last.
 // - The non-blank line just above the table is its header when none of its cells is a number (a line of units
 //   such as '(s),(mV)' under the names is read too; a line of units alone, or one cell holding a number, is no
-//   header; start and increment may sit in header cells or under the names in the row below). Units come from
+//   header; start and increment may sit in header cells or under the names in the row below; without any, a comment
+//   line just above the data naming every column, the first time, is the header: '# t[us]  CH1[V]'). Units come from
 //   'name (unit)', 'name [unit]', 'name/unit' or 'time_ns'; values are scaled to SI. A time column without a unit, and
 //   a stated time without one, are in the unit a preamble line gives the horizontal axis ('Horizontal units,us',
 //   '# Time unit: ms', 'X unit'; a comment line counts), else in seconds. Everything above the header is

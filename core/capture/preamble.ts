@@ -195,13 +195,18 @@ function secondsOf(
 /** The comment marker and the space after it, at the start of a comment line. */
 const COMMENT_MARKER = /^\s*(?:#+|;+|%+|\/\/+)\s*/;
 
+/** A comment line's text after its marker; any other line as it is. */
+export function uncommented(text: string): string {
+  return text.replace(COMMENT_MARKER, '');
+}
+
 /**
  * The first line stating the unit of the horizontal axis, read. A comment line counts ('# Time units = us'): a unit
  * stated only there is still the unit the times are written in.
  */
 function statedTimeUnit(lines: PreambleLine[], delimiter: string): StatedTimeUnit | null {
   for (const { text, line } of lines) {
-    const pair = splitKeyValue(text.replace(COMMENT_MARKER, ''), delimiter);
+    const pair = splitKeyValue(uncommented(text), delimiter);
     if (pair && TIME_UNIT_KEYS.has(normaliseKey(pair[0]).words)) return readTimeUnit(pair[1], pair[0], line);
   }
   return null;

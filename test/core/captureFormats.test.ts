@@ -284,6 +284,26 @@ describe('files without a header', () => {
     expect(error.message).toContain('no time column');
   });
 
+  it.each([
+    ['# t[us]  CH1[V]', '  ', 1e-6],
+    ['#Time (ms),Vout (V)', ',', 1e-3],
+    ['% time_ns\tCH1 (V)', '\t', 1e-9],
+  ])("reads a header written as a comment, '%s', just above the data: its names and units", (comment, d, scale) => {
+    const capture = parseCapture(`# logger export\n${comment}\n\n${rowsOf((i) => `${i + 1}${d}${values[i]}`)}`);
+    expect(capture.layout.headerLine).toBe(2);
+    expect(capture.channels.map((c) => [c.name, c.unit])).toEqual([[d === ',' ? 'Vout' : 'CH1', 'V']]);
+    expectClose(capture.channels[0].time, times.map((_, i) => (i + 1) * scale));
+  });
+
+  it('keeps a comment that names no time column, or not every column, a comment', () => {
+    for (const comment of ['# Channel A', '# t[us] CH1[V] CH2[V]']) {
+      const capture = parseCapture(`${comment}\n${rowsOf((i) => `${times[i]} ${values[i]}`)}`);
+      expect(capture.layout.headerLine).toBeNull();
+      expect(capture.channels.map((c) => c.name)).toEqual(['channel 1']);
+      expectClose(capture.channels[0].time, times);
+    }
+  });
+
   it('reads a single column of values with the sampleInterval option', () => {
     const capture = parseCapture(rowsOf((i) => `${values[i]}`), { sampleInterval: 2e-9 });
     expect(capture.layout.delimiter).toBe('');
