@@ -33,8 +33,10 @@
 // - Empty, NaN, inf, '****', '----' and overrange (|x| >= 9.9e37) cells are dropped per channel and counted; a line
 //   repeating the header is skipped with a warning. Any other text in the table is an error naming its line, unless
 //   no row of the table's shape follows it (a footer or a later section of another shape: left out, listed in
-//   importSummary.ignoredSections), or the time goes back there to start another segment. A number written with digit
-//   groups ('1,234.5', '1.234,5', '1 234,5') is refused naming its thousands separator, on the line after the table too.
+//   importSummary.ignoredSections), or the time goes back there to start another segment, or the first such row lies
+//   more than 4 sample steps beyond the table's time (a later section of the same shape, a footer of totals: left out).
+//   A number written with digit groups ('1,234.5', '1.234,5', '1 234,5') is refused naming its thousands separator, on
+//   the line after the table too.
 // - Segments: blocks of the same shape whose time restarts where the first block's did (after a line of text, a
 //   blank line and the header, or nothing), or blocks after lines of text in a table without a time column, each of
 //   at least 20 rows, are repeated acquisitions: the first is read, or the one `segment` names (see segments).
@@ -79,6 +81,11 @@ const ESTIMATE_MARGIN = 1.05;
  * along a record by a character or two (a time stamp's exponent, a value's sign and digits as the signal rings).
  */
 const EXTRAPOLATION_MARGIN = 1.25;
+/**
+ * Sample steps within which rows after a line that is not data resume the table's time: that line stood in for a few
+ * rows (junk inside the table, refused); rows further on are a later section of the same shape (a footer of totals).
+ */
+const RESUMING_STEPS = 4;
 const LF = 10;
 const CR = 13;
 
@@ -119,6 +126,8 @@ class StreamingReader implements CaptureReader {
   /** The first line after the rows that is not data: a later section, or a segment's separator when rows follow. */
   private pending: { line: number; message: string; text: string } | null = null;
   private pendingCount = 0;
+  /** Set once the lines after the table are known to be a later section, whatever their shape: left out to the end. */
+  private laterSection = false;
   private readonly trailing = new TrailingSections();
   /** Lines between rows of the table where its time goes back: each a segment's separator (or junk, if no segment starts there). */
   private readonly separators: { row: number; line: number; message: string }[] = [];
@@ -299,8 +308,9 @@ class StreamingReader implements CaptureReader {
 
   /**
    * After a line that is not data: a row of the table's shape starts a new segment when the time goes back there (or
-   * the table has no time column: judged at the end), else it means junk inside the table; other lines are a later
-   * section, left out.
+   * the table has no time column: judged at the end), means junk inside the table when its time resumes the table's,
+   * and else starts a later section of the same shape (a footer of totals); other lines are a later section. A later
+   * section runs to the end, left out.
    */
   private readAfterBreak(text: string, line: number, start: number, end: number): void {
     const lineText = text.slice(start, end);
@@ -310,17 +320,34 @@ class StreamingReader implements CaptureReader {
     }
     const shape = dataShape(lineText);
     const pending = this.pending as NonNullable<typeof this.pending>;
-    if (shape && this.runShape && sameShape(shape, this.runShape)) {
-      if ((this.rows as RowReader).read(start, end) !== ROW || !this.timeGoesBack()) throw new CaptureError(pending.message, pending.line);
-      this.separators.push({ row: (this.store as ColumnStore).length - 1, line: pending.line, message: pending.message });
-      this.pending = null;
-      this.pendingCount = 0;
-      this.trailing.clear();
-      this.rowStored(line);
-      return;
+    if (!this.laterSection && shape && this.runShape && sameShape(shape, this.runShape)) {
+      const store = this.store as ColumnStore;
+      if ((this.rows as RowReader).read(start, end) !== ROW) throw new CaptureError(pending.message, pending.line);
+      if (this.timeGoesBack()) {
+        this.separators.push({ row: store.length - 1, line: pending.line, message: pending.message });
+        this.pending = null;
+        this.pendingCount = 0;
+        this.trailing.clear();
+        this.rowStored(line);
+        return;
+      }
+      if (this.timeResumes()) throw new CaptureError(pending.message, pending.line);
+      store.length--;
+      this.laterSection = true;
     }
     this.pendingCount++;
     this.trailing.add(line, lineText, shape);
+  }
+
+  /** True when the last stored row's time resumes the table's, RESUMING_STEPS steps or fewer after the row before; or cannot be judged. */
+  private timeResumes(): boolean {
+    const store = this.store as ColumnStore;
+    const index = (this.layout as Layout).columns.findIndex((c) => c.kind === 'time' || c.kind === 'maybe-time');
+    const n = store.length;
+    if (index < 0 || n < 3) return true;
+    const time = store.columns[index];
+    const step = time[n - 2] - time[n - 3];
+    return !(step > 0) || time[n - 1] - time[n - 2] <= RESUMING_STEPS * step;
   }
 
   /** True when the last stored row's time is not after the row before it, or the table has no time column. */

@@ -202,3 +202,13 @@ describe('a file that is not text', () => {
     expect(padded.warnings.at(-1)).toMatch(/^1 line\(s\) after the last data row were ignored \(from line 32: '\u0000/);
   });
 });
+
+describe("rows of the table's shape after a line of text", () => {
+  it('refuses a line of text where the rows resume a few steps on; leaves out rows of the shape far beyond the time', () => {
+    const gap = [...good.slice(0, 12), 'Marker', ...good.slice(15)];
+    expect(captureError(table(gap)).message).toBe("line 14: expected 3 numeric columns, found 'Marker' (column 1)");
+    const totals = parseCapture(`${table(good)}Totals\n${N},1.5,1.5\n0,-1.5,-1.5\n`);
+    expect(totals.layout.rows).toBe(N);
+    expect(totals.warnings.at(-1)).toBe("3 line(s) after the last data row were ignored (from line 32: 'Totals')");
+  });
+});
