@@ -88,7 +88,9 @@ export class ByteRowReader {
         let c = 0;
         while ((c = bytes[p]) === SPACE || (c === TAB && tabPads)) p++;
         for (;;) {
-          if (col < count) {
+          // An empty cell is a missing value, as the text path reads it (rows opening with empty fields are common).
+          if (col < count && c === delimiter) columns[col][row] = NaN;
+          else if (col < count) {
             p = storeLeadingNumber(bytes, p, decimalCode, columns[col], row);
             if (p === NOT_PLAIN) break;
             while ((c = bytes[p]) === SPACE || (c === TAB && tabPads)) p++;

@@ -82,6 +82,9 @@ describe('parseCaptureBytes', () => {
     'non-ASCII in cells and a unit header': table(ramp((i) => (i === LEAD + 20 ? '3\u00a0V' : `${i}`)), 'Zeit (µs),Spannung (mV)'),
     'extra blank and extra filled cells': table(ramp((i) => (i === LEAD + 30 ? `${i},, ` : i === LEAD + 35 ? `${i},7` : `${i},`))),
     'a trailing footer': `${table(ramp())}End of record\n`,
+    'metadata beside the first rows, empty fields opening the others': rows(
+      (i) => `${['Record Length', 'Sample Interval', '', 'Source'][i] ?? ''},${['1260', '1e-6', '', 'CH1'][i] ?? ''},,${i}e-6,${i % 7 === 3 ? '' : -i},`,
+    ).join('\n'),
     'junk inside the table': table(ramp((i) => (i === LEAD + 25 ? 'overload!' : `${i}`))),
     'a stray CR inside a line': table(ramp((i) => (i === LEAD + 12 ? '1\r2' : `${i}`))),
     'CR line endings': table(ramp(), 'Time (s),CH1 (V)', '\r'),
