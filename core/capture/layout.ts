@@ -226,7 +226,9 @@ function planUnit(
     return options.timeUnit ? { unit: options.timeUnit.unit, scale: options.timeUnit.scale } : { unit: '', scale: 1 };
   }
   const unit = usableTimeUnit(stated);
-  if (unit.scale !== 1) warnings.push(`column '${printable(label)}' gives no unit: read in ${unit.text}, as '${printable(unit.key)}' on line ${unit.line} states`);
+  if (unit.scale !== 1) {
+    warnings.push(`column '${printable(label)}' gives no unit: read in ${unit.text}, as '${printable(unit.key)}' on line ${unit.line} states`);
+  }
   return { unit: unit.unit, scale: unit.scale };
 }
 
@@ -313,7 +315,8 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
   const plans = Array.from({ length: count }, (_, c) => plan(headings[c] ?? '', units?.[c]));
   const named = header !== null || units !== undefined;
   const timeNames = plans.map((p) => named && (isTimeName(p.name) || readsAsTime(p.reading)));
-  const numbered = timeNames.includes(true) ? new Set<number>() : numberedTimeColumns(plans.map((p) => p.name), (c) => evenSteps(column(c), decimalComma));
+  const stepsEvenly = (c: number): boolean => evenSteps(column(c), decimalComma);
+  const numbered = timeNames.includes(true) ? new Set<number>() : numberedTimeColumns(plans.map((p) => p.name), stepsEvenly);
   for (let c = 0; c < count; c++) {
     const p = plans[c];
     const counting = countsUp(column(c));

@@ -56,8 +56,8 @@ const NUMBERED_TIME = /^[tx][\s_-]?\d{1,2}$/i;
 export function numberedTimeColumns(names: string[], stepsEvenly: (c: number) => boolean): Set<number> {
   const found = new Set<number>();
   names.forEach((name, c) => {
-    const next = names[c + 1];
-    if (NUMBERED_TIME.test(name.trim()) && next !== undefined && next.trim() !== '' && !NUMBERED_TIME.test(next.trim()) && stepsEvenly(c)) found.add(c);
+    const next = names[c + 1]?.trim() ?? '';
+    if (NUMBERED_TIME.test(name.trim()) && next !== '' && !NUMBERED_TIME.test(next) && stepsEvenly(c)) found.add(c);
   });
   return found;
 }

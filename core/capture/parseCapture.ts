@@ -230,7 +230,8 @@ class StreamingReader implements CaptureReader {
     }
     const last = this.carry.endsWith('\r') ? this.carry.slice(0, -1) : this.carry;
     // The last line has no line end (a CR left there ended it): when it lacks cells or digits, it was cut off.
-    const cut = last === this.carry && last !== '' && this.layout ? cutOffReason(last, rowDelimiter(this.layout), this.layout.cellFormats) : null;
+    const known = this.layout;
+    const cut = last === this.carry && last !== '' && known ? cutOffReason(last, rowDelimiter(known), known.cellFormats) : null;
     this.carry = '';
     if (cut !== null) this.cutOff = `line ${++this.line}, the last, has no line end and ${cut}: it was cut off and is left out`;
     else if (last !== '') {
@@ -332,6 +333,7 @@ class StreamingReader implements CaptureReader {
         return;
       }
       if (this.timeResumes()) throw new CaptureError(pending.message, pending.line);
+      // The row just read is no row of the table: taken back, and left out with the rest of its section.
       store.length--;
       this.laterSection = true;
     }
@@ -339,7 +341,7 @@ class StreamingReader implements CaptureReader {
     this.trailing.add(line, lineText, shape);
   }
 
-  /** True when the last stored row's time resumes the table's, RESUMING_STEPS steps or fewer after the row before; or cannot be judged. */
+  /** True when the last stored row's time resumes the table's (RESUMING_STEPS steps or fewer after the row before), or cannot be judged. */
   private timeResumes(): boolean {
     const store = this.store as ColumnStore;
     const index = (this.layout as Layout).columns.findIndex((c) => c.kind === 'time' || c.kind === 'maybe-time');
@@ -476,7 +478,10 @@ class StreamingReader implements CaptureReader {
     if (this.plainSinceSide === confirming) this.startTable();
   }
 
-  /** The table has started at its first row (one with metadata beside it, or the first confirming row): fix the layout, then read the rows held back. */
+  /**
+   * The table has started at its first row (the first confirming row, or one above it with metadata beside the data):
+   * fix the layout, then read the rows held back.
+   */
   private startTable(): void {
     const layout = decideLayout(this.head, this.run, this.options, this.side);
     const parsed = layout.columns.map((c) => c.kind !== 'timestamp');

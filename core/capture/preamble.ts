@@ -151,13 +151,14 @@ function readTimeUnit(text: string, key: string, line: number): StatedTimeUnit {
   const written = text.split(/[,;\t]/)[0].trim();
   const reading = readUnitText(written);
   const problem = written === '' ? 'no unit given' : unitProblem(written, reading, true);
-  return reading.kind === 'known' && problem === '' ? { text: written, scale: reading.scale, unit: reading.unit, key, line, problem } : { text: written, scale: 1, unit: '', key, line, problem };
+  if (reading.kind !== 'known' || problem !== '') return { text: written, scale: 1, unit: '', key, line, problem };
+  return { text: written, scale: reading.scale, unit: reading.unit, key, line, problem };
 }
 
 /** The stated time unit, to read times in: a CaptureError on its line when it is no unit of time. */
 export function usableTimeUnit(stated: StatedTimeUnit): StatedTimeUnit {
-  if (stated.problem !== '') throw new CaptureError(`'${printable(stated.key)}': ${stated.problem}; state the time unit with --time-unit`, stated.line);
-  return stated;
+  if (stated.problem === '') return stated;
+  throw new CaptureError(`'${printable(stated.key)}': ${stated.problem}; state the time unit with --time-unit`, stated.line);
 }
 
 /**
@@ -176,7 +177,9 @@ function secondsOf(
 ): number {
   const written = reading.unitText ?? keyUnit;
   if (!timeUnit && written === null && stated) {
-    if (usableTimeUnit(stated).scale !== 1) notes.push(`line ${line}: '${printable(key)}' gives no unit: read in ${stated.text}, as '${printable(stated.key)}' on line ${stated.line} states`);
+    if (usableTimeUnit(stated).scale !== 1) {
+      notes.push(`line ${line}: '${printable(key)}' gives no unit: read in ${stated.text}, as '${printable(stated.key)}' on line ${stated.line} states`);
+    }
     return reading.number * stated.scale;
   }
   if (timeUnit) {
