@@ -456,7 +456,14 @@ class StreamingReader implements CaptureReader {
     const index = this.head.length - 1;
     const shape = dataShape(text);
     if (shape === null && isBlankOrComment(text)) return;
-    if (this.runShape && isSideRow(text, this.runShape)) {
+    const side = this.runShape !== null && isSideRow(text, this.runShape);
+    // Rows enough for a table, broken while metadata beside them might still come: the table has started, and this
+    // line is read as one of its lines (a footer, junk, a segment's separator), as when the table starts at once.
+    if (!side && !(shape && this.runShape && sameShape(shape, this.runShape)) && this.run.length >= CONFIRMING_ROWS) {
+      this.startTable();
+      return;
+    }
+    if (side) {
       this.side.push(index);
       this.plainSinceSide = 0;
     } else if (shape && this.runShape && sameShape(shape, this.runShape)) {
