@@ -34,6 +34,8 @@ export function fixedFormats(shapes: DataShape[]): (NumberFormat | null)[] {
  * than the table's rows, or a cell written with fewer digits than its column always has (the rest was never written).
  */
 export function cutOffReason(text: string, delimiter: string, formats: (NumberFormat | null)[]): string | null {
+  // NUL bytes padding a file to a fixed size (binaryContent.ts lets them through at its end) are no row at all.
+  if (/^[\0\s]*$/.test(text)) return null;
   const cells = trimTrailingEmpty(splitLine(text, delimiter));
   if (cells.length < formats.length) return `holds ${cells.length} of the table's ${formats.length} cells`;
   for (let c = 0; c < formats.length; c++) {

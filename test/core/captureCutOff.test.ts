@@ -43,7 +43,7 @@ describe('a last line cut off', () => {
 
   it('a whole last line without a line end is read, and so is a free-format one', () => {
     expect(read(TABLE).channels[0].values.length).toBe(N);
-    const free = `Time,CH1\n${Array.from({ length: N }, (_, i) => `${i * DT},${Number(valueAt(i))}`).join('\n')}\n${N * DT},1.5`;
+    const free = `Time (s),CH1\n${Array.from({ length: N }, (_, i) => `${i * DT},${Number(valueAt(i))}`).join('\n')}\n${N * DT},1.5`;
     const capture = read(free);
     expect(capture.channels[0].values.length).toBe(N + 1);
     expect(capture.warnings).toEqual([]);

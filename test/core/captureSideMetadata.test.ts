@@ -66,7 +66,10 @@ describe('rows opening with empty fields and no metadata beside them', () => {
     const rows = (from: number, to: number): string => Array.from({ length: to - from }, (_, k) => `,${timeAt(from + k)},${valueAt(from + k)}`).join('\n');
     const footer = parseCapture(`${rows(0, 25)}\nEnd of data\n`);
     expect(footer.layout.rows).toBe(25);
-    expect(footer.warnings).toEqual(["1 line(s) after the last data row were ignored (from line 26: 'End of data')"]);
+    expect(footer.warnings).toEqual([
+      'time column 2 states no unit and was read as seconds; state another unit with --time-unit',
+      "1 line(s) after the last data row were ignored (from line 26: 'End of data')",
+    ]);
     expect(() => parseCapture(`${rows(0, 8)}\nglitch\n${rows(9, 40)}`)).toThrow(/^line 9: expected 3 numeric columns, found 'glitch'/);
     expect(() => parseCapture(`${rows(0, 10)}\nEnd of data\n`)).toThrow(/^only 10 data row\(s\) from line 1; at least 20 samples are needed$/);
   });
