@@ -82,7 +82,7 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   const guarded = LAYOUTS[best.layout].order === 2 ? refitAwayFromRails(trace, best, t0Start, window, sampleNoise) : null;
   if (guarded) {
     ({ set, best } = guarded);
-    warnings.push(guarded.warning);
+    warnings.push(...guarded.warnings);
   }
   const subCode = subCodeNoiseWarning(trace.values, sampleNoise);
   if (subCode) warnings.push(subCode);

@@ -6,15 +6,17 @@ import { MIN_FIT_SAMPLES, prepareFitSet, type FitSet } from './fitSet';
 import { layoutValues } from './responseModel';
 import { attemptT0, attemptValue, type Attempt } from './attempt';
 import { refine } from './refine';
+import { censoredRails } from './censoredRail';
 
 /** Samples whose fitted value lies within this many noise levels of a rail are left out. */
 const RAIL_MARGIN = 3;
 
 /**
  * A sample beside a converter rail is kept only when its noise did not carry it onto the rail, so the
- * samples left near a rail read low (censored data). Once clipping was found, the samples whose fitted
- * value lies within 3 noise levels of a rail are left out too, and the fit is repeated on the rest from
- * the fit before (null when nothing more is left out, or too little would be left).
+ * samples left near a rail read low (censored data). Once clipping was found (by the importer, or here as a
+ * rail the fit expects samples beyond: censoredRail.ts), the samples at a rail and those whose fitted value
+ * lies within 3 noise levels of it are left out, and the fit is repeated on the rest from the fit before
+ * (null when nothing more is left out, or too little would be left).
  */
 export function refitAwayFromRails(
   trace: Trace,
@@ -22,21 +24,25 @@ export function refitAwayFromRails(
   t0Start: number,
   window: { start?: number; end?: number },
   sampleNoise: number,
-): { set: FitSet; best: Attempt; warning: string } | null {
-  const guarded = guardRails(trace, best, t0Start, window, sampleNoise);
+): { set: FitSet; best: Attempt; warnings: string[] } | null {
+  const unseen = censoredRails(trace, window, (time) => layoutValues(best.layout, best.values, t0Start, time));
+  const railed = unseen ? { ...trace, clipped: unseen.clipped } : trace;
+  const guarded = guardRails(railed, best, t0Start, window, sampleNoise, unseen !== null);
   if (!guarded) return null;
   const start = { alpha: attemptValue(best, 'alpha'), omega0: attemptValue(best, 'omega0'), source: 'fit before the rail guard' };
-  return { ...guarded, best: refine(guarded.set, best.layout, start, attemptT0(best, t0Start)) };
+  const warnings = [...(unseen?.warnings ?? []), ...guarded.warnings];
+  return { set: guarded.set, best: refine(guarded.set, best.layout, start, attemptT0(best, t0Start)), warnings };
 }
 
-/** The fit set without the samples near a rail, and the warning that says so. */
+/** The fit set without the samples at and near a rail, and the warning that says so (`newRails`: flags the fit did not leave out yet). */
 function guardRails(
   trace: Trace,
   best: Attempt,
   t0Start: number,
   window: { start?: number; end?: number },
   sampleNoise: number,
-): { set: FitSet; warning: string } | null {
+  newRails: boolean,
+): { set: FitSet; warnings: string[] } | null {
   const { clipped, values, time } = trace;
   // indexOf() scans natively: most records hold no clipped sample (flags are 0 or 1, as the importer marks them).
   if (!clipped || clipped.indexOf(1) < 0) return null;
@@ -62,13 +68,11 @@ function guardRails(
       added++;
     }
   }
-  if (added === 0) return null;
+  if (added === 0 && !newRails) return null;
   const set = prepareFitSet({ ...trace, clipped: guard }, window);
   if (set.time.length < MIN_FIT_SAMPLES) return null;
-  return {
-    set,
-    warning: `${added} more samples were left out because the fit puts them within ${RAIL_MARGIN} noise levels of a clipped rail (their noise is cut off there)`,
-  };
+  const note = `${added} more samples were left out because the fit puts them within ${RAIL_MARGIN} noise levels of a clipped rail (their noise is cut off there)`;
+  return { set, warnings: added > 0 ? [note] : [] };
 }
 
 /** Fewest samples before the departure for a pile-up at a rail to be told from the noise's tail. */
