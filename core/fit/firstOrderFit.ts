@@ -8,6 +8,7 @@ import type { FitSet } from './fitSet';
 import { attemptT0, attemptValue, type Attempt } from './attempt';
 import { beatsContinuous, jumpOf, scanEventTime, showsJump } from './jumpStart';
 import { indexRamp } from './indexVectors';
+import { responseCovariance } from './responseCovariance';
 
 /** A first-order attempt and the event time a layout that holds t0 is held at. */
 export interface FirstOrderFit {
@@ -114,17 +115,28 @@ const TAIL_START_TAUS = 1;
 /** Fewest values a tail fit runs on. */
 const MIN_TAIL_VALUES = 20;
 
+/** The time constant of a record's tail and its standard error (NaN where the tail fit has no covariance), s. */
+export interface TailTimeConstant {
+  tau: number;
+  stderr: number;
+}
+
 /**
  * The time constant of the record's tail alone (from one fitted tau after the event): a sum of two decays
  * reads slower there than over the whole record, a single one the same to within the tail's noise.
  */
-export function tailTimeConstant(set: FitSet, decay: Attempt, t0: number): { tau: number } | null {
+export function tailTimeConstant(set: FitSet, decay: Attempt, t0: number): TailTimeConstant | null {
   const tau = 1 / attemptValue(decay, 'alpha');
   const from = set.time.findIndex((t) => t >= attemptT0(decay, t0) + TAIL_START_TAUS * tau);
   if (from < 0 || set.time.length - from < MIN_TAIL_VALUES) return null;
   const time = set.time.subarray(from);
   const values = set.values.subarray(from);
   const tail: FitSet = { ...set, time, values, window: { start: time[0], end: set.window.end }, samplesUsed: time.length };
-  const fit = fitFirstOrder(tail, 'first-order-free', time[0]);
-  return fit && { tau: 1 / attemptValue(fit, 'alpha') };
+  const layout = 'first-order-free';
+  const fit = fitFirstOrder(tail, layout, time[0]);
+  if (!fit) return null;
+  const alpha = attemptValue(fit, 'alpha');
+  const { covariance } = responseCovariance(tail, layout, fit.values, time[0], fit.sse / Math.max(1, time.length - fit.values.length));
+  const ia = LAYOUTS[layout].index.alpha;
+  return { tau: 1 / alpha, stderr: covariance ? Math.sqrt(covariance[ia][ia]) / (alpha * alpha) : NaN };
 }

@@ -7,7 +7,7 @@ import { LAYOUTS, layoutsFor } from './responseModel';
 import { firstSampleTime, MIN_FIT_SAMPLES, prepareFitSet, uniformValues } from './fitSet';
 import { searchLayouts } from './layoutSearch';
 import { chooseByInformation, explainRecord } from './modelSelection';
-import { fitFirstOrderRecord, tailTimeConstant } from './firstOrderFit';
+import { fitFirstOrderRecord, tailTimeConstant, type TailTimeConstant } from './firstOrderFit';
 import { fitJumpStart, showsJump } from './jumpStart';
 import { ringRulesOutDecay } from './decayBound';
 import { refitAwayFromRails } from './railGuard';
@@ -69,10 +69,10 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   const firstOrder = ringRulesOutDecay(set, best, t0Start, noise) ? null : fitFirstOrderRecord(set, { hasPreEvent, jumpStart }, t0Start, noise);
   const explanation = explainRecord(best, t0Start, firstOrder, set);
   if (explanation.choice === 'none') return noResponseFit(set, noise, warnings, explanation.evidence, trace.unit);
-  let tail: number | undefined;
+  let tail: TailTimeConstant | undefined;
   if (explanation.choice === 'first-order' && firstOrder) {
     if (explanation.doubt) warnings.push(explanation.doubt);
-    tail = tailTimeConstant(set, firstOrder.attempt, firstOrder.t0)?.tau;
+    tail = tailTimeConstant(set, firstOrder.attempt, firstOrder.t0) ?? undefined;
     ({ attempt: best, t0: t0Start } = firstOrder);
     jumpStart = !LAYOUTS[best.layout].fitsT0 && hasPreEvent;
   }
