@@ -93,7 +93,7 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
       const { name } = openedCapture(request.captureId);
       const channel = probedChannel(request.captureId, request.channel);
       progress('checking against the design');
-      const { value: verdict, error: verdictError } = attempt(() => checkAgainstDesign(request.design, request.fit, channel, name, request.eventTime));
+      const { value: verdict, error: verdictError } = attempt(() => checkAgainstDesign(request.design, request.fit, request.setupChecks, channel, name, request.eventTime));
       return { value: { type: 'check', verdict, verdictError }, transfer: [] };
     }
     case 'parasitics': {

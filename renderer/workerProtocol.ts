@@ -11,7 +11,7 @@ import type { Comparison } from '../core/report/comparisonText';
 import type { FitWindow, MeasureResult } from '../core/workflow/measure';
 import type { KnownPartRequest } from '../core/workflow/measuredComponents';
 import type { ProbeScaling } from '../core/workflow/probeScaling';
-import type { SetupOptions } from '../core/circuit/setupTypes';
+import type { SetupCheck, SetupOptions } from '../core/circuit/setupTypes';
 
 export type { FitWindow } from '../core/workflow/measure';
 
@@ -133,7 +133,7 @@ export type WorkerRequest =
       /** The ringing mode R, L and C are derived for (and the design checks), 1-based. Default: the dominant one. */
       mode?: number;
     }
-  | { id: number; type: 'check'; captureId: string; channel: number; design: Design; fit: FitSummary; eventTime?: number }
+  | { id: number; type: 'check'; captureId: string; channel: number; design: Design; fit: FitSummary; setupChecks: SetupCheck[]; eventTime?: number }
   | ({ id: number; type: 'parasitics' } & ParasiticsAsk)
   | { id: number; type: 'compare'; before: CaptureFile; after: CaptureFile; channel?: string | number; knownPart?: KnownPartRequest };
 

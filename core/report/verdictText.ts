@@ -55,7 +55,7 @@ export function ruleText(verdict: Verdict): string | null {
   return rule ? `Decision rule: ${describeDecisionRule(rule)}.` : null;
 }
 
-/** The verdict line when the fit gets none (verdictRefusal, core/workflow/measure.ts: a failed fit, or a single decay where the design rings). */
+/** The verdict line when the fit gets none (verdictRefusal, core/workflow/measure.ts: a failed fit, a capture a setup check refuses, or a single decay where the design rings). */
 export function formatNoVerdictText(reason: string): string {
   return `  verdict          none: ${reason}\n`;
 }

@@ -17,7 +17,7 @@ import { cautionInputsFromCapture, type CautionComponents } from '../safety/caut
 import { evaluateCautions, type CautionResult } from '../safety/evaluateCautions';
 import { deriveComponents, ratesOfMode, type KnownPartRequest } from './measuredComponents';
 import { fitEvents } from './events';
-import { runSetupChecks, type SetupCheck, type SetupOptions } from './setupChecks';
+import { runSetupChecks, setupRefusal, type SetupCheck, type SetupOptions } from './setupChecks';
 
 /** A fit window, s; an edge left out is found from the data. */
 export interface FitWindow {
@@ -88,11 +88,14 @@ export function weighCautions(channel: Pick<Channel, 'values' | 'unit'>, parts: 
 
 /**
  * Why a fit gets no verdict against a design, or null when it gets one: a failed fit is no measurement
- * (fitSucceeded), and a single decay does not compare with a design that rings (singleDecayRefusal).
- * Not bad input: the command line says it in place of the verdict and exits 1.
+ * (fitSucceeded), a capture a setup check refuses cannot support the numbers the verdict would judge (an
+ * aliased frequency, a damping that is not measured), and a single decay does not compare with a design that
+ * rings (singleDecayRefusal). Not bad input: the command line says it in place of the verdict and exits 1.
  */
-export function verdictRefusal(design: Design, fit: Pick<FitSummary, 'status' | 'tau'>): string | null {
+export function verdictRefusal(design: Design, fit: Pick<FitSummary, 'status' | 'tau'>, setupChecks: readonly SetupCheck[]): string | null {
   if (!fitSucceeded(fit)) return `the fit failed (${fit.status}), so nothing was checked against '${design.name}'`;
+  const refused = setupRefusal(setupChecks);
+  if (refused) return `a setup check refused the capture (${refused.message}), so nothing was checked against '${design.name}'`;
   return singleDecayRefusal(design, fit);
 }
 
@@ -100,8 +103,15 @@ export function verdictRefusal(design: Design, fit: Pick<FitSummary, 'status' | 
  * The verdict of a measured channel against a design. A design probing another unit than the channel, or
  * a fit that gets no verdict (verdictRefusal: measureCapture asks only when it gets one), is a UsageError.
  */
-export function checkAgainstDesign(design: Design, fit: ResponseFit | FitSummary, channel: Channel, file: string, eventTime?: number): Verdict {
-  const refusal = verdictRefusal(design, fit);
+export function checkAgainstDesign(
+  design: Design,
+  fit: ResponseFit | FitSummary,
+  setupChecks: readonly SetupCheck[],
+  channel: Channel,
+  file: string,
+  eventTime?: number,
+): Verdict {
+  const refusal = verdictRefusal(design, fit, setupChecks);
   if (refusal) throw new UsageError(refusal);
   const expected = probeUnit(design);
   if (channel.unit !== '' && channel.unit !== expected) {
@@ -135,10 +145,12 @@ export function measureCapture(request: MeasureRequest): MeasureResult {
   const components = knownPart ? attempt(() => deriveComponents(fit, knownPart, request.mode)) : NOT_ASKED;
   if (components.value) summary.components = components.value;
   warnIfImplausible(summary, request.channel);
-  const verdict =
-    design && verdictRefusal(design, summary) === null ? attempt(() => checkAgainstDesign(design, ofMode(summary, request.mode), request.channel, request.file, request.eventTime)) : NOT_ASKED;
-  const cautions = weighCautions(request.channel, { design, components: summary.components });
   const setupChecks = runSetupChecks({ fit, summary, channel: request.channel, metadata: request.metadata, options: request.setup, knownPart });
+  const verdict =
+    design && verdictRefusal(design, summary, setupChecks) === null
+      ? attempt(() => checkAgainstDesign(design, ofMode(summary, request.mode), setupChecks, request.channel, request.file, request.eventTime))
+      : NOT_ASKED;
+  const cautions = weighCautions(request.channel, { design, components: summary.components });
   // The setup check says it with its level (warning or refusal): the fit's own line would repeat it.
   if (setupChecks.some((check) => check.id === 'samples-per-period')) summary.warnings = summary.warnings.filter((w) => !isThinSamplingWarning(w));
   return { fit, summary, verdict: verdict.value, cautions, problems: { verdict: verdict.error, components: components.error }, setupChecks };

@@ -13,6 +13,8 @@ import type { EdgeCrossCheck, ParasiticsResult } from '../report/parasiticsText'
 import { cautionInputsFromCapture } from '../safety/cautionInputs';
 import { evaluateCautions, type CautionInputs } from '../safety/evaluateCautions';
 import { fitChannel } from './measure';
+import { runSetupChecks, setupRefusal, type SetupCheck } from './setupChecks';
+import type { FitSummary } from '../report/fitSummary';
 
 export interface ParasiticsCapture {
   /** Name as people see it. */
@@ -57,8 +59,9 @@ export interface ParasiticsRequest {
 
 /**
  * The extraction, or the failed measurement that stops it: a capture whose fit gives no ring to measure
- * (failed, no response, a single decay, overdamped), in one line naming the file and the fit's state.
- * A failed fit is not bad input: the command line exits 1 for it, 2 for bad input.
+ * (failed, no response, a single decay, overdamped), or whose ring a setup check refuses (a frequency that may be
+ * an alias, a damping not measured), in one line naming the file and why. A failed measurement is not bad input:
+ * the command line exits 1 for it, 2 for bad input.
  */
 export type ParasiticsOutcome = { result: ParasiticsResult; failure: null } | { result: null; failure: string };
 
@@ -79,18 +82,18 @@ export function measureParasitics(request: ParasiticsRequest, progress: (stage: 
 export function measureParasiticsOutcome(request: ParasiticsRequest, progress: (stage: string) => void = () => {}): ParasiticsOutcome {
   const { captures } = request;
   if (captures.length < 2) throw new UsageError('the added-capacitor method needs at least two captures: the bare loop and one with a capacitor added');
-  const fits = captures.map((capture, i) => {
+  const measured = captures.map((capture, i) => {
     progress(`fitting capture ${i + 1} of ${captures.length}`);
-    return fitChannel(capture.file, capture.channel, {}, capture.captureWarnings).summary;
+    const { fit, summary } = fitChannel(capture.file, capture.channel, {}, capture.captureWarnings);
+    return { summary, refused: setupRefusal(runSetupChecks({ fit, summary, channel: capture.channel })) };
   });
-  const failed = fits.find((f) => regimeTag(f) !== 'underdamped');
-  if (failed) {
-    return { result: null, failure: `${failed.file}: no ring to measure (${fitStateText(failed)}); the added-capacitor method needs an underdamped ring in every capture` };
-  }
+  const failure = measurementFailure(measured);
+  if (failure) return { result: null, failure };
+  const fits = measured.map((m) => m.summary);
   // The method needs the undamped natural frequency f0 = omega0 / 2 pi, not the ring frequency.
-  const measured = fits.map((fit, i) => ({ file: fit.file, addedC: captures[i].addedC, frequency: hertz(fit.omega0), alpha: fit.alpha }));
+  const rates = fits.map((fit, i) => ({ file: fit.file, addedC: captures[i].addedC, frequency: hertz(fit.omega0), alpha: fit.alpha }));
   const extraction = extractParasitics(
-    measured.map((row, i) => ({
+    rates.map((row, i) => ({
       addedC: row.addedC,
       addedCTolerance: i === 0 ? 0 : (request.addedTolerance ?? 0),
       derating: captures[i].derating,
@@ -101,7 +104,7 @@ export function measureParasiticsOutcome(request: ParasiticsRequest, progress: (
     })),
     { probeC: request.probeC ?? 0, probeCTolerance: request.probeCTolerance ?? 0, bandwidth: request.bandwidth, dcBias: request.dcBias, switchC: request.switchC },
   );
-  const rows = measured.map((row, i) => ({ ...row, ...extraction.points[i] }));
+  const rows = rates.map((row, i) => ({ ...row, ...extraction.points[i] }));
   const loop = { L: extraction.L, C: extraction.C, R: extraction.R, characteristicImpedance: extraction.characteristicImpedance };
   const snubber = suggestSnubber(loop, { voltage: request.voltage, switchingFrequency: request.switchingFrequency });
   const peaks = largestPeaks(captures.map((c) => cautionInputsFromCapture(c.channel.values, c.channel.unit)));
@@ -122,6 +125,14 @@ export function measureParasiticsOutcome(request: ParasiticsRequest, progress: (
   };
   if (result.edgeCheck) result.notes.push(...result.edgeCheck.notes);
   return { result, failure: null };
+}
+
+/** The first capture that gives no ring to measure, or whose ring a setup check refuses, in one line; null when every capture measures. */
+function measurementFailure(measured: readonly { summary: FitSummary; refused: SetupCheck | null }[]): string | null {
+  const noRing = measured.find((m) => regimeTag(m.summary) !== 'underdamped');
+  if (noRing) return `${noRing.summary.file}: no ring to measure (${fitStateText(noRing.summary)}); the added-capacitor method needs an underdamped ring in every capture`;
+  const refused = measured.find((m) => m.refused !== null);
+  return refused ? `${refused.summary.file}: a setup check refused the capture: ${refused.refused!.message}` : null;
 }
 
 /** L_p from the turn-on edge against the ring's; an edge that cannot give di/dt or V_L is bad input naming its file. */

@@ -74,7 +74,12 @@ export function runSetupChecks(input: SetupCheckInput): SetupCheck[] {
 
 /** True when any check refuses an answer (the command line exits 1). */
 export function setupRefused(checks: readonly SetupCheck[]): boolean {
-  return checks.some((c) => c.level === 'refusal');
+  return setupRefusal(checks) !== null;
+}
+
+/** The first check that refuses an answer (refusals come first), or null. */
+export function setupRefusal(checks: readonly SetupCheck[]): SetupCheck | null {
+  return checks.find((c) => c.level === 'refusal') ?? null;
 }
 
 /** The ring's frequency in rad/s (damped, else natural) when the fit found a ring; null otherwise. */

@@ -60,7 +60,7 @@ export function measureBatchFile(path: string, file: string, batch: BatchSetting
     const record = logged
       ? createBenchRecord(measurement, { unit: checkLabel(basename(file, extname(file)), 'the unit id (the file name without its extension)'), ...logged }, batch.settings)
       : null;
-    const noVerdict = batch.design ? verdictRefusal(batch.design.design, summary) : null;
+    const noVerdict = batch.design ? verdictRefusal(batch.design.design, summary, measurement.setupChecks) : null;
     return { file, summary, verdict, cautions, setupChecks: measurement.setupChecks, noVerdict, record };
   } catch (error) {
     return { file, failure: describeFailure(error) };

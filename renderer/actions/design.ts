@@ -82,16 +82,17 @@ export async function loadDesignText(ctx: ActionContext, named: NamedText, path:
 
 /**
  * The verdict of the fit on screen against the design, computed in the worker by checkAgainstDesign; never asked
- * for a fit that gets none (verdictRefusal: a failed fit, a single decay where the design rings), which the panel says.
+ * for a fit that gets none (verdictRefusal: a failed fit, a capture a setup check refuses, a single decay where the design
+ * rings), which the panel says.
  */
 async function checkDesign(ctx: ActionContext): Promise<void> {
   const state = ctx.store.state;
   const { capture, summary, design } = state;
   state.verdict = null;
   state.verdictError = null;
-  if (!capture || !summary || !design || verdictRefusal(design.design, summary)) return ctx.store.update();
+  if (!capture || !summary || !design || verdictRefusal(design.design, summary, state.setupChecks)) return ctx.store.update();
   const answer = await runStep(ctx, 'checking against the design', () =>
-    ctx.client.request({ type: 'check', captureId: capture.key, channel: capture.channel, design: design.design, fit: ofMode(summary, state.chosenMode ?? undefined), eventTime: state.eventTime ?? undefined }),
+    ctx.client.request({ type: 'check', captureId: capture.key, channel: capture.channel, design: design.design, fit: ofMode(summary, state.chosenMode ?? undefined), setupChecks: state.setupChecks, eventTime: state.eventTime ?? undefined }),
   );
   ctx.store.update((s) => {
     s.verdict = answer?.verdict ?? null;

@@ -159,8 +159,8 @@ export function createDesignPanel(actions: BenchActions) {
       state.designError ? h('p', { class: 'error-text', id: 'design-error' }, state.designError) : null,
       loaded ? h('p', { class: 'muted small' }, `${loaded.design.name} — ${loaded.design.topology}, from ${loaded.path}`) : h('p', { class: 'muted' }, 'No design loaded: choose one, open a design file, or enter the values.'),
     );
-    // A fit that gets no verdict (failed, or a single decay where the design rings) says why, in place of the verdict.
-    const refusal = loaded && state.summary ? verdictRefusal(loaded.design, state.summary) : null;
+    // A fit that gets no verdict (failed, refused by a setup check, or a single decay where the design rings) says why, in place of the verdict.
+    const refusal = loaded && state.summary ? verdictRefusal(loaded.design, state.summary, state.setupChecks) : null;
     if (refusal) {
       replaceChildren(verdictBox, h('p', { class: 'verdict-line none', id: 'verdict-none' }, 'No verdict'), h('p', { class: 'small', id: 'verdict-refusal' }, `${refusal[0].toUpperCase()}${refusal.slice(1)}.`));
       return;

@@ -51,7 +51,7 @@ describe('a design or known-part problem beside the fit', () => {
     expect(reply.result!.cautions.energies).not.toEqual(plain.result!.cautions.energies);
     expect(reply.result!.cautions.fired.length).toBeGreaterThan(0);
 
-    const checked = ask({ type: 'check', captureId: 'wrong-unit', channel: 0, design, fit: reply.result!.summary });
+    const checked = ask({ type: 'check', captureId: 'wrong-unit', channel: 0, design, fit: reply.result!.summary, setupChecks: reply.result!.setupChecks });
     expect(checked.verdict).toBeNull();
     expect(checked.verdictError).toBe(reply.verdictError);
   });

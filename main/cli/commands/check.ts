@@ -29,8 +29,8 @@ export function registerCheckCommand(program: Command, ctx: CommandContext): voi
     .action((file: string, options: CheckCommandOptions) => {
       const design = namingFile(options.design, () => loadDesignFile(options.design, ctx.io.cwd));
       const m = namingFile(file, () => measureFile(file, measureSettingsOf(options), ctx.io.cwd, design));
-      // A failed fit, or a single decay where the design rings, gets no verdict (measureCapture gives none), and says why.
-      const refusal = verdictRefusal(design.design, m.summary);
+      // A failed fit, a capture a setup check refuses, or a single decay where the design rings gets no verdict (measureCapture gives none), and says why.
+      const refusal = verdictRefusal(design.design, m.summary, m.setupChecks);
       if (options.json) {
         ctx.io.out(`${JSON.stringify({ ...m.summary, design: design.design.name, verdict: m.verdict, ...(refusal ? { noVerdict: refusal } : {}), setupChecks: m.setupChecks, cautions: m.cautions })}\n`);
       } else {
