@@ -9,6 +9,8 @@ import { fitSucceeded, type FitSummary } from '../report/fitSummary';
 import type { ChangeVerdict, Comparison, QuantityChange } from '../report/comparisonText';
 import { measureCapture, type MeasureRequest, type MeasureResult } from './measure';
 import type { KnownPartRequest } from './measuredComponents';
+import { setupRefusal } from './setupChecks';
+import { formatWithUncertainty } from '../units/format';
 
 /**
  * Coverage factor of each difference shown: k = 2 gives about 95 % for a normal distribution
@@ -20,6 +22,10 @@ export const COVERAGE_FACTOR = 2;
  * test of the change in (alpha, omega0), with their correlation in each fit.
  */
 const JOINT_LIMIT_95 = -2 * Math.log(0.05);
+
+const SIGNIFICANCE = `A difference is significant when it exceeds ${COVERAGE_FACTOR} combined standard uncertainties (about 95 %, GUM 6.3.3)`;
+const SIGNIFICANCE_NOTE = `${SIGNIFICANCE}.`;
+const JOINT_NOTE = `${SIGNIFICANCE}; the verdict tests alpha and omega0 jointly, with each fit's correlation, at 95 % (chi-square, 2 degrees of freedom).`;
 
 export type ComparisonSide = Omit<MeasureRequest, 'knownPart' | 'design' | 'eventTime'>;
 
@@ -36,24 +42,49 @@ export function compareCaptures(request: CompareRequest): Comparison {
   return compareMeasurements(before, after, request.knownPart);
 }
 
-/** The comparison of two measurements already made (with the known part both were derived with, if any). */
+/**
+ * The comparison of two measurements already made (with the known part both were derived with, if any). Two rings
+ * (or second-order responses) compare alpha, omega0 and what follows from them; two single decays compare tau. No
+ * change is judged (undetermined) when a fit failed, a setup check refused a capture, or one capture holds a single
+ * decay and the other a second-order response: they have no quantity in common.
+ */
 export function compareMeasurements(before: MeasureResult, after: MeasureResult, knownPart?: KnownPartRequest): Comparison {
   const a = before.summary;
   const b = after.summary;
-  const notes = [
-    `A difference is significant when it exceeds ${COVERAGE_FACTOR} combined standard uncertainties (about 95 %, GUM 6.3.3); the verdict tests alpha and omega0 jointly, with each fit's correlation, at 95 % (chi-square, 2 degrees of freedom).`,
-  ];
-  const failed = [a, b].find((s) => !fitSucceeded(s));
-  const quantities = failed ? [] : rateChanges(a, b);
-  if (!failed && knownPart) {
+  const common = { before: a, after: b, beforeCautions: before.cautions, afterCautions: after.cautions, coverageFactor: COVERAGE_FACTOR };
+  const reason = undeterminedReason(before, after);
+  if (reason) return { ...common, quantities: [], jointChiSquare: null, verdict: 'undetermined', reason, notes: [SIGNIFICANCE_NOTE] };
+  if (a.tau && b.tau) {
+    const notes = [SIGNIFICANCE_NOTE, ...(knownPart ? ['R, L and C are not compared: a single decay (one time constant) cannot give two parts.'] : [])];
+    const tau = change('tau', a.tau, b.tau);
+    return { ...common, quantities: [tau], jointChiSquare: null, ...judgeDecay(tau), notes };
+  }
+  const notes = [JOINT_NOTE];
+  const quantities = rateChanges(a, b);
+  if (knownPart) {
     quantities.push(...componentChanges(a, b, knownPart));
     notes.push(`R, L and C are compared without the tolerance of the known part (${a.components?.known ?? ''}): the same part is assumed in both captures, so its error is common to both and cancels in the difference.`);
   }
-  const joint = failed ? null : jointChiSquare(a, b);
-  const { verdict, reason } = failed
-    ? { verdict: 'undetermined' as const, reason: `the fit of ${failed.file} failed (${failed.status}): ${failed.message}` }
-    : judge(joint, quantities);
-  return { before: a, after: b, beforeCautions: before.cautions, afterCautions: after.cautions, quantities, jointChiSquare: joint, verdict, reason, coverageFactor: COVERAGE_FACTOR, notes };
+  const joint = jointChiSquare(a, b);
+  return { ...common, quantities, jointChiSquare: joint, ...judge(joint, quantities), notes };
+}
+
+/** Why no change can be judged between the two measurements, or null when it can. */
+function undeterminedReason(before: MeasureResult, after: MeasureResult): string | null {
+  const sides = [before, after];
+  const failed = sides.map((m) => m.summary).find((s) => !fitSucceeded(s));
+  if (failed) return `the fit of ${failed.file} failed (${failed.status}): ${failed.message}`;
+  const refused = sides.find((m) => setupRefusal(m.setupChecks));
+  if (refused) return `a setup check refused ${refused.summary.file}: ${setupRefusal(refused.setupChecks)!.message}`;
+  const decay = sides.map((m) => m.summary).find((s) => s.tau);
+  const ring = sides.map((m) => m.summary).find((s) => !s.tau);
+  if (decay && ring) {
+    return (
+      `${decay.file} holds a single decay (first-order, tau ${formatWithUncertainty(decay.tau!)}) and ${ring.file} a second-order response: ` +
+      'no quantity is common to both, so no change can be judged (a single decay may also be a ring its noise hides)'
+    );
+  }
+  return null;
 }
 
 function rateChanges(a: FitSummary, b: FitSummary): QuantityChange[] {
@@ -107,6 +138,15 @@ function jointChiSquare(a: FitSummary, b: FitSummary): number | null {
   const da = b.alpha.value - a.alpha.value;
   const dw = b.omega0.value - a.omega0.value;
   return (soo * da * da - 2 * sao * da * dw + saa * dw * dw) / det;
+}
+
+/** Two single decays: tau changed when it moved beyond the coverage factor times its combined standard uncertainty. */
+function judgeDecay(tau: QuantityChange): { verdict: ChangeVerdict; reason: string } {
+  if (tau.sigmas === null) return { verdict: 'undetermined', reason: 'an uncertainty of tau could not be estimated, so no change can be judged' };
+  const against = `${tau.sigmas.toFixed(1)} σ ${tau.significant ? '>' : '<='} ${COVERAGE_FACTOR}`;
+  return tau.significant
+    ? { verdict: 'changed', reason: `tau moved beyond chance (${against})` }
+    : { verdict: 'no significant change', reason: `the change in tau is within what the noise explains (${against})` };
 }
 
 function judge(joint: number | null, quantities: readonly QuantityChange[]): { verdict: ChangeVerdict; reason: string } {

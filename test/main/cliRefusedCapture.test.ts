@@ -1,6 +1,6 @@
 // A capture a setup check refuses (here a ring sampled under 2.5 times a period: its frequency is an alias) is a
-// failed measurement for every use case, as for `fit`: `check` gives it no verdict, `parasitics` no L_p and C_p;
-// each exits 1 naming the file and the check. Never a PASS or a number from the alias.
+// failed measurement for every use case, as for `fit`: `check` gives it no verdict, `parasitics` no L_p and C_p,
+// `compare` no change; each exits 1 naming the file and the check. Never a PASS or a number from the alias.
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
@@ -92,5 +92,15 @@ describe('a capture sampled under 2.5 times a ring period', () => {
     expect(r.err.trim().split('\n')).toHaveLength(1);
     expect(r.err).toMatch(/^ringbench: added-470p-slow\.csv: a setup check refused the capture: /);
     expect(r.err).toMatch(REFUSAL);
+  });
+
+  it('compare: undetermined, exit 1, the refusal as the reason, no change rows', async () => {
+    const r = await run(['compare', 'bare.csv', 'added-470p-slow.csv', '--json']);
+    expect(r.code).toBe(1);
+    const body = JSON.parse(r.out);
+    expect(body.verdict).toBe('undetermined');
+    expect(body.quantities).toEqual([]);
+    expect(body.reason).toMatch(/^a setup check refused added-470p-slow\.csv: /);
+    expect(body.reason).toMatch(REFUSAL);
   });
 });

@@ -13,7 +13,7 @@ import { EXIT, namingFile } from '../errors';
 export function registerCompareCommand(program: Command, ctx: CommandContext): void {
   const command = program
     .command('compare')
-    .description('compare two captures of the same circuit (before and after a change): exit 0 with a verdict, 1 when a fit failed')
+    .description('compare two captures of the same circuit (before and after a change): exit 0 with a verdict, 1 when no change can be judged (a fit failed, a setup check refused a capture, a single decay against a ring)')
     .argument('<before>', 'capture before the change')
     .argument('<after>', 'capture after the change');
   addCaptureOptions(addComponentOptions(command))
