@@ -37,12 +37,15 @@ export function implausibility(input: PlausibilityInput): string | null {
   }
   for (const name of ['C', 'L', 'R'] as const) {
     const part = input.components?.[name];
-    const bounds = COMPONENT_BOUNDS[name];
-    if (!part || !Number.isFinite(part.value) || (part.value >= bounds.min && part.value <= bounds.max)) continue;
-    return (
-      `implausible: ${name} = ${part.value.toPrecision(3)} ${bounds.unit} is outside what a bench circuit holds (${bounds.min} to ${bounds.max} ${bounds.unit}); ` +
-      'likely a misread time or value unit, or the wrong known part (check --known, --time-unit, --value-unit)'
-    );
+    const beyond = part ? outOfReach(name, part.value) : null;
+    if (beyond) return `implausible: ${name} = ${beyond}; likely a misread time or value unit, or the wrong known part (check --known, --time-unit, --value-unit)`;
   }
   return null;
+}
+
+/** '470 F is outside what a bench circuit holds (1e-15 to 1 F)' for a finite part value beyond COMPONENT_BOUNDS; null within them. */
+export function outOfReach(name: 'R' | 'L' | 'C', value: number): string | null {
+  const bounds = COMPONENT_BOUNDS[name];
+  if (!Number.isFinite(value) || (value >= bounds.min && value <= bounds.max)) return null;
+  return `${value.toPrecision(3)} ${bounds.unit} is outside what a bench circuit holds (${bounds.min} to ${bounds.max} ${bounds.unit})`;
 }

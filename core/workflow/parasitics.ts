@@ -2,7 +2,8 @@
 // cautions from the largest peak the captures show, and L_p cross-checked on a turn-on edge. The command line and the window call this.
 
 import type { Channel } from '../capture/types';
-import { extractParasitics, type CapacitorDerating } from '../circuit/addedCapacitor';
+import { extractParasitics, type CapacitorDerating, type ParasiticExtraction } from '../circuit/addedCapacitor';
+import { outOfReach } from '../circuit/plausibility';
 import { crossCheckInductance, inductanceFromEdge } from '../circuit/edgeInductance';
 import { CircuitInputError } from '../circuit/errors';
 import type { Quantity } from '../quantity';
@@ -82,6 +83,7 @@ export function measureParasitics(request: ParasiticsRequest, progress: (stage: 
 export function measureParasiticsOutcome(request: ParasiticsRequest, progress: (stage: string) => void = () => {}): ParasiticsOutcome {
   const { captures } = request;
   if (captures.length < 2) throw new UsageError('the added-capacitor method needs at least two captures: the bare loop and one with a capacitor added');
+  refuseUnheldCapacitance(captures);
   const measured = captures.map((capture, i) => {
     progress(`fitting capture ${i + 1} of ${captures.length}`);
     const { fit, summary } = fitChannel(capture.file, capture.channel, {}, capture.captureWarnings);
@@ -120,11 +122,32 @@ export function measureParasiticsOutcome(request: ParasiticsRequest, progress: (
     edgeCheck: request.edge ? edgeCrossCheck(request.edge, extraction.L) : null,
     snubber,
     cautions,
-    warnings: [...extraction.warnings, ...fits.flatMap((f) => f.warnings.map((w) => `${f.file}: ${w}`))],
+    warnings: [...implausibleLoop(extraction), ...extraction.warnings, ...fits.flatMap((f) => f.warnings.map((w) => `${f.file}: ${w}`))],
     notes: extraction.notes,
   };
   if (result.edgeCheck) result.notes.push(...result.edgeCheck.notes);
   return { result, failure: null };
+}
+
+/**
+ * An added capacitance beyond what a bench circuit holds is bad input: most often a value typed without its
+ * prefix, read in farads ('470' for 470 pF), which would scale C_p up and L_p down by 1e12 with a tight error bar.
+ */
+function refuseUnheldCapacitance(captures: readonly ParasiticsCapture[]): void {
+  for (const capture of captures) {
+    const beyond = capture.addedC === 0 ? null : outOfReach('C', capture.addedC);
+    if (beyond) throw new UsageError(`${capture.file}: the added capacitance ${beyond}; a value without a prefix is in farads (470 pF is 470p)`);
+  }
+}
+
+/** The first of L_p, C_p and R_p beyond what a bench circuit holds, as the first warning (as a fit's implausible part is). */
+function implausibleLoop(extraction: Pick<ParasiticExtraction, 'L' | 'C' | 'R'>): string[] {
+  const parts = [['L_p', 'L'], ['C_p', 'C'], ['R_p', 'R']] as const;
+  for (const [label, name] of parts) {
+    const beyond = outOfReach(name, extraction[name].value);
+    if (beyond) return [`implausible: ${label} = ${beyond}; check the units of the added capacitances (a value without a prefix is in farads) and the captures' time axes`];
+  }
+  return [];
 }
 
 /** The first capture that gives no ring to measure, or whose ring a setup check refuses, in one line; null when every capture measures. */

@@ -29,6 +29,31 @@ describe('parasitics refusals', () => {
   });
 });
 
+describe('parasitics: an added capacitance no bench circuit holds', () => {
+  it('a value typed without its prefix (470 read as 470 F) exits 2 naming the capture and the value, and prints nothing', async () => {
+    const r = await run(['parasitics', BEFORE, AFTER, '--added', 'C=470']);
+    expect(r.code).toBe(2);
+    expect(r.out).toBe('');
+    expect(r.err.trim().split('\n')).toHaveLength(1);
+    expect(r.err).toMatch(/switch-node-after-470p\.csv: the added capacitance 470 F is outside what a bench circuit holds \(1e-15 to 1 F\); a value without a prefix is in farads \(470 pF is 470p\)/);
+  });
+
+  it('one far below a femtofarad is refused the same way', async () => {
+    const r = await run(['parasitics', BEFORE, AFTER, '--added', 'C=1e-30']);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/the added capacitance 1\.00e-30 F is outside what a bench circuit holds/);
+  });
+
+  it('an added value that makes L_p or C_p implausible (0.47 read as 0.47 F) says so as the first warning', async () => {
+    const r = await run(['parasitics', BEFORE, AFTER, '--added', 'C=0.47', '--json']);
+    expect(r.code).toBe(0);
+    const { warnings, L } = JSON.parse(r.out);
+    // L_p = 1 / ((2 pi f1)^2 C_p) with C_p about 0.39 F at 99.94 MHz: about 6.5e-18 H, below the femtohenry of any bench loop.
+    expect(L.value).toBeLessThan(1e-15);
+    expect(warnings[0]).toMatch(/^implausible: L_p = 6\.50e-18 H is outside what a bench circuit holds/);
+  });
+});
+
 describe('parasitics takes the probe and bandwidth options by the names fit uses', () => {
   it('--probe-capacitance and --scope-bandwidth give what --probe-c and --bandwidth give', async () => {
     const common = ['parasitics', BEFORE, AFTER, '--added', 'C=470p', '--json'];
