@@ -172,7 +172,7 @@ export function extractParasitics(
     return independent === null || together === null ? null : Math.max(independent, together);
   };
   const L = quantity(slope, propagate([1, 0]), 'H');
-  const C = quantity(capacitance, propagate([-intercept / slope ** 2, 1 / slope]), 'F');
+  const C = quantity(capacitance, steeperSide(propagate([-intercept / slope ** 2, 1 / slope]), line, scale.value), 'F');
   const z0 = slope / Math.sqrt(intercept);
   const Z0 = quantity(z0, propagate([1 / Math.sqrt(intercept), -z0 / (2 * intercept)]), 'ohm');
 
@@ -342,6 +342,26 @@ function lineCovariance(
   for (const gradient of groupGradients) addOuter(gradient, 1);
   addOuter(probeGradient, (probeC * toleranceToRelativeUncertainty(probeTolerance)) ** 2);
   return cov;
+}
+
+/**
+ * C_p = intercept / slope, and the frequencies reach the slope as the drop of f0 between captures: C_p goes as one
+ * over that drop, so its first-order uncertainty understates the side where the drop read large (the draws the
+ * separation check lets through near its limit). The uncertainty is taken at the slope one frequency standard
+ * uncertainty lower, where 1 / slope is steeper: divided by 1 - u_f(slope) / slope. This holds C_p's interval as
+ * L_p's (linear in the drop) holds near the limit, and tends to the first order as the drop grows (seeded Monte
+ * Carlo in test/core/circuitAddedCapacitor.test.ts). The added parts' tolerances enter C_p linearly and need none.
+ */
+function steeperSide(u: number | null, line: LineFit, frequencyScale: number | null): number | null {
+  if (u === null || frequencyScale === null) return u;
+  const relative = Math.sqrt(frequencyScale * line.inverse[0][0]) / line.slope;
+  if (!(relative < 1)) {
+    throw new CircuitInputError(
+      'measurements',
+      'the captures cannot separate L_p and C_p: they scatter about the line 1 / (2 pi f0)^2 = L_p (C_p + C_added) by as much as the added capacitance moves it; check the added values and that the node did not change between captures',
+    );
+  }
+  return u / (1 - relative);
 }
 
 function applyInverse(inverse: number[][], a: number, b: number): [number, number] {

@@ -121,6 +121,40 @@ describe('extractParasitics', () => {
     }
   });
 
+  // C_p = C_add / ((f1 / f2)^2 - 1) has the frequencies' drop in its denominator: near the separation limit a first-order
+  // error bar understates it on the side where the drop read large. Seeded draws of two frequencies whose true drop is
+  // a few combined standard uncertainties; only the draws the extraction accepts count, as a user sees only those.
+  it.each([
+    { label: 'true drop 4 sigma, near the limit of 3', sigmas: 4, least: 0.94, most: 0.99 },
+    { label: 'true drop 30 sigma, far from it', sigmas: 30, least: 0.94, most: 0.965 },
+  ])('C_p within 2 of its stated standard uncertainties as often as L_p ($label)', ({ sigmas, least, most }) => {
+    const L = 15e-9;
+    const C = 220e-12;
+    const f1 = naturalFrequency(L, C);
+    const u = 1e-3 * f1;
+    const f2 = f1 - sigmas * Math.SQRT2 * u;
+    // The capacitance that lowers f0 from f1 to f2: (f1 / f2)^2 = (C + C_add) / C (derived, trade-facts.md).
+    const added = C * ((f1 / f2) ** 2 - 1);
+    const random = createRandom(21);
+    let accepted = 0;
+    let covered = 0;
+    for (let k = 0; k < 4000; k++) {
+      const draw = (f: number, addedC: number) => ({ addedC, frequency: quantity(f + u * random.normal(), u, 'Hz'), alpha: quantity(1e7, 1e5, 's^-1') });
+      const pair = [draw(f1, 0), draw(f2, added)];
+      let r;
+      try {
+        r = extractParasitics(pair);
+      } catch {
+        continue;
+      }
+      accepted++;
+      if (Math.abs(r.C.value - C) <= 2 * r.C.stderr!) covered++;
+    }
+    expect(accepted).toBeGreaterThan(3000);
+    expect(covered / accepted).toBeGreaterThan(least);
+    expect(covered / accepted).toBeLessThan(most);
+  });
+
   it('flags captures that disagree with one L_p, C_p and widens the uncertainty (Birge ratio)', () => {
     const L = 15e-9;
     const C = 220e-12;
@@ -194,6 +228,12 @@ describe('extractParasitics', () => {
           { ...bare, addedC: 0, frequency: quantity(67.3e6, 12e3, 'Hz'), label: 'with-0.csv' },
         ]);
       expect(call).toThrow(/does not fall as capacitance is added: with-1n\.csv \(added 1 nF, f0 99\.942 MHz.*rings above with-0\.csv \(added 0 F, f0 67\.300 MHz/);
+    });
+
+    it('captures scattered about the line by as much as the added capacitance moves it (C_p no longer bounded)', () => {
+      // The middle capture rings 60 % above the line through the other two: each pair still falls clearly.
+      const ms = [0, 470e-12, 1e-9].map((a) => measurement(15e-9, 220e-12, a, 1e-4)).map((m, i) => (i === 1 ? { ...m, frequency: quantity(m.frequency.value * 1.6, m.frequency.stderr, 'Hz') } : m));
+      expect(() => extractParasitics(ms)).toThrow(/cannot separate L_p and C_p: they scatter about the line/);
     });
 
     it('without labels the captures are numbered; without uncertainties equal frequencies are still refused', () => {
