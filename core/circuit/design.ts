@@ -99,7 +99,7 @@ export function parseDesign(jsonText: string): Design {
     source: readSource(top.source, topology),
     probe,
   };
-  if (top.limits !== undefined) design.limits = readLimits(top.limits);
+  if (top.limits !== undefined) design.limits = checkLimitsDecidable(readLimits(top.limits), design.source);
   if (top.decisionRule !== undefined) design.decisionRule = readDecisionRule(top.decisionRule);
   if (top.notes !== undefined) design.notes = text(top.notes, 'notes', true);
   return design;
@@ -184,6 +184,24 @@ function readLimits(value: unknown): Partial<Record<LimitedQuantity, QuantityLim
     result[name] = limits;
   }
   return result;
+}
+
+/** The step metrics a design may limit: a natural response (no step) has none of them. */
+const STEP_METRICS: readonly LimitedQuantity[] = ['overshoot', 'settlingTime2', 'settlingTime5'];
+
+/**
+ * Limits a verdict can decide: one ring gives alpha and omega0, so two of R, L and C with the third taken at its
+ * design value, and the step metrics need a step. A limit no capture could decide would pass unchecked.
+ */
+function checkLimitsDecidable(limits: Partial<Record<LimitedQuantity, QuantityLimits>>, source: DesignSource): Partial<Record<LimitedQuantity, QuantityLimits>> {
+  if (limits.R && limits.L && limits.C) {
+    throw new DesignError('limits', 'limits R, L and C: one ring gives two of them with the third taken at its design value, so a design may limit at most two');
+  }
+  const stepMetric = STEP_METRICS.find((name) => limits[name]);
+  if (stepMetric && source.kind !== 'step') {
+    throw new DesignError(`limits.${stepMetric}`, 'needs a step source (source.kind "step"): a natural response has no step to overshoot or settle');
+  }
+  return limits;
 }
 
 /** A percentage: a number (25 = 25 %) or a text with an optional '%' ('25 %'). */

@@ -1,7 +1,9 @@
-// One quantity of a design verdict: design and measured values, the limits, the decision zone and acceptance.
+// One quantity of a design verdict: design and measured values, the limits, the decision zone and acceptance;
+// a limit the design states that the verdict cannot decide is refused.
 
 import type { Quantity } from '../quantity';
 import { accepts, decisionZone, type DecisionRule, type DecisionZone, type QuantityLimits } from './decisionRule';
+import { CircuitInputError } from './errors';
 
 export interface VerdictQuantity {
   name: string;
@@ -57,4 +59,12 @@ export function judgeQuantity(
 /** Whether a quantity differs from its design enough to look for a cause: counted and not accepted, or its value beyond a limit. */
 export function deviates(q: VerdictQuantity): boolean {
   return (q.counted && !q.inTolerance) || q.zone === 'conditional-fail' || q.zone === 'fail';
+}
+
+/**
+ * A limit the design states that the verdict cannot decide for this capture: refused, since the verdict would
+ * otherwise accept the unit with that limit unchecked (a CircuitInputError naming the limits and why).
+ */
+export function undecidedLimits(names: readonly string[], why: string): never {
+  throw new CircuitInputError('limits', `the design limits ${names.join(', ')}, which this capture does not decide (${why}): a verdict would pass ${names.length === 1 ? 'it' : 'them'} unchecked`);
 }

@@ -6,7 +6,7 @@ import type { DecisionRule } from './decisionRule';
 import type { Design } from './design';
 import { modelTransitions, type ModelTransitions } from './modelTransitions';
 import { predictResponse, probeUnit } from './predict';
-import { judgeQuantity, type VerdictQuantity } from './quantityVerdict';
+import { judgeQuantity, undecidedLimits, type VerdictQuantity } from './quantityVerdict';
 import { evaluatePowerLaw, powerLawRelativeUncertainty, responseRelations } from './relations';
 import { toleranceToRelativeUncertainty } from './tolerance';
 
@@ -23,18 +23,16 @@ export interface FittedTransitions {
 /**
  * A row for each metric the design limits: the fitted model's value against the same metric of the design's
  * predicted step (its standard uncertainty from the tolerances through alpha and omega0). A limited metric
- * the fit did not measure (a ringdown, no fitted model metrics) gets a note instead of a row.
+ * the fit did not measure (a ringdown, no fitted model metrics) is refused (undecidedLimits), never passed unchecked.
  */
-export function limitedTransitionRows(design: Design, fitted: FittedTransitions | undefined, t0: number, rule: DecisionRule): { rows: VerdictQuantity[]; notes: string[] } {
+export function limitedTransitionRows(design: Design, fitted: FittedTransitions | undefined, t0: number, rule: DecisionRule): VerdictQuantity[] {
   const limited = METRICS.filter((name) => design.limits?.[name]);
-  if (!limited.length) return { rows: [], notes: [] };
+  if (!limited.length) return [];
   const measured = fitted?.model ?? null;
   const expected = designMetrics(design, t0);
-  if (!measured || !expected) {
-    const why = !measured ? (fitted?.reason ?? 'the fit gives no step metrics') : "the design's own response has no step to measure";
-    return { rows: [], notes: [`${limited.join(', ')} ${limited.length === 1 ? 'has' : 'have'} limits in the design but no verdict: ${why}.`] };
-  }
-  return { rows: limited.map((name) => judgeQuantity(name, expected[name], measured[name], design.limits![name]!, 'design', rule)), notes: [] };
+  if (!measured) return undecidedLimits(limited, fitted?.reason ?? 'the fit gives no step metrics');
+  if (!expected) return undecidedLimits(limited, "the design's own response has no step to measure");
+  return limited.map((name) => judgeQuantity(name, expected[name], measured[name], design.limits![name]!, 'design', rule));
 }
 
 function designMetrics(design: Design, t0: number): Record<Metric, Quantity> | null {

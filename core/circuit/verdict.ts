@@ -10,7 +10,7 @@ import type { Design, DesignSource, LimitedQuantity } from './design';
 import { CircuitInputError } from './errors';
 import { decayRates, designLevels, predictResponse, probeUnit, responseSwing, type DesignLevels } from './predict';
 import { toleranceLimits, widenLimits } from './quantityLimits';
-import { deviates, judgeQuantity, type VerdictQuantity } from './quantityVerdict';
+import { deviates, judgeQuantity, undecidedLimits, type VerdictQuantity } from './quantityVerdict';
 import {
   COMPONENT_NAMES,
   COMPONENT_UNITS,
@@ -188,11 +188,18 @@ export function checkDesign(
     }
   }
   if (!physical && !fit.tau) notes.push('The fitted alpha or omega0 is not positive: no components or likely cause can be derived.');
-  const transitions = limitedTransitionRows(design, fit.transitions, fit.t0?.value ?? 0, rule);
-  quantities.push(...transitions.rows);
-  notes.push(...transitions.notes);
+  quantities.push(...limitedTransitionRows(design, fit.transitions, fit.t0?.value ?? 0, rule));
   const unused = DIRECT_ROWS.concat('f0').filter((name) => design.limits?.[name as LimitedQuantity] && !quantities.some((q) => q.name === name));
-  if (unused.length) notes.push(`Not decided here though the design limits it: ${unused.join(', ')} (a part taken at its design value, or a single decay).`);
+  if (unused.length) {
+    const why = fit.tau
+      ? 'a single decay gives tau alone'
+      : !physical
+        ? 'the fitted alpha or omega0 is not positive, so no part is derived'
+        : known === null
+          ? 'no part is derived from the fit'
+          : `${known} is taken at its design value to derive the others`;
+    undecidedLimits(unused, why);
+  }
   const shapeOut = quantities.some(deviates);
   if (shapeOut && componentCause) {
     if (componentCause.explains < EXPLAINS_WELL) notes.push('No single component explains the deviation well: more than one part may have moved, or the topology differs.');
@@ -298,11 +305,15 @@ function slowTimeConstant(design: Design): Quantity {
   return quantity(nominal, nominal * Math.sqrt(squares), 's');
 }
 
-/** The component with the tightest tolerance, leaving out `except` (the likely cause: it did not stay at its design value). */
+/**
+ * The part taken at its design value to derive the other two: never one the design limits (its limit would go
+ * undecided), nor `except` when another is left (the likely cause: it did not stay at its design value); the
+ * tightest tolerance among the rest.
+ */
 function tightestComponent(design: Design, except?: ComponentName | 'source'): ComponentName {
-  return KNOWN_PREFERENCE.filter((name) => name !== except).reduce((best, name) =>
-    design.components[name].tolerance < design.components[best].tolerance ? name : best,
-  );
+  const free = KNOWN_PREFERENCE.filter((name) => !design.limits?.[name]);
+  const candidates = [free.filter((name) => name !== except), free, KNOWN_PREFERENCE].find((list) => list.length > 0)!;
+  return candidates.reduce((best, name) => (design.components[name].tolerance < design.components[best].tolerance ? name : best));
 }
 
 const LEVEL_NAMES: Record<keyof DesignLevels, string> = { preLevel: 'initial level', finalValue: 'final value', swing: 'swing' };

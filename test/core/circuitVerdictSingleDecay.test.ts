@@ -76,6 +76,14 @@ describe('checkDesign with a single decay', () => {
     expect(singleDecayRefusal(CLOSE_ROOTS, singleDecay(20e-6))).toMatch(/predicts two decays \(zeta 1\.20\) within a factor of 5 of each other/);
   });
 
+  it('refuses a design that limits a ring quantity a single decay does not measure (zeta), never passing it unchecked', () => {
+    const slowTau = 1 / decayRates(DOMINANT)!.slow;
+    const limited: Design = { ...DOMINANT, limits: { zeta: { lower: 3, upper: 3.3 } } };
+    const call = () => checkDesign(limited, singleDecay(slowTau), samplesOf(DOMINANT));
+    expect(call).toThrow(CircuitInputError);
+    expect(call).toThrow(/the design limits zeta, which this capture does not decide \(a single decay gives tau alone\)/);
+  });
+
   it('has nothing to refuse for a second-order fit', () => {
     expect(singleDecayRefusal(RINGING, { tau: undefined })).toBeNull();
   });

@@ -7,6 +7,7 @@ import { accepts, combineZones, decisionZone, describeDecisionRule, resolveDecis
 import { DesignError, parseDesign, serializeDesign, type Design } from '../../core/circuit/design';
 import { predictResponse } from '../../core/circuit/predict';
 import { checkDesign, type FittedResponse } from '../../core/circuit/verdict';
+import { CircuitInputError } from '../../core/circuit/errors';
 import { quantity } from '../../core/quantity';
 
 // Binary fractions throughout, so "exactly at" and "just touching" are exact in floating point.
@@ -113,6 +114,9 @@ describe('design file: limits and decisionRule', () => {
     [{ decisionRule: { name: 'simple-acceptance', guardBandFactor: 1 } }, 'decisionRule.guardBandFactor', /no guard band/],
     [{ decisionRule: { name: 'guarded-acceptance', guardBandFactor: -1 } }, 'decisionRule.guardBandFactor', /0 or more/],
     [{ decisionRule: { name: 'guarded-acceptance', coverageFactor: 0 } }, 'decisionRule.coverageFactor', /positive/],
+    // One ring gives alpha and omega0: two of R, L and C with the third taken at its design value.
+    [{ limits: { R: { upper: 6 }, L: { upper: '22n' }, C: { upper: '2.3n' } } }, 'limits', /limits R, L and C.*at most two/],
+    [{ source: { kind: 'natural', capacitorVoltage: 12 }, limits: { overshoot: { upper: 25 } } }, 'limits.overshoot', /needs a step source/],
   ])('%j is refused at %s', (extra, path, message) => {
     let error: unknown;
     try {
@@ -170,9 +174,20 @@ describe('checkDesign with limits stated in the design', () => {
     expect(describeDecisionRule(simple.rule)).toMatch(/^simple-acceptance, no guard band \(w = 0\), U = k u with k = 2 \(chosen by the design/);
   });
 
-  it('a limited step metric the fit did not measure is said, not silently passed', () => {
-    const v = checkDesign({ ...design, limits: { settlingTime5: { lower: null, upper: 1e-6 } } }, { ...fit, transitions: { reason: 'a ringdown about one level has no step', model: null } }, zeros);
-    expect(v.quantities.some((q) => q.name === 'settlingTime5')).toBe(false);
-    expect(v.notes.join(' ')).toMatch(/settlingTime5 has limits in the design but no verdict: a ringdown about one level has no step/);
+  it('a limited step metric the fit did not measure is refused, never passed unchecked', () => {
+    const call = () => checkDesign({ ...design, limits: { settlingTime5: { lower: null, upper: 1e-6 } } }, { ...fit, transitions: { reason: 'a ringdown about one level has no step', model: null } }, zeros);
+    expect(call).toThrow(CircuitInputError);
+    expect(call).toThrow(/the design limits settlingTime5, which this capture does not decide \(a ringdown about one level has no step\)/);
+  });
+
+  it('a part the design limits is derived from the fit, not taken at its design value (C has the tightest tolerance)', () => {
+    // Built as designed (C 2.2 nF) against limits of 2.0 to 2.1 nF: C is out, whatever the tightest tolerance.
+    const v = checkDesign({ ...design, limits: { C: { lower: 2.0e-9, upper: 2.1e-9 } } }, fit, zeros);
+    const row = v.quantities.find((q) => q.name === 'C');
+    // The value outside, its interval (R's 5 % tolerance carried through) reaching back across the limit.
+    expect(row).toMatchObject({ counted: true, limitsFrom: 'design', zone: 'conditional-fail', inTolerance: false });
+    // R (5 %) is now the part taken at its design value: L = R / (2 alpha), C = 1 / (omega0^2 L) (series, circuit laws).
+    expect(row!.measured.value).toBeCloseTo((2 * p.alpha) / (5.6 * p.omega0 ** 2), 20);
+    expect(v.pass).toBe(false);
   });
 });

@@ -84,11 +84,25 @@ describe('check: the exit code under each decision rule', () => {
   });
 });
 
+describe('check: a limit on a part is decided, never passed unchecked', () => {
+  it('C limited to 40-44 uF with the tightest tolerance (10 %): C is derived, not taken at its 47 uF, and the unit is rejected', async () => {
+    const { code, out } = await check(writeDesign('limited-c.json', { limits: { C: { lower: '40u', upper: '44u' } } }));
+    expect(code).toBe(3);
+    const verdict = JSON.parse(out).verdict;
+    const row = verdict.quantities.find((q: { name: string }) => q.name === 'C');
+    expect(row).toMatchObject({ counted: true, limitsFrom: 'design', inTolerance: false });
+    expect(row.measured.value).toBeGreaterThan(44e-6);
+    expect(verdict.pass).toBe(false);
+  });
+});
+
 describe('check: bad limits in a design file', () => {
   it.each([
     [{ limits: { f0: { lower: '9k', upper: '8k' } } }, 'limits.f0', 'lower (9000) must be below upper (8000)'],
     [{ limits: { zeta: { upper: 'low' } } }, 'limits.zeta.upper', "could not read 'low'"],
     [{ decisionRule: { name: 'guarded-acceptance', coverageFactor: -2 } }, 'decisionRule.coverageFactor', 'must be a positive number'],
+    [{ limits: { R: { upper: '1' }, L: { upper: '10u' }, C: { upper: '60u' } } }, 'limits', 'a design may limit at most two'],
+    [{ source: { kind: 'natural', capacitorVoltage: 48 }, limits: { settlingTime2: { upper: '400u' } } }, 'limits.settlingTime2', 'needs a step source'],
   ])('%j: exit 2 naming the file and %s', async (extra, field, problem) => {
     const design = writeDesign('bad-limits.json', extra);
     const { code, out, err } = await check(design);
