@@ -4,6 +4,8 @@ import { InputError } from '../inputError';
 import { parseQuantityText } from '../units/parseQuantity';
 import { COMPONENT_NAMES, COMPONENT_UNITS, type ComponentName, type Topology } from './relations';
 import { DECISION_RULE_NAMES, type DecisionRuleSpec, type QuantityLimits } from './decisionRule';
+import { parseJsonStrictly } from './designJson';
+import { outOfReach } from './plausibility';
 
 /** What the channel measures: the voltage across C, the current in L, or the voltage across R. */
 export type Probe = 'capacitor-voltage' | 'inductor-current' | 'resistor-voltage';
@@ -68,21 +70,15 @@ export class DesignError extends InputError {
 
 type Json = Record<string, unknown>;
 
-/** A UTF-8 byte-order mark, as some Windows editors save JSON: not part of the JSON text. */
-const BYTE_ORDER_MARK = /^\uFEFF/;
-
 /**
  * A design from its JSON text. Component values and source levels may be numbers or strings with SI
- * prefixes ('4.7', '2.2u', '470nF', '4k7'); every field is checked and the first fault is thrown
- * as a DesignError naming its path.
+ * prefixes ('4.7', '2.2u', '470nF', '4k7'), within what a bench circuit holds; every field is checked (a key given
+ * twice too: designJson.ts) and the first fault is thrown as a DesignError naming its path.
  */
 export function parseDesign(jsonText: string): Design {
-  let root: unknown;
-  try {
-    root = JSON.parse(jsonText.replace(BYTE_ORDER_MARK, ''));
-  } catch (e) {
-    throw new DesignError('', `not valid JSON (${(e as Error).message})`);
-  }
+  const root = parseJsonStrictly(jsonText, (path, problem) => {
+    throw new DesignError(path, problem);
+  });
   const top = object(root, '');
   allowOnly(top, '', ['format', 'version', 'name', 'topology', 'components', 'source', 'probe', 'limits', 'decisionRule', 'notes']);
   if (top.format !== DESIGN_FORMAT) throw new DesignError('format', `must be "${DESIGN_FORMAT}"`);
@@ -134,6 +130,8 @@ function readComponents(value: unknown): Record<ComponentName, ComponentSpec> {
     allowOnly(spec, path, ['value', 'tolerance']);
     const v = measure(spec.value, `${path}.value`, COMPONENT_UNITS[name]);
     if (!(v > 0)) throw new DesignError(`${path}.value`, `must be positive, got ${v}`);
+    const beyond = outOfReach(name, v);
+    if (beyond) throw new DesignError(`${path}.value`, `${beyond}: a lost prefix or exponent?`);
     result[name] = { value: v, tolerance: fraction(spec.tolerance ?? 0, `${path}.tolerance`) };
   }
   return result;

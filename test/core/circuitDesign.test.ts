@@ -82,6 +82,19 @@ describe('parseDesign', () => {
     { label: 'a step field on a natural source', text: withChange((d) => (d.source = { kind: 'natural', capacitorVoltage: 5, amplitude: 3 })), path: 'source.amplitude', message: /unknown field/ },
     { label: 'a level tolerance of 100 %', text: withChange((d) => (d.source.levelTolerance = 1)), path: 'source.levelTolerance', message: /between 0 and 1/ },
     { label: 'an unknown top-level field', text: withChange((d) => (d.colour = 'red')), path: 'colour', message: /unknown field/ },
+    // JSON.parse keeps the last of two equal keys: a second tolerance pasted in would silently replace the first.
+    {
+      label: 'a key given twice',
+      text: JSON.stringify(FILTER, null, 2).replace('"tolerance": 0.2', '"tolerance": 0.2, "tolerance": 0.5'),
+      path: 'components.L.tolerance',
+      message: /given twice \(line 13\); JSON keeps only the last/,
+    },
+    { label: 'a comment', text: `// filter of rev B\n${JSON.stringify(FILTER, null, 2)}`, path: '', message: /line 1, column 1: JSON has no comments/ },
+    { label: 'a trailing comma', text: JSON.stringify(FILTER, null, 2).replace('"capacitor-voltage"', '"capacitor-voltage",'), path: '', message: /not valid JSON at line 25, column 1/ },
+    { label: 'UTF-16 text read as UTF-8', text: '\ufffd\ufffd{\u0000"\u0000f\u0000', path: '', message: /zero bytes.*UTF-16.*save it as UTF-8/ },
+    // A value off by orders of magnitude from any bench part: a lost prefix or exponent (1e-320 F).
+    { label: 'a capacitance no bench circuit holds', text: withChange((d) => (d.components.C.value = 1e-320)), path: 'components.C.value', message: /outside what a bench circuit holds/ },
+    { label: 'an inductance no bench circuit holds', text: withChange((d) => (d.components.L.value = '10k')), path: 'components.L.value', message: /1\.00e\+4 H is outside.*\(1e-15 to 1000 H\)/ },
   ];
   it.each(faults)('throws DesignError at "$path" for $label', ({ text, path, message }) => {
     let caught: unknown;
