@@ -209,6 +209,12 @@ function percent(value: unknown, path: string): number {
   return n;
 }
 
+/**
+ * The least coverage factor a design may state: below 1 the interval value ± U covers less than about 68 % and the
+ * guard band shrinks below one standard uncertainty; 0.95 there is the coverage probability written for k (GUM 6.2, 6.3).
+ */
+const MIN_COVERAGE_FACTOR = 1;
+
 /** The decision rule: its name, and for the guarded rules the guard band factor; the coverage factor k. */
 function readDecisionRule(value: unknown): DecisionRuleSpec {
   const node = object(value, 'decisionRule');
@@ -222,7 +228,9 @@ function readDecisionRule(value: unknown): DecisionRuleSpec {
   }
   if (node.coverageFactor !== undefined) {
     const k = node.coverageFactor;
-    if (typeof k !== 'number' || !Number.isFinite(k) || !(k > 0)) throw new DesignError('decisionRule.coverageFactor', 'must be a positive number (k in U = k u; 2 for about 95 %)');
+    if (typeof k !== 'number' || !Number.isFinite(k) || !(k >= MIN_COVERAGE_FACTOR)) {
+      throw new DesignError('decisionRule.coverageFactor', 'must be a number, 1 or more (k in U = k u: 2 for about 95 %, not the coverage probability 0.95)');
+    }
     rule.coverageFactor = k;
   }
   return rule;

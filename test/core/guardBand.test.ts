@@ -113,7 +113,9 @@ describe('design file: limits and decisionRule', () => {
     [{ decisionRule: { name: 'best-guess' } }, 'decisionRule.name', /must be one of/],
     [{ decisionRule: { name: 'simple-acceptance', guardBandFactor: 1 } }, 'decisionRule.guardBandFactor', /no guard band/],
     [{ decisionRule: { name: 'guarded-acceptance', guardBandFactor: -1 } }, 'decisionRule.guardBandFactor', /0 or more/],
-    [{ decisionRule: { name: 'guarded-acceptance', coverageFactor: 0 } }, 'decisionRule.coverageFactor', /positive/],
+    [{ decisionRule: { name: 'guarded-acceptance', coverageFactor: 0 } }, 'decisionRule.coverageFactor', /1 or more/],
+    // The coverage probability written where k belongs: U = 0.95 u would narrow the guard band below one standard uncertainty.
+    [{ decisionRule: { name: 'guarded-acceptance', coverageFactor: 0.95 } }, 'decisionRule.coverageFactor', /not the coverage probability/],
     // One ring gives alpha and omega0: two of R, L and C with the third taken at its design value.
     [{ limits: { R: { upper: 6 }, L: { upper: '22n' }, C: { upper: '2.3n' } } }, 'limits', /limits R, L and C.*at most two/],
     [{ source: { kind: 'natural', capacitorVoltage: 12 }, limits: { overshoot: { upper: 25 } } }, 'limits.overshoot', /needs a step source/],

@@ -100,7 +100,8 @@ describe('check: bad limits in a design file', () => {
   it.each([
     [{ limits: { f0: { lower: '9k', upper: '8k' } } }, 'limits.f0', 'lower (9000) must be below upper (8000)'],
     [{ limits: { zeta: { upper: 'low' } } }, 'limits.zeta.upper', "could not read 'low'"],
-    [{ decisionRule: { name: 'guarded-acceptance', coverageFactor: -2 } }, 'decisionRule.coverageFactor', 'must be a positive number'],
+    [{ decisionRule: { name: 'guarded-acceptance', coverageFactor: -2 } }, 'decisionRule.coverageFactor', 'must be a number, 1 or more'],
+    [{ decisionRule: { name: 'guarded-acceptance', coverageFactor: 0.95 } }, 'decisionRule.coverageFactor', 'not the coverage probability'],
     [{ limits: { R: { upper: '1' }, L: { upper: '10u' }, C: { upper: '60u' } } }, 'limits', 'a design may limit at most two'],
     [{ source: { kind: 'natural', capacitorVoltage: 48 }, limits: { settlingTime2: { upper: '400u' } } }, 'limits.settlingTime2', 'needs a step source'],
   ])('%j: exit 2 naming the file and %s', async (extra, field, problem) => {
