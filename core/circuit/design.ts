@@ -70,12 +70,16 @@ export class DesignError extends InputError {
 
 type Json = Record<string, unknown>;
 
+/** A design is a few kilobytes (its notes included): text over 1 MiB is no design file (a capture given as one?). */
+export const MAX_DESIGN_BYTES = 1 << 20;
+
 /**
  * A design from its JSON text. Component values and source levels may be numbers or strings with SI
  * prefixes ('4.7', '2.2u', '470nF', '4k7'), within what a bench circuit holds; every field is checked (a key given
  * twice too: designJson.ts) and the first fault is thrown as a DesignError naming its path.
  */
 export function parseDesign(jsonText: string): Design {
+  if (jsonText.length > MAX_DESIGN_BYTES) throw new DesignError('', 'the text is over 1 MiB: a design file is a few kilobytes (is it a capture?)');
   const root = parseJsonStrictly(jsonText, (path, problem) => {
     throw new DesignError(path, problem);
   });

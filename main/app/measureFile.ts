@@ -3,7 +3,7 @@
 
 import { createHash } from 'node:crypto';
 import { basename, resolve } from 'node:path';
-import { parseDesign, type Design } from '../../core/circuit/design';
+import { MAX_DESIGN_BYTES, parseDesign, type Design } from '../../core/circuit/design';
 import { UsageError } from '../../core/inputError';
 import { compareCaptures } from '../../core/workflow/compare';
 import type { Comparison } from '../../core/report/comparisonText';
@@ -28,7 +28,7 @@ export interface FileMeasurement extends MeasureResult {
 /** A design file read and checked (DesignError names the faulty field). */
 export function loadDesignFile(path: string, cwd: string): LoadedDesign {
   const full = resolve(cwd, path);
-  const bytes = readFileBytes(full);
+  const bytes = readFileBytes(full, { bytes: MAX_DESIGN_BYTES, why: `a design file is a few kilobytes (at most ${MAX_DESIGN_BYTES / 2 ** 20} MiB is read)` });
   return { path: full, sha256: createHash('sha256').update(bytes).digest('hex'), design: parseDesign(bytes.toString('utf8')) };
 }
 

@@ -29,12 +29,20 @@ const OPEN_FLAGS = constants.O_RDONLY | (constants.O_NONBLOCK ?? 0);
  */
 const PIECE_BYTES = 1 << 20;
 
+/** A smaller bound than MAX_FILE_BYTES for a kind of file, and why: a file over it is refused before it is read. */
+export interface ReadLimit {
+  bytes: number;
+  why: string;
+}
+
 /** Read bytes, failing with a message that names the path; only a regular file is read (never a FIFO, device or socket). */
-export function readFileBytes(path: string): Buffer {
+export function readFileBytes(path: string, limit?: ReadLimit): Buffer {
   let fd: number | null = null;
   try {
     fd = openSync(path, OPEN_FLAGS);
-    refuseUnreadable(path, fstatSync(fd));
+    const stats = fstatSync(fd);
+    refuseUnreadable(path, stats);
+    if (limit && stats.size > limit.bytes) throw new FileError(`'${path}' is ${(stats.size / 2 ** 20).toFixed(1)} MiB: ${limit.why}`, path);
     return readFileSync(fd);
   } catch (error) {
     throw readFailure(path, error);

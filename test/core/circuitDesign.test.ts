@@ -93,6 +93,7 @@ describe('parseDesign', () => {
     { label: 'a trailing comma', text: JSON.stringify(FILTER, null, 2).replace('"capacitor-voltage"', '"capacitor-voltage",'), path: '', message: /not valid JSON at line 25, column 1/ },
     { label: 'UTF-16 text read as UTF-8', text: '\ufffd\ufffd{\u0000"\u0000f\u0000', path: '', message: /zero bytes.*UTF-16.*save it as UTF-8/ },
     // A value off by orders of magnitude from any bench part: a lost prefix or exponent (1e-320 F).
+    { label: 'text far larger than a design', text: withChange((d) => (d.notes = 'x'.repeat(1 << 20))), path: '', message: /over 1 MiB: a design file is a few kilobytes/ },
     { label: 'a capacitance no bench circuit holds', text: withChange((d) => (d.components.C.value = 1e-320)), path: 'components.C.value', message: /outside what a bench circuit holds/ },
     { label: 'an inductance no bench circuit holds', text: withChange((d) => (d.components.L.value = '10k')), path: 'components.L.value', message: /1\.00e\+4 H is outside.*\(1e-15 to 1000 H\)/ },
   ];

@@ -140,6 +140,15 @@ describe('a design file with a UTF-8 byte-order mark', () => {
     expect(withBom.out).toBe(without.out);
   });
 
+  it('one far larger than any design is refused before it is read: exit 2 naming the file (one of 600 MB ended in an internal error)', async () => {
+    const design = JSON.parse(DESIGN);
+    writeFileSync(path.join(dir, 'huge-design.json'), JSON.stringify({ ...design, notes: 'x'.repeat(2 << 20) }));
+    const { code, out, err } = await run(['check', ring, '--design', 'huge-design.json']);
+    expect(code).toBe(2);
+    expect(out).toBe('');
+    expect(err).toMatch(/^ringbench: '.*huge-design\.json' is 2\.0 MiB: a design file is a few kilobytes \(at most 1 MiB is read\)\n$/);
+  });
+
   it('and its errors name the design file', async () => {
     writeFileSync(path.join(dir, 'bom-broken.json'), `${BOM}{"format": "ringbench-design", "version": 7}`);
     const { code, err } = await run(['check', ring, '--design', 'bom-broken.json']);
