@@ -219,6 +219,12 @@ function percent(value: unknown, path: string): number {
  */
 const MIN_COVERAGE_FACTOR = 1;
 
+/**
+ * The widest guard band guarded rejection may take, as a multiple of U: it accepts values up to w beyond a limit, and
+ * beyond U that takes in the fail zone, where the measurement proves the unit out of tolerance (ISO 14253-1:2017).
+ */
+const MAX_REJECTION_GUARD_BAND = 1;
+
 /** The decision rule: its name, and for the guarded rules the guard band factor; the coverage factor k. */
 function readDecisionRule(value: unknown): DecisionRuleSpec {
   const node = object(value, 'decisionRule');
@@ -228,6 +234,12 @@ function readDecisionRule(value: unknown): DecisionRuleSpec {
     const w = node.guardBandFactor;
     if (typeof w !== 'number' || !Number.isFinite(w) || w < 0) throw new DesignError('decisionRule.guardBandFactor', 'must be a number, 0 or more (the guard band as a multiple of U; 1 = U)');
     if (rule.name === 'simple-acceptance' && w !== 0) throw new DesignError('decisionRule.guardBandFactor', 'simple-acceptance has no guard band (w = 0): leave it out or choose a guarded rule');
+    if (rule.name === 'guarded-rejection' && w > MAX_REJECTION_GUARD_BAND) {
+      throw new DesignError(
+        'decisionRule.guardBandFactor',
+        'must be at most 1 under guarded-rejection: a guard band wider than U would accept a unit whose whole interval lies outside the limits (proven out of tolerance)',
+      );
+    }
     rule.guardBandFactor = w;
   }
   if (node.coverageFactor !== undefined) {

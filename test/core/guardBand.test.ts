@@ -114,6 +114,8 @@ describe('design file: limits and decisionRule', () => {
     [{ decisionRule: { name: 'simple-acceptance', guardBandFactor: 1 } }, 'decisionRule.guardBandFactor', /no guard band/],
     [{ decisionRule: { name: 'guarded-acceptance', guardBandFactor: -1 } }, 'decisionRule.guardBandFactor', /0 or more/],
     [{ decisionRule: { name: 'guarded-acceptance', coverageFactor: 0 } }, 'decisionRule.coverageFactor', /1 or more/],
+    // Guarded rejection accepts up to w beyond a limit: with w above U it would accept a unit proven out of tolerance.
+    [{ decisionRule: { name: 'guarded-rejection', guardBandFactor: 1.5 } }, 'decisionRule.guardBandFactor', /at most 1 under guarded-rejection/],
     // The coverage probability written where k belongs: U = 0.95 u would narrow the guard band below one standard uncertainty.
     [{ decisionRule: { name: 'guarded-acceptance', coverageFactor: 0.95 } }, 'decisionRule.coverageFactor', /not the coverage probability/],
     // One ring gives alpha and omega0: two of R, L and C with the third taken at its design value.
