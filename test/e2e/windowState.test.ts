@@ -308,7 +308,7 @@ describe.skipIf(!hasChromium)('the window from one capture to the next, its caut
     await dropFile(page, broken, 'broken-design.json');
     const error = page.locator('#design-error');
     await error.waitFor();
-    expect(await error.innerText()).toMatch(/^design: not valid JSON \(.+\)$/);
+    expect(await error.innerText()).toMatch(/^design: not valid JSON at line 1, column \d+ \(.+\)$/);
     const fits = await error.evaluate((e) => e.scrollWidth <= e.clientWidth && e.getBoundingClientRect().right <= (e.closest('.card') as HTMLElement).getBoundingClientRect().right);
     expect(fits).toBe(true);
     await page.locator('#design-panel').screenshot({ path: join(outputDir, 'window-state-design-error.png') });
