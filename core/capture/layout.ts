@@ -93,6 +93,25 @@ function looksLikeHeader(cells: string[], dataCount: number, shifted: boolean, d
   return cells.every((c) => c === '' || (slowCellValue(c, decimalComma) === null && !isTimestamp(c)));
 }
 
+/** Channel numbers a names row may give its channels ('x-axis,1,2'): a scope has a few inputs, never a hundred. */
+const CHANNEL_NUMBER = /^[1-9]\d?$/;
+
+/**
+ * A names row labelling its channels by number ('Time,1,2', or 'x-axis,1,2' over a units row): a first cell that is
+ * no number, then distinct channel numbers, one per data column. looksLikeHeader refuses numbers as names; these are
+ * the file's own labels, kept so that '--column 1' finds the channel the file calls 1.
+ */
+function numbersChannels(cells: string[], dataCount: number): boolean {
+  const [first, ...rest] = cells;
+  if (cells.length !== dataCount || rest.length === 0 || first === '' || statesANumber(first)) return false;
+  return rest.every((c) => CHANNEL_NUMBER.test(c)) && new Set(rest).size === rest.length;
+}
+
+/** A names row numbering the channels directly above the data: its first cell must name time, as no key/value line does. */
+function numberedHeader(cells: string[], dataCount: number): boolean {
+  return numbersChannels(cells, dataCount) && isTimeName(parseColumnHeading(cells[0]).name);
+}
+
 /**
  * A header written as a comment ('# t[us]  CH1[V]') on the line just above the data (blank lines aside), taken when
  * no other line is the header: it names every data column, the first of them time (so that its unit is read).
@@ -161,6 +180,23 @@ export function nameChannels(columns: ColumnPlan[], hasHeader: boolean): void {
     seen.set(key, index);
     column.name = name;
   });
+}
+
+/** The metadata key that states which input a record holds ('Source,CH1'), as written in any case. */
+const SOURCE_KEY = /^\s*source\s*$/i;
+/** A source that can name a channel: one cell of a few characters (a label, not a list or a sentence). */
+const SOURCE_LABEL = /^[^,;\t]{1,40}$/;
+
+/**
+ * The one value column takes the source the metadata states as its name when the file gives it none of its own
+ * (no header cell: it would be 'channel 1'); with several columns one source names none of them for sure.
+ */
+function nameFromSource(columns: ColumnPlan[], metadata: Record<string, string>): void {
+  const values = columns.filter((c) => c.kind === 'value');
+  if (values.length !== 1 || values[0].heading !== '') return;
+  const key = Object.keys(metadata).find((k) => SOURCE_KEY.test(k));
+  const label = key === undefined ? '' : metadata[key].trim();
+  if (SOURCE_LABEL.test(label)) values[0].name = label;
 }
 
 /** The leading columns empty in every row (a column with data, at least, is left): the data rows' empty fields. */
@@ -269,9 +305,12 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
     const lastCells = headerCells(last.text, delimiter);
     const before = meaningful[meaningful.length - 2];
     const beforeCells = before ? headerCells(before.text, delimiter) : [];
-    if (isUnitsRow(lastCells) && before && looksLikeHeader(beforeCells, width, skip > 0, decimalComma)) {
+    const namesAbove = before !== undefined && (looksLikeHeader(beforeCells, width, skip > 0, decimalComma) || numbersChannels(beforeCells, width));
+    if (isUnitsRow(lastCells) && namesAbove) {
       header = before;
       units = lastCells;
+    } else if (numberedHeader(lastCells, width)) {
+      header = last;
     } else if (looksLikeHeader(lastCells, width, skip > 0, decimalComma)) {
       // A line of units only is no header: it gives the units of header-less columns.
       if (isUnitsRow(lastCells)) units = lastCells;
@@ -335,6 +374,7 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
   }
   assignTimeColumns(columns);
   nameChannels(columns, header !== null);
+  nameFromSource(columns, preamble.metadata);
 
   preamble.interval ??= timing?.timing.interval ?? null;
   preamble.offset ??= timing?.timing.offset ?? null;

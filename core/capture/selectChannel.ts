@@ -1,4 +1,4 @@
-// Picks the channel to work on: by name (case-insensitive) or 0-based index; the first when not told.
+// Picks the channel to work on: by name first (exactly, then in any case), else by 0-based index; the first when not told.
 
 import { CaptureError, type Capture, type Channel } from './types';
 
@@ -6,9 +6,17 @@ function available(capture: Capture): string {
   return capture.channels.map((c, i) => `${i}: '${c.name}'`).join(', ');
 }
 
+/** The channel the text names, exactly or else in any case; a name wins over an index ('1' is the channel named 1). */
+function byName(capture: Capture, text: string): Channel | undefined {
+  const wanted = text.trim();
+  return capture.channels.find((c) => c.name === wanted) ?? capture.channels.find((c) => c.name.toLowerCase() === wanted.toLowerCase());
+}
+
 export function selectChannel(capture: Capture, selector?: string | number): Channel {
   if (capture.channels.length === 0) throw new CaptureError('the capture has no channels');
   if (selector === undefined) return capture.channels[0];
+  const named = byName(capture, String(selector));
+  if (named) return named;
   if (typeof selector === 'number') {
     const channel = Number.isInteger(selector) ? capture.channels[selector] : undefined;
     if (!channel) {
@@ -16,8 +24,5 @@ export function selectChannel(capture: Capture, selector?: string | number): Cha
     }
     return channel;
   }
-  const wanted = selector.trim().toLowerCase();
-  const channel = capture.channels.find((c) => c.name.toLowerCase() === wanted);
-  if (!channel) throw new CaptureError(`no channel named '${selector}'; available channels: ${available(capture)}`);
-  return channel;
+  throw new CaptureError(`no channel named '${selector}'; available channels: ${available(capture)}`);
 }

@@ -16,7 +16,7 @@ export interface MeasureSettings {
   topology?: string;
   /** One known part, 'C=470n' or 'L=2.2u,10' (tolerance in %). */
   known?: string;
-  /** Channel name or 0-based index. Default: the first channel. */
+  /** Channel name, or else 0-based index (a channel named '1' wins over index 1). Default: the first channel. */
   column?: string;
   /** Sample interval for a file without a time column, e.g. '2n'. */
   sampleInterval?: string;

@@ -45,7 +45,7 @@ export function parseTopology(text: string): Topology {
   return value;
 }
 
-/** A channel given as a 0-based index ('1') or a name ('CH2'). */
+/** A channel given as a name ('CH2') or a 0-based index ('1'); selectChannel takes a channel named so first. */
 export function parseChannel(text: string): string | number {
   return /^\d+$/.test(text.trim()) ? Number(text.trim()) : text;
 }

@@ -12,7 +12,7 @@ export interface MeasureCommandOptions extends MeasureSettings {
 /** --column, --sample-interval, --time-unit, --value-unit, --from, --to, --sort-time, --event, --segment, --jump-start, --probe-ratio, --invert. */
 export function addCaptureOptions(command: Command): Command {
   return command
-    .option('--column <name|index>', 'channel to fit: its name or 0-based index (default: the first)')
+    .option('--column <name|index>', 'channel to fit: its name, or else its 0-based index (default: the first)')
     .option('--sample-interval <time>', 'sample interval when the file has no time column, e.g. 2n')
     .option('--time-unit <unit>', "unit of the time column or of the file's sample interval, over the file's, e.g. us")
     .option('--value-unit <unit>', "unit of the channel's values, over the file's, e.g. mV")

@@ -38,3 +38,29 @@ describe('selectChannel', () => {
     expect((caught as Error).message).toContain("available channels: 0: 'Vgs', 1: 'Vds', 2: 'Id'");
   });
 });
+
+describe('selectChannel with channels named by numbers', () => {
+  const numbered = Array.from({ length: 25 }, (_, i) => `${i * 1e-9},${i},${-i}`).join('\n');
+
+  it.each([
+    ['Time,1,2', '1', '1', 1],
+    ['Time,1,2', '2', '2', -1],
+    ['Time,1,2', 1, '1', 1],
+    ['Time,1,2', 0, '1', 1],
+    ['Time,2,1', '1', '1', -1],
+    ['x-axis,1,2\nsecond,Volt,Volt', '1', '1', 1],
+  ])('header %j: %j picks the channel named %j (names win over indexes)', (header, selector, name, sign) => {
+    const channel = selectChannel(parseCapture(`${header}\n${numbered}`), selector);
+    expect(channel.name).toBe(name);
+    expect(Math.sign(channel.values[3])).toBe(sign);
+  });
+});
+
+describe('a line of numbers above the data that names no time column is no names row', () => {
+  it('keeps generic names, so an index picks by position', () => {
+    const rows = Array.from({ length: 25 }, (_, i) => `${i * 1e-9},${i},${-i}`).join('\n');
+    const capture = parseCapture(`Averages,1,2\n${rows}`);
+    expect(capture.channels.map((c) => c.name)).toEqual(['channel 1', 'channel 2']);
+    expect(selectChannel(capture, 1).name).toBe('channel 2');
+  });
+});

@@ -74,3 +74,24 @@ describe('rows opening with empty fields and no metadata beside them', () => {
     expect(() => parseCapture(`${rows(0, 10)}\nEnd of data\n`)).toThrow(/^only 10 data row\(s\) from line 1; at least 20 samples are needed$/);
   });
 });
+
+describe('the channel named from the source the metadata states', () => {
+  const rows = Array.from({ length: N }, (_, i) => `${timeAt(i)},${valueAt(i)}`).join('\n');
+
+  it.each([
+    ['beside the data', () => besideRows(METADATA)],
+    ['in a key/value preamble', () => `Source,CH1\nRecord Length,${N}\n${rows}`],
+    ['in a preamble, the one column holding values', () => `Source,CH3\nSample Interval,${DT}\n${Array.from({ length: N }, (_, i) => valueAt(i)).join('\n')}`],
+  ])('%s: a column with no name of its own takes it', (_, text) => {
+    expect(parseCapture(text()).channels.map((c) => c.name)).toEqual([text().includes('CH3') ? 'CH3' : 'CH1']);
+  });
+
+  it("a column's own name stays", () => {
+    expect(parseCapture(`Source,CH1\nTime,Vout\n${rows}`).channels.map((c) => c.name)).toEqual(['Vout']);
+  });
+
+  it('several channels keep their generic names: one source names none of them for sure', () => {
+    const two = Array.from({ length: N }, (_, i) => `${timeAt(i)},${valueAt(i)},${-valueAt(i)}`).join('\n');
+    expect(parseCapture(`Source,CH1\nRecord Length,${N}\n${two}`).channels.map((c) => c.name)).toEqual(['channel 1', 'channel 2']);
+  });
+});
