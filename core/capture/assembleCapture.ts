@@ -32,6 +32,9 @@ function scaleInPlace(column: Float64Array, scale: number): Float64Array {
   return column;
 }
 
+/** How a note on time read as seconds tells the user to state another unit. */
+const TIME_UNIT_ADVICE = 'state another unit with --time-unit';
+
 function label(column: ColumnPlan): string {
   return column.heading || column.name;
 }
@@ -49,10 +52,20 @@ function unitlessTimeNote(columns: ColumnPlan[], kept: KeptChannel[]): string | 
   }
   if (unitless.size === 0) return null;
   const names = [...unitless].map((index) => (columns[index].heading ? `'${printable(columns[index].heading)}'` : `${index + 1}`));
-  const advice = 'state another unit with --time-unit';
-  if (names.length === 1) return `time column ${names[0]} states no unit and was read as seconds; ${advice}`;
+  if (names.length === 1) return `time column ${names[0]} states no unit and was read as seconds; ${TIME_UNIT_ADVICE}`;
   const listed = `${names.slice(0, -1).join(', ')} and ${names[names.length - 1]}`;
-  return `time columns ${listed} state no unit and were read as seconds; ${advice}`;
+  return `time columns ${listed} state no unit and were read as seconds; ${TIME_UNIT_ADVICE}`;
+}
+
+/**
+ * A note when the time axis is built from an interval the file states with no unit (none on its line, in the
+ * preamble or the timeUnit option): read as seconds, the usual convention, but an interval in microseconds read so
+ * would put every frequency 10^6 off without a sign.
+ */
+function unitlessIntervalNote(interval: NonNullable<Layout['interval']>): string | null {
+  if (interval.unitStated) return null;
+  const key = printable(interval.key);
+  return `the sample interval '${key}' on line ${interval.line} states no unit and was read as seconds; ${TIME_UNIT_ADVICE}`;
 }
 
 /** A headerless first column is time when strictly increasing (or to be sorted); otherwise it is a channel. */
@@ -109,6 +122,8 @@ function columnAxis(index: number, layout: Layout, store: StoredRows, lines: Row
 function intervalAxis(layout: Layout, rows: number, warnings: string[], stamped: ColumnPlan | null): Axis {
   const interval = layout.interval;
   if (interval === null) throw new CaptureError('no sample interval to build the time axis from', layout.firstDataLine);
+  const unitless = unitlessIntervalNote(interval);
+  if (unitless) warnings.push(unitless);
   const offset = layout.preamble.offset;
   const start = offset ? offset.value : 0;
   if (stamped) {

@@ -232,7 +232,7 @@ function chooseInterval(preamble: Preamble, options: CaptureOptions, warnings: s
     if (stated && Math.abs(stated.value - option) > 1e-6 * option) {
       warnings.push(`the sampleInterval option (${option} s) replaces the file's '${stated.key}' (${stated.value} s, line ${stated.line})`);
     }
-    return { value: option, key: 'sampleInterval', line: 0, source: 'the sampleInterval option' };
+    return { value: option, key: 'sampleInterval', line: 0, unitStated: true, source: 'the sampleInterval option' };
   }
   const stated = preamble.interval;
   return stated ? { ...stated, source: `'${stated.key}' on line ${stated.line}` } : null;

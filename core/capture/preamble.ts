@@ -44,6 +44,8 @@ export interface StatedTime {
   key: string;
   /** 1-based line. */
   line: number;
+  /** False when neither the line nor a stated time unit (the preamble's or the timeUnit option) gave the unit: read as seconds. */
+  unitStated: boolean;
 }
 
 /** A time unit a preamble line states, read ('Horizontal units,us': 1e-6 s). */
@@ -232,10 +234,12 @@ export function readPreamble(lines: PreambleLine[], delimiter: string, decimalCo
     const isInterval = INTERVAL_KEYS.has(words);
     if (!isInterval && !OFFSET_KEYS.has(words)) continue;
     const notes: string[] = [];
-    const readings = timeReadings(value, decimalComma).map((r) => secondsOf(r, unitText, timeUnit, stated, key, line, notes));
+    const written = timeReadings(value, decimalComma);
+    const readings = written.map((r) => secondsOf(r, unitText, timeUnit, stated, key, line, notes));
     if (readings.length === 0) continue;
     preamble.warnings.push(...notes.slice(0, 1));
-    const time: StatedTime = { value: readings[0], key, line };
+    const unitStated = timeUnit !== undefined || stated !== null || (written[0].unitText ?? unitText) !== null;
+    const time: StatedTime = { value: readings[0], key, line, unitStated };
     if (readings.some((v) => Math.abs(v - readings[0]) > 1e-9 * Math.abs(readings[0]))) {
       preamble.warnings.push(`line ${line}: '${key}' gives several different values; the first (${value.split(/[,;\t]/)[0].trim()}) is used`);
     }

@@ -63,7 +63,7 @@ const cases: Expected[] = [
     channels: [{ name: 'channel 1', unit: '', samples: 38, dropped: 2, firstTime: -1e-7, firstValue: 0 }],
     sampleInterval: 5e-9,
     metadata: { XIncrement: '5e-9', 'X Origin': '-1E-07', 'Horizontal Scale': '1e-7' },
-    warnings: [/channel 'channel 1': 2 sample\(s\) dropped/],
+    warnings: [/the sample interval 'XIncrement' on line 2 states no unit and was read as seconds/, /channel 'channel 1': 2 sample\(s\) dropped/],
   },
   {
     // Wall-clock stamps: axis rebuilt from a period given in µs by its key, started at a numeric start time.

@@ -229,6 +229,38 @@ describe('a time column that states no unit is read as seconds, with a note', ()
   });
 });
 
+describe('a sample interval stated without a unit is read as seconds, with a note', () => {
+  const timeUnit = (text: string) => parseStatedUnit(text, true, '--time-unit');
+  const column = values.join('\n');
+  const note = (key: string, line: number): string =>
+    `the sample interval '${key}' on line ${line} states no unit and was read as seconds; state another unit with --time-unit`;
+
+  it.each([
+    ['delta t,2.000000E-6', 'delta t', 1, 2e-6],
+    ['Record Length,20\nSample Interval,2e-7', 'Sample Interval', 2, 2e-7],
+  ])("'%s': the note names the line and --time-unit, in the import summary too", (preamble, key, line, interval) => {
+    const capture = parseCapture(`${preamble}\n${column}`);
+    expect(capture.sampleInterval).toBeCloseTo(interval, 18);
+    expect(capture.warnings).toEqual([note(key, line)]);
+    expect(capture.importSummary.warnings).toEqual(capture.warnings);
+  });
+
+  it('no note when the line, the preamble or timeUnit states the unit, or the sampleInterval option gives the interval', () => {
+    const stated = [
+      parseCapture(`Sample Interval,2e-7,s\n${column}`),
+      parseCapture(`Sample Interval (us),0.2\n${column}`),
+      parseCapture(`Horizontal Units,s\nSample Interval,2e-7\n${column}`),
+      parseCapture(`Sample Interval,0.2\n${column}`, { timeUnit: timeUnit('us') }),
+      parseCapture(`Sample Interval,2e-7\n${column}`, { sampleInterval: 2e-7 }),
+      parseCapture(column, { sampleInterval: 2e-7 }),
+    ];
+    for (const capture of stated) {
+      expect(capture.sampleInterval).toBeCloseTo(2e-7, 18);
+      expect(capture.warnings).toEqual([]);
+    }
+  });
+});
+
 describe('the stated units fix each refusal', () => {
   const timeUnit = (text: string) => parseStatedUnit(text, true, '--time-unit');
   const valueUnit = (text: string) => parseStatedUnit(text, false, '--value-unit');
