@@ -6,6 +6,8 @@ import { firstSampleTime, MIN_FIT_SAMPLES, prepareFitSet, type FitSet } from './
 import { railHeadCount, type KeptRange } from './railGuard';
 import { attemptValue, type Attempt } from './attempt';
 import { refine } from './refine';
+import { solveAmplitudes, Workspace } from './amplitudes';
+import { shiftByHalfPeriods } from './halfPeriodShift';
 import { LAYOUTS, layoutsFor, layoutValues } from './responseModel';
 import { searchLayouts } from './layoutSearch';
 import { chooseByInformation, effectiveSamples, information } from './modelSelection';
@@ -85,7 +87,10 @@ export function settleEvent(
   const recordStart = firstSampleTime(set);
   const rates = { alpha: attemptValue(best, 'alpha'), omega0: attemptValue(best, 'omega0'), source: 'fit before' };
   if (!LAYOUTS[best.layout].fitsT0) {
-    if (event.responseFrom === 0) return null;
+    if (event.responseFrom === 0) {
+      const hidden = eventInQuietHead(set, best, event, rates, noise);
+      return hidden ? { set, window, best: hidden.best, t0Start: hidden.t0Start, warning: null } : null;
+    }
     const fromRest = eventBeforeDeparture(set, best, event, rates, noise);
     if (fromRest) return { set, window, best: fromRest.best, t0Start: fromRest.t0Start, warning: null };
     if (!headMisfit(set, best, recordStart, event.responseFrom)) return null;
@@ -135,6 +140,63 @@ function eventBeforeDeparture(set: FitSet, best: Attempt, event: EventEstimate, 
   const n = effectiveSamples([best, chosen], set, recordStart);
   const gap = information(best.sse, best.values.length, n) - information(chosen.sse, chosen.values.length, n);
   return gap > CLEAR_EVIDENCE ? { best: chosen, t0Start } : null;
+}
+
+/** The t0 scan over a quiet head steps by this share of a ring period at most... */
+const SCAN_PERIOD_SHARE = 1 / 8;
+/** ...and tries at most this many places. */
+const SCAN_POINTS = 400;
+
+/**
+ * The fit with an event inside a head that starts quiet, when the event search found no departure at all (a
+ * response that never stands 12 noise levels clear, and whose block energies stay low): the fit then runs from
+ * the first sample with a free initial state, which bends through the head and comes out biased by several
+ * standard errors. For each layout with an event, the residual with the levels and amplitudes solved at the
+ * free fit's rates is scanned over t0 across the stretch that stays within the noise of the starting level;
+ * the layout is refined from the best place (and by half periods), and kept only when it beats the fit
+ * without an event by CLEAR_EVIDENCE (the samples counted with the free fit's residual correlation, the larger
+ * one, so the comparison errs towards the fit without an event). Null when none does.
+ */
+function eventInQuietHead(set: FitSet, best: Attempt, event: EventEstimate, rates: RateCandidate, noise: number): { best: Attempt; t0Start: number } | null {
+  if (event.hasPreEvent) return null;
+  const head = flatHeadLength(set.values, noise);
+  if (head < 2 * MIN_PRE_EVENT) return null;
+  const { alpha, omega0 } = rates;
+  if (!(alpha > 0 && omega0 > 0)) return null;
+  const recordStart = firstSampleTime(set);
+  const from = set.time[MIN_PRE_EVENT];
+  const to = set.time[Math.min(head, set.time.length - MIN_FIT_SAMPLES) - 1];
+  if (!(to > from)) return null;
+  const ring = omega0 > alpha ? (2 * Math.PI) / Math.sqrt(omega0 * omega0 - alpha * alpha) : 1 / alpha;
+  const points = Math.min(SCAN_POINTS, Math.max(2, Math.ceil((to - from) / (SCAN_PERIOD_SHARE * ring))));
+  const workspace = new Workspace(set.time.length);
+  const n = effectiveSamples([best], set, recordStart);
+  let chosen: { best: Attempt; t0Start: number } | null = null;
+  let chosenInformation = Infinity;
+  for (const layout of layoutsFor({ hasPreEvent: true, continuity: 'continuous' })) {
+    let t0Start = from;
+    let scanSse = Infinity;
+    for (let k = 0; k <= points; k++) {
+      const t0 = from + ((to - from) * k) / points;
+      const { sse } = solveAmplitudes(layout, set.time, set.values, alpha, omega0, t0, workspace, set.block);
+      if (sse < scanSse) {
+        scanSse = sse;
+        t0Start = t0;
+      }
+    }
+    const refined = refine(set, layout, rates, t0Start);
+    if (!Number.isFinite(refined.sse)) continue;
+    const attempt = shiftByHalfPeriods(set, refined);
+    if (!(attemptValue(attempt, 't0') > set.time[MIN_PRE_EVENT - 1])) continue;
+    const value = information(attempt.sse, attempt.values.length, n);
+    if (value < chosenInformation) {
+      chosenInformation = value;
+      chosen = { best: attempt, t0Start };
+    }
+  }
+  if (!chosen) return null;
+  const gap = information(best.sse, best.values.length, n) - chosenInformation;
+  return gap > CLEAR_EVIDENCE ? chosen : null;
 }
 
 /** A sample of a flat head lies within this many noise levels of the head's level (4: a normal sample falls outside once in 16000). */
