@@ -17,8 +17,11 @@ export function parseJsonStrictly(text: string, fail: JsonFault): unknown {
   } catch (e) {
     const comment = scan(json).comment;
     if (comment !== null) fail('', `${placeOf(json, comment)}: JSON has no comments; move the note into "notes"`);
-    const position = /at position (\d+)/.exec((e as Error).message);
-    fail('', `not valid JSON${position ? ` at ${placeOf(json, Number(position[1]))}` : ''} (${(e as Error).message})`);
+    const message = (e as Error).message;
+    const position = /at position (\d+)/.exec(message);
+    // The parser's own place ('in JSON at position 70 (line 1 column 71)') is said once, as line and column.
+    const reason = position ? message.replace(/\s*in JSON at position \d+.*$/, '') : message;
+    fail('', `not valid JSON${position ? ` at ${placeOf(json, Number(position[1]))}` : ''} (${reason})`);
   }
   const twice = scan(json).duplicate;
   if (twice) fail(twice.path, `given twice (line ${lineOf(json, twice.at)}); JSON keeps only the last, so one of them would be silently lost`);
