@@ -22,6 +22,21 @@ export interface FitSet {
   warnings: string[];
 }
 
+/** The samples a fit set was made of, before any block means: the event's rail test reads them (responseStart.ts). */
+export interface KeptSamples {
+  /** Views of the trace's own arrays when they are its unbroken run, else copies (read, never written). */
+  time: Float64Array;
+  values: Float64Array;
+  /** Their smallest and largest value. */
+  lo: number;
+  hi: number;
+  /** Whether their times never decrease, so that the samples before a time are a leading run of them. */
+  ordered: boolean;
+}
+
+/** A fit set as prepareFitSet makes it, with the samples it was made of. */
+export type PreparedSet = FitSet & { kept: KeptSamples };
+
 /** Fewest usable samples a response fit runs on: a handful per parameter, with the event among them. */
 export const MIN_FIT_SAMPLES = 20;
 /**
@@ -38,35 +53,42 @@ export const BLOCK_MEANS_TARGET = 1000;
 /** A block spans at most this fraction of the shortest period the sampling could carry. */
 const BLOCK_PER_PERIOD = 1 / 8;
 
-export function prepareFitSet(trace: Trace, window: { start?: number; end?: number }): FitSet {
+export function prepareFitSet(trace: Trace, window: { start?: number; end?: number }): PreparedSet {
   const { time, values, clipped } = trace;
   if (time.length !== values.length) throw new FitInputError('trace', `time has ${time.length} samples but values has ${values.length}`);
   const start = window.start ?? -Infinity;
   const end = window.end ?? Infinity;
   if (start >= end) throw new FitInputError('window', `the fit window starts (${start} s) at or after its end (${end} s)`);
-  const usable = (i: number) => time[i] >= start && time[i] <= end && Number.isFinite(values[i]) && Number.isFinite(time[i]);
-  // The samples kept are counted, with the range of their values and whether they form one unbroken run.
+  // Each sample is read once: a long record's loop runs before it is optimised, when every read costs.
+  const usable = (t: number, v: number) => t >= start && t <= end && Number.isFinite(v) && Number.isFinite(t);
+  // The samples kept are counted, with the range of their values, whether they form one unbroken run and whether their times are in order.
   let count = 0;
   let clippedCount = 0;
   let first = -1;
   let last = -1;
   let lo = Infinity;
   let hi = -Infinity;
+  let ordered = true;
+  let previous = -Infinity;
   for (let i = 0; i < time.length; i++) {
-    if (!usable(i)) continue;
+    const ti = time[i];
+    const v = values[i];
+    if (!usable(ti, v)) continue;
     if (clipped && clipped[i]) {
       clippedCount++;
       continue;
     }
+    if (ti < previous) ordered = false;
+    previous = ti;
     if (first < 0) first = i;
     last = i;
     count++;
-    const v = values[i];
     if (v < lo) lo = v;
     if (v > hi) hi = v;
   }
   // An unbroken run is read in place: a copy of a long record would cost the first touch of as much fresh memory.
   const kept = count === last - first + 1 ? { t: time.subarray(first, last + 1), y: values.subarray(first, last + 1), gapBefore: null } : keptSamples(trace, usable, count);
+  const samples: KeptSamples = { time: kept.t, values: kept.y, lo, hi, ordered };
   let t: Float64Array = kept.t;
   let y: Float64Array = kept.y;
   const warnings: string[] = [];
@@ -78,10 +100,11 @@ export function prepareFitSet(trace: Trace, window: { start?: number; end?: numb
   let used = t.length;
   let decimation: FitSet['decimation'] = null;
   if (t.length > MAX_RAW_POINTS) {
-    const ringPeriod = roughPeriodSamples(y, hi - lo);
-    const factor = Math.max(1, Math.min(Math.ceil(t.length / BLOCK_MEANS_TARGET), Math.floor(ringPeriod * BLOCK_PER_PERIOD)));
+    const most = Math.ceil(t.length / BLOCK_MEANS_TARGET);
+    const scan = periodAndMeans(t, y, kept.gapBefore, hi - lo, most);
+    const factor = Math.max(1, Math.min(most, Math.floor(scan.periodSamples * BLOCK_PER_PERIOD)));
     if (factor > 1) {
-      [t, y] = blockAverage(t, y, kept.gapBefore, factor);
+      [t, y] = factor === most ? scan.means : blockAverage(t, y, kept.gapBefore, factor);
       [lo, hi] = extremes(y);
       used = t.length * factor;
       decimation = {
@@ -100,6 +123,7 @@ export function prepareFitSet(trace: Trace, window: { start?: number; end?: numb
     decimation,
     block: decimation ? { samples: decimation.factor, spacing: dt } : null,
     warnings,
+    kept: samples,
   };
 }
 
@@ -116,18 +140,35 @@ function extremes(y: Float64Array): [number, number] {
 
 /**
  * Samples per ring period from the spacing of crossings of the median (a coarse, safe upper bound for blocks),
- * with `range` the spread of the finite values y.
+ * with `range` the spread of the finite values y; and, in the same pass, the block means of `factor` samples
+ * (blockAverage's), which are the fit set whenever the ring is slow enough for blocks that long: a long record is
+ * read once, not twice, while its loop is still cold.
  */
-function roughPeriodSamples(y: Float64Array, range: number): number {
+function periodAndMeans(
+  t: Float64Array,
+  y: Float64Array,
+  gapBefore: Uint8Array | null,
+  range: number,
+  factor: number,
+): { periodSamples: number; means: [Float64Array, Float64Array] } {
   const level = median(y.subarray(Math.floor(y.length * 0.8)));
+  // Hysteresis of a tenth of the range, and of 4 noise levels, keeps noise from counting as crossings.
+  const band = Math.max(range / 10, 4 * estimateNoise(y));
+  const above = level + band;
+  const below = level - band;
   let crossings = 0;
   let first = -1;
   let last = -1;
-  // Hysteresis of a tenth of the range, and of 4 noise levels, keeps noise from counting as crossings.
-  const band = Math.max(range / 10, 4 * estimateNoise(y));
   let state = 0;
+  const tb = new Float64Array(Math.floor(t.length / factor));
+  const yb = new Float64Array(tb.length);
+  let blocks = 0;
+  let filled = 0;
+  let st = 0;
+  let sy = 0;
   for (let i = 0; i < y.length; i++) {
-    const s = y[i] > level + band ? 1 : y[i] < level - band ? -1 : 0;
+    const v = y[i];
+    const s = v > above ? 1 : v < below ? -1 : 0;
     if (s !== 0 && s !== state) {
       if (state !== 0) {
         crossings++;
@@ -136,22 +177,30 @@ function roughPeriodSamples(y: Float64Array, range: number): number {
       }
       state = s;
     }
+    if (gapBefore && gapBefore[i]) filled = st = sy = 0;
+    st += t[i];
+    sy += v;
+    if (++filled === factor) {
+      tb[blocks] = st / factor;
+      yb[blocks++] = sy / factor;
+      filled = st = sy = 0;
+    }
   }
-  if (crossings < 2) return y.length;
-  return (2 * (last - first)) / (crossings - 1);
+  const periodSamples = crossings < 2 ? y.length : (2 * (last - first)) / (crossings - 1);
+  return { periodSamples, means: [tb.subarray(0, blocks), yb.subarray(0, blocks)] };
 }
 
 /**
  * Copies of the kept samples (a long record is never held as a list of indices), and where a left-out sample
  * breaks their run (1 before the first sample after a gap): a block mean must not straddle it.
  */
-function keptSamples(trace: Trace, usable: (i: number) => boolean, count: number): { t: Float64Array; y: Float64Array; gapBefore: Uint8Array } {
+function keptSamples(trace: Trace, usable: (t: number, v: number) => boolean, count: number): { t: Float64Array; y: Float64Array; gapBefore: Uint8Array } {
   const { time, values, clipped } = trace;
   const t = new Float64Array(count);
   const y = new Float64Array(count);
   const gapBefore = new Uint8Array(count);
   for (let i = 0, j = 0, last = -2; i < time.length; i++) {
-    if (!usable(i) || (clipped && clipped[i])) continue;
+    if (!usable(time[i], values[i]) || (clipped && clipped[i])) continue;
     gapBefore[j] = i === last + 1 ? 0 : 1;
     last = i;
     t[j] = time[i];

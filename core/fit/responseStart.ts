@@ -2,7 +2,7 @@
 
 import type { Trace } from './trace';
 import { detectEvent, MIN_PRE_EVENT, type EventEstimate } from './eventDetection';
-import { firstSampleTime, MIN_FIT_SAMPLES, prepareFitSet, type FitSet } from './fitSet';
+import { firstSampleTime, MIN_FIT_SAMPLES, prepareFitSet, type FitSet, type KeptSamples, type PreparedSet } from './fitSet';
 import { railHeadCount, type KeptRange } from './railGuard';
 import { attemptValue, type Attempt } from './attempt';
 import { refine } from './refine';
@@ -13,7 +13,7 @@ import { searchLayouts } from './layoutSearch';
 import { chooseByInformation, effectiveSamples, information } from './modelSelection';
 import type { RateCandidate } from './startingRates';
 import { FitInputError } from './fitInputError';
-import { estimateNoise, median, quantisationStep, STEP_SAMPLES } from './noise';
+import { estimateNoise, median, quantisationStep } from './noise';
 
 type FitWindow = { start?: number; end?: number };
 
@@ -41,11 +41,11 @@ export interface ResponseStart {
  * at the first sample surely inside the response (the window's start moves there, so every later fit set
  * starts there too).
  */
-export function locateResponse(trace: Trace, set: FitSet, window: FitWindow, noise: number, step: number): ResponseStart {
+export function locateResponse(trace: Trace, set: PreparedSet, window: FitWindow, noise: number, step: number): ResponseStart {
   const event = detectEvent(set.values, noise, step);
   if (event.responseFrom === 0) return { set, window, event, warnings: [] };
   const departure = firstSampleTime(set, event.responseFrom);
-  const { head, range } = unclippedValues(trace, window, departure);
+  const { head, range } = keptBefore(set.kept, departure);
   const onRail = railHeadCount(head, range, noise);
   if (onRail === 0) return { set, window, event, warnings: [] };
   const moved = setFrom(trace, window, departure);
@@ -282,33 +282,20 @@ function setFrom(trace: Trace, window: FitWindow, start: number): { set: FitSet;
 }
 
 /**
- * The unclipped samples of the window before `end` (s), and the range of all of them: the range needs only the
- * extremes and the first STEP_SAMPLES values, so a long record is read in place, not copied.
+ * The kept samples (unclipped, inside the window) before `end` (s), and the range of all of them with the
+ * quantisation step of the first STEP_SAMPLES: in order, the samples before `end` are a view of their leading run.
  */
-function unclippedValues(trace: Trace, window: FitWindow, end: number): { head: Float64Array; range: KeptRange } {
-  const { time, values, clipped } = trace;
-  const from = window.start ?? -Infinity;
-  const to = window.end ?? Infinity;
-  const kept = (i: number) => time[i] >= from && time[i] <= to && !(clipped && clipped[i]) && Number.isFinite(values[i]);
-  const opening = new Float64Array(STEP_SAMPLES);
-  let inOpening = 0;
-  let inHead = 0;
-  let lastInHead = -1;
-  let lo = Infinity;
-  let hi = -Infinity;
-  for (let i = 0; i < time.length; i++) {
-    if (!kept(i)) continue;
-    const v = values[i];
-    lo = Math.min(lo, v);
-    hi = Math.max(hi, v);
-    if (inOpening < STEP_SAMPLES) opening[inOpening++] = v;
-    if (time[i] < end) {
-      inHead++;
-      lastInHead = i;
-    }
+function keptBefore(kept: KeptSamples, end: number): { head: Float64Array; range: KeptRange } {
+  const { time, values } = kept;
+  const range = { lo: kept.lo, hi: kept.hi, step: quantisationStep(values) };
+  if (kept.ordered) {
+    let count = 0;
+    while (count < time.length && time[count] < end) count++;
+    return { head: values.subarray(0, count), range };
   }
-  // Counted first, then copied: the head is never held as a list of numbers, nor as an array longer than needed.
-  const head = new Float64Array(inHead);
-  for (let i = 0, h = 0; i <= lastInHead; i++) if (time[i] < end && kept(i)) head[h++] = values[i];
-  return { head, range: { lo, hi, step: quantisationStep(opening.subarray(0, inOpening)) } };
+  let count = 0;
+  for (let i = 0; i < time.length; i++) if (time[i] < end) count++;
+  const head = new Float64Array(count);
+  for (let i = 0, h = 0; h < count; i++) if (time[i] < end) head[h++] = values[i];
+  return { head, range };
 }

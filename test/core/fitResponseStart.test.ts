@@ -5,7 +5,9 @@
 import { describe, expect, it } from 'vitest';
 import { fitResponse } from '../../core/fit/fitResponse';
 import { railHeadCount, type KeptRange } from '../../core/fit/railGuard';
-import { quantisationStep } from '../../core/fit/noise';
+import { quantisationStep, recordNoise } from '../../core/fit/noise';
+import { prepareFitSet } from '../../core/fit/fitSet';
+import { locateResponse } from '../../core/fit/responseStart';
 import { createRandom } from '../../core/random';
 import { makeRecord, sampleCaptureTrace, type RecordSpec } from './trust/startRecords';
 
@@ -82,5 +84,24 @@ describe('railHeadCount', () => {
     expect(railHeadCount(atRail, keptRangeOf([...atRail, ...response]), 2)).toBe(atRail.filter((v) => v === 0).length);
     const beyond = new Array(200).fill(0);
     expect(railHeadCount(beyond, keptRangeOf([...beyond, ...response]), 2)).toBe(200);
+  });
+});
+
+describe('locateResponse', () => {
+  it('counts the same censored head when the samples are not in time order', () => {
+    const spec: RecordSpec = { zeta: 0.2, omega0: 2 * Math.PI * 5e6, samples: 2000, perPeriod: 40, eventAt: 300.4, kind: 'step', snrDb: 40, noise: { kind: 'white' }, preLevel: -0.1, height: 1.1, converter: { codes: 256, bottom: 0, top: 1.7 }, seed: 7701 };
+    const ordered = makeRecord(spec).trace;
+    const shuffled = { ...ordered, time: ordered.time.slice(), values: ordered.values.slice(), clipped: ordered.clipped?.slice() };
+    // Two head samples trade places, time and value together: the same samples, out of order.
+    for (const a of [shuffled.time, shuffled.values, shuffled.clipped ?? new Uint8Array(0)]) [a[40], a[90]] = [a[90], a[40]];
+    const locate = (trace: typeof ordered) => {
+      const set = prepareFitSet(trace, {});
+      return locateResponse(trace, set, {}, recordNoise(set.values, set.block !== null), quantisationStep(set.values));
+    };
+    const a = locate(ordered);
+    expect(prepareFitSet(shuffled, {}).kept.ordered).toBe(false);
+    const b = locate(shuffled);
+    expect(a.warnings[0]).toMatch(/converter rail: \d+ samples/);
+    expect(b.warnings).toEqual(a.warnings);
   });
 });

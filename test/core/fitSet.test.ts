@@ -95,3 +95,62 @@ describe('uniformValues', () => {
     expect(grid[1_500]).toBeCloseTo(Math.cos(2 * Math.PI * 2e4 * 1_500 * DT), 12);
   });
 });
+
+describe('prepareFitSet on a long record with left-out samples', () => {
+  /** A slow ring over 50 000 samples with NaN cells and clipped runs, and two samples out of time order when `swap`. */
+  function holed(swap: boolean) {
+    const n = 50_000;
+    const time = Float64Array.from({ length: n }, (_, i) => i * DT);
+    const values = time.map((t) => Math.exp(-t / 2e-5) * Math.sin(2 * Math.PI * 3e4 * t) + 1e-3 * Math.sin(1.7 * t * 1e9));
+    const clipped = new Uint8Array(n);
+    for (const i of [7, 12_345, 12_346, 40_001]) values[i] = NaN;
+    clipped.fill(1, 20_000, 20_013);
+    clipped[33_333] = 1;
+    if (swap) [time[100], time[101], values[100], values[101]] = [time[101], time[100], values[101], values[100]];
+    return { time, values, clipped, unit: 'V' };
+  }
+
+  it('gives block means equal to the mean of each unbroken block, restarted after every left-out sample', () => {
+    const t = holed(false);
+    const set = prepareFitSet(t, { start: 3 * DT });
+    const factor = set.decimation?.factor ?? 1;
+    expect(factor).toBe(50);
+    const means: number[] = [];
+    const times: number[] = [];
+    let run: number[] = [];
+    for (let i = 3; i < t.time.length; i++) {
+      if (t.clipped[i] || !Number.isFinite(t.values[i])) {
+        run = [];
+        continue;
+      }
+      run.push(i);
+      if (run.length === factor) {
+        times.push(run.reduce((s, k) => s + t.time[k], 0) / factor);
+        means.push(run.reduce((s, k) => s + t.values[k], 0) / factor);
+        run = [];
+      }
+    }
+    expect(Array.from(set.time)).toEqual(times);
+    expect(Array.from(set.values)).toEqual(means);
+  });
+
+  it('keeps the samples it was made of: the unclipped finite ones in the window, their extremes and whether they are in time order', () => {
+    for (const swap of [false, true]) {
+      const t = holed(swap);
+      const set = prepareFitSet(t, { start: 3 * DT, end: 45_000 * DT });
+      const kept = [...t.time.keys()].filter((i) => i >= 3 && i <= 45_000 && !t.clipped[i] && Number.isFinite(t.values[i]));
+      expect(Array.from(set.kept.time)).toEqual(kept.map((i) => t.time[i]));
+      expect(Array.from(set.kept.values)).toEqual(kept.map((i) => t.values[i]));
+      expect(set.kept.lo).toBe(Math.min(...kept.map((i) => t.values[i])));
+      expect(set.kept.hi).toBe(Math.max(...kept.map((i) => t.values[i])));
+      expect(set.kept.ordered).toBe(!swap);
+    }
+  });
+
+  it('reads an unbroken run in place', () => {
+    const t = { ...trace([]), clipped: undefined };
+    const set = prepareFitSet(t, { start: 10 * DT });
+    expect(set.kept.values.buffer).toBe(t.values.buffer);
+    expect(set.kept.values.length).toBe(t.values.length - 10);
+  });
+});
