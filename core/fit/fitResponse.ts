@@ -27,7 +27,8 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   const continuity = 'continuous';
   const jumpOption = options.continuity ?? 'auto';
   checkModeOptions(options);
-  let window = options.window ?? {};
+  // Every window of the fit has the one shape, so the steps that read it are compiled once (not again per caller's shape).
+  let window: { start?: number; end?: number } = { start: options.window?.start, end: options.window?.end };
   const prepared = prepareFitSet(trace, window);
   let set: FitSet = prepared;
   if (set.time.length < MIN_FIT_SAMPLES) {

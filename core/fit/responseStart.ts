@@ -277,7 +277,7 @@ function headMisfit(set: FitSet, fit: Attempt, t0: number, headEnd: number): boo
 
 /** The fit set of the window with its start moved to `start`, s. */
 function setFrom(trace: Trace, window: FitWindow, start: number): { set: FitSet; window: FitWindow } {
-  const moved = { ...window, start };
+  const moved = { start, end: window.end };
   return { set: prepareFitSet(trace, moved), window: moved };
 }
 
