@@ -4,7 +4,7 @@ import { estimateNoise, quantisationStep, recordNoise } from './noise';
 import { locateResponse, settleEvent } from './responseStart';
 import { rateCandidates } from './startingRates';
 import { LAYOUTS, layoutsFor } from './responseModel';
-import { firstSampleTime, MIN_FIT_SAMPLES, prepareFitSet, uniformValues, type FitSet } from './fitSet';
+import { firstSampleTime, fitSetAndSamples, MIN_FIT_SAMPLES, uniformValues } from './fitSet';
 import { searchLayouts } from './layoutSearch';
 import { chooseByInformation, explainRecord } from './modelSelection';
 import { fitFirstOrderRecord, tailTimeConstant, type TailTimeConstant } from './firstOrderFit';
@@ -29,8 +29,8 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   checkModeOptions(options);
   // Every window of the fit has the one shape, so the steps that read it are compiled once (not again per caller's shape).
   let window: { start?: number; end?: number } = { start: options.window?.start, end: options.window?.end };
-  const prepared = prepareFitSet(trace, window);
-  let set: FitSet = prepared;
+  const prepared = fitSetAndSamples(trace, window);
+  let set = prepared.set;
   if (set.time.length < MIN_FIT_SAMPLES) {
     throw new FitInputError('trace', `only ${set.time.length} usable samples in the fit window; at least ${MIN_FIT_SAMPLES} are needed`);
   }
@@ -38,7 +38,7 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   const noise = recordNoise(set.values, set.block !== null);
   const step = quantisationStep(set.values);
   // The event is looked for inside any window; without a level before it the fit starts where the response surely runs.
-  const start = locateResponse(trace, prepared, window, noise, step);
+  const start = locateResponse(trace, set, prepared.kept, window, noise, step);
   ({ set, window } = start);
   const event = start.event;
   let t0Start = event.hasPreEvent ? set.time[event.index] : firstSampleTime(set);

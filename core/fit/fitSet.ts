@@ -34,9 +34,6 @@ export interface KeptSamples {
   ordered: boolean;
 }
 
-/** A fit set as prepareFitSet makes it, with the samples it was made of. */
-export type PreparedSet = FitSet & { kept: KeptSamples };
-
 /** Fewest usable samples a response fit runs on: a handful per parameter, with the event among them. */
 export const MIN_FIT_SAMPLES = 20;
 /**
@@ -53,7 +50,12 @@ export const BLOCK_MEANS_TARGET = 1000;
 /** A block spans at most this fraction of the shortest period the sampling could carry. */
 const BLOCK_PER_PERIOD = 1 / 8;
 
-export function prepareFitSet(trace: Trace, window: { start?: number; end?: number }): PreparedSet {
+export function prepareFitSet(trace: Trace, window: { start?: number; end?: number }): FitSet {
+  return fitSetAndSamples(trace, window).set;
+}
+
+/** The fit set and the samples it was made of (the kept samples are not a field of the set: every set keeps one shape). */
+export function fitSetAndSamples(trace: Trace, window: { start?: number; end?: number }): { set: FitSet; kept: KeptSamples } {
   const { time, values, clipped } = trace;
   if (time.length !== values.length) throw new FitInputError('trace', `time has ${time.length} samples but values has ${values.length}`);
   const start = window.start ?? -Infinity;
@@ -113,7 +115,7 @@ export function prepareFitSet(trace: Trace, window: { start?: number; end?: numb
       };
     }
   }
-  return {
+  const set: FitSet = {
     time: t,
     values: y,
     dt: decimation ? dt * decimation.factor : dt,
@@ -123,8 +125,8 @@ export function prepareFitSet(trace: Trace, window: { start?: number; end?: numb
     decimation,
     block: decimation ? { samples: decimation.factor, spacing: dt } : null,
     warnings,
-    kept: samples,
   };
+  return { set, kept: samples };
 }
 
 /** The smallest and the largest value (Infinity and -Infinity for none). */

@@ -2,7 +2,7 @@
 
 import type { Trace } from './trace';
 import { detectEvent, MIN_PRE_EVENT, type EventEstimate } from './eventDetection';
-import { firstSampleTime, MIN_FIT_SAMPLES, prepareFitSet, type FitSet, type KeptSamples, type PreparedSet } from './fitSet';
+import { firstSampleTime, MIN_FIT_SAMPLES, prepareFitSet, type FitSet, type KeptSamples } from './fitSet';
 import { railHeadCount, type KeptRange } from './railGuard';
 import { attemptValue, type Attempt } from './attempt';
 import { refine } from './refine';
@@ -41,11 +41,11 @@ export interface ResponseStart {
  * at the first sample surely inside the response (the window's start moves there, so every later fit set
  * starts there too).
  */
-export function locateResponse(trace: Trace, set: PreparedSet, window: FitWindow, noise: number, step: number): ResponseStart {
+export function locateResponse(trace: Trace, set: FitSet, kept: KeptSamples, window: FitWindow, noise: number, step: number): ResponseStart {
   const event = detectEvent(set.values, noise, step);
   if (event.responseFrom === 0) return { set, window, event, warnings: [] };
   const departure = firstSampleTime(set, event.responseFrom);
-  const { head, range } = keptBefore(set.kept, departure);
+  const { head, range } = keptBefore(kept, departure);
   const onRail = railHeadCount(head, range, noise);
   if (onRail === 0) return { set, window, event, warnings: [] };
   const moved = setFrom(trace, window, departure);

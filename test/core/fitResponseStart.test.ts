@@ -6,7 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { fitResponse } from '../../core/fit/fitResponse';
 import { railHeadCount, type KeptRange } from '../../core/fit/railGuard';
 import { quantisationStep, recordNoise } from '../../core/fit/noise';
-import { prepareFitSet } from '../../core/fit/fitSet';
+import { fitSetAndSamples } from '../../core/fit/fitSet';
 import { locateResponse } from '../../core/fit/responseStart';
 import { createRandom } from '../../core/random';
 import { makeRecord, sampleCaptureTrace, type RecordSpec } from './trust/startRecords';
@@ -95,11 +95,11 @@ describe('locateResponse', () => {
     // Two head samples trade places, time and value together: the same samples, out of order.
     for (const a of [shuffled.time, shuffled.values, shuffled.clipped ?? new Uint8Array(0)]) [a[40], a[90]] = [a[90], a[40]];
     const locate = (trace: typeof ordered) => {
-      const set = prepareFitSet(trace, {});
-      return locateResponse(trace, set, {}, recordNoise(set.values, set.block !== null), quantisationStep(set.values));
+      const { set, kept } = fitSetAndSamples(trace, {});
+      return locateResponse(trace, set, kept, {}, recordNoise(set.values, set.block !== null), quantisationStep(set.values));
     };
     const a = locate(ordered);
-    expect(prepareFitSet(shuffled, {}).kept.ordered).toBe(false);
+    expect(fitSetAndSamples(shuffled, {}).kept.ordered).toBe(false);
     const b = locate(shuffled);
     expect(a.warnings[0]).toMatch(/converter rail: \d+ samples/);
     expect(b.warnings).toEqual(a.warnings);

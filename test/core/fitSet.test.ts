@@ -1,7 +1,7 @@
 // The fit set: block means never straddle left-out samples, and the uniform view the starting values use.
 
 import { describe, expect, it } from 'vitest';
-import { prepareFitSet, uniformValues } from '../../core/fit/fitSet';
+import { fitSetAndSamples, prepareFitSet, uniformValues } from '../../core/fit/fitSet';
 
 const DT = 1e-9;
 /** A slow ring over 30 000 samples (so the set is block-averaged), with the samples in `holes` marked clipped. */
@@ -137,20 +137,20 @@ describe('prepareFitSet on a long record with left-out samples', () => {
   it('keeps the samples it was made of: the unclipped finite ones in the window, their extremes and whether they are in time order', () => {
     for (const swap of [false, true]) {
       const t = holed(swap);
-      const set = prepareFitSet(t, { start: 3 * DT, end: 45_000 * DT });
+      const { kept: samples } = fitSetAndSamples(t, { start: 3 * DT, end: 45_000 * DT });
       const kept = [...t.time.keys()].filter((i) => i >= 3 && i <= 45_000 && !t.clipped[i] && Number.isFinite(t.values[i]));
-      expect(Array.from(set.kept.time)).toEqual(kept.map((i) => t.time[i]));
-      expect(Array.from(set.kept.values)).toEqual(kept.map((i) => t.values[i]));
-      expect(set.kept.lo).toBe(Math.min(...kept.map((i) => t.values[i])));
-      expect(set.kept.hi).toBe(Math.max(...kept.map((i) => t.values[i])));
-      expect(set.kept.ordered).toBe(!swap);
+      expect(Array.from(samples.time)).toEqual(kept.map((i) => t.time[i]));
+      expect(Array.from(samples.values)).toEqual(kept.map((i) => t.values[i]));
+      expect(samples.lo).toBe(Math.min(...kept.map((i) => t.values[i])));
+      expect(samples.hi).toBe(Math.max(...kept.map((i) => t.values[i])));
+      expect(samples.ordered).toBe(!swap);
     }
   });
 
   it('reads an unbroken run in place', () => {
     const t = { ...trace([]), clipped: undefined };
-    const set = prepareFitSet(t, { start: 10 * DT });
-    expect(set.kept.values.buffer).toBe(t.values.buffer);
-    expect(set.kept.values.length).toBe(t.values.length - 10);
+    const { kept: samples } = fitSetAndSamples(t, { start: 10 * DT });
+    expect(samples.values.buffer).toBe(t.values.buffer);
+    expect(samples.values.length).toBe(t.values.length - 10);
   });
 });
