@@ -131,7 +131,9 @@ type Trial = (u: readonly number[], free: readonly number[], damping: number) =>
  */
 function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number, differences: 'central' | 'forward'): Trial {
   const n = problem.x.length;
-  const y = problem.y.map((v) => v / c);
+  // Plain loops and copies: a typed array's map calls back per value, and Float64Array.from walks an iterator.
+  const y = new Float64Array(n);
+  for (let i = 0; i < n; i++) y[i] = problem.y[i] / c;
   /** Residuals y/c - f/c at u into `out`, and their sum of squares times c^2 (NaN if not finite). */
   const residualsAt = (u: readonly number[], out: Float64Array): number => {
     weightedModel(problem, box.unscale(u), out);
@@ -218,7 +220,7 @@ function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number, differ
     }
     const k = free.length;
     const { gram, gradient } = normalEquations(point, free);
-    const normal = Float64Array.from(gram);
+    const normal = gram.slice();
     for (let a = 0; a < k; a++) normal[a * k + a] += damping;
     const step = solveSymmetric(normal, gradient, k);
     if (step === null) return null;

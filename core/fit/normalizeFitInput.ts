@@ -3,7 +3,6 @@
 import { FitInputError } from './fitInputError';
 import type { CurveData, CurveModel, FitOptions } from './types';
 import type { WeightedProblem } from './weightedProblem';
-import { gathered } from './indexVectors';
 
 /** FitOptions with every default filled in (defaults are documented on FitOptions). */
 export interface NormalizedFitOptions {
@@ -47,24 +46,32 @@ export function normalizeFitInput(
   if (data.weights !== undefined && data.weights.length !== n) {
     throw new FitInputError('data.weights', `has ${data.weights.length} values but data.x has ${n}`);
   }
-  const rows: number[] = [];
+  const weights = data.weights;
+  // Checked and counted first, then copied: no list of the kept rows, no call per value (a fit runs this on every refinement).
+  let kept = 0;
   for (let i = 0; i < n; i++) {
     if (!Number.isFinite(data.x[i])) throw new FitInputError('data.x', `${data.x[i]} is not a finite number`, i);
     if (!Number.isFinite(data.y[i])) throw new FitInputError('data.y', `${data.y[i]} is not a finite number`, i);
-    const w = data.weights === undefined ? 1 : data.weights[i];
+    const w = weights === undefined ? 1 : weights[i];
     if (!(Number.isFinite(w) && w >= 0)) throw new FitInputError('data.weights', `${w} is not a finite number >= 0`, i);
-    if (w > 0) rows.push(i);
+    if (w > 0) kept++;
   }
-  if (rows.length <= p) {
-    throw new FitInputError('data', `${rows.length} points with positive weight; ${p} parameters need at least ${p + 1}`);
+  if (kept <= p) {
+    throw new FitInputError('data', `${kept} points with positive weight; ${p} parameters need at least ${p + 1}`);
   }
 
-  const problem: WeightedProblem = {
-    model,
-    x: gathered(rows, (i) => data.x[i]),
-    y: gathered(rows, (i) => Math.sqrt(data.weights === undefined ? 1 : data.weights[i]) * data.y[i]),
-    sqrtWeight: gathered(rows, (i) => Math.sqrt(data.weights === undefined ? 1 : data.weights[i])),
-  };
+  const x = new Float64Array(kept);
+  const y = new Float64Array(kept);
+  const sqrtWeight = new Float64Array(kept);
+  for (let i = 0, k = 0; i < n; i++) {
+    const w = weights === undefined ? 1 : weights[i];
+    if (!(w > 0)) continue;
+    const root = Math.sqrt(w);
+    x[k] = data.x[i];
+    y[k] = root * data.y[i];
+    sqrtWeight[k++] = root;
+  }
+  const problem: WeightedProblem = { model, x, y, sqrtWeight };
   return { problem, initial: [...initial], options: normalizeOptions(options, model.names, initial) };
 }
 
