@@ -1,6 +1,6 @@
 // The linear part of the response (levels and amplitudes) by least squares for given alpha, omega0, t0.
 
-import { evenRunSteps, fillDampedBasis, type BlockAverage } from '../response/secondOrder';
+import { fillDampedBasis, RunSteps, type BlockAverage } from '../response/secondOrder';
 import { LAYOUTS, type ParameterLayout } from './responseModel';
 
 export interface LinearSolution {
@@ -73,9 +73,8 @@ export class Workspace {
   private readonly columns: Float64Array[] = [];
   /** The scratch of a solve with k linear parameters, at index k. */
   private readonly scratches: Scratch[] = [];
-  /** The time axis the even runs were found for, and their steps (see evenRunSteps). */
-  private stepsTime: ArrayLike<number> | null = null;
-  private steps: Float64Array = new Float64Array(0);
+  /** The even runs of the time axis, found once per axis (a fit's axis does not change between its solves). */
+  readonly runSteps = new RunSteps();
   constructor(readonly length: number) {
     this.ec = new Float64Array(length);
     this.es = new Float64Array(length);
@@ -100,15 +99,6 @@ export class Workspace {
     this.scratches[count] = made;
     return made;
   }
-
-  /** The even runs of `time`, found once per time axis (a fit's axis does not change between its solves). */
-  runSteps(time: ArrayLike<number>): Float64Array {
-    if (this.stepsTime !== time) {
-      this.steps = evenRunSteps(time);
-      this.stepsTime = time;
-    }
-    return this.steps;
-  }
 }
 
 /**
@@ -130,7 +120,7 @@ export function solveAmplitudes(
   const k = descriptor.linear.length;
   const n = time.length;
   const { ec, es, after, model } = workspace;
-  const eventEnd = fillDampedBasis(alpha, omega0, t0, time, ec, es, block, after, workspace.runSteps(time));
+  const eventEnd = fillDampedBasis(alpha, omega0, t0, time, ec, es, block, after, workspace.runSteps.of(time));
   const scratch = workspace.scratch(k);
   const { columns } = scratch;
   descriptor.fillColumns(columns, alpha, ec, es);

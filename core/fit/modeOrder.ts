@@ -263,7 +263,9 @@ function gateOpens(set: FitSet, best: Attempt, residual: Float64Array, first: Ri
   const excess = noise > 0 ? variance / (noise * noise) : Infinity;
   const tail = set.time.subarray(set.time.length - residual.length);
   const workspace = new ModesWorkspace(residual.length);
-  const explained = (alpha: number, omega0: number, columns: 1 | 2) => explainedByTerm(tail, residual, alpha, omega0, t0, columns, workspace);
+  let total = 0;
+  for (let i = 0; i < residual.length; i++) total += residual[i] * residual[i];
+  const explained = (alpha: number, omega0: number, columns: 1 | 2) => explainedByTerm(tail, residual, total, alpha, omega0, t0, columns, workspace);
   const inVariances = (sum: number) => (variance > 0 ? sum / variance : 0);
   const ring = inVariances(Math.max(0, ...ringStarts(set, residual, first).map((r) => explained(r.alpha, r.omega0, 2))));
   const slow = inVariances(Math.max(0, ...slowStarts(set, residual, first).map((rate) => explained(rate, rate, 1))));
@@ -272,8 +274,20 @@ function gateOpens(set: FitSet, best: Attempt, residual: Float64Array, first: Ri
   return { ring: mismatch || ring > GATE_VARIANCES, slow: mismatch || slow > GATE_VARIANCES, text };
 }
 
-/** Sum of squares of the residual that e^(-alpha tau) (a C + b S) (or e^(-alpha tau) alone) removes, its amplitudes by least squares. */
-function explainedByTerm(time: Float64Array, residual: Float64Array, alpha: number, omega0: number, t0: number, columns: 1 | 2, workspace: ModesWorkspace): number {
+/**
+ * Sum of squares of the residual (`total` of them in all) that e^(-alpha tau) (a C + b S) (or e^(-alpha tau) alone)
+ * removes, its amplitudes by least squares.
+ */
+function explainedByTerm(
+  time: Float64Array,
+  residual: Float64Array,
+  total: number,
+  alpha: number,
+  omega0: number,
+  t0: number,
+  columns: 1 | 2,
+  workspace: ModesWorkspace,
+): number {
   const set: FitSet = {
     time,
     values: residual,
@@ -287,8 +301,6 @@ function explainedByTerm(time: Float64Array, residual: Float64Array, alpha: numb
   };
   const spec = columns === 2 ? modeSpec(NO_PRE_EVENT, 1, false) : modeSpec(NO_PRE_EVENT, 0, true);
   const rates: ModeRates = { rings: columns === 2 ? [{ alpha, omega0 }] : [], slowRate: alpha, t0 };
-  let total = 0;
-  for (const r of residual) total += r * r;
   const { sse } = solveModes(set, spec, rates, workspace);
   return Number.isFinite(sse) ? Math.max(0, total - sse) : 0;
 }

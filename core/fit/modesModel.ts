@@ -8,7 +8,7 @@
 // before t0 at all. Each constraint removes one linear parameter by substitution: the basis seen by the
 // solver is B T, with B the unconstrained basis and T the substitution.
 
-import { fillDampedBasis } from '../response/secondOrder';
+import { fillDampedBasis, RunSteps } from '../response/secondOrder';
 import type { FitSet } from './fitSet';
 import { LAYOUTS, type ParameterLayout } from './responseModel';
 import { gathered } from './indexVectors';
@@ -150,6 +150,8 @@ export class ModesWorkspace {
    * solver's difference steps move one rate at a time, so the other terms' bases are copied, not recomputed.
    */
   private readonly terms: { key: [number, number, number]; ec: Float64Array; es: Float64Array; after: Float64Array }[] = [];
+  /** The even runs of the set's time axis, found once per axis. */
+  private readonly runSteps = new RunSteps();
   constructor(readonly length: number) {
     this.ec = new Float64Array(length);
     this.es = new Float64Array(length);
@@ -166,7 +168,7 @@ export class ModesWorkspace {
     }
     const term = this.terms[slot];
     if (term.key[0] !== alpha || term.key[1] !== omega0 || term.key[2] !== t0) {
-      fillDampedBasis(alpha, omega0, t0, set.time, term.ec, term.es, set.block, term.after);
+      fillDampedBasis(alpha, omega0, t0, set.time, term.ec, term.es, set.block, term.after, this.runSteps.of(set.time));
       term.key = [alpha, omega0, t0];
     }
     ec.set(term.ec);

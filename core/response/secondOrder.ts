@@ -153,13 +153,27 @@ function fillPointBasis(
  * The step of each run of RECURRENCE_RUN times of the axis (the last run may be shorter) when its times rise
  * evenly, else NaN: what fillPointBasis asks of the axis, for a caller to keep (a record of 1000 values has 63 runs).
  */
-export function evenRunSteps(time: ArrayLike<number>): Float64Array {
+function evenRunSteps(time: ArrayLike<number>): Float64Array {
   const steps = new Float64Array(Math.ceil(time.length / RECURRENCE_RUN));
   for (let run = 0; run < steps.length; run++) {
     const first = run * RECURRENCE_RUN;
     steps[run] = evenStep(time, first, Math.min(time.length, first + RECURRENCE_RUN));
   }
   return steps;
+}
+
+/** evenRunSteps of the last time axis asked about, kept: a fit fills the basis on one axis for all its solves. */
+export class RunSteps {
+  private time: ArrayLike<number> | null = null;
+  private steps: Float64Array = new Float64Array(0);
+
+  of(time: ArrayLike<number>): Float64Array {
+    if (this.time !== time) {
+      this.steps = evenRunSteps(time);
+      this.time = time;
+    }
+    return this.steps;
+  }
 }
 
 /**

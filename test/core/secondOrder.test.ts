@@ -1,6 +1,6 @@
 // The second-order response: one formula through all three regimes, and its block-averaged form.
 import { describe, expect, it } from 'vitest';
-import { dampedBasis, fillDampedBasis, responseAt, coefficientsFromInitial } from '../../core/response/secondOrder';
+import { dampedBasis, fillDampedBasis, responseAt, coefficientsFromInitial, RunSteps } from '../../core/response/secondOrder';
 
 describe('dampedBasis', () => {
   it('is continuous through critical damping (no switch of formula, no 0/0)', () => {
@@ -127,5 +127,26 @@ describe('fillDampedBasis over an evenly spaced axis (the recurrence) against ea
     const es = new Float64Array(n);
     fillDampedBasis(1e5, 2e7, 0, time, ec, es);
     for (let i = 0; i < n; i++) expect(ec[i]).toBe(dampedBasis(1e5, 2e7, time[i])[0]);
+  });
+});
+
+describe('RunSteps', () => {
+  it('gives the basis fillDampedBasis finds alone, on even runs, jittered ones and short ones, and follows a new axis', () => {
+    const even = Float64Array.from({ length: 203 }, (_, i) => 1e-6 + i * 1e-8);
+    const jittered = even.map((t, i) => (i % 37 === 5 ? t + 3e-10 : t));
+    const runs = new RunSteps();
+    for (const time of [even, jittered, even.subarray(0, 18)]) {
+      for (const [alpha, omega0] of [
+        [1e5, 2e7],
+        [3e7, 2e7],
+      ]) {
+        const alone = [new Float64Array(time.length), new Float64Array(time.length)];
+        const kept = [new Float64Array(time.length), new Float64Array(time.length)];
+        fillDampedBasis(alpha, omega0, 1.3e-6, time, alone[0], alone[1]);
+        fillDampedBasis(alpha, omega0, 1.3e-6, time, kept[0], kept[1], null, undefined, runs.of(time));
+        expect(kept).toEqual(alone);
+      }
+      expect(runs.of(time)).toBe(runs.of(time));
+    }
   });
 });
