@@ -1,7 +1,7 @@
 // Builds dist/: the command line, the renderer (browser bench and window, one build), its fit worker,
 // and the Electron main process and preload.
 import { build, transform } from 'esbuild';
-import { copyFileSync, existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
@@ -18,11 +18,32 @@ const PLOTLY = at('node_modules/plotly.js-dist/plotly.js');
  */
 const NODE_REQUIRE = { js: "import { createRequire as createRequireForBundle } from 'node:module'; const require = createRequireForBundle(import.meta.url);" };
 
+/**
+ * The command line's chunks are named by their content: those of an earlier build are removed first, so that dist/
+ * (which electron-builder packs whole) holds only the chunks this build's dist/cli.js imports.
+ */
+const CHUNK_PREFIX = 'cli-';
+mkdirSync(at('dist'), { recursive: true });
+for (const name of readdirSync(at('dist'))) if (name.startsWith(CHUNK_PREFIX)) rmSync(at(`dist/${name}`));
+
 await Promise.all([
   build({
     ...common,
-    // batch's worker threads run dist/batchWorker.js, found beside dist/cli.js (main/app/batchWorkerStart.ts).
-    entryPoints: { cli: 'main/cli/index.ts', batchWorker: 'main/app/batchWorker.ts' },
+    // Each command's module is imported when it runs (main/cli/program.ts): split into chunks beside dist/cli.js,
+    // so that one command compiles only its own code.
+    entryPoints: { cli: 'main/cli/index.ts' },
+    splitting: true,
+    chunkNames: `${CHUNK_PREFIX}[name]-[hash]`,
+    outdir: 'dist',
+    platform: 'node',
+    format: 'esm',
+    target: 'node20',
+    banner: NODE_REQUIRE,
+  }),
+  build({
+    ...common,
+    // batch's worker processes run dist/batchWorker.js, found beside the chunk that starts them (main/app/batchWorkerStart.ts).
+    entryPoints: { batchWorker: 'main/app/batchWorker.ts' },
     outdir: 'dist',
     platform: 'node',
     format: 'esm',

@@ -3,19 +3,37 @@
 import { Command, CommanderError } from 'commander';
 import { EXIT, exitCodeFor, messageFor } from './errors';
 import { terminalSafe, type CliIo } from './io';
-import { registerFitCommand } from './commands/fit';
-import { registerServeCommand } from './commands/serve';
-import { registerStartCommand } from './commands/start';
-import { registerLogCommand } from './commands/log';
-import { registerReportCommand } from './commands/report';
-import { registerBatchCommand } from './commands/batch';
-import { registerCheckCommand } from './commands/check';
-import { registerParasiticsCommand } from './commands/parasitics';
-import { registerCompareCommand } from './commands/compare';
 import { VERSION } from '../version';
 import type { CommandContext, RegisterCommand } from './commandContext';
 
-const COMMANDS: RegisterCommand[] = [registerFitCommand, registerCheckCommand, registerParasiticsCommand, registerCompareCommand, registerServeCommand, registerStartCommand, registerLogCommand, registerReportCommand, registerBatchCommand];
+/**
+ * Each command's module by the name it registers, in the order help lists them. A module is imported only when
+ * its command runs (or help lists them all): `fit` then compiles and evaluates none of the server, the reports,
+ * the log or the batch.
+ */
+export const COMMANDS: ReadonlyArray<readonly [name: string, load: () => Promise<RegisterCommand>]> = [
+  ['fit', async () => (await import('./commands/fit')).registerFitCommand],
+  ['check', async () => (await import('./commands/check')).registerCheckCommand],
+  ['parasitics', async () => (await import('./commands/parasitics')).registerParasiticsCommand],
+  ['compare', async () => (await import('./commands/compare')).registerCompareCommand],
+  ['serve', async () => (await import('./commands/serve')).registerServeCommand],
+  ['start', async () => (await import('./commands/start')).registerStartCommand],
+  ['log', async () => (await import('./commands/log')).registerLogCommand],
+  ['report', async () => (await import('./commands/report')).registerReportCommand],
+  ['batch', async () => (await import('./commands/batch')).registerBatchCommand],
+];
+
+/**
+ * The commands `argv` can reach. Commander dispatches on the first argument when it names a command, and nothing
+ * of the others shows then; a first argument asking for the version is answered before anything else is read.
+ * Any other line (help, an unknown command, none) may list every command.
+ */
+export function commandsFor(argv: readonly string[]): typeof COMMANDS {
+  const first = argv[0];
+  if (first === '-V' || first === '--version') return [];
+  const named = COMMANDS.filter(([name]) => name === first);
+  return named.length ? named : COMMANDS;
+}
 
 /** Run the command line on `argv` (without node and script) and return the exit code. */
 export async function runCli(argv: string[], rawIo: CliIo): Promise<number> {
@@ -29,7 +47,8 @@ export async function runCli(argv: string[], rawIo: CliIo): Promise<number> {
     .showSuggestionAfterError(false)
     .exitOverride()
     .configureOutput({ writeOut: io.out, writeErr: io.err });
-  for (const register of COMMANDS) register(program, ctx);
+  const registers = await Promise.all(commandsFor(argv).map(([, load]) => load()));
+  for (const register of registers) register(program, ctx);
   for (const command of program.commands) {
     command.exitOverride().showSuggestionAfterError(false).configureOutput({ writeOut: io.out, writeErr: io.err });
   }
