@@ -1,38 +1,47 @@
 #!/usr/bin/env node
 // Launcher for the command line: builds dist/ on first use (npm ci runs no install scripts) and again whenever a source
-// is newer than it (a pull or an edit would otherwise run the old build), then runs it.
-import { existsSync, mkdirSync, readdirSync, rmSync, statSync } from 'node:fs';
+// changed since (a pull or an edit would otherwise run the old build), then runs it.
+import { existsSync, mkdirSync, readFileSync, rmSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));
 const BUILT = join(ROOT, 'dist', 'cli.js');
-/** The folders the bundle is built from; an installed copy without them is never rebuilt. */
-const SOURCES = ['core', 'main', 'renderer', 'build'];
-/** Pictures in the sources that the build does not read. */
-const NOT_BUILT = new Set(['screenshots']);
+const BUILD_SCRIPT = join(ROOT, 'build', 'build.mjs');
+/** Every source folder and file the build was made from, with its mtime and size (written by build/build.mjs). */
+const MANIFEST = join(ROOT, 'dist', 'sources.json');
 /** Held while one process builds, so that another waits for it instead of reading half-written files. */
 const LOCK = join(ROOT, 'dist', '.building');
 /** A lock older than this was left by a build that died: taken over. */
 const STALE_LOCK_MS = 120_000;
 const POLL_MS = 100;
 
-/** Whether any file below `dir` was changed after `time` (ms). */
-function changedAfter(dir, time) {
-  for (const entry of readdirSync(dir, { withFileTypes: true })) {
-    if (NOT_BUILT.has(entry.name)) continue;
-    const path = join(dir, entry.name);
-    const stats = statSync(path);
-    if (stats.isDirectory() ? changedAfter(path, time) : stats.mtimeMs > time) return true;
+function readManifest() {
+  try {
+    return JSON.parse(readFileSync(MANIFEST, 'utf8'));
+  } catch {
+    return null;
   }
-  return false;
 }
 
+/**
+ * Whether the build is missing or was made from other sources: a file edited in place changes its own mtime, one
+ * added or removed its folder's (a stat of each entry; no folder is read). Without the manifest (a build that
+ * failed, or one older than it) the build is made again when its script is here; an installed copy without its
+ * sources is never rebuilt.
+ */
 function needsBuild() {
   if (!existsSync(BUILT)) return true;
-  if (!SOURCES.every((dir) => existsSync(join(ROOT, dir)))) return false;
-  const builtAt = statSync(BUILT).mtimeMs;
-  return SOURCES.some((dir) => changedAfter(join(ROOT, dir), builtAt));
+  const manifest = readManifest();
+  if (!manifest) return existsSync(BUILD_SCRIPT);
+  if (!manifest.folders.every((folder) => existsSync(join(ROOT, folder)))) return false;
+  for (const [path, [mtimeMs, size]] of Object.entries(manifest.entries)) {
+    // ROOT ends in a separator and the paths use '/', which every platform reads: path.join's normalising of these
+    // hundreds of paths cost about as much as their stats. A missing entry is a change, not an error.
+    const stats = statSync(ROOT + path, { throwIfNoEntry: false });
+    if (stats?.mtimeMs !== mtimeMs || stats.size !== size) return true;
+  }
+  return false;
 }
 
 const sleep = (ms) => new Promise((done) => setTimeout(done, ms));
@@ -60,7 +69,7 @@ async function build() {
     }
   }
   try {
-    await import(pathToFileURL(join(ROOT, 'build', 'build.mjs')).href);
+    await import(pathToFileURL(BUILD_SCRIPT).href);
   } finally {
     rmSync(LOCK, { recursive: true, force: true });
   }

@@ -2,7 +2,7 @@
 // and the Electron main process and preload.
 import { build, transform } from 'esbuild';
 import { copyFileSync, existsSync, mkdirSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
-import { join } from 'node:path';
+import { join, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 // Paths are taken from the repository root, so the build runs from any working folder.
@@ -25,6 +25,28 @@ const NODE_REQUIRE = { js: "import { createRequire as createRequireForBundle } f
 const CHUNK_PREFIX = 'cli-';
 mkdirSync(at('dist'), { recursive: true });
 for (const name of readdirSync(at('dist'))) if (name.startsWith(CHUNK_PREFIX)) rmSync(at(`dist/${name}`));
+
+/**
+ * What the build is made from, as bin/ringbench.js compares it: every folder and file below these, with its mtime and
+ * size. Taken before the bundles are, so that a source edited while they build differs from its entry; written
+ * last, so that a build that failed leaves none (and the launcher builds again).
+ */
+const SOURCES = ['core', 'main', 'renderer', 'build'];
+/** Pictures in the sources that the build does not read. */
+const NOT_BUILT = new Set(['screenshots']);
+const MANIFEST = at('dist/sources.json');
+rmSync(MANIFEST, { force: true });
+const entries = {};
+const record = (path) => {
+  const { mtimeMs, size } = statSync(at(path));
+  entries[path] = [mtimeMs, size];
+};
+for (const folder of SOURCES) {
+  record(folder);
+  for (const path of readdirSync(at(folder), { recursive: true })) {
+    if (!path.split(sep).some((part) => NOT_BUILT.has(part))) record(`${folder}/${path.split(sep).join('/')}`);
+  }
+}
 
 await Promise.all([
   build({
@@ -80,6 +102,7 @@ await Promise.all([
   }),
   copyStatic(),
 ]);
+writeFileSync(MANIFEST, JSON.stringify({ folders: SOURCES, entries }));
 
 /** The page, its styles, and plotly as its own script file (minified once, then kept while unchanged). */
 async function copyStatic() {

@@ -1,7 +1,7 @@
-// bin/ringbench.js builds dist/ on first use and again when a source is newer than the build (after a pull or an edit),
-// never otherwise; processes started together while it builds wait for that one build.
+// bin/ringbench.js builds dist/ on first use and again when a source changed since the build (edited in place, added,
+// removed: after a pull or an edit), never otherwise; processes started together while it builds wait for that one build.
 import { spawn, spawnSync } from 'node:child_process';
-import { copyFileSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statSync, symlinkSync, utimesSync } from 'node:fs';
+import { appendFileSync, copyFileSync, cpSync, mkdirSync, mkdtempSync, readFileSync, renameSync, rmSync, statSync, symlinkSync, utimesSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -13,44 +13,80 @@ const SLOW = 180_000;
 let copy: string;
 const version = JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')).version as string;
 
-/** A checkout of the repository in a temporary folder: the launcher and build script copied, the sources linked. */
+/** A checkout of the repository in a temporary folder: the launcher, build script and sources copied (the tests change them), the packages linked. */
 beforeAll(() => {
   copy = mkdtempSync(join(tmpdir(), 'ringbench-launcher-'));
   for (const dir of ['bin', 'build']) mkdirSync(join(copy, dir));
   copyFileSync(join(ROOT, 'bin', 'ringbench.js'), join(copy, 'bin', 'ringbench.js'));
   copyFileSync(join(ROOT, 'build', 'build.mjs'), join(copy, 'build', 'build.mjs'));
   copyFileSync(join(ROOT, 'package.json'), join(copy, 'package.json'));
-  for (const dir of ['core', 'main', 'renderer', 'node_modules']) symlinkSync(join(ROOT, dir), join(copy, dir), 'dir');
+  for (const dir of ['core', 'main', 'renderer']) cpSync(join(ROOT, dir), join(copy, dir), { recursive: true });
+  symlinkSync(join(ROOT, 'node_modules'), join(copy, 'node_modules'), 'dir');
 });
 afterAll(() => rmSync(copy, { recursive: true, force: true }));
 
-const built = () => join(copy, 'dist', 'cli.js');
-const run = () => spawnSync(process.execPath, [join(copy, 'bin', 'ringbench.js'), '--version'], { encoding: 'utf8' });
+const at = (path: string) => join(copy, path);
+/** When the build last finished: it writes its list of sources last. */
+const builtAt = () => statSync(at('dist/sources.json')).mtimeMs;
+const run = () => spawnSync(process.execPath, [at('bin/ringbench.js'), '--version'], { encoding: 'utf8' });
+
+/** Runs the command line after `change`: whether it built again; it runs, and a second run builds nothing. */
+function rebuildsAfter(change: () => void): boolean {
+  const before = builtAt();
+  change();
+  const first = run();
+  expect(first.status).toBe(0);
+  expect(first.stdout.trim()).toBe(version);
+  const after = builtAt();
+  expect(run().status).toBe(0);
+  expect(builtAt()).toBe(after);
+  return after !== before;
+}
 
 describe('the command-line launcher', () => {
-  it('builds on first use, rebuilds when a source is newer than the build, and not otherwise', () => {
+  it('builds on first use, and not again while nothing changed', () => {
     const first = run();
     expect(first.status).toBe(0);
     expect(first.stdout.trim()).toBe(version);
-    // The build made an hour before the sources last changed: a pull or an edit since.
-    const hourAgo = new Date(Date.now() - 3_600_000);
-    utimesSync(built(), hourAgo, hourAgo);
-    expect(run().status).toBe(0);
-    const rebuiltAt = statSync(built()).mtimeMs;
-    expect(rebuiltAt).toBeGreaterThan(hourAgo.getTime() + 60_000);
-    expect(run().status).toBe(0);
-    expect(statSync(built()).mtimeMs).toBe(rebuiltAt);
+    expect(rebuildsAfter(() => {})).toBe(false);
+    // Only what the build reads counts: the build's own output being touched is no change.
+    expect(rebuildsAfter(() => utimesSync(at('dist/cli.js'), new Date(0), new Date(0)))).toBe(false);
+  }, SLOW);
+
+  it('builds again after a source is edited in place, even to the same size', () => {
+    expect(rebuildsAfter(() => appendFileSync(at('core/quantity.ts'), '\n'))).toBe(true);
+    const hourAhead = new Date(Date.now() + 3_600_000);
+    expect(rebuildsAfter(() => utimesSync(at('main/version.ts'), hourAhead, hourAhead))).toBe(true);
+  }, SLOW);
+
+  it('builds again after a source is added or removed', () => {
+    expect(rebuildsAfter(() => writeFileSync(at('main/cli/added.ts'), '// a module no one imports yet\n'))).toBe(true);
+    expect(rebuildsAfter(() => rmSync(at('main/cli/added.ts')))).toBe(true);
+    expect(rebuildsAfter(() => mkdirSync(at('core/added')))).toBe(true);
+  }, SLOW);
+
+  it('builds again when the build left no list of its sources (it failed, or is older than the list)', () => {
+    expect(rebuildsAfter(() => rmSync(at('dist/sources.json')))).toBe(true);
+  }, SLOW);
+
+  it('never builds a copy without its sources', () => {
+    renameSync(at('renderer'), at('renderer-away'));
+    try {
+      expect(rebuildsAfter(() => appendFileSync(at('core/quantity.ts'), '\n'))).toBe(false);
+    } finally {
+      renameSync(at('renderer-away'), at('renderer'));
+    }
   }, SLOW);
 
   it('a start while another process holds the build lock waits for it, then runs', async () => {
-    mkdirSync(join(copy, 'dist', '.building'));
-    const child = spawn(process.execPath, [join(copy, 'bin', 'ringbench.js'), '--version'], { stdio: ['ignore', 'pipe', 'pipe'] });
+    mkdirSync(at('dist/.building'));
+    const child = spawn(process.execPath, [at('bin/ringbench.js'), '--version'], { stdio: ['ignore', 'pipe', 'pipe'] });
     let out = '';
     child.stdout.on('data', (d: Buffer) => (out += d.toString()));
     await new Promise((done) => setTimeout(done, 1000));
     // Still waiting: nothing printed while the lock is held.
     expect(out).toBe('');
-    rmSync(join(copy, 'dist', '.building'), { recursive: true });
+    rmSync(at('dist/.building'), { recursive: true });
     const code = await new Promise<number | null>((done) => child.on('close', done));
     expect(code).toBe(0);
     expect(out.trim()).toBe(version);
