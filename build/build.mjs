@@ -19,12 +19,11 @@ const PLOTLY = at('node_modules/plotly.js-dist/plotly.js');
 const NODE_REQUIRE = { js: "import { createRequire as createRequireForBundle } from 'node:module'; const require = createRequireForBundle(import.meta.url);" };
 
 /**
- * The command line's chunks are named by their content: those of an earlier build are removed first, so that dist/
- * (which electron-builder packs whole) holds only the chunks this build's dist/cli.js imports.
+ * The command line's chunks are named by their content: those of an earlier build are removed once this one is
+ * written (a command started meanwhile still finds the unchanged ones), so that dist/, which electron-builder packs
+ * whole, holds only the chunks this build's dist/cli.js imports.
  */
 const CHUNK_PREFIX = 'cli-';
-mkdirSync(at('dist'), { recursive: true });
-for (const name of readdirSync(at('dist'))) if (name.startsWith(CHUNK_PREFIX)) rmSync(at(`dist/${name}`));
 
 /**
  * What the build is made from, as bin/ringbench.js compares it: every folder and file below these, with its mtime and
@@ -48,7 +47,7 @@ for (const folder of SOURCES) {
   }
 }
 
-await Promise.all([
+const [cli] = await Promise.all([
   build({
     ...common,
     // Each command's module is imported when it runs (main/cli/program.ts): split into chunks beside dist/cli.js,
@@ -56,6 +55,7 @@ await Promise.all([
     entryPoints: { cli: 'main/cli/index.ts' },
     splitting: true,
     chunkNames: `${CHUNK_PREFIX}[name]-[hash]`,
+    metafile: true,
     outdir: 'dist',
     platform: 'node',
     format: 'esm',
@@ -102,6 +102,9 @@ await Promise.all([
   }),
   copyStatic(),
 ]);
+for (const name of readdirSync(at('dist'))) {
+  if (name.startsWith(CHUNK_PREFIX) && !(`dist/${name}` in cli.metafile.outputs)) rmSync(at(`dist/${name}`));
+}
 writeFileSync(MANIFEST, JSON.stringify({ folders: SOURCES, entries }));
 
 /** The page, its styles, and plotly as its own script file (minified once, then kept while unchanged). */

@@ -1,7 +1,7 @@
 // bin/ringbench.js builds dist/ on first use and again when a source changed since the build (edited in place, added,
 // removed: after a pull or an edit), never otherwise; processes started together while it builds wait for that one build.
 import { spawn, spawnSync } from 'node:child_process';
-import { appendFileSync, copyFileSync, cpSync, mkdirSync, mkdtempSync, readFileSync, renameSync, rmSync, statSync, symlinkSync, utimesSync, writeFileSync } from 'node:fs';
+import { appendFileSync, copyFileSync, cpSync, existsSync, mkdirSync, mkdtempSync, readFileSync, renameSync, rmSync, statSync, symlinkSync, utimesSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -54,7 +54,10 @@ describe('the command-line launcher', () => {
   }, SLOW);
 
   it('builds again after a source is edited in place, even to the same size', () => {
+    // A chunk of an earlier build: dist/ keeps only the chunks of the latest.
+    writeFileSync(at('dist/cli-chunk-EARLIER.js'), '');
     expect(rebuildsAfter(() => appendFileSync(at('core/quantity.ts'), '\n'))).toBe(true);
+    expect(existsSync(at('dist/cli-chunk-EARLIER.js'))).toBe(false);
     const hourAhead = new Date(Date.now() + 3_600_000);
     expect(rebuildsAfter(() => utimesSync(at('main/version.ts'), hourAhead, hourAhead))).toBe(true);
   }, SLOW);
