@@ -26,8 +26,8 @@ function readManifest() {
 
 /**
  * Whether the build is missing or was made from other sources: a file edited in place changes its own mtime, one
- * added or removed its folder's (a stat of each entry; no folder is read). Without the manifest (a build that
- * failed, or one older than it) the build is made again when its script is here; an installed copy without its
+ * added or removed its folder's (a stat of each entry; no folder is read). Without the manifest (a first build that
+ * failed, or a build older than it) the build is made again when its script is here; an installed copy without its
  * sources is never rebuilt.
  */
 function needsBuild() {

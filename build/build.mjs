@@ -27,14 +27,14 @@ const CHUNK_PREFIX = 'cli-';
 
 /**
  * What the build is made from, as bin/ringbench.js compares it: every folder and file below these, with its mtime and
- * size. Taken before the bundles are, so that a source edited while they build differs from its entry; written
- * last, so that a build that failed leaves none (and the launcher builds again).
+ * size. Taken before the bundles are, so that a source edited while they build differs from its entry; written last.
+ * An earlier build's list stays meanwhile: a command started during the build does not start a second one, and after
+ * a build that failed the launcher compares the sources with the last build that succeeded (none: it builds).
  */
 const SOURCES = ['core', 'main', 'renderer', 'build'];
 /** Pictures in the sources that the build does not read. */
 const NOT_BUILT = new Set(['screenshots']);
 const MANIFEST = at('dist/sources.json');
-rmSync(MANIFEST, { force: true });
 const entries = {};
 const record = (path) => {
   const { mtimeMs, size } = statSync(at(path));

@@ -68,7 +68,7 @@ describe('the command-line launcher', () => {
     expect(rebuildsAfter(() => mkdirSync(at('core/added')))).toBe(true);
   }, SLOW);
 
-  it('builds again when the build left no list of its sources (it failed, or is older than the list)', () => {
+  it('builds again when no list of its sources is left (a first build that failed, or one older than the list)', () => {
     expect(rebuildsAfter(() => rmSync(at('dist/sources.json')))).toBe(true);
   }, SLOW);
 
