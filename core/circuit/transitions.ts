@@ -1,6 +1,7 @@
 // Step-response transition metrics with the IEEE Std 181-2011 definitions (clause numbers from
 // memory): reference-level instants, rise time, overshoot and undershoot, settling time, ring frequency.
 import { CircuitInputError } from './errors';
+import { firstAtOrAfter } from './peakFit';
 import { histogramStateLevels, type StateLevelMethod } from './stateLevels';
 
 export interface TransitionReference {
@@ -76,10 +77,8 @@ export function transitionMetrics(
     return result;
   }
   const n = time.length;
-  let start = 0;
-  if (reference?.eventTime !== undefined) {
-    while (start < n - 1 && time[start] < reference.eventTime) start++;
-  }
+  // The time axis is ascending: the first sample at or after the event is found by bisection, not a walk over the head.
+  const start = reference?.eventTime === undefined ? 0 : Math.min(n - 1, firstAtOrAfter(time, reference.eventTime));
   // Every reader below starts at the sample before the event's or later.
   const d: StepFraction = { values, initial: levels.initial, amplitude };
 
@@ -98,7 +97,9 @@ export function transitionMetrics(
   if (t10 === null) warnings.push('the 10 % reference level is not crossed before the 50 % instant: the record starts inside the transition.');
 
   const i100 = firstRisingCrossing(d, 1, i50, n);
-  const extremes = i100 === null ? null : extremesFrom(d, i100);
+  const noise = settledNoise(d, i50);
+  const noisePeak = noise * Math.sqrt(2 * Math.log(n));
+  const extremes = i100 === null ? null : extremesFrom(d, i100, noisePeak);
   if (extremes === null) {
     result.overshoot = 0;
     result.undershoot = 0;
@@ -112,17 +113,21 @@ export function transitionMetrics(
     }
   }
 
-  result.settlingTime2 = settlingTime(time, d, i50, t50, 0.02);
-  result.settlingTime5 = settlingTime(time, d, i50, t50, 0.05);
+  // The last sample outside each band, from i50 on: the pass from i100 found those after it; only a ring that
+  // never leaves a band after i100 sends the search back over [i50, i100). None beyond 2 % means none beyond 5 %.
+  const scanned = i100 ?? n;
+  const last2 = extremes && extremes.beyond2 >= 0 ? extremes.beyond2 : lastBeyond(d, 0.02, i50, scanned);
+  const last5 = extremes && extremes.beyond5 >= 0 ? extremes.beyond5 : lastBeyond(d, 0.05, i50, Math.min(scanned, last2 + 1));
+  result.settlingTime2 = settlingTime(time, d, last2, t50, 0.02);
+  result.settlingTime5 = settlingTime(time, d, last5, t50, 0.05);
   if (result.settlingTime2 === null) warnings.push('the waveform does not stay within 2 % of the final level before the record ends.');
-  const noise = settledNoise(d, i50);
   if (noise > 0.02 / 3) {
     warnings.push(
       `the settled noise is ${(100 * noise).toFixed(2)} % rms of the step, so noise alone leaves the 2 % band now and then: ` +
         'the 2 % settling time reads late.',
     );
   }
-  if (i100 !== null && extremes !== null) result.ringFrequency = ringFrequency(time, d, i100, noise, extremes.largest);
+  if (i100 !== null && extremes !== null) result.ringFrequency = ringFrequency(time, d, i100, noisePeak, extremes);
   return result;
 }
 
@@ -143,14 +148,31 @@ function fractionAt(d: StepFraction, i: number): number {
   return (d.values[i] - d.initial) / d.amplitude;
 }
 
-/** From sample i100 on: the first largest and first smallest sample, and the largest |d - 1|. */
-function extremesFrom(d: StepFraction, i100: number): { peak: number; trough: number; largest: number } {
+/** What the one pass from the final level's first crossing (sample i100) to the record's end finds. */
+interface AfterCrossing {
+  /** The first largest and first smallest sample. */
+  peak: number;
+  trough: number;
+  /** The largest |d - 1|. */
+  largest: number;
+  /** The last sample with |d - 1| beyond 2 % and beyond 5 % (-1 for none): the settling times' ends. */
+  beyond2: number;
+  beyond5: number;
+  /** The last sample with |d - 1| beyond the noise peak (-1 for none): no final-level crossing is counted after it. */
+  beyondNoise: number;
+}
+
+/** From sample i100 on, in one pass: the extremes, and the last samples outside the settling bands and the noise peak. */
+function extremesFrom(d: StepFraction, i100: number, noisePeak: number): AfterCrossing {
   const { values, initial, amplitude } = d;
   let peak = i100;
   let trough = i100;
   let high = fractionAt(d, i100);
   let low = high;
   let largest = 0;
+  let beyond2 = -1;
+  let beyond5 = -1;
+  let beyondNoise = -1;
   for (let i = i100; i < values.length; i++) {
     const di = (values[i] - initial) / amplitude;
     if (di > high) {
@@ -161,9 +183,22 @@ function extremesFrom(d: StepFraction, i100: number): { peak: number; trough: nu
       trough = i;
       low = di;
     }
-    largest = Math.max(largest, Math.abs(di - 1));
+    const off = Math.abs(di - 1);
+    largest = Math.max(largest, off);
+    if (off > 0.02) {
+      beyond2 = i;
+      if (off > 0.05) beyond5 = i;
+    }
+    if (off > noisePeak) beyondNoise = i;
   }
-  return { peak, trough, largest };
+  return { peak, trough, largest, beyond2, beyond5, beyondNoise };
+}
+
+/** The last sample in [from, to) with |d - 1| beyond band, or -1. */
+function lastBeyond(d: StepFraction, band: number, from: number, to: number): number {
+  const { values, initial, amplitude } = d;
+  for (let i = to - 1; i >= from; i--) if (Math.abs((values[i] - initial) / amplitude - 1) > band) return i;
+  return -1;
 }
 
 /** RMS of d - 1 over the last fifth of the record (not before sample from): the settled noise. */
@@ -211,17 +246,9 @@ function crossingTime(time: ArrayLike<number>, d: StepFraction, i: number, level
   return time[i - 1] + f * (time[i] - time[i - 1]);
 }
 
-function settlingTime(time: ArrayLike<number>, d: StepFraction, i50: number, t50: number, band: number): number | null {
-  const { values, initial, amplitude } = d;
-  const n = values.length;
-  let last = -1;
-  for (let i = n - 1; i >= i50; i--) {
-    if (Math.abs((values[i] - initial) / amplitude - 1) > band) {
-      last = i;
-      break;
-    }
-  }
-  if (last === n - 1) return null;
+/** The settling time from t50, given the last sample outside the band (-1 for none): null when that is the record's last. */
+function settlingTime(time: ArrayLike<number>, d: StepFraction, last: number, t50: number, band: number): number | null {
+  if (last === d.values.length - 1) return null;
   if (last < 0) return 0;
   const atLast = fractionAt(d, last);
   const target = atLast > 1 ? 1 + band : 1 - band;
@@ -235,12 +262,13 @@ function settlingTime(time: ArrayLike<number>, d: StepFraction, i50: number, t50
  * passed. Successive crossings are half a ring period apart. The threshold is 2 % of the largest
  * excursion past the final level or the noise peak sqrt(2 ln N) times the settled noise RMS (the
  * expected largest of N Gaussian samples), whichever is larger;
- * an excursion under twice the noise peak is not taken for a ring. `largest` is max |d - 1| from i100 on.
+ * an excursion under twice the noise peak is not taken for a ring. From the pass after i100: `largest`, max |d - 1|
+ * from i100 on, and `beyondNoise`, the last sample beyond the noise peak (hence the threshold): no crossing is
+ * counted after it, so the count stops there.
  */
-function ringFrequency(time: ArrayLike<number>, d: StepFraction, i100: number, settled: number, largest: number): number | null {
+function ringFrequency(time: ArrayLike<number>, d: StepFraction, i100: number, noisePeak: number, after: Pick<AfterCrossing, 'largest' | 'beyondNoise'>): number | null {
   const { values, initial, amplitude } = d;
-  const n = values.length;
-  const noisePeak = settled * Math.sqrt(2 * Math.log(n));
+  const { largest, beyondNoise } = after;
   if (largest < 2 * noisePeak) return null;
   const h = Math.max(CROSSING_HYSTERESIS * largest, noisePeak);
   const crossings: Crossing[] = [];
@@ -251,7 +279,7 @@ function ringFrequency(time: ArrayLike<number>, d: StepFraction, i100: number, s
   let lastChange = i100;
   let lobe = largest;
   let above = fractionAt(d, i100) - 1 >= 0;
-  for (let i = i100 + 1; i < n; i++) {
+  for (let i = i100 + 1; i <= beyondNoise; i++) {
     const e = (values[i] - initial) / amplitude - 1;
     if (e >= 0 !== above) {
       above = !above;
