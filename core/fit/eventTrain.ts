@@ -192,18 +192,38 @@ function noiseModel(values: ArrayLike<number>): { sigma: number; independentShar
   const stretch = Math.max(NOISE_STRETCH, Math.floor(values.length / 32));
   const headLength = Math.max(HEAD_MIN, Math.floor(values.length * HEAD_SHARE));
   if (stretch > values.length) return { sigma: fromDifferences, independentShare: 1 };
-  // One room holds each stretch's copy, then the head's: fresh memory costs its first touch, and a copy each would add up to the record.
+  // One room holds the head's copy, then each stretch's: fresh memory costs its first touch, and a copy each would add up to the record.
   const room = new Float64Array(Math.max(stretch, Math.min(headLength, values.length)));
-  const spreads: number[] = [];
-  for (let from = 0; from + stretch <= values.length; from += stretch) {
-    spreads.push(robustSpread(stretchOf(values, from, from + stretch), room));
-  }
   // The record's head (a pre-trigger stretch) is quiet where a train rings throughout the rest.
   const head = robustSpread(stretchOf(values, 0, headLength), room);
-  spreads.sort((a, b) => a - b);
-  const quiet = Math.min(head, spreads[Math.floor(spreads.length * QUIET_QUANTILE)]);
-  const sigma = Math.max(fromDifferences, Math.min(quiet, QUIET_NOISE_CAP * fromDifferences));
+  const ceiling = Math.min(head, QUIET_NOISE_CAP * fromDifferences);
+  const sigma = Math.max(fromDifferences, Math.min(ceiling, quietSpread(values, stretch, room, fromDifferences, ceiling)));
   return { sigma, independentShare: sigma > 0 ? Math.min(1, (fromDifferences / sigma) ** 2) : 1 };
+}
+
+/**
+ * The spread of the stretch at QUIET_QUANTILE among the record's stretches, as far as noiseModel can tell it apart:
+ * sigma = max(floor, min(ceiling, quantile)) only reads it between the two. So the stretches are read in turn until
+ * the count decides: enough at or under the floor, and the floor stands for it (the sigma is the floor); too few left
+ * to fall under the ceiling, and the ceiling does (the sigma is the ceiling). A ceiling at or under the floor reads
+ * none. The same sigma as from every stretch, for finite samples (a channel's): their spreads are never NaN, so they sort.
+ */
+function quietSpread(values: ArrayLike<number>, stretch: number, room: Float64Array<ArrayBuffer>, floor: number, ceiling: number): number {
+  if (!(ceiling > floor)) return ceiling;
+  const count = Math.floor(values.length / stretch);
+  const rank = Math.floor(count * QUIET_QUANTILE);
+  const spreads: number[] = [];
+  let atFloor = 0;
+  let underCeiling = 0;
+  for (let from = 0; from + stretch <= values.length; from += stretch) {
+    const spread = robustSpread(stretchOf(values, from, from + stretch), room);
+    spreads.push(spread);
+    if (spread <= floor && ++atFloor > rank) return floor;
+    if (spread < ceiling) underCeiling++;
+    if (underCeiling + count - spreads.length <= rank) return ceiling;
+  }
+  spreads.sort((a, b) => a - b);
+  return spreads[rank];
 }
 
 /** A turning point counts once the record has come back from it by this many noise levels. */
