@@ -250,7 +250,9 @@ function bisect(f: (t: number) => number, lo: number, hi: number): number {
 
 function shapeMetrics(s: Shape): Metrics {
   const points = criticalPoints(s);
-  const d = points.map((t) => level(s, t));
+  // The natural part at each critical point, found once for the levels and both settling bands.
+  const x = points.map((t) => natural(s, t));
+  const d = x.map((v) => 1 + v / s.step);
   /**
    * Rising crossings of a level in time order (one per monotone segment at most, each inside its segment), found
    * one at a time: the caller stops at the one it needs, and a ring crosses 0.9 and 1 again every period.
@@ -278,8 +280,8 @@ function shapeMetrics(s: Shape): Metrics {
     riseTime: t10 !== null && t90 !== null ? t90 - t10 : null,
     overshoot,
     peakTime,
-    settling2: settling(s, points, 0.02),
-    settling5: settling(s, points, 0.05),
+    settling2: settling(s, points, x, 0.02),
+    settling5: settling(s, points, x, 0.05),
   };
 }
 
@@ -298,12 +300,11 @@ function lastBefore(times: Iterable<number>, limit: number): number | null {
   return last;
 }
 
-/** The last instant where |x| equals band |step|: x is monotone between critical points. */
-function settling(s: Shape, points: number[], band: number): number {
+/** The last instant where |x| equals band |step|: x (`atPoints` at the critical points) is monotone between them. */
+function settling(s: Shape, points: number[], atPoints: number[], band: number): number {
   const edge = band * Math.abs(s.step);
   for (let i = points.length - 2; i >= 0; i--) {
-    const x = natural(s, points[i]);
-    if (Math.abs(x) > edge) return bisect((t) => Math.abs(natural(s, t)) - edge, points[i], points[i + 1]);
+    if (Math.abs(atPoints[i]) > edge) return bisect((t) => Math.abs(natural(s, t)) - edge, points[i], points[i + 1]);
   }
   return 0;
 }
