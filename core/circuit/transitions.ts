@@ -46,7 +46,7 @@ const CROSSING_HYSTERESIS = 0.02;
  * Metrics of one transition. Without `reference` the state levels come from the histogram mode
  * method. Where several crossings of a reference level exist, the 10 % instant is the last one
  * before the 50 % instant and the 90 % instant the first one after it (our choice; the standard
- * asks that the choice be stated).
+ * asks that the choice be stated). The time axis ascends, as a channel's does.
  */
 export function transitionMetrics(
   time: ArrayLike<number>,
