@@ -54,12 +54,16 @@ interface Shape {
   step: number;
 }
 
-interface Metrics {
+/** The settling times of a shape, s from t0: all a shape moved by a standard error is read for. */
+interface Settling {
+  settling2: number;
+  settling5: number;
+}
+
+interface Metrics extends Settling {
   riseTime: number | null;
   overshoot: number;
   peakTime: number | null;
-  settling2: number;
-  settling5: number;
 }
 
 /**
@@ -86,8 +90,9 @@ export function modelTransitions(fit: ModelFitInput): ModelTransitionsResult {
   const rho = correlationOf(fit.correlation, 'alpha', 'omega0');
   const warnings: string[] = [];
   // Each metric reads the same four moved shapes: their metrics are found once.
-  const nudged = sa === null || sw === null ? null : movedMetrics(shape, DIFF_STEP * shape.alpha, DIFF_STEP * shape.omega0);
-  const spread = sa === null || sw === null ? null : movedMetrics(shape, sa, sw);
+  const nudged = sa === null || sw === null ? null : moved(shape, DIFF_STEP * shape.alpha, DIFF_STEP * shape.omega0, shapeMetrics);
+  // The shapes a standard error away are read for their settling times only: their crossings are not searched.
+  const spread = sa === null || sw === null ? null : moved(shape, sa, sw, shapeSettling);
   const errors = (pick: (m: Metrics) => number | null): number | null => {
     if (sa === null || sw === null || nudged === null) return null;
     const ga = difference(pick, nudged.alphaUp, nudged.alphaDown, DIFF_STEP * shape.alpha);
@@ -100,7 +105,7 @@ export function modelTransitions(fit: ModelFitInput): ModelTransitionsResult {
    * standard error of alpha or omega0 makes the linear standard error an understatement, so the
    * standard error is widened to the largest move seen within one standard error (never a tight wrong number).
    */
-  const settlingError = (pick: (m: Metrics) => number, band: string, se: number | null): number | null => {
+  const settlingError = (pick: (m: Settling) => number, band: string, se: number | null): number | null => {
     if (spread === null || se === null) return se;
     const largest = Math.max(...[spread.alphaUp, spread.alphaDown, spread.omega0Up, spread.omega0Down].map((m) => Math.abs(pick(m) - pick(base))));
     if (!(largest > 3 * se + 1e-12 * pick(base))) return se;
@@ -152,20 +157,20 @@ function correlationOf(c: ModelFitInput['correlation'], first: string, second: s
   return Number.isFinite(r) ? Math.max(-1, Math.min(1, r)) : 0;
 }
 
-/** The metrics of the shape with alpha, then omega0, moved up and down. */
-interface Moved {
-  alphaUp: Metrics;
-  alphaDown: Metrics;
-  omega0Up: Metrics;
-  omega0Down: Metrics;
+/** What `measure` finds of the shape with alpha, then omega0, moved up and down. */
+interface Moved<T> {
+  alphaUp: T;
+  alphaDown: T;
+  omega0Up: T;
+  omega0Down: T;
 }
 
-function movedMetrics(s: Shape, byAlpha: number, byOmega0: number): Moved {
+function moved<T>(s: Shape, byAlpha: number, byOmega0: number, measure: (s: Shape) => T): Moved<T> {
   return {
-    alphaUp: shapeMetrics({ ...s, alpha: s.alpha + byAlpha }),
-    alphaDown: shapeMetrics({ ...s, alpha: s.alpha - byAlpha }),
-    omega0Up: shapeMetrics({ ...s, omega0: s.omega0 + byOmega0 }),
-    omega0Down: shapeMetrics({ ...s, omega0: s.omega0 - byOmega0 }),
+    alphaUp: measure({ ...s, alpha: s.alpha + byAlpha }),
+    alphaDown: measure({ ...s, alpha: s.alpha - byAlpha }),
+    omega0Up: measure({ ...s, omega0: s.omega0 + byOmega0 }),
+    omega0Down: measure({ ...s, omega0: s.omega0 - byOmega0 }),
   };
 }
 
@@ -248,6 +253,16 @@ function bisect(f: (t: number) => number, lo: number, hi: number): number {
   return (lo + hi) / 2;
 }
 
+/** The settling times of a shape alone. */
+function shapeSettling(s: Shape): Settling {
+  const points = criticalPoints(s);
+  return settlingAt(s, points, points.map((t) => natural(s, t)));
+}
+
+function settlingAt(s: Shape, points: number[], atPoints: number[]): Settling {
+  return { settling2: settling(s, points, atPoints, 0.02), settling5: settling(s, points, atPoints, 0.05) };
+}
+
 function shapeMetrics(s: Shape): Metrics {
   const points = criticalPoints(s);
   // The natural part at each critical point, found once for the levels and both settling bands.
@@ -280,8 +295,7 @@ function shapeMetrics(s: Shape): Metrics {
     riseTime: t10 !== null && t90 !== null ? t90 - t10 : null,
     overshoot,
     peakTime,
-    settling2: settling(s, points, x, 0.02),
-    settling5: settling(s, points, x, 0.05),
+    ...settlingAt(s, points, x),
   };
 }
 
