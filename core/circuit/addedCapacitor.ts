@@ -440,7 +440,7 @@ function checkDamping(measurements: readonly AddedCapacitorMeasurement[], bare: 
 function checkCaptures(measurements: readonly AddedCapacitorMeasurement[], options: AddedCapacitorOptions): string[] {
   return measurements.flatMap((m, i) => {
     const setup: RingCaptureSetup = { bandwidth: options.bandwidth, sampleInterval: m.sampleInterval ?? options.sampleInterval };
-    return checkRingCapture(m.frequency.value, setup, `capture ${i + 1}:`);
+    return checkRingCapture(m.frequency.value, setup, `${m.label ?? `capture ${i + 1}`}:`);
   });
 }
 

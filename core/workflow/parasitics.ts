@@ -16,6 +16,7 @@ import { evaluateCautions, type CautionInputs } from '../safety/evaluateCautions
 import { fitChannel } from './measure';
 import { runSetupChecks, setupRefusal, type SetupCheck } from './setupChecks';
 import type { FitSummary } from '../report/fitSummary';
+import { isThinSamplingWarning } from '../fit/fitWarnings';
 
 export interface ParasiticsCapture {
   /** Name as people see it. */
@@ -122,7 +123,7 @@ export function measureParasiticsOutcome(request: ParasiticsRequest, progress: (
     edgeCheck: request.edge ? edgeCrossCheck(request.edge, extraction.L) : null,
     snubber,
     cautions,
-    warnings: [...implausibleLoop(extraction), ...extraction.warnings, ...fits.flatMap((f) => f.warnings.map((w) => `${f.file}: ${w}`))],
+    warnings: [...implausibleLoop(extraction), ...extraction.warnings, ...fits.flatMap(fitWarningsBeyondExtraction)],
     notes: extraction.notes,
   };
   if (result.edgeCheck) result.notes.push(...result.edgeCheck.notes);
@@ -138,6 +139,14 @@ function refuseUnheldCapacitance(captures: readonly ParasiticsCapture[]): void {
     const beyond = capture.addedC === 0 ? null : outOfReach('C', capture.addedC);
     if (beyond) throw new UsageError(`${capture.file}: the added capacitance ${beyond}; a value without a prefix is in farads (470 pF is 470p)`);
   }
+}
+
+/**
+ * A capture's fit warnings, named by its file, less the thin-sampling one: the extraction states it for every capture, with the
+ * sample interval and against f0, which is at or above the ring frequency the fit's warning counts with.
+ */
+function fitWarningsBeyondExtraction(fit: FitSummary): string[] {
+  return fit.warnings.filter((w) => !isThinSamplingWarning(w)).map((w) => `${fit.file}: ${w}`);
 }
 
 /** The first of L_p, C_p and R_p beyond what a bench circuit holds, as the first warning (as a fit's implausible part is). */

@@ -14,9 +14,9 @@ const ADDED = 470e-12;
 const STEP = 48;
 
 /** A 48 V step into the series loop with node capacitance c, 2000 samples every 200 ps, 0.5 V noise (seeded): invented data. */
-function capture(c: number, seed: number): Channel {
+function capture(c: number, seed: number, interval = 0.2e-9): Channel {
   const alpha = R / (2 * L);
-  const time = Float64Array.from({ length: 2000 }, (_, i) => i * 0.2e-9);
+  const time = Float64Array.from({ length: 2000 }, (_, i) => i * interval);
   const clean = evaluateResponse({ t0: 40e-9, yPre: 0, yFinal: STEP, a: -STEP, b: -alpha * STEP, alpha, omega0: 1 / Math.sqrt(L * c) }, time);
   const random = createRandom(seed);
   return { name: 'CH1', unit: 'V', time, values: clean.map((v) => v + 0.5 * random.normal()), clipped: new Uint8Array(time.length) } as Channel;
@@ -61,5 +61,19 @@ describe('loop parasitics from synthetic captures', () => {
       expect(spread).toBeLessThan(1.3);
       expect(errors.filter((e) => Math.abs(e) <= 2).length).toBeGreaterThanOrEqual(54);
     }
+  });
+
+  it('a thinly sampled capture is warned of once, by its file name', () => {
+    // Every 1.6 ns: the bare loop's 100 MHz ring has 6 samples per period, the loaded one's 65 MHz ring about 9.6.
+    const outcome = measureParasiticsOutcome({
+      captures: [
+        { file: 'bare.csv', channel: capture(C, 11, 1.6e-9), addedC: 0 },
+        { file: 'added.csv', channel: capture(C + ADDED, 12, 1.6e-9), addedC: ADDED },
+      ],
+    });
+    const thin = outcome.result!.warnings.filter((w) => /samples/.test(w) && /period/.test(w));
+    expect(thin).toHaveLength(2);
+    expect(thin[0]).toMatch(/^bare\.csv: period holds only 6\.\d samples/);
+    expect(thin[1]).toMatch(/^added\.csv: period holds only 9\.\d samples/);
   });
 });
