@@ -58,14 +58,18 @@ function unitlessTimeNote(columns: ColumnPlan[], kept: KeptChannel[]): string | 
 }
 
 /**
- * A note when the time axis is built from an interval the file states with no unit (none on its line, in the
- * preamble or the timeUnit option): read as seconds, the usual convention, but an interval in microseconds read so
- * would put every frequency 10^6 off without a sign.
+ * A note when the time axis is built from an interval, or a start time other than 0, that the file states with no unit
+ * (none on its line, in the preamble or the timeUnit option): read as seconds, the usual convention, but an interval in
+ * microseconds read so would put every frequency 10^6 off without a sign, and a start so read would shift every time.
  */
-function unitlessIntervalNote(interval: NonNullable<Layout['interval']>): string | null {
-  if (interval.unitStated) return null;
-  const key = printable(interval.key);
-  return `the sample interval '${key}' on line ${interval.line} states no unit and was read as seconds; ${TIME_UNIT_ADVICE}`;
+function unitlessAxisNote(interval: NonNullable<Layout['interval']>, offset: Layout['preamble']['offset']): string | null {
+  const unitless = [
+    ...(interval.unitStated ? [] : [`the sample interval '${printable(interval.key)}' on line ${interval.line}`]),
+    ...(offset && !offset.unitStated && offset.value !== 0 ? [`the start time '${printable(offset.key)}' on line ${offset.line}`] : []),
+  ];
+  if (unitless.length === 0) return null;
+  const [verb, read] = unitless.length === 1 ? ['states', 'was'] : ['state', 'were'];
+  return `${unitless.join(' and ')} ${verb} no unit and ${read} read as seconds; ${TIME_UNIT_ADVICE}`;
 }
 
 /** A headerless first column is time when strictly increasing (or to be sorted); otherwise it is a channel. */
@@ -122,9 +126,9 @@ function columnAxis(index: number, layout: Layout, store: StoredRows, lines: Row
 function intervalAxis(layout: Layout, rows: number, warnings: string[], stamped: ColumnPlan | null): Axis {
   const interval = layout.interval;
   if (interval === null) throw new CaptureError('no sample interval to build the time axis from', layout.firstDataLine);
-  const unitless = unitlessIntervalNote(interval);
-  if (unitless) warnings.push(unitless);
   const offset = layout.preamble.offset;
+  const unitless = unitlessAxisNote(interval, offset);
+  if (unitless) warnings.push(unitless);
   const start = offset ? offset.value : 0;
   if (stamped) {
     const from = offset ? ` and the start from '${offset.key}' on line ${offset.line}` : '';

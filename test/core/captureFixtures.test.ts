@@ -63,7 +63,7 @@ const cases: Expected[] = [
     channels: [{ name: 'channel 1', unit: '', samples: 38, dropped: 2, firstTime: -1e-7, firstValue: 0 }],
     sampleInterval: 5e-9,
     metadata: { XIncrement: '5e-9', 'X Origin': '-1E-07', 'Horizontal Scale': '1e-7' },
-    warnings: [/the sample interval 'XIncrement' on line 2 states no unit and was read as seconds/, /channel 'channel 1': 2 sample\(s\) dropped/],
+    warnings: [/the sample interval 'XIncrement' on line 2 and the start time 'X Origin' on line \d state no unit and were read as seconds/, /channel 'channel 1': 2 sample\(s\) dropped/],
   },
   {
     // Wall-clock stamps: axis rebuilt from a period given in µs by its key, started at a numeric start time.
@@ -75,7 +75,10 @@ const cases: Expected[] = [
     ],
     sampleInterval: 1e-6,
     metadata: { 'Sampling Period (us)': '1', 'Start Time': '-5e-6' },
-    warnings: [/column 'Timestamp' holds wall-clock time stamps; the time axis was rebuilt as t = -5 µs \+ i × 1 µs, with the interval from 'Sampling Period \(us\)' on line 1 and the start from 'Start Time' on line 2/],
+    warnings: [
+      /the start time 'Start Time' on line 2 states no unit and was read as seconds/,
+      /column 'Timestamp' holds wall-clock time stamps; the time axis was rebuilt as t = -5 µs \+ i × 1 µs, with the interval from 'Sampling Period \(us\)' on line 1 and the start from 'Start Time' on line 2/,
+    ],
   },
 ];
 

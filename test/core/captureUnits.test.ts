@@ -259,6 +259,20 @@ describe('a sample interval stated without a unit is read as seconds, with a not
       expect(capture.warnings).toEqual([]);
     }
   });
+
+  it('a start time stated without a unit is named too, with the interval or alone; a start of 0 needs no unit', () => {
+    const both = parseCapture(`Sample Interval,2e-7\nX Origin,-1e-6\n${column}`);
+    expect(both.channels[0].time[0]).toBeCloseTo(-1e-6, 18);
+    expect(both.warnings).toEqual([
+      "the sample interval 'Sample Interval' on line 1 and the start time 'X Origin' on line 2 state no unit and were read as seconds; state another unit with --time-unit",
+    ]);
+    const startOnly = parseCapture(`Sample Interval,2e-7,s\nX Origin,-1e-6\n${column}`);
+    expect(startOnly.warnings).toEqual(["the start time 'X Origin' on line 2 states no unit and was read as seconds; state another unit with --time-unit"]);
+    expect(parseCapture(`Sample Interval,2e-7,s\nX Origin,0\n${column}`).warnings).toEqual([]);
+    expect(parseCapture(`Sample Interval,2e-7,s\nX Origin,-1,us\n${column}`).warnings).toEqual([]);
+    // A preamble's time unit reads both, with its own note.
+    expect(parseCapture(`Horizontal Units,us\nSample Interval,0.2\nX Origin,-1\n${column}`).warnings.join('\n')).not.toContain('read as seconds');
+  });
 });
 
 describe('the stated units fix each refusal', () => {
