@@ -11,7 +11,7 @@ import { evaluatePowerLaw, powerLawRelativeUncertainty, responseRelations } from
 import { toleranceToRelativeUncertainty } from './tolerance';
 
 /** The step metrics a design may limit, as the model metrics name them. */
-const METRICS = ['overshoot', 'settlingTime2', 'settlingTime5'] as const;
+export const METRICS = ['overshoot', 'settlingTime2', 'settlingTime5'] as const;
 type Metric = (typeof METRICS)[number];
 
 /** What the verdict reads of the fit's transition metrics (a FitSummary's `transitions`). */

@@ -22,7 +22,7 @@ import {
   type ResponseQuantityName,
 } from './relations';
 import { toleranceToRelativeUncertainty } from './tolerance';
-import { limitedTransitionRows, type FittedTransitions } from './transitionLimits';
+import { METRICS, limitedTransitionRows, type FittedTransitions } from './transitionLimits';
 import { alphaOmega0Correlation } from '../fit/correlation';
 import { formatEngineering, formatWithUncertainty } from '../units/format';
 
@@ -285,6 +285,23 @@ export function singleDecayRefusal(design: Design, fit: Pick<FittedResponse, 'ta
     `the fit found a single decay (first-order, tau ${formatWithUncertainty(fit.tau)}) where '${design.name}' predicts ${predicted}: ` +
     'not comparable quantity by quantity, so nothing was checked (a ring the capture missed: sample rate, bandwidth, probe point; or far more damping than designed)'
   );
+}
+
+/**
+ * Why this capture's fit cannot decide a limit the design states, or null: a single decay gives tau alone, rates
+ * that are not positive derive no part, a fit with no step metrics has none to limit. The capture's answer, not the
+ * design's fault: no verdict (checkDesign would refuse the limits as bad input, never pass them unchecked).
+ */
+export function undecidedByCapture(design: Design, fit: Pick<FittedResponse, 'tau' | 'alpha' | 'omega0' | 'transitions'>): string | null {
+  const limited = (names: readonly string[]) => names.filter((name) => design.limits?.[name as LimitedQuantity]);
+  const undecided: [string[], string][] = [];
+  if (fit.tau) undecided.push([limited([...DIRECT_ROWS, 'f0']), 'a single decay gives tau alone']);
+  else if (!(fit.alpha.value > 0 && fit.omega0.value > 0)) undecided.push([limited(COMPONENT_NAMES), 'the fitted alpha or omega0 is not positive, so no part is derived']);
+  if (!fit.transitions?.model) undecided.push([limited(METRICS), fit.transitions?.reason ?? 'the fit gives no step metrics']);
+  const found = undecided.filter(([names]) => names.length > 0);
+  if (found.length === 0) return null;
+  const said = found.map(([names, why]) => `${names.join(', ')} (${why})`).join('; ');
+  return `this capture does not decide the design limits ${said}, so nothing was checked against '${design.name}'`;
 }
 
 /** Relative step of a part for the slow time constant's sensitivity to it: small beside the way from zeta 1.34 (SLOW_ROOT_DOMINANCE) to critical damping. */

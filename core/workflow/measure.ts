@@ -8,7 +8,7 @@ import { implausibility } from '../circuit/plausibility';
 import { probeUnit } from '../circuit/predict';
 import { hertz } from '../report/resultRows';
 import { summarizeTransitions } from '../circuit/transitionSummary';
-import { checkDesign, singleDecayRefusal, type Verdict } from '../circuit/verdict';
+import { checkDesign, singleDecayRefusal, undecidedByCapture, type Verdict } from '../circuit/verdict';
 import { fitResponse, type ResponseFit, type ResponseFitOptions } from '../fit/fitResponse';
 import { isThinSamplingWarning } from '../fit/fitWarnings';
 import { InputError, UsageError } from '../inputError';
@@ -89,14 +89,19 @@ export function weighCautions(channel: Pick<Channel, 'values' | 'unit'>, parts: 
 /**
  * Why a fit gets no verdict against a design, or null when it gets one: a failed fit is no measurement
  * (fitSucceeded), a capture a setup check refuses cannot support the numbers the verdict would judge (an
- * aliased frequency, a damping that is not measured), and a single decay does not compare with a design that
- * rings (singleDecayRefusal). Not bad input: the command line says it in place of the verdict and exits 1.
+ * aliased frequency, a damping that is not measured), a single decay does not compare with a design that
+ * rings (singleDecayRefusal), and a limit the design states may be one this capture does not decide
+ * (undecidedByCapture). Not bad input: the command line says it in place of the verdict and exits 1.
  */
-export function verdictRefusal(design: Design, fit: Pick<FitSummary, 'status' | 'tau'>, setupChecks: readonly SetupCheck[]): string | null {
+export function verdictRefusal(
+  design: Design,
+  fit: Pick<FitSummary, 'status' | 'tau' | 'alpha' | 'omega0' | 'transitions'>,
+  setupChecks: readonly SetupCheck[],
+): string | null {
   if (!fitSucceeded(fit)) return `the fit failed (${fit.status}), so nothing was checked against '${design.name}'`;
   const refused = setupRefusal(setupChecks);
   if (refused) return `a setup check refused the capture (${refused.message}), so nothing was checked against '${design.name}'`;
-  return singleDecayRefusal(design, fit);
+  return singleDecayRefusal(design, fit) ?? undecidedByCapture(design, fit);
 }
 
 /**

@@ -7,6 +7,8 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCliIn } from './cliHarness';
+import { createRandom } from '../../core/random';
+import { evaluateResponse } from '../../core/response/secondOrder';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const CAPTURE = path.join(ROOT, 'sample-captures', 'input-filter-step.csv');
@@ -93,6 +95,25 @@ describe('check: a limit on a part is decided, never passed unchecked', () => {
     expect(row).toMatchObject({ counted: true, limitsFrom: 'design', inTolerance: false });
     expect(row.measured.value).toBeGreaterThan(44e-6);
     expect(verdict.pass).toBe(false);
+  });
+});
+
+describe('check: a limit the capture cannot decide gives no verdict (exit 1), not a design error', () => {
+  it('a ringdown about one level (no step metrics) against a settling-time limit: verdict none, noVerdict names the limit and why', async () => {
+    // A natural ringdown of the filter's own L and C (invented bench data, seeded noise): 10 V released at t = 0, 0.05 V rms.
+    const alpha = 0.15 / (2 * 6.8e-6);
+    const time = Float64Array.from({ length: 4200 }, (_, i) => (i - 200) * 0.5e-6);
+    const clean = evaluateResponse({ t0: 0, yPre: 0, yFinal: 0, a: 10, b: 10 * alpha, alpha, omega0: 1 / Math.sqrt(6.8e-6 * 47e-6) }, time);
+    const random = createRandom(5);
+    const capture = path.join(folder, 'ringdown.csv');
+    writeFileSync(capture, `Time (s),CH1 (V)\n${Array.from(time, (t, i) => `${t.toExponential(7)},${(clean[i] + 0.05 * random.normal()).toFixed(5)}`).join('\n')}\n`);
+    const design = writeDesign('settling-limit.json', { limits: { settlingTime2: { upper: '400u' } } });
+    const { code, out, err } = await runCliIn(ROOT, ['check', capture, '--design', design, '--json']);
+    expect(err).toBe('');
+    expect(code).toBe(1);
+    const result = JSON.parse(out);
+    expect(result.verdict).toBeNull();
+    expect(result.noVerdict).toMatch(/^this capture does not decide the design limits settlingTime2 \(.*ringdown about one level.*\), so nothing was checked against '48 V bus LC input filter'$/);
   });
 });
 

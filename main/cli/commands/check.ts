@@ -20,7 +20,7 @@ export function registerCheckCommand(program: Command, ctx: CommandContext): voi
   const command = program
     .command('check')
     .description(
-      "fit a capture and check it against a design file: exit 0 when accepted under the design's decision rule, 3 when rejected (out of tolerance), 1 (no verdict) when the fit does not converge or finds a single decay where the design rings",
+      "fit a capture and check it against a design file: exit 0 when accepted under the design's decision rule, 3 when rejected (out of tolerance), 1 (no verdict) when the fit does not converge, finds a single decay where the design rings, or cannot decide a limit the design states",
     )
     .argument('<file>', 'capture file (CSV or text export of a scope)')
     .requiredOption('--design <file>', 'design file (topology, R, L, C with tolerances, source, probe; optional limits and decisionRule)');
@@ -29,7 +29,7 @@ export function registerCheckCommand(program: Command, ctx: CommandContext): voi
     .action((file: string, options: CheckCommandOptions) => {
       const design = namingFile(options.design, () => loadDesignFile(options.design, ctx.io.cwd));
       const m = namingFile(file, () => measureFile(file, measureSettingsOf(options), ctx.io.cwd, design));
-      // A failed fit, a capture a setup check refuses, or a single decay where the design rings gets no verdict (measureCapture gives none), and says why.
+      // A failed fit, a capture a setup check refuses, a single decay where the design rings, or a limit the capture cannot decide gets no verdict (measureCapture gives none), and says why.
       const refusal = verdictRefusal(design.design, m.summary, m.setupChecks);
       if (options.json) {
         ctx.io.out(`${JSON.stringify({ ...m.summary, design: design.design.name, verdict: m.verdict, ...(refusal ? { noVerdict: refusal } : {}), setupChecks: m.setupChecks, cautions: m.cautions })}\n`);
