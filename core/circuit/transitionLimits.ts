@@ -13,6 +13,8 @@ import { toleranceToRelativeUncertainty } from './tolerance';
 /** The step metrics a design may limit, as the model metrics name them. */
 export const METRICS = ['overshoot', 'settlingTime2', 'settlingTime5'] as const;
 type Metric = (typeof METRICS)[number];
+/** Why no step metric is decided when the fit gives no reason of its own. */
+export const NO_STEP_METRICS = 'the fit gives no step metrics';
 
 /** What the verdict reads of the fit's transition metrics (a FitSummary's `transitions`). */
 export interface FittedTransitions {
@@ -30,7 +32,7 @@ export function limitedTransitionRows(design: Design, fitted: FittedTransitions 
   if (!limited.length) return [];
   const measured = fitted?.model ?? null;
   const expected = designMetrics(design, t0);
-  if (!measured) return undecidedLimits(limited, fitted?.reason ?? 'the fit gives no step metrics');
+  if (!measured) return undecidedLimits(limited, fitted?.reason ?? NO_STEP_METRICS);
   if (!expected) return undecidedLimits(limited, "the design's own response has no step to measure");
   return limited.map((name) => judgeQuantity(name, expected[name], measured[name], design.limits![name]!, 'design', rule));
 }

@@ -22,7 +22,7 @@ import {
   type ResponseQuantityName,
 } from './relations';
 import { toleranceToRelativeUncertainty } from './tolerance';
-import { METRICS, limitedTransitionRows, type FittedTransitions } from './transitionLimits';
+import { METRICS, NO_STEP_METRICS, limitedTransitionRows, type FittedTransitions } from './transitionLimits';
 import { alphaOmega0Correlation } from '../fit/correlation';
 import { formatEngineering, formatWithUncertainty } from '../units/format';
 
@@ -165,7 +165,7 @@ export function checkDesign(
   const unknown = (fit.tau ? [fit.tau] : [fit.alpha, fit.omega0]).some((q) => q.stderr === null);
   if (unknown) notes.push('Some fitted uncertainties are unknown: those quantities are decided on their value alone (U unknown) and their margins use the design tolerance alone.');
 
-  const physical = !fit.tau && fit.alpha.value > 0 && fit.omega0.value > 0;
+  const physical = derivesParts(fit);
   const sensitivities = {
     alpha: { ...relations.alpha.exponents },
     omega0: { ...relations.omega0.exponents },
@@ -192,9 +192,9 @@ export function checkDesign(
   const unused = DIRECT_ROWS.concat('f0').filter((name) => design.limits?.[name as LimitedQuantity] && !quantities.some((q) => q.name === name));
   if (unused.length) {
     const why = fit.tau
-      ? 'a single decay gives tau alone'
+      ? TAU_ALONE
       : !physical
-        ? 'the fitted alpha or omega0 is not positive, so no part is derived'
+        ? NO_PART_DERIVED
         : known === null
           ? 'no part is derived from the fit'
           : `${known} is taken at its design value to derive the others`;
@@ -287,6 +287,15 @@ export function singleDecayRefusal(design: Design, fit: Pick<FittedResponse, 'ta
   );
 }
 
+/** Why a limit goes undecided (checkDesign refuses it, undecidedByCapture gives no verdict for it). */
+const TAU_ALONE = 'a single decay gives tau alone';
+const NO_PART_DERIVED = 'the fitted alpha or omega0 is not positive, so no part is derived';
+
+/** Whether R, L and C follow from the fit: a second-order fit with positive alpha and omega0. */
+function derivesParts(fit: Pick<FittedResponse, 'tau' | 'alpha' | 'omega0'>): boolean {
+  return !fit.tau && fit.alpha.value > 0 && fit.omega0.value > 0;
+}
+
 /**
  * Why this capture's fit cannot decide a limit the design states, or null: a single decay gives tau alone, rates
  * that are not positive derive no part, a fit with no step metrics has none to limit. The capture's answer, not the
@@ -295,9 +304,9 @@ export function singleDecayRefusal(design: Design, fit: Pick<FittedResponse, 'ta
 export function undecidedByCapture(design: Design, fit: Pick<FittedResponse, 'tau' | 'alpha' | 'omega0' | 'transitions'>): string | null {
   const limited = (names: readonly string[]) => names.filter((name) => design.limits?.[name as LimitedQuantity]);
   const undecided: [string[], string][] = [];
-  if (fit.tau) undecided.push([limited([...DIRECT_ROWS, 'f0']), 'a single decay gives tau alone']);
-  else if (!(fit.alpha.value > 0 && fit.omega0.value > 0)) undecided.push([limited(COMPONENT_NAMES), 'the fitted alpha or omega0 is not positive, so no part is derived']);
-  if (!fit.transitions?.model) undecided.push([limited(METRICS), fit.transitions?.reason ?? 'the fit gives no step metrics']);
+  if (fit.tau) undecided.push([limited([...DIRECT_ROWS, 'f0']), TAU_ALONE]);
+  else if (!derivesParts(fit)) undecided.push([limited(COMPONENT_NAMES), NO_PART_DERIVED]);
+  if (!fit.transitions?.model) undecided.push([limited(METRICS), fit.transitions?.reason ?? NO_STEP_METRICS]);
   const found = undecided.filter(([names]) => names.length > 0);
   if (found.length === 0) return null;
   const said = found.map(([names, why]) => `${names.join(', ')} (${why})`).join('; ');
