@@ -154,7 +154,7 @@ export function slowCellValue(cell: string, decimalComma: boolean): number | nul
 }
 
 /** A cell's text as a number would be read from it: trimmed, unquoted, a Unicode minus sign (U+2212) as '-'. */
-function cellText(cell: string): string {
+export function cellText(cell: string): string {
   let text = cell.trim();
   if (text.length >= 2 && text.startsWith('"') && text.endsWith('"')) text = text.slice(1, -1).trim();
   return text.replace(MINUS_SIGN, '-');

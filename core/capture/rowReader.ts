@@ -1,6 +1,6 @@
 // The hot loop: reads one data line of a known layout straight into the column store.
 
-import { fastNumber, groupingCause, slowCellValue } from './cellValue';
+import { cellText, fastNumber, groupingCause, slowCellValue } from './cellValue';
 import type { ColumnStore } from './columnStore';
 import { WHITESPACE, splitLine } from './splitLine';
 
@@ -10,11 +10,40 @@ export const SKIP = 1;
 
 const NOT_FOUND = Number.MAX_SAFE_INTEGER;
 
+/** ASCII codes of the two decimal marks. */
+const COMMA = 44;
+const POINT = 46;
+
+/**
+ * A number that points may group in threes ('1.234', '0.905', '12.345.678'), in a table whose decimal mark is the
+ * comma: grouping reads it as 1234, another export's decimal mark as 1.234, a factor of 1000 apart, so neither is
+ * guessed. A point no grouping explains ('1.5', '1.000E-08') can only mark decimals, and is read so.
+ */
+const GROUPED_BY_POINTS = /^[+-]?\d{1,3}(?:\.\d{3})+$/;
+
+/** Why a cell that reads two ways is refused, with both readings. */
+function twoReadings(cell: string): string {
+  const text = cellText(cell);
+  const grouped = Number(text.replaceAll('.', ''));
+  const decimal = text.split('.').length === 2 ? ` or ${Number(text)} (a decimal point from another export)` : '';
+  return `in a table whose decimal mark is the comma this reads as ${grouped} (points grouping thousands)${decimal}; export the numbers with one decimal mark and no digit grouping`;
+}
+
+/** Whether a cell reads two ways in a table whose decimal mark is `decimalCode` (see GROUPED_BY_POINTS). */
+function readsTwoWays(cell: string, decimalCode: number): boolean {
+  return decimalCode === COMMA && GROUPED_BY_POINTS.test(cellText(cell));
+}
+
 /** The message for cell `col` (0-based) of a table of `count` columns that is not a number, with its likely cause. */
-function notANumber(count: number, cell: string, col: number): string {
+function notANumber(count: number, cell: string, col: number, decimalCode: number): string {
   const found = `expected ${count} numeric columns, found '${cell.trim()}' (column ${col + 1})`;
-  const cause = groupingCause(cell);
+  const cause = readsTwoWays(cell, decimalCode) ? twoReadings(cell) : groupingCause(cell);
   return cause === null ? found : `${found}: ${cause}`;
+}
+
+/** A cell's value when the fast path left it, or null (not a number, or a number that reads two ways). */
+function slowValue(cell: string, decimalCode: number, commaMayMarkDecimals: boolean): number | null {
+  return readsTwoWays(cell, decimalCode) ? null : slowCellValue(cell, commaMayMarkDecimals);
 }
 
 export class RowReader {
@@ -34,7 +63,7 @@ export class RowReader {
   ) {
     this.count = parsed.length;
     this.delimiterCode = delimiter === WHITESPACE ? -1 : delimiter.charCodeAt(0);
-    this.decimalCode = decimalComma ? 44 : 46;
+    this.decimalCode = decimalComma ? COMMA : POINT;
   }
 
   /** Call before reading lines of a new text: the look-ahead caches belong to one string. */
@@ -112,8 +141,8 @@ export class RowReader {
     let value = fastNumber(text, start, end, this.decimalCode);
     if (value !== value) {
       const cell = text.slice(start, end);
-      const slow = slowCellValue(cell, this.delimiterCode !== 44);
-      if (slow === null) return notANumber(this.count, cell, col);
+      const slow = slowValue(cell, this.decimalCode, this.delimiterCode !== COMMA);
+      if (slow === null) return notANumber(this.count, cell, col, this.decimalCode);
       value = slow;
     }
     columns[col][row] = value;
@@ -133,8 +162,8 @@ export class RowReader {
       if (!this.parsed[col]) continue;
       let value = fastNumber(cell, 0, cell.length, this.decimalCode);
       if (value !== value) {
-        const slow = slowCellValue(cell, this.delimiterCode !== 44 || cell.includes(','));
-        if (slow === null) return notANumber(this.count, cell, col);
+        const slow = slowValue(cell, this.decimalCode, this.delimiterCode !== COMMA || cell.includes(','));
+        if (slow === null) return notANumber(this.count, cell, col, this.decimalCode);
         value = slow;
       }
       columns[col][row] = value;

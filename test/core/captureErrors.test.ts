@@ -165,6 +165,34 @@ describe('a number written with a thousands separator', () => {
   });
 });
 
+describe('a point in a table whose decimal mark is the comma', () => {
+  /** Time in ns and a value in mV written with decimal commas, 40 rows (row i on line i + 2), row 20's value replaced. */
+  const commaTable = (cell: string, time = (i: number) => `${i * 50}`): string =>
+    `Time (ns);CH1 (mV)\n${Array.from({ length: 40 }, (_, i) => `${time(i)};${i === 20 ? cell : (i * 10.5).toFixed(1).replace('.', ',')}`).join('\n')}\n`;
+  const advice = 'export the numbers with one decimal mark and no digit grouping';
+
+  it.each([
+    ['0.905', '0.905', '905 (points grouping thousands) or 0.905 (a decimal point from another export)'],
+    ['1.234', '1.234', '1234 (points grouping thousands) or 1.234 (a decimal point from another export)'],
+    ['-12.345.678', '-12.345.678', '-12345678 (points grouping thousands)'],
+    ['"1.234"', '1.234', '1234 (points grouping thousands) or 1.234 (a decimal point from another export)'],
+  ])("'%s' reads two ways, a factor of 1000 apart: refused at its line with both readings", (cell, shown, readings) => {
+    const error = captureError(commaTable(cell));
+    expect(error.message).toBe(
+      `line 22: expected 2 numeric columns, found '${shown}' (column 2): in a table whose decimal mark is the comma this reads as ${readings}; ${advice}`,
+    );
+    expect(error.line).toBe(22);
+  });
+
+  it('a point no grouping explains can only mark decimals: 1.5 and an exponent-written time column are read', () => {
+    const capture = parseCapture(commaTable('1.5', (i) => `${(i * 50).toExponential(3)}`));
+    // Millivolts, read in volts.
+    expect(capture.channels[0].values[20]).toBeCloseTo(1.5e-3, 15);
+    expect(capture.channels[0].values[21]).toBeCloseTo(0.2205, 15);
+    expect(capture.channels[0].time[39]).toBeCloseTo(1950e-9, 21);
+  });
+});
+
 describe('a file that is not text', () => {
   const bytes = (...parts: (string | number[])[]): Uint8Array =>
     Uint8Array.from(parts.flatMap((p) => (typeof p === 'string' ? [...new TextEncoder().encode(p)] : p)));
