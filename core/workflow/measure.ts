@@ -105,8 +105,19 @@ export function verdictRefusal(
 }
 
 /**
- * The verdict of a measured channel against a design. A design probing another unit than the channel, or
- * a fit that gets no verdict (verdictRefusal: measureCapture asks only when it gets one), is a UsageError.
+ * Why the design cannot be checked against this channel whatever the fit: it probes another unit (a design of the
+ * inductor current against a voltage channel). Asked before verdictRefusal: the wrong file or design is bad input
+ * (exit 2), not a capture that gets no verdict. Null when the units agree or the channel states none.
+ */
+export function probeMismatch(design: Design, channel: Channel, file: string): string | null {
+  const expected = probeUnit(design);
+  if (channel.unit === '' || channel.unit === expected) return null;
+  return `the design probes ${design.probe} (${expected}) but channel '${channel.name}' of ${file} is in ${channel.unit}`;
+}
+
+/**
+ * The verdict of a measured channel against a design. A design probing another unit than the channel (probeMismatch),
+ * or a fit that gets no verdict (verdictRefusal: measureCapture asks only when it gets one), is a UsageError.
  */
 export function checkAgainstDesign(
   design: Design,
@@ -116,12 +127,10 @@ export function checkAgainstDesign(
   file: string,
   eventTime?: number,
 ): Verdict {
+  const mismatch = probeMismatch(design, channel, file);
+  if (mismatch) throw new UsageError(mismatch);
   const refusal = verdictRefusal(design, fit, setupChecks);
   if (refusal) throw new UsageError(refusal);
-  const expected = probeUnit(design);
-  if (channel.unit !== '' && channel.unit !== expected) {
-    throw new UsageError(`the design probes ${design.probe} (${expected}) but channel '${channel.name}' of ${file} is in ${channel.unit}`);
-  }
   // An event's fit starts inside its ring (no level before it): the design's levels and event time need a whole event.
   if ('events' in fit && fit.events) {
     throw new UsageError(`${file} holds ${fit.events.list.length} events: a design is checked against one; set the fit window (--from, --to) around it`);
@@ -151,8 +160,10 @@ export function measureCapture(request: MeasureRequest): MeasureResult {
   if (components.value) summary.components = components.value;
   warnIfImplausible(summary, request.channel);
   const setupChecks = runSetupChecks({ fit, summary, channel: request.channel, metadata: request.metadata, options: request.setup, knownPart });
+  // A design of another unit is bad input before anything else; a capture that gets no verdict is not asked for one.
+  const mismatch = design ? probeMismatch(design, request.channel, request.file) : null;
   const verdict =
-    design && verdictRefusal(design, summary, setupChecks) === null
+    design && (mismatch !== null || verdictRefusal(design, summary, setupChecks) === null)
       ? attempt(() => checkAgainstDesign(design, ofMode(summary, request.mode), setupChecks, request.channel, request.file, request.eventTime))
       : NOT_ASKED;
   const cautions = weighCautions(request.channel, { design, components: summary.components });

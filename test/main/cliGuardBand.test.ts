@@ -114,6 +114,13 @@ describe('check: a limit the capture cannot decide gives no verdict (exit 1), no
     const result = JSON.parse(out);
     expect(result.verdict).toBeNull();
     expect(result.noVerdict).toMatch(/^this capture does not decide the design limits settlingTime2 \(.*ringdown about one level.*\), so nothing was checked against '48 V bus LC input filter'$/);
+
+    // The same capture against a design of the inductor current: the wrong design for the file, bad input before the capture's no verdict.
+    const current = writeDesign('settling-limit-current.json', { probe: 'inductor-current', limits: { settlingTime2: { upper: '400u' } } });
+    const wrong = await runCliIn(ROOT, ['check', capture, '--design', current, '--json']);
+    expect(wrong.code).toBe(2);
+    expect(wrong.out).toBe('');
+    expect(wrong.err.trim()).toMatch(/the design probes inductor-current \(A\) but channel 'CH1' of .*ringdown\.csv is in V$/);
   });
 });
 
