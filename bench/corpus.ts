@@ -2,7 +2,7 @@
 //
 // Then `ringbench batch` over the first --batch-count captures written as files, against a scipy loop: times, ratio, CPU use.
 //
-// Usage: tsx bench/corpus.ts [--count 500] [--seed 1] [--min-samples 1000] [--max-samples 200000] [--workers <cores>] [--batch-count 120] [--jobs <cores>]
+// Usage: tsx bench/corpus.ts [--count 500] [--seed 1] [--min-samples 1000] [--max-samples 200000] [--workers <cores>] [--batch-count 120] [--jobs <cores>] [--batch-rounds 3]
 // (--count 0 or --batch-count 0 leaves that part out)
 
 import { spawn } from 'node:child_process';
@@ -151,10 +151,20 @@ async function main(): Promise<void> {
       workers: { type: 'string', default: String(cpus().length) },
       'batch-count': { type: 'string', default: '120' },
       jobs: { type: 'string', default: String(cpus().length) },
+      'batch-rounds': { type: 'string', default: '3' },
     },
   });
-  const [count, seed, minSamples, maxSamples, workers, batchCount, jobs] = [values.count, values.seed, values['min-samples'], values['max-samples'], values.workers, values['batch-count'], values.jobs].map(Number);
-  for (const [name, v, min] of [['--count', count, 0], ['--seed', seed, 0], ['--min-samples', minSamples, 100], ['--max-samples', maxSamples, minSamples], ['--workers', workers, 1], ['--batch-count', batchCount, 0], ['--jobs', jobs, 1]] as const) {
+  const [count, seed, minSamples, maxSamples, workers, batchCount, jobs, rounds] = [
+    values.count,
+    values.seed,
+    values['min-samples'],
+    values['max-samples'],
+    values.workers,
+    values['batch-count'],
+    values.jobs,
+    values['batch-rounds'],
+  ].map(Number);
+  for (const [name, v, min] of [['--count', count, 0], ['--seed', seed, 0], ['--min-samples', minSamples, 100], ['--max-samples', maxSamples, minSamples], ['--workers', workers, 1], ['--batch-count', batchCount, 0], ['--jobs', jobs, 1], ['--batch-rounds', rounds, 1]] as const) {
     if (!Number.isInteger(v) || v < min) throw new Error(`${name}: must be an integer >= ${min}`);
   }
   const began = performance.now();
@@ -169,7 +179,7 @@ async function main(): Promise<void> {
     printOutcomes(outcomes);
     console.log(`\nElapsed: ${((performance.now() - began) / 1000).toFixed(0)} s with ${workers} worker(s)`);
   }
-  if (batchCount > 0) benchBatch(seed, batchCount, { minSamples, maxSamples }, jobs, cpus().length);
+  if (batchCount > 0) benchBatch(seed, batchCount, { minSamples, maxSamples }, jobs, cpus().length, rounds);
 }
 
 await main();

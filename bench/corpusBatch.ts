@@ -1,5 +1,6 @@
 // The batch part of `npm run bench:corpus`: the corpus written as a folder of CSV files, `ringbench batch` over it with
-// --jobs at the core count, against a scipy loop over the same files: wall time, the ratio, and CPU use per core.
+// --jobs at the core count, against a scipy loop over the same files, in turn for several rounds: wall times (median),
+// the ratio, and CPU use per core.
 
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
@@ -64,29 +65,51 @@ function cpuUse(run: Run, cores: number): [string, string] {
   return [`${ofOne.toFixed(0)} %`, `${(ofOne / cores).toFixed(0)} %`];
 }
 
-export function benchBatch(seed: number, count: number, range: CorpusRange, jobs: number, cores: number): void {
+/** The run of median wall time among `runs` (the upper one of the middle two for an even count). */
+function medianRun(runs: Run[]): Run {
+  return [...runs].sort((x, y) => x.wallS - y.wallS)[Math.floor(runs.length / 2)];
+}
+
+/**
+ * Both sides `rounds` times in turn, each side's median run reported: one run of each swung the ratio between 4x and 6x
+ * on this machine (the scipy loop alone took 21 to 36 s from one run to the next), and taking turns lets a slow spell
+ * of the machine fall on both.
+ */
+export function benchBatch(seed: number, count: number, range: CorpusRange, jobs: number, cores: number, rounds: number): void {
   console.log(`\nBatch against a scipy loop: the first ${count} captures as files, \`ringbench batch --jobs ${jobs}\` (a fresh process, no hints)`);
-  console.log('against numpy.loadtxt + curve_fit per file in one python3 process (bench/corpusScipyLoop.py: a start 1 % off the truth).');
+  console.log(`against numpy.loadtxt + curve_fit per file in one python3 process (bench/corpusScipyLoop.py: a start 1 % off the truth);`);
+  console.log(`${rounds} round(s) in turn, the median of each side shown.`);
   const folder = writeCorpusFolder(seed, count, range);
   const build = spawnSync(process.execPath, [path.join(ROOT, 'build/build.mjs')], { encoding: 'utf8' });
   if (build.status !== 0) throw new Error(`npm run build failed: ${build.stderr.trim().split('\n').pop()}`);
 
-  const ours = timed(process.execPath, [path.join(ROOT, 'bin/ringbench.js'), 'batch', folder, '--jobs', String(jobs), '--jsonl']);
+  const ourRuns: Run[] = [];
+  const scipyRuns: Run[] = [];
+  for (let round = 0; round < rounds; round++) {
+    ourRuns.push(timed(process.execPath, [path.join(ROOT, 'bin/ringbench.js'), 'batch', folder, '--jobs', String(jobs), '--jsonl']));
+    const scipyRun = timed('python3', [path.join(ROOT, 'bench/corpusScipyLoop.py'), folder]);
+    scipyRuns.push(scipyRun);
+    // Without numpy and scipy the loop only says so: one round of it is enough.
+    if (!scipyRun.stdout.trim().startsWith('{')) break;
+    console.error(`  round ${round + 1} of ${rounds}: batch ${fixed(ourRuns[round].wallS)} s, scipy loop ${fixed(scipyRun.wallS)} s`);
+  }
+  const ours = medianRun(ourRuns);
+  const scipy = medianRun(scipyRuns);
   const lines = ours.stdout.trimEnd().split('\n').map((line) => JSON.parse(line) as { status: string });
   const converged = lines.filter((l) => l.status === 'converged').length;
-  const scipy = timed('python3', [path.join(ROOT, 'bench/corpusScipyLoop.py'), folder]);
   const scipyLine = scipy.stdout.trim();
   const scipyFigures = scipyLine.startsWith('{') ? (JSON.parse(scipyLine) as { fitted: number; failed: number }) : null;
+  const spread = (runs: Run[]) => (runs.length > 1 ? `${fixed(Math.min(...runs.map((r) => r.wallS)))}-${fixed(Math.max(...runs.map((r) => r.wallS)))}` : '-');
 
   const rows = [
-    ['ringbench batch', fixed(ours.wallS), fixed(ours.cpuS), ...cpuUse(ours, cores), `${converged} converged of ${lines.length}`],
+    ['ringbench batch', fixed(ours.wallS), spread(ourRuns), fixed(ours.cpuS), ...cpuUse(ours, cores), `${converged} converged of ${lines.length}`],
     scipyFigures
-      ? ['scipy loop', fixed(scipy.wallS), fixed(scipy.cpuS), ...cpuUse(scipy, cores), `${scipyFigures.fitted} fitted, ${scipyFigures.failed} gave up`]
-      : ['scipy loop', '-', '-', '-', '-', scipyLine],
+      ? ['scipy loop', fixed(scipy.wallS), spread(scipyRuns), fixed(scipy.cpuS), ...cpuUse(scipy, cores), `${scipyFigures.fitted} fitted, ${scipyFigures.failed} gave up`]
+      : ['scipy loop', '-', '-', '-', '-', '-', scipyLine],
   ];
-  console.log(formatTable(['', 'wall s', 'CPU s (user+sys)', 'CPU use', `per core (${cores})`, 'captures'], rows));
+  console.log(formatTable(['', 'wall s', 'range s', 'CPU s (user+sys)', 'CPU use', `per core (${cores})`, 'captures'], rows));
   if (!scipyFigures) return;
   const ratio = scipy.wallS / ours.wallS;
-  console.log(`scipy loop / batch wall time: ${ratio.toFixed(1)}x`);
+  console.log(`scipy loop / batch wall time (medians): ${ratio.toFixed(1)}x`);
   console.log(goalLine(ratio >= GOAL_RATIO, `batch >= ${GOAL_RATIO}x faster than the scipy loop over the same ${count} files`, `${ratio.toFixed(1)}x`));
 }
