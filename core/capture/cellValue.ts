@@ -153,6 +153,12 @@ export function slowCellValue(cell: string, decimalComma: boolean): number | nul
   return Number.isFinite(value) && Math.abs(value) < OVERRANGE ? value : NaN;
 }
 
+/**
+ * Whole numbers a comma or a point may group in threes ('1,234', '0.905', '12.345.678'): they read two ways, as a
+ * grouped whole number or with the mark as a decimal one, a factor of 1000 or more apart.
+ */
+export const GROUPED_IN_THREES: Record<',' | '.', RegExp> = { ',': /^[+-]?\d{1,3}(?:,\d{3})+$/, '.': /^[+-]?\d{1,3}(?:\.\d{3})+$/ };
+
 /** A cell's text as a number would be read from it: trimmed, unquoted, a Unicode minus sign (U+2212) as '-'. */
 export function cellText(cell: string): string {
   let text = cell.trim();

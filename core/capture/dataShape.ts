@@ -1,6 +1,6 @@
 // Recognises a row of numbers and the delimiter it uses, before the layout of the file is known.
 
-import { groupingCause, isTimestamp, slowCellValue } from './cellValue';
+import { cellText, GROUPED_IN_THREES, groupingCause, isTimestamp, slowCellValue } from './cellValue';
 import { isBlankOrComment } from './preamble';
 import { WHITESPACE, splitLine } from './splitLine';
 
@@ -18,17 +18,27 @@ const CANDIDATES = ['\t', ';', ',', WHITESPACE];
 
 function judge(cells: string[], delimiter: string): DataShape | null {
   let numbers = 0;
-  let decimalComma = false;
+  /** A comma no grouping explains ('0,5', '1,000000'), one that could group thousands ('1,234', '0,000'), a point no grouping explains ('1.5', '1.0E-08'). */
+  let commaMarksDecimals = false;
+  let commaMayGroup = false;
+  let pointMarksDecimals = false;
   for (const cell of cells) {
-    // A ',' inside a cell of a comma-separated line can only come from a quoted field: a decimal comma.
+    // A ',' inside a cell of a comma-separated line can only come from a quoted field.
     const value = slowCellValue(cell, delimiter !== ',' || cell.includes(','));
     if (value === null) {
       if (!isTimestamp(cell)) return null;
     } else if (!Number.isNaN(value)) {
       numbers++;
-      if (cell.includes(',')) decimalComma = true;
+      const text = cellText(cell);
+      if (text.includes(',')) {
+        if (GROUPED_IN_THREES[','].test(text)) commaMayGroup = true;
+        else commaMarksDecimals = true;
+      }
+      if (text.includes('.') && !GROUPED_IN_THREES['.'].test(text)) pointMarksDecimals = true;
     }
   }
+  // '0,000;1,000' is a row of decimal commas; in '1.5e-08,"1,234"' the point marks decimals and the comma may group.
+  const decimalComma = commaMarksDecimals || (commaMayGroup && !pointMarksDecimals);
   return numbers > 0 ? { delimiter, cells, decimalComma } : null;
 }
 

@@ -1,6 +1,6 @@
 // The hot loop: reads one data line of a known layout straight into the column store.
 
-import { cellText, fastNumber, groupingCause, slowCellValue } from './cellValue';
+import { cellText, fastNumber, GROUPED_IN_THREES, groupingCause, slowCellValue } from './cellValue';
 import type { ColumnStore } from './columnStore';
 import { WHITESPACE, splitLine } from './splitLine';
 
@@ -10,45 +10,54 @@ export const SKIP = 1;
 
 const NOT_FOUND = Number.MAX_SAFE_INTEGER;
 
-/** ASCII codes of the two decimal marks. */
+/** ASCII code of the comma, a delimiter or a decimal mark. */
 const COMMA = 44;
-const POINT = 46;
 
 /**
- * A number that points may group in threes ('1.234', '0.905', '12.345.678'), in a table whose decimal mark is the
- * comma: grouping reads it as 1234, another export's decimal mark as 1.234, a factor of 1000 apart, so neither is
- * guessed. A point no grouping explains ('1.5', '1.000E-08') can only mark decimals, and is read so.
+ * A table's decimal mark, and the numbers the other mark may group in threes: '1.234', '0.905' or '12.345.678' where
+ * the decimal mark is the comma, '1,234' where it is the point (a spreadsheet's quoted grouping, or a ';' table's).
+ * Grouping reads such a number as 1234, the other mark as a decimal one as 1.234, a factor of 1000 apart, so neither
+ * is guessed. A mark no grouping explains ('1.5', '1.000E-08', '0,5') can only be a decimal one, and is read so.
  */
-const GROUPED_BY_POINTS = /^[+-]?\d{1,3}(?:\.\d{3})+$/;
+interface DecimalMark {
+  code: number;
+  name: string;
+  other: { name: string; text: ',' | '.' };
+}
+const DECIMAL_POINT: DecimalMark = { code: 46, name: 'point', other: { name: 'comma', text: ',' } };
+const DECIMAL_COMMA: DecimalMark = { code: COMMA, name: 'comma', other: { name: 'point', text: '.' } };
 
-/** Why a cell that reads two ways is refused, with both readings. */
-function twoReadings(cell: string): string {
-  const text = cellText(cell);
-  const grouped = Number(text.replaceAll('.', ''));
-  const decimal = text.split('.').length === 2 ? ` or ${Number(text)} (a decimal point from another export)` : '';
-  return `in a table whose decimal mark is the comma this reads as ${grouped} (points grouping thousands)${decimal}; export the numbers with one decimal mark and no digit grouping`;
+/** Whether a cell reads two ways in a table of this decimal mark (see DecimalMark). */
+function readsTwoWays(cell: string, mark: DecimalMark): boolean {
+  return GROUPED_IN_THREES[mark.other.text].test(cellText(cell));
 }
 
-/** Whether a cell reads two ways in a table whose decimal mark is `decimalCode` (see GROUPED_BY_POINTS). */
-function readsTwoWays(cell: string, decimalCode: number): boolean {
-  return decimalCode === COMMA && GROUPED_BY_POINTS.test(cellText(cell));
+/** Why a cell that reads two ways (see DecimalMark) is refused, with both readings; null for any other cell. */
+function twoReadings(cell: string, mark: DecimalMark): string | null {
+  if (!readsTwoWays(cell, mark)) return null;
+  const text = cellText(cell);
+  const other = mark.other;
+  const grouped = Number(text.replaceAll(other.text, ''));
+  const decimal = text.split(other.text).length === 2 ? ` or ${Number(text.replace(other.text, '.'))} (a decimal ${other.name} from another export)` : '';
+  return `in a table whose decimal mark is the ${mark.name} this reads as ${grouped} (${other.name}s grouping thousands)${decimal}; export the numbers with one decimal mark and no digit grouping`;
 }
 
 /** The message for cell `col` (0-based) of a table of `count` columns that is not a number, with its likely cause. */
-function notANumber(count: number, cell: string, col: number, decimalCode: number): string {
+function notANumber(count: number, cell: string, col: number, mark: DecimalMark): string {
   const found = `expected ${count} numeric columns, found '${cell.trim()}' (column ${col + 1})`;
-  const cause = readsTwoWays(cell, decimalCode) ? twoReadings(cell) : groupingCause(cell);
+  const cause = twoReadings(cell, mark) ?? groupingCause(cell);
   return cause === null ? found : `${found}: ${cause}`;
 }
 
 /** A cell's value when the fast path left it, or null (not a number, or a number that reads two ways). */
-function slowValue(cell: string, decimalCode: number, commaMayMarkDecimals: boolean): number | null {
-  return readsTwoWays(cell, decimalCode) ? null : slowCellValue(cell, commaMayMarkDecimals);
+function slowValue(cell: string, mark: DecimalMark, commaMayMarkDecimals: boolean): number | null {
+  return readsTwoWays(cell, mark) ? null : slowCellValue(cell, commaMayMarkDecimals);
 }
 
 export class RowReader {
   private readonly count: number;
   private readonly delimiterCode: number;
+  private readonly mark: DecimalMark;
   private readonly decimalCode: number;
   private nextDelimiter = -1;
   private nextQuote = -1;
@@ -63,7 +72,8 @@ export class RowReader {
   ) {
     this.count = parsed.length;
     this.delimiterCode = delimiter === WHITESPACE ? -1 : delimiter.charCodeAt(0);
-    this.decimalCode = decimalComma ? COMMA : POINT;
+    this.mark = decimalComma ? DECIMAL_COMMA : DECIMAL_POINT;
+    this.decimalCode = this.mark.code;
   }
 
   /** Call before reading lines of a new text: the look-ahead caches belong to one string. */
@@ -141,8 +151,8 @@ export class RowReader {
     let value = fastNumber(text, start, end, this.decimalCode);
     if (value !== value) {
       const cell = text.slice(start, end);
-      const slow = slowValue(cell, this.decimalCode, this.delimiterCode !== COMMA);
-      if (slow === null) return notANumber(this.count, cell, col, this.decimalCode);
+      const slow = slowValue(cell, this.mark, this.delimiterCode !== COMMA);
+      if (slow === null) return notANumber(this.count, cell, col, this.mark);
       value = slow;
     }
     columns[col][row] = value;
@@ -162,8 +172,8 @@ export class RowReader {
       if (!this.parsed[col]) continue;
       let value = fastNumber(cell, 0, cell.length, this.decimalCode);
       if (value !== value) {
-        const slow = slowValue(cell, this.decimalCode, this.delimiterCode !== COMMA || cell.includes(','));
-        if (slow === null) return notANumber(this.count, cell, col, this.decimalCode);
+        const slow = slowValue(cell, this.mark, this.delimiterCode !== COMMA || cell.includes(','));
+        if (slow === null) return notANumber(this.count, cell, col, this.mark);
         value = slow;
       }
       columns[col][row] = value;

@@ -165,7 +165,7 @@ describe('a number written with a thousands separator', () => {
   });
 });
 
-describe('a point in a table whose decimal mark is the comma', () => {
+describe('a whole number the other decimal mark may group in threes: two readings, a factor of 1000 apart', () => {
   /** Time in ns and a value in mV written with decimal commas, 40 rows (row i on line i + 2), row 20's value replaced. */
   const commaTable = (cell: string, time = (i: number) => `${i * 50}`): string =>
     `Time (ns);CH1 (mV)\n${Array.from({ length: 40 }, (_, i) => `${time(i)};${i === 20 ? cell : (i * 10.5).toFixed(1).replace('.', ',')}`).join('\n')}\n`;
@@ -182,6 +182,23 @@ describe('a point in a table whose decimal mark is the comma', () => {
       `line 22: expected 2 numeric columns, found '${shown}' (column 2): in a table whose decimal mark is the comma this reads as ${readings}; ${advice}`,
     );
     expect(error.line).toBe(22);
+  });
+
+  it.each([
+    ['on a later row', 20, 22],
+    ['on the first row, where the table is recognised', 0, 2],
+  ])("a quoted '1,234' in a ',' table of decimal points %s: both readings, at its line", (_, at, line) => {
+    const rows = Array.from({ length: 40 }, (_, i) => `${(i * 5e-8).toExponential(3)},${i === at ? '"1,234"' : (1500 + i * 10.5).toFixed(1)}`);
+    const error = captureError(`Time (s),CH1 (V)\n${rows.join('\n')}\n`);
+    expect(error.message).toBe(
+      `line ${line}: expected 2 numeric columns, found '1,234' (column 2): in a table whose decimal mark is the point this reads as 1234 (commas grouping thousands) or 1.234 (a decimal comma from another export); ${advice}`,
+    );
+  });
+
+  it("a ';' table written with three decimals ('0,000;1,000') is still one of decimal commas", () => {
+    const capture = parseCapture(`Zeit (ms);CH1 (V)\n${Array.from({ length: 40 }, (_, i) => `${(i * 0.01).toFixed(3)};${(1 + i / 8).toFixed(3)}`.replaceAll('.', ',')).join('\n')}\n`);
+    expect(capture.channels[0].values[8]).toBe(2);
+    expect(capture.channels[0].time[1]).toBeCloseTo(1e-5, 18);
   });
 
   it('a point no grouping explains can only mark decimals: 1.5 and an exponent-written time column are read', () => {
