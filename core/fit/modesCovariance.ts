@@ -1,7 +1,7 @@
 // Covariance of every parameter of a model with several modes: its Jacobian, as a sandwich when the residuals are correlated.
 
 import { covarianceFromJacobian } from './covariance';
-import { residualSandwich, UNEVEN_GATE, unevenNoiseSandwich } from './responseCovariance';
+import { noiseReading } from './responseCovariance';
 import { expandLinear, linearNames, modesValues, ModesWorkspace, solverLinear, type ModeRates } from './modesModel';
 import type { ModesFit } from './modesFit';
 import type { FitSet } from './fitSet';
@@ -89,20 +89,16 @@ export function modesCovariance(set: FitSet, fit: ModesFit): ModesCovariance {
   if (!bread) return { names, values, covariance: null, correlation: estimate.correlation, warnings };
   const variance = fit.sse / Math.max(1, rows.length - values.length);
   const plain = bread.map((row) => row.map((v) => variance * v));
-  const sandwich = residualSandwich(J, bread, residuals);
   const rateIndex = names.map((name, j) => (/^(alpha|omega0)\d/.test(name) ? j : -1)).filter((j) => j >= 0);
   const inflationOf = (c: number[][]) => Math.max(...rateIndex.map((j) => c[j][j] / plain[j][j]));
-  const uneven = unevenNoiseSandwich(J, bread, residuals);
-  // As for one ring (responseCovariance.ts): uneven noise is taken only when it widens beyond the correlated reading.
-  if (uneven && inflationOf(uneven.covariance) > Math.max(UNEVEN_GATE, sandwich ? inflationOf(sandwich.covariance) : 1)) {
-    warnings.push(`the residuals are larger where the response changes fast (sampling jitter, or noise that scales with the signal): the modes' uncertainties widened by up to ${Math.sqrt(inflationOf(uneven.covariance)).toFixed(2)}x`);
-    return { names, values, ...uneven, warnings };
-  }
-  if (!sandwich) return { names, values, covariance: plain, correlation: estimate.correlation, warnings };
-  const { covariance, correlation } = sandwich;
-  const inflation = inflationOf(covariance);
-  if (inflation > WARN_INFLATION) {
+  // Read as for one ring (responseCovariance.ts).
+  const reading = noiseReading(J, bread, residuals, { covariance: plain, correlation: estimate.correlation }, inflationOf);
+  if (reading.kind === 'white') return { names, values, ...reading.estimate, warnings };
+  const inflation = inflationOf(reading.estimate.covariance);
+  if (reading.kind === 'uneven') {
+    warnings.push(`the residuals are larger where the response changes fast (sampling jitter, or noise that scales with the signal): the modes' uncertainties widened by up to ${Math.sqrt(inflation).toFixed(2)}x`);
+  } else if (inflation > WARN_INFLATION) {
     warnings.push(`the residuals are correlated (noise bandwidth-limited or model mismatch): the modes' uncertainties widened by up to ${Math.sqrt(inflation).toFixed(2)}x`);
   }
-  return { names, values, covariance, correlation, warnings };
+  return { names, values, ...reading.estimate, warnings };
 }

@@ -206,13 +206,43 @@ function correlatedCovariance(
  * the residuals; null when the residuals look white (then the white-noise covariance stands). Every fit with
  * a Jacobian (one ring here, several in modesCovariance.ts) reads its residuals' noise this one way.
  */
-export function residualSandwich(
+function residualSandwich(
   J: readonly Float64Array[],
   bread: number[][],
   residuals: Float64Array,
 ): { covariance: number[][]; correlation: number[][] } | null {
   const noise = residualNoiseModel(residuals, J, bread);
   return noise ? correlatedCovariance(J, bread, residuals, noise) : null;
+}
+
+/** A covariance with its correlation; the white one's correlation is null where no covariance could be estimated. */
+interface Estimate<C> {
+  covariance: number[][];
+  correlation: C;
+}
+
+/** The noise the residuals are read under, with the covariance that reading gives. */
+export type NoiseReading =
+  | { kind: 'white'; estimate: Estimate<number[][] | null> }
+  | { kind: 'correlated' | 'uneven'; estimate: Estimate<number[][]> };
+
+/**
+ * How every fit with a Jacobian (one ring here, several in modesCovariance.ts) reads its residuals' noise: uneven
+ * (sampling jitter, noise that scales with the signal) when that sandwich widens the rates' variances, as
+ * `inflation` measures them against `white`, past UNEVEN_GATE and beyond the correlated reading; else correlated
+ * when the residuals' autoregression fits them better than white noise (residualSandwich); else white.
+ */
+export function noiseReading(
+  J: readonly Float64Array[],
+  bread: number[][],
+  residuals: Float64Array,
+  white: Estimate<number[][] | null>,
+  inflation: (covariance: number[][]) => number,
+): NoiseReading {
+  const sandwich = residualSandwich(J, bread, residuals);
+  const uneven = unevenNoiseSandwich(J, bread, residuals);
+  if (uneven && inflation(uneven.covariance) > Math.max(UNEVEN_GATE, sandwich ? inflation(sandwich.covariance) : 1)) return { kind: 'uneven', estimate: uneven };
+  return sandwich ? { kind: 'correlated', estimate: sandwich } : { kind: 'white', estimate: white };
 }
 
 /**
@@ -262,30 +292,23 @@ function localCovariance(
   if (!bread || !plain) return { names, covariance: plain, correlation: estimate.correlation, inflation: 1, warnings };
   const rates = ['alpha', 'omega0'].filter((name) => name in index);
   const ratiosOf = (c: number[][]) => rates.map((name) => c[index[name]][index[name]] / plain[index[name]][index[name]]);
-  const sandwich = residualSandwich(J, bread, residuals);
-  const uneven = unevenNoiseSandwich(J, bread, residuals);
-  // Uneven noise (sampling jitter, noise that scales with the signal) is taken only when it widens beyond the correlated reading.
-  const unevenRatios = uneven ? ratiosOf(uneven.covariance) : [];
-  if (uneven && Math.max(...unevenRatios) > Math.max(UNEVEN_GATE, ...(sandwich ? ratiosOf(sandwich.covariance) : [1]))) {
-    const widened = rates.map((name, k) => `${Math.sqrt(unevenRatios[k]).toFixed(2)}x (${name})`).join(' and ');
+  const reading = noiseReading(J, bread, residuals, { covariance: plain, correlation: estimate.correlation }, (c) => Math.max(...ratiosOf(c)));
+  if (reading.kind === 'white') return { names, ...reading.estimate, inflation: 1, warnings };
+  const ratios = ratiosOf(reading.estimate.covariance);
+  const widened = rates.map((name, k) => `${Math.sqrt(ratios[k]).toFixed(2)}x (${name})`).join(' and ');
+  if (reading.kind === 'uneven') {
     warnings.push(`the residuals are larger where the response changes fast (sampling jitter, or noise that scales with the signal): uncertainties widened by ${widened}`);
-    return { names, ...uneven, inflation: Math.max(...unevenRatios), warnings };
-  }
-  if (!sandwich) return { names, covariance: plain, correlation: estimate.correlation, inflation: 1, warnings };
-  const { covariance, correlation } = sandwich;
-  const ratios = ratiosOf(covariance);
-  if (Math.max(...ratios) > WARN_INFLATION) {
-    const widened = rates.map((name, k) => `${Math.sqrt(ratios[k]).toFixed(2)}x (${name})`).join(' and ');
+  } else if (Math.max(...ratios) > WARN_INFLATION) {
     warnings.push(`the residuals are correlated (noise bandwidth-limited or model mismatch): uncertainties widened by ${widened}`);
   }
-  return { names, covariance, correlation, inflation: Math.max(...ratios), warnings };
+  return { names, ...reading.estimate, inflation: Math.max(...ratios), warnings };
 }
 
 /**
  * Above this variance ratio (alpha or omega0) against white noise the uneven-noise sandwich is taken: white noise
  * of a few hundred samples or more leaves its ratio within some 10 % of 1, so a good capture keeps its covariance.
  */
-export const UNEVEN_GATE = WARN_INFLATION;
+const UNEVEN_GATE = WARN_INFLATION;
 
 /**
  * The heteroscedasticity-consistent sandwich (J^T J)^-1 (sum r_i^2 J_i J_i^T) (J^T J)^-1 n / (n - p) of White
@@ -293,7 +316,7 @@ export const UNEVEN_GATE = WARN_INFLATION;
  * jitter makes it (its error is the slope times the time error, largest on the ring's first swings, exactly where
  * alpha and omega0 are read). Null when there are no more samples than parameters.
  */
-export function unevenNoiseSandwich(J: readonly Float64Array[], bread: number[][], residuals: Float64Array): { covariance: number[][]; correlation: number[][] } | null {
+function unevenNoiseSandwich(J: readonly Float64Array[], bread: number[][], residuals: Float64Array): { covariance: number[][]; correlation: number[][] } | null {
   const n = residuals.length;
   const p = bread.length;
   if (n <= p) return null;
