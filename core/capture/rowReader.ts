@@ -58,6 +58,7 @@ export class RowReader {
   private readonly count: number;
   private readonly delimiterCode: number;
   private readonly mark: DecimalMark;
+  /** The mark's code, kept beside it: every cell of the hot loop reads it. */
   private readonly decimalCode: number;
   private nextDelimiter = -1;
   private nextQuote = -1;

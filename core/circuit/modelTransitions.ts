@@ -259,6 +259,7 @@ function shapeSettling(s: Shape): Settling {
   return settlingAt(s, points, points.map((t) => natural(s, t)));
 }
 
+/** Both settling times from the critical points and the natural part at each (`atPoints`), found by the caller once. */
 function settlingAt(s: Shape, points: number[], atPoints: number[]): Settling {
   return { settling2: settling(s, points, atPoints, 0.02), settling5: settling(s, points, atPoints, 0.05) };
 }
