@@ -154,10 +154,11 @@ export function slowCellValue(cell: string, decimalComma: boolean): number | nul
 }
 
 /**
- * Whole numbers a comma or a point may group in threes ('1,234', '0.905', '12.345.678'): they read two ways, as a
- * grouped whole number or with the mark as a decimal one, a factor of 1000 or more apart.
+ * Whole numbers a comma or a point may group in threes ('1,234', '12.345.678'): they read two ways, as a grouped
+ * whole number or with the mark as a decimal one, a factor of 1000 or more apart. A leading group never starts with
+ * a zero, so '0.905' and '0,000' read one way only, with the mark as a decimal one.
  */
-export const GROUPED_IN_THREES: Record<',' | '.', RegExp> = { ',': /^[+-]?\d{1,3}(?:,\d{3})+$/, '.': /^[+-]?\d{1,3}(?:\.\d{3})+$/ };
+export const GROUPED_IN_THREES: Record<',' | '.', RegExp> = { ',': /^[+-]?[1-9]\d{0,2}(?:,\d{3})+$/, '.': /^[+-]?[1-9]\d{0,2}(?:\.\d{3})+$/ };
 
 /** A cell's text as a number would be read from it: trimmed, unquoted, a Unicode minus sign (U+2212) as '-'. */
 export function cellText(cell: string): string {

@@ -18,7 +18,7 @@ const CANDIDATES = ['\t', ';', ',', WHITESPACE];
 
 function judge(cells: string[], delimiter: string): DataShape | null {
   let numbers = 0;
-  /** A comma no grouping explains ('0,5', '1,000000'), one that could group thousands ('1,234', '0,000'), a point no grouping explains ('1.5', '1.0E-08'). */
+  /** A comma no grouping explains ('0,5', '0,000', '1,000000'), one that could group thousands ('1,234', '1,000'), a point no grouping explains ('1.5', '1.0E-08'). */
   let commaMarksDecimals = false;
   let commaMayGroup = false;
   let pointMarksDecimals = false;

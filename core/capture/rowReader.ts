@@ -14,10 +14,11 @@ const NOT_FOUND = Number.MAX_SAFE_INTEGER;
 const COMMA = 44;
 
 /**
- * A table's decimal mark, and the numbers the other mark may group in threes: '1.234', '0.905' or '12.345.678' where
- * the decimal mark is the comma, '1,234' where it is the point (a spreadsheet's quoted grouping, or a ';' table's).
+ * A table's decimal mark, and the numbers the other mark may group in threes: '1.234' or '12.345.678' where the
+ * decimal mark is the comma, '1,234' where it is the point (a spreadsheet's quoted grouping, or a ';' table's).
  * Grouping reads such a number as 1234, the other mark as a decimal one as 1.234, a factor of 1000 apart, so neither
- * is guessed. A mark no grouping explains ('1.5', '1.000E-08', '0,5') can only be a decimal one, and is read so.
+ * is guessed. A mark no grouping explains ('1.5', '1.000E-08', '0,5', '0.905': no group starts with a zero) can only
+ * be a decimal one, and is read so.
  */
 interface DecimalMark {
   code: number;

@@ -172,7 +172,6 @@ describe('a whole number the other decimal mark may group in threes: two reading
   const advice = 'export the numbers with one decimal mark and no digit grouping';
 
   it.each([
-    ['0.905', '0.905', '905 (points grouping thousands) or 0.905 (a decimal point from another export)'],
     ['1.234', '1.234', '1234 (points grouping thousands) or 1.234 (a decimal point from another export)'],
     ['-12.345.678', '-12.345.678', '-12345678 (points grouping thousands)'],
     ['"1.234"', '1.234', '1234 (points grouping thousands) or 1.234 (a decimal point from another export)'],
@@ -199,6 +198,24 @@ describe('a whole number the other decimal mark may group in threes: two reading
     const capture = parseCapture(`Zeit (ms);CH1 (V)\n${Array.from({ length: 40 }, (_, i) => `${(i * 0.01).toFixed(3)};${(1 + i / 8).toFixed(3)}`.replaceAll('.', ',')).join('\n')}\n`);
     expect(capture.channels[0].values[8]).toBe(2);
     expect(capture.channels[0].time[1]).toBeCloseTo(1e-5, 18);
+  });
+
+  it.each([
+    ['0.905', 0.905e-3],
+    ['-0.125', -0.125e-3],
+    ['"0.500"', 0.5e-3],
+  ])("'%s' cannot group thousands (no digit group starts with a zero): read with the point as a decimal mark", (cell, volts) => {
+    const capture = parseCapture(commaTable(cell));
+    expect(capture.channels[0].values[20]).toBeCloseTo(volts, 15);
+    expect(capture.channels[0].values[21]).toBeCloseTo(0.2205, 15);
+  });
+
+  it("exponent-written times beside values with three decimal commas ('1.000E-08;0,998'): a table of decimal commas", () => {
+    const rows = Array.from({ length: 40 }, (_, i) => `${(i * 1e-8).toExponential(3).toUpperCase()};${(0.5 + i / 1000).toFixed(3).replace('.', ',')}`);
+    const capture = parseCapture(`Time (s);CH1 (V)\n${rows.join('\n')}\n`);
+    expect(capture.channels[0].values[0]).toBe(0.5);
+    expect(capture.channels[0].values[39]).toBeCloseTo(0.539, 15);
+    expect(capture.channels[0].time[39]).toBeCloseTo(3.9e-7, 21);
   });
 
   it('a point no grouping explains can only mark decimals: 1.5 and an exponent-written time column are read', () => {
