@@ -53,7 +53,7 @@ export function isMeasured(outcome: BatchOutcome): outcome is BatchMeasured {
 /** Measure the capture `path` (shown as `file`); never throws: a capture that cannot be measured is an outcome too. */
 export function measureBatchFile(path: string, file: string, batch: BatchSettings): BatchOutcome {
   try {
-    const measurement = measureFile(path, batch.settings, batch.cwd, batch.design);
+    const measurement = measureFile(path, batch.settings, batch.cwd, batch.design, batch.logging !== null);
     const { summary, verdict, cautions } = measurement;
     // As log add: a failed fit or an answer a setup check refused is not logged.
     const logged = batch.logging && fitSucceeded(summary) && !setupRefused(measurement.setupChecks) ? batch.logging : null;

@@ -22,8 +22,11 @@ export interface RecordDeps {
   newId?: () => string;
 }
 
+/** The record of a measurement whose capture was read with its hash (measureFile's `forRecord`). */
 export function createBenchRecord(m: FileMeasurement, label: MeasurementLabel, options: MeasureSettings, deps: RecordDeps = {}): BenchRecord {
   const { fired, energies, charge, discharge } = m.cautions;
+  const sha256 = m.capture.sha256;
+  if (sha256 === null) throw new Error('a bench-log record needs its capture read with the hash (measureFile with forRecord)');
   return {
     record: RECORD_KIND,
     schema: RECORD_SCHEMA,
@@ -33,7 +36,7 @@ export function createBenchRecord(m: FileMeasurement, label: MeasurementLabel, o
     operator: label.operator,
     ...(label.station ? { station: label.station } : {}),
     note: label.note,
-    capture: { path: m.capture.path, sha256: m.capture.sha256, bytes: m.capture.bytes, channel: m.capture.channel.name },
+    capture: { path: m.capture.path, sha256, bytes: m.capture.bytes, channel: m.capture.channel.name },
     settings: {
       topology: options.topology ?? null,
       known: options.known ?? null,

@@ -32,19 +32,25 @@ export function loadDesignFile(path: string, cwd: string): LoadedDesign {
   return { path: full, sha256: createHash('sha256').update(bytes).digest('hex'), design: parseDesign(bytes.toString('utf8')) };
 }
 
-/** The capture file read with the settings' channel, sample interval, time-order rule and stated units; the probe's scale and sign applied to the channel. */
-export function loadCaptureFor(file: string, settings: MeasureSettings, cwd: string): LoadedCapture {
-  const loaded = loadCapture(file, { cwd, ...readingOptionsOf(settings) });
+/**
+ * The capture file read with the settings' channel, sample interval, time-order rule and stated units; the probe's
+ * scale and sign applied to the channel. `hash`: with the file's sha256, for a bench-log record.
+ */
+export function loadCaptureFor(file: string, settings: MeasureSettings, cwd: string, hash = false): LoadedCapture {
+  const loaded = loadCapture(file, { cwd, ...readingOptionsOf(settings), hash });
   return { ...loaded, channel: applyProbe(loaded.channel, parseMeasureSettings(settings).probe) };
 }
 
-/** Fit one capture file; with a design, its verdict; the cautions from its samples. A part or design that cannot be used throws. */
-export function measureFile(file: string, settings: MeasureSettings, cwd: string, design: LoadedDesign | null = null): FileMeasurement {
+/**
+ * Fit one capture file; with a design, its verdict; the cautions from its samples. A part or design that cannot be used
+ * throws. `forRecord`: the capture's sha256 is taken as it is read, for createBenchRecord.
+ */
+export function measureFile(file: string, settings: MeasureSettings, cwd: string, design: LoadedDesign | null = null, forRecord = false): FileMeasurement {
   if (design && (settings.topology !== undefined || settings.known !== undefined)) {
     throw new UsageError('--design gives the topology and components: leave out --topology and --known');
   }
   const parsed = parseMeasureSettings(settings);
-  const capture = loadCaptureFor(file, settings, cwd);
+  const capture = loadCaptureFor(file, settings, cwd, forRecord);
   const result = measureCapture({
     file: basename(file),
     channel: capture.channel,

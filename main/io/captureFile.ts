@@ -10,7 +10,8 @@ import { FileError } from './fileError';
 
 export interface LoadedCapture {
   path: string;
-  sha256: string;
+  /** Null unless asked for (loadCapture's `hash`): only a bench-log record names its capture by the hash. */
+  sha256: string | null;
   bytes: number;
   capture: Capture;
   channel: Channel;
@@ -159,21 +160,25 @@ export function decodeUtf8(bytes: Uint8Array): string {
   return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString('utf8');
 }
 
-/** Reads a capture file in pieces (never whole: see PIECE_BYTES), hashing each as it is parsed. */
+/**
+ * Reads a capture file in pieces (never whole: see PIECE_BYTES); with `hash`, hashing each as it is parsed, so the
+ * hash is that of the bytes read (a 10^6-row file's sha256 took 14 ms, a fortieth of a fit of it, wasted where no
+ * record is written).
+ */
 export function loadCapture(
   path: string,
-  options: CaptureOptions & { channel?: string | number; cwd?: string } = {},
+  options: CaptureOptions & { channel?: string | number; cwd?: string; hash?: boolean } = {},
 ): LoadedCapture {
   const full = resolve(options.cwd ?? process.cwd(), path);
-  const hash = createHash('sha256');
+  const hash = options.hash ? createHash('sha256') : null;
   let reader!: CaptureFileReader;
   const bytes = readFileInPieces(full, (size) => {
     reader = createCaptureFileReader(options, size);
     return (piece) => {
-      hash.update(piece);
+      hash?.update(piece);
       reader.pushBytes(piece);
     };
   });
   const capture = reader.finish();
-  return { path: full, sha256: hash.digest('hex'), bytes, capture, channel: selectChannel(capture, options.channel) };
+  return { path: full, sha256: hash ? hash.digest('hex') : null, bytes, capture, channel: selectChannel(capture, options.channel) };
 }

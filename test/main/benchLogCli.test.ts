@@ -1,5 +1,6 @@
 // `ringbench log add`, `log list` and `batch` run in-process: what they print, log and exit with.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createHash } from 'node:crypto';
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -35,7 +36,7 @@ describe('log add', () => {
     const r = records[0];
     expect(r).toMatchObject({ record: 'ringbench-measurement', schema: 1, unit: 'SN040', operator: 'M. Okafor', note: 'first article' });
     expect(r.capture).toMatchObject({ path: join(folder, 'sn040.csv'), channel: 'Gate', bytes: readFileSync(join(folder, 'sn040.csv')).length });
-    expect(r.capture.sha256).toMatch(/^[0-9a-f]{64}$/);
+    expect(r.capture.sha256).toBe(createHash('sha256').update(readFileSync(join(folder, 'sn040.csv'))).digest('hex'));
     expect(r.design).toMatchObject({ path: join(folder, 'gate-loop.json'), name: 'gate loop rev C' });
     expect(r.verdict!.pass).toBe(true);
     expect(r.software).toEqual({ name: 'ringbench', version: '0.1.0' });
@@ -127,7 +128,9 @@ describe('batch', () => {
     expect(results[1].verdict!.pass).toBe(true);
     expect(results[2].verdict!.pass).toBe(false);
     expect(err).toMatch(/^\[#{24}\]  3\/3  done in \d+:\d\d$/m); // the progress bar on a terminal, a line per drawing in-process
-    expect(readBenchLog(join(folder, 'batch.jsonl')).records.map((r) => r.unit)).toEqual(['sn040', 'sn041']);
+    const logged = readBenchLog(join(folder, 'batch.jsonl')).records;
+    expect(logged.map((r) => r.unit)).toEqual(['sn040', 'sn041']);
+    for (const r of logged) expect(r.capture.sha256).toBe(createHash('sha256').update(readFileSync(join(folder, `${r.unit}.csv`))).digest('hex'));
   });
 
   it('prints a table and no progress when not interactive; exit 3 when all fitted but one is out of tolerance', async () => {

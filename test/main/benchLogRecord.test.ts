@@ -21,6 +21,11 @@ describe('createBenchRecord', () => {
     expect(parseBenchRecord(JSON.stringify(record), 1)).toEqual(record);
   });
 
+  it('refuses a measurement whose capture was read without its hash (a record names its capture by it)', () => {
+    const unhashed = { ...measurement, capture: { ...measurement.capture, sha256: null } };
+    expect(() => createBenchRecord(unhashed, { unit: 'X', operator: null, note: null }, {})).toThrow('a bench-log record needs its capture read with the hash');
+  });
+
   it('keeps the fit settings as given, null where left to the default', () => {
     expect(record.settings).toEqual({ topology: 'series', known: 'C=2.2n', column: null, sampleInterval: null, from: '-5n', to: null, sortTime: false });
   });

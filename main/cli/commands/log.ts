@@ -57,7 +57,7 @@ export function registerLogCommand(program: Command, ctx: CommandContext): void 
       requireBenchLogFile(logPath);
       const design = options.design === undefined ? null : namingFile(options.design, () => loadDesignFile(options.design as string, ctx.io.cwd));
       const settings = measureSettingsOf(options);
-      const measurement = namingFile(file, () => measureFile(file, settings, ctx.io.cwd, design));
+      const measurement = namingFile(file, () => measureFile(file, settings, ctx.io.cwd, design, true));
       if (!fitSucceeded(measurement.summary)) {
         ctx.io.out(options.json ? `${JSON.stringify({ logged: null, fit: measurement.summary })}\n` : formatFitText(measurement.summary));
         ctx.io.err(`ringbench: the fit failed (${measurement.summary.status}), nothing was logged: ${measurement.summary.message}\n`);
