@@ -22,6 +22,10 @@ import type { ResponseFit, ResponseFitOptions } from './responseFit';
 export type { Trace } from './trace';
 export type { Regime, ResponseFit, ResponseFitOptions } from './responseFit';
 
+/** A window whose samples all hold one value: no noise, no step, nothing to fit (often a probe off, or another channel meant). */
+const FLAT_EVIDENCE = 'every usable sample holds one value';
+const FLAT_MESSAGE = `no second-order response found: ${FLAT_EVIDENCE} (a flat line: a disconnected probe, or the wrong channel?)`;
+
 export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): ResponseFit {
   // The continuous layouts are fitted first; a jump at the event is looked for once they are (jumpStart.ts).
   const continuity = 'continuous';
@@ -34,6 +38,7 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   if (set.time.length < MIN_FIT_SAMPLES) {
     throw new FitInputError('trace', `only ${set.time.length} usable samples in the fit window; at least ${MIN_FIT_SAMPLES} are needed`);
   }
+  if (!(set.range > 0)) return { ...noResponseFit(set, 0, [...set.warnings], FLAT_EVIDENCE, trace.unit), message: FLAT_MESSAGE };
   // Block means lie few to a ring period: their noise is read from second differences (noise.ts).
   const noise = recordNoise(set.values, set.block !== null);
   const step = quantisationStep(set.values);

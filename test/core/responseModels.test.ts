@@ -20,6 +20,21 @@ describe('a record with no response', () => {
   });
 });
 
+describe('a record whose every sample holds one value (a probe off, or the wrong channel)', () => {
+  it.each([
+    ['zero', 0],
+    ['a level', 2.5],
+  ])('at %s: status no-response saying it is a flat line, the level with no spread, no ring', (_, level) => {
+    const time = Float64Array.from({ length: 2500 }, (_, i) => i * 2e-9);
+    const fit = fitResponse({ time, values: new Float64Array(time.length).fill(level), unit: 'V' });
+    expect(fit.status).toBe('no-response');
+    expect(fit.message).toBe('no second-order response found: every usable sample holds one value (a flat line: a disconnected probe, or the wrong channel?)');
+    expect(fit.finalValue.value).toBe(level);
+    expect(fit.finalValue.stderr).toBe(0);
+    expect(fit.omega0.value).toBeNaN();
+  });
+});
+
 describe('a first-order record (an RC step)', () => {
   it('is fitted as a single decay: tau with its standard error, no ring quantities', () => {
     const fit = fitResponse(rcStep());
