@@ -22,9 +22,9 @@ import type { ResponseFit, ResponseFitOptions } from './responseFit';
 export type { Trace } from './trace';
 export type { Regime, ResponseFit, ResponseFitOptions } from './responseFit';
 
-/** A window whose samples all hold one value: no noise, no step, nothing to fit (often a probe off, or another channel meant). */
+/** A window whose samples all hold one value: no noise, no step, nothing to fit (a probe off, another channel meant, or a window beside the response). */
 const FLAT_EVIDENCE = 'every usable sample holds one value';
-const FLAT_MESSAGE = `no second-order response found: ${FLAT_EVIDENCE} (a flat line: a disconnected probe, or the wrong channel?)`;
+const FLAT_MESSAGE = `no second-order response found: ${FLAT_EVIDENCE} (a flat line: a disconnected probe, the wrong channel, or a window that misses the response?)`;
 
 export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): ResponseFit {
   // The continuous layouts are fitted first; a jump at the event is looked for once they are (jumpStart.ts).

@@ -28,7 +28,7 @@ describe('a record whose every sample holds one value (a probe off, or the wrong
     const time = Float64Array.from({ length: 2500 }, (_, i) => i * 2e-9);
     const fit = fitResponse({ time, values: new Float64Array(time.length).fill(level), unit: 'V' });
     expect(fit.status).toBe('no-response');
-    expect(fit.message).toBe('no second-order response found: every usable sample holds one value (a flat line: a disconnected probe, or the wrong channel?)');
+    expect(fit.message).toBe('no second-order response found: every usable sample holds one value (a flat line: a disconnected probe, the wrong channel, or a window that misses the response?)');
     expect(fit.finalValue.value).toBe(level);
     expect(fit.finalValue.stderr).toBe(0);
     expect(fit.omega0.value).toBeNaN();
