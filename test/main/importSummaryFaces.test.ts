@@ -51,7 +51,7 @@ describe('fit', () => {
 });
 
 describe('the bench log and the reports', () => {
-  const measured = measureFile('test/fixtures/capture/lc-filter-decimal-comma.csv', {}, ROOT);
+  const measured = measureFile('test/fixtures/capture/lc-filter-decimal-comma.csv', {}, ROOT, null, true);
   const record = createBenchRecord(measured, { unit: 'SN7', operator: null, note: null }, {}, { clock: () => new Date('2026-01-02T03:04:05Z'), newId: () => 'abcdefabcdef' });
 
   it('keeps the summary in the record, and still reads records logged without one', () => {
