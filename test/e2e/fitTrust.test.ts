@@ -8,7 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { buildBench, CHROMIUM, dropFile, fitCount, hasChromium, launchChromium, outputDir, serveBench, waitForFit, waitForRefit, type ServedBench } from './benchHarness';
-import { ambiguousMillisecondsCapture, flatNoiseCapture, rcStepCapture, squareWaveCapture } from './generatedCaptures';
+import { ambiguousMillisecondsCapture, flatLineCapture, flatNoiseCapture, rcStepCapture, squareWaveCapture } from './generatedCaptures';
 
 if (!hasChromium) console.warn(`test/e2e/fitTrust.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
 
@@ -51,6 +51,16 @@ describe.skipIf(!hasChromium)('the fit badge, the unit choices and the events in
     expect(await page.locator('#fit-regime').count()).toBe(0);
     expect(await page.locator('#fit-results caption').innerText()).toContain('not a measurement');
     await page.locator('#fit-panel').screenshot({ path: join(outputDir, 'fit-panel-flat-noise.png') });
+  });
+
+  it('says why a record holding one value in every sample has no response (a probe off, or another channel meant)', async () => {
+    const file = join(folder, 'flat-line.csv');
+    writeFileSync(file, flatLineCapture());
+    await dropFile(page, file, 'flat-line.csv');
+    await waitForFit(page, 'flat-line.csv');
+    expect(await page.locator('#fit-state').getAttribute('data-status')).toBe('no-response');
+    expect(await page.locator('#fit-message').innerText()).toContain('every usable sample holds one value (a flat line: a disconnected probe, the wrong channel');
+    await page.locator('#fit-panel').screenshot({ path: join(outputDir, 'fit-panel-flat-line.png') });
   });
 
   it('shows an RC step as first-order, with its time constant', async () => {

@@ -15,6 +15,13 @@ export function flatNoiseCapture(seed = 11, samples = 2000): string {
   return `${lines.join('\n')}\n`;
 }
 
+/** A channel holding one value in every sample (a probe left off): 2000 samples of 0 V, 10 ns apart. */
+export function flatLineCapture(samples = 2000): string {
+  const lines = ['Time (s),CH1 (V)'];
+  for (let i = 0; i < samples; i++) lines.push(`${(i * 10e-9).toExponential(6)},0.00000`);
+  return `${lines.join('\n')}\n`;
+}
+
 /** The input filter sample with its time column in milliseconds under the ambiguous 'MS' (milli or mega?). */
 export function ambiguousMillisecondsCapture(): string {
   const [header, ...rows] = readFileSync(join(repoRoot, 'sample-captures/input-filter-step.csv'), 'utf8').trim().split('\n');
