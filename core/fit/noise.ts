@@ -142,14 +142,22 @@ export function estimateNoiseOfMeans(values: ArrayLike<number>): number {
 
 /** White noise's standard deviation from the MAD of the differences of `order` 1 or 2 over [start, end), at most 20000 of them. */
 function differenceNoise(values: ArrayLike<number>, start: number, end: number, order: 1 | 2): number {
+  // The variance of a difference of white noise: 2 sigma^2 (first), 6 sigma^2 (second).
+  return medianInPlace(absoluteDifferences(values, start, end, order)) / (0.6745 * (order === 1 ? Math.SQRT2 : Math.sqrt(6)));
+}
+
+/**
+ * |first| or |second differences| over [start, end), at most 20000 of them (evenly strided). A function of its own for
+ * the reason deviationsFrom is: a fit reads the noise of one record several times.
+ */
+function absoluteDifferences(values: ArrayLike<number>, start: number, end: number, order: 1 | 2): Float64Array {
   const stride = Math.max(1, Math.floor((end - start) / 20000));
   const last = order === 1 ? end : end - 1;
   const diffs = new Float64Array(Math.max(0, Math.ceil((last - start - 1) / stride)));
   let count = 0;
   if (order === 1) for (let i = start + 1; i < last; i += stride) diffs[count++] = Math.abs(values[i] - values[i - 1]);
   else for (let i = start + 1; i < last; i += stride) diffs[count++] = Math.abs(values[i + 1] - 2 * values[i] + values[i - 1]);
-  // The variance of a difference of white noise: 2 sigma^2 (first), 6 sigma^2 (second).
-  return medianInPlace(diffs) / (0.6745 * (order === 1 ? Math.SQRT2 : Math.sqrt(6)));
+  return diffs;
 }
 
 /** q / sqrt(12) for a record on a grid of step q (0 off a grid): the noise a quantised record has at least. */
