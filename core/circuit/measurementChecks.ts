@@ -17,6 +17,16 @@ export const MIN_SAMPLES_PER_PERIOD = 10;
 /** Fewer samples than this per ring period and the frequency may be an alias: refused (2 is the Nyquist limit; the margin is our choice). */
 export const REFUSED_SAMPLES_PER_PERIOD = 2.5;
 
+/**
+ * The slowest ring that sampling every `sampleInterval` s shows at `frequency` Hz (below half the sample rate): the
+ * sample rate less the frequency, by the sampling theorem (Shannon 1949); null when the front end's `bandwidth` (Hz)
+ * stops it, so that the ring seen can only be itself. A ring the front end passes aliases whatever the fit does.
+ */
+export function passedAlias(frequency: number, sampleInterval: number, bandwidth: number): number | null {
+  const alias = 1 / sampleInterval - frequency;
+  return alias > frequency && alias <= bandwidth ? alias : null;
+}
+
 /** Samples per period of a ring at `frequency` Hz sampled every `sampleInterval` s. */
 export function samplesPerRingPeriod(frequency: number, sampleInterval: number): number {
   return 1 / (frequency * sampleInterval);
@@ -40,6 +50,21 @@ export function checkRingCapture(frequency: number, setup: RingCaptureSetup, lab
           `at least ${MIN_SAMPLES_PER_PERIOD} per period is the usual working margin for a fit (common practice).`,
       );
     }
+    const alias = bandwidth === undefined ? null : passedAlias(frequency, sampleInterval, bandwidth);
+    if (alias !== null) warnings.push(`${label} ${aliasWarning(frequency, alias, sampleInterval, bandwidth as number, 'the scope/probe bandwidth')}.`);
   }
   return warnings;
 }
+
+/** Why a ring at `frequency` may be the alias `alias` of a faster one, in words (see passedAlias). */
+export function aliasWarning(frequency: number, alias: number, sampleInterval: number, bandwidth: number, source: string): string {
+  const rate = 1 / sampleInterval;
+  return (
+    `${formatEngineering(bandwidth, 'Hz')} (${source}) passes rings above half the ${formatEngineering(rate, 'Sa/s')} sample rate: ` +
+    `one at ${formatEngineering(alias, 'Hz')} would show as this ${formatEngineering(frequency, 'Hz')} ring; if the circuit can ring that fast, ` +
+    `capture again at ${formatEngineering(ALIAS_FREE_RATE * bandwidth, 'Sa/s')} or more (the sampling theorem; ${ALIAS_FREE_RATE} times the bandwidth: common practice)`
+  );
+}
+
+/** Sample rate, in bandwidths, at which a front end's passband no longer aliases (common practice). */
+export const ALIAS_FREE_RATE = 2.5;

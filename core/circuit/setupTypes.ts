@@ -4,6 +4,7 @@ import type { Quantity } from '../quantity';
 
 export type SetupCheckId =
   | 'samples-per-period'
+  | 'alias'
   | 'bandwidth'
   | 'acquisition-mode'
   | 'probe-loading'

@@ -5,7 +5,7 @@
 // bias the setup puts on the answer; a note adds what the setup changes, with values.
 
 import type { Channel } from '../capture/types';
-import { BANDWIDTH_FRACTION, MIN_SAMPLES_PER_PERIOD, REFUSED_SAMPLES_PER_PERIOD, samplesPerRingPeriod } from '../circuit/measurementChecks';
+import { aliasWarning, BANDWIDTH_FRACTION, MIN_SAMPLES_PER_PERIOD, passedAlias, REFUSED_SAMPLES_PER_PERIOD, samplesPerRingPeriod } from '../circuit/measurementChecks';
 import { frontEndBias } from '../circuit/setupFrontEnd';
 import { fittedWindows, ringFrequencyAlong, ringWindowsAlong } from '../circuit/setupDrift';
 import { growingRingIn } from '../circuit/setupGrowth';
@@ -59,6 +59,7 @@ export function runSetupChecks(input: SetupCheckInput): SetupCheck[] {
   const sustained = sustainedOscillation(input);
   const checks = [
     ...samplesPerPeriod(input),
+    ...alias(input),
     ...sustained,
     ...bandwidth(input),
     ...acquisitionMode(input),
@@ -241,17 +242,46 @@ function growingRing(channel: SetupCheckInput['channel']): SetupCheck[] {
   ];
 }
 
+/** The front end's bandwidth, Hz: the stated one, else the preamble's; with its source in words and as a value. */
+function frontEnd(input: SetupCheckInput): { hertz: number; source: string; from: string } | null {
+  const stated = input.options?.scopeBandwidth;
+  if (stated !== undefined) return { hertz: stated, source: 'the stated bandwidth', from: 'option' };
+  const preamble = input.metadata ? statedBandwidth(input.metadata) : null;
+  return preamble ? { hertz: preamble.hertz, source: `the preamble's '${preamble.key}: ${preamble.value}'`, from: preamble.key } : null;
+}
+
+/**
+ * A front end passing rings above half the sample rate: the ring seen may be the alias of a faster one, which no fit
+ * can tell from the samples. Left to the samples-per-period refusal where that already says so.
+ */
+function alias(input: SetupCheckInput): SetupCheck[] {
+  const omega = ringOmega(input);
+  const front = frontEnd(input);
+  if (omega === null || front === null) return [];
+  const dt = sampleInterval(input.channel.time);
+  const frequency = omega / (2 * Math.PI);
+  if (dt === null || !(dt > 0) || samplesPerRingPeriod(frequency, dt) < REFUSED_SAMPLES_PER_PERIOD) return [];
+  const faster = passedAlias(frequency, dt, front.hertz);
+  if (faster === null) return [];
+  return [
+    {
+      id: 'alias',
+      level: 'warning',
+      message: `the ring may be an alias: ${aliasWarning(frequency, faster, dt, front.hertz, front.source)}`,
+      values: { frequency, alias: faster, sampleRate: 1 / dt, bandwidth: front.hertz, source: front.from },
+    },
+  ];
+}
+
 function bandwidth(input: SetupCheckInput): SetupCheck[] {
   const omega = ringOmega(input);
-  const stated = input.options?.scopeBandwidth;
-  const preamble = stated === undefined && input.metadata ? statedBandwidth(input.metadata) : null;
-  const hertz = stated ?? preamble?.hertz;
+  const front = frontEnd(input);
   const { fit, channel } = input;
-  if (omega === null || hertz === undefined || fit.alpha.stderr === null) return [];
-  const source = preamble ? `the preamble's '${preamble.key}: ${preamble.value}'` : 'the stated bandwidth';
+  if (omega === null || front === null || fit.alpha.stderr === null) return [];
+  const { hertz, source } = front;
   const frequency = omega / (2 * Math.PI);
   const bias = frontEndBias(fit.params, channel, fit.window, fit.noiseRms, hertz, fit.jumpStart ? 'free' : 'continuous');
-  const values = { bandwidth: hertz, frequency, ratio: frequency / hertz, source: preamble ? preamble.key : 'option' };
+  const values = { bandwidth: hertz, frequency, ratio: frequency / hertz, source: front.from };
   if (!bias) {
     if (frequency <= hertz * BANDWIDTH_FRACTION) return [];
     return [{ id: 'bandwidth', level: 'warning', message: `the ${formatEngineering(frequency, 'Hz')} ring is above a third of ${source} (${formatEngineering(hertz, 'Hz')}), and its bias on alpha could not be estimated (common practice: keep the ring below bandwidth / 3)`, values }];

@@ -196,6 +196,9 @@ describe('extractParasitics', () => {
     { label: 'ring below bandwidth / 3 (common practice)', options: { bandwidth: 500e6 }, pattern: /third of the/, warns: false },
     { label: 'under 10 samples per period (common practice)', options: { sampleInterval: 2e-9 }, pattern: /samples/, warns: true },
     { label: 'over 10 samples per period (common practice)', options: { sampleInterval: 0.2e-9 }, pattern: /samples/, warns: false },
+    // 500 MSa/s: a 412 MHz ring (500 - 87.6) would show as the bare 87.6 MHz one, and 500 MHz passes it (sampling theorem).
+    { label: 'a bandwidth passing the alias of the ring', options: { bandwidth: 500e6, sampleInterval: 2e-9 }, pattern: /412\.\d+ MHz would show as this 87\.\d+ MHz ring/, warns: true },
+    { label: 'a sample rate whose aliases the bandwidth stops', options: { bandwidth: 500e6, sampleInterval: 0.2e-9 }, pattern: /would show as/, warns: false },
   ])('$label', ({ options, pattern, warns }) => {
     // Bare switch node at 87.6 MHz; with 470 pF added 50 MHz.
     const r = extractParasitics([measurement(15e-9, 220e-12, 0, 1e-4), measurement(15e-9, 220e-12, 470e-12, 1e-4)], options);

@@ -144,8 +144,9 @@ describe('setup checks on seeded captures (invented data)', () => {
     expect(checksOf(ringChannel(spec), { setup }).find((c) => c.id === 'ground-lead')?.message).not.toContain('assumed');
   });
 
-  it('a bandwidth far above the ring is silent; one at 3x the ring warns of the bias on alpha', () => {
-    expect(checksOf(ringChannel(BASE), { setup: { scopeBandwidth: 1e12 } })).toEqual([]);
+  it('a bandwidth far above the ring is silent about bias; one at 3x the ring warns of the bias on alpha', () => {
+    // 1 THz passes rings above half the 200 MSa/s sample rate: only the alias warning (below) speaks.
+    expect(checksOf(ringChannel(BASE), { setup: { scopeBandwidth: 1e12 } }).map((c) => c.id)).toEqual(['alias']);
     const near = checksOf(ringChannel(BASE), { setup: { scopeBandwidth: 30e6 } }).find((c) => c.id === 'bandwidth');
     expect(near?.level).toBe('warning');
     expect(near?.message).toMatch(/first-order front end at 30 MHz \(the stated bandwidth\) moves the fitted alpha by about .* its standard error/);
@@ -154,7 +155,38 @@ describe('setup checks on seeded captures (invented data)', () => {
   it('a bandwidth stated in the preamble is used when none is given; the option wins over it', () => {
     const metadata = { 'Bandwidth Limit': '30MHz' };
     expect(checksOf(ringChannel(BASE), { metadata }).find((c) => c.id === 'bandwidth')?.message).toContain("the preamble's 'Bandwidth Limit: 30MHz'");
-    expect(checksOf(ringChannel(BASE), { metadata, setup: { scopeBandwidth: 1e12 } })).toEqual([]);
+    expect(checksOf(ringChannel(BASE), { metadata, setup: { scopeBandwidth: 1e12 } }).map((c) => c.id)).toEqual(['alias']);
+  });
+});
+
+describe('a front end that passes rings above half the sample rate (sampling theorem): the ring may be an alias', () => {
+  // BASE: a 10 MHz ring sampled at 200 MSa/s; a 190 MHz ring (200 - 10) would show as it.
+  it('warns when the bandwidth reaches the slowest ring that would show as this one, naming it and the rate to sample at', () => {
+    const check = checksOf(ringChannel(BASE), { setup: { scopeBandwidth: 250e6 } }).find((c) => c.id === 'alias');
+    expect(check?.level).toBe('warning');
+    expect(check?.message).toBe(
+      'the ring may be an alias: 250 MHz (the stated bandwidth) passes rings above half the 200 MSa/s sample rate: one at 190 MHz would show as this ' +
+        '10 MHz ring; if the circuit can ring that fast, capture again at 625 MSa/s or more (the sampling theorem; 2.5 times the bandwidth: common practice)',
+    );
+    expect(check?.values).toMatchObject({ bandwidth: 250e6, source: 'option' });
+    expect((check?.values?.alias as number) / 190e6).toBeCloseTo(1, 4);
+  });
+
+  it('is silent when the bandwidth stops that ring, or with no bandwidth known', () => {
+    // 150 MHz still moves alpha by more than its error (the bias check), but stops the 190 MHz ring.
+    expect(checksOf(ringChannel(BASE), { setup: { scopeBandwidth: 150e6 } }).map((c) => c.id)).toEqual(['bandwidth']);
+    expect(checksOf(ringChannel(BASE))).toEqual([]);
+  });
+
+  it("reads the preamble's bandwidth too", () => {
+    const check = checksOf(ringChannel(BASE), { metadata: { Bandwidth: '2.0E+08' } }).find((c) => c.id === 'alias');
+    expect(check?.message).toContain("200 MHz (the preamble's 'Bandwidth: 2.0E+08') passes rings above half the 200 MSa/s sample rate");
+  });
+
+  it('leaves a ring under 2.5 samples a period to the refusal that already names the alias', () => {
+    const checks = checksOf(ringChannel({ ...BASE, zeta: 0.01, samplesPerPeriod: 2.4, periods: 60 }), { setup: { scopeBandwidth: 1e9 } });
+    expect(checks.map((c) => c.id)).not.toContain('alias');
+    expect(checks[0]).toMatchObject({ id: 'samples-per-period', level: 'refusal' });
   });
 });
 
