@@ -27,6 +27,9 @@ export function passedAlias(frequency: number, sampleInterval: number, bandwidth
   return alias > frequency && alias <= bandwidth ? alias : null;
 }
 
+/** Sample rate, in bandwidths, at which a front end's passband no longer aliases (common practice). */
+const ALIAS_FREE_RATE = 2.5;
+
 /** Samples per period of a ring at `frequency` Hz sampled every `sampleInterval` s. */
 export function samplesPerRingPeriod(frequency: number, sampleInterval: number): number {
   return 1 / (frequency * sampleInterval);
@@ -51,7 +54,7 @@ export function checkRingCapture(frequency: number, setup: RingCaptureSetup, lab
       );
     }
     const alias = bandwidth === undefined ? null : passedAlias(frequency, sampleInterval, bandwidth);
-    if (alias !== null) warnings.push(`${label} ${aliasWarning(frequency, alias, sampleInterval, bandwidth as number, 'the scope/probe bandwidth')}.`);
+    if (bandwidth !== undefined && alias !== null) warnings.push(`${label} ${aliasWarning(frequency, alias, sampleInterval, bandwidth, 'the scope/probe bandwidth')}.`);
   }
   return warnings;
 }
@@ -65,6 +68,3 @@ export function aliasWarning(frequency: number, alias: number, sampleInterval: n
     `capture again at ${formatEngineering(ALIAS_FREE_RATE * bandwidth, 'Sa/s')} or more (the sampling theorem; ${ALIAS_FREE_RATE} times the bandwidth: common practice)`
   );
 }
-
-/** Sample rate, in bandwidths, at which a front end's passband no longer aliases (common practice). */
-export const ALIAS_FREE_RATE = 2.5;

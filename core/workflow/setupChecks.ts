@@ -258,8 +258,10 @@ function alias(input: SetupCheckInput): SetupCheck[] {
   const omega = ringOmega(input);
   const front = frontEnd(input);
   if (omega === null || front === null) return [];
-  const dt = sampleInterval(input.channel.time);
   const frequency = omega / (2 * Math.PI);
+  // Even the slowest sample rate the axis allows leaves the alias above the bandwidth: silent, and the pass over every step is saved.
+  if (!(1 / medianStepBound(input.channel.time) - frequency <= front.hertz)) return [];
+  const dt = sampleInterval(input.channel.time);
   if (dt === null || !(dt > 0) || samplesPerRingPeriod(frequency, dt) < REFUSED_SAMPLES_PER_PERIOD) return [];
   const faster = passedAlias(frequency, dt, front.hertz);
   if (faster === null) return [];
