@@ -2,7 +2,7 @@
 // how; every face reads its rows here.
 
 import type { Quantity } from '../quantity';
-import { formatEngineering, formatMeasured } from '../units/format';
+import { formatEngineering, formatMeasured, formatWithUncertainty } from '../units/format';
 import { fitSucceeded, type FitSummary } from './fitSummary';
 import type { VerdictQuantity } from '../circuit/verdict';
 
@@ -22,7 +22,7 @@ export interface ResultRowSpec {
   optional?: 'underdamped' | 'first-order' | 'components' | 'modes' | 'slow term';
   /** A row computed from another (f0 from omega0; a mode's energy in % from its share) rather than stored in the summary. */
   derived?: { from: string; convert: (q: Quantity) => Quantity };
-  /** How a person reads the value when not 'value ± stderr (rel %)' (a share with no standard error). */
+  /** How a person reads the value when not 'value ± stderr (rel %)' (a share with no standard error, an instant). */
   describe?: (q: Quantity) => string;
 }
 
@@ -44,7 +44,8 @@ export const RESULT_ROWS = [
   { name: 'Q', symbol: 'Q', unit: '', column: 'Q' },
   { name: 'tau', symbol: 'tau', unit: 's', column: 'tau_s', optional: 'first-order' },
   { name: 'finalValue', symbol: 'final value', unit: null, column: 'final_value' },
-  { name: 't0', symbol: 't0', unit: 's', column: 't0_s' },
+  // An instant on the capture's own time axis, whose zero (the trigger) is arbitrary: no relative uncertainty.
+  { name: 't0', symbol: 't0', unit: 's', column: 't0_s', describe: formatWithUncertainty },
   { name: 'components.R', symbol: 'R', unit: 'ohm', column: 'R_ohm', optional: 'components' },
   { name: 'components.L', symbol: 'L', unit: 'H', column: 'L_h', optional: 'components' },
   { name: 'components.C', symbol: 'C', unit: 'F', column: 'C_f', optional: 'components' },

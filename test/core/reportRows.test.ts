@@ -55,6 +55,13 @@ describe('the result row table', () => {
     expect(briefValue(overdamped, 'omegaD')).toBe('-');
   });
 
+  it('gives the event time no relative uncertainty: its zero is the trigger, not a physical origin', () => {
+    const t0 = fitResultRows(withComponents).find((r) => r.name === 't0');
+    expect(t0?.text).toMatch(/^-?[\d.]+ [a-zµ]*s ± [\d.]+ [a-zµ]*s$/);
+    const early = fitResultRows(sampleFit({ t0: q(1e-12, 2e-9, 's') })).find((r) => r.name === 't0');
+    expect(early?.text).toBe('0.0 ns ± 2.0 ns');
+  });
+
   it('converts angular frequency to hertz with its uncertainty', () => {
     expect(hertz(q(2 * Math.PI * 1e3, 2 * Math.PI, 'rad/s'))).toEqual({ value: 1e3, stderr: 1, unit: 'Hz' });
     expect(hertz(q(1, null, 'rad/s')).stderr).toBeNull();
