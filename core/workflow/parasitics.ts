@@ -41,8 +41,8 @@ export interface EdgeRequest {
 
 export interface ParasiticsRequest {
   captures: readonly ParasiticsCapture[];
-  /** Relative tolerance of the added capacitors (rectangular half-width). Default 0. */
-  addedTolerance?: number;
+  /** Relative tolerance of the added capacitors (rectangular half-width), always stated (see addedPartsTolerance). */
+  addedTolerance: number;
   /** Probe capacitance in parallel with the node, F, and its relative tolerance. Default none. */
   probeC?: number;
   probeCTolerance?: number;
@@ -98,7 +98,7 @@ export function measureParasiticsOutcome(request: ParasiticsRequest, progress: (
   const extraction = extractParasitics(
     rates.map((row, i) => ({
       addedC: row.addedC,
-      addedCTolerance: i === 0 ? 0 : (request.addedTolerance ?? 0),
+      addedCTolerance: i === 0 ? 0 : request.addedTolerance,
       derating: captures[i].derating,
       frequency: row.frequency,
       alpha: row.alpha,

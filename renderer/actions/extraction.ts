@@ -1,7 +1,7 @@
 // The extraction panel's action: the typed values read with the command line's parsers, measureParasitics run in the worker.
 
 import { parseChannel, parsePositiveValue, parseTolerance } from '../../core/workflow/userValues';
-import { deratingsWithTolerance, parseFactor, parseValueWithTolerance } from '../../core/workflow/capacitorValues';
+import { addedPartsTolerance, deratingsWithTolerance, parseFactor, parseValueWithTolerance } from '../../core/workflow/capacitorValues';
 import { toleranceToRelativeUncertainty } from '../../core/circuit/tolerance';
 import { quantity } from '../../core/quantity';
 import { BenchError } from '../benchError';
@@ -60,7 +60,7 @@ export function parasiticsAsk(rows: readonly ExtractionRow[], settings: Extracti
     dcBias,
     switchC: given(settings.switchCText) === undefined ? undefined : parseValueWithTolerance(settings.switchCText, 'switch Coss', 'F'),
     edge: edgeAsk(settings.edge),
-    addedTolerance: parseTolerance(settings.addedToleranceText, 'added C tolerance'),
+    addedTolerance: addedPartsTolerance(settings.addedToleranceText, 'added C tolerance'),
     probeC: optional(settings.probeText, 'probe C', 'F'),
     probeCTolerance: parseTolerance(settings.probeToleranceText, 'probe C tolerance'),
     bandwidth: optional(settings.bandwidthText, 'bandwidth', 'Hz'),

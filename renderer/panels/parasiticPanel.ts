@@ -134,7 +134,7 @@ export function createParasiticPanel(actions: BenchActions, drawLine: Capacitanc
       h('p', { class: 'field-hint' }, 'Ring the same node bare (first) and with known capacitors added; the shift of the natural frequency gives the loop’s own L and C.'),
       h('div', { class: 'actions' }, useSet, useCurrent, addEmpty),
       list,
-      h('div', { class: 'grid-2' }, field('Added C tolerance', addedTol, TOLERANCE_HINT), field('Bandwidth (Hz)', bandwidth, 'scope or probe; optional')),
+      h('div', { class: 'grid-2' }, field('Added C tolerance', addedTol, `needed; ${TOLERANCE_HINT} (0: parts taken as exact)`), field('Bandwidth (Hz)', bandwidth, 'scope or probe; optional')),
       h('div', { class: 'grid-2' }, field('Probe C (F)', probe, 'in parallel in every capture'), field('Probe C tolerance', probeTol, TOLERANCE_HINT)),
       h('div', { class: 'grid-2' }, field('DC-bias factor', dcBias, 'class-II ceramics: C at the operating voltage / nominal, for every part without its own derating'), field('Derating tolerance', deratingTol, 'of the factors; needed with any below 1')),
       field('Switch Coss at the operating voltage (F)', switchC, 'small-signal value, split off C_p; not Co(tr) or Co(er)'),

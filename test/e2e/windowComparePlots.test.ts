@@ -30,6 +30,7 @@ describe.skipIf(!hasChromium)('plots over several captures', () => {
   it('plots 1/f0² of each capture against its added C with the line whose slope is the extracted L_p', async () => {
     await page.click('#use-sample-set');
     await page.waitForFunction(() => document.querySelectorAll('#extraction-rows .extraction-row').length === 3);
+    await page.fill('#added-c-tol', '5');
     await page.click('#run-extraction');
     await page.waitForSelector('#parasitic-results', { timeout: 120_000 });
     await page.waitForFunction(() => (document.querySelector('#extraction-line-plot') as HTMLElement).dataset.points === '3');

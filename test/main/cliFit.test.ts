@@ -123,7 +123,7 @@ describe('ringbench check and parasitics', () => {
   });
   it('parasitics recovers the switch-node loop and suggests a snubber', async () => {
     const files = ['switch-node-before.csv', 'switch-node-after-470p.csv', 'switch-node-after-1n.csv'].map((f) => path.join('sample-captures', f));
-    const { code, out } = await run(['parasitics', ...files, '--added', 'C=470p,1n', '--voltage', '48', '--switching-frequency', '250k', '--json']);
+    const { code, out } = await run(['parasitics', ...files, '--added', 'C=470p,1n', '--added-tolerance', '0', '--voltage', '48', '--switching-frequency', '250k', '--json']);
     expect(code).toBe(0);
     const r = JSON.parse(out);
     const stated = manifest.captures.find((c) => c.file === 'switch-node-before.csv')!;
@@ -134,7 +134,7 @@ describe('ringbench check and parasitics', () => {
     expect(r.snubber.powerAt.power).toBeGreaterThan(0);
   });
   it('parasitics refuses a count of added values that does not match the captures', async () => {
-    const { code, err } = await run(['parasitics', 'sample-captures/switch-node-before.csv', 'sample-captures/switch-node-after-470p.csv', '--added', 'C=470p,1n']);
+    const { code, err } = await run(['parasitics', 'sample-captures/switch-node-before.csv', 'sample-captures/switch-node-after-470p.csv', '--added', 'C=470p,1n', '--added-tolerance', '0']);
     expect(code).toBe(2);
     expect(err).toMatch(/--added/);
   });

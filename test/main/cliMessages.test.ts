@@ -48,7 +48,7 @@ describe('every input error names its file', () => {
 
   it('of several captures, the one at fault', async () => {
     writeFileSync(path.join(dir, 'empty-second.csv'), '');
-    const { code, err } = await run(['parasitics', ring, 'empty-second.csv', '--added', 'C=1n']);
+    const { code, err } = await run(['parasitics', ring, 'empty-second.csv', '--added', 'C=1n', '--added-tolerance', '0']);
     expect(code).toBe(2);
     expect(err).toMatch(/^ringbench: empty-second\.csv: /);
   });

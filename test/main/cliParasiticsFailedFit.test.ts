@@ -44,7 +44,7 @@ afterAll(() => rmSync(folder, { recursive: true, force: true }));
 describe('parasitics with a failed fit', () => {
   it('a capture with no response exits 1 with one line naming it and its status, and prints no snubber', async () => {
     for (const json of [[], ['--json']]) {
-      const r = await run(['parasitics', BARE, 'flat-level.csv', '--added', 'C=470p', ...json]);
+      const r = await run(['parasitics', BARE, 'flat-level.csv', '--added', 'C=470p', '--added-tolerance', '0', ...json]);
       expect(r.code).toBe(1);
       expect(r.out).toBe('');
       expect(r.err.trim().split('\n')).toHaveLength(1);
@@ -54,14 +54,14 @@ describe('parasitics with a failed fit', () => {
   });
 
   it('a capture fitted as a single decay exits 1 naming it as converged, first-order', async () => {
-    const r = await run(['parasitics', 'rc-step.csv', BARE, '--added', 'C=470p']);
+    const r = await run(['parasitics', 'rc-step.csv', BARE, '--added', 'C=470p', '--added-tolerance', '0']);
     expect(r.code).toBe(1);
     expect(r.out).toBe('');
     expect(r.err).toMatch(/^ringbench: rc-step\.csv: no ring to measure \(converged, first-order\); the added-capacitor method needs an underdamped ring in every capture\n$/);
   });
 
   it('bad input still exits 2: the same capture twice', async () => {
-    const r = await run(['parasitics', BARE, BARE, '--added', 'C=470p']);
+    const r = await run(['parasitics', BARE, BARE, '--added', 'C=470p', '--added-tolerance', '0']);
     expect(r.code).toBe(2);
     expect(r.err).toMatch(/cannot separate L_p and C_p/);
   });

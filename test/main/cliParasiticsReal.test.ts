@@ -29,7 +29,7 @@ afterAll(() => rmSync(folder, { recursive: true, force: true }));
 describe('parasitics with real capacitors', () => {
   it('derated parts move the line as the closed form says, and the edge agrees with L_p (JSON)', async () => {
     const r = await run([
-      'parasitics', ...SET, '--added', 'C=470p@0.9,1n@90%', '--derating-tolerance', '5', '--switch-coss', '120p,10',
+      'parasitics', ...SET, '--added', 'C=470p@0.9,1n@90%', '--added-tolerance', '0', '--derating-tolerance', '5', '--switch-coss', '120p,10',
       '--current-capture', 'edge.csv', '--current-column', 'I_D', '--switch-voltage-column', 'V_SW', '--json',
     ]);
     expect(r.err).toBe('');
@@ -49,7 +49,7 @@ describe('parasitics with real capacitors', () => {
   });
 
   it('a wrong plateau voltage disagrees: the result is printed, the verdict repeated on stderr, exit 1', async () => {
-    const r = await run(['parasitics', ...SET, '--added', 'C=470p,1n', '--dc-bias-factor', '1', '--current-capture', 'edge.csv', '--current-column', 'I_D', '--plateau-voltage', '30,5']);
+    const r = await run(['parasitics', ...SET, '--added', 'C=470p,1n', '--added-tolerance', '0', '--dc-bias-factor', '1', '--current-capture', 'edge.csv', '--current-column', 'I_D', '--plateau-voltage', '30,5']);
     expect(r.code).toBe(1);
     expect(r.out).toMatch(/L_p cross-check on the turn-on edge edge\.csv/);
     expect(r.out).toMatch(/V_L +30\.0+ V ± .* \(plateau given\)/);
@@ -68,7 +68,7 @@ describe('parasitics with real capacitors', () => {
     [['--current-capture', 'edge.csv'], /--current-capture needs the voltage across the loop inductance/],
     [['--current-capture', 'edge.csv', '--current-column', 'V_SW', '--plateau-voltage', '5'], /turn-on edge edge\.csv: the current channel 'V_SW' is in V, not A/],
   ])('%j exits 2 with one line naming the option', async (extra, message) => {
-    const args = extra[0] === '--added' ? ['parasitics', ...SET, ...extra] : ['parasitics', ...SET, '--added', 'C=470p,1n', ...extra];
+    const args = extra[0] === '--added' ? ['parasitics', ...SET, ...extra] : ['parasitics', ...SET, '--added', 'C=470p,1n', '--added-tolerance', '0', ...extra];
     const r = await run(args);
     expect(r.code).toBe(2);
     expect(r.out).toBe('');

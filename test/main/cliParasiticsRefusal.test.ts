@@ -13,7 +13,7 @@ const run = (args: string[]) => runCliIn(ROOT, args);
 
 describe('parasitics refusals', () => {
   it('the same capture twice exits 2 with one line naming the file and its f0, and prints no snubber', async () => {
-    const r = await run(['parasitics', BEFORE, BEFORE, '--added', 'C=470p']);
+    const r = await run(['parasitics', BEFORE, BEFORE, '--added', 'C=470p', '--added-tolerance', '0']);
     expect(r.code).toBe(2);
     expect(r.out).toBe('');
     expect(r.err.trim().split('\n')).toHaveLength(1);
@@ -22,16 +22,38 @@ describe('parasitics refusals', () => {
   });
 
   it('captures given in the wrong order (f0 rises with the added capacitance) exit 2 naming both', async () => {
-    const r = await run(['parasitics', AFTER, BEFORE, '--added', 'C=1n', '--json']);
+    const r = await run(['parasitics', AFTER, BEFORE, '--added', 'C=1n', '--added-tolerance', '0', '--json']);
     expect(r.code).toBe(2);
     expect(r.out).toBe('');
     expect(r.err).toMatch(/does not fall as capacitance is added: switch-node-before\.csv \(added 1 nF, f0 99\.94\d* MHz.*switch-node-after-470p\.csv \(added 0 F, f0 67\.3\d* MHz/);
   });
 });
 
+describe('parasitics: the added capacitors\' tolerance is always stated', () => {
+  it('without --added-tolerance exits 2 before any capture is read, naming the option, and prints nothing', async () => {
+    for (const tolerance of [[], ['--added-tolerance', ' ']]) {
+      const r = await run(['parasitics', BEFORE, 'no-such-capture.csv', '--added', 'C=470p', ...tolerance]);
+      expect(r.code).toBe(2);
+      expect(r.out).toBe('');
+      expect(r.err).toBe(
+        'ringbench: --added-tolerance: give the tolerance of the added capacitors in %, e.g. 5 for 5 % parts (L_p and C_p are known no better than the parts; 0 takes them as exact)\n',
+      );
+    }
+  });
+
+  it('carries a 5 % tolerance into L_p and C_p: their uncertainty is then mostly the parts\'', async () => {
+    const fit = async (tolerance: string) => JSON.parse((await run(['parasitics', BEFORE, AFTER, '--added', 'C=470p', '--added-tolerance', tolerance, '--json'])).out);
+    const [exact, fivePercent] = [await fit('0'), await fit('5')];
+    expect(fivePercent.L.value).toBeCloseTo(exact.L.value, 20);
+    // A rectangular 5 % is 2.89 % standard (GUM 4.3.7); the added part fixes the line's scale, so L_p and C_p carry about as much.
+    for (const q of [fivePercent.L, fivePercent.C]) expect(q.stderr / q.value).toBeGreaterThan(0.02);
+    expect(exact.L.stderr / exact.L.value).toBeLessThan(0.005);
+  });
+});
+
 describe('parasitics: an added capacitance no bench circuit holds', () => {
   it('a value typed without its prefix (470 read as 470 F) exits 2 naming the capture and the value, and prints nothing', async () => {
-    const r = await run(['parasitics', BEFORE, AFTER, '--added', 'C=470']);
+    const r = await run(['parasitics', BEFORE, AFTER, '--added', 'C=470', '--added-tolerance', '0']);
     expect(r.code).toBe(2);
     expect(r.out).toBe('');
     expect(r.err.trim().split('\n')).toHaveLength(1);
@@ -39,13 +61,13 @@ describe('parasitics: an added capacitance no bench circuit holds', () => {
   });
 
   it('one far below a femtofarad is refused the same way', async () => {
-    const r = await run(['parasitics', BEFORE, AFTER, '--added', 'C=1e-30']);
+    const r = await run(['parasitics', BEFORE, AFTER, '--added', 'C=1e-30', '--added-tolerance', '0']);
     expect(r.code).toBe(2);
     expect(r.err).toMatch(/the added capacitance 1\.00e-30 F is outside what a bench circuit holds/);
   });
 
   it('an added value that makes L_p or C_p implausible (0.47 read as 0.47 F) says so as the first warning', async () => {
-    const r = await run(['parasitics', BEFORE, AFTER, '--added', 'C=0.47', '--json']);
+    const r = await run(['parasitics', BEFORE, AFTER, '--added', 'C=0.47', '--added-tolerance', '0', '--json']);
     expect(r.code).toBe(0);
     const { warnings, L } = JSON.parse(r.out);
     // L_p = 1 / ((2 pi f1)^2 C_p) with C_p about 0.39 F at 99.94 MHz: about 6.5e-18 H, below the femtohenry of any bench loop.
@@ -56,7 +78,7 @@ describe('parasitics: an added capacitance no bench circuit holds', () => {
 
 describe('parasitics takes the probe and bandwidth options by the names fit uses', () => {
   it('--probe-capacitance and --scope-bandwidth give what --probe-c and --bandwidth give', async () => {
-    const common = ['parasitics', BEFORE, AFTER, '--added', 'C=470p', '--json'];
+    const common = ['parasitics', BEFORE, AFTER, '--added', 'C=470p', '--added-tolerance', '0', '--json'];
     const named = await run([...common, '--probe-capacitance', '12p', '--scope-bandwidth', '500M']);
     const earlier = await run([...common, '--probe-c', '12p', '--bandwidth', '500M']);
     const bare = await run(common);
@@ -67,7 +89,7 @@ describe('parasitics takes the probe and bandwidth options by the names fit uses
   });
 
   it('both spellings of one option at once exit 2 naming both', async () => {
-    const r = await run(['parasitics', BEFORE, AFTER, '--added', 'C=470p', '--probe-capacitance', '12p', '--probe-c', '10p']);
+    const r = await run(['parasitics', BEFORE, AFTER, '--added', 'C=470p', '--added-tolerance', '0', '--probe-capacitance', '12p', '--probe-c', '10p']);
     expect(r.code).toBe(2);
     expect(r.err).toMatch(/--probe-capacitance and --probe-c are the same option/);
   });

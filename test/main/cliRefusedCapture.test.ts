@@ -86,7 +86,7 @@ describe('a capture sampled under 2.5 times a ring period', () => {
   });
 
   it('parasitics: a failed measurement, exit 1, one line naming the file and the refusal, no L_p printed', async () => {
-    const r = await run(['parasitics', 'bare.csv', 'added-470p-slow.csv', '--added', 'C=470p']);
+    const r = await run(['parasitics', 'bare.csv', 'added-470p-slow.csv', '--added', 'C=470p', '--added-tolerance', '0']);
     expect(r.code).toBe(1);
     expect(r.out).toBe('');
     expect(r.err.trim().split('\n')).toHaveLength(1);

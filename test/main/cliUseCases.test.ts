@@ -21,7 +21,7 @@ function peakOf(file: string): number {
 
 describe('parasitics cautions', () => {
   it('come from the largest peak over all captures, not from --voltage', async () => {
-    const base = [...SWITCH_NODE, '--added', 'C=470p,1n', '--switching-frequency', '250k', '--json'];
+    const base = [...SWITCH_NODE, '--added', 'C=470p,1n', '--added-tolerance', '0', '--switching-frequency', '250k', '--json'];
     const low = await run(['parasitics', ...base, '--voltage', '48']);
     const high = await run(['parasitics', ...base, '--voltage', '10']);
     expect(low.code).toBe(0);

@@ -66,7 +66,7 @@ describe('the window and the command line give the same answers', () => {
   }
 
   it('extracts the switch-node parasitics as `parasitics --added C=470p,1n --json` does', async () => {
-    const cli = await cliJson(['parasitics', ...SWITCH_NODE.map((f) => path.join('sample-captures', f)), '--added', 'C=470p,1n', '--json']);
+    const cli = await cliJson(['parasitics', ...SWITCH_NODE.map((f) => path.join('sample-captures', f)), '--added', 'C=470p,1n', '--added-tolerance', '0', '--json']);
     const added = [0, 470e-12, 1e-9];
     const { result } = ask({ type: 'parasitics', captures: SWITCH_NODE.map((f, i) => ({ ...sampleText(f), addedC: added[i] })), addedTolerance: 0 });
     expect(asJson(result)).toEqual(cli);

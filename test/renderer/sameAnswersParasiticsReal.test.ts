@@ -26,13 +26,13 @@ afterAll(() => rmSync(folder, { recursive: true, force: true }));
 describe('extraction with real capacitors, window and command line', () => {
   it('the same JSON for a per-part derating, a DC-bias factor, the switch Coss and a plateau-voltage edge', async () => {
     const cli = await runCliIn(folder, [
-      'parasitics', ...SET.map((f) => path.join(SAMPLES, f)), '--added', 'C=470p@0.95,1n', '--dc-bias-factor', '0.9', '--derating-tolerance', '10',
+      'parasitics', ...SET.map((f) => path.join(SAMPLES, f)), '--added', 'C=470p@0.95,1n', '--added-tolerance', '0', '--dc-bias-factor', '0.9', '--derating-tolerance', '10',
       '--switch-coss', '100p,20', '--current-capture', 'edge.csv', '--current-column', 'I_D', '--plateau-voltage', '4.7,5', '--json',
     ]);
     expect(cli.err).toBe('');
     const rows = SET.map((file, i) => ({ name: file, content: { text: readFileSync(path.join(SAMPLES, file), 'utf8') }, addedText: ['', '470p', '1n'][i], deratingText: i === 1 ? '95%' : '' }));
     const settings: ExtractionSettings = {
-      addedToleranceText: '', probeText: '', probeToleranceText: '', bandwidthText: '', voltageText: '', switchingText: '',
+      addedToleranceText: '0', probeText: '', probeToleranceText: '', bandwidthText: '', voltageText: '', switchingText: '',
       dcBiasText: '0.9', deratingToleranceText: '10', switchCText: '100p,20',
       edge: { file: { name: 'edge.csv', text: edgeText }, currentChannelText: 'I_D', voltageChannelText: '', plateauText: '4.7,5' },
     };

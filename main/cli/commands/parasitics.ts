@@ -9,7 +9,7 @@ import { loadCaptureFor } from '../../app/measureFile';
 import { formatParasiticsText } from '../../../core/report/parasiticsText';
 import { measureParasiticsOutcome, type EdgeRequest } from '../../../core/workflow/parasitics';
 import { parseAddedCapacitances, parsePositiveValue, parseTolerance } from '../../../core/workflow/userValues';
-import { deratingsWithTolerance, parseFactor, parseValueWithTolerance, splitAddedDeratings } from '../../../core/workflow/capacitorValues';
+import { addedPartsTolerance, deratingsWithTolerance, parseFactor, parseValueWithTolerance, splitAddedDeratings } from '../../../core/workflow/capacitorValues';
 import { UsageError } from '../../../core/inputError';
 import { quantity } from '../../../core/quantity';
 import { toleranceToRelativeUncertainty } from '../../../core/circuit/tolerance';
@@ -49,7 +49,7 @@ export function registerParasiticsCommand(program: Command, ctx: CommandContext)
     .description('loop inductance, capacitance and resistance by the added-capacitor method, and an RC snubber starting point')
     .argument('<captures...>', 'the bare loop first, then one capture per added capacitor')
     .requiredOption('--added <C=VALUE[@FACTOR][,...]>', 'capacitance added for each capture after the first, e.g. C=470p,1n; @FACTOR is that part\'s value at the operating voltage over its nominal one, e.g. 2.2n@0.6')
-    .option('--added-tolerance <TOL>', 'tolerance of the added capacitors in %, e.g. 5 or 5%')
+    .option('--added-tolerance <TOL>', 'tolerance of the added capacitors in %, e.g. 5 or 5% (needed: L_p and C_p are known no better than the parts; 0 takes them as exact)')
     .option('--dc-bias-factor <FACTOR>', 'one DC-bias factor for every added capacitor without its own @FACTOR (class-II ceramics), e.g. 0.55 or 55%')
     .option('--derating-tolerance <TOL>', 'tolerance of the derating and DC-bias factors in %, needed with any factor below 1, e.g. 15')
     .option('--switch-coss <C[,TOL]>', 'the switch\'s output capacitance at the operating voltage (small-signal), split off C_p, e.g. 180p,10')
@@ -72,6 +72,7 @@ export function registerParasiticsCommand(program: Command, ctx: CommandContext)
       const added = [0, ...parseAddedCapacitances(split.nominal, files.length)];
       const dcBiasFactor = options.dcBiasFactor === undefined ? undefined : parseFactor(options.dcBiasFactor, '--dc-bias-factor');
       const { deratings, dcBias } = deratingsWithTolerance(split.deratings, dcBiasFactor, options.deratingTolerance, '--derating-tolerance');
+      const addedTolerance = addedPartsTolerance(options.addedTolerance, '--added-tolerance');
       const switchCoss = options.switchCoss === undefined ? undefined : parseValueWithTolerance(options.switchCoss, '--switch-coss', 'F');
       const edge = edgeRequest(options, ctx.io.cwd);
       const request = {
@@ -79,7 +80,7 @@ export function registerParasiticsCommand(program: Command, ctx: CommandContext)
           const loaded = namingFile(file, () => loadCaptureFor(file, { column: options.column }, ctx.io.cwd));
           return { file: basename(file), channel: loaded.channel, captureWarnings: loaded.capture.warnings, addedC: added[i], derating: i === 0 ? undefined : deratings[i - 1] };
         }),
-        addedTolerance: options.addedTolerance === undefined ? 0 : parseTolerance(options.addedTolerance, '--added-tolerance'),
+        addedTolerance,
         dcBias,
         switchC: switchCoss,
         edge,

@@ -78,7 +78,7 @@ function measuredSnubberRow(): TrustCase {
     expect: 'right',
     truth,
     run: () => {
-      const { snubber } = measureParasitics({ captures: SWITCH_NODE.map((file, i) => ({ file, channel: sampleChannel(file), addedC: SWITCH_NODE_ADDED[i] })) });
+      const { snubber } = measureParasitics({ captures: SWITCH_NODE.map((file, i) => ({ file, channel: sampleChannel(file), addedC: SWITCH_NODE_ADDED[i] })), addedTolerance: 0 });
       const stated = { Lp: 6.5e-9, Cp: 390e-12, Rp: 0.28 };
       const unit = Math.sqrt(stated.Lp * stated.Cp);
       truth.overshoot = sampledStepMetrics(integrateSnubbedStep({ ...stated, Rs: snubber.R.value, Cs: snubber.C.value }, 60 * unit, unit / 400), 0.02).overshoot;
@@ -90,7 +90,7 @@ function measuredSnubberRow(): TrustCase {
 
 function parasiticsOf(files: string[], added: number[]): TrustOutcome {
   return refusedOr(() => {
-    const r = measureParasitics({ captures: files.map((file, i) => ({ file, channel: sampleChannel(file), addedC: added[i] })) });
+    const r = measureParasitics({ captures: files.map((file, i) => ({ file, channel: sampleChannel(file), addedC: added[i] })), addedTolerance: 0 });
     return { L: r.L, C: r.C, R: r.R };
   });
 }
