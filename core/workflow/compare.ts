@@ -8,7 +8,7 @@ import { hertz } from '../report/resultRows';
 import { fitSucceeded, type FitSummary } from '../report/fitSummary';
 import type { ChangeVerdict, Comparison, QuantityChange } from '../report/comparisonText';
 import { measureCapture, type MeasureRequest, type MeasureResult } from './measure';
-import type { KnownPartRequest } from './measuredComponents';
+import { knownPartValue, type KnownPartRequest } from './measuredComponents';
 import { setupRefusal } from './setupChecks';
 import { formatWithUncertainty } from '../units/format';
 
@@ -63,7 +63,7 @@ export function compareMeasurements(before: MeasureResult, after: MeasureResult,
   const quantities = rateChanges(a, b);
   if (knownPart) {
     quantities.push(...componentChanges(a, b, knownPart));
-    notes.push(`R, L and C are compared without the tolerance of the known part (${a.components?.known ?? ''}): the same part is assumed in both captures, so its error is common to both and cancels in the difference.`);
+    notes.push(`R, L and C are compared without the tolerance of the known part (${knownPartValue(knownPart.known)}): the same part is assumed in both captures, so its error is common to both and cancels in the difference.`);
   }
   const joint = jointChiSquare(a, b);
   return { ...common, quantities, jointChiSquare: joint, ...judge(joint, quantities), notes };

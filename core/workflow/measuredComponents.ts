@@ -19,15 +19,22 @@ export interface KnownPartRequest {
 }
 
 /**
- * 'C = 47 µF' or 'C = 47 µF ± 5 % (rectangular half-width: u = tol/√3 = 2.89 %, GUM 4.3.7)': the known part
- * as every face writes it, saying how its tolerance enters the uncertainties.
+ * 'C = 47 µF ± 5 % (rectangular half-width: u = tol/√3 = 2.89 %, GUM 4.3.7)', or for a part given without a tolerance
+ * 'C = 47 µF, taken as exact (...)': the known part as every face writes it, saying how its tolerance enters the
+ * uncertainties. A part's tolerance most often dominates those of the two derived, so a part taken as exact says so
+ * where its value is read.
  */
 export function describeKnownPart(known: KnownComponent): string {
   const percent = (fraction: number) => `${+(fraction * 100).toPrecision(3)} %`;
   const tolerance = known.tolerance
     ? ` ± ${percent(known.tolerance)} (rectangular half-width: u = tol/√3 = ${percent(toleranceToRelativeUncertainty(known.tolerance))}, GUM 4.3.7)`
-    : '';
-  return `${known.name} = ${formatEngineering(known.value, COMPONENT_UNITS[known.name])}${tolerance}`;
+    : `, taken as exact (no tolerance given: ${(['R', 'L', 'C'] as const).filter((name) => name !== known.name).join(' and ')} carry the fit's uncertainty only)`;
+  return `${knownPartValue(known)}${tolerance}`;
+}
+
+/** 'C = 47 µF': the known part's name and value alone. */
+export function knownPartValue(known: KnownComponent): string {
+  return `${known.name} = ${formatEngineering(known.value, COMPONENT_UNITS[known.name])}`;
 }
 
 /**

@@ -46,7 +46,7 @@ describe('a design or known-part problem beside the fit', () => {
     expect(reply.result!.verdict).toBeNull();
     expect(reply.result!.fit.status).toBe('converged');
     expect(reply.result!.summary.alpha).toEqual(plain.result!.summary.alpha);
-    expect(reply.result!.summary.components?.known).toBe('C = 47 µF');
+    expect(reply.result!.summary.components?.known).toBe("C = 47 µF, taken as exact (no tolerance given: R and L carry the fit's uncertainty only)");
     // With a design the cautions weigh its parts, not the derived ones.
     expect(reply.result!.cautions.energies).not.toEqual(plain.result!.cautions.energies);
     expect(reply.result!.cautions.fired.length).toBeGreaterThan(0);
