@@ -28,7 +28,7 @@ describe('fitCsv', () => {
     expect(cells.tau_s).toBe('');
     // The last cell holds a comma, so it is quoted (the split above reads it in two).
     expect(header.endsWith(',known_part')).toBe(true);
-    expect(row.endsWith(',"series, C = 47 µF"')).toBe(true);
+    expect(row.endsWith(`,"series, C = 47 µF, taken as exact (no tolerance given: R and L carry the fit's uncertainty only)"`)).toBe(true);
   });
 });
 

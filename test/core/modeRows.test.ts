@@ -111,7 +111,7 @@ describe('R, L and C with several modes', () => {
     expect(other.L.value).toBeCloseTo(1 / (second.omega0.value ** 2 * 1e-9), 15);
     expect(other.mode).toMatchObject({ index: 2, of: 2 });
     expect(componentModeText(other)).toBe('for mode 2 of 2 (f0 95 MHz)');
-    expect(formatFitText({ ...twoModes, components: other })).toContain('series, known C = 1 nF, for mode 2 of 2 (f0 95 MHz)');
+    expect(formatFitText({ ...twoModes, components: other })).toContain("series, known C = 1 nF, taken as exact (no tolerance given: R and L carry the fit's uncertainty only), for mode 2 of 2 (f0 95 MHz)");
   });
 
   it('puts the mode named at the top level for a design check (the window checks a design loaded later this way)', () => {

@@ -55,7 +55,7 @@ describe('fit --modes and --mode', () => {
     expect(out).toMatch(/\n {2}order {12}two ringing modes \(BIC -?[\d.]+, order forced\): \S/);
     expect(out).toMatch(/\n {2}mode 2 f0 {8}95\.\d+ MHz ± /);
     expect(out).toMatch(/\n {2}mode 1 energy {4}\d+(\.\d+)? % of the response's energy/);
-    expect(out).toMatch(/\n {2}components {7}series, known C = 1 nF, for mode 2 of 2 \(f0 95\.\d+ MHz\)/);
+    expect(out).toMatch(/\n {2}components {7}series, known C = 1 nF, taken as exact \(no tolerance given: R and L carry the fit's uncertainty only\), for mode 2 of 2 \(f0 95\.\d+ MHz\)/);
   }, FIT_MS);
 
   it('says on a one-mode capture which order won, and refuses a second mode it did not find (exit 2)', async () => {
