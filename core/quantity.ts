@@ -13,8 +13,16 @@ export function quantity(value: number, stderr: number | null, unit: string): Qu
   return { value, stderr: err, unit };
 }
 
-/** Relative standard uncertainty, or null when unknown or the value is zero. */
+/**
+ * A value within this many standard uncertainties of zero has no relative uncertainty worth showing: its sign is not
+ * established at about 95 % (the coverage factor of GUM 6.3.3), and u/|x| then says more about the zero than about
+ * the measurement ('-120 µA ± 780 µA (670 %)' for a ringdown's final level).
+ */
+const RELATIVE_FROM_ZERO = 2;
+
+/** Relative standard uncertainty u/|x|, or null when unknown, when x is zero or within RELATIVE_FROM_ZERO u of zero. */
 export function relativeUncertainty(q: Quantity): number | null {
-  if (q.stderr === null || q.value === 0) return null;
-  return Math.abs(q.stderr / q.value);
+  if (q.stderr === null || !Number.isFinite(q.stderr) || !Number.isFinite(q.value) || q.value === 0) return null;
+  if (!(Math.abs(q.value) >= RELATIVE_FROM_ZERO * q.stderr)) return null;
+  return q.stderr / Math.abs(q.value);
 }

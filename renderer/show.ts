@@ -1,7 +1,7 @@
 // Values for the screen: engineering notation with units, and the raw SI value kept for tests and copying.
 
 import { formatEngineering, formatMeasured } from '../core/units/format';
-import type { Quantity } from '../core/quantity';
+import { relativeUncertainty, type Quantity } from '../core/quantity';
 import { h } from './dom';
 
 export function showQuantity(q: Quantity | null | undefined): string {
@@ -14,12 +14,17 @@ export function showValue(value: number | null | undefined, unit: string, digits
   return value === null || value === undefined || !Number.isFinite(value) ? '—' : pretty(formatEngineering(value, unit, digits));
 }
 
-/** Value and relative uncertainty only, for narrow tables: '11.02 ks⁻¹ ± 0.13 %'. */
+/**
+ * Value and relative uncertainty only, for narrow tables: '11.02 ks⁻¹ ± 0.13 %'; the standard uncertainty itself
+ * where a relative one says nothing (a value within two of them of zero: '-120 µA ± 780 µA').
+ */
 export function showCompact(q: Quantity): string {
   if (q.value === null || !Number.isFinite(q.value)) return 'not defined';
   const value = showValue(q.value, q.unit, 4);
-  if (q.stderr === null || q.value === 0) return value;
-  const percent = (100 * q.stderr) / Math.abs(q.value);
+  if (q.stderr === null) return value;
+  const share = q.stderr === 0 ? 0 : relativeUncertainty(q);
+  if (share === null) return `${value} ± ${showValue(q.stderr, q.unit, 2)}`;
+  const percent = 100 * share;
   return `${value} ± ${percent < 0.1 ? percent.toPrecision(1) : percent.toPrecision(2)} %`;
 }
 

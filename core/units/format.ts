@@ -1,6 +1,6 @@
 // Engineering-notation display of values and of measured values with their uncertainty.
 
-import type { Quantity } from '../quantity';
+import { relativeUncertainty, type Quantity } from '../quantity';
 import { DISPLAY_PREFIX, displayUnit } from './prefixes';
 
 const MIN_EXPONENT = -15;
@@ -69,13 +69,13 @@ function formatRoundedValue(value: number, place: number, unit: string): string 
 
 /**
  * 'value ± stderr (relative %)', e.g. '12.183 ks^-1 ± 13 s^-1 (0.11 %)': the uncertainty to two significant
- * digits and the value to the same decimal place; 'value (uncertainty not estimable)' when stderr is null.
+ * digits and the value to the same decimal place; 'value (uncertainty not estimable)' when stderr is null; no
+ * relative part where relativeUncertainty gives none (a value within two standard uncertainties of zero).
  */
 export function formatMeasured(q: Quantity): string {
   const text = formatWithUncertainty(q);
-  if (q.stderr === null || !Number.isFinite(q.stderr) || !Number.isFinite(q.value) || q.stderr === 0 || q.value === 0) return text;
-  const relative = (q.stderr / Math.abs(q.value)) * 100;
-  return `${text} (${formatPlain(relative, 2)} %)`;
+  const share = q.stderr === 0 ? null : relativeUncertainty(q);
+  return share === null ? text : `${text} (${formatPlain(100 * share, 2)} %)`;
 }
 
 /** 'value ± stderr' without the relative uncertainty (for a difference, where it says little). */

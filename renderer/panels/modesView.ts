@@ -4,7 +4,7 @@ import type { FitSummary } from '../../core/report/fitSummary';
 import { hertz, modelOrderText } from '../../core/report/resultRows';
 import { MAX_RINGING_MODES } from '../../core/workflow/userValues';
 import { h, select } from '../dom';
-import type { Quantity } from '../../core/quantity';
+import { relativeUncertainty, type Quantity } from '../../core/quantity';
 import { showQuantity, showValue } from '../show';
 
 /** What the section does when a choice changes: refit with this many modes (null: from the data), or derive R, L, C for another mode. */
@@ -47,7 +47,8 @@ export function modesView(summary: FitSummary, asked: number | null, chosenMode:
 
 /** A value over its relative standard error, so that the table fits the panel; the full 'value ± stderr' in its title. */
 function cell(q: Quantity): HTMLElement {
-  const relative = q.stderr === null || q.value === 0 ? 'no error estimate' : `± ${((100 * q.stderr) / Math.abs(q.value)).toPrecision(2)} %`;
+  const share = q.stderr === null ? null : relativeUncertainty(q);
+  const relative = q.stderr === null ? 'no error estimate' : share === null ? `± ${showValue(q.stderr, q.unit, 2)}` : `± ${(100 * share).toPrecision(2)} %`;
   return h('td', { class: 'number', title: showQuantity(q) }, showValue(q.value, q.unit), h('span', { class: 'mode-error' }, relative));
 }
 

@@ -39,7 +39,11 @@ describe('formatMeasured', () => {
     [9.94e-9, 1e-11, 'F', '9.940 nF ± 10 pF (0.1 %)'],
     [0.02134, 0.0001, '', '0.02134 ± 0.00010 (0.47 %)'],
     [999.7, 0.99, 'V', '999.70 V ± 990 mV (0.099 %)'],
-    [5, 50, 'V', '5 V ± 50 V (1000 %)'],
+    // within 2 standard uncertainties of zero (its sign not established): no relative part
+    [5, 50, 'V', '5 V ± 50 V'],
+    [-1.2e-4, 7.8e-4, 'A', '-120 µA ± 780 µA'],
+    [1.99, 1, 'V', '2.0 V ± 1.0 V'],
+    [2, 1, 'V', '2.0 V ± 1.0 V (50 %)'],
     [-2.5e-3, 1.234e-5, 'A', '-2.500 mA ± 12 µA (0.49 %)'],
     [0, 1.3e-6, 's', '0.0 µs ± 1.3 µs'],
   ])('%d ± %d %s -> %s', (value, stderr, unit, expected) => {
