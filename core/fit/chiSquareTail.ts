@@ -58,3 +58,20 @@ function logGammaOfHalfInteger(dof: number): number {
   for (; a < dof / 2; a += 1) log += Math.log(a);
   return log;
 }
+
+/** Bisection steps of chiSquareQuantile: each halves the bracket, so 200 reach the resolution of a double. */
+const QUANTILE_STEPS = 200;
+
+/** The p-quantile of chi^2 with `dof` degrees of freedom (P(chi^2 <= x) = p, 0 < p < 1), by bisection of chiSquareTail. */
+export function chiSquareQuantile(p: number, dof: number): number {
+  if (!(p > 0 && p < 1)) throw new RangeError(`chiSquareQuantile: p must lie in (0, 1), got ${p}`);
+  let lo = 0;
+  let hi = Math.max(1, dof);
+  while (1 - chiSquareTail(hi, dof) < p) hi *= 2;
+  for (let i = 0; i < QUANTILE_STEPS && hi - lo > 1e-15 * hi; i++) {
+    const mid = (lo + hi) / 2;
+    if (1 - chiSquareTail(mid, dof) < p) lo = mid;
+    else hi = mid;
+  }
+  return (lo + hi) / 2;
+}

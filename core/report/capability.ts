@@ -1,4 +1,6 @@
-// Process capability of a lot: sample statistics of one quantity and Cp, Cpk against its limits.
+// Process capability of a lot: sample statistics of one quantity and Cp, Cpk against its limits, with their intervals.
+
+import { chiSquareQuantile } from '../fit/chiSquareTail';
 
 /** Specification limits of a quantity in SI units; null on an open side. */
 export interface Limits {
@@ -15,17 +17,27 @@ export interface SampleStatistics {
   max: number;
 }
 
-/** A capability index, or why it is not defined (never 0 or NaN in its place). */
-export type CapabilityIndex = { value: number; reason: null } | { value: null; reason: string };
+/** A 95 % confidence interval of an index: the lot is a sample of the process, and a few units pin it down loosely. */
+export interface IndexInterval {
+  lower: number;
+  upper: number;
+}
+
+/** A capability index with its 95 % interval, or why it is not defined (never 0 or NaN in its place). */
+export type CapabilityIndex = { value: number; interval: IndexInterval; reason: null } | { value: null; reason: string };
 
 export interface Capability {
   cp: CapabilityIndex;
   cpk: CapabilityIndex;
 }
 
-/** Stated beside every capability table: the formulas, their source and the sigma estimate. */
+/** Stated beside every capability table: the formulas, their source, the sigma estimate and the intervals. */
 export const CAPABILITY_RULE =
-  'Cp = (USL - LSL) / (6 s) and Cpk = min(USL - mean, mean - LSL) / (3 s), with one limit only the one side (NIST/SEMATECH e-Handbook of Statistical Methods, 6.1.6 "What is Process Capability?"); s is the sample standard deviation (n - 1) of the units\' final measurements.';
+  'Cp = (USL - LSL) / (6 s) and Cpk = min(USL - mean, mean - LSL) / (3 s), with one limit only the one side (NIST/SEMATECH e-Handbook of Statistical Methods, 6.1.6 "What is Process Capability?"); s is the sample standard deviation (n - 1) of the units\' final measurements. ' +
+  'In brackets, each index\'s 95 % confidence interval for a normal process: Cp sqrt(chi^2(0.025 or 0.975; n - 1) / (n - 1)) for Cp, and Bissell\'s approximation Cpk ± 1.96 sqrt(1 / (9 n) + Cpk^2 / (2 (n - 1))) for Cpk (the forms the same handbook section gives, from memory).';
+
+/** The two-sided 95 % quantile of the standard normal distribution. */
+const Z_95 = 1.959963984540054;
 
 /** n, mean, sample standard deviation, min and max; null for no values. */
 export function sampleStatistics(values: readonly number[]): SampleStatistics | null {
@@ -48,7 +60,22 @@ export function processCapability(stats: SampleStatistics, limits: Limits | null
   const sides: number[] = [];
   if (upper !== null) sides.push((upper - stats.mean) / (3 * sigma));
   if (lower !== null) sides.push((stats.mean - lower) / (3 * sigma));
-  const cpk: CapabilityIndex = { value: Math.min(...sides), reason: null };
-  const cp: CapabilityIndex = lower !== null && upper !== null ? { value: (upper - lower) / (6 * sigma), reason: null } : none('one-sided limit');
-  return { cp, cpk };
+  const cpk = Math.min(...sides);
+  const cp = lower !== null && upper !== null ? (upper - lower) / (6 * sigma) : null;
+  return {
+    cp: cp === null ? none('one-sided limit') : { value: cp, interval: cpInterval(cp, stats.n), reason: null },
+    cpk: { value: cpk, interval: cpkInterval(cpk, stats.n), reason: null },
+  };
+}
+
+/** Cp's exact 95 % interval for a normal process: s^2 (n - 1) / sigma^2 is chi-square with n - 1 degrees of freedom. */
+function cpInterval(cp: number, n: number): IndexInterval {
+  const dof = n - 1;
+  return { lower: cp * Math.sqrt(chiSquareQuantile(0.025, dof) / dof), upper: cp * Math.sqrt(chiSquareQuantile(0.975, dof) / dof) };
+}
+
+/** Cpk's approximate 95 % interval (Bissell's normal approximation to the spread of the estimate). */
+function cpkInterval(cpk: number, n: number): IndexInterval {
+  const half = Z_95 * Math.sqrt(1 / (9 * n) + (cpk * cpk) / (2 * (n - 1)));
+  return { lower: cpk - half, upper: cpk + half };
 }

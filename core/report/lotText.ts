@@ -15,9 +15,11 @@ export const ZONE_LABELS: Record<DecisionZone, string> = {
 /** Decimals of Cp and Cpk: two, as capability indices are quoted (1.33, 1.67). */
 const INDEX_DECIMALS = 2;
 
-/** '1.33', or 'not defined (no limits)'. */
+/** '1.33 [1.02, 1.64]' (the 95 % interval in brackets), or 'not defined (no limits)'. */
 export function indexText(index: CapabilityIndex): string {
-  return index.value === null ? `not defined (${index.reason})` : index.value.toFixed(INDEX_DECIMALS);
+  if (index.value === null) return `not defined (${index.reason})`;
+  const { lower, upper } = index.interval;
+  return `${index.value.toFixed(INDEX_DECIMALS)} [${lower.toFixed(INDEX_DECIMALS)}, ${upper.toFixed(INDEX_DECIMALS)}]`;
 }
 
 /** '92.5 % (37 of 40)', or '–' when no unit was checked. */

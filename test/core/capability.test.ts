@@ -41,6 +41,26 @@ describe('processCapability (NIST/SEMATECH e-Handbook 6.1.6)', () => {
     expect(cpk.value).toBeCloseTo(1.054093, 6);
   });
 
+  // The 95 % intervals, against scipy.stats (chi2.ppf, norm.ppf) on the same set: chi^2(0.025; 4) = 0.4844186,
+  // chi^2(0.975; 4) = 11.143287, z(0.975) = 1.959964. Cp: exact for a normal process; Cpk: Bissell's approximation.
+  it('gives Cp its chi-square interval, 1.1595 [0.40351, 1.93530], and Cpk Bissell\'s, 1.0541 [0.26739, 1.84080]', () => {
+    const { cp, cpk } = processCapability(stats, { lower: 9.5, upper: 10.6 });
+    if (cp.value === null || cpk.value === null) throw new Error('both indices are defined here');
+    expect(cp.interval.lower).toBeCloseTo(0.4035077, 6);
+    expect(cp.interval.upper).toBeCloseTo(1.9352991, 6);
+    expect(cpk.interval.lower).toBeCloseTo(0.2673895, 6);
+    expect(cpk.interval.upper).toBeCloseTo(1.8407956, 6);
+  });
+
+  // By hand: sqrt(1/45 + 1.05409^2/8) / sqrt(1/270 + 1.05409^2/58) = 0.401389 / 0.151196 = 2.6548.
+  it('narrows the interval as the lot grows: 30 units pin Cpk 2.65 times closer than 5 (same mean and s)', () => {
+    const width = (n: number) => {
+      const { cpk } = processCapability({ n, mean: 10, sd: HAND.s, min: 9.8, max: 10.2 }, { lower: 9.5, upper: 10.6 });
+      return cpk.value === null ? NaN : cpk.interval.upper - cpk.interval.lower;
+    };
+    expect(width(5) / width(30)).toBeCloseTo(2.6548, 3);
+  });
+
   it('an upper limit only: Cpk from the upper side, (10.6 - 10.0) / (3 s) = 1.2649; Cp not defined', () => {
     const { cp, cpk } = processCapability(stats, { lower: null, upper: 10.6 });
     expect(cpk.value).toBeCloseTo(1.264911, 6);
@@ -72,6 +92,7 @@ describe('processCapability (NIST/SEMATECH e-Handbook 6.1.6)', () => {
   it('states the formulas, their source and the sigma estimate', () => {
     expect(CAPABILITY_RULE).toContain('NIST/SEMATECH e-Handbook of Statistical Methods, 6.1.6');
     expect(CAPABILITY_RULE).toContain('sample standard deviation (n - 1)');
+    expect(CAPABILITY_RULE).toContain("Bissell's approximation");
   });
 });
 

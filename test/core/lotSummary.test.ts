@@ -147,7 +147,7 @@ describe('lot report forms', () => {
     expect(html).toContain('&lt;b&gt;.jsonl');
     expect(html).toContain('<div class="value">40.0 %</div><div class="label">first-pass yield</div>');
     expect(html).toContain('<div class="value">60.0 %</div><div class="label">final yield</div>');
-    expect(html).toContain('<td class="num">1.16</td><td class="num">1.05</td>');
+    expect(html).toContain('<td class="num">1.16 [0.40, 1.94]</td><td class="num">1.05 [0.27, 1.84]</td>');
     expect(html).toContain('not defined (no limits)');
     expect(html).not.toMatch(/NaN|Infinity/);
     expect(html.match(/<svg[^>]*class="lot-histogram"/g)).toHaveLength(3);
@@ -167,7 +167,7 @@ describe('lot report forms', () => {
     const md = renderLotMarkdown(summary);
     expect(md).toContain('- First-pass yield: 40.0 % (2 of 5)');
     // One prefix per row: the values in Mrad/s, the largest (USL 10.60) with 4 significant digits, s with its own 4.
-    expect(md).toContain('| omega0 | Mrad/s | 5 | 10.00 | 0.1581 | 9.80 | 10.20 | 9.50 | 10.60 | 10.00 | 1.16 | 1.05 | 2 | 1 | 1 | 1 |');
+    expect(md).toContain('| omega0 | Mrad/s | 5 | 10.00 | 0.1581 | 9.80 | 10.20 | 9.50 | 10.60 | 10.00 | 1.16 \\[0.40, 1.94\\] | 1.05 \\[0.27, 1.84\\] | 2 | 1 | 1 | 1 |');
     expect(md).toMatch(/\| zeta \| – \| 5 \| 0\.2000 \| 0\.001581 \| 0\.1980 \| 0\.2020 \| – \| – \| 0\.2000 \| not defined \(no limits\) \| not defined \(no limits\) \|/);
     expect(md).toContain('| R | 2 | SN04, SN05 |');
     expect(md).toMatch(/\| R † \| ohm \| 5 \|/);
@@ -181,6 +181,8 @@ describe('lot report forms', () => {
     expect(rows.map((r) => r[header.indexOf('counted')])).toEqual(['yes', 'yes', 'no']);
     const omega0 = rows.find((r) => r[header.indexOf('quantity')] === 'omega0')!;
     expect(Number(omega0[header.indexOf('cpk')])).toBeCloseTo(1.054093, 5);
+    expect(Number(omega0[header.indexOf('cpk_lower_95')])).toBeCloseTo(0.267389, 5);
+    expect(Number(omega0[header.indexOf('cp_upper_95')])).toBeCloseTo(1.935299, 5);
     expect(Number(omega0[header.indexOf('lsl')])).toBe(9.5e6);
     expect(omega0[header.indexOf('units_conditional_fail')]).toBe('1');
     const zeta = rows.find((r) => r[header.indexOf('quantity')] === 'zeta')!;
