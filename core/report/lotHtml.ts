@@ -2,12 +2,12 @@
 // failures by likely cause and the units to look at. No scripts: inline CSS and SVG, every record string escaped.
 
 import { DEFERRAL } from '../safety/standingAdvice';
-import { CAPABILITY_RULE } from './capability';
+import { CAPABILITY_RULE, type CapabilityIndex } from './capability';
 import { escapeHtml as e } from './escape';
 import { renderLotHistogram } from './lotHistogramSvg';
 import { DECISION_ZONES, type DecisionZone } from '../circuit/decisionRule';
 import { LOT_YIELD_RULE, NO_CAUSE, type LotGroup, type LotSummary } from './lotSummary';
-import { NOT_COUNTED_MARK, NOT_COUNTED_NOTE, ZONE_LABELS, decisionRuleText, indexText, lotCounts, rowScale, scaledText, spreadText, yieldText } from './lotText';
+import { NOT_COUNTED_MARK, NOT_COUNTED_NOTE, ZONE_LABELS, decisionRuleText, indexValueText, intervalText, lotCounts, rowScale, scaledText, spreadText, yieldText } from './lotText';
 import { REPORT_CSS } from './reportStyle';
 import { htmlPage } from './reportHtml';
 import { showTime } from './resultRows';
@@ -72,7 +72,11 @@ function yieldSection(summary: LotSummary): string {
 
 function groupSection(group: LotGroup, g: number, groups: number): string {
   const heading = groups > 1 ? `Quantities against ${e(group.design)}` : 'Quantities';
-  const index = (text: string, defined: boolean) => `<td class="num${defined ? '' : ' undefined'}">${e(text)}</td>`;
+  // The interval on a line of its own under the index keeps the table within the text column.
+  const index = (q: CapabilityIndex) => {
+    const interval = intervalText(q);
+    return `<td class="num${q.value === null ? ' undefined' : ''}">${e(indexValueText(q))}${interval === null ? '' : `<span class="interval">${e(interval)}</span>`}</td>`;
+  };
   const rows = group.quantities
     .map((q) => {
       const s = q.stats;
@@ -82,8 +86,8 @@ function groupSection(group: LotGroup, g: number, groups: number): string {
         `<tr><th scope="row">${e(q.name)}${q.counted ? '' : ` ${NOT_COUNTED_MARK}`}</th><td>${e(scale.unit || '–')}</td>${cell(String(s?.n ?? 0))}${cell(scaledText(s?.mean, scale))}` +
         `${cell(spreadText(s?.sd, scale))}${cell(scaledText(s?.min, scale))}${cell(scaledText(s?.max, scale))}` +
         `${cell(scaledText(q.limits?.lower, scale))}${cell(scaledText(q.limits?.upper, scale))}${cell(scaledText(q.design, scale))}` +
-        index(indexText(q.capability.cp), q.capability.cp.value !== null) +
-        index(indexText(q.capability.cpk), q.capability.cpk.value !== null) +
+        index(q.capability.cp) +
+        index(q.capability.cpk) +
         DECISION_ZONES.map((zone) => `<td class="num">${q.zones[zone]}</td>`).join('') +
         '</tr>'
       );

@@ -12,14 +12,30 @@ export const ZONE_LABELS: Record<DecisionZone, string> = {
   fail: 'fail',
 };
 
-/** Decimals of Cp and Cpk: two, as capability indices are quoted (1.33, 1.67). */
+/** Decimals of Cp and Cpk: two, as capability indices are quoted (1.33, 1.67)... */
 const INDEX_DECIMALS = 2;
+/** ...up to this size; above it three significant digits (215, not 215.13: a level far inside wide limits). */
+const INDEX_DECIMALS_BELOW = 10;
+
+function indexNumber(x: number): string {
+  return Math.abs(x) < INDEX_DECIMALS_BELOW ? x.toFixed(INDEX_DECIMALS) : x.toPrecision(3);
+}
 
 /** '1.33 [1.02, 1.64]' (the 95 % interval in brackets), or 'not defined (no limits)'. */
 export function indexText(index: CapabilityIndex): string {
-  if (index.value === null) return `not defined (${index.reason})`;
-  const { lower, upper } = index.interval;
-  return `${index.value.toFixed(INDEX_DECIMALS)} [${lower.toFixed(INDEX_DECIMALS)}, ${upper.toFixed(INDEX_DECIMALS)}]`;
+  const interval = intervalText(index);
+  return interval === null ? indexValueText(index) : `${indexValueText(index)} ${interval}`;
+}
+
+/** '1.33', or 'not defined (no limits)': the index alone, for a cell that shows its interval on a line of its own. */
+export function indexValueText(index: CapabilityIndex): string {
+  return index.value === null ? `not defined (${index.reason})` : indexNumber(index.value);
+}
+
+/** '[1.02, 1.64]', the index's 95 % interval, or null where the index is not defined. */
+export function intervalText(index: CapabilityIndex): string | null {
+  if (index.value === null) return null;
+  return `[${indexNumber(index.interval.lower)}, ${indexNumber(index.interval.upper)}]`;
 }
 
 /** '92.5 % (37 of 40)', or '–' when no unit was checked. */

@@ -28,6 +28,7 @@ table.transitions tbody th { width: auto; white-space: nowrap; }
 th { font-size: 12px; color: var(--muted); font-weight: 600; text-transform: uppercase; letter-spacing: 0.03em; }
 tfoot td { font-weight: 600; border-bottom: none; border-top: 2px solid var(--ink); }
 td.num { white-space: nowrap; }
+td.num .interval { display: block; color: var(--muted); font-size: 11.5px; }
 .badge { display: inline-block; font-size: 12px; font-weight: 650; padding: 1px 8px; border-radius: 10px; white-space: nowrap; letter-spacing: 0.02em; }
 .badge.pass { color: var(--pass); background: var(--pass-bg); }
 .badge.fail { color: var(--fail); background: var(--fail-bg); }

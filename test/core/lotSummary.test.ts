@@ -147,7 +147,7 @@ describe('lot report forms', () => {
     expect(html).toContain('&lt;b&gt;.jsonl');
     expect(html).toContain('<div class="value">40.0 %</div><div class="label">first-pass yield</div>');
     expect(html).toContain('<div class="value">60.0 %</div><div class="label">final yield</div>');
-    expect(html).toContain('<td class="num">1.16 [0.40, 1.94]</td><td class="num">1.05 [0.27, 1.84]</td>');
+    expect(html).toContain('<td class="num">1.16<span class="interval">[0.40, 1.94]</span></td><td class="num">1.05<span class="interval">[0.27, 1.84]</span></td>');
     expect(html).toContain('not defined (no limits)');
     expect(html).not.toMatch(/NaN|Infinity/);
     expect(html.match(/<svg[^>]*class="lot-histogram"/g)).toHaveLength(3);

@@ -96,8 +96,14 @@ describe.skipIf(!hasChromium)('lot report in Chromium', () => {
     for (const row of rows) {
       const cells = row.split('\t');
       expect(cells[column('n')]).toBe(String(UNITS));
-      // Cp and Cpk: a number, or 'not defined (...)'; never NaN, never an empty cell.
-      for (const index of [cells[column('cp')], cells[column('cpk')]]) expect(index).toMatch(/^(-?\d+\.\d\d|not defined \(.+\))$/);
+      // Cp and Cpk: a number with its 95 % interval around it, or 'not defined (...)'; never NaN, never an empty cell.
+      for (const index of [cells[column('cp')].trim(), cells[column('cpk')].trim()]) {
+        // Two decimals below 10, three significant digits above (215, 12.3).
+        const number = '-?(?:\\d\\.\\d\\d|\\d\\d\\.\\d|\\d{3,})';
+        expect(index).toMatch(new RegExp(`^(${number}\\s+\\[${number}, ${number}\\]|not defined \\(.+\\))$`));
+        const [value, lower, upper] = (index.match(/-?\d+(\.\d+)?/g) ?? []).map(Number);
+        if (lower !== undefined) expect(lower <= value && value <= upper).toBe(true);
+      }
     }
     expect(await page.locator('body').innerText()).not.toMatch(/NaN|Infinity/);
     // The table stays inside the page's column (nothing cut off in print).
