@@ -2,7 +2,7 @@
 // have carried many samples beyond, where none lies (a slow peak that lingers at the rail, entered and left gently).
 
 import type { Trace } from './trace';
-import { chiSquareTail } from './chiSquareTail';
+import { chiSquareTail } from '../chiSquare';
 import { quantisationStep } from './noise';
 
 /**

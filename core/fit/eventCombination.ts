@@ -1,7 +1,7 @@
 // Several fits of one circuit combined: the inverse-variance weighted mean and the chi-square of the spread.
 
 import { quantity, type Quantity } from '../quantity';
-import { chiSquareTail } from './chiSquareTail';
+import { chiSquareTail } from '../chiSquare';
 
 export interface CombinedValue {
   /** The weighted mean; its standard error is scaled up by `scale` when the spread exceeds the stated errors. */

@@ -1,6 +1,6 @@
 // Process capability of a lot: sample statistics of one quantity and Cp, Cpk against its limits, with their intervals.
 
-import { chiSquareQuantile } from '../fit/chiSquareTail';
+import { chiSquareQuantile } from '../chiSquare';
 
 /** Specification limits of a quantity in SI units; null on an open side. */
 export interface Limits {

@@ -1,6 +1,6 @@
 // The chi-square quantile the capability intervals read, against scipy.stats.chi2.ppf (scipy 1.x, printed to 8 digits).
 import { describe, expect, it } from 'vitest';
-import { chiSquareQuantile, chiSquareTail } from '../../core/fit/chiSquareTail';
+import { chiSquareQuantile, chiSquareTail } from '../../core/chiSquare';
 
 describe('chiSquareQuantile', () => {
   it.each([

@@ -6,7 +6,7 @@ import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { parseCapture } from '../../core/capture/parseCapture';
 import { selectChannel } from '../../core/capture/selectChannel';
-import { chiSquareTail } from '../../core/fit/chiSquareTail';
+import { chiSquareTail } from '../../core/chiSquare';
 import { combineEstimates } from '../../core/fit/eventCombination';
 import { findEventTrain } from '../../core/fit/eventTrain';
 import { UsageError } from '../../core/inputError';

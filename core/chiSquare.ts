@@ -1,4 +1,4 @@
-// The chance that a chi-square variable exceeds a value: the p-value of a consistency test.
+// The chi-square distribution: the chance that a variable exceeds a value (a consistency test's p-value), and its quantiles.
 
 /** Relative size of the last term at which the series and the continued fraction stop. */
 const PRECISION = 1e-14;
