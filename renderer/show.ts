@@ -33,13 +33,16 @@ function pretty(text: string): string {
   return text.replace(/\^-1/g, '⁻¹');
 }
 
-/** One row of a result table: the symbol, its words, and the value with its uncertainty. */
-export function quantityRow(key: string, symbol: string, words: string, q: Quantity | null | undefined, title = words): HTMLTableRowElement {
+/**
+ * One row of a result table: the symbol, its words, and the value with its uncertainty; `text`, where given, is the
+ * value as the result row table writes it (fitResultRows: an event time has no relative uncertainty).
+ */
+export function quantityRow(key: string, symbol: string, words: string, q: Quantity | null | undefined, title = words, text?: string): HTMLTableRowElement {
   return h(
     'tr',
     { data: { quantity: key, ...(q ? { value: String(q.value), stderr: String(q.stderr) } : {}) } },
     // The title keeps the words whole where a narrow readout cuts them short.
     h('th', { title, attrs: { scope: 'row' } }, h('span', { class: 'symbol' }, symbol), h('span', { class: 'words' }, words)),
-    h('td', { class: 'number' }, showQuantity(q)),
+    h('td', { class: 'number' }, text === undefined ? showQuantity(q) : pretty(text)),
   );
 }

@@ -114,7 +114,7 @@ export function createFitPanel(actions: BenchActions) {
         {},
         ...rows.flatMap((row) => {
           const [symbol, words, title] = WORDS[row.name];
-          const tr = quantityRow(row.name, symbol, words, row.quantity, title);
+          const tr = quantityRow(row.name, symbol, words, row.quantity, title, row.text);
           return row.name === 'omegaD' ? [tr, ringHz] : [tr];
         }),
       ),
