@@ -17,6 +17,7 @@ const INDEX_DECIMALS = 2;
 /** ...up to this size; above it three significant digits (215, not 215.13: a level far inside wide limits). */
 const INDEX_DECIMALS_BELOW = 10;
 
+/** An index or an interval bound as the lot report writes it (see INDEX_DECIMALS_BELOW). */
 function indexNumber(x: number): string {
   return Math.abs(x) < INDEX_DECIMALS_BELOW ? x.toFixed(INDEX_DECIMALS) : x.toPrecision(3);
 }
