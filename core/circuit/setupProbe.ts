@@ -37,20 +37,23 @@ export interface ProbeCorrection {
  * C and f0 without the probe, the probe's capacitance in parallel with the ring's capacitance (a probe across
  * the capacitor or switch node that rings). With C the known part, the loop held C + Cp while measured; otherwise
  * the C derived from the fit holds the probe and the board's is C - Cp. f0 = 1 / (2 pi sqrt(L C)) with L as
- * measured. The probe's capacitance is taken as exact; the standard errors are first-order propagations of
- * f0's and C's, taken as independent (exact when C is the known part; with L known, C comes from f0 and L and
- * the unloaded f0 is propagated from those two). Null when the probe's capacitance is not below the loop's.
+ * measured. The standard errors are first-order propagations of f0's, C's and the probe's (`probeRel`, its
+ * relative standard uncertainty; 0 takes it as exact), taken as independent (exact when C is the known part; with L
+ * known, C comes from f0 and L and the unloaded f0 is propagated from those two). Null when the probe's capacitance
+ * is not below the loop's.
  */
-export function probeCorrection(f0: Quantity, c: Quantity, knownName: 'R' | 'L' | 'C', probeC: number): ProbeCorrection | null {
+export function probeCorrection(f0: Quantity, c: Quantity, knownName: 'R' | 'L' | 'C', probeC: number, probeRel: number): ProbeCorrection | null {
   const cRel = c.stderr === null ? null : c.stderr / c.value;
   const f0Rel = f0.stderr === null ? null : f0.stderr / f0.value;
+  const probeStderr = probeC * probeRel;
   if (knownName === 'C') {
     const loaded = c.value + probeC;
     const ratio = Math.sqrt(loaded / c.value);
-    // d ln(f0') / d ln(C) = -Cp / (2 (C + Cp)): the known C's uncertainty enters through the ratio alone.
-    const rel = f0Rel === null || cRel === null ? null : Math.hypot(f0Rel, (probeC / (2 * loaded)) * cRel);
+    // d ln(f0') / d ln(C) = -Cp / (2 (C + Cp)) and d ln(f0') / d ln(Cp) = Cp / (2 (C + Cp)).
+    const share = probeC / (2 * loaded);
+    const rel = f0Rel === null || cRel === null ? null : Math.hypot(f0Rel, share * cRel, share * probeRel);
     return {
-      loadedC: { value: loaded, stderr: c.stderr, unit: 'F' },
+      loadedC: { value: loaded, stderr: c.stderr === null ? null : Math.hypot(c.stderr, probeStderr), unit: 'F' },
       unloadedC: c,
       loadedF0: f0,
       unloadedF0: { value: f0.value * ratio, stderr: rel === null ? null : rel * f0.value * ratio, unit: 'Hz' },
@@ -64,11 +67,12 @@ export function probeCorrection(f0: Quantity, c: Quantity, knownName: 'R' | 'L' 
   let rel: number | null = null;
   if (f0Rel !== null && cRel !== null) {
     const lRel = Math.sqrt(Math.max(0, cRel * cRel - 4 * f0Rel * f0Rel));
-    rel = Math.hypot((c.value / unloaded) * f0Rel, (probeC / (2 * unloaded)) * lRel);
+    // d ln f0' / d ln Cp = Cp / (2 (C - Cp)).
+    rel = Math.hypot((c.value / unloaded) * f0Rel, (probeC / (2 * unloaded)) * lRel, (probeC / (2 * unloaded)) * probeRel);
   }
   return {
     loadedC: c,
-    unloadedC: { value: unloaded, stderr: c.stderr, unit: 'F' },
+    unloadedC: { value: unloaded, stderr: c.stderr === null ? null : Math.hypot(c.stderr, probeStderr), unit: 'F' },
     loadedF0: f0,
     unloadedF0: { value: f0.value * ratio, stderr: rel === null ? null : rel * f0.value * ratio, unit: 'Hz' },
   };

@@ -30,6 +30,8 @@ export interface SetupOptions {
   scopeBandwidth?: number;
   /** The voltage probe's input capacitance, F: corrected C and f0 beside the measured ones. Default: no correction (10 pF assumed for the ground-lead check). */
   probeCapacitance?: number;
+  /** That capacitance's tolerance, relative (0.1 for 10 %); carried into the corrected values. Default: taken as exact, and said so. */
+  probeCapacitanceTolerance?: number;
   /** The probe's ground-lead length, m. Default 6 inches (the long clip lead). */
   groundLead?: number;
 }

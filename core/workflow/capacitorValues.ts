@@ -1,5 +1,6 @@
 // Typed values of real capacitors for the added-capacitor method: a derating per added part ('2.2n@0.6'), a
-// factor, and a value with an optional tolerance ('180p,10'); bad text is a UsageError naming the option.
+// factor, a value with its tolerance ('180p,10'), and the tolerances that must be stated; bad text is a UsageError
+// naming the option.
 import { parseQuantityText } from '../units/parseQuantity';
 import { UsageError } from '../inputError';
 import { parseTolerance } from './userValues';
@@ -29,10 +30,10 @@ export function parseFactor(text: string, where: string): number {
   return factor;
 }
 
-/** 'VALUE[,TOL]' in `unit` ('180p,10': 180 pF with a 10 % tolerance), positive; the tolerance relative, 0 when not given. */
-export function parseValueWithTolerance(text: string, option: string, unit: string): { value: number; tolerance: number } {
+/** 'VALUE[,TOL]' in `unit` as `shape` says it is written: the value positive, the tolerance relative, undefined when not given. */
+function readValueAndTolerance(text: string, option: string, unit: string, shape: string): { value: number; tolerance?: number } {
   const [valueText, toleranceText, extra] = text.split(',').map((s) => s.trim());
-  if (extra !== undefined || !valueText) throw new UsageError(`${option} '${text}': expected VALUE[,TOL], e.g. 180p,10 (tolerance in %)`);
+  if (extra !== undefined || !valueText) throw new UsageError(`${option} '${text}': expected ${shape} (tolerance in %)`);
   let value: number;
   try {
     value = parseQuantityText(valueText, unit);
@@ -40,7 +41,47 @@ export function parseValueWithTolerance(text: string, option: string, unit: stri
     throw new UsageError(`${option} '${text}': ${(error as Error).message}`);
   }
   if (!(value > 0) || !Number.isFinite(value)) throw new UsageError(`${option} '${text}': must be a positive value`);
-  return { value, tolerance: toleranceText === undefined ? 0 : parseTolerance(toleranceText, `${option} '${text}'`) };
+  return toleranceText === undefined || toleranceText === '' ? { value } : { value, tolerance: parseTolerance(toleranceText, `${option} '${text}'`) };
+}
+
+/**
+ * 'VALUE,TOL' in `unit` ('180p,10': 180 pF with a 10 % tolerance), positive, the tolerance relative. The tolerance must
+ * be stated: a datasheet's typical value or a level read off a trace is uncertain, and what is derived from it (the
+ * layout's share of C_p, the edge's L) is known no better; taken as exact by default, C_p - C_switch printed +-4 % where
+ * a 20 % Coss leaves more than 10 %. 'VALUE,0' takes the value as exact.
+ */
+export function parseValueWithTolerance(text: string, option: string, unit: string): { value: number; tolerance: number } {
+  const { value, tolerance } = readValueAndTolerance(text, option, unit, 'VALUE,TOL, e.g. 180p,10');
+  if (tolerance === undefined) {
+    const valueText = text.split(',')[0].trim();
+    throw new UsageError(`${option} '${text}': give its tolerance in % after a comma, e.g. ${valueText},10 (what is derived from it is known no better; ${valueText},0 takes it as exact)`);
+  }
+  return { value, tolerance };
+}
+
+/** A probe's input capacitance, 'VALUE[,TOL]' ('10p' or '10p,10'); undefined when not given. */
+export function parseProbeCapacitance(text: string | undefined, option: string): { value: number; tolerance?: number } | undefined {
+  return text === undefined ? undefined : readValueAndTolerance(text, option, 'F', 'VALUE[,TOL], e.g. 10p,10');
+}
+
+/** The setup options a probe capacitance read by parseProbeCapacitance gives: its tolerance only where stated. */
+export function probeSetup(probe: { value: number; tolerance?: number }): { probeCapacitance: number; probeCapacitanceTolerance?: number } {
+  return probe.tolerance === undefined ? { probeCapacitance: probe.value } : { probeCapacitance: probe.value, probeCapacitanceTolerance: probe.tolerance };
+}
+
+/**
+ * The probe capacitance's tolerance where it is taken off C_p, which must then be stated, after the value or as its
+ * own option (`toleranceText`), once: C_p is known no better than the probe's datasheet value. 0 without a probe.
+ */
+export function probeCapacitanceTolerance(probe: { value: number; tolerance?: number } | undefined, toleranceText: string | undefined, option: string): number {
+  if (probe === undefined) return 0;
+  const separate = toleranceText === undefined || toleranceText.trim() === '' ? undefined : parseTolerance(toleranceText, option);
+  if (probe.tolerance !== undefined && separate !== undefined) throw new UsageError(`${option}: the probe capacitance already carries its tolerance after the comma: give it once`);
+  const tolerance = probe.tolerance ?? separate;
+  if (tolerance === undefined) {
+    throw new UsageError(`${option}: give the probe capacitance's tolerance in %, e.g. 10 (C_p is given with the probe's C taken off, known no better than it; 0 takes it as exact)`);
+  }
+  return tolerance;
 }
 
 /**

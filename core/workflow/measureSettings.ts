@@ -5,6 +5,7 @@ import { UsageError } from '../inputError';
 import { parseStatedUnit, type StatedUnit } from '../units/unitText';
 import type { FitWindow } from './measure';
 import type { KnownPartRequest } from './measuredComponents';
+import { parseProbeCapacitance, probeSetup } from './capacitorValues';
 import { parseProbeRatio, type ProbeScaling } from './probeScaling';
 import type { SetupOptions } from './setupChecks';
 import { parseLength, parsePositiveValue } from './userValues';
@@ -125,9 +126,9 @@ function parseSegmentNumber(text: string): number {
 function parseSetupOptions(settings: MeasureSettings): SetupOptions {
   const setup: SetupOptions = {};
   const bandwidth = parsePositiveValue(settings.scopeBandwidth, '--scope-bandwidth', 'Hz');
-  const capacitance = parsePositiveValue(settings.probeCapacitance, '--probe-capacitance', 'F');
+  const probe = parseProbeCapacitance(settings.probeCapacitance, '--probe-capacitance');
   if (bandwidth !== undefined) setup.scopeBandwidth = bandwidth;
-  if (capacitance !== undefined) setup.probeCapacitance = capacitance;
+  if (probe !== undefined) Object.assign(setup, probeSetup(probe));
   if (settings.groundLead !== undefined) setup.groundLead = parseLength(settings.groundLead, '--ground-lead');
   return setup;
 }

@@ -23,6 +23,7 @@ import type { Quantity } from '../quantity';
 import { median } from '../fit/noise';
 import { fitSucceeded, type FitSummary } from '../report/fitSummary';
 import { hertz } from '../report/resultRows';
+import { toleranceToRelativeUncertainty } from '../circuit/tolerance';
 import { formatEngineering, formatWithUncertainty } from '../units/format';
 import type { KnownPartRequest } from './measuredComponents';
 import type { SetupCheck, SetupCheckLevel, SetupOptions } from '../circuit/setupTypes';
@@ -339,15 +340,23 @@ function groundLead(input: SetupCheckInput): SetupCheck[] {
   ];
 }
 
+/** How the probe's capacitance entered the corrected values: with its tolerance, or taken as exact (and how to give one). */
+function probeToleranceText(probeC: number, tolerance: number | undefined): string {
+  if (tolerance !== undefined) return `the probe's ${Number((tolerance * 100).toPrecision(3))} % tolerance included`;
+  return `the probe's capacitance taken as exact (give its tolerance as ${formatEngineering(probeC, 'F', 3).replace(/\s+|F$/g, '')},TOL in %)`;
+}
+
 function probeLoading(input: SetupCheckInput): SetupCheck[] {
   const probeC = input.options?.probeCapacitance;
   if (probeC === undefined || input.channel.unit !== 'V' || !fitSucceeded(input.fit) || input.fit.regime === 'first-order' || input.fit.regime === 'none') return [];
   const components = input.summary.components;
+  const tolerance = input.options?.probeCapacitanceTolerance;
+  const probeRel = toleranceToRelativeUncertainty(tolerance ?? 0);
   const probe = formatEngineering(probeC, 'F', 3);
   if (!components || !input.knownPart) {
     return [{ id: 'probe-loading', level: 'note', message: `the probe's ${probe} loads the node; give the topology and a known part to see C and f0 without it`, values: { probeCapacitance: probeC } }];
   }
-  const corrected = probeCorrection(hertz(input.fit.omega0), components.C, input.knownPart.known.name, probeC);
+  const corrected = probeCorrection(hertz(input.fit.omega0), components.C, input.knownPart.known.name, probeC, probeRel);
   if (!corrected) {
     return [
       {
@@ -360,14 +369,17 @@ function probeLoading(input: SetupCheckInput): SetupCheck[] {
   }
   const f0 = `f0 = ${formatWithUncertainty(corrected.unloadedF0)} (measured ${formatWithUncertainty(corrected.loadedF0)})`;
   if (input.knownPart.known.name === 'C') {
-    // The known C is the board's; the loop rang with C + Cp, so the L derived from C alone reads high by (C + Cp) / C.
+    // The known C is the board's; the loop rang with C + Cp, so the L derived from C alone reads high by (C + Cp) / C
+    // (d ln L / d ln Cp = -Cp / (C + Cp)).
     const share = components.C.value / corrected.loadedC.value;
-    const L = { ...components.L, value: components.L.value * share, stderr: components.L.stderr === null ? null : components.L.stderr * share };
+    const value = components.L.value * share;
+    const stderr = components.L.stderr === null ? null : Math.hypot(components.L.stderr * share, value * (1 - share) * probeRel);
+    const L = { ...components.L, value, stderr };
     return [
       {
         id: 'probe-loading',
         level: 'note',
-        message: `without the probe's ${probe} across C (the loop rang with C + Cp = ${formatEngineering(corrected.loadedC.value, 'F')}): ${f0}, L = ${formatWithUncertainty(L)} (from C alone ${formatWithUncertainty(components.L)})`,
+        message: `without the probe's ${probe} across C (the loop rang with C + Cp = ${formatEngineering(corrected.loadedC.value, 'F')}): ${f0}, L = ${formatWithUncertainty(L)} (from C alone ${formatWithUncertainty(components.L)}); ${probeToleranceText(probeC, tolerance)}`,
         values: { probeCapacitance: probeC, ...corrected, unloadedL: L },
       },
     ];
@@ -376,7 +388,7 @@ function probeLoading(input: SetupCheckInput): SetupCheck[] {
     {
       id: 'probe-loading',
       level: 'note',
-      message: `without the probe's ${probe} across the ring's capacitance: C = ${formatWithUncertainty(corrected.unloadedC)} (measured ${formatWithUncertainty(corrected.loadedC)}), ${f0}`,
+      message: `without the probe's ${probe} across the ring's capacitance: C = ${formatWithUncertainty(corrected.unloadedC)} (measured ${formatWithUncertainty(corrected.loadedC)}), ${f0}; ${probeToleranceText(probeC, tolerance)}`,
       values: { probeCapacitance: probeC, ...corrected },
     },
   ];

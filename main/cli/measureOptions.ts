@@ -50,7 +50,7 @@ export function addModeOptions(command: Command): Command {
 export function addSetupOptions(command: Command): Command {
   return command
     .option('--scope-bandwidth <freq>', "scope or probe bandwidth (the lower), e.g. 200M: warns when a first-order front end there biases alpha beyond its error, or passes a faster ring that would alias onto this one (default: the capture preamble's, else none)")
-    .option('--probe-capacitance <cap>', "voltage probe input capacitance, e.g. 10p: C and f0 without it beside the measured ones (with --topology/--known)")
+    .option('--probe-capacitance <C[,TOL]>', "voltage probe input capacitance with its tolerance in %, e.g. 10p,10: C and f0 without it beside the measured ones (with --topology/--known; without a tolerance it is taken as exact)")
     .option('--ground-lead <length>', "probe ground-lead length, e.g. 6in or 15cm, for the ground-lead resonance check (default 6in)");
 }
 

@@ -1,7 +1,7 @@
 // The extraction panel's action: the typed values read with the command line's parsers, measureParasitics run in the worker.
 
-import { parseChannel, parsePositiveValue, parseTolerance } from '../../core/workflow/userValues';
-import { addedPartsTolerance, deratingsWithTolerance, parseFactor, parseValueWithTolerance } from '../../core/workflow/capacitorValues';
+import { parseChannel, parsePositiveValue } from '../../core/workflow/userValues';
+import { addedPartsTolerance, deratingsWithTolerance, parseFactor, parseProbeCapacitance, parseValueWithTolerance, probeCapacitanceTolerance } from '../../core/workflow/capacitorValues';
 import { toleranceToRelativeUncertainty } from '../../core/circuit/tolerance';
 import { quantity } from '../../core/quantity';
 import { BenchError } from '../benchError';
@@ -55,14 +55,15 @@ export function parasiticsAsk(rows: readonly ExtractionRow[], settings: Extracti
     const addedC = i === 0 ? 0 : parsePositiveValue(row.addedText, `${where}: added C`, 'F');
     return { name: row.name, ...row.content, addedC: addedC ?? 0, derating: deratings[i] };
   });
+  const probe = parseProbeCapacitance(given(settings.probeText), 'probe C');
   return {
     captures,
     dcBias,
     switchC: given(settings.switchCText) === undefined ? undefined : parseValueWithTolerance(settings.switchCText, 'switch Coss', 'F'),
     edge: edgeAsk(settings.edge),
     addedTolerance: addedPartsTolerance(settings.addedToleranceText, 'added C tolerance'),
-    probeC: optional(settings.probeText, 'probe C', 'F'),
-    probeCTolerance: parseTolerance(settings.probeToleranceText, 'probe C tolerance'),
+    probeC: probe?.value,
+    probeCTolerance: probeCapacitanceTolerance(probe, settings.probeToleranceText, 'probe C tolerance'),
     bandwidth: optional(settings.bandwidthText, 'bandwidth', 'Hz'),
     voltage: optional(settings.voltageText, 'voltage swing', 'V'),
     switchingFrequency: optional(settings.switchingText, 'switching frequency', 'Hz'),

@@ -39,10 +39,10 @@ export function createParasiticPanel(actions: BenchActions, drawLine: Capacitanc
   const switching = input('snubber-fsw', 'Switching frequency', 'e.g. 500k');
   const dcBias = input('dc-bias-factor', 'DC-bias factor of the added ceramic capacitors', 'e.g. 0.55');
   const deratingTol = input('derating-tol', 'Tolerance of the derating factors in percent', '%');
-  const switchC = input('switch-coss', 'Switch output capacitance at the operating voltage, with an optional tolerance', 'e.g. 180p,10');
+  const switchC = input('switch-coss', 'Switch output capacitance at the operating voltage, with its tolerance in percent after a comma', 'e.g. 180p,20');
   const edgeCurrent = input('edge-current-channel', 'Current channel of the turn-on edge capture', 'first');
   const edgeVoltage = input('edge-voltage-channel', 'Switch voltage channel of the turn-on edge capture', 'e.g. CH1');
-  const plateau = input('plateau-voltage', 'Voltage across the loop inductance while the current rises, with an optional tolerance', 'e.g. 9.5,10');
+  const plateau = input('plateau-voltage', 'Voltage across the loop inductance while the current rises, with its tolerance in percent after a comma', 'e.g. 9.5,10');
   for (const tol of [addedTol, probeTol, deratingTol]) tol.title = TOLERANCE_RULE;
   let edgeFile: CaptureFile | null = null;
   const edgeName = h('span', { class: 'row-name', id: 'edge-file' }, 'no edge capture chosen');
@@ -135,9 +135,9 @@ export function createParasiticPanel(actions: BenchActions, drawLine: Capacitanc
       h('div', { class: 'actions' }, useSet, useCurrent, addEmpty),
       list,
       h('div', { class: 'grid-2' }, field('Added C tolerance', addedTol, `needed; ${TOLERANCE_HINT} (0: parts taken as exact)`), field('Bandwidth (Hz)', bandwidth, 'scope or probe; optional')),
-      h('div', { class: 'grid-2' }, field('Probe C (F)', probe, 'in parallel in every capture'), field('Probe C tolerance', probeTol, TOLERANCE_HINT)),
+      h('div', { class: 'grid-2' }, field('Probe C (F)', probe, 'in parallel in every capture'), field('Probe C tolerance', probeTol, `needed with a probe C; ${TOLERANCE_HINT}`)),
       h('div', { class: 'grid-2' }, field('DC-bias factor', dcBias, 'class-II ceramics: C at the operating voltage / nominal, for every part without its own derating'), field('Derating tolerance', deratingTol, 'of the factors; needed with any below 1')),
-      field('Switch Coss at the operating voltage (F)', switchC, 'small-signal value, split off C_p; not Co(tr) or Co(er)'),
+      field('Switch Coss at the operating voltage (F)', switchC, 'small-signal value and its tolerance in %, split off C_p; not Co(tr) or Co(er)'),
       h('p', { class: 'field-hint' }, 'Cross-check L_p on a turn-on edge (optional): L = V_L / (di/dt) over the current’s 10–90 % rise.'),
       h('div', { class: 'row-head' }, edgeName, chooseEdge, clearEdge),
       h('div', { class: 'grid-3' }, field('Current channel', edgeCurrent), field('Switch voltage channel', edgeVoltage), field('or plateau V_L (V)', plateau)),

@@ -2,6 +2,7 @@
 
 import type { SetupCheck, SetupOptions } from '../../core/circuit/setupTypes';
 import { parseLength, parsePositiveValue } from '../../core/workflow/userValues';
+import { parseProbeCapacitance, probeSetup } from '../../core/workflow/capacitorValues';
 import { button, field, h, textInput } from '../dom';
 import { plainMessage } from '../plainMessage';
 import { inWindowTerms } from '../windowTerms';
@@ -31,7 +32,7 @@ export function setupChecksView(checks: readonly SetupCheck[]): HTMLElement[] {
  */
 export function setupOptionsForm(apply: (setup: SetupOptions) => void): HTMLElement {
   const bandwidth = textInput('', { id: 'setup-bandwidth', attrs: { 'aria-label': 'Scope bandwidth', placeholder: 'preamble' } });
-  const probeC = textInput('', { id: 'setup-probe-c', attrs: { 'aria-label': 'Probe capacitance', placeholder: 'none' } });
+  const probeC = textInput('', { id: 'setup-probe-c', attrs: { 'aria-label': 'Probe capacitance, with its tolerance in percent after a comma', placeholder: 'e.g. 10p,10' } });
   const lead = textInput('', { id: 'setup-ground-lead', attrs: { 'aria-label': 'Ground-lead length', placeholder: '6in' } });
   const note = h('p', { class: 'field-note', id: 'setup-note' });
   const read = () => {
@@ -39,10 +40,10 @@ export function setupOptionsForm(apply: (setup: SetupOptions) => void): HTMLElem
       const text = (input: HTMLInputElement) => (input.value.trim() === '' ? undefined : input.value.trim());
       const setup: SetupOptions = {};
       const hertz = parsePositiveValue(text(bandwidth), 'scope bandwidth', 'Hz');
-      const farad = parsePositiveValue(text(probeC), 'probe capacitance', 'F');
+      const probe = parseProbeCapacitance(text(probeC), 'probe capacitance');
       const leadText = text(lead);
       if (hertz !== undefined) setup.scopeBandwidth = hertz;
-      if (farad !== undefined) setup.probeCapacitance = farad;
+      if (probe !== undefined) Object.assign(setup, probeSetup(probe));
       if (leadText !== undefined) setup.groundLead = parseLength(leadText, 'ground lead');
       note.textContent = '';
       apply(setup);

@@ -79,8 +79,8 @@ describe('parasitics: an added capacitance no bench circuit holds', () => {
 describe('parasitics takes the probe and bandwidth options by the names fit uses', () => {
   it('--probe-capacitance and --scope-bandwidth give what --probe-c and --bandwidth give', async () => {
     const common = ['parasitics', BEFORE, AFTER, '--added', 'C=470p', '--added-tolerance', '0', '--json'];
-    const named = await run([...common, '--probe-capacitance', '12p', '--scope-bandwidth', '500M']);
-    const earlier = await run([...common, '--probe-c', '12p', '--bandwidth', '500M']);
+    const named = await run([...common, '--probe-capacitance', '12p', '--probe-c-tolerance', '10', '--scope-bandwidth', '500M']);
+    const earlier = await run([...common, '--probe-c', '12p', '--probe-c-tolerance', '10', '--bandwidth', '500M']);
     const bare = await run(common);
     expect(named.code).toBe(0);
     expect(named.out).toBe(earlier.out);
@@ -88,8 +88,34 @@ describe('parasitics takes the probe and bandwidth options by the names fit uses
     expect(named.out).not.toBe(bare.out);
   });
 
+  it('a probe capacitance needs its tolerance (C_p is given with it taken off): exit 2 before a capture is read; 0 takes it as exact', async () => {
+    const common = ['parasitics', BEFORE, AFTER, '--added', 'C=470p', '--added-tolerance', '0', '--probe-capacitance', '12p', '--json'];
+    // A capture that does not exist: the refusal comes before any capture is read.
+    const missing = await run(common.map((arg) => (arg === BEFORE ? 'no-such-capture.csv' : arg)));
+    expect(missing.code).toBe(2);
+    expect(missing.out).toBe('');
+    expect(missing.err.trim().split('\n')).toEqual([expect.stringMatching(/^ringbench: --probe-c-tolerance: give the probe capacitance's tolerance in %, e\.g\. 10 .*0 takes it as exact\)$/)]);
+    const exact = await run([...common, '--probe-c-tolerance', '0']);
+    const tenPercent = await run([...common, '--probe-c-tolerance', '10']);
+    expect(exact.code).toBe(0);
+    const cp = (out: string) => JSON.parse(out).C as { value: number; stderr: number };
+    expect(cp(tenPercent.out).value).toBe(cp(exact.out).value);
+    expect(cp(tenPercent.out).stderr).toBeGreaterThan(cp(exact.out).stderr);
+  });
+
+  it('the tolerance may follow the value as on fit (12p,10), but not both ways at once', async () => {
+    const common = ['parasitics', BEFORE, AFTER, '--added', 'C=470p', '--added-tolerance', '0', '--json'];
+    const after = await run([...common, '--probe-capacitance', '12p,10']);
+    const separate = await run([...common, '--probe-capacitance', '12p', '--probe-c-tolerance', '10']);
+    expect(after.code).toBe(0);
+    expect(after.out).toBe(separate.out);
+    const twice = await run([...common, '--probe-capacitance', '12p,10', '--probe-c-tolerance', '10']);
+    expect(twice.code).toBe(2);
+    expect(twice.err).toMatch(/--probe-c-tolerance: the probe capacitance already carries its tolerance after the comma: give it once/);
+  });
+
   it('both spellings of one option at once exit 2 naming both', async () => {
-    const r = await run(['parasitics', BEFORE, AFTER, '--added', 'C=470p', '--added-tolerance', '0', '--probe-capacitance', '12p', '--probe-c', '10p']);
+    const r = await run(['parasitics', BEFORE, AFTER, '--added', 'C=470p', '--added-tolerance', '0', '--probe-capacitance', '12p', '--probe-c', '10p', '--probe-c-tolerance', '10']);
     expect(r.code).toBe(2);
     expect(r.err).toMatch(/--probe-capacitance and --probe-c are the same option/);
   });

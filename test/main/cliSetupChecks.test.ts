@@ -58,6 +58,13 @@ describe('fit: setup checks', () => {
     const out = await run(['fit', 'switch-node-before.csv', '--topology', 'series', '--known', 'C=390p', '--probe-capacitance', '10p', '--ground-lead', '15cm']);
     expect(out.code).toBe(0);
     expect(out.out).toMatch(/note: without the probe's 10 pF across C \(the loop rang with C \+ Cp = 400 pF\): f0 = 101\.\d+ MHz/);
+    expect(out.out).toMatch(/the probe's capacitance taken as exact \(give its tolerance as 10p,TOL in %\)/);
+    // A 20 % probe (rectangular, 11.5 % standard) moves f0 by Cp / (2 (C + Cp)) of that: 0.14 %, some 150 kHz.
+    const toleranced = await run(['fit', 'switch-node-before.csv', '--topology', 'series', '--known', 'C=390p', '--probe-capacitance', '10p,20', '--json']);
+    const note = (JSON.parse(toleranced.out).setupChecks as SetupCheck[]).find((c) => c.id === 'probe-loading')!;
+    expect(note.message).toMatch(/the probe's 20 % tolerance included$/);
+    const f0 = note.values!.unloadedF0 as { value: number; stderr: number };
+    expect(f0.stderr / f0.value).toBeCloseTo((10 / 800) * (0.2 / Math.sqrt(3)), 4);
     // 10 inches against 10 pF resonate at 100.7 MHz (25 nH per inch, common practice): the 99.9 MHz ring matches it.
     const lead = await run(['fit', 'switch-node-before.csv', '--ground-lead', '10in', '--json']);
     expect((JSON.parse(lead.out).setupChecks as SetupCheck[]).map((c) => c.id)).toEqual(['ground-lead']);
@@ -82,6 +89,7 @@ describe('fit: setup checks', () => {
     ['--scope-bandwidth', 'wide', "--scope-bandwidth 'wide'"],
     ['--scope-bandwidth', '-20M', "--scope-bandwidth '-20M': must be a positive value"],
     ['--probe-capacitance', '0', "--probe-capacitance '0': must be a positive value"],
+    ['--probe-capacitance', '10p,x', "--probe-capacitance '10p,x': tolerance 'x' must be a percentage"],
     ['--ground-lead', '6', "--ground-lead '6': expected a positive length with its unit, e.g. 6in, 15cm or 25mm"],
   ] as const) {
     it(`${option} ${value} is bad input: exit 2 naming the option`, async () => {

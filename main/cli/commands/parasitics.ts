@@ -8,8 +8,8 @@ import type { CommandContext } from '../commandContext';
 import { loadCaptureFor } from '../../app/measureFile';
 import { formatParasiticsText } from '../../../core/report/parasiticsText';
 import { measureParasiticsOutcome, type EdgeRequest } from '../../../core/workflow/parasitics';
-import { parseAddedCapacitances, parsePositiveValue, parseTolerance } from '../../../core/workflow/userValues';
-import { addedPartsTolerance, deratingsWithTolerance, parseFactor, parseValueWithTolerance, splitAddedDeratings } from '../../../core/workflow/capacitorValues';
+import { parseAddedCapacitances, parsePositiveValue } from '../../../core/workflow/userValues';
+import { addedPartsTolerance, deratingsWithTolerance, parseFactor, parseProbeCapacitance, parseValueWithTolerance, probeCapacitanceTolerance, splitAddedDeratings } from '../../../core/workflow/capacitorValues';
 import { UsageError } from '../../../core/inputError';
 import { quantity } from '../../../core/quantity';
 import { toleranceToRelativeUncertainty } from '../../../core/circuit/tolerance';
@@ -52,14 +52,14 @@ export function registerParasiticsCommand(program: Command, ctx: CommandContext)
     .option('--added-tolerance <TOL>', 'tolerance of the added capacitors in %, e.g. 5 or 5% (needed: L_p and C_p are known no better than the parts; 0 takes them as exact)')
     .option('--dc-bias-factor <FACTOR>', 'one DC-bias factor for every added capacitor without its own @FACTOR (class-II ceramics), e.g. 0.55 or 55%')
     .option('--derating-tolerance <TOL>', 'tolerance of the derating and DC-bias factors in %, needed with any factor below 1, e.g. 15')
-    .option('--switch-coss <C[,TOL]>', 'the switch\'s output capacitance at the operating voltage (small-signal), split off C_p, e.g. 180p,10')
+    .option('--switch-coss <C,TOL>', 'the switch\'s output capacitance at the operating voltage (small-signal) with its tolerance in %, split off C_p, e.g. 180p,20 (180p,0 takes it as exact)')
     .option('--current-capture <file>', 'a turn-on edge of the loop current: L_p is cross-checked as V_L / (di/dt) (exit 1 when they disagree)')
     .option('--current-column <name|index>', 'the current channel in the --current-capture file (default: the first)')
     .option('--switch-voltage-column <name|index>', 'the switch voltage in the --current-capture file: its drop while the current rises is V_L')
-    .option('--plateau-voltage <V[,TOL]>', 'V_L read by hand instead: the voltage across the loop inductance while the current rises, e.g. 9.5,10')
-    .option('--probe-capacitance <value>', 'probe input capacitance in parallel with the node, e.g. 12p (default none; the same option as on fit)')
+    .option('--plateau-voltage <V,TOL>', 'V_L read by hand instead: the voltage across the loop inductance while the current rises, with its tolerance in %, e.g. 9.5,10')
+    .option('--probe-capacitance <C[,TOL]>', 'probe input capacitance in parallel with the node, with its tolerance in % here or as --probe-c-tolerance, e.g. 12p,10 (default none; the same option as on fit)')
     .option('--probe-c <value>', 'the same as --probe-capacitance (the earlier spelling)')
-    .option('--probe-c-tolerance <TOL>', 'tolerance of the probe capacitance in %, e.g. 10')
+    .option('--probe-c-tolerance <TOL>', 'tolerance of the probe capacitance in %, e.g. 10 (needed with a probe capacitance that does not carry its own; 0 takes it as exact)')
     .option('--scope-bandwidth <value>', 'scope or probe bandwidth, e.g. 200M: warns when the ring is above a third of it, or when it passes a faster ring that would alias onto this one (the same option as on fit)')
     .option('--bandwidth <value>', 'the same as --scope-bandwidth (the earlier spelling)')
     .option('--voltage <value>', 'voltage the snubber capacitor swings each edge, for its dissipation only, e.g. 48 (the cautions use the captures\' own peak)')
@@ -74,6 +74,8 @@ export function registerParasiticsCommand(program: Command, ctx: CommandContext)
       const { deratings, dcBias } = deratingsWithTolerance(split.deratings, dcBiasFactor, options.deratingTolerance, '--derating-tolerance');
       const addedTolerance = addedPartsTolerance(options.addedTolerance, '--added-tolerance');
       const switchCoss = options.switchCoss === undefined ? undefined : parseValueWithTolerance(options.switchCoss, '--switch-coss', 'F');
+      const probe = parseProbeCapacitance(...eitherSpelling(options.probeCapacitance, '--probe-capacitance', options.probeC, '--probe-c'));
+      const probeCTolerance = probeCapacitanceTolerance(probe, options.probeCTolerance, '--probe-c-tolerance');
       const edge = edgeRequest(options, ctx.io.cwd);
       const request = {
         captures: files.map((file, i) => {
@@ -84,8 +86,8 @@ export function registerParasiticsCommand(program: Command, ctx: CommandContext)
         dcBias,
         switchC: switchCoss,
         edge,
-        probeC: parsePositiveValue(...eitherSpelling(options.probeCapacitance, '--probe-capacitance', options.probeC, '--probe-c'), 'F') ?? 0,
-        probeCTolerance: options.probeCTolerance === undefined ? 0 : parseTolerance(options.probeCTolerance, '--probe-c-tolerance'),
+        probeC: probe?.value ?? 0,
+        probeCTolerance,
         bandwidth: parsePositiveValue(...eitherSpelling(options.scopeBandwidth, '--scope-bandwidth', options.bandwidth, '--bandwidth'), 'Hz'),
         voltage: parsePositiveValue(options.voltage, '--voltage', 'V'),
         switchingFrequency: parsePositiveValue(options.switchingFrequency, '--switching-frequency', 'Hz'),
