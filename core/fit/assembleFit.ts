@@ -9,6 +9,7 @@ import type { ResponseCovariance } from './responseCovariance';
 import type { ModelOrder, ResponseFit } from './responseFit';
 import type { TailTimeConstant } from './firstOrderFit';
 import { classifyRegime } from './regime';
+import { formatEngineering } from '../units/format';
 import { plausibilityWarnings, uncertainOmega0Warning } from './fitWarnings';
 import { singleModeFields, type MultiModeModel } from './modesResult';
 
@@ -70,9 +71,10 @@ export function assembleFit(
       ? { ...multi.fields(ring, trace.unit), modelOrder: choice.modeOrder ?? null }
       : singleModeFields(best, t0Start, cov, ring, set, trace.unit, choice.modeOrder ?? null);
   warnings.push(...modeWarnings);
+  const unresolved = firstOrder ? unresolvedDecay(alpha, set) : null;
   return {
-    status: multi?.status ?? best.status,
-    message: multi?.message ?? best.message,
+    status: unresolved ? 'failed' : (multi?.status ?? best.status),
+    message: unresolved ?? multi?.message ?? best.message,
     regime,
     regimeEvidence: evidence,
     ...(ring ?? { alpha: NOT_APPLICABLE('s^-1'), omega0: NOT_APPLICABLE('rad/s'), omegaD: null, zeta: NOT_APPLICABLE(''), Q: NOT_APPLICABLE('') }),
@@ -93,6 +95,16 @@ export function assembleFit(
     warnings: [...new Set(warnings)],
     ...modeFields,
   };
+}
+
+/**
+ * Why a single decay faster than one sample interval is no measurement, or null: it falls by e^-1 or more between two
+ * samples, so it is a jump the sampling cannot time (an isolated spike, a step), and its tau rests on one sample.
+ */
+function unresolvedDecay(rate: number, set: FitSet): string | null {
+  const interval = set.block?.spacing ?? set.dt;
+  if (!(rate * interval > 1)) return null;
+  return `the single decay's time constant (${formatEngineering(1 / rate, 's')}) is shorter than the sample interval (${formatEngineering(interval, 's')}): a jump the sampling cannot time, not a response to measure`;
 }
 
 /** A ring quantity of a fit without a ring (a single decay, no response): NaN with no standard error. */

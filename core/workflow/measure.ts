@@ -17,6 +17,7 @@ import { cautionInputsFromCapture, type CautionComponents } from '../safety/caut
 import { evaluateCautions, type CautionResult } from '../safety/evaluateCautions';
 import { deriveComponents, ratesOfMode, type KnownPartRequest } from './measuredComponents';
 import { fitEvents } from './events';
+import { withoutSpikes } from './spikeFree';
 import { runSetupChecks, setupRefusal, type SetupCheck, type SetupOptions } from './setupChecks';
 
 /** A fit window, s; an edge left out is found from the data. */
@@ -69,9 +70,10 @@ export interface MeasureResult {
 }
 
 /** Fit the channel and summarize the fit with its transition metrics; a window with too few samples is a FitInputError. */
-export function fitChannel(file: string, channel: Channel, window: FitWindow = {}, captureWarnings: readonly string[] = []): { fit: ResponseFit; summary: FitSummary } {
+export function fitChannel(file: string, raw: Channel, window: FitWindow = {}, captureWarnings: readonly string[] = []): { fit: ResponseFit; summary: FitSummary } {
+  const { channel, warning } = withoutSpikes(raw);
   const fit = fitResponse({ time: channel.time, values: channel.values, clipped: channel.clipped, unit: channel.unit, name: channel.name }, { window });
-  const summary = summarizeFit(file, channel.name, fit, undefined, [...captureWarnings]);
+  const summary = summarizeFit(file, channel.name, fit, undefined, warning ? [...captureWarnings, warning] : [...captureWarnings]);
   summary.transitions = summarizeTransitions(channel, fit);
   return { fit, summary };
 }
@@ -153,18 +155,20 @@ function warnIfImplausible(summary: FitSummary, channel: Channel): void {
  * fit that cannot run throws; a bad design or known part for this capture is a problem in the result.
  */
 export function measureCapture(request: MeasureRequest): MeasureResult {
-  const { fit, summary } = fitEvents(request);
+  // The fit and what is judged from it read the channel without its isolated spikes; the cautions read every sample.
+  const { channel, warning } = withoutSpikes(request.channel);
+  const { fit, summary } = fitEvents(warning ? { ...request, channel, captureWarnings: [...(request.captureWarnings ?? []), warning] } : request);
   if (request.importSummary) summary.import = request.importSummary;
   const { knownPart, design } = request;
   const components = knownPart ? attempt(() => deriveComponents(fit, knownPart, request.mode)) : NOT_ASKED;
   if (components.value) summary.components = components.value;
-  warnIfImplausible(summary, request.channel);
-  const setupChecks = runSetupChecks({ fit, summary, channel: request.channel, metadata: request.metadata, options: request.setup, knownPart });
+  warnIfImplausible(summary, channel);
+  const setupChecks = runSetupChecks({ fit, summary, channel, metadata: request.metadata, options: request.setup, knownPart });
   // A design of another unit is bad input before anything else; a capture that gets no verdict is not asked for one.
   const mismatch = design ? probeMismatch(design, request.channel, request.file) : null;
   const verdict =
     design && (mismatch !== null || verdictRefusal(design, summary, setupChecks) === null)
-      ? attempt(() => checkAgainstDesign(design, ofMode(summary, request.mode), setupChecks, request.channel, request.file, request.eventTime))
+      ? attempt(() => checkAgainstDesign(design, ofMode(summary, request.mode), setupChecks, channel, request.file, request.eventTime))
       : NOT_ASKED;
   const cautions = weighCautions(request.channel, { design, components: summary.components });
   // The setup check says it with its level (warning or refusal): the fit's own line would repeat it.
