@@ -74,7 +74,8 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   }
   // A ring no single decay could come near is not compared with one (the decay's own fit is the costliest step).
   const firstOrder = ringRulesOutDecay(set, best, t0Start, noise) ? null : fitFirstOrderRecord(set, { hasPreEvent, jumpStart }, t0Start, noise);
-  const explanation = explainRecord(best, t0Start, firstOrder, set);
+  const explanation = explainRecord(best, t0Start, firstOrder, set, noise);
+  if (explanation.misfit) return failedFit(set, noise, warnings, explanation.misfit);
   if (explanation.choice === 'none') return noResponseFit(set, noise, warnings, explanation.evidence, trace.unit);
   let tail: TailTimeConstant | undefined;
   if (explanation.choice === 'first-order' && firstOrder) {

@@ -62,7 +62,15 @@ export interface Explanation {
   evidence: string;
   /** Set when a single decay was chosen although the record suggests a ring: the doubt, in words. */
   doubt?: string;
+  /**
+   * Set with 'none' when the constant level does not explain the record either (it leaves CONSTANT_MISFIT times the
+   * noise or more): the record holds something neither model describes, which is a failed fit, not "no response".
+   */
+  misfit?: string;
 }
+
+/** A constant level leaving this many times the noise's rms explains nothing (white noise about a level leaves about 1; our choice). */
+const CONSTANT_MISFIT = 3;
 
 /**
  * Whether the record holds a ring, a single decay, or no response. A richer model must win on both the
@@ -74,7 +82,7 @@ export interface Explanation {
  * from memory). A ring must also beat the single decay, which is nested in it (omega0 = alpha with no
  * slope term); the single decay is kept when it explains the record as well.
  */
-export function explainRecord(ring: Attempt, t0Start: number, decay: { attempt: Attempt; t0: number } | null, set: FitSet): Explanation {
+export function explainRecord(ring: Attempt, t0Start: number, decay: { attempt: Attempt; t0: number } | null, set: FitSet, noise: number): Explanation {
   const n = set.time.length;
   const firstOrder = decay && Number.isFinite(decay.attempt.sse) ? decay.attempt : null;
   const closer = firstOrder && decay && firstOrder.sse < ring.sse ? decay : { attempt: ring, t0: t0Start };
@@ -106,10 +114,15 @@ export function explainRecord(ring: Attempt, t0Start: number, decay: { attempt: 
   }
   const overConstant = test(constantSse, 1, response, nEff);
   if (!overConstant.accepted) {
-    return {
-      choice: 'none',
-      evidence: `a constant level explains the record: the best response fit lowers the residual by ${(100 * (1 - response.sse / constantSse)).toFixed(2)} % (F-test against the constant with the search counted: ${pText(overConstant.p)}; accepted below ${SIGNIFICANCE_LEVEL})`,
-    };
+    const lowered = `the best response fit lowers the residual by ${(100 * (1 - response.sse / constantSse)).toFixed(2)} % (F-test against the constant with the search counted: ${pText(overConstant.p)}; accepted below ${SIGNIFICANCE_LEVEL})`;
+    const excess = Math.sqrt(constantSse / n) / noise;
+    if (excess >= CONSTANT_MISFIT) {
+      const misfit =
+        `neither a second-order response nor a constant level explains the record: the level leaves ${excess.toFixed(1)} times the noise, and ${lowered} ` +
+        '(a drifting baseline, interference, or more than one event in the window?)';
+      return { choice: 'none', evidence: misfit, misfit };
+    }
+    return { choice: 'none', evidence: `a constant level explains the record: ${lowered}` };
   }
   return LAYOUTS[response.layout].order === 1 ? { choice: 'first-order', evidence, doubt } : { choice: 'second-order', evidence };
 }

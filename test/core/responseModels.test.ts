@@ -18,6 +18,17 @@ describe('a record with no response', () => {
     expect(fit.omega0.value).toBeNaN();
     expect(fit.tau).toBeUndefined();
   });
+
+  it('a ring on a baseline drifting by half its amplitude fails, saying that neither the response nor a level explains it (it was "no response")', () => {
+    const alpha = 1e5;
+    const omega = 2 * Math.PI * 2e6;
+    const trace = generatedTrace({ seed: 33, samples: 3000, dt: 1e-8, noise: 0.01 }, (time) =>
+      time.map((t, i) => (t >= 3e-6 ? Math.exp(-alpha * (t - 3e-6)) * Math.cos(omega * (t - 3e-6)) : 0) + (0.5 * i) / time.length),
+    );
+    const fit = fitResponse(trace);
+    expect(fit.status).toBe('failed');
+    expect(fit.message).toMatch(/^neither a second-order response nor a constant level explains the record: the level leaves [\d.]+ times the noise/);
+  });
 });
 
 describe('a record whose every sample holds one value (a probe off, or the wrong channel)', () => {
