@@ -71,7 +71,7 @@ export function assembleFit(
       ? { ...multi.fields(ring, trace.unit), modelOrder: choice.modeOrder ?? null }
       : singleModeFields(best, t0Start, cov, ring, set, trace.unit, choice.modeOrder ?? null);
   warnings.push(...modeWarnings);
-  const unresolved = firstOrder ? unresolvedDecay(alpha, set) : null;
+  const unresolved = unresolvedDecay(firstOrder ? alpha : slowestRate(alpha, omega0), firstOrder ? "the single decay's" : "the response's slowest", set);
   return {
     status: unresolved ? 'failed' : (multi?.status ?? best.status),
     message: unresolved ?? multi?.message ?? best.message,
@@ -98,13 +98,19 @@ export function assembleFit(
 }
 
 /**
- * Why a single decay faster than one sample interval is no measurement, or null: it falls by e^-1 or more between two
- * samples, so it is a jump the sampling cannot time (an isolated spike, a step), and its tau rests on one sample.
+ * Why a response that dies faster than one sample interval is no measurement, or null: its slowest time constant
+ * passes between two samples (it falls by e^-1 or more), so it is a jump or a glitch the sampling cannot time, and its
+ * rates rest on a sample or two. `what` names the time constant.
  */
-function unresolvedDecay(rate: number, set: FitSet): string | null {
+function unresolvedDecay(rate: number, what: string, set: FitSet): string | null {
   const interval = set.block?.spacing ?? set.dt;
   if (!(rate * interval > 1)) return null;
-  return `the single decay's time constant (${formatEngineering(1 / rate, 's')}) is shorter than the sample interval (${formatEngineering(interval, 's')}): a jump the sampling cannot time, not a response to measure`;
+  return `${what} time constant (${formatEngineering(1 / rate, 's')}) is shorter than the sample interval (${formatEngineering(interval, 's')}): a jump the sampling cannot time, not a response to measure`;
+}
+
+/** The slowest decay rate of a second-order response: alpha for a ring, the slow root alpha - sqrt(alpha^2 - omega0^2) past critical damping. */
+function slowestRate(alpha: number, omega0: number): number {
+  return alpha > omega0 ? alpha - Math.sqrt(alpha * alpha - omega0 * omega0) : alpha;
 }
 
 /** A ring quantity of a fit without a ring (a single decay, no response): NaN with no standard error. */

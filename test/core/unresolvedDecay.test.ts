@@ -20,6 +20,15 @@ describe('a decay faster than the sampling', () => {
     expect(fit.message).toMatch(/^the single decay's time constant \([\d.]+ ns\) is shorter than the sample interval \(10 ns\): a jump the sampling cannot time/);
   });
 
+  it('a two-sample glitch on a quiet baseline, fitted as a ring dying within a sample, fails the same way', () => {
+    const random = createRandom(7);
+    const time = Float64Array.from({ length: 450 }, (_, i) => i * 2e-9);
+    const values = time.map((_, i) => 0.05 * random.normal() + (i === 60 ? 30 : i === 61 ? 20 : 0));
+    const fit = fitResponse({ time, values, unit: 'V' });
+    expect(fit.status).toBe('failed');
+    expect(fit.message).toMatch(/^the response's slowest time constant \([\d.]+ ps\) is shorter than the sample interval \(2 ns\)/);
+  });
+
   it('a decay of a few sample intervals is still measured', () => {
     const fit = fitResponse(decayingStep(5e-8, 1e-8, 6));
     expect(fit.status).toBe('converged');
