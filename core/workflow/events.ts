@@ -11,6 +11,7 @@ import { UsageError } from '../inputError';
 import { quantity, type Quantity } from '../quantity';
 import type { CombinedEstimate, EventEntry, EventTrainSummary } from '../report/eventTrainSummary';
 import { summarizeFit, type FitSummary } from '../report/fitSummary';
+import { residualBursts } from './residualBursts';
 
 export interface EventsRequest {
   file: string;
@@ -95,7 +96,11 @@ function fitSpan(trace: Parameters<typeof fitResponse>[0], time: Float64Array, f
     const fit = fitResponse(trace, { window: { start: time[first + span.start], end: time[first + span.end - 1] }, modes });
     const excess = fit.rmsResidual / noise;
     if (fit.status !== 'converged' || !(excess > MISFIT_RESIDUAL)) return fit;
-    return { ...fit, status: 'failed', message: `the residual is ${excess.toFixed(1)} times the noise: the window holds more than this event's ring` };
+    const bursts = residualBursts(fit, trace.time, trace.values);
+    const where = bursts
+      ? `${Math.round(100 * bursts.share)} % of it in ${bursts.samples} sample${bursts.samples === 1 ? '' : 's'} standing apart (glitches or pickup, wider than the single samples left out as spikes)`
+      : "the window holds more than this event's ring";
+    return { ...fit, status: 'failed', message: `the residual is ${excess.toFixed(1)} times the noise: ${where}` };
   } catch (error) {
     if (error instanceof FitInputError) return 'too few samples between this event and the next';
     throw error;
