@@ -1,7 +1,7 @@
 // Isolated spikes: single samples that stand far off both neighbours (pickup, a glitch), which no response of the
 // circuit makes and which a least-squares fit cannot absorb.
 
-import { median, quantisationStep } from './noise';
+import { MAD_TO_SIGMA, median, quantisationStep } from './noise';
 
 /**
  * A spike's height, in the local noise's standard deviations, from which it is taken for one: far beyond the largest
@@ -17,8 +17,6 @@ const PATTERN_SIGMAS = 5;
 const LOCAL_SPAN = 24;
 /** At most this many fourth differences give the record's noise level (evenly strided). */
 const GLOBAL_SAMPLES = 20000;
-/** Normal scale of a median absolute value: 1 / 0.6745. */
-const MAD_TO_SIGMA = 1.4826;
 /**
  * A fourth difference y[i-2] - 4 y[i-1] + 6 y[i] - 4 y[i+1] + y[i+2] of white noise has variance 70 sigma^2; a lone
  * spike of height h gives h, -4 h, 6 h, -4 h, h at i-2 ... i+2.

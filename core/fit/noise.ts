@@ -178,15 +178,18 @@ const HEAD_NOISE_CAP = 4;
 /** Below this many times the difference estimate, a head's spread is sampling error (about 2 sd for 16 white samples). */
 const HEAD_NOISE_GATE = 1.5;
 
+/** Normal scale of a median absolute deviation, 1 / 0.6745: the standard deviation it stands for with normal samples. */
+export const MAD_TO_SIGMA = 1.4826;
+
 /**
- * 1.4826 times the median absolute deviation from the median: the standard deviation of normal samples, robustly.
+ * MAD_TO_SIGMA times the median absolute deviation from the median: the standard deviation of normal samples, robustly.
  * `room` holds the one copy it works on (a caller reading many stretches passes the same room to each): a median
  * depends only on which values there are, so the deviations overwrite the copy the selection left rearranged.
  */
 export function robustSpread(values: ArrayLike<number>, room = new Float64Array(values.length)): number {
   const copy = copyOf(values, room);
   deviationsFrom(copy, medianInPlace(copy));
-  return 1.4826 * medianInPlace(copy);
+  return MAD_TO_SIGMA * medianInPlace(copy);
 }
 
 /**

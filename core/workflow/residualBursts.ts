@@ -2,7 +2,7 @@
 // samples standing apart (glitches or pickup wider than the one sample the spike filter leaves out).
 
 import type { ResponseFit } from '../fit/responseFit';
-import { median } from '../fit/noise';
+import { MAD_TO_SIGMA, median } from '../fit/noise';
 import { fittedModel } from '../report/fittedModel';
 
 /** A sample whose residual stands this many robust deviations of the residuals apart is in a burst (our choice). */
@@ -11,8 +11,6 @@ const BURST_DEVIATIONS = 10;
 const BURST_SHARE = 0.5;
 /** ...in at most this share of the window's samples (our choice). */
 const BURST_SAMPLES = 0.02;
-/** Normal scale of a median absolute deviation: 1 / 0.6745. */
-const MAD_TO_SIGMA = 1.4826;
 
 /**
  * The samples of the fit's window whose residuals stand BURST_DEVIATIONS robust deviations apart, with their share
