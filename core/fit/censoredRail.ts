@@ -14,6 +14,14 @@ import { quantisationStep } from './noise';
  * was read too high, not a rail (and the test costs one pass over the window for most records).
  */
 const CENSORED_EXPECTED = 20;
+/**
+ * A rail is also taken where the samples standing at the extreme, at least this many, are ones the fit says lie beyond
+ * it: -sum ln(1 - p_i) over them (p_i each one's chance of lying beyond) reaches CENSORED_EXPECTED, so that none of
+ * them lying beyond has odds e^-20 as above. The first peaks of a fast ring clipped for a sample or two each are too
+ * few for the count above, each nearly sure to lie beyond; a level a few codes under the top code spreads its chances
+ * over the whole level instead, and the samples at the top code carry little of them (our choice).
+ */
+const MIN_AT_RAIL = 3;
 
 /**
  * Smallest bound on the shift of a fitted quantity, in its standard errors, for which an unseen rail is acted on.
@@ -111,9 +119,11 @@ function normalDensity(z: number): number {
  * (the normal partial expectation); a least-squares fit moves any quantity by at most the norm of those losses
  * over sigma, in its standard errors (the projection onto the model's columns is no longer than the vector).
  */
-function railEffect(trace: Trace, ex: Extremes, model: Float64Array, sign: 1 | -1, step: number, spread: number): { expected: number; shift: number } {
-  const edge = (sign > 0 ? ex.hi : ex.lo) + (sign * step) / 2;
+function railEffect(trace: Trace, ex: Extremes, model: Float64Array, sign: 1 | -1, step: number, spread: number): { expected: number; atRailSurprise: number; shift: number } {
+  const rail = sign > 0 ? ex.hi : ex.lo;
+  const edge = rail + (sign * step) / 2;
   let expected = 0;
+  let atRailSurprise = 0;
   let shiftSquared = 0;
   for (let i = ex.from; i < ex.to; i++) {
     if (trace.clipped?.[i] || !Number.isFinite(trace.values[i])) continue;
@@ -121,15 +131,17 @@ function railEffect(trace: Trace, ex: Extremes, model: Float64Array, sign: 1 | -
     if (z > TAIL_LIMIT) continue;
     const beyond = normalTail(z);
     expected += beyond;
+    if (trace.values[i] === rail) atRailSurprise -= Math.log1p(-beyond);
     shiftSquared += (normalDensity(z) - z * beyond) ** 2;
   }
-  return { expected, shift: Math.sqrt(shiftSquared) };
+  return { expected, atRailSurprise, shift: Math.sqrt(shiftSquared) };
 }
 
 /**
  * The clipped flags with every sample at an unseen rail added, and a warning naming each; null when there is none.
- * An extreme is tested when no flagged sample already marks a rail on its side and at least CENSORED_EXPECTED samples
- * stand at it; `modelOf` gives the fitted response at the given times (called only then).
+ * An extreme is tested when no flagged sample already marks a rail on its side and at least MIN_AT_RAIL samples stand
+ * at it; it is a rail when CENSORED_EXPECTED stand there and as many are expected beyond, or when those standing there
+ * are, together, that unlikely not to lie beyond; `modelOf` gives the fitted response at the given times (called only then).
  */
 export function censoredRails(
   trace: Trace,
@@ -138,7 +150,7 @@ export function censoredRails(
 ): { clipped: Uint8Array; warnings: string[] } | null {
   const ex = windowExtremes(trace, window);
   if (!ex) return null;
-  const sides = ([1, -1] as const).filter((sign) => (sign > 0 ? !ex.railHi && ex.atHi >= CENSORED_EXPECTED : !ex.railLo && ex.atLo >= CENSORED_EXPECTED));
+  const sides = ([1, -1] as const).filter((sign) => (sign > 0 ? !ex.railHi && ex.atHi >= MIN_AT_RAIL : !ex.railLo && ex.atLo >= MIN_AT_RAIL));
   if (sides.length === 0) return null;
   const model = modelOf(trace.time.subarray(ex.from, ex.to));
   const step = quantisationStep(trace.values);
@@ -148,14 +160,16 @@ export function censoredRails(
   const clipped = trace.clipped ? trace.clipped.slice() : new Uint8Array(trace.values.length);
   const warnings: string[] = [];
   for (const sign of sides) {
-    const { expected, shift } = railEffect(trace, ex, model, sign, step, spread);
-    if (!(expected >= CENSORED_EXPECTED && shift >= MATERIAL_SHIFT)) continue;
-    const rail = sign > 0 ? ex.hi : ex.lo;
+    const { expected, atRailSurprise, shift } = railEffect(trace, ex, model, sign, step, spread);
     const at = sign > 0 ? ex.atHi : ex.atLo;
+    const piled = at >= CENSORED_EXPECTED && expected >= CENSORED_EXPECTED;
+    if (!((piled || atRailSurprise >= CENSORED_EXPECTED) && shift >= MATERIAL_SHIFT)) continue;
+    const rail = sign > 0 ? ex.hi : ex.lo;
     for (let i = 0; i < trace.values.length; i++) if (trace.values[i] === rail) clipped[i] = 1;
-    warnings.push(
-      `the ${sign > 0 ? 'highest' : 'lowest'} value (${rail} ${trace.unit}, ${at} samples) is taken as a converter rail: the fit expects ${Math.round(expected)} samples beyond it and none lies there (their noise was cut off)`,
-    );
+    const why = piled
+      ? `the fit expects ${Math.round(expected)} samples beyond it and none lies there (their noise was cut off)`
+      : `the fit puts the samples standing there beyond it, where none of them lies (by chance, odds under e^-${CENSORED_EXPECTED}: peaks cut off)`;
+    warnings.push(`the ${sign > 0 ? 'highest' : 'lowest'} value (${rail} ${trace.unit}, ${at} samples) is taken as a converter rail: ${why}`);
   }
   return warnings.length ? { clipped, warnings } : null;
 }

@@ -1,5 +1,5 @@
-// A converter rail the clipping detector cannot see (a slow overshoot that lingers at it) is found from the fit and
-// left out; a rail that only trims the noise of a flat level is left alone.
+// A converter rail the clipping detector cannot see (a slow overshoot that lingers at it, or fast peaks cut off a sample
+// or two each) is found from the fit and left out; a rail that only trims the noise of a flat level is left alone.
 
 import { describe, expect, it } from 'vitest';
 import { detectClipping } from '../../core/capture/detectClipping';
@@ -58,6 +58,27 @@ describe('fitResponse with a rail the clipping detector cannot see', () => {
       expect(fit.warnings.join(' ')).toMatch(/highest value .* is taken as a converter rail/);
       expect(Math.abs(fit.alpha.value - alpha) / fit.alpha.stderr!).toBeLessThan(3);
       expect(Math.abs(fit.omega0.value - omega0) / fit.omega0.stderr!).toBeLessThan(3);
+    }
+  });
+
+  it('finds the first peaks of a fast ring clipped a sample or two each, too few for the pile count, from how sure the fit is of each', () => {
+    // A ring of 1.5 times the range at 6.25 samples a period: its first four peaks each way hold 1 or 2 samples at the
+    // rail (runs too short for the clipping detector). Before, alpha read 10 % low on every seed, 2.3 standard errors.
+    const alpha = 1.5e6;
+    const omegaD = 2 * Math.PI * 16e6;
+    for (const seed of [1, 2, 3, 4]) {
+      const random = createRandom(seed);
+      const time = Float64Array.from({ length: 4000 }, (_, i) => (i - 400) * 1e-8);
+      const values = time.map((t) => {
+        const v = (t >= 0 ? 3 * Math.exp(-alpha * t) * Math.cos(omegaD * t) : 0) + 0.015 * random.normal();
+        return Math.min(2, Math.max(-2, Math.round(v / 0.02) * 0.02));
+      });
+      const trace = { time, values, clipped: detectClipping(values).clipped, unit: 'V' };
+      expect(trace.clipped.indexOf(1)).toBe(-1);
+      const fit = fitResponse(trace);
+      expect(fit.warnings.join(' ')).toMatch(/highest value \(2 V, \d samples\) is taken as a converter rail: the fit puts the samples standing there beyond it/);
+      expect(Math.abs(fit.alpha.value - alpha) / fit.alpha.stderr!).toBeLessThan(3);
+      expect(Math.abs(fit.omega0.value - Math.hypot(alpha, omegaD)) / fit.omega0.stderr!).toBeLessThan(3);
     }
   });
 
