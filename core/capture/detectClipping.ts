@@ -77,7 +77,9 @@ function dropBeyond(values: Float64Array, edge: number, direction: 1 | -1, dista
 /** Marks the rail runs on one side (sign 1: top at `rail`, the maximum; -1: bottom, the minimum); returns how many samples were marked. */
 function markSide(values: Float64Array, sign: 1 | -1, rail: number, step: number, clipped: Uint8Array): { count: number; level: number } {
   const runs = runsAt(values, rail);
-  const confirmed = stretches(runs).some((stretch) => {
+  // Each run is judged on its own as well: merged with its neighbours, the runs of a ring whose tops are cut for most
+  // of each period, then held at the rail to the record's end, are one stretch touching the end, never inside it.
+  const confirmed = [...stretches(runs), ...runs.map((run) => [run])].some((stretch) => {
     if (!stretch.some((run) => run.end - run.start + 1 >= MIN_RUN)) return false;
     const start = stretch[0].start;
     const end = stretch[stretch.length - 1].end;
@@ -122,8 +124,9 @@ function stretches(runs: { start: number; end: number }[]): { start: number; end
 }
 
 /**
- * Rule: the channel's maximum (or minimum) is a rail when some stretch at it lies inside the record (runs exactly at
- * it, at most 3 samples apart, one of them at least 3 long) and the signal moves into and out of the stretch steeply:
+ * Rule: the channel's maximum (or minimum) is a rail when some stretch at it, or some run of at least 3 on its own,
+ * lies inside the record (a stretch: runs exactly at it, at most 3 samples apart, one of them at least 3 long) and the
+ * signal moves into and out of it steeply:
  * on both sides, either by at least one code step per sample (averaged over 3 samples) with that slope times the
  * stretch's length at least 16 code steps, or (finely sampled records) by at least 16 code steps at a distance of
  * the stretch's length beyond it. Then every run of 3 or more at that level is marked, those touching the start or
