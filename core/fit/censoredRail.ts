@@ -11,7 +11,7 @@ import { quantisationStep } from './noise';
  * the mass beyond it), and none where 20 are expected has odds e^-20 (Poisson); over 1000 captures of the robustness
  * corpus (seeds 1 and 2) no record without a rail came above 5.4, so 20 leaves room for noise that is not quite
  * normal. As many must stand at the extreme: the samples a rail cut off are piled there, so fewer means the noise
- * was read too high, not a rail (and the test costs one pass over the window for most records).
+ * was read too high, not a rail.
  */
 const CENSORED_EXPECTED = 20;
 /**
@@ -19,7 +19,8 @@ const CENSORED_EXPECTED = 20;
  * it: -sum ln(1 - p_i) over them (p_i each one's chance of lying beyond) reaches CENSORED_EXPECTED, so that none of
  * them lying beyond has odds e^-20 as above. The first peaks of a fast ring clipped for a sample or two each are too
  * few for the count above, each nearly sure to lie beyond; a level a few codes under the top code spreads its chances
- * over the whole level instead, and the samples at the top code carry little of them (our choice).
+ * over the whole level instead, and the samples at the top code carry little of them (our choice). Fewer than this
+ * at an extreme spares the record the test (a lone sample at the record's extreme is no pile).
  */
 const MIN_AT_RAIL = 3;
 
