@@ -10,6 +10,7 @@ import type { ModelOrder, ResponseFit } from './responseFit';
 import type { TailTimeConstant } from './firstOrderFit';
 import { classifyRegime } from './regime';
 import { formatEngineering } from '../units/format';
+import { slowestDecayRate } from '../response/secondOrder';
 import { plausibilityWarnings, uncertainOmega0Warning } from './fitWarnings';
 import { singleModeFields, type MultiModeModel } from './modesResult';
 
@@ -71,7 +72,7 @@ export function assembleFit(
       ? { ...multi.fields(ring, trace.unit), modelOrder: choice.modeOrder ?? null }
       : singleModeFields(best, t0Start, cov, ring, set, trace.unit, choice.modeOrder ?? null);
   warnings.push(...modeWarnings);
-  const unresolved = unresolvedDecay(firstOrder ? alpha : slowestRate(alpha, omega0), firstOrder ? "the single decay's" : "the response's slowest", set);
+  const unresolved = unresolvedDecay(firstOrder ? alpha : slowestDecayRate(alpha, omega0), firstOrder ? "the single decay's" : "the response's slowest", set);
   return {
     status: unresolved ? 'failed' : (multi?.status ?? best.status),
     message: unresolved ?? multi?.message ?? best.message,
@@ -106,11 +107,6 @@ function unresolvedDecay(rate: number, what: string, set: FitSet): string | null
   const interval = set.block?.spacing ?? set.dt;
   if (!(rate * interval > 1)) return null;
   return `${what} time constant (${formatEngineering(1 / rate, 's')}) is shorter than the sample interval (${formatEngineering(interval, 's')}): a jump the sampling cannot time, not a response to measure`;
-}
-
-/** The slowest decay rate of a second-order response: alpha for a ring, the slow root alpha - sqrt(alpha^2 - omega0^2) past critical damping. */
-function slowestRate(alpha: number, omega0: number): number {
-  return alpha > omega0 ? alpha - Math.sqrt(alpha * alpha - omega0 * omega0) : alpha;
 }
 
 /** A ring quantity of a fit without a ring (a single decay, no response): NaN with no standard error. */

@@ -1,6 +1,6 @@
 // Warnings an engineer needs before trusting a response fit's numbers, each with the test behind it.
 
-import type { ResponseParams } from '../response/secondOrder';
+import { slowestDecayRate, type ResponseParams } from '../response/secondOrder';
 import type { FitSet } from './fitSet';
 import { noiseFloor, quantisationStep } from './noise';
 
@@ -29,8 +29,7 @@ export function plausibilityWarnings(set: FitSet, p: ResponseParams, omegaD: num
     }
   }
   const span = set.window.end - p.t0;
-  const slowest = p.omega0 > p.alpha ? p.alpha : p.alpha - Math.sqrt(p.alpha * p.alpha - p.omega0 * p.omega0);
-  if (span * slowest < 1) {
+  if (span * slowestDecayRate(p.alpha, p.omega0) < 1) {
     warnings.push('the record ends before the response has decayed by 1/e: alpha and the final value are poorly determined');
   }
   const floor = noiseFloor(noise, set.range);

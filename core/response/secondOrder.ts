@@ -349,6 +349,11 @@ export function ringFrequency(alpha: number, omega0: number): number | null {
   return q > 0 ? Math.sqrt(q) : null;
 }
 
+/** The response's slowest decay rate: alpha for a ring, the slow root alpha - sqrt(alpha^2 - omega0^2) past critical damping. */
+export function slowestDecayRate(alpha: number, omega0: number): number {
+  return omega0 > alpha ? alpha : alpha - Math.sqrt(alpha * alpha - omega0 * omega0);
+}
+
 /** a and b from the value and slope of the response just after the event. */
 export function coefficientsFromInitial(
   yAtStart: number,

@@ -24,6 +24,7 @@ import { median } from '../fit/noise';
 import { fitSucceeded, type FitSummary } from '../report/fitSummary';
 import { hertz } from '../report/resultRows';
 import { toleranceToRelativeUncertainty } from '../circuit/tolerance';
+import { slowestDecayRate } from '../response/secondOrder';
 import { formatEngineering, formatWithUncertainty } from '../units/format';
 import type { KnownPartRequest } from './measuredComponents';
 import type { SetupCheck, SetupCheckLevel, SetupOptions } from '../circuit/setupTypes';
@@ -446,8 +447,7 @@ function recordLength(input: SetupCheckInput): SetupCheck[] {
   const { fit } = input;
   if (!fitSucceeded(fit) || fit.regime === 'none' || !(fit.alpha.value > 0)) return [];
   const p = fit.params;
-  const slowest = p.omega0 > p.alpha ? p.alpha : p.alpha - Math.sqrt(p.alpha * p.alpha - p.omega0 * p.omega0);
-  const constants = (fit.window.end - p.t0) * slowest;
+  const constants = (fit.window.end - p.t0) * slowestDecayRate(p.alpha, p.omega0);
   if (!(constants < 1) || constants <= 0) return [];
   return [
     {
