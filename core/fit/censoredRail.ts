@@ -2,6 +2,7 @@
 // have carried many samples beyond, where none lies (a slow peak that lingers at the rail, entered and left gently).
 
 import type { Trace } from './trace';
+import type { ModelRange, PointModel } from './pointModel';
 import { chiSquareTail } from '../chiSquare';
 import { quantisationStep } from './noise';
 
@@ -48,23 +49,18 @@ interface Extremes {
   railHi: boolean;
 }
 
-/** One pass over the window: its extremes, how many samples stand at each, and the extremes of the flagged samples. */
-function windowExtremes(trace: Trace, window: { start?: number; end?: number }): Extremes | null {
-  const { time, values, clipped } = trace;
-  const start = window.start ?? -Infinity;
-  const end = window.end ?? Infinity;
-  let from = 0;
-  while (from < time.length && !(time[from] >= start)) from++;
-  let to = from;
+/** One pass over the window's samples: their extremes, how many stand at each, and the extremes of the flagged samples. */
+function windowExtremes(trace: Trace, { from, to }: { from: number; to: number }): Extremes | null {
+  const { values, clipped } = trace;
   let lo = Infinity;
   let hi = -Infinity;
   let atLo = 0;
   let atHi = 0;
   let clippedLo = Infinity;
   let clippedHi = -Infinity;
-  for (; to < time.length && time[to] <= end; to++) {
-    const v = values[to];
-    if (clipped?.[to]) {
+  for (let i = from; i < to; i++) {
+    const v = values[i];
+    if (clipped?.[i]) {
       clippedLo = Math.min(clippedLo, v);
       clippedHi = Math.max(clippedHi, v);
       continue;
@@ -96,14 +92,18 @@ function normalTail(z: number): number {
  * The noise of one sample about the fit: the residuals' mean square less the quantisation's q^2 / 12 (Sheppard's
  * correction; it reads the noise low below about half a code, which only makes the test below more cautious).
  */
-function sampleSpread(trace: Trace, ex: Extremes, model: Float64Array, step: number): number {
+function sampleSpread(trace: Trace, ex: Extremes, model: PointModel, step: number): number {
+  const { values, clipped } = trace;
   let sum = 0;
   let count = 0;
-  for (let i = ex.from; i < ex.to; i++) {
-    if (trace.clipped?.[i] || !Number.isFinite(trace.values[i])) continue;
-    sum += (trace.values[i] - model[i - ex.from]) ** 2;
-    count++;
-  }
+  model.forEachChunk(ex.from, ex.to, (first, y) => {
+    for (let k = 0; k < y.length; k++) {
+      const i = first + k;
+      if (clipped?.[i] || !Number.isFinite(values[i])) continue;
+      sum += (values[i] - y[k]) ** 2;
+      count++;
+    }
+  });
   return Math.sqrt(Math.max(0, sum / count - (step * step) / 12));
 }
 
@@ -120,21 +120,32 @@ function normalDensity(z: number): number {
  * (the normal partial expectation); a least-squares fit moves any quantity by at most the norm of those losses
  * over sigma, in its standard errors (the projection onto the model's columns is no longer than the vector).
  */
-function railEffect(trace: Trace, ex: Extremes, model: Float64Array, sign: 1 | -1, step: number, spread: number): { expected: number; atRailSurprise: number; shift: number } {
+function railEffect(trace: Trace, ex: Extremes, model: PointModel, sign: 1 | -1, step: number, spread: number): { expected: number; atRailSurprise: number; shift: number } {
+  const { values, clipped } = trace;
   const rail = sign > 0 ? ex.hi : ex.lo;
   const edge = rail + (sign * step) / 2;
   let expected = 0;
   let atRailSurprise = 0;
   let shiftSquared = 0;
-  for (let i = ex.from; i < ex.to; i++) {
-    if (trace.clipped?.[i] || !Number.isFinite(trace.values[i])) continue;
-    const z = (sign * (edge - model[i - ex.from])) / spread;
-    if (z > TAIL_LIMIT) continue;
-    const beyond = normalTail(z);
-    expected += beyond;
-    if (trace.values[i] === rail) atRailSurprise -= Math.log1p(-beyond);
-    shiftSquared += (normalDensity(z) - z * beyond) ** 2;
-  }
+  // A chunk where the model stays over TAIL_LIMIT noise levels inside the edge adds nothing.
+  const farInside = ({ lo, hi }: ModelRange) => (sign > 0 ? hi < edge - TAIL_LIMIT * spread : lo > edge + TAIL_LIMIT * spread);
+  model.forEachChunk(
+    ex.from,
+    ex.to,
+    (first, y) => {
+      for (let k = 0; k < y.length; k++) {
+        const i = first + k;
+        if (clipped?.[i] || !Number.isFinite(values[i])) continue;
+        const z = (sign * (edge - y[k])) / spread;
+        if (z > TAIL_LIMIT) continue;
+        const beyond = normalTail(z);
+        expected += beyond;
+        if (values[i] === rail) atRailSurprise -= Math.log1p(-beyond);
+        shiftSquared += (normalDensity(z) - z * beyond) ** 2;
+      }
+    },
+    farInside,
+  );
   return { expected, atRailSurprise, shift: Math.sqrt(shiftSquared) };
 }
 
@@ -142,23 +153,23 @@ function railEffect(trace: Trace, ex: Extremes, model: Float64Array, sign: 1 | -
  * The clipped flags with every sample at an unseen rail added, and a warning naming each; null when there is none.
  * An extreme is tested when no flagged sample already marks a rail on its side and at least MIN_AT_RAIL samples stand
  * at it; it is a rail when CENSORED_EXPECTED stand there and as many are expected beyond, or when those standing there
- * are, together, that unlikely not to lie beyond; `modelOf` gives the fitted response at the given times (called only then).
+ * are, together, that unlikely not to lie beyond. `span` holds the fit window's samples [from, to); `model` is the fitted
+ response, read at them only when an extreme is tested.
  */
 export function censoredRails(
   trace: Trace,
-  window: { start?: number; end?: number },
-  modelOf: (time: Float64Array) => Float64Array,
+  span: { from: number; to: number },
+  model: PointModel,
 ): { clipped: Uint8Array; warnings: string[] } | null {
-  const ex = windowExtremes(trace, window);
+  const ex = windowExtremes(trace, span);
   if (!ex) return null;
   const sides = ([1, -1] as const).filter((sign) => (sign > 0 ? !ex.railHi && ex.atHi >= MIN_AT_RAIL : !ex.railLo && ex.atLo >= MIN_AT_RAIL));
   if (sides.length === 0) return null;
-  const model = modelOf(trace.time.subarray(ex.from, ex.to));
   const step = quantisationStep(trace.values);
   const spread = sampleSpread(trace, ex, model, step);
   // Noise well under a code cannot be read from the residuals; it is cut off by a rail hardly at all.
   if (!(spread > 0)) return null;
-  const clipped = trace.clipped ? trace.clipped.slice() : new Uint8Array(trace.values.length);
+  let clipped: Uint8Array | null = null;
   const warnings: string[] = [];
   for (const sign of sides) {
     const { expected, atRailSurprise, shift } = railEffect(trace, ex, model, sign, step, spread);
@@ -166,11 +177,12 @@ export function censoredRails(
     const piled = at >= CENSORED_EXPECTED && expected >= CENSORED_EXPECTED;
     if (!((piled || atRailSurprise >= CENSORED_EXPECTED) && shift >= MATERIAL_SHIFT)) continue;
     const rail = sign > 0 ? ex.hi : ex.lo;
+    clipped ??= trace.clipped ? trace.clipped.slice() : new Uint8Array(trace.values.length);
     for (let i = 0; i < trace.values.length; i++) if (trace.values[i] === rail) clipped[i] = 1;
     const why = piled
       ? `the fit expects ${Math.round(expected)} samples beyond it and none lies there (their noise was cut off)`
       : `the fit puts the samples standing there beyond it, where none of them lies (by chance, odds under e^-${CENSORED_EXPECTED}: peaks cut off)`;
     warnings.push(`the ${sign > 0 ? 'highest' : 'lowest'} value (${rail} ${trace.unit}, ${at} samples) is taken as a converter rail: ${why}`);
   }
-  return warnings.length ? { clipped, warnings } : null;
+  return clipped ? { clipped, warnings } : null;
 }

@@ -1,9 +1,9 @@
 // Clipped-rail guard: leaves out the samples the fit puts near a clipped rail (their noise is cut off there) and fits
 // again; tells a record whose level before the event sits at a rail.
 
-import type { Trace } from './trace';
+import { windowSpan, type Trace } from './trace';
 import { MIN_FIT_SAMPLES, prepareFitSet, type FitSet } from './fitSet';
-import { layoutValues } from './responseModel';
+import { PointModel } from './pointModel';
 import { attemptT0, attemptValue, type Attempt } from './attempt';
 import { refine } from './refine';
 import { censoredRails } from './censoredRail';
@@ -25,25 +25,30 @@ export function refitAwayFromRails(
   window: { start?: number; end?: number },
   sampleNoise: number,
 ): { set: FitSet; best: Attempt; warnings: string[] } | null {
-  const unseen = censoredRails(trace, window, (time) => layoutValues(best.layout, best.values, t0Start, time));
+  const span = windowSpan(trace.time, window);
+  const model = new PointModel(best.layout, best.values, t0Start, trace.time);
+  const unseen = censoredRails(trace, span, model);
   const railed = unseen ? { ...trace, clipped: unseen.clipped } : trace;
-  const guarded = guardRails(railed, best, t0Start, window, sampleNoise, unseen !== null);
+  const guarded = guardRails(railed, span, model, window, sampleNoise, unseen !== null);
   if (!guarded) return null;
   const start = { alpha: attemptValue(best, 'alpha'), omega0: attemptValue(best, 'omega0'), source: 'fit before the rail guard' };
   const warnings = [...(unseen?.warnings ?? []), ...guarded.warnings];
   return { set: guarded.set, best: refine(guarded.set, best.layout, start, attemptT0(best, t0Start)), warnings };
 }
 
-/** The fit set without the samples at and near a rail, and the warning that says so (`newRails`: flags the fit did not leave out yet). */
+/**
+ * The fit set without the samples at and near a rail, and the warning that says so (`newRails`: flags the fit did not
+ * leave out yet); `model` is the fitted response, read at the window's samples `span`.
+ */
 function guardRails(
   trace: Trace,
-  best: Attempt,
-  t0Start: number,
+  span: { from: number; to: number },
+  model: PointModel,
   window: { start?: number; end?: number },
   sampleNoise: number,
   newRails: boolean,
 ): { set: FitSet; warnings: string[] } | null {
-  const { clipped, values, time } = trace;
+  const { clipped, values } = trace;
   // indexOf() scans natively: most records hold no clipped sample (flags are 0 or 1, as the importer marks them).
   if (!clipped || clipped.indexOf(1) < 0) return null;
   let top = -Infinity;
@@ -59,15 +64,16 @@ function guardRails(
   // One rail only: it is the top one when it lies above every unclipped sample.
   if (top === bottom) [top, bottom] = top >= unclippedTop ? [top, -Infinity] : [Infinity, bottom];
   const margin = RAIL_MARGIN * sampleNoise;
-  const model = layoutValues(best.layout, best.values, t0Start, time);
   const guard = clipped.slice();
   let added = 0;
-  for (let i = 0; i < values.length; i++) {
-    if (!guard[i] && (model[i] > top - margin || model[i] < bottom + margin)) {
-      guard[i] = 1;
-      added++;
+  model.forEachChunk(span.from, span.to, (first, y) => {
+    for (let k = 0; k < y.length; k++) {
+      if (!guard[first + k] && (y[k] > top - margin || y[k] < bottom + margin)) {
+        guard[first + k] = 1;
+        added++;
+      }
     }
-  }
+  });
   if (added === 0 && !newRails) return null;
   const set = prepareFitSet({ ...trace, clipped: guard }, window);
   if (set.time.length < MIN_FIT_SAMPLES) return null;

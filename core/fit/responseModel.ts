@@ -297,6 +297,12 @@ export function layoutValues(
   const p = unpackParams(layout, v, fixedT0);
   const ec = new Float64Array(time.length);
   const es = new Float64Array(time.length);
+  if (!block || block.samples <= 1) {
+    // Point values (the rail checks' whole record): written over ec, with no share array to fill and read.
+    fillDampedBasis(p.alpha, p.omega0, p.t0, time, ec, es);
+    for (let i = 0; i < time.length; i++) ec[i] = time[i] < p.t0 ? p.yPre : p.yFinal + p.a * ec[i] + p.b * es[i];
+    return ec;
+  }
   const after = new Float64Array(time.length);
   fillDampedBasis(p.alpha, p.omega0, p.t0, time, ec, es, block, after);
   const y = new Float64Array(time.length);

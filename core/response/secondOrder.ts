@@ -84,7 +84,7 @@ export function fillDampedBasis(
  * Samples taken in one run of the recurrence below: its rounding grows by a few ulps a step, so 16 steps keep
  * it near 1e-15 while 15 of every 16 samples skip exp, cos and sin.
  */
-const RECURRENCE_RUN = 16;
+export const RECURRENCE_RUN = 16;
 /**
  * A run counts as evenly spaced when no time strays from its line by more than this share of a step: the
  * rounding of times printed to 10 significant digits in a record of 1000 samples is about 5e-7 of a step. The
