@@ -21,6 +21,12 @@ export interface EventTrain {
   spans: EventSpan[];
   /** Standard deviation of one sample's noise, band-limited noise read whole (see noiseModel). */
   noise: number;
+  /**
+   * Whether the events were placed by a ring period read from the record's turns; false where the record turns fewer
+   * than MIN_TURNS times and the search's blocks fall back to a share of the record (a slow ring's own swings may
+   * then pass for events: see fitEvents).
+   */
+  ringPeriodRead: boolean;
 }
 
 /** Smallest block whose variance is read: fewer samples make the variance too noisy to tell ring from noise. */
@@ -74,13 +80,15 @@ const QUIET_NOISE_CAP = 4;
 export function findEventTrain(values: ArrayLike<number>): EventTrain {
   const n = values.length;
   const { sigma: noise, independentShare } = noiseModel(values);
-  if (!(noise > 0)) return { spans: [], noise };
+  if (!(noise > 0)) return { spans: [], noise, ringPeriodRead: false };
   // Samples whose noise averages out like this many independent ones (fewer when the noise is band-limited).
   const independent = (count: number) => Math.max(2, (count * independentShare) / (2 - independentShare));
-  const period = ringPeriodSamples(values, noise) ?? n * FALLBACK_PERIOD_SHARE;
+  const ringPeriod = ringPeriodSamples(values, noise);
+  const period = ringPeriod ?? n * FALLBACK_PERIOD_SHARE;
+  const ringPeriodRead = ringPeriod !== null;
   const block = Math.max(MIN_BLOCK, Math.round(period / BLOCKS_PER_PERIOD));
   const blocks = Math.floor(n / block);
-  if (blocks < MIN_BLOCKS) return { spans: [], noise };
+  if (blocks < MIN_BLOCKS) return { spans: [], noise, ringPeriodRead };
   const lookback = Math.max(1, Math.ceil(period / block));
   const { mean, activity } = blockStatistics(values, block, blocks, noise);
   const activeVariance = noise * noise * ACTIVE_SIGMAS * Math.sqrt(2 / (independent(block) - 1));
@@ -155,7 +163,7 @@ export function findEventTrain(values: ArrayLike<number>): EventTrain {
       settledAtEnd: quietEnd,
     };
   });
-  return { spans, noise };
+  return { spans, noise, ringPeriodRead };
 }
 
 /** Per block, its mean and the rms swing of its samples about that mean beyond the noise: sqrt(max(0, variance - noise^2)). */
@@ -229,7 +237,7 @@ function quietSpread(values: ArrayLike<number>, stretch: number, room: Float64Ar
 /** A turning point counts once the record has come back from it by this many noise levels. */
 const TURN_NOISES = 6;
 /** Fewest turns for a ring period to be read from them. */
-const MIN_TURNS = 3;
+export const MIN_TURNS = 3;
 
 /**
  * Samples per ring period, from the record's own turning points (hysteresis of TURN_NOISES noise levels):

@@ -4,7 +4,7 @@
 import type { Channel } from '../capture/types';
 import { summarizeTransitions } from '../circuit/transitionSummary';
 import { combineEstimates, type CombinedValue } from '../fit/eventCombination';
-import { findEventTrain, type EventSpan } from '../fit/eventTrain';
+import { findEventTrain, MIN_TURNS, type EventSpan, type EventTrain } from '../fit/eventTrain';
 import { fitResponse, type ResponseFit, type ResponseFitOptions } from '../fit/fitResponse';
 import { FitInputError } from '../fit/fitInputError';
 import { UsageError } from '../inputError';
@@ -12,6 +12,7 @@ import { quantity, type Quantity } from '../quantity';
 import type { CombinedEstimate, EventEntry, EventTrainSummary } from '../report/eventTrainSummary';
 import { summarizeFit, type FitSummary } from '../report/fitSummary';
 import { residualBursts } from './residualBursts';
+import { WHOLE_FIT_AGREEMENT, wholeFitExcess } from './wholeRecordFit';
 
 export interface EventsRequest {
   file: string;
@@ -50,19 +51,32 @@ const MISFIT_RESIDUAL = 3;
 export function fitEvents(request: EventsRequest): { fit: ResponseFit; summary: FitSummary } {
   const { channel, file } = request;
   const trace = { time: channel.time, values: channel.values, clipped: channel.clipped, unit: channel.unit, name: channel.name };
-  const { first, spans, noise } = eventsOf(channel, request.window ?? {});
+  const { first, spans, noise, ringPeriodRead } = eventsOf(channel, request.window ?? {});
   const count = Math.max(1, spans.length);
   if (request.event !== undefined && request.event > count) {
     throw new UsageError(`--event ${request.event}: the record holds ${count} event${count === 1 ? '' : 's'}`);
   }
-  if (spans.length < 2) {
-    const whole = fitResponse(trace, { window: request.window ?? {}, continuity: request.continuity, modes: request.modes });
+  const fitWhole = () => fitResponse(trace, { window: request.window ?? {}, continuity: request.continuity, modes: request.modes });
+  const measuredWhole = (whole: ResponseFit) => {
     const summary = summarizeFit(file, channel.name, whole, undefined, [...(request.captureWarnings ?? [])]);
     summary.transitions = summarizeTransitions(channel, whole);
     return { fit: whole, summary };
-  }
-
+  };
+  if (spans.length < 2) return measuredWhole(fitWhole());
   const fits = spans.map((span, i) => (i < MAX_FITTED_EVENTS || i + 1 === request.event ? fitSpan(trace, channel.time, first, span, noise, request.modes) : UNFITTED));
+  // The search reads swings, and a ring's own swings can pass for events: a ring slower than its blocks where the record
+  // turns too seldom to give a period, or a quantised one whose noise reads low. One response that fits the whole record
+  // as an event's fit must, and each event's window as well as the event's own fit, is the answer; a real train leaves
+  // it the rings it cannot follow.
+  if (request.event === undefined) {
+    const whole = fitWhole();
+    const excess = whole.rmsResidual / noise;
+    const worst = whole.status === 'converged' && excess <= MISFIT_RESIDUAL ? wholeFitExcess(whole, fits, trace) : null;
+    if (worst !== null && worst <= WHOLE_FIT_AGREEMENT) {
+      const note = `the ${spans.length} events the record's swings suggested are taken for one response${ringPeriodRead ? '' : ` (it turns fewer than ${MIN_TURNS} times)`}: one fits the whole record (its residual ${excess.toFixed(1)} times the noise, and at most ${worst.toFixed(2)} times each event's own fit in its window) (--event N fits one of the events)`;
+      return measuredWhole({ ...whole, warnings: [...whole.warnings, note] });
+    }
+  }
   const list = spans.map((span, i) => entryOf(i + 1, span, fits[i], channel.time, first));
   const chosen = request.event ?? defaultEvent(list);
   const fit = fits[chosen - 1];
@@ -75,7 +89,7 @@ export function fitEvents(request: EventsRequest): { fit: ResponseFit; summary: 
 }
 
 /** The events inside the window, in sample indices counted from `first`, the window's first sample. */
-function eventsOf(channel: Channel, window: { start?: number; end?: number }): { first: number; spans: EventSpan[]; noise: number } {
+function eventsOf(channel: Channel, window: { start?: number; end?: number }): { first: number } & EventTrain {
   const { time, values } = channel;
   let first = 0;
   while (first < time.length && time[first] < (window.start ?? -Infinity)) first++;

@@ -201,6 +201,38 @@ describe('fitEvents', () => {
     expect(combined.consistency.alpha.scale).toBeGreaterThan(1);
   });
 
+  // 0.5 MHz at zeta 0.01, sampled every ns for 3 us after a flat start of 150 ns: the record turns twice, so the
+  // search's blocks are a 64th of it and the ring's own swings rise through them like new events.
+  const slowOmega0 = 2 * Math.PI * 0.5e6;
+  const slowAlpha = 0.01 * slowOmega0;
+  const slowRing = (i: number) => (i < 150 ? 1 : Math.exp(-slowAlpha * (i - 150) * 1e-9) * Math.cos(Math.sqrt(slowOmega0 ** 2 - slowAlpha ** 2) * (i - 150) * 1e-9));
+  /** 3000 samples a ns apart of `shape` (of the sample index) plus white noise of rms 0.01. */
+  function slowChannel(shape: (i: number) => number, seed: number) {
+    const random = createRandom(seed);
+    const time = Float64Array.from({ length: 3000 }, (_, i) => i * 1e-9);
+    const values = Float64Array.from({ length: 3000 }, (_, i) => shape(i) + 0.01 * random.normal());
+    return { name: 'generated', unit: 'V', time, values, clipped: new Uint8Array(3000), dropped: 0 };
+  }
+
+  it.each([1, 2, 3, 4, 5])('fits whole a ring slower than the search can read (1.4 periods after a flat start), seed %i', (seed) => {
+    const channel = slowChannel(slowRing, seed);
+    expect(findEventTrain(channel.values).ringPeriodRead).toBe(false);
+    const { fit, summary } = fitEvents({ file: 'slow.csv', channel });
+    expect(summary.events).toBeUndefined();
+    expect(fit.status).toBe('converged');
+    expect(fit.warnings.some((w) => /are taken for one response \(it turns fewer than 3 times\)/.test(w))).toBe(true);
+    expect(Math.abs(fit.alpha.value - slowAlpha)).toBeLessThan(3 * fit.alpha.stderr!);
+    expect(Math.abs(fit.omega0.value - slowOmega0)).toBeLessThan(3 * fit.omega0.stderr!);
+  });
+
+  it('keeps the events of such a record when a step cuts into it: one response cannot fit both', () => {
+    const channel = slowChannel((i) => slowRing(i) + (i < 2000 ? 0 : 2 * (1 - Math.exp(-(i - 2000) / 20))), 1);
+    expect(findEventTrain(channel.values).ringPeriodRead).toBe(false);
+    const { fit, summary } = fitEvents({ file: 'stepped.csv', channel });
+    expect(summary.events!.list.length).toBeGreaterThan(1);
+    expect(fit.warnings.some((w) => /are taken for one response/.test(w))).toBe(false);
+  });
+
   it('leaves a record of one event as it was, and refuses --event 2 there', () => {
     const single = pulseTrainChannel({ seed: 5, alpha, omega0: OMEGA0, dt: DT, samples: 1500, events: [100 * DT], drive: 'square', amplitude: 1, noise: 0.01 });
     expect(fitEvents({ file: 'one.csv', channel: single }).summary.events).toBeUndefined();
