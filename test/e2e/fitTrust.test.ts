@@ -8,7 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { buildBench, CHROMIUM, dropFile, fitCount, hasChromium, launchChromium, outputDir, serveBench, waitForFit, waitForRefit, type ServedBench } from './benchHarness';
-import { ambiguousMillisecondsCapture, flatLineCapture, flatNoiseCapture, rcStepCapture, squareWaveCapture } from './generatedCaptures';
+import { ambiguousMillisecondsCapture, flatLineCapture, flatNoiseCapture, rcStepCapture, slowRingCapture, squareWaveCapture } from './generatedCaptures';
 
 if (!hasChromium) console.warn(`test/e2e/fitTrust.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
 
@@ -97,6 +97,22 @@ describe.skipIf(!hasChromium)('the fit badge, the unit choices and the events in
     const f0 = await f0Shown(page);
     expect(Math.abs(f0.value - sampleF0.value)).toBeLessThan(3 * Math.hypot(f0.stderr, sampleF0.stderr));
     await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-unit-stated.png') });
+  });
+
+  it('fits a ring slower than the event search whole, with no events table, and says why', async () => {
+    const file = join(folder, 'slow-ring.csv');
+    writeFileSync(file, slowRingCapture());
+    await dropFile(page, file, 'slow-ring.csv');
+    await waitForFit(page, 'slow-ring.csv');
+    expect(await page.locator('#events-table').count()).toBe(0);
+    const panel = await page.locator('#fit-panel').innerText();
+    expect(panel).toContain('taken for one response');
+    // No event choice is shown for a record fitted whole, so the hint names the fit window instead.
+    expect(panel).toContain("set 'Window from' and 'to' around one to fit it alone");
+    // Generated at f0 = 500 kHz: the whole record's fit finds it within its stated uncertainty.
+    const f0 = await f0Shown(page);
+    expect(Math.abs(f0.value - 0.5e6)).toBeLessThan(3 * f0.stderr);
+    await page.locator('#fit-panel').screenshot({ path: join(outputDir, 'fit-panel-slow-ring.png') });
   });
 
   it('marks the events of a square-wave record on the plot, and fits the one clicked or chosen', async () => {

@@ -64,6 +64,24 @@ export function squareWaveCapture(seed = 5): string {
   return `${lines.join('\n')}\n`;
 }
 
+/**
+ * 1.4 periods of a 0.5 MHz ring at zeta 0.01 released from 1 V after 150 ns at rest, a sample a ns, noise 10 mV: the
+ * record turns twice, and the event search's swings alone would cut it into three events.
+ */
+export function slowRingCapture(seed = 1): string {
+  const omega0 = 2 * Math.PI * 0.5e6;
+  const alpha = 0.01 * omega0;
+  const omegaD = Math.sqrt(omega0 ** 2 - alpha ** 2);
+  const random = createRandom(seed);
+  const lines = ['Time (s),CH1 (V)'];
+  for (let i = 0; i < 3000; i++) {
+    const tau = (i - 150) * 1e-9;
+    const clean = tau < 0 ? 1 : Math.exp(-alpha * tau) * Math.cos(omegaD * tau);
+    lines.push(`${(i * 1e-9).toExponential(6)},${(clean + 0.01 * random.normal()).toFixed(5)}`);
+  }
+  return `${lines.join('\n')}\n`;
+}
+
 /** An RC charging step (tau 10 µs, 5 V) with seeded noise: a first-order response, no ring. */
 export function rcStepCapture(seed = 3): string {
   const random = createRandom(seed);

@@ -11,6 +11,10 @@ describe('inWindowTerms', () => {
     ["'Time (fortnights)': unit 'fortnights' is not recognised; state the time unit with --time-unit", "'Time (fortnights)': unit 'fortnights' is not recognised; state the time unit with the 'Time in' choice"],
     ['only the first 10 events are fitted (--event N fits another)', "only the first 10 events are fitted (the 'Event to fit' choice takes another)"],
     ['--event 7: the record holds 3 events', "'Event to fit' 7: the record holds 3 events"],
+    [
+      'the 3 events the record suggested are taken for one response (--event N fits one of the events)',
+      "the 3 events the record suggested are taken for one response (set 'Window from' and 'to' around one to fit it alone)",
+    ],
     ['a.csv holds 3 events: a design is checked against one; set the fit window (--from, --to) around it', "a.csv holds 3 events: a design is checked against one; set the fit window ('Window from' and 'to') around it"],
     ['per V^2 Hz (give --voltage and --switching-frequency)', "per V^2 Hz (give 'Snubber voltage swing' and 'Switching frequency')"],
     ['--mode 3: the fit found 2 ringing modes', 'the mode chosen for R, L and C 3: the fit found 2 ringing modes'],
