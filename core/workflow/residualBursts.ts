@@ -3,6 +3,7 @@
 
 import type { ResponseFit } from '../fit/responseFit';
 import { MAD_TO_SIGMA, median } from '../fit/noise';
+import { windowSpan } from '../fit/trace';
 import { fittedModel } from '../report/fittedModel';
 
 /** A sample whose residual stands this many robust deviations of the residuals apart is in a burst (our choice). */
@@ -18,10 +19,7 @@ const BURST_SAMPLES = 0.02;
  * samples); null otherwise.
  */
 export function residualBursts(fit: Pick<ResponseFit, 'params' | 'modeTerms' | 'window'>, time: Float64Array, values: Float64Array): { samples: number; share: number } | null {
-  let from = 0;
-  while (from < time.length && time[from] < fit.window.start) from++;
-  let to = from;
-  while (to < time.length && time[to] <= fit.window.end) to++;
+  const { from, to } = windowSpan(time, fit.window);
   if (to - from < 3) return null;
   const times = time.subarray(from, to);
   const model = fittedModel(fit, times);

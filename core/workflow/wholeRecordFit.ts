@@ -1,6 +1,7 @@
 // Whether one response fitted to a whole record explains each event the search found in it as well as the event's own fit.
 
 import type { ResponseFit } from '../fit/responseFit';
+import { windowSpan } from '../fit/trace';
 import { fittedModel } from '../report/fittedModel';
 
 /**
@@ -29,19 +30,15 @@ export function wholeFitExcess(whole: ResponseFit, events: ReadonlyArray<Respons
   for (const event of events) {
     if (typeof event === 'string' || event.status !== 'converged') continue;
     const own = residualRms(event, event, samples);
-    const ratio = residualRms(whole, event, samples) / own;
     if (!(own > 0)) continue;
-    worst = Math.max(worst ?? 0, ratio);
+    worst = Math.max(worst ?? 0, residualRms(whole, event, samples) / own);
   }
   return worst;
 }
 
 /** Residual rms of `fit` over the unclipped samples inside `over`'s fit window (NaN when there is none). */
 function residualRms(fit: Pick<ResponseFit, 'params' | 'modeTerms'>, over: Pick<ResponseFit, 'window'>, { time, values, clipped }: Samples): number {
-  let from = 0;
-  while (from < time.length && time[from] < over.window.start) from++;
-  let to = from;
-  while (to < time.length && time[to] <= over.window.end) to++;
+  const { from, to } = windowSpan(time, over.window);
   const model = fittedModel(fit, time.subarray(from, to));
   let sum = 0;
   let count = 0;
