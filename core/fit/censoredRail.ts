@@ -153,8 +153,8 @@ function railEffect(trace: Trace, ex: Extremes, model: PointModel, sign: 1 | -1,
  * The clipped flags with every sample at an unseen rail added, and a warning naming each; null when there is none.
  * An extreme is tested when no flagged sample already marks a rail on its side and at least MIN_AT_RAIL samples stand
  * at it; it is a rail when CENSORED_EXPECTED stand there and as many are expected beyond, or when those standing there
- * are, together, that unlikely not to lie beyond. `span` holds the fit window's samples [from, to); `model` is the fitted
- response, read at them only when an extreme is tested.
+ * are, together, that unlikely not to lie beyond. `span` holds the fit window's samples [from, to); `model` is the
+ * fitted response, read at them only when an extreme is tested.
  */
 export function censoredRails(
   trace: Trace,

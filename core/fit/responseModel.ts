@@ -12,7 +12,7 @@
 // second-order layout. A first-order layout has 'alpha' (1 / tau) alone: its model is the critically
 // damped basis with omega0 = alpha and no slope term, and firstOrderFit.ts fits it.
 
-import { fillDampedBasis, type BlockAverage, type ResponseParams } from '../response/secondOrder';
+import { evaluateResponse, fillDampedBasis, type BlockAverage, type ResponseParams } from '../response/secondOrder';
 import type { Continuity } from './responseFit';
 
 /** What is known about a record before any layout is fitted. */
@@ -295,14 +295,10 @@ export function layoutValues(
   block: BlockAverage | null = null,
 ): Float64Array {
   const p = unpackParams(layout, v, fixedT0);
+  // Point values (a fit set not averaged in blocks): no share array to fill and read.
+  if (!block || block.samples <= 1) return evaluateResponse(p, time);
   const ec = new Float64Array(time.length);
   const es = new Float64Array(time.length);
-  if (!block || block.samples <= 1) {
-    // Point values (the rail checks' whole record): written over ec, with no share array to fill and read.
-    fillDampedBasis(p.alpha, p.omega0, p.t0, time, ec, es);
-    for (let i = 0; i < time.length; i++) ec[i] = time[i] < p.t0 ? p.yPre : p.yFinal + p.a * ec[i] + p.b * es[i];
-    return ec;
-  }
   const after = new Float64Array(time.length);
   fillDampedBasis(p.alpha, p.omega0, p.t0, time, ec, es, block, after);
   const y = new Float64Array(time.length);
