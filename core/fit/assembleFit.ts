@@ -72,7 +72,8 @@ export function assembleFit(
       ? { ...multi.fields(ring, trace.unit), modelOrder: choice.modeOrder ?? null }
       : singleModeFields(best, t0Start, cov, ring, set, trace.unit, choice.modeOrder ?? null);
   warnings.push(...modeWarnings);
-  const unresolved = unresolvedDecay(firstOrder ? alpha : slowestDecayRate(alpha, omega0), firstOrder ? "the single decay's" : "the response's slowest", set);
+  // A single decay's params carry omega0 = alpha, whose slowest rate is alpha itself.
+  const unresolved = unresolvedDecay(slowestDecayRate(alpha, omega0), firstOrder ? "the single decay's" : "the response's slowest", set);
   return {
     status: unresolved ? 'failed' : (multi?.status ?? best.status),
     message: unresolved ?? multi?.message ?? best.message,

@@ -7,6 +7,7 @@ import { combineEstimates, type CombinedValue } from '../fit/eventCombination';
 import { findEventTrain, MIN_TURNS, type EventSpan, type EventTrain } from '../fit/eventTrain';
 import { fitResponse, type ResponseFit, type ResponseFitOptions } from '../fit/fitResponse';
 import { FitInputError } from '../fit/fitInputError';
+import { windowSpan } from '../fit/trace';
 import { UsageError } from '../inputError';
 import { quantity, type Quantity } from '../quantity';
 import type { CombinedEstimate, EventEntry, EventTrainSummary } from '../report/eventTrainSummary';
@@ -90,13 +91,9 @@ export function fitEvents(request: EventsRequest): { fit: ResponseFit; summary: 
 
 /** The events inside the window, in sample indices counted from `first`, the window's first sample. */
 function eventsOf(channel: Channel, window: { start?: number; end?: number }): { first: number } & EventTrain {
-  const { time, values } = channel;
-  let first = 0;
-  while (first < time.length && time[first] < (window.start ?? -Infinity)) first++;
-  // A channel's time axis increases strictly: without an end, every sample from the first on is inside.
-  let last = window.end === undefined ? time.length : first;
-  while (last < time.length && time[last] <= (window.end ?? Infinity)) last++;
-  return { first, ...findEventTrain(values.subarray(first, last)) };
+  // A channel's time axis increases strictly, so the window's samples are found by bisection.
+  const { from: first, to: last } = windowSpan(channel.time, window);
+  return { first, ...findEventTrain(channel.values.subarray(first, last)) };
 }
 
 /**
