@@ -39,7 +39,7 @@ interface Row {
   scipy: ScipyResult | null;
 }
 
-/** The measuring script bundled as the command line is (dist/cli.js), so that no TypeScript loader runs in the timed process. */
+/** The measuring script bundled as the command line is (dist/cli.cjs), so that no TypeScript loader runs in the timed process. */
 async function bundleRunner(): Promise<string> {
   const outfile = path.join(OUT, 'speedRun.mjs');
   await build({ entryPoints: [path.join(HERE, 'speedRun.ts')], outfile, bundle: true, platform: 'node', format: 'esm', target: 'node20', packages: 'external', logLevel: 'warning' });

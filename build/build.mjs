@@ -1,6 +1,8 @@
 // Builds dist/: the command line, the renderer (browser bench and window, one build), its fit worker,
 // and the Electron main process and preload.
 import { build, transform } from 'esbuild';
+import { spawnSync } from 'node:child_process';
+import { randomUUID } from 'node:crypto';
 import { copyFileSync, existsSync, mkdirSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { join, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -14,16 +16,22 @@ const PLOTLY = at('node_modules/plotly.js-dist/plotly.js');
 /**
  * The command line and batch's workers carry their packages inside the bundle: loading commander and ml-matrix as
  * CommonJS from node_modules (resolution, export scanning, one compile each) took more than a bare node's start-up.
- * Bundled CommonJS still requires Node's built-ins, and an ES module has no `require` of its own: this one is given.
+ * Bundled CommonJS still requires Node's built-ins, and the workers' ES module has no `require` of its own: this one
+ * is given.
  */
 const NODE_REQUIRE = { js: "import { createRequire as createRequireForBundle } from 'node:module'; const require = createRequireForBundle(import.meta.url);" };
 
 /**
- * The command line's chunks are named by their content: those of an earlier build are removed once this one is
- * written (a command started meanwhile still finds the unchanged ones), so that dist/, which electron-builder packs
- * whole, holds only the chunks this build's dist/cli.js imports.
+ * The command line is one CommonJS file: bin/ringbench.js runs it with V8's code cache, which Node 20 offers for a
+ * script and not for an ES module. Its first line names this build, so that the launcher never uses the cache of
+ * another (V8 checks only a source's length); the modules that ask for their own URL are given the bundle's.
  */
-const CHUNK_PREFIX = 'cli-';
+const BUILD_ID = randomUUID();
+const CLI_BANNER = { js: `// ringbench build ${BUILD_ID}\nvar __bundleUrl = require('node:url').pathToFileURL(__filename).href;` };
+/** What the build wrote before the command line was one file (the entry and a chunk per command): removed. */
+const EARLIER_CLI = /^cli(-[\w-]+)?\.js(\.map)?$/;
+/** The fit whose compiled functions make the code cache: a typical command on a bundled sample capture. */
+const CACHE_TRAINING = ['fit', at('sample-captures/switch-node-before.csv'), '--topology', 'series', '--known', 'C=390p', '--json'];
 
 /**
  * What the build is made from, as bin/ringbench.js compares it: every folder and file below these, with its mtime and
@@ -47,20 +55,17 @@ for (const folder of SOURCES) {
   }
 }
 
-const [cli] = await Promise.all([
+await Promise.all([
   build({
     ...common,
-    // Each command's module is imported when it runs (main/cli/program.ts): split into chunks beside dist/cli.js,
-    // so that one command compiles only its own code.
-    entryPoints: { cli: 'main/cli/index.ts' },
-    splitting: true,
-    chunkNames: `${CHUNK_PREFIX}[name]-[hash]`,
-    metafile: true,
-    outdir: 'dist',
+    // Each command's module still runs only when its command does (main/cli/program.ts imports it then).
+    entryPoints: ['main/cli/index.ts'],
+    outfile: 'dist/cli.cjs',
     platform: 'node',
-    format: 'esm',
+    format: 'cjs',
     target: 'node20',
-    banner: NODE_REQUIRE,
+    banner: CLI_BANNER,
+    define: { 'import.meta.url': '__bundleUrl' },
   }),
   build({
     ...common,
@@ -102,10 +107,25 @@ const [cli] = await Promise.all([
   }),
   copyStatic(),
 ]);
-for (const name of readdirSync(at('dist'))) {
-  if (name.startsWith(CHUNK_PREFIX) && !(`dist/${name}` in cli.metafile.outputs)) rmSync(at(`dist/${name}`));
-}
+for (const name of readdirSync(at('dist'))) if (EARLIER_CLI.test(name)) rmSync(at(`dist/${name}`));
+trainCodeCache();
 writeFileSync(MANIFEST, JSON.stringify({ folders: SOURCES, entries }));
+
+/**
+ * Makes dist/cli.codecache with one run of the new command line (see bin/ringbench.js). Without a cache the command
+ * line only starts slower, so a run that fails leaves a warning and no cache, not a failed build.
+ */
+function trainCodeCache() {
+  rmSync(at('dist/cli.codecache'), { force: true });
+  const run = spawnSync(process.execPath, [at('bin/ringbench.js'), ...CACHE_TRAINING], {
+    env: { ...process.env, RINGBENCH_CODE_CACHE_TRAINING: '1' },
+    stdio: ['ignore', 'ignore', 'pipe'],
+    encoding: 'utf8',
+  });
+  if (run.status !== 0 || !existsSync(at('dist/cli.codecache'))) {
+    process.stderr.write(`build: no code cache for the command line (its training run ended with ${run.status}: ${run.stderr.trim().split('\n').pop()}); it starts slower\n`);
+  }
+}
 
 /** The page, its styles, and plotly as its own script file (minified once, then kept while unchanged). */
 async function copyStatic() {

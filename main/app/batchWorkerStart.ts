@@ -9,7 +9,7 @@ import { fileURLToPath, pathToFileURL } from 'node:url';
 import type { BatchSettings } from './batchFile';
 import type { BatchReply, BatchRequest, PoolMessage, WorkerMessage } from './batchProtocol';
 
-/** esbuild bundles this module into dist/cli.js, whose folder also holds the worker's own bundle. */
+/** esbuild bundles this module into dist/cli.cjs (import.meta.url: that file), whose folder also holds the worker's own bundle. */
 const FROM_SOURCE = import.meta.url.endsWith('.ts');
 
 /**

@@ -315,7 +315,7 @@ describe('the layers inside main/', () => {
     expect(mainTableOffences(MAIN_TABLE, GRAPH)).toEqual([]);
   });
 
-  it('nothing outside main/cli imports it (the launcher runs the built dist/cli.js)', () => {
+  it('nothing outside main/cli imports it (the launcher runs the built dist/cli.cjs)', () => {
     expect(cliImportOffences(GRAPH)).toEqual([]);
   });
 
