@@ -96,13 +96,16 @@ function sampleSpread(trace: Trace, ex: Extremes, model: PointModel, step: numbe
   const { values, clipped } = trace;
   let sum = 0;
   let count = 0;
+  // Sums are taken per chunk in locals: a double the closure writes on every sample is a fresh heap number each time.
   model.forEachChunk(ex.from, ex.to, (first, y) => {
+    let chunkSum = 0;
     for (let k = 0; k < y.length; k++) {
       const i = first + k;
       if (clipped?.[i] || !Number.isFinite(values[i])) continue;
-      sum += (values[i] - y[k]) ** 2;
+      chunkSum += (values[i] - y[k]) ** 2;
       count++;
     }
+    sum += chunkSum;
   });
   return Math.sqrt(Math.max(0, sum / count - (step * step) / 12));
 }
@@ -133,16 +136,23 @@ function railEffect(trace: Trace, ex: Extremes, model: PointModel, sign: 1 | -1,
     ex.from,
     ex.to,
     (first, y) => {
+      // Per chunk in locals, as in sampleSpread.
+      let chunkExpected = 0;
+      let chunkSurprise = 0;
+      let chunkShift = 0;
       for (let k = 0; k < y.length; k++) {
         const i = first + k;
         if (clipped?.[i] || !Number.isFinite(values[i])) continue;
         const z = (sign * (edge - y[k])) / spread;
         if (z > TAIL_LIMIT) continue;
         const beyond = normalTail(z);
-        expected += beyond;
-        if (values[i] === rail) atRailSurprise -= Math.log1p(-beyond);
-        shiftSquared += (normalDensity(z) - z * beyond) ** 2;
+        chunkExpected += beyond;
+        if (values[i] === rail) chunkSurprise -= Math.log1p(-beyond);
+        chunkShift += (normalDensity(z) - z * beyond) ** 2;
       }
+      expected += chunkExpected;
+      atRailSurprise += chunkSurprise;
+      shiftSquared += chunkShift;
     },
     farInside,
   );
