@@ -4,7 +4,7 @@ import { formatEngineering } from '../units/format';
 import { printable } from '../units/unitText';
 import { MIN_SAMPLES } from './captureLimits';
 import { detectClipping, type Clipping } from './detectClipping';
-import { nameChannels, type ColumnPlan, type Layout } from './layout';
+import { INTERVAL_OPTION, nameChannels, type ColumnPlan, type Layout } from './layout';
 import type { RowDrop } from './importSummary';
 import type { RowLines, StoredRows } from './segments';
 import { summarizeImport, type KeptChannel, type TextSource } from './summarizeImport';
@@ -100,15 +100,22 @@ function resolveFirstColumn(layout: Layout, store: StoredRows, lines: RowLines, 
 function columnAxis(index: number, layout: Layout, store: StoredRows, lines: RowLines, options: CaptureOptions, warnings: string[]): Axis {
   const column = layout.columns[index];
   const time = scaleInPlace(store.keep(index), column.scale);
+  if (layout.interval?.key === INTERVAL_OPTION) return statedIntervalAxis(time, layout.interval.value, column, warnings);
   const problem = findOrderProblem(time);
   if (problem === null) return { time, order: null, interval: uniformInterval(time), leftOut: null };
   const line = lines.lineOf(problem.row);
   if (!options.sortTime) {
-    const what =
-      problem.time === problem.previous
-        ? `time ${seconds(problem.time)} repeats the time stamp of the row before`
-        : `time ${seconds(problem.time)} is earlier than ${seconds(problem.previous)} on the row before`;
-    throw new CaptureError(`${what} (column '${label(column)}'); time must increase (option sortTime sorts the rows)`, line);
+    const where = `(column '${label(column)}')`;
+    if (problem.time !== problem.previous) {
+      throw new CaptureError(`time ${seconds(problem.time)} is earlier than ${seconds(problem.previous)} on the row before ${where}; time must increase (option sortTime sorts the rows)`, line);
+    }
+    // Stamps that often repeat and never decrease were written with too few digits: sorting would drop every repeat.
+    const repeats = repeatsIfNeverDecreasing(time);
+    const advice =
+      repeats >= ROUNDED_REPEATS
+        ? `${repeats} of the ${time.length} time stamps repeat the one before and none decreases: they were written with too few digits for the sample interval; give the sample interval (option sampleInterval) to build the time axis from it`
+        : 'time must increase (option sortTime sorts the rows)';
+    throw new CaptureError(`time ${seconds(problem.time)} repeats the time stamp of the row before ${where}; ${advice}`, line);
   }
   const sorted = sortByTime(time);
   const sortedTime = new Float64Array(sorted.order.length);
@@ -121,6 +128,37 @@ function columnAxis(index: number, layout: Layout, store: StoredRows, lines: Row
     leftOut = { reason: 'repeated time stamp', count: sorted.repeated, firstLine };
   }
   return { time: sortedTime, order: sorted.order, interval: uniformInterval(sortedTime), leftOut };
+}
+
+/**
+ * Repeated stamps, in a column that never decreases, that mark it as written with too few digits for its interval
+ * rather than a line copied twice or two (a rounding to whole steps of more than the interval repeats many).
+ */
+const ROUNDED_REPEATS = 3;
+
+/** How many time stamps equal the one before, or -1 when one is earlier than one before it (rows without a time skipped). */
+function repeatsIfNeverDecreasing(time: Float64Array): number {
+  let previous = -Infinity;
+  let repeats = 0;
+  for (let i = 0; i < time.length; i++) {
+    const t = time[i];
+    if (t < previous) return -1;
+    if (t === previous) repeats++;
+    if (t === t) previous = t;
+  }
+  return repeats;
+}
+
+/**
+ * The axis the sampleInterval option states, over a time column's own stamps (written with too few digits, or
+ * uneven): t = t0 + i dt, with t0 from the first stamp, so that the trigger stays where the file put it.
+ */
+function statedIntervalAxis(time: Float64Array, interval: number, column: ColumnPlan, warnings: string[]): Axis {
+  let first = 0;
+  while (first < time.length && !Number.isFinite(time[first])) first++;
+  const offset = first < time.length ? time[first] - first * interval : 0;
+  warnings.push(`the sampleInterval option replaces the time stamps of column '${label(column)}': t = ${seconds(offset)} + i × ${seconds(interval)}`);
+  return { time: rebuildAxis(time.length, interval, offset), order: null, interval, leftOut: null };
 }
 
 function intervalAxis(layout: Layout, rows: number, warnings: string[], stamped: ColumnPlan | null): Axis {

@@ -222,6 +222,9 @@ function rejectBrokenTable(head: PreambleLine[], runStart: number, shape: DataSh
   }
 }
 
+/** The key of the interval the sampleInterval option gives (Layout['interval']): it also replaces a time column's stamps. */
+export const INTERVAL_OPTION = 'sampleInterval';
+
 function chooseInterval(preamble: Preamble, options: CaptureOptions, warnings: string[]): Layout['interval'] {
   const option = options.sampleInterval;
   if (option !== undefined) {
@@ -232,7 +235,7 @@ function chooseInterval(preamble: Preamble, options: CaptureOptions, warnings: s
     if (stated && Math.abs(stated.value - option) > 1e-6 * option) {
       warnings.push(`the sampleInterval option (${option} s) replaces the file's '${stated.key}' (${stated.value} s, line ${stated.line})`);
     }
-    return { value: option, key: 'sampleInterval', line: 0, unitStated: true, source: 'the sampleInterval option' };
+    return { value: option, key: INTERVAL_OPTION, line: 0, unitStated: true, source: 'the sampleInterval option' };
   }
   const stated = preamble.interval;
   return stated ? { ...stated, source: `'${stated.key}' on line ${stated.line}` } : null;

@@ -13,7 +13,7 @@ export interface MeasureCommandOptions extends MeasureSettings {
 export function addCaptureOptions(command: Command): Command {
   return command
     .option('--column <name|index>', 'channel to fit: its name, or else its 0-based index (default: the first)')
-    .option('--sample-interval <time>', 'sample interval when the file has no time column, e.g. 2n')
+    .option('--sample-interval <time>', 'sample interval, e.g. 2n: builds the time axis of a file without a time column, or replaces the stamps of one (written with too few digits, say)')
     .option('--time-unit <unit>', "unit of the time column or of the file's sample interval, over the file's, e.g. us")
     .option('--value-unit <unit>', "unit of the channel's values, over the file's, e.g. mV")
     .option('--from <time>', 'start of the fit window (default: found from the data)')

@@ -76,6 +76,27 @@ describe('time order', () => {
     expect(error.message).toContain('repeats the time stamp of the row before');
   });
 
+  it('fails on time stamps written with too few digits, naming the sample interval as the way out', () => {
+    // 2 significant digits for 1 ns steps: from 100 ns on each stamp stands for about 10 rows.
+    const coarse = Array.from({ length: 200 }, (_, i) => `${(i * 1e-9).toExponential(1)},${value(i)},${-value(i)}`);
+    const error = captureError(table(coarse));
+    expect(error.line).toBe(103);
+    expect(error.message).toContain('89 of the 200 time stamps repeat the one before and none decreases');
+    expect(error.message).toContain('give the sample interval (option sampleInterval)');
+    // A row written twice is no rounding: the advice stays sorting.
+    expect(captureError(table(repeated)).message).toContain('time must increase (option sortTime sorts the rows)');
+  });
+
+  it('builds the axis from the sampleInterval option over a time column, from its first stamp', () => {
+    const coarse = Array.from({ length: 200 }, (_, i) => `${(5e-9 + i * 1e-9).toExponential(2)},${value(i)},${-value(i)}`);
+    const capture = parseCapture(table(coarse), { sampleInterval: 1e-9 });
+    const [channel] = capture.channels;
+    expect(channel.time.length).toBe(200);
+    for (const i of [0, 1, 150, 199]) expect(channel.time[i]).toBeCloseTo(5e-9 + i * 1e-9, 22);
+    expect(capture.sampleInterval).toBe(1e-9);
+    expect(capture.warnings).toContain("the sampleInterval option replaces the time stamps of column 'Time (s)': t = 5 ns + i × 1 ns");
+  });
+
   it('sorts with sortTime, keeping the first of a repeated stamp, with warnings', () => {
     const shuffled = [...good.slice(15), ...good.slice(0, 15), good[4].replace(/,[^,]+,[^,]+$/, ',9,9')];
     const capture = parseCapture(table(shuffled), { sortTime: true });

@@ -77,6 +77,7 @@ describe('options are named by their flags', () => {
   it.each([
     ['no time column', 'no-time-2.csv', '1\n2\n3\n4\n', '--sample-interval'],
     ['time running backwards', 'backwards-2.csv', `t,v\n${Array.from({ length: 40 }, (_, i) => `${(i === 20 ? 5 : i) * 1e-9},${Math.sin(i)}`).join('\n')}\n`, '--sort-time'],
+    ['time written with too few digits', 'coarse-time.csv', `t,v\n${Array.from({ length: 200 }, (_, i) => `${(i * 1e-9).toExponential(1)},${Math.sin(i)}`).join('\n')}\n`, '--sample-interval'],
   ])('%s: %s', async (_what, name, text, flag) => {
     writeFileSync(path.join(dir, name), text);
     const { err } = await run(['fit', name]);
