@@ -103,6 +103,13 @@ describe('fitResponse reports what it could not do', () => {
     const { trace } = synthesize(CASES[1], 3);
     expect(() => fitResponse(trace, { window: { start: 0, end: trace.time[10] } })).toThrow(/usable samples/);
   });
+  it('names the window and the record when the window misses the record', () => {
+    const time = Float64Array.from({ length: 500 }, (_, i) => (i - 100) * 1e-9);
+    const values = time.map((t) => (t < 0 ? 0 : 1 - Math.exp(-t / 50e-9)));
+    expect(() => fitResponse({ time, values, unit: 'V' }, { window: { start: 1e-6 } })).toThrow(
+      'only 0 usable samples in the fit window (from 1 µs to the end; the record runs from -100 ns to 399 ns); at least 20 are needed',
+    );
+  });
   it('warns when the data are not a second-order response', () => {
     const time = Float64Array.from({ length: 2000 }, (_, i) => i * 1e-6);
     const random = createRandom(11);
