@@ -362,7 +362,8 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
   for (let c = 0; c < count; c++) {
     const p = plans[c];
     const counting = countsUp(column(c));
-    const indexNamed = INDEX_NAME.test(p.name) || INDEX_NAME.test(units?.[c]?.trim() ?? '');
+    // 'Sample', a units row's 'Sequence', or a heading's own unit: 'Time (samples)' counts samples, not seconds.
+    const indexNamed = INDEX_NAME.test(p.name) || INDEX_NAME.test(units?.[c]?.trim() ?? '') || INDEX_NAME.test(p.unitText?.trim() ?? '');
     const timeNamed = timeNames[c] || numbered.has(c);
     // A headerless column counting up beside an evenly stepped one is a sample index, unless a units row makes it time.
     const beforeTime = !header && !timeNamed && c === skip && evenSteps(column(c + 1), decimalComma) && !countsUp(column(c + 1));

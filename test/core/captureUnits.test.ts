@@ -93,6 +93,14 @@ describe('time units of a sample-interval line', () => {
     const capture = parseCapture(`XIncrement (${unit}): 2\n${body}`);
     close(capture.sampleInterval as number, 2 * scale);
   });
+
+  it.each(['samples', 'Points', '#'])("a time column counting in '%s' is a sample index: the axis comes from the interval", (unit) => {
+    const rows = values.map((v, i) => `${i},${v}`).join('\n');
+    const capture = parseCapture(`Sample Interval,2 ns\nTime (${unit}),CH1 (V)\n${rows}`);
+    expect(capture.channels.map((c) => c.name)).toEqual(['CH1']);
+    close(capture.sampleInterval as number, 2e-9);
+    close(capture.channels[0].time[N - 1], (N - 1) * 2e-9);
+  });
 });
 
 describe('value units in a column header', () => {
