@@ -1,4 +1,4 @@
-// Reads a column header cell ('Time (s)', 't [us]', 'time_ns', 'CH1 [mV]', 'Voltage(V)') into name and unit, and
+// Reads a column header cell ('Time (s)', 't [us]', 'time_ns', 'CH1 [mV]', 'Voltage(V)', 'Time in ms') into name and unit, and
 // settles the unit a column is read in (the header's, or the one an option states).
 
 import { canonicalUnit } from '../units/prefixes';
@@ -17,6 +17,8 @@ export interface ColumnHeading {
 const BRACKETED = /^(.*?)\s*[([]\s*([^()[\]]*?)\s*[)\]]\s*$/;
 const SLASHED = /^(.+?)\s*\/\s*([^\s/]+)$/;
 const UNDERSCORED = /^(.+?)_([^_\s]+)$/;
+/** 'Time in ms', 'C1 in V', or a bare 'in s' (a name left empty), the unit the last word. */
+const IN_UNIT = /^(?:(.*?)\s+)?in\s+(\S+)$/i;
 const TIME_NAME = /^(?:t|x|sec|secs|seconds?|timestamp|zeit|tempo)$|^time/i;
 
 /** True for a column name that means time ('Time', 't', 'TimeV_S', 'Time - V_C', 'timestamp'). */
@@ -54,6 +56,11 @@ export function parseColumnHeading(cell: string): ColumnHeading {
     const suffix = underscored[2];
     if (suffix.length >= 2 || (isTimeName(underscored[1]) && canonicalUnit(suffix) !== null)) return byUnderscore;
   }
+  // 'in' then a unit, as some scopes and most German exports head a column; only a unit read as known counts
+  // ('Log in' and 'Plug in A2' stay names).
+  const inUnit = IN_UNIT.exec(text);
+  const byIn = inUnit ? withUnit(inUnit[1] ?? '', inUnit[2]) : null;
+  if (byIn?.reading?.kind === 'known') return byIn;
   return { name: text, unitText: null, reading: null };
 }
 

@@ -68,6 +68,8 @@ describe('time units in a column header', () => {
     ['Time (unit)', (u) => `Time (${u})`],
     ['Time[unit]', (u) => `Time[${u}]`],
     ['time_unit', (u) => `time_${u}`],
+    ['Time in unit', (u) => `Time in ${u}`],
+    ['in unit', (u) => `in ${u}`],
   ];
   for (const [form, heading] of forms) {
     it.each(TIME_UNITS)(`${form} with '%s' gives the axis in s`, (unit, scale) => {
@@ -109,6 +111,7 @@ describe('value units in a column header', () => {
     ['CH1(unit)', (u) => `CH1(${u})`],
     ['CH1 [unit]', (u) => `CH1 [${u}]`],
     ['CH1_unit', (u) => `CH1_${u}`],
+    ['CH1 in unit', (u) => `CH1 in ${u}`],
   ];
   for (const [form, heading] of forms) {
     // A one-letter suffix stays part of the name ('V_C', 'I_A'): the '_unit' form is read from two letters on.
@@ -121,6 +124,14 @@ describe('value units in a column header', () => {
       values.forEach((v, i) => close(channel.values[i], v * scale));
     });
   }
+});
+
+describe("'in' before a word that is no unit leaves the heading a name", () => {
+  it.each(['Plug in A2', 'Log in', 'Sign in ok'])("'%s' is a channel's name, without a unit", (heading) => {
+    const capture = parseCapture(`Time (s),${heading}\n${timedRows()}`);
+    expect(capture.channels[0].name).toBe(heading);
+    expect(capture.channels[0].unit).toBe('');
+  });
 });
 
 describe('a unit that cannot be read is refused, naming where and the option', () => {
