@@ -17,6 +17,8 @@ export interface ColumnHeading {
 const BRACKETED = /^(.*?)\s*[([]\s*([^()[\]]*?)\s*[)\]]\s*$/;
 const SLASHED = /^(.+?)\s*\/\s*([^\s/]+)$/;
 const UNDERSCORED = /^(.+?)_([^_\s]+)$/;
+/** A level in decibels ('dB', 'dBV', 'dBm', 'dBuV'): no scale turns it into the linear values a fit needs. */
+const DECIBELS = /^db/i;
 /** 'Time in ms', 'C1 in V', or a bare 'in s' (a name left empty), the unit the last word. */
 const IN_UNIT = /^(?:(.*?)\s+)?in\s+(\S+)$/i;
 const TIME_NAME = /^(?:t|x|sec|secs|seconds?|timestamp|zeit|tempo)$|^time/i;
@@ -99,6 +101,9 @@ export function columnUnit(
     return { unit: stated.unit, scale: stated.scale };
   }
   if (unitText === null || reading === null) return { unit: '', scale: 1 };
+  if (!isTime && DECIBELS.test(unitText)) {
+    throw new CaptureError(`column '${printable(label)}': unit '${printable(unitText)}' is a level in decibels, and a response is fitted to linear values; export the channel in volts or amperes`, line);
+  }
   const problem = unitProblem(unitText, reading, isTime);
   if (problem !== '' || reading.kind !== 'known') {
     const what = isTime ? 'the time unit' : "the channel's unit";

@@ -135,6 +135,12 @@ describe("'in' before a word that is no unit leaves the heading a name", () => {
 });
 
 describe('a unit that cannot be read is refused, naming where and the option', () => {
+  it.each(['dBV', 'dBm', 'dB'])("'CH1 (%s)' is a level in decibels: refused as no linear value, on its line", (unit) => {
+    const error = captureError(() => parseCapture(`Time (s),CH1 (${unit})\n${timedRows()}`));
+    expect(error.line).toBe(1);
+    expect(error.message).toContain(`unit '${unit}' is a level in decibels, and a response is fitted to linear values`);
+  });
+
   it.each(['MS', 'Ms', 'MSec'])("'Time (%s)' is ambiguous: --time-unit", (unit) => {
     const error = captureError(() => parseCapture(`Time (${unit}),CH1 (V)\n${timedRows()}`));
     expect(error.line).toBe(1);
