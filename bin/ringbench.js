@@ -12,7 +12,7 @@ const ROOT = fileURLToPath(new URL('..', import.meta.url));
 const BUILT = join(ROOT, 'dist', 'cli.cjs');
 /**
  * V8's code cache for BUILT: the bytecode of the functions a fit compiled, made by the build (see CACHE_TRAINING).
- * It spares each command parsing and compiling them again (a sample capture's fit 0.42 s -> 0.35 s). Its first line
+ * It spares each command parsing and compiling them again (a sample capture's fit 0.45 s -> 0.39 s). Its first line
  * is the build id of the bundle it was made from (BUILT's first line): V8 itself checks only the source's length.
  */
 const CODE_CACHE = join(ROOT, 'dist', 'cli.codecache');
