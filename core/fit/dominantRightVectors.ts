@@ -98,16 +98,8 @@ function bidiagonalize(x: Float64Array, m: number, n: number, d: Float64Array, e
     if (tau !== 0 && k + 1 < n) {
       // Columns k+1.. of rows k..: A <- A - tau v (v^T A), row by row so the inner loops run along rows.
       w.fill(0, k + 1, n);
-      for (let i = k; i < m; i++) {
-        const vi = i === k ? 1 : x[i * n + k];
-        const row = i * n;
-        for (let j = k + 1; j < n; j++) w[j] += vi * x[row + j];
-      }
-      for (let i = k; i < m; i++) {
-        const h = tau * (i === k ? 1 : x[i * n + k]);
-        const row = i * n;
-        for (let j = k + 1; j < n; j++) x[row + j] -= h * w[j];
-      }
+      for (let i = k; i < m; i++) addScaled(w, k + 1, x, i * n + k + 1, n - k - 1, i === k ? 1 : x[i * n + k]);
+      for (let i = k; i < m; i++) addScaled(x, i * n + k + 1, w, k + 1, n - k - 1, -tau * (i === k ? 1 : x[i * n + k]));
     }
     if (k + 2 < n) {
       const [superdiagonal, t] = reflector(x, k * n + k + 1, 1, n - k - 1);
@@ -119,7 +111,7 @@ function bidiagonalize(x: Float64Array, m: number, n: number, d: Float64Array, e
           const row = i * n + k + 1;
           const h = t * (x[row] + dot(x, row + 1, x, u + 1, n - k - 2));
           x[row] -= h;
-          for (let j = 1; j < n - k - 1; j++) x[row + j] -= h * x[u + j];
+          addScaled(x, row + 1, x, u + 1, n - k - 2, -h);
         }
       }
     } else if (k + 1 < n) {
@@ -127,6 +119,15 @@ function bidiagonalize(x: Float64Array, m: number, n: number, d: Float64Array, e
     }
   }
   return rightTau;
+}
+
+/**
+ * target[to + j] += scale * source[from + j] for j < length. The reflections' inner loops, as a function of their
+ * own: called thousands of times, it is compiled after a few calls, where the loops inlined in bidiagonalize ran
+ * interpreted (a heap number per step) for the first decompositions of a command.
+ */
+function addScaled(target: Float64Array, to: number, source: Float64Array, from: number, length: number, scale: number): void {
+  for (let j = 0; j < length; j++) target[to + j] += scale * source[from + j];
 }
 
 /** column <- V_B column, V_B = P_0 P_1 ... P_{n-3} the right reflectors (P_k acting on entries k+1..). */
