@@ -262,6 +262,18 @@ const NORMAL_PIVOT = 1e-9;
 /** Below this fraction of its own norm a column left after the earlier reflections counts as dependent (coefficient 0). */
 const RANK_TOLERANCE = 1e-12;
 
+/**
+ * sum a[i] b[i] over the first n rows in use (all without `use`). A function of its own: called for every entry of
+ * every Gram matrix, it is compiled after a few calls, where the loops inlined in normalSolve ran interpreted
+ * through a command's first solves.
+ */
+function dotInUse(a: Float64Array, b: ArrayLike<number>, use: Uint8Array | null, n: number): number {
+  let sum = 0;
+  if (use) for (let i = 0; i < n; i++) sum += use[i] ? a[i] * b[i] : 0;
+  else for (let i = 0; i < n; i++) sum += a[i] * b[i];
+  return sum;
+}
+
 /** min |A x - y| over the rows in use by Cholesky on the column-scaled normal equations; null when a pivot is too small. */
 function normalSolve(A: Float64Array[], y: ArrayLike<number>, use: Uint8Array | null): number[] | null {
   const r = A.length;
@@ -269,18 +281,8 @@ function normalSolve(A: Float64Array[], y: ArrayLike<number>, use: Uint8Array | 
   const g = new Float64Array(r * r);
   const rhs = new Float64Array(r);
   for (let p = 0; p < r; p++) {
-    const ap = A[p];
-    for (let q = p; q < r; q++) {
-      const aq = A[q];
-      let sum = 0;
-      if (use) for (let i = 0; i < n; i++) sum += use[i] ? ap[i] * aq[i] : 0;
-      else for (let i = 0; i < n; i++) sum += ap[i] * aq[i];
-      g[p * r + q] = sum;
-    }
-    let sum = 0;
-    if (use) for (let i = 0; i < n; i++) sum += use[i] ? ap[i] * y[i] : 0;
-    else for (let i = 0; i < n; i++) sum += ap[i] * y[i];
-    rhs[p] = sum;
+    for (let q = p; q < r; q++) g[p * r + q] = dotInUse(A[p], A[q], use, n);
+    rhs[p] = dotInUse(A[p], y, use, n);
   }
   const d = Array.from({ length: r }, (_, p) => Math.sqrt(g[p * r + p]));
   if (!d.every((v) => v > 0 && Number.isFinite(v))) return null;
