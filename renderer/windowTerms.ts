@@ -2,10 +2,11 @@
 
 /**
  * Each option as the window offers it, longer phrases first (a whole advice before the bare flag). An option the
- * window has no control for (--sample-interval, --sort-time) is left as the command line says it.
+ * window has no control for (--sort-time) is left as the command line says it.
  */
 const TERMS: [RegExp, string][] = [
-  [/with --time-unit or --sample-interval/g, "with the 'Time in' choice"],
+  [/with --time-unit or --sample-interval/g, "with the 'Time in' choice or the 'Sample interval' field"],
+  [/(?:the )?option sampleInterval|the sampleInterval option|--sample-interval/g, "the 'Sample interval' field"],
   [/with --time-unit/g, "with the 'Time in' choice"],
   [/with --value-unit/g, "with the 'Values in' choice"],
   [/--time-unit (\S+?)(?=[\s,;.)]|$)/g, "the 'Time in' choice ($1)"],

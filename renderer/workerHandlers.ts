@@ -4,6 +4,7 @@ import { parseCapture, parseCaptureFileBytes } from '../core/capture/parseCaptur
 import { selectChannel } from '../core/capture/selectChannel';
 import type { Capture, CaptureOptions, Channel } from '../core/capture/types';
 import { parseStatedUnit } from '../core/units/unitText';
+import { parseTime } from '../core/workflow/userValues';
 import { compareCaptures, type ComparisonSide } from '../core/workflow/compare';
 import { checkAgainstDesign, measureCapture, type MeasureResult } from '../core/workflow/measure';
 import { measureParasitics, type EdgeRequest } from '../core/workflow/parasitics';
@@ -35,7 +36,8 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
       progress('reading the capture');
       let capture: Capture;
       try {
-        capture = readContent(request.content, { sampleInterval: request.sampleInterval, segment: request.reading?.segment, ...statedUnits(request.reading?.units ?? FILE_UNITS) });
+        const interval = request.reading?.sampleInterval ? parseTime(request.reading.sampleInterval, 'the sample interval') : request.sampleInterval;
+        capture = readContent(request.content, { sampleInterval: interval, segment: request.reading?.segment, ...statedUnits(request.reading?.units ?? FILE_UNITS) });
       } catch (error) {
         const refusal = unitRefusal(error);
         if (refusal) return { value: { type: 'open', info: null, refusal }, transfer: [] };

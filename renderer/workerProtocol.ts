@@ -61,16 +61,22 @@ export interface StatedUnits {
 /** The file's own units: nothing stated. */
 export const FILE_UNITS: StatedUnits = { timeUnit: '', valueUnit: '' };
 
-/** How the user asks a capture file to be read: the units stated, and which segment of repeated acquisitions (1-based). */
+/**
+ * How the user asks a capture file to be read: the units stated, which segment of repeated acquisitions (1-based),
+ * and the sample interval stated (as typed, '2n'; it builds the time axis as --sample-interval does).
+ */
 export interface CaptureReading {
   units: StatedUnits;
   /** Default: the first. */
   segment?: number;
+  /** Default: the file's own time axis. */
+  sampleInterval?: string;
 }
 
 /** Why a capture could not be read as written, when stating its time or value unit can fix it. */
 export interface UnitRefusal {
-  unit: 'time' | 'value';
+  /** The choice that fixes it: the time or value unit, or the sample interval. */
+  unit: 'time' | 'value' | 'interval';
   /** One line naming the column or line and the unit as written. */
   message: string;
 }

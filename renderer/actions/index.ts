@@ -8,7 +8,7 @@ import type { BenchRecord } from '../../core/report/benchRecord';
 import type { CorrectionAction } from '../../core/report/logCorrection';
 import type { CaptureFile, FitWindow, StatedUnits } from '../workerProtocol';
 import { correctLogEntry, logMeasurement, refreshLog } from './benchLog';
-import { chooseChannel, chooseSegment, openCapture, openDropped, openSample, pickCapture, start, stateUnits } from './capture';
+import { chooseChannel, chooseSegment, openCapture, openDropped, openSample, pickCapture, start, stateInterval, stateUnits } from './capture';
 import { runComparison, type CompareSettings } from './compare';
 import { setComponentsInput } from './components';
 import type { ActionContext } from './context';
@@ -33,6 +33,7 @@ export function bindActions(ctx: ActionContext) {
     openCapture: (opened: OpenedFile) => openCapture(ctx, opened, {}),
     chooseChannel: (index: number) => chooseChannel(ctx, index),
     stateUnits: (units: StatedUnits) => stateUnits(ctx, units),
+    stateInterval: (sampleInterval: string) => stateInterval(ctx, sampleInterval),
     chooseSegment: (segment: number) => chooseSegment(ctx, segment),
     setWindow: (window: FitWindow) => setWindow(ctx, window),
     chooseEvent: (event: number) => chooseEvent(ctx, event),

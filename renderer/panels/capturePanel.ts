@@ -40,6 +40,12 @@ export function createCapturePanel(actions: BenchActions) {
     h('label', { class: 'probe-invert' }, probeInvert, h('span', {}, 'inverted')),
     button('Apply', applyProbe, { id: 'apply-probe', title: 'Scale the channel by the probe ratio (and turn it over) and fit again, as --probe-ratio and --invert do' }),
   );
+  // The sample interval stated, built once for the same reason; Enter (or leaving it) reads the file again with it.
+  const intervalInput = textInput('', {
+    id: 'sample-interval',
+    attrs: { placeholder: 'as in the file', 'aria-label': "Sample interval: builds the time axis (e.g. 2n), over the file's own time column" },
+  });
+  intervalInput.addEventListener('change', () => void actions.stateInterval(intervalInput.value));
   // Whose probe the controls show: they are filled from the stored settings only when another capture or channel is
   // shown, never while the user's own change is being applied (a redraw would undo the click it answers).
   let probeOwner = '';
@@ -49,6 +55,8 @@ export function createCapturePanel(actions: BenchActions) {
   let recentShown = '';
 
   function render(state: BenchState): void {
+    // The stated interval shows, unless the user is typing one.
+    if (document.activeElement !== intervalInput) intervalInput.value = state.reading.sampleInterval ?? '';
     const list = state.samples.map((s) => s.id).join(',');
     if (list !== samplesShown) {
       samplesShown = list;
@@ -157,7 +165,7 @@ export function createCapturePanel(actions: BenchActions) {
     );
   }
 
-  /** The time and value unit choices; the one a refusal names is marked. Choosing one reads the file again. */
+  /** The time and value unit choices and the sample interval; the one a refusal names is marked. Choosing one reads the file again. */
   function unitChoices(state: BenchState, refusedUnit: UnitRefusal['unit'] | null): HTMLElement {
     const { units } = state.reading;
     const choice = (unit: UnitRefusal['unit'], label: string, options: readonly (readonly [string, string])[], value: string, change: (text: string) => StatedUnits) =>
@@ -177,6 +185,7 @@ export function createCapturePanel(actions: BenchActions) {
       { class: 'unit-choices' },
       choice('time', 'Time in', TIME_UNITS, units.timeUnit, (timeUnit) => ({ ...units, timeUnit })),
       choice('value', 'Values in', VALUE_UNITS, units.valueUnit, (valueUnit) => ({ ...units, valueUnit })),
+      h('label', { class: `unit-choice${refusedUnit === 'interval' ? ' attention' : ''}` }, h('span', {}, 'Sample interval'), intervalInput),
     );
   }
 

@@ -77,7 +77,8 @@ export function createFitPanel(actions: BenchActions) {
     copyRow.hidden = !summary;
     copyNote.textContent = state.copied ?? '';
     if (!fit || !summary) {
-      const idle = state.refused ? `${state.refused.opened.name} was not read: state its ${state.refused.refusal.unit} unit in the capture panel.` : 'Open a capture to fit it.';
+      const stateIts = (unit: 'time' | 'value' | 'interval') => (unit === 'interval' ? 'sample interval' : `${unit} unit`);
+      const idle = state.refused ? `${state.refused.opened.name} was not read: state its ${stateIts(state.refused.refusal.unit)} in the capture panel.` : 'Open a capture to fit it.';
       replaceChildren(status, fitError ? h('p', { class: 'error-text' }, fitError) : h('p', { class: 'muted' }, state.capture ? 'Fitting…' : idle));
       table.replaceChildren();
       eventList.replaceChildren();

@@ -1,4 +1,4 @@
-// End to end: a fit that is not a measurement never sits beside a green badge, a refused unit can be stated in the window,
+// End to end: a fit that is not a measurement never sits beside a green badge, a refused unit or interval can be stated in the window,
 // the events of a record holding several are marked on the plot and chosen there or in the fit panel, and a fit that
 // gets no verdict against the design says why in the design panel, the worker never asked for one.
 
@@ -8,7 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { buildBench, CHROMIUM, dropFile, fitCount, hasChromium, launchChromium, outputDir, serveBench, waitForFit, waitForRefit, type ServedBench } from './benchHarness';
-import { ambiguousMillisecondsCapture, flatLineCapture, flatNoiseCapture, rcStepCapture, slowRingCapture, squareWaveCapture } from './generatedCaptures';
+import { ambiguousMillisecondsCapture, coarseTimeCapture, flatLineCapture, flatNoiseCapture, rcStepCapture, slowRingCapture, squareWaveCapture } from './generatedCaptures';
 
 if (!hasChromium) console.warn(`test/e2e/fitTrust.test.ts: skipped, no browser at ${CHROMIUM} (apt-get install chromium)`);
 
@@ -97,6 +97,28 @@ describe.skipIf(!hasChromium)('the fit badge, the unit choices and the events in
     const f0 = await f0Shown(page);
     expect(Math.abs(f0.value - sampleF0.value)).toBeLessThan(3 * Math.hypot(f0.stderr, sampleF0.stderr));
     await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-unit-stated.png') });
+  });
+
+  it('shows a file whose time stamps repeat as refused for its interval, and reads it once the interval is stated', async () => {
+    const file = join(folder, 'coarse-time.csv');
+    writeFileSync(file, coarseTimeCapture());
+    await dropFile(page, file, 'coarse-time.csv');
+    const refusal = page.locator('#capture-refusal');
+    await refusal.waitFor({ timeout: 30_000 });
+    expect(await refusal.getAttribute('data-unit')).toBe('interval');
+    expect(await refusal.innerText()).toContain("give the sample interval (the 'Sample interval' field)");
+    expect(await page.locator('#fit-status').innerText()).toBe('coarse-time.csv was not read: state its sample interval in the capture panel.');
+    await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-interval-refused.png') });
+    await page.locator('#sample-interval').fill('400n');
+    await page.locator('#sample-interval').press('Enter');
+    await waitForFit(page, 'coarse-time.csv');
+    expect(await page.locator('#capture-refusal').count()).toBe(0);
+    expect(await page.locator('#sample-interval').inputValue()).toBe('400n');
+    expect(await page.locator('#capture-warnings').innerText()).toContain("the 'Sample interval' field replaces the time stamps of column 'Time (s)'");
+    // The same samples on the rebuilt axis: the same natural frequency as the sample itself.
+    const f0 = await f0Shown(page);
+    expect(Math.abs(f0.value - sampleF0.value)).toBeLessThan(3 * Math.hypot(f0.stderr, sampleF0.stderr));
+    await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-interval-stated.png') });
   });
 
   it('fits a ring slower than the event search whole, with no events table, and says why', async () => {

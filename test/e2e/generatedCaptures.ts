@@ -33,6 +33,16 @@ export function ambiguousMillisecondsCapture(): string {
   return `${['Time (MS),CH1 (V)', ...scaled].join('\n')}\n`;
 }
 
+/** The input filter sample with its time stamps written with two significant digits: they repeat (its 400 ns steps are lost). */
+export function coarseTimeCapture(): string {
+  const [header, ...rows] = readFileSync(join(repoRoot, 'sample-captures/input-filter-step.csv'), 'utf8').trim().split('\n');
+  const coarse = rows.map((row) => {
+    const [t, v] = row.split(',');
+    return `${Number(t).toPrecision(2)},${v}`;
+  });
+  return `${[header, ...coarse].join('\n')}\n`;
+}
+
 /** The input filter sample twice in one file, as repeated acquisitions: the second at half the amplitude, after a blank line and the header. */
 export function twoSegmentCapture(): string {
   const [header, ...rows] = readFileSync(join(repoRoot, 'sample-captures/input-filter-step.csv'), 'utf8').trim().split('\n');

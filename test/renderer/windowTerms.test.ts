@@ -18,6 +18,12 @@ describe('inWindowTerms', () => {
     ['a.csv holds 3 events: a design is checked against one; set the fit window (--from, --to) around it', "a.csv holds 3 events: a design is checked against one; set the fit window ('Window from' and 'to') around it"],
     ['per V^2 Hz (give --voltage and --switching-frequency)', "per V^2 Hz (give 'Snubber voltage swing' and 'Switching frequency')"],
     ['--mode 3: the fit found 2 ringing modes', 'the mode chosen for R, L and C 3: the fit found 2 ringing modes'],
+    [
+      'no time column and no sample interval stated in the file; give the sample interval (option sampleInterval)',
+      "no time column and no sample interval stated in the file; give the sample interval (the 'Sample interval' field)",
+    ],
+    ["the sampleInterval option replaces the time stamps of column 'Time (s)': t = 0 s + i × 2 ns", "the 'Sample interval' field replaces the time stamps of column 'Time (s)': t = 0 s + i × 2 ns"],
+    ['the time unit is probably misread (state it with --time-unit or --sample-interval)', "the time unit is probably misread (state it with the 'Time in' choice or the 'Sample interval' field)"],
   ])('%s', (message, shown) => {
     expect(inWindowTerms(message)).toBe(shown);
   });
