@@ -2,7 +2,7 @@
 
 import { formatEngineering } from '../units/format';
 import type { DelimiterName, IgnoredSection, ImportSegment, ImportSummary, LineEnd, RowDrop, TextEncoding, TimeSource } from './importSummary';
-import type { ColumnPlan, Layout } from './layout';
+import { INTERVAL_OPTION, type ColumnPlan, type Layout } from './layout';
 import type { RowLines } from './segments';
 import type { Channel } from './types';
 
@@ -42,7 +42,8 @@ function writtenTimeUnit(column: ColumnPlan): string {
 function timeSource(layout: Layout, kept: KeptChannel): TimeSource {
   const index = kept.column.timeColumn;
   const source = index === null ? null : layout.columns[index];
-  if (index !== null && source !== null && source.kind !== 'timestamp') {
+  // The sampleInterval option builds the axis over a time column's own stamps too (assembleCapture's statedIntervalAxis).
+  if (index !== null && source !== null && source.kind !== 'timestamp' && layout.interval?.key !== INTERVAL_OPTION) {
     return { kind: 'column', column: source.heading || `column ${index + 1}`, index: index + 1, unit: writtenTimeUnit(source) };
   }
   // The layout refuses a capture without a time column and without an interval, so one is stated here.

@@ -143,12 +143,12 @@ export function createCapturePanel(actions: BenchActions) {
         h('dt', {}, 'Dropped rows'),
         h('dd', { class: channel.dropped ? 'attention' : '' }, channel.dropped ? `${channel.dropped.toLocaleString('en')} (empty or unreadable cells)` : 'none'),
       ),
-      // What the importer inferred, in the words the command line and the reports use.
+      // What the importer inferred, in the words the command line and the reports use (an option as the window's control).
       h('h3', {}, 'How the file was read'),
       h(
         'dl',
         { class: 'facts', id: 'capture-import' },
-        ...importRows(info.import).flatMap((row) => [h('dt', {}, capitalized(row.label)), h('dd', { id: `import-${row.label.replace(/ /g, '-')}` }, row.text)]),
+        ...importRows(info.import).flatMap((row) => [h('dt', {}, capitalized(row.label)), h('dd', { id: `import-${row.label.replace(/ /g, '-')}` }, inWindowTerms(row.text))]),
       ),
       info.warnings.length ? h('ul', { class: 'warnings', id: 'capture-warnings' }, ...info.warnings.map((w) => h('li', {}, inWindowTerms(w)))) : null,
     );

@@ -95,6 +95,7 @@ describe('time order', () => {
     for (const i of [0, 1, 150, 199]) expect(channel.time[i]).toBeCloseTo(5e-9 + i * 1e-9, 22);
     expect(capture.sampleInterval).toBe(1e-9);
     expect(capture.warnings).toContain("the sampleInterval option replaces the time stamps of column 'Time (s)': t = 5 ns + i × 1 ns");
+    expect(capture.importSummary.time).toEqual({ kind: 'interval', interval: 1e-9, from: 'option', key: null, line: null });
   });
 
   it('sorts with sortTime, keeping the first of a repeated stamp, with warnings', () => {

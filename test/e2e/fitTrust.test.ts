@@ -114,6 +114,7 @@ describe.skipIf(!hasChromium)('the fit badge, the unit choices and the events in
     await waitForFit(page, 'coarse-time.csv');
     expect(await page.locator('#capture-refusal').count()).toBe(0);
     expect(await page.locator('#sample-interval').inputValue()).toBe('400n');
+    expect(await page.locator('#import-time-axis').innerText()).toBe("interval 400 ns from the 'Sample interval' field");
     expect(await page.locator('#capture-warnings').innerText()).toContain("the 'Sample interval' field replaces the time stamps of column 'Time (s)'");
     // The same samples on the rebuilt axis: the same natural frequency as the sample itself.
     const f0 = await f0Shown(page);
