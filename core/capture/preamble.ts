@@ -108,6 +108,8 @@ function normaliseKey(key: string): { words: string; unitText: string | null } {
 
 /** A number, the space after it, then what follows it in the same cell. */
 const NUMBER_FIRST = /^([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)(\s*)(.*)$/;
+/** A label naming what a number is for, before it in the same cell ('Analog:2.00E-09', 'CH1: 2e-9'): left out. */
+const LABELLED = /^[A-Za-z][\w ]*?:\s*(?=[+-]?\.?\d)/;
 /** Text after a number that is meant as its unit: no digits and no separators ('ns', 'furlongs', 'µx'). */
 const UNIT_SHAPED = /^[^\s\d.,;:/+\-=()[\]]+$/;
 
@@ -119,11 +121,12 @@ interface TimeReading {
 }
 
 /**
- * The number and unit of one cell ('2 ns', '2e-9', '2.0E-9 s (500 MSa/s)', '2e-9 2e-9'); null when the cell is no
+ * The number and unit of one cell ('2 ns', '2e-9', '2.0E-9 s (500 MSa/s)', '2e-9 2e-9', 'Analog:2e-9'); null when the cell is no
  * number of time (a date, a clock time).
  */
 function readCell(cell: string, decimalComma: boolean): TimeReading | null {
-  const found = NUMBER_FIRST.exec((decimalComma ? cell.replace(',', '.') : cell).trim());
+  const bare = cell.trim().replace(LABELLED, '');
+  const found = NUMBER_FIRST.exec(decimalComma ? bare.replace(',', '.') : bare);
   if (!found) return null;
   const [, number, space, rest] = found;
   const token = rest.split(/\s+/)[0];

@@ -116,6 +116,8 @@ describe('preamble', () => {
     ['Sample interval (us),0.5', 0.5e-6],
     ['Sample Interval: 2 ns', 2e-9],
     ['increment 1e-6', 1e-6],
+    ['Sample Interval,Analog:2.00E-09,', 2e-9],
+    ['Sample Interval,CH1: 4 ns', 4e-9],
   ])("takes the interval from '%s'", (line, interval) => {
     const capture = parseCapture(`${line}\nVout (V)\n${data}`);
     expect(capture.sampleInterval).toBeCloseTo(interval, 20);
