@@ -1,6 +1,7 @@
 // The few dominant right singular vectors of a tall matrix, by Golub-Kahan bidiagonalization and implicit-shift bidiagonal QR.
 
 import { dot } from './boundedSvd';
+import { addScaled } from './vectorKernels';
 
 /** Singular values (all of them, largest first) and the right singular vectors of the first few. */
 export interface DominantRight {
@@ -119,15 +120,6 @@ function bidiagonalize(x: Float64Array, m: number, n: number, d: Float64Array, e
     }
   }
   return rightTau;
-}
-
-/**
- * target[to + j] += scale * source[from + j] for j < length. The reflections' inner loops, as a function of their
- * own: called thousands of times, it is compiled after a few calls, where the loops inlined in bidiagonalize ran
- * interpreted (a heap number per step) for the first decompositions of a command.
- */
-function addScaled(target: Float64Array, to: number, source: Float64Array, from: number, length: number, scale: number): void {
-  for (let j = 0; j < length; j++) target[to + j] += scale * source[from + j];
 }
 
 /** column <- V_B column, V_B = P_0 P_1 ... P_{n-3} the right reflectors (P_k acting on entries k+1..). */

@@ -2,6 +2,7 @@
 
 import type { NormalizedFitOptions } from './normalizeFitInput';
 import { jacobianColumns } from './numericJacobian';
+import { dotInOrder } from './vectorKernels';
 import type { FitStatus } from './types';
 import { sumOfSquares, weightedModel, weightedResiduals, type WeightedProblem } from './weightedProblem';
 
@@ -197,8 +198,8 @@ function scaledTrial(problem: WeightedProblem, box: ScaledBox, c: number, differ
     const gradient = new Float64Array(k);
     const residuals = point.residuals;
     for (let a = 0; a < k; a++) {
-      for (let b = a; b < k; b++) gram[a * k + b] = gram[b * k + a] = inOrderDot(columns[a], columns[b], n);
-      gradient[a] = inOrderDot(columns[a], residuals, n);
+      for (let b = a; b < k; b++) gram[a * k + b] = gram[b * k + a] = dotInOrder(columns[a], columns[b], n);
+      gradient[a] = dotInOrder(columns[a], residuals, n);
     }
     const equations = { gram, gradient };
     point.normal.set(key, equations);
@@ -359,14 +360,4 @@ function inwardAtBound(problem: WeightedProblem, p: readonly number[], scales: r
     inward.push(j);
   }
   return inward;
-}
-
-/**
- * sum a[i] b[i] for i < n, in order. A function of its own: called for every entry of every J^T J, it is compiled
- * after a few calls, where the loops inlined in the normal equations ran interpreted through a command's first trials.
- */
-function inOrderDot(a: Float64Array, b: Float64Array, n: number): number {
-  let sum = 0;
-  for (let i = 0; i < n; i++) sum += a[i] * b[i];
-  return sum;
 }

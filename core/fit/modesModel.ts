@@ -12,6 +12,7 @@ import { fillDampedBasis, RunSteps } from '../response/secondOrder';
 import type { FitSet } from './fitSet';
 import { LAYOUTS, type ParameterLayout } from './responseModel';
 import { gathered } from './indexVectors';
+import { dotInOrder } from './vectorKernels';
 
 /** How the response may start at t0, after the one-mode layout it extends. */
 export type StartConstraint = 'smooth' | 'continuous' | 'jump' | 'no-pre-event';
@@ -262,18 +263,6 @@ const NORMAL_PIVOT = 1e-9;
 /** Below this fraction of its own norm a column left after the earlier reflections counts as dependent (coefficient 0). */
 const RANK_TOLERANCE = 1e-12;
 
-/**
- * sum a[i] b[i] over the first n rows in use (all without `use`). A function of its own: called for every entry of
- * every Gram matrix, it is compiled after a few calls, where the loops inlined in normalSolve ran interpreted
- * through a command's first solves.
- */
-function dotInUse(a: Float64Array, b: ArrayLike<number>, use: Uint8Array | null, n: number): number {
-  let sum = 0;
-  if (use) for (let i = 0; i < n; i++) sum += use[i] ? a[i] * b[i] : 0;
-  else for (let i = 0; i < n; i++) sum += a[i] * b[i];
-  return sum;
-}
-
 /** min |A x - y| over the rows in use by Cholesky on the column-scaled normal equations; null when a pivot is too small. */
 function normalSolve(A: Float64Array[], y: ArrayLike<number>, use: Uint8Array | null): number[] | null {
   const r = A.length;
@@ -281,8 +270,8 @@ function normalSolve(A: Float64Array[], y: ArrayLike<number>, use: Uint8Array | 
   const g = new Float64Array(r * r);
   const rhs = new Float64Array(r);
   for (let p = 0; p < r; p++) {
-    for (let q = p; q < r; q++) g[p * r + q] = dotInUse(A[p], A[q], use, n);
-    rhs[p] = dotInUse(A[p], y, use, n);
+    for (let q = p; q < r; q++) g[p * r + q] = dotInOrder(A[p], A[q], n, use);
+    rhs[p] = dotInOrder(A[p], y, n, use);
   }
   const d = Array.from({ length: r }, (_, p) => Math.sqrt(g[p * r + p]));
   if (!d.every((v) => v > 0 && Number.isFinite(v))) return null;

@@ -104,15 +104,19 @@ export async function openCapture(
 
 /** Read the capture shown (or refused) again with the units the user states, in the same segment. */
 export function stateUnits(ctx: ActionContext, units: StatedUnits): Promise<void> {
-  const capture = ctx.store.state.capture;
-  return readAgain(ctx, { ...ctx.store.state.reading, units, segment: capture ? segmentRead(capture.info) : undefined });
+  return readRestated(ctx, { units });
 }
 
 /** Read the capture shown (or refused) again with the sample interval the user states ('' for the file's own axis). */
 export function stateInterval(ctx: ActionContext, sampleInterval: string): Promise<void> {
-  const capture = ctx.store.state.capture;
   const text = sampleInterval.trim();
-  return readAgain(ctx, { ...ctx.store.state.reading, sampleInterval: text === '' ? undefined : text, segment: capture ? segmentRead(capture.info) : undefined });
+  return readRestated(ctx, { sampleInterval: text === '' ? undefined : text });
+}
+
+/** Read the capture shown (or refused) again with `change` to how it is read, in the same segment. */
+function readRestated(ctx: ActionContext, change: Partial<CaptureReading>): Promise<void> {
+  const capture = ctx.store.state.capture;
+  return readAgain(ctx, { ...ctx.store.state.reading, ...change, segment: capture ? segmentRead(capture.info) : undefined });
 }
 
 /** Read another segment of a file of repeated acquisitions, in the units and interval stated. */

@@ -12,6 +12,7 @@ import { modesView } from './modesView';
 import { setupChecksView, setupOptionsForm } from './setupChecksView';
 import { transitionView } from './transitionView';
 import type { BenchActions } from '../actions';
+import type { UnitRefusal } from '../workerProtocol';
 
 /** The window's words for each row of fitResultRows (its name and symbol come from there). */
 const WORDS: Record<string, [symbol: string, words: string, title?: string]> = {
@@ -26,6 +27,9 @@ const WORDS: Record<string, [symbol: string, words: string, title?: string]> = {
   t0: ['t₀', 'event time'],
   tau: ['τ', 'time constant'],
 };
+
+/** What the capture panel asks for, by what a refused capture was refused for. */
+const REFUSED_FOR: Record<UnitRefusal['unit'], string> = { time: 'time unit', value: 'value unit', interval: 'sample interval' };
 
 export function createFitPanel(actions: BenchActions) {
   const { root, body } = card('Fit', 'fit-panel');
@@ -77,8 +81,7 @@ export function createFitPanel(actions: BenchActions) {
     copyRow.hidden = !summary;
     copyNote.textContent = state.copied ?? '';
     if (!fit || !summary) {
-      const stateIts = (unit: 'time' | 'value' | 'interval') => (unit === 'interval' ? 'sample interval' : `${unit} unit`);
-      const idle = state.refused ? `${state.refused.opened.name} was not read: state its ${stateIts(state.refused.refusal.unit)} in the capture panel.` : 'Open a capture to fit it.';
+      const idle = state.refused ? `${state.refused.opened.name} was not read: state its ${REFUSED_FOR[state.refused.refusal.unit]} in the capture panel.` : 'Open a capture to fit it.';
       replaceChildren(status, fitError ? h('p', { class: 'error-text' }, fitError) : h('p', { class: 'muted' }, state.capture ? 'Fitting…' : idle));
       table.replaceChildren();
       eventList.replaceChildren();

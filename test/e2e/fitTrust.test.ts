@@ -32,6 +32,24 @@ describe.skipIf(!hasChromium)('the fit badge, the unit choices and the events in
     sampleF0 = await f0Shown(page);
   });
 
+  /** Writes `text` as `name`, drops it on the window and waits for the capture panel's refusal of it. */
+  async function dropRefused(name: string, text: string) {
+    const file = join(folder, name);
+    writeFileSync(file, text);
+    await dropFile(page, file, name);
+    const refusal = page.locator('#capture-refusal');
+    await refusal.waitFor({ timeout: 30_000 });
+    return refusal;
+  }
+
+  /** Once a refused file's unit or interval is stated: it is fitted, no refusal stays, and the same samples give the sample's natural frequency. */
+  async function expectReadAsTheSample(name: string) {
+    await waitForFit(page, name);
+    expect(await page.locator('#capture-refusal').count()).toBe(0);
+    const f0 = await f0Shown(page);
+    expect(Math.abs(f0.value - sampleF0.value)).toBeLessThan(3 * Math.hypot(f0.stderr, sampleF0.stderr));
+  }
+
   afterAll(async () => {
     await browser?.close();
     await bench?.stop();
@@ -78,47 +96,31 @@ describe.skipIf(!hasChromium)('the fit badge, the unit choices and the events in
   });
 
   it('shows a file refused for its time unit with the one-line reason, and reads it once the unit is chosen', async () => {
-    const file = join(folder, 'ms.csv');
-    writeFileSync(file, ambiguousMillisecondsCapture());
-    await dropFile(page, file, 'ms.csv');
-    const refusal = page.locator('#capture-refusal');
-    await refusal.waitFor({ timeout: 30_000 });
+    const refusal = await dropRefused('ms.csv', ambiguousMillisecondsCapture());
     expect(await refusal.getAttribute('data-unit')).toBe('time');
     expect(await refusal.innerText()).toContain("unit 'MS' is ambiguous");
     expect(await page.locator('#fit-state').count()).toBe(0);
     expect(await page.locator('#fit-status').innerText()).toBe('ms.csv was not read: state its time unit in the capture panel.');
     await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-unit-refused.png') });
     await page.locator('#time-unit').selectOption('ms');
-    await waitForFit(page, 'ms.csv');
-    expect(await page.locator('#capture-refusal').count()).toBe(0);
+    await expectReadAsTheSample('ms.csv');
     expect(await page.locator('#time-unit').inputValue()).toBe('ms');
     expect(await page.locator('#import-time-axis').innerText()).toContain('every 400 ns');
-    // The same samples in other units: the same natural frequency as the sample itself.
-    const f0 = await f0Shown(page);
-    expect(Math.abs(f0.value - sampleF0.value)).toBeLessThan(3 * Math.hypot(f0.stderr, sampleF0.stderr));
     await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-unit-stated.png') });
   });
 
   it('shows a file whose time stamps repeat as refused for its interval, and reads it once the interval is stated', async () => {
-    const file = join(folder, 'coarse-time.csv');
-    writeFileSync(file, coarseTimeCapture());
-    await dropFile(page, file, 'coarse-time.csv');
-    const refusal = page.locator('#capture-refusal');
-    await refusal.waitFor({ timeout: 30_000 });
+    const refusal = await dropRefused('coarse-time.csv', coarseTimeCapture());
     expect(await refusal.getAttribute('data-unit')).toBe('interval');
     expect(await refusal.innerText()).toContain("give the sample interval (the 'Sample interval' field)");
     expect(await page.locator('#fit-status').innerText()).toBe('coarse-time.csv was not read: state its sample interval in the capture panel.');
     await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-interval-refused.png') });
     await page.locator('#sample-interval').fill('400n');
     await page.locator('#sample-interval').press('Enter');
-    await waitForFit(page, 'coarse-time.csv');
-    expect(await page.locator('#capture-refusal').count()).toBe(0);
+    await expectReadAsTheSample('coarse-time.csv');
     expect(await page.locator('#sample-interval').inputValue()).toBe('400n');
     expect(await page.locator('#import-time-axis').innerText()).toBe("interval 400 ns from the 'Sample interval' field");
     expect(await page.locator('#capture-warnings').innerText()).toContain("the 'Sample interval' field replaces the time stamps of column 'Time (s)'");
-    // The same samples on the rebuilt axis: the same natural frequency as the sample itself.
-    const f0 = await f0Shown(page);
-    expect(Math.abs(f0.value - sampleF0.value)).toBeLessThan(3 * Math.hypot(f0.stderr, sampleF0.stderr));
     await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-interval-stated.png') });
   });
 
