@@ -9,7 +9,7 @@ import { unpackParams, type ParameterLayout } from './responseModel';
  * multiple of the basis's recurrence run, so that every chunk's runs fall where a whole-span fill puts them and the
  * values are the same to the bit.
  */
-const POINT_CHUNK = 512 * RECURRENCE_RUN;
+export const POINT_CHUNK = 512 * RECURRENCE_RUN;
 /**
  * Relative room added to a chunk's bound on the model: the values come from a recurrence on each run's line, within
  * 1e-6 of a step of the recorded times (so within 1e-6 of e^(alpha h) of the bound at them) and a few ulps of rounding.
