@@ -4,7 +4,7 @@ import { formatEngineering } from '../units/format';
 import { printable } from '../units/unitText';
 import { MIN_SAMPLES } from './captureLimits';
 import { detectClipping, type Clipping } from './detectClipping';
-import { INTERVAL_OPTION, nameChannels, type ColumnPlan, type Layout } from './layout';
+import { INTERVAL_OPTION, nameChannels, preambleValueUnit, type ColumnPlan, type Layout } from './layout';
 import type { RowDrop } from './importSummary';
 import type { RowLines, StoredRows } from './segments';
 import { summarizeImport, type KeptChannel, type TextSource } from './summarizeImport';
@@ -84,8 +84,8 @@ function resolveFirstColumn(layout: Layout, store: StoredRows, lines: RowLines, 
     return;
   }
   first.kind = 'value';
-  first.unit = options.valueUnit?.unit ?? '';
-  first.scale = options.valueUnit?.scale ?? 1;
+  const stated = layout.preamble.valueUnit;
+  ({ unit: first.unit, scale: first.scale } = options.valueUnit ?? (stated ? preambleValueUnit(label(first), stated, layout.warnings) : { unit: '', scale: 1 }));
   for (const column of layout.columns) column.timeColumn = null;
   nameChannels(layout.columns, false);
   if (layout.interval === null) {

@@ -19,7 +19,7 @@ import {
 import { readConverterCodes } from './converterCodes';
 import { fixedFormats, type NumberFormat } from './cutLastLine';
 import { sideLine } from './sideMetadata';
-import { isBlankOrComment, readPreamble, uncommented, usableTimeUnit, type Preamble, type PreambleLine, type StatedTime } from './preamble';
+import { isBlankOrComment, readPreamble, uncommented, usableTimeUnit, type Preamble, type PreambleLine, type StatedTime, type StatedValueUnit } from './preamble';
 import { WHITESPACE, splitLine, trimTrailingEmpty } from './splitLine';
 import { printable, readUnitText } from '../units/unitText';
 
@@ -257,6 +257,7 @@ function planUnit(
 ): { unit: string; scale: number } {
   if (kind === 'ignored') return { unit: '', scale: 1 };
   const label = heading.heading || heading.name || `column ${index + 1}`;
+  if (kind === 'value' && heading.unitText === null && !options.valueUnit && preamble.valueUnit) return preambleValueUnit(label, preamble.valueUnit, warnings);
   // The preamble states no unit when the option does (readPreamble): the option is over it.
   const stated = preamble.timeUnit;
   const unitless = kind === 'maybe-time' || (kind === 'time' && heading.unitText === null);
@@ -269,6 +270,15 @@ function planUnit(
     warnings.push(`column '${printable(label)}' gives no unit: read in ${unit.text}, as '${printable(unit.key)}' on line ${unit.line} states`);
   }
   return { unit: unit.unit, scale: unit.scale };
+}
+
+/**
+ * The unit a channel whose header gives none is read in when the preamble states the channels' unit ('Vertical
+ * Units,V'), with a note: without it a channel has no unit, and its peak cannot be weighed for the cautions.
+ */
+export function preambleValueUnit(label: string, stated: StatedValueUnit, warnings: string[]): { unit: string; scale: number } {
+  warnings.push(`channel '${printable(label)}' gives no unit: read in ${stated.text}, as '${printable(stated.key)}' on line ${stated.line} states`);
+  return { unit: stated.unit, scale: stated.scale };
 }
 
 /**

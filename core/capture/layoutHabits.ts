@@ -78,7 +78,7 @@ export interface HeaderTiming {
 /** Start time and increment stated in header cells ('Start = -1e-5') or under the header names in the row below. */
 export function headerTiming(headings: string[], below: string[] | null, line: number, decimalComma: boolean): HeaderTiming {
   const cells = new Set<number>();
-  const timing: Preamble = { metadata: {}, interval: null, offset: null, timeUnit: null, warnings: [] };
+  const timing: Preamble = { metadata: {}, interval: null, offset: null, timeUnit: null, valueUnit: null, warnings: [] };
   headings.forEach((heading, c) => {
     const text = /[:=]/.test(heading) ? heading : below?.[c] ? `${heading}: ${below[c]}` : null;
     if (text === null) return;

@@ -37,6 +37,9 @@ const TIME_UNIT_KEYS = new Set([
   'x axis units',
 ]);
 
+/** Keys that state the unit of the vertical axis: of a channel whose header gives none ('Vertical Units,V'). */
+const VALUE_UNIT_KEYS = new Set(['vertical unit', 'vertical units', 'y unit', 'y units', 'yunit', 'yunits', 'y axis unit', 'y axis units']);
+
 export interface StatedTime {
   /** Value in s. */
   value: number;
@@ -58,12 +61,22 @@ export interface StatedTimeUnit extends StatedUnit {
   problem: string;
 }
 
+/** A channel unit a preamble line states, read ('Vertical Units,V'; 'Vertical Units,CH1:mV' for one channel). */
+export interface StatedValueUnit extends StatedUnit {
+  /** The key as written. */
+  key: string;
+  /** 1-based line. */
+  line: number;
+}
+
 export interface Preamble {
   metadata: Record<string, string>;
   interval: StatedTime | null;
   offset: StatedTime | null;
   /** The unit of the horizontal axis the preamble states, or null. */
   timeUnit: StatedTimeUnit | null;
+  /** The channels' unit the preamble states when it reads as one (V, mV, A...), or null: for channels whose header gives none. */
+  valueUnit: StatedValueUnit | null;
   warnings: string[];
 }
 
@@ -221,12 +234,28 @@ function statedTimeUnit(lines: PreambleLine[], delimiter: string): StatedTimeUni
 }
 
 /**
+ * The first line stating the unit of the vertical axis, when its first cell (after a channel label, 'CH1:V') reads as
+ * a channel's unit; a unit not read (divisions, a typing slip) gives none, and the channels stay without a unit.
+ */
+function statedValueUnit(lines: PreambleLine[], delimiter: string): StatedValueUnit | null {
+  for (const { text, line } of lines) {
+    const pair = splitKeyValue(uncommented(text), delimiter);
+    if (!pair || !VALUE_UNIT_KEYS.has(normaliseKey(pair[0]).words)) continue;
+    const written = pair[1].split(/[,;\t]/)[0].trim().replace(/^[A-Za-z][\w ]*?:\s*/, '');
+    const reading = readUnitText(written);
+    if (reading.kind !== 'known' || unitProblem(written, reading, false) !== '') return null;
+    return { text: written, scale: reading.scale, unit: reading.unit, key: pair[0], line };
+  }
+  return null;
+}
+
+/**
  * Metadata and stated timing of the preamble lines (blank and comment lines skipped, but for the time unit). Times
  * stated without a unit are in the preamble's time unit when it states one; `timeUnit` (the option) is over both.
  */
 export function readPreamble(lines: PreambleLine[], delimiter: string, decimalComma: boolean, timeUnit?: StatedUnit): Preamble {
   const stated = timeUnit ? null : statedTimeUnit(lines, delimiter);
-  const preamble: Preamble = { metadata: {}, interval: null, offset: null, timeUnit: stated, warnings: [] };
+  const preamble: Preamble = { metadata: {}, interval: null, offset: null, timeUnit: stated, valueUnit: statedValueUnit(lines, delimiter), warnings: [] };
   for (const { text, line } of lines) {
     if (isBlankOrComment(text)) continue;
     const pair = splitKeyValue(text, delimiter);

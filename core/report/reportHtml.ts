@@ -227,15 +227,16 @@ function verdictBlock(verdict: Verdict, designName: string, unit: string): strin
 }
 
 function cautionsBlock(record: BenchRecord): string {
-  const { fired, energies, charge, discharge } = record.cautions;
+  const { fired, energies, charge, discharge, peakNotWeighed } = record.cautions;
   const stored = [
     energies.capacitor && `capacitor ${formatEngineering(energies.capacitor.value, 'J')}`,
     energies.inductor && `inductor ${formatEngineering(energies.inductor.value, 'J')}`,
     charge && `charge ${formatEngineering(charge.value, 'C')}`,
     discharge && `bleeder to ${formatEngineering(discharge.toVoltage, 'V')} in ${formatEngineering(discharge.time.value, 's')}`,
   ].filter((x): x is string => Boolean(x));
-  if (!fired.length && !stored.length) return '';
+  if (!fired.length && !stored.length && !peakNotWeighed) return '';
   let html = '<div class="block"><h4>Cautions</h4>';
+  if (peakNotWeighed) html += `<p class="fineprint">Not weighed: ${e(peakNotWeighed)}.</p>`;
   // One box per measure (a 400 V node crosses several voltage thresholds at once).
   for (const checks of [...new Set(fired.map((c) => c.checks))]) {
     const group = fired.filter((c) => c.checks === checks);

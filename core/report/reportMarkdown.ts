@@ -89,6 +89,7 @@ function measurement(record: BenchRecord, notes: string[]): string[] {
   }
   lines.push(...setupChecksMarkdown(record.setupChecks));
   for (const warning of fit.warnings) lines.push('', `Warning: ${m(warning)}`);
+  if (record.cautions.peakNotWeighed) lines.push('', `Not weighed for the cautions: ${m(record.cautions.peakNotWeighed)}.`);
   for (const c of record.cautions.fired) {
     lines.push('', `**Caution**, ${m(c.checks)} ${m(formatEngineering(c.measured.value, c.measured.unit))}: ${m(c.message)} (${m(c.source)}, ${c.certainty})`);
   }

@@ -10,8 +10,8 @@ export interface CautionComponents {
 }
 
 /**
- * Peak |value| of the channel as a voltage when its unit is 'V', as a current when 'A'
- * (any other unit gives neither), with the capacitance and inductance when known.
+ * Peak |value| of the channel as a voltage when its unit is 'V', as a current when 'A' (any other unit gives
+ * neither, and says so: a silent pass would read as safe), with the capacitance and inductance when known.
  * Non-finite samples are skipped.
  */
 export function cautionInputsFromCapture(
@@ -23,11 +23,18 @@ export function cautionInputsFromCapture(
   const peak = peakMagnitude(values);
   if (peak !== undefined && unit === 'V') inputs.peakVoltage = peak;
   if (peak !== undefined && unit === 'A') inputs.peakCurrent = peak;
+  if (peak !== undefined && unit !== 'V' && unit !== 'A') inputs.peakNotWeighed = notWeighed(unit);
   const C = valueOf(components.C);
   const L = valueOf(components.L);
   if (C !== undefined) inputs.capacitance = C;
   if (L !== undefined) inputs.inductance = L;
   return inputs;
+}
+
+/** Why a channel's peak is not weighed against the voltage and current thresholds. */
+function notWeighed(unit: string): string {
+  const why = unit === '' ? 'the channel states no unit' : `the channel is in ${unit}`;
+  return `${why}, so its peak was weighed neither as a voltage nor as a current; state V or A with --value-unit`;
 }
 
 function peakMagnitude(values: ArrayLike<number>): number | undefined {

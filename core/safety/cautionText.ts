@@ -9,6 +9,7 @@ import type { CautionResult } from './evaluateCautions';
  */
 export function formatCautionsText(result: CautionResult): string {
   let text = result.fired.length ? `cautions (${result.fired.length})\n` : 'cautions: no threshold reached\n';
+  if (result.peakNotWeighed) text += `  not weighed: ${result.peakNotWeighed}\n`;
   for (const caution of result.fired) {
     const comparison = `${formatEngineering(caution.measured.value, caution.measured.unit)} (threshold ${formatEngineering(caution.threshold.value, caution.threshold.unit)})`;
     text += `  ! ${caution.checks} ${comparison}\n`;

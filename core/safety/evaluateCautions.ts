@@ -20,6 +20,8 @@ export interface CautionInputs {
   capacitorVoltage?: number;
   /** Resistance discharging the capacitor when power is removed, ohm. */
   bleederResistance?: number;
+  /** Why a capture's peak was weighed neither as a voltage nor as a current (its unit is neither V nor A). */
+  peakNotWeighed?: string;
 }
 
 export interface Caution {
@@ -39,6 +41,8 @@ export interface CautionResult {
   charge?: Quantity;
   /** Time for the bleeder to bring the capacitor to 50 V, when R, C and a voltage above 50 V are known. */
   discharge?: { time: Quantity; toVoltage: number };
+  /** Why the capture's peak was not weighed (a channel without V or A): no rule firing then says nothing of it. */
+  peakNotWeighed?: string;
   advice: string[];
   adviceSource: string;
   deferral: string;
@@ -104,6 +108,7 @@ export function evaluateCautions(inputs: CautionInputs): CautionResult {
   if (measures['discharge time'] !== undefined) {
     result.discharge = { time: quantity(measures['discharge time'], null, 's'), toVoltage: SAFE_DISCHARGE_VOLTAGE };
   }
+  if (inputs.peakNotWeighed) result.peakNotWeighed = inputs.peakNotWeighed;
   return result;
 }
 

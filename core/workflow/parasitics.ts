@@ -187,14 +187,15 @@ function edgeCrossCheck(edge: EdgeRequest, ringL: Quantity): EdgeCrossCheck {
 }
 
 /** The largest peak voltage and current over all captures: the node sees the worst of them. */
-function largestPeaks(inputs: readonly CautionInputs[]): Pick<CautionInputs, 'peakVoltage' | 'peakCurrent'> {
+function largestPeaks(inputs: readonly CautionInputs[]): Pick<CautionInputs, 'peakVoltage' | 'peakCurrent' | 'peakNotWeighed'> {
   const largest = (key: 'peakVoltage' | 'peakCurrent') => {
     const values = inputs.map((i) => i[key]).filter((v): v is number => v !== undefined);
     return values.length ? Math.max(...values) : undefined;
   };
   const peakVoltage = largest('peakVoltage');
   const peakCurrent = largest('peakCurrent');
-  return { ...(peakVoltage === undefined ? {} : { peakVoltage }), ...(peakCurrent === undefined ? {} : { peakCurrent }) };
+  const peakNotWeighed = inputs.find((i) => i.peakNotWeighed)?.peakNotWeighed;
+  return { ...(peakVoltage === undefined ? {} : { peakVoltage }), ...(peakCurrent === undefined ? {} : { peakCurrent }), ...(peakNotWeighed ? { peakNotWeighed } : {}) };
 }
 
 /** Mean sample interval, s, for the samples-per-period check; undefined with fewer than two samples. */

@@ -5,6 +5,7 @@ import { groupCautions, type CautionGroup } from '../../core/safety/cautionGroup
 import type { CautionResult } from '../../core/safety/evaluateCautions';
 import { h } from '../dom';
 import { showValue } from '../show';
+import { inWindowTerms } from '../windowTerms';
 
 /** The elements for a caution result; `idPrefix` keeps ids unique when two panels show one. */
 export function cautionView(result: CautionResult, idPrefix: string): HTMLElement[] {
@@ -19,11 +20,13 @@ export function cautionView(result: CautionResult, idPrefix: string): HTMLElemen
     ? h('p', { class: 'small', id: `${idPrefix}-stored` }, `Stored: ${energies.join('; ')}.`)
     : h('p', { class: 'small muted', id: `${idPrefix}-stored` }, 'Stored charge and energy not weighed: they need a voltage capture and a capacitance (a known part or a design).');
   const deferral = h('p', { class: 'deferral', id: `${idPrefix}-deferral` }, result.deferral);
+  const notWeighed = result.peakNotWeighed ? h('p', { class: 'caution-unweighed', id: `${idPrefix}-unweighed` }, `Not weighed: ${inWindowTerms(result.peakNotWeighed)}.`) : null;
   if (result.fired.length === 0) {
-    return [h('p', { class: 'muted', id: `${idPrefix}-none` }, 'No caution rule fires for this capture.'), stored, deferral];
+    return [h('p', { class: 'muted', id: `${idPrefix}-none` }, 'No caution rule fires for this capture.'), ...(notWeighed ? [notWeighed] : []), stored, deferral];
   }
   return [
     h('ul', { class: 'caution-list', id: `${idPrefix}-fired` }, ...groupCautions(result.fired).map(groupView)),
+    ...(notWeighed ? [notWeighed] : []),
     stored,
     h(
       'details',

@@ -415,3 +415,43 @@ describe('the time unit a preamble states for the horizontal axis', () => {
     expect(capture.channels[0].unit).toBe('V');
   });
 });
+
+describe("the channels' unit a preamble states for the vertical axis", () => {
+  /** A headerless table beside a preamble, as some scopes write a single channel: time, then the values. */
+  const preambled = (line: string) => `Record Length,${N}\n${line}\nSample Interval,1e-9\n${values.map((v, i) => `${i * 1e-9},${v}`).join('\n')}`;
+
+  it.each([
+    ['Vertical Units,V', 'V', 1, 'Vertical Units'],
+    ['Vertical Units,CH1:mV', 'V', 1e-3, 'Vertical Units'],
+    ['Y Unit: A', 'A', 1, 'Y Unit'],
+    ['# YUnits = uA', 'A', 1e-6, 'YUnits'],
+  ])("'%s' gives a channel without a unit its unit, with a note", (line, unit, scale, key) => {
+    const capture = parseCapture(preambled(line));
+    expect(capture.channels[0].unit).toBe(unit);
+    close(capture.channels[0].values[1], values[1] * scale);
+    expect(capture.warnings.join('\n')).toContain(`gives no unit: read in ${line.split(/[,:=]\s*/).pop()?.replace('CH1:', '')}, as '${key}' on line 2 states`);
+  });
+
+  it("is under the header's own unit and the --value-unit option", () => {
+    const header = parseCapture(`Vertical Units,mV\nTime (s),CH1 (V)\n${timedRows()}`);
+    expect(header.channels[0].unit).toBe('V');
+    close(header.channels[0].values[1], values[1]);
+    expect(header.warnings).toEqual([]);
+    const option = parseCapture(preambled('Vertical Units,mV'), { valueUnit: parseStatedUnit('A', false, '--value-unit') });
+    expect(option.channels[0].unit).toBe('A');
+    close(option.channels[0].values[1], values[1]);
+  });
+
+  it('one that reads as no channel unit (divisions, a time) leaves the channel without a unit, and the file is read', () => {
+    for (const line of ['Vertical Units,div', 'Vertical Units,s']) {
+      const capture = parseCapture(preambled(line));
+      expect(capture.channels[0].unit).toBe('');
+      close(capture.channels[0].values[1], values[1]);
+    }
+  });
+
+  it('gives a headerless first column that turns out a channel its unit too', () => {
+    const capture = parseCapture(`Vertical Units,V\nSample Interval,1e-9\n${values.join('\n')}`);
+    expect(capture.channels[0].unit).toBe('V');
+  });
+});

@@ -286,6 +286,15 @@ describe('renderReportCsv', () => {
   });
 });
 
+describe('a peak not weighed for the cautions', () => {
+  it('is said in HTML and Markdown', () => {
+    const note = 'the channel states no unit, so its peak was weighed neither as a voltage nor as a current; state V or A with --value-unit';
+    const record = sampleRecord({ cautions: { fired: [], energies: {}, peakNotWeighed: note } });
+    expect(renderReportHtml([record], options)).toContain(`Not weighed: ${note}.`);
+    expect(renderReportMarkdown([record])).toContain(`Not weighed for the cautions: ${note}.`);
+  });
+});
+
 describe('formatLogTable and reproduceCommand', () => {
   it('prints time, unit, regime, f0, zeta and verdict per record', () => {
     const table = formatLogTable(records.slice(0, 2)).split('\n');

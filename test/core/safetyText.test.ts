@@ -9,10 +9,19 @@ describe('cautionInputsFromCapture', () => {
   it.each([
     { unit: 'V', values: [1, -380.5, 12, Number.NaN], expected: { peakVoltage: 380.5 } },
     { unit: 'A', values: [0.5, -3, 2], expected: { peakCurrent: 3 } },
-    { unit: '', values: [1, 2], expected: {} },
     { unit: 'V', values: [], expected: {} },
   ])('peak |value| of a channel in "$unit"', ({ unit, values, expected }) => {
     expect(cautionInputsFromCapture(values, unit)).toEqual(expected);
+  });
+
+  it('says why the peak of a channel in neither V nor A is not weighed, naming the option that states its unit', () => {
+    const unitless = cautionInputsFromCapture([1, -400], '');
+    expect(unitless).toEqual({ peakNotWeighed: expect.stringContaining('the channel states no unit, so its peak was weighed neither as a voltage nor as a current') });
+    expect(unitless.peakNotWeighed).toContain('state V or A with --value-unit');
+    expect(cautionInputsFromCapture([1], 'W').peakNotWeighed).toContain('the channel is in W');
+    // Carried into the result: no rule firing does not read as a safe peak.
+    expect(evaluateCautions(unitless).peakNotWeighed).toBe(unitless.peakNotWeighed);
+    expect(evaluateCautions(cautionInputsFromCapture([400], 'V')).peakNotWeighed).toBeUndefined();
   });
 
   it('takes C and L from fitted quantities or plain numbers, ignoring non-positive ones', () => {
@@ -38,6 +47,14 @@ describe('formatCautionsText', () => {
   it('keeps a low-voltage result short: no advice, but always the deferral', () => {
     const text = formatCautionsText(evaluateCautions({ peakVoltage: 5 }));
     expect(text).toBe(`cautions: no threshold reached\n  ${evaluateCautions({}).deferral}\n`);
+  });
+
+  it('says when the peak was not weighed, under the header', () => {
+    const text = formatCautionsText(evaluateCautions(cautionInputsFromCapture([400], '')));
+    expect(text.split('\n').slice(0, 2)).toEqual([
+      'cautions: no threshold reached',
+      '  not weighed: the channel states no unit, so its peak was weighed neither as a voltage nor as a current; state V or A with --value-unit',
+    ]);
   });
 
   it('gives the bleeder discharge time', () => {

@@ -264,6 +264,22 @@ describe.skipIf(!hasChromium)('the window from one capture to the next, its caut
     expect(await page.locator('[data-caution="charge-45uc"]').count()).toBe(1);
   });
 
+  it('says when a capture\'s peak could not be weighed for want of a unit, in the window\'s words', async () => {
+    // The 400 V sample with its unit taken off: no rule can fire, and the panel must not read as safe.
+    const unitless = join(folder, 'pulse-jig-unitless.csv');
+    writeFileSync(unitless, readFileSync(join(samplesDir, 'pulse-jig-discharge.csv'), 'utf8').replace('CH1 (V)', 'CH1'));
+    await dropFile(page, unitless, 'pulse-jig-unitless.csv');
+    await waitForFit(page, 'pulse-jig-unitless.csv');
+    expect(await page.locator('#cautions-fired').count()).toBe(0);
+    expect(await page.locator('#cautions-unweighed').innerText()).toBe(
+      "Not weighed: the channel states no unit, so its peak was weighed neither as a voltage nor as a current; state V or A with the 'Values in' choice.",
+    );
+    await page.locator('#cautions-unweighed').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: join(outputDir, 'cautions-unweighed.png') });
+    await openSample(page, 'pulse-jig-discharge');
+    expect(await page.locator('#cautions-unweighed').count()).toBe(0);
+  });
+
   it('groups the cautions by quantity, strongest threshold first, each with its source, in a compact panel', async () => {
     const groups = page.locator('#cautions-fired > li');
     const names = await groups.evaluateAll((items) => items.map((li) => (li as HTMLElement).dataset.group));
