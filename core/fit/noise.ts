@@ -237,8 +237,28 @@ function deviationsFrom(values: Float64Array, centre: number): void {
 export function recordNoise(values: ArrayLike<number>, ofMeans = false): number {
   const fromDifferences = ofMeans ? estimateNoiseOfMeans(values) : estimateNoise(values);
   const head = stretchOf(values, 0, Math.max(HEAD_MIN, Math.floor(values.length * HEAD_FRACTION)));
+  if (trends(head)) return fromDifferences;
   const spread = robustSpread(head);
   return spread > HEAD_NOISE_GATE * fromDifferences ? Math.min(spread, HEAD_NOISE_CAP * fromDifferences) : fromDifferences;
+}
+
+/**
+ * A head whose steps go one way this often is inside the response (a ramp, the slope of a ring), and its spread is the
+ * signal's. Noise steps up or down alike (any stationary noise: its differences have no mean), so 13 or more of 15
+ * steps one way has odds under 1 % on a flat head of the 16 samples the shortest head holds (binomial), and far less
+ * on longer ones. A step between equal values counts neither way.
+ */
+const HEAD_TREND_SHARE = 0.85;
+
+/** Whether most of the steps between a head's samples go the same way (HEAD_TREND_SHARE). */
+function trends(head: ArrayLike<number>): boolean {
+  let up = 0;
+  let down = 0;
+  for (let i = 1; i < head.length; i++) {
+    if (head[i] > head[i - 1]) up++;
+    else if (head[i] < head[i - 1]) down++;
+  }
+  return up + down > 0 && Math.max(up, down) >= HEAD_TREND_SHARE * (up + down);
 }
 
 /** Share of the data's range below which a noise level is not trusted (a record with no measurable noise). */

@@ -73,6 +73,16 @@ describe('recordNoise', () => {
     }
   });
 
+  it('does not take a head whose samples climb for noise: a record that starts inside the response', () => {
+    // A ring whose record starts on its slope: the first 1 % climbs through 40 noise levels (white noise of rms 1).
+    for (const seed of [1, 2, 3]) {
+      const random = createRandom(seed);
+      const values = Float64Array.from({ length: 4000 }, (_, i) => 400 * Math.sin((2 * Math.PI * i) / 400 + 0.1) * Math.exp(-i / 2000) + random.normal());
+      expect(recordNoise(values)).toBe(estimateNoise(values));
+      expect(recordNoise(values)).toBeLessThan(1.15);
+    }
+  });
+
   it('does not take a head inside the response for noise beyond 4x the difference estimate', () => {
     const values = Float64Array.from({ length: 4000 }, (_, i) => 100 * Math.exp(-i / 50) + 0.01 * Math.sin(i * 2.1));
     expect(recordNoise(values)).toBeLessThanOrEqual(4 * estimateNoise(values));
