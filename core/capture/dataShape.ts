@@ -2,6 +2,7 @@
 
 import { cellText, GROUPED_IN_THREES, groupingCause, isTimestamp, slowCellValue } from './cellValue';
 import { isBlankOrComment } from './preamble';
+import { readUnitText } from '../units/unitText';
 import { WHITESPACE, splitLine } from './splitLine';
 
 export interface DataShape {
@@ -90,6 +91,31 @@ export function groupedCellAnyDelimiter(text: string): string | null {
   for (const delimiter of CANDIDATES) {
     const cell = groupedCell(text, delimiter);
     if (cell !== null) return cell;
+  }
+  return null;
+}
+
+/** A number with a unit written after it in the same cell ('-1.0000us', '0.35 mV'): the number, then the unit. */
+const NUMBER_AND_UNIT = /^\s*"?[+-]?(?:\d+[.,]?\d*|[.,]\d+)(?:[eE][+-]?\d+)?\s*([^\s\d.,;"+-][^\s\d;"]*)"?\s*$/;
+
+/**
+ * The first cell of a line, split at any of the candidate delimiters, that is a number with a unit read as known written
+ * after it, when every cell of that split is one or a number: a row of data whose cells carry their units, which the
+ * reader does not take; else null.
+ */
+export function unitSuffixedCell(text: string): string | null {
+  for (const delimiter of CANDIDATES) {
+    const cells = splitLine(text, delimiter).filter((c) => c.trim() !== '');
+    if (cells.length < 2 && delimiter !== WHITESPACE) continue;
+    let found: string | null = null;
+    const allRead = cells.every((cell) => {
+      const unit = NUMBER_AND_UNIT.exec(cell)?.[1];
+      if (unit === undefined) return slowCellValue(cell, true) !== null;
+      if (readUnitText(unit).kind !== 'known') return false;
+      found ??= cell;
+      return true;
+    });
+    if (allRead && found !== null) return found;
   }
   return null;
 }

@@ -53,7 +53,7 @@ import { cutOffReason } from './cutLastLine';
 import { ByteRowReader } from './byteRowReader';
 import { ColumnStore } from './columnStore';
 import { groupingCause } from './cellValue';
-import { dataShape, groupedCell, groupedCellAnyDelimiter, sameShape, type DataShape } from './dataShape';
+import { dataShape, groupedCell, groupedCellAnyDelimiter, sameShape, unitSuffixedCell, type DataShape } from './dataShape';
 import { decideLayout, rowDelimiter, type Layout } from './layout';
 import { MAX_LINE_LENGTH, checkLastLine, checkUnfinishedLine, lineTooLong } from './captureLimits';
 import { LineMap } from './lineMap';
@@ -67,6 +67,7 @@ import { SIDE_SETTLING_ROWS, isSideRow, sideRowsAbove, sideWidth, withoutSide } 
 import { chooseSegment, findSegments, linesOfSpan, rowsOfSpan } from './segments';
 import { TrailingSections } from './trailingSections';
 import { CaptureError, type Capture, type CaptureOptions } from './types';
+import { printable } from '../units/unitText';
 
 /** Data rows of the same shape needed in a row before the table is taken to have started. */
 const CONFIRMING_ROWS = 3;
@@ -600,6 +601,12 @@ function noRowsOfNumbers(lines: number, head: PreambleLine[]): CaptureError {
     if (++searched > GROUPED_SEARCH_LINES) break;
     const cell = groupedCellAnyDelimiter(text);
     if (cell !== null) return new CaptureError(`${message}; line ${line} holds '${cell.trim()}': ${groupingCause(cell)}`);
+    const withUnit = unitSuffixedCell(text);
+    if (withUnit !== null) {
+      return new CaptureError(
+        `${message}; line ${line} holds '${printable(withUnit.trim())}': a unit written after each number is not read; export the values as plain numbers, with the units in the column headers ('Time (us)')`,
+      );
+    }
   }
   return new CaptureError(message);
 }

@@ -180,6 +180,15 @@ describe('a number written with a thousands separator', () => {
     expect(error.message).toBe(`no rows of numbers found in 41 line(s); line 2 holds '1.000,5': ${cause('a point')}`);
   });
 
+  it('every cell written with its unit after the number: no table, and the first such line named', () => {
+    const rows = Array.from({ length: 40 }, (_, i) => `${(i * 0.004).toFixed(4)}us,${(i % 7) * 10}.5mV`).join('\n');
+    expect(captureError(`Time,CH1\n${rows}\n`).message).toBe(
+      "no rows of numbers found in 41 line(s); line 2 holds '0.0000us': a unit written after each number is not read; export the values as plain numbers, with the units in the column headers ('Time (us)')",
+    );
+    // A word after a number that is no unit is not taken for one.
+    expect(captureError('Item,Count\nbolts,12 apples\n').message).toBe('no rows of numbers found in 2 line(s)');
+  });
+
   it('a footer of settings after the table is still left out, whatever its numbers', () => {
     const capture = parseCapture(`${grouped(';', (i) => mV(i))}Points;10,000.0\n`);
     expect(capture.channels[0].values.length).toBe(40);
