@@ -234,14 +234,17 @@ function statedTimeUnit(lines: PreambleLine[], delimiter: string): StatedTimeUni
 }
 
 /**
- * The first line stating the unit of the vertical axis, when its first cell (after a channel label, 'CH1:V') reads as
- * a channel's unit; a unit not read (divisions, a typing slip) gives none, and the channels stay without a unit.
+ * The first line stating the unit of the vertical axis, when it holds one cell (after a channel label, 'CH1:V') and that
+ * reads as a channel's unit. A unit not read (divisions, a typing slip) gives none, and so do several ('V,A': which
+ * channel has which is not sure): the channels then stay without a unit.
  */
 function statedValueUnit(lines: PreambleLine[], delimiter: string): StatedValueUnit | null {
   for (const { text, line } of lines) {
     const pair = splitKeyValue(uncommented(text), delimiter);
     if (!pair || !VALUE_UNIT_KEYS.has(normaliseKey(pair[0]).words)) continue;
-    const written = pair[1].split(/[,;\t]/)[0].trim().replace(/^[A-Za-z][\w ]*?:\s*/, '');
+    const cells = pair[1].split(/[,;\t]/).map((c) => c.trim()).filter((c) => c !== '');
+    if (cells.length !== 1) return null;
+    const written = cells[0].replace(/^[A-Za-z][\w ]*?:\s*/, '');
     const reading = readUnitText(written);
     if (reading.kind !== 'known' || unitProblem(written, reading, false) !== '') return null;
     return { text: written, scale: reading.scale, unit: reading.unit, key: pair[0], line };

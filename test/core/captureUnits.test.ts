@@ -442,8 +442,8 @@ describe("the channels' unit a preamble states for the vertical axis", () => {
     close(option.channels[0].values[1], values[1]);
   });
 
-  it('one that reads as no channel unit (divisions, a time) leaves the channel without a unit, and the file is read', () => {
-    for (const line of ['Vertical Units,div', 'Vertical Units,s']) {
+  it('one that reads as no channel unit (divisions, a time), or several, leaves the channel without a unit, and the file is read', () => {
+    for (const line of ['Vertical Units,div', 'Vertical Units,s', 'Vertical Units,V,A']) {
       const capture = parseCapture(preambled(line));
       expect(capture.channels[0].unit).toBe('');
       close(capture.channels[0].values[1], values[1]);
