@@ -40,7 +40,7 @@ export function formatBatchTable(outcomes: readonly BatchOutcome[]): string {
       briefValue(s, 'zeta'),
       briefValue(s, 'Q'),
       noVerdict ? 'none' : verdict ? (verdict.pass ? 'pass' : 'FAIL') : '-',
-      cautions.fired.length ? cautions.fired.map((c) => c.id).join(',') : '-',
+      cautions.fired.length ? cautions.fired.map((c) => c.id).join(',') : cautions.peakNotWeighed ? 'not weighed' : '-',
     ];
   });
   const widths = header.map((h, c) => Math.max(h.length, ...rows.filter((r) => r.length > 2).map((r) => r[c].length)));
@@ -49,5 +49,8 @@ export function formatBatchTable(outcomes: readonly BatchOutcome[]): string {
   const refusals = outcomes.flatMap((o) => (isMeasured(o) && o.noVerdict ? [`${escapeControls(o.file)}: no verdict: ${o.noVerdict}`] : []));
   // A setup check's refusal (the capture cannot support the answer), one line each below the table too.
   const setupRefusals = outcomes.flatMap((o) => (isMeasured(o) ? o.setupChecks.filter((c) => c.level === 'refusal').map((c) => `${escapeControls(o.file)}: setup refused: ${c.message}`) : []));
-  return [line(header), ...rows.map(line), ...refusals, ...setupRefusals].map((l) => `${l}\n`).join('');
+  // A peak not weighed for the cautions is said once below the table, with the first file's reason.
+  const reasons = outcomes.flatMap((o) => (isMeasured(o) && o.cautions.peakNotWeighed ? [o.cautions.peakNotWeighed] : []));
+  const notWeighed = reasons.length ? [`cautions not weighed for ${reasons.length} file(s): ${reasons[0]}`] : [];
+  return [line(header), ...rows.map(line), ...refusals, ...setupRefusals, ...notWeighed].map((l) => `${l}\n`).join('');
 }

@@ -122,3 +122,19 @@ describe('a measurement logged with a stated unit', () => {
     expect(html).toMatch(/<svg/);
   });
 });
+
+describe('a channel without a unit, for the cautions', () => {
+  it('fit and batch say its peak was not weighed, naming --value-unit, and weigh it once the option states V', async () => {
+    const folder = mkdtempSync(path.join(tmpdir(), 'ringbench-unweighed-'));
+    const file = path.join(folder, 'bare.csv');
+    writeFileSync(file, `Time (s),CH1\n${ROWS.map(([t, v]) => `${t},${v}`).join('\n')}\n`);
+    const fit = await run(['fit', file]);
+    expect(fit.code).toBe(0);
+    expect(fit.out).toContain('  not weighed: the channel states no unit, so its peak was weighed neither as a voltage nor as a current; state V or A with --value-unit\n');
+    const batch = await run(['batch', folder]);
+    expect(batch.out.split('\n')[1]).toMatch(/^bare\.csv\s.*\snot weighed$/);
+    expect(batch.out).toContain('cautions not weighed for 1 file(s): the channel states no unit');
+    const stated = await run(['fit', file, '--value-unit', 'V', '--json']);
+    expect(JSON.parse(stated.out).cautions.peakNotWeighed).toBeUndefined();
+  });
+});
