@@ -142,7 +142,7 @@ const SLOPE_TEST_STEPS = 2;
  */
 export function estimateNoise(values: ArrayLike<number>, start = 0, end = values.length): number {
   if (end - start < 3) return 0;
-  const step = quantisationStep(values.length > STEP_SAMPLES ? stretchOf(values, start, start + STEP_SAMPLES) : values);
+  const step = gridStep(values, start);
   const first = differenceNoise(values, start, end, 1);
   const third = end - start >= 4 ? differenceNoise(values, start, end, 3) : first;
   const slopeIn = first > SLOPE_IN_DIFFERENCES * third && third >= SLOPE_TEST_STEPS * step;
@@ -158,7 +158,7 @@ export function estimateNoise(values: ArrayLike<number>, start = 0, end = values
  */
 export function estimateNoiseOfMeans(values: ArrayLike<number>): number {
   if (values.length < 4) return estimateNoise(values);
-  return Math.max(differenceNoise(values, 0, values.length, 2), quantisationFloor(values, 0));
+  return Math.max(differenceNoise(values, 0, values.length, 2), gridStep(values, 0) / Math.sqrt(12));
 }
 
 /** The variance of a difference of white noise, in sigma^2: the sum of the squared binomial weights (1 1, 1 2 1, 1 3 3 1). */
@@ -170,7 +170,7 @@ function differenceNoise(values: ArrayLike<number>, start: number, end: number, 
 }
 
 /**
- * |first| or |second differences| over [start, end), at most 20000 of them (evenly strided). A function of its own for
+ * |first|, |second| or |third differences| over [start, end), at most 20000 of them (evenly strided). A function of its own for
  * the reason deviationsFrom is: a fit reads the noise of one record several times.
  */
 function absoluteDifferences(values: ArrayLike<number>, start: number, end: number, order: 1 | 2 | 3): Float64Array {
@@ -186,10 +186,12 @@ function absoluteDifferences(values: ArrayLike<number>, start: number, end: numb
   return diffs;
 }
 
-/** q / sqrt(12) for a record on a grid of step q (0 off a grid): the noise a quantised record has at least. */
-function quantisationFloor(values: ArrayLike<number>, start: number): number {
-  const q = quantisationStep(values.length > STEP_SAMPLES ? stretchOf(values, start, start + STEP_SAMPLES) : values);
-  return q / Math.sqrt(12);
+/**
+ * The quantisation step q of a record's first STEP_SAMPLES from `start` (0 off a grid); q / sqrt(12) is the noise a
+ * quantised record has at least.
+ */
+function gridStep(values: ArrayLike<number>, start: number): number {
+  return quantisationStep(values.length > STEP_SAMPLES ? stretchOf(values, start, start + STEP_SAMPLES) : values);
 }
 
 /**
