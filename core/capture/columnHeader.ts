@@ -22,6 +22,12 @@ const DECIBELS = /^db/i;
 /** 'Time in ms', 'C1 in V', or a bare 'in s' (a name left empty), the unit the last word. */
 const IN_UNIT = /^(?:(.*?)\s+)?in\s+(\S+)$/i;
 const TIME_NAME = /^(?:t|x|sec|secs|seconds?|timestamp|zeit|tempo)$|^time/i;
+/**
+ * A heading longer than this is a name, never read for a unit: the patterns above backtrack through runs of spaces,
+ * in time growing with the square of a cell's length (a 300 000-character heading of two words took minutes), and
+ * no instrument writes a heading of more than a few dozen characters.
+ */
+const LONGEST_HEADING = 256;
 
 /** True for a column name that means time ('Time', 't', 'TimeV_S', 'Time - V_C', 'timestamp'). */
 export function isTimeName(name: string): boolean {
@@ -45,6 +51,7 @@ function readsAsUnit(heading: ColumnHeading): boolean {
 
 export function parseColumnHeading(cell: string): ColumnHeading {
   const text = cell.trim();
+  if (text.length > LONGEST_HEADING) return { name: text, unitText: null, reading: null };
   const bracketed = BRACKETED.exec(text);
   if (bracketed) return withUnit(bracketed[1], bracketed[2]);
   const slashed = SLASHED.exec(text);
@@ -72,9 +79,10 @@ export function isUnitsRow(cells: string[]): boolean {
   return filled.length > 0 && filled.every((c) => readUnitText(c).kind !== 'unknown');
 }
 
-/** The unit of a units-row cell without its brackets ('(mV)' -> 'mV'). */
+/** The unit of a units-row cell without its brackets ('(mV)' -> 'mV'); a cell longer than a heading is left as it is. */
 export function unitCellText(cell: string): string {
-  return cell.trim().replace(/^[([]\s*|\s*[)\]]$/g, '');
+  const text = cell.trim();
+  return text.length > LONGEST_HEADING ? text : text.replace(/^[([]\s*|\s*[)\]]$/g, '');
 }
 
 /**

@@ -95,8 +95,18 @@ export function groupedCellAnyDelimiter(text: string): string | null {
   return null;
 }
 
-/** A number with a unit written after it in the same cell ('-1.0000us', '0.35 mV'): the number, then the unit. */
-const NUMBER_AND_UNIT = /^\s*"?[+-]?(?:\d+[.,]?\d*|[.,]\d+)(?:[eE][+-]?\d+)?\s*([^\s\d.,;"+-][^\s\d;"]*)"?\s*$/;
+/**
+ * A number at the start of a cell, then what may follow it as a unit ('-1.0000us', '0.35 mV'). Two patterns matched in
+ * turn, neither able to backtrack over the other's part: as one, a long cell of digits took time quadratic in its length.
+ */
+const LEADING_NUMBER = /^\s*"?[+-]?(?:\d+(?:[.,]\d*)?|[.,]\d+)(?:[eE][+-]?\d+)?/;
+const UNIT_AFTER = /^\s*([^\s\d.,;"+-][^\s\d;"]*)"?\s*$/;
+
+/** The unit written after a number in a cell, or undefined when the cell is not a number followed by a unit-shaped word. */
+function unitAfterNumber(cell: string): string | undefined {
+  const number = LEADING_NUMBER.exec(cell);
+  return number ? UNIT_AFTER.exec(cell.slice(number[0].length))?.[1] : undefined;
+}
 
 /**
  * The first cell of a line, split at any of the candidate delimiters, that is a number with a unit read as known written
@@ -109,7 +119,7 @@ export function unitSuffixedCell(text: string): string | null {
     if (cells.length < 2 && delimiter !== WHITESPACE) continue;
     let found: string | null = null;
     const allRead = cells.every((cell) => {
-      const unit = NUMBER_AND_UNIT.exec(cell)?.[1];
+      const unit = unitAfterNumber(cell);
       if (unit === undefined) return slowCellValue(cell, true) !== null;
       if (readUnitText(unit).kind !== 'known') return false;
       found ??= cell;

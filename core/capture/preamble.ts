@@ -91,18 +91,46 @@ export function isBlankOrComment(text: string): boolean {
   return t === '' || t[0] === '#' || t[0] === ';' || t[0] === '%' || t.startsWith('//');
 }
 
-/** Key and value of one preamble line, or null when the line is not key/value shaped. */
+/**
+ * Key and value of one preamble line, or null when the line is not key/value shaped. Read by scanning, not by one
+ * regular expression with lazy groups: those took time quadratic or worse in a long line's length (a 400 kB line of
+ * words and spaces ran for minutes).
+ */
 export function splitKeyValue(text: string, delimiter: string): [string, string] | null {
   // 'Key: value' or 'Key = value' when the ':' or '=' comes before any cell separator.
-  const separated = /^\s*([^:=,;\t]+?)\s*[:=]\s*(.*?)\s*$/.exec(text);
-  if (separated) return [separated[1], separated[2]];
+  const mark = text.search(/[:=,;\t]/);
+  if (mark > 0 && (text[mark] === ':' || text[mark] === '=')) {
+    const key = text.slice(0, mark).trim();
+    if (key !== '') return [key, text.slice(mark + 1).trim()];
+  }
   const separators = [delimiter, '\t', ';', ','].filter((d) => d !== '' && d !== WHITESPACE && text.includes(d));
   for (const separator of separators) {
     const cells = trimTrailingEmpty(splitLine(text, separator)).map((c) => c.trim());
     if (cells.length >= 2 && cells[0] !== '') return [cells[0], cells.slice(1).join(separator)];
   }
-  const spaced = /^\s*(.*?[^\s\d.+-].*?)\s+([-+]?\.?\d.*?)\s*$/.exec(text);
-  return spaced ? [spaced[1], spaced[2]] : null;
+  return spacedKeyValue(text.trim());
+}
+
+/** A character that can stand in a number ('-1.5e+3' less the e): a key holds at least one other. */
+const NUMBER_CHARACTER = /[\s\d.+-]/;
+/** The start of a number: an optional sign, an optional point, a digit. */
+const NUMBER_START = /^[-+]?\.?\d/;
+
+/**
+ * 'Sample interval 2e-9' or 'Points   2500': the key runs to the first whitespace, after a character no number holds,
+ * that a number follows; the value is the rest. Null when there is none.
+ */
+function spacedKeyValue(line: string): [string, string] | null {
+  let i = 0;
+  while (i < line.length && NUMBER_CHARACTER.test(line[i])) i++;
+  for (i++; i < line.length; i++) {
+    if (!/\s/.test(line[i])) continue;
+    let next = i;
+    while (next < line.length && /\s/.test(line[next])) next++;
+    if (NUMBER_START.test(line.slice(next, next + 3))) return [line.slice(0, i), line.slice(next)];
+    i = next;
+  }
+  return null;
 }
 
 /** The key's words (lower case, unit removed) and the unit of its last bracket ('Sample interval (us)'; not '(CH1)'). */

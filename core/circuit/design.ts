@@ -1,7 +1,7 @@
 // The design file of a circuit under test (our own JSON layout): reading with field-path errors, writing.
 
 import { InputError } from '../inputError';
-import { parseQuantityText } from '../units/parseQuantity';
+import { parseQuantityText, quotedValue } from '../units/parseQuantity';
 import { COMPONENT_NAMES, COMPONENT_UNITS, type ComponentName, type Topology } from './relations';
 import { DECISION_RULE_NAMES, type DecisionRuleSpec, type QuantityLimits } from './decisionRule';
 import { parseJsonStrictly } from './designJson';
@@ -298,7 +298,7 @@ function measure(value: unknown, path: string, unit: string): number {
     try {
       return parseQuantityText(value, unit);
     } catch (e) {
-      throw new DesignError(path, `could not read '${value}' as a value in ${unit} (${(e as Error).message})`);
+      throw new DesignError(path, `could not read ${quotedValue(value)} as a value in ${unit} (${(e as Error).message})`);
     }
   }
   throw new DesignError(path, value === undefined ? 'is missing' : `must be a number or a text such as '4.7u' (${unit})`);

@@ -3,12 +3,21 @@
 import { InputError } from '../inputError';
 
 import { PREFIX_EXPONENT, canonicalUnit } from './prefixes';
+import { printable } from './unitText';
+
+/** Characters of a value a message quotes: a value is a few characters, and a file may hold a line of megabytes. */
+const QUOTED_LENGTH = 60;
+
+/** A value as a message quotes it: its first QUOTED_LENGTH characters (then '...'), control characters escaped. */
+export function quotedValue(text: string): string {
+  return `'${printable(text.length > QUOTED_LENGTH ? `${text.slice(0, QUOTED_LENGTH)}...` : text)}'`;
+}
 
 /** Text that is not a valid value: the message quotes the text and says what was expected. */
 export class UnitError extends InputError {
   readonly text: string;
   constructor(text: string, expected: string) {
-    super(`'${text}' is not a valid value: expected ${expected}`, text);
+    super(`${quotedValue(text)} is not a valid value: expected ${expected}`, text);
     this.name = 'UnitError';
     this.text = text;
   }

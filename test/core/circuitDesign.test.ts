@@ -96,6 +96,13 @@ describe('parseDesign', () => {
     { label: 'text far larger than a design', text: withChange((d) => (d.notes = 'x'.repeat(1 << 20))), path: '', message: /over 1 MiB: a design file is a few kilobytes/ },
     { label: 'a capacitance no bench circuit holds', text: withChange((d) => (d.components.C.value = 1e-320)), path: 'components.C.value', message: /outside what a bench circuit holds/ },
     { label: 'an inductance no bench circuit holds', text: withChange((d) => (d.components.L.value = '10k')), path: 'components.L.value', message: /1\.00e\+4 H is outside.*\(1e-15 to 1000 H\)/ },
+    // A long value is quoted by its first 60 characters: the message stays one short line.
+    {
+      label: 'a value of 200 000 digits',
+      text: withChange((d) => (d.components.L.value = `${'1'.repeat(200_000)}x`)),
+      path: 'components.L.value',
+      message: new RegExp(`^design components\\.L\\.value: could not read '1{60}\\.\\.\\.' as a value in H \\('1{60}\\.\\.\\.' is not a valid value: expected .{50,200}\\)$`),
+    },
   ];
   it.each(faults)('throws DesignError at "$path" for $label', ({ text, path, message }) => {
     let caught: unknown;

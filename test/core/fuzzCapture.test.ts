@@ -275,3 +275,34 @@ describe('the importer on arbitrary input (fast-check)', () => {
     );
   });
 });
+
+describe('the importer on long lines built to make pattern matching backtrack', () => {
+  // Each a line of 300 000 characters or so (a third of the 1 MiB line limit): a preamble line of words and spaces ran
+  // for minutes and a comment of '(' for 35 s before key/value lines were read by scanning (core/capture/preamble.ts),
+  // and a cell of digits ended by a word for 11 s in the no-table message (core/capture/dataShape.ts). HANG_MS bounds each.
+  const REPEATS = 150_000;
+  const PATTERNS: Record<string, string> = {
+    'words and spaces': 'x '.repeat(REPEATS),
+    'a key, spaces, a word': `Key${' '.repeat(2 * REPEATS)}value`,
+    'opening brackets': '('.repeat(2 * REPEATS),
+    'digits then a word': `${'1'.repeat(REPEATS)}x,${'2'.repeat(REPEATS)}y`,
+    'digits and spaces': '1 '.repeat(REPEATS),
+    'colons': 'a:'.repeat(REPEATS),
+    'points': '1.'.repeat(REPEATS),
+    'unit brackets': '(s)'.repeat(REPEATS),
+  };
+  const rows = Array.from({ length: 200 }, (_, i) => `${i * 1e-9},${Math.sin(i / 5) * Math.exp(-i / 60)}`).join('\n');
+
+  it.each(Object.entries(PATTERNS))('%s: before the header, in it, amid the rows, after them, or as the only row', (_, line) => {
+    const half = rows.split('\n');
+    for (const text of [
+      `${line}\nTime (s),CH1 (V)\n${rows}\n`,
+      `Time (s),${line}\n${rows}\n`,
+      `Time (s),CH1 (V)\n${half.slice(0, 100).join('\n')}\n1e-7,${line}\n${half.slice(100).join('\n')}\n`,
+      `Time (s),CH1 (V)\n${rows}\n${line}\n`,
+      `a,b\n${line}\n`,
+    ]) {
+      check(text);
+    }
+  });
+});

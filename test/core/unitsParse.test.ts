@@ -1,7 +1,7 @@
 // Reading typed values ('470n', '4k7', '2.2uH') and unit tokens ('mV', 'µs') into SI base units.
 
 import { describe, expect, it } from 'vitest';
-import { parseQuantityText, UnitError } from '../../core/units/parseQuantity';
+import { parseQuantityText, quotedValue, UnitError } from '../../core/units/parseQuantity';
 import { readUnitText } from '../../core/units/unitText';
 
 /** Equal to the nearest double of the exact decimal value (relative 1e-15). */
@@ -78,6 +78,14 @@ describe('parseQuantityText', () => {
     expect(error.message).toContain(`'${text}'`);
     expect(error.message).toContain('expected');
     if (unit) expect(error.message).toContain(unit);
+  });
+});
+
+describe('quotedValue', () => {
+  it('quotes a value as typed, a long one by its first 60 characters, control characters escaped', () => {
+    expect(quotedValue('4.7u')).toBe("'4.7u'");
+    expect(quotedValue('1'.repeat(1 << 20))).toBe(`'${'1'.repeat(60)}...'`);
+    expect(quotedValue('4\u0007u')).toBe("'4\\x07u'");
   });
 });
 
