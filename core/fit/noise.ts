@@ -239,7 +239,7 @@ function deviationsFrom(values: Float64Array, centre: number): void {
 export function recordNoise(values: ArrayLike<number>, ofMeans = false): number {
   const fromDifferences = ofMeans ? estimateNoiseOfMeans(values) : estimateNoise(values);
   const head = stretchOf(values, 0, Math.max(HEAD_MIN, Math.floor(values.length * HEAD_FRACTION)));
-  if (trends(head)) return fromDifferences;
+  if (holdsSignal(head)) return fromDifferences;
   const spread = robustSpread(head);
   return spread > HEAD_NOISE_GATE * fromDifferences ? Math.min(spread, HEAD_NOISE_CAP * fromDifferences) : fromDifferences;
 }
@@ -251,16 +251,30 @@ export function recordNoise(values: ArrayLike<number>, ofMeans = false): number 
  * on longer ones. A step between equal values counts neither way.
  */
 const HEAD_TREND_SHARE = 0.85;
+/**
+ * A head whose steps turn (up after down, or down after up) at most this share of the time is a smooth curve: a peak
+ * or a trough of the response, which goes one way and then the other. Steps of white noise turn two times in three
+ * (consecutive differences share a sample), of noise correlated 0.8 from one sample to the next about half the time:
+ * 2 turns or fewer in 14 has odds under 0.4 % on a flat head of 16 samples (binomial).
+ */
+const HEAD_TURN_SHARE = 0.15;
 
-/** Whether most of the steps between a head's samples go the same way (HEAD_TREND_SHARE). */
-function trends(head: ArrayLike<number>): boolean {
+/** Whether a head's steps mostly go one way (HEAD_TREND_SHARE) or seldom turn (HEAD_TURN_SHARE): a head inside the response. */
+function holdsSignal(head: ArrayLike<number>): boolean {
   let up = 0;
   let down = 0;
+  let turns = 0;
+  let last = 0;
   for (let i = 1; i < head.length; i++) {
-    if (head[i] > head[i - 1]) up++;
-    else if (head[i] < head[i - 1]) down++;
+    const way = Math.sign(head[i] - head[i - 1]);
+    if (way === 0 || Number.isNaN(way)) continue;
+    if (way > 0) up++;
+    else down++;
+    if (last !== 0 && way !== last) turns++;
+    last = way;
   }
-  return up + down > 0 && Math.max(up, down) >= HEAD_TREND_SHARE * (up + down);
+  const steps = up + down;
+  return steps > 0 && (Math.max(up, down) >= HEAD_TREND_SHARE * steps || (steps >= 2 && turns <= HEAD_TURN_SHARE * (steps - 1)));
 }
 
 /** Share of the data's range below which a noise level is not trusted (a record with no measurable noise). */

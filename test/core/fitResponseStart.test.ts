@@ -31,7 +31,9 @@ describe('a record caught with its ringdown in progress', () => {
   it.each([2, 6])('from %d/8 of a period before the record: fitted without an event, t0 not reported as measured', (eighths) => {
     const fit = fitResponse(makeRecord({ ...RINGDOWN, eventAt: -((eighths / 8) * 50 + 3.3), seed: 4400 + eighths }).trace);
     expect(fit.t0.stderr).toBeNull();
-    expect(fit.warnings.join(' ')).toMatch(NOT_MEASURED);
+    // Either the event search finds no flat samples to start from (the record's head is inside the ring, so its spread
+    // is not taken for noise), or it places an event the fit then does not hold: both say t0 is no measured event.
+    expect(fit.warnings.join(' ')).toMatch(new RegExp(`${NOT_MEASURED.source}|t0 was not fitted: the record has no flat samples before the event`));
   });
 });
 
