@@ -67,7 +67,7 @@ import { SIDE_SETTLING_ROWS, isSideRow, sideRowsAbove, sideWidth, withoutSide } 
 import { chooseSegment, findSegments, linesOfSpan, rowsOfSpan } from './segments';
 import { TrailingSections } from './trailingSections';
 import { CaptureError, type Capture, type CaptureOptions } from './types';
-import { printable } from '../units/unitText';
+import { quotedValue } from '../units/parseQuantity';
 
 /** Data rows of the same shape needed in a row before the table is taken to have started. */
 const CONFIRMING_ROWS = 3;
@@ -604,7 +604,7 @@ function noRowsOfNumbers(lines: number, head: PreambleLine[]): CaptureError {
     const withUnit = unitSuffixedCell(text);
     if (withUnit !== null) {
       return new CaptureError(
-        `${message}; line ${line} holds '${printable(withUnit.trim())}': a unit written after each number is not read; export the values as plain numbers, with the units in the column headers ('Time (us)')`,
+        `${message}; line ${line} holds ${quotedValue(withUnit.trim())}: a unit written after each number is not read; export the values as plain numbers, with the units in the column headers ('Time (us)')`,
       );
     }
   }

@@ -250,15 +250,21 @@ export function uncommented(text: string): string {
 }
 
 /**
- * The first line stating the unit of the horizontal axis, read. A comment line counts ('# Time units = us'): a unit
- * stated only there is still the unit the times are written in.
+ * The key, value and line of the first line whose key is one of `keys`. A comment line counts ('# Time units = us'): a
+ * unit stated only there is still the unit the samples are written in.
  */
-function statedTimeUnit(lines: PreambleLine[], delimiter: string): StatedTimeUnit | null {
+function firstKeyed(lines: PreambleLine[], delimiter: string, keys: ReadonlySet<string>): { key: string; value: string; line: number } | null {
   for (const { text, line } of lines) {
     const pair = splitKeyValue(uncommented(text), delimiter);
-    if (pair && TIME_UNIT_KEYS.has(normaliseKey(pair[0]).words)) return readTimeUnit(pair[1], pair[0], line);
+    if (pair && keys.has(normaliseKey(pair[0]).words)) return { key: pair[0], value: pair[1], line };
   }
   return null;
+}
+
+/** The first line stating the unit of the horizontal axis, read. */
+function statedTimeUnit(lines: PreambleLine[], delimiter: string): StatedTimeUnit | null {
+  const stated = firstKeyed(lines, delimiter, TIME_UNIT_KEYS);
+  return stated && readTimeUnit(stated.value, stated.key, stated.line);
 }
 
 /**
@@ -267,17 +273,14 @@ function statedTimeUnit(lines: PreambleLine[], delimiter: string): StatedTimeUni
  * channel has which is not sure): the channels then stay without a unit.
  */
 function statedValueUnit(lines: PreambleLine[], delimiter: string): StatedValueUnit | null {
-  for (const { text, line } of lines) {
-    const pair = splitKeyValue(uncommented(text), delimiter);
-    if (!pair || !VALUE_UNIT_KEYS.has(normaliseKey(pair[0]).words)) continue;
-    const cells = pair[1].split(/[,;\t]/).map((c) => c.trim()).filter((c) => c !== '');
-    if (cells.length !== 1) return null;
-    const written = cells[0].replace(/^[A-Za-z][\w ]*?:\s*/, '');
-    const reading = readUnitText(written);
-    if (reading.kind !== 'known' || unitProblem(written, reading, false) !== '') return null;
-    return { text: written, scale: reading.scale, unit: reading.unit, key: pair[0], line };
-  }
-  return null;
+  const stated = firstKeyed(lines, delimiter, VALUE_UNIT_KEYS);
+  if (!stated) return null;
+  const cells = stated.value.split(/[,;\t]/).map((c) => c.trim()).filter((c) => c !== '');
+  if (cells.length !== 1) return null;
+  const written = cells[0].replace(/^[A-Za-z][\w ]*?:\s*/, '');
+  const reading = readUnitText(written);
+  if (reading.kind !== 'known' || unitProblem(written, reading, false) !== '') return null;
+  return { text: written, scale: reading.scale, unit: reading.unit, key: stated.key, line: stated.line };
 }
 
 /**
