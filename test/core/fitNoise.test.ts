@@ -121,6 +121,31 @@ describe('estimateNoiseOfMeans', () => {
       expect(estimateNoiseOfMeans(values)).toBeGreaterThan(0.85);
     }
   });
+
+  /** MAD of the second differences / (0.6745 sqrt 6), written out: what the estimate read before it looked for curvature. */
+  const secondDifferenceNoise = (values: Float64Array): number => {
+    const differences = Array.from(values.subarray(2), (v, i) => Math.abs(v - 2 * values[i + 1] + values[i])).sort((a, b) => a - b);
+    const n = differences.length;
+    return (n % 2 ? differences[(n - 1) / 2] : (differences[n / 2 - 1] + differences[n / 2]) / 2) / (0.6745 * Math.sqrt(6));
+  };
+
+  it('reads the noise from fourth differences where a ring 1000 times it fills the second differences (a strong ring on means 25 a period)', () => {
+    for (const seed of [1, 2, 3]) {
+      const values = means(1000, seed);
+      expect(secondDifferenceNoise(values)).toBeGreaterThan(2);
+      expect(estimateNoiseOfMeans(values)).toBeLessThan(1.2);
+      expect(estimateNoiseOfMeans(values)).toBeGreaterThan(0.85);
+    }
+  });
+
+  it('keeps the second-difference reading of means whose noise is correlated from one to the next (it reads such noise higher than the fourth)', () => {
+    for (const seed of [1, 2, 3]) {
+      const random = createRandom(seed);
+      let noise = random.normal();
+      const values = Float64Array.from({ length: 1000 }, () => (noise = 0.8 * noise + 0.6 * random.normal()));
+      expect(estimateNoiseOfMeans(values)).toBeCloseTo(secondDifferenceNoise(values), 12);
+    }
+  });
 });
 
 describe('quantisationStep', () => {

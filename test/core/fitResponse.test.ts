@@ -70,6 +70,22 @@ describe('fitResponse recovers known parameters', () => {
   }
 });
 
+describe('fitResponse reads the noise of block means', () => {
+  // 4000 samples, about 130 a ring period, fitted on means of 4: the ring's curvature fills the means' second differences.
+  it('within 20 % of the means\' own noise for a strong ring (50 dB), where second differences read it twice', () => {
+    const c: Case = { name: 'strong finely sampled ring', zeta: 0.02, omega0: 2 * Math.PI * 4e6, pre: 0.1, kind: 'step', samples: 4000, snrDb: 50 };
+    for (const seed of [1, 2, 3]) {
+      const { trace, sigma } = synthesize(c, seed);
+      const fit = fitResponse(trace);
+      const factor = fit.decimation?.factor ?? 1;
+      expect(factor).toBeGreaterThan(1);
+      const meansNoise = sigma / Math.sqrt(factor);
+      expect(fit.noiseRms / meansNoise).toBeLessThan(1.2);
+      expect(fit.noiseRms / meansNoise).toBeGreaterThan(0.85);
+    }
+  });
+});
+
 describe('fitResponse finds the event of a weak ring about its starting level', () => {
   it('a loop current ringing from zero at 15 dB (peak-to-peak over noise): found by block energy, not block means', () => {
     const omega0 = 2 * Math.PI * 1e6;
