@@ -17,6 +17,8 @@ import { singleModeFields, type MultiModeModel } from './modesResult';
 /** How the fit's model was chosen: a jump at the event let in, and why a single decay was kept (or ''). */
 export interface ModelChoice {
   jumpStart: boolean;
+  /** Why the initial value was fitted freely when not for a jump (freeStartFor): it replaces the jump's warning. */
+  startNote?: string | null;
   evidence: string;
   /** For a single decay: the time constant of the record's tail alone and its standard error (tailTimeConstant). */
   tailTimeConstant?: TailTimeConstant;
@@ -60,7 +62,7 @@ export function assembleFit(
   if (!seesPreEvent) {
     warnings.push('t0 was not fitted: the record has no flat samples before the event, so t0 is taken as the start of the fit window');
   }
-  if (choice.jumpStart) warnings.push('the response jumps at the event: its initial value was fitted freely and t0 held between the samples either side of the jump');
+  if (choice.jumpStart) warnings.push(choice.startNote ?? 'the response jumps at the event: its initial value was fitted freely and t0 held between the samples either side of the jump');
   const omegaDValue = ring?.omegaD?.value ?? null;
   warnings.push(...plausibilityWarnings(set, params, omegaDValue, rmsResidual, noise));
   const omega0Warning = ring ? uncertainOmega0Warning(omega0, se('omega0')) : null;

@@ -9,7 +9,7 @@ import { firstSampleTime, fitSetAndSamples, MIN_FIT_SAMPLES, uniformValues } fro
 import { searchLayouts } from './layoutSearch';
 import { chooseByInformation, explainRecord } from './modelSelection';
 import { fitFirstOrderRecord, tailTimeConstant, type TailTimeConstant } from './firstOrderFit';
-import { fitJumpStart, showsJump } from './jumpStart';
+import { freeStartFor } from './jumpStart';
 import { ringRulesOutDecay } from './decayBound';
 import { refitAwayFromRails } from './railGuard';
 import { subCodeNoiseWarning } from './fitWarnings';
@@ -75,11 +75,13 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
 
   const hasPreEvent = LAYOUTS[best.layout].preLevelColumn !== null;
   let jumpStart = false;
+  let startNote: string | null = null;
   if (hasPreEvent && jumpOption !== 'continuous') {
-    const free = fitJumpStart(set, best, candidates, t0Start, noise, jumpOption === 'free');
-    if (free && (jumpOption === 'free' || showsJump(best, free, set, noise))) {
-      ({ attempt: best, t0: t0Start } = free);
+    const free = freeStartFor(set, best, candidates, t0Start, noise, jumpOption === 'free');
+    if (free) {
+      ({ attempt: best, t0: t0Start } = free.fit);
       jumpStart = true;
+      startNote = free.note;
     }
   }
   // A ring no single decay could come near is not compared with one (the decay's own fit is the costliest step).
@@ -110,5 +112,5 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   const dof = set.time.length - best.values.length;
   const cov = modes.multiMode?.covariance ?? responseCovariance(set, best.layout, best.values, t0Start, best.sse / Math.max(1, dof));
   warnings.push(...best.warnings, ...cov.warnings);
-  return assembleFit(trace, set, best, t0Start, cov, noise, warnings, { jumpStart, evidence: explanation.evidence, tailTimeConstant: tail, ...modes });
+  return assembleFit(trace, set, best, t0Start, cov, noise, warnings, { jumpStart, startNote, evidence: explanation.evidence, tailTimeConstant: tail, ...modes });
 }

@@ -1,5 +1,5 @@
-// A response that jumps at the event (a capacitor's current, an inductor's voltage): its free-start fit,
-// and whether the record shows the jump.
+// A response that jumps at the event (a capacitor's current, an inductor's voltage), or whose start a finite edge bends: its free-start fit,
+// and whether the record asks for it.
 
 import { solveAmplitudes, Workspace } from './amplitudes';
 import { attemptT0, attemptValue, type Attempt } from './attempt';
@@ -9,6 +9,7 @@ import { refine } from './refine';
 import { unpackParams, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
 import type { RateCandidate } from './startingRates';
+import { continuousStartRejected } from './stepStart';
 
 /** Event times tried either side of the detected event and the continuous fit's t0, in set values. */
 const SCAN_VALUES = 4;
@@ -36,29 +37,44 @@ export interface JumpStartFit {
 }
 
 /**
- * The response fitted from any initial value at the event. With a jump, the event lies anywhere between
- * two samples (every place there fits alike), so t0 is held: event times one raw sample apart around the
- * detected event are tried with the continuous fit's rates, and the best is fitted from its rates and
- * from the ranked starts. Unless the free start is asked for (`stated`), null when even the best of
- * those event times does not beat the continuous fit on the information criterion: no jump to fit.
+ * The free start the record asks for, with the warning that says why (null: the jump's own, which assembleFit
+ * words), or null when the continuous start stands: a jump (showsJump), or a start the continuous fit bends its rates
+ * to meet (continuousStartRejected: a finite edge). `stated`: the person asked for the free start.
  */
-export function fitJumpStart(
+export function freeStartFor(
   set: FitSet,
   continuous: Attempt,
   candidates: RateCandidate[],
   t0Start: number,
   noise: number,
   stated: boolean,
-): JumpStartFit | null {
+): { fit: JumpStartFit; note: string | null } | null {
   const rates = { alpha: attemptValue(continuous, 'alpha'), omega0: attemptValue(continuous, 'omega0') };
-  const { t0, sse } = scanEventTime(set, 'free-pre', rates, t0Start, attemptT0(continuous, t0Start));
-  if (!stated && !beatsContinuous(continuous, sse, continuous.values.length + 1, set, t0)) return null;
-  const tried = [
-    refine(set, 'free-pre', { ...rates, source: 'continuous fit' }, t0),
-    ...searchLayouts(set, ['free-pre'], candidates, t0, noise),
-  ].filter((a) => Number.isFinite(a.sse));
+  const scan = scanEventTime(set, 'free-pre', rates, t0Start, attemptT0(continuous, t0Start));
+  const fitted = stated || beatsContinuous(continuous, scan.sse, continuous.values.length + 1, set, scan.t0) ? fitJumpStart(set, rates, scan.t0, candidates, noise) : null;
+  if (fitted && (stated || showsJump(continuous, fitted, set, noise))) return { fit: fitted, note: null };
+  // The test needs a free start even where none beat the continuous one: refined once from its rates.
+  const compared = fitted ?? refinedFreeStart(set, rates, scan.t0);
+  const note = continuousStartRejected(set, continuous, t0Start, compared.attempt, compared.t0);
+  if (!note) return null;
+  return { fit: fitted ?? fitJumpStart(set, rates, scan.t0, candidates, noise) ?? compared, note };
+}
+
+/**
+ * The response fitted from any initial value at the event. With a jump, the event lies anywhere between
+ * two samples (every place there fits alike), so t0 is held at `t0` (scanEventTime's, with the continuous
+ * fit's rates), and the fit is refined from those rates and from the ranked starts.
+ */
+function fitJumpStart(set: FitSet, rates: { alpha: number; omega0: number }, t0: number, candidates: RateCandidate[], noise: number): JumpStartFit | null {
+  const tried = [refinedFreeStart(set, rates, t0).attempt, ...searchLayouts(set, ['free-pre'], candidates, t0, noise)].filter((a) => Number.isFinite(a.sse));
   if (tried.length === 0) return null;
   const attempt = tried.reduce((x, y) => (y.sse < x.sse ? y : x));
+  return { attempt, t0, jump: jumpOf(attempt, t0) };
+}
+
+/** The free start refined from the continuous fit's rates, t0 held. */
+function refinedFreeStart(set: FitSet, rates: { alpha: number; omega0: number }, t0: number): JumpStartFit {
+  const attempt = refine(set, 'free-pre', { ...rates, source: 'continuous fit' }, t0);
   return { attempt, t0, jump: jumpOf(attempt, t0) };
 }
 

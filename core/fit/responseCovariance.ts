@@ -271,8 +271,11 @@ export function responseCovariance(
   };
 }
 
-/** The Jacobian's covariance at the solution, as a sandwich when the residuals are correlated. */
-function localCovariance(
+/**
+ * The Jacobian's covariance at the solution, as a sandwich when the residuals are correlated or uneven: without the
+ * widening along zeta's profile, for a comparison of two fits' rates (stepStart.ts) that need not pay for it.
+ */
+export function localCovariance(
   set: FitSet,
   layout: ParameterLayout,
   values: readonly number[],

@@ -13,6 +13,7 @@ import { severalEventsCases } from './trust/cases/severalEvents';
 import { bandLimitedNoiseCases } from './trust/cases/bandLimitedNoise';
 import { singularStepsCases } from './trust/cases/singularSteps';
 import { benchJobsCases } from './trust/cases/benchJobs';
+import { finiteEdgeCases } from './trust/cases/finiteEdge';
 
 const TABLE: TrustCase[] = [
   ...handSetWindowCases,
@@ -26,6 +27,7 @@ const TABLE: TrustCase[] = [
   ...bandLimitedNoiseCases,
   ...singularStepsCases,
   ...benchJobsCases,
+  ...finiteEdgeCases,
 ];
 
 describe('never confidently wrong', () => {

@@ -4,6 +4,7 @@ import { fitResponse } from '../../core/fit/fitResponse';
 import { deriveComponents } from '../../core/workflow/measuredComponents';
 import { CircuitInputError } from '../../core/circuit/errors';
 import { firstOrderShape, generatedTrace, secondOrderShape } from './trust/responseRecords';
+import { coefficientsFromInitial } from '../../core/response/secondOrder';
 
 const rcStep = () =>
   generatedTrace({ seed: 31, samples: 1500, dt: 1e-9, noise: 0.02 }, firstOrderShape({ t0: 200e-9, yPre: 0, yStart: 0, yFinal: 5, tau: 150e-9 }));
@@ -64,6 +65,20 @@ describe('a first-order record (an RC step)', () => {
     const fit = fitResponse(rcStep());
     expect(() => deriveComponents(fit, { topology: 'series', known: { name: 'C', value: 1e-9 } })).toThrow(CircuitInputError);
     expect(() => deriveComponents(fit, { topology: 'series', known: { name: 'C', value: 1e-9 } })).toThrow(/only tau is reported/);
+  });
+});
+
+describe('a step that starts as an instant step would', () => {
+  // The ideal step of the finite-edge trust rows (trust/cases/finiteEdge.ts): 5 MHz, zeta 0.08, 10 V, 37 dB.
+  const omega0 = (2 * Math.PI * 5e6) / Math.sqrt(1 - 0.08 * 0.08);
+  const alpha = 0.08 * omega0;
+  const { a, b } = coefficientsFromInitial(0, 0, 10, alpha);
+  it('keeps the start held to the level before: the free start is not taken, and no warning says the start bends', () => {
+    for (const seed of [711, 712, 713, 714, 715]) {
+      const fit = fitResponse(generatedTrace({ seed, samples: 4000, dt: 1e-9, noise: 0.1 }, secondOrderShape({ t0: 500e-9, yPre: 0, yFinal: 10, alpha, omega0, a, b })));
+      expect(fit.jumpStart).toBeUndefined();
+      expect(fit.warnings.join(' ')).not.toMatch(/instant step/);
+    }
   });
 });
 
