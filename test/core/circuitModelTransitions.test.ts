@@ -129,3 +129,15 @@ describe('modelTransitions: no step', () => {
     expect(r.reason).toMatch(/half periods before it settles/);
   });
 });
+
+describe('a fit whose start was free (a jump at the event, or a finite edge)', () => {
+  it('gives no model rise time, saying why, and keeps the metrics the ring after the start fixes', () => {
+    const held = modelTransitions(stepFit(0.2));
+    const free = modelTransitions({ ...stepFit(0.2), jumpStart: true });
+    expect(held.metrics?.riseTime).not.toBeNull();
+    expect(free.metrics?.riseTime).toBeNull();
+    expect(free.metrics?.warnings.join(' ')).toMatch(/fitted freely.*rise time is not the record's/);
+    expect(free.metrics?.overshoot).toEqual(held.metrics?.overshoot);
+    expect(free.metrics?.settlingTime2).toEqual(held.metrics?.settlingTime2);
+  });
+});
