@@ -1,5 +1,5 @@
-// A response that jumps at the event (a capacitor's current, an inductor's voltage), or whose start a finite edge bends: its free-start fit,
-// and whether the record asks for it.
+// A response that jumps at the event (a capacitor's current, an inductor's voltage), or whose start a finite edge
+// bends: its free-start fit, and whether the record asks for it.
 
 import { solveAmplitudes, Workspace } from './amplitudes';
 import { attemptT0, attemptValue, type Attempt } from './attempt';
@@ -28,6 +28,9 @@ const FINE_REACH_STEPS = 2;
  */
 const JUMP_NOISE = 5;
 
+/** The continuous fit's alpha and omega0, which the free start is refined from. */
+type Rates = { alpha: number; omega0: number };
+
 /** The free-start fit and the event time it holds (between the last sample before the jump and the first after it). */
 export interface JumpStartFit {
   attempt: Attempt;
@@ -51,7 +54,8 @@ export function freeStartFor(
 ): { fit: JumpStartFit; note: string | null } | null {
   const rates = { alpha: attemptValue(continuous, 'alpha'), omega0: attemptValue(continuous, 'omega0') };
   const scan = scanEventTime(set, 'free-pre', rates, t0Start, attemptT0(continuous, t0Start));
-  const fitted = stated || beatsContinuous(continuous, scan.sse, continuous.values.length + 1, set, scan.t0) ? fitJumpStart(set, rates, scan.t0, candidates, noise) : null;
+  const asked = stated || beatsContinuous(continuous, scan.sse, continuous.values.length + 1, set, scan.t0);
+  const fitted = asked ? fitJumpStart(set, rates, scan.t0, candidates, noise) : null;
   if (fitted && (stated || showsJump(continuous, fitted, set, noise))) return { fit: fitted, note: null };
   // The test needs a free start even where none beat the continuous one: refined once from its rates.
   const compared = fitted ?? refinedFreeStart(set, rates, scan.t0);
@@ -65,15 +69,16 @@ export function freeStartFor(
  * two samples (every place there fits alike), so t0 is held at `t0` (scanEventTime's, with the continuous
  * fit's rates), and the fit is refined from those rates and from the ranked starts.
  */
-function fitJumpStart(set: FitSet, rates: { alpha: number; omega0: number }, t0: number, candidates: RateCandidate[], noise: number): JumpStartFit | null {
-  const tried = [refinedFreeStart(set, rates, t0).attempt, ...searchLayouts(set, ['free-pre'], candidates, t0, noise)].filter((a) => Number.isFinite(a.sse));
+function fitJumpStart(set: FitSet, rates: Rates, t0: number, candidates: RateCandidate[], noise: number): JumpStartFit | null {
+  const starts = [refinedFreeStart(set, rates, t0).attempt, ...searchLayouts(set, ['free-pre'], candidates, t0, noise)];
+  const tried = starts.filter((a) => Number.isFinite(a.sse));
   if (tried.length === 0) return null;
   const attempt = tried.reduce((x, y) => (y.sse < x.sse ? y : x));
   return { attempt, t0, jump: jumpOf(attempt, t0) };
 }
 
 /** The free start refined from the continuous fit's rates, t0 held. */
-function refinedFreeStart(set: FitSet, rates: { alpha: number; omega0: number }, t0: number): JumpStartFit {
+function refinedFreeStart(set: FitSet, rates: Rates, t0: number): JumpStartFit {
   const attempt = refine(set, 'free-pre', { ...rates, source: 'continuous fit' }, t0);
   return { attempt, t0, jump: jumpOf(attempt, t0) };
 }

@@ -10,8 +10,9 @@ import { localCovariance } from './responseCovariance';
  * The continuous start is rejected when the free start's alpha differs from it by more than chance at this level.
  * Under a true instant step both fits are consistent and the continuous one is the more precise, so the difference
  * of the two estimates has variance V_free - V_continuous (the Hausman specification test: J. A. Hausman,
- * Econometrica 46 (1978) 1251-1271, from memory), here on alpha alone, two-sided. Where a true step trips it (1 record in 1000),
- * the free start is taken: consistent, a little wider.
+ * Econometrica 46 (1978) 1251-1271, from memory), here on alpha alone, two-sided. Where a true step trips it (1
+ * record in 1000), the free start is taken: consistent, a little wider. At 0.01 it caught more edges, but took the
+ * free start on 1 % of ideal steps, picked when its alpha strays, which lowered their coverage by up to 1.5 points.
  */
 const CONTINUOUS_START_P = 1e-3;
 /**
