@@ -10,6 +10,7 @@ import { searchLayouts } from './layoutSearch';
 import { chooseByInformation, explainRecord } from './modelSelection';
 import { fitFirstOrderRecord, tailTimeConstant, type TailTimeConstant } from './firstOrderFit';
 import { freeStartFor } from './jumpStart';
+import { withAlphaAllowance } from './stepStart';
 import { ringRulesOutDecay } from './decayBound';
 import { refitAwayFromRails } from './railGuard';
 import { subCodeNoiseWarning } from './fitWarnings';
@@ -19,6 +20,7 @@ import { FitInputError } from './fitInputError';
 import { checkModeOptions, ringModes } from './modeOrder';
 import type { Trace } from './trace';
 import type { ResponseFit, ResponseFitOptions } from './responseFit';
+import type { Attempt } from './attempt';
 
 export type { Trace } from './trace';
 export type { Regime, ResponseFit, ResponseFitOptions } from './responseFit';
@@ -76,13 +78,16 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   const hasPreEvent = LAYOUTS[best.layout].preLevelColumn !== null;
   let jumpStart = false;
   let startNote: string | null = null;
+  // An allowance holds for the held start's own attempt only: a later choice (a single decay, a refit away from the
+  // rails, several modes) is another fit.
+  let allowance: { held: Attempt; alphaVariance: number; warning: string } | null = null;
   if (hasPreEvent && jumpOption !== 'continuous') {
-    const free = freeStartFor(set, best, candidates, t0Start, noise, jumpOption === 'free');
-    if (free) {
-      ({ attempt: best, t0: t0Start } = free.fit);
+    const start = freeStartFor(set, best, candidates, t0Start, noise, jumpOption === 'free');
+    if (start?.fit) {
+      ({ attempt: best, t0: t0Start } = start.fit);
       jumpStart = true;
-      startNote = free.note;
-    }
+      startNote = start.note;
+    } else if (start?.allowance) allowance = { held: best, ...start.allowance };
   }
   // A ring no single decay could come near is not compared with one (the decay's own fit is the costliest step).
   const firstOrder = ringRulesOutDecay(set, best, t0Start, noise) ? null : fitFirstOrderRecord(set, { hasPreEvent, jumpStart }, t0Start, noise);
@@ -110,7 +115,9 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   // How many ringing modes the record holds (modeOrder.ts): a model with several replaces the one ring, with its own covariance.
   const modes = ringModes(set, best, t0Start, noise, options);
   const dof = set.time.length - best.values.length;
-  const cov = modes.multiMode?.covariance ?? responseCovariance(set, best.layout, best.values, t0Start, best.sse / Math.max(1, dof));
-  warnings.push(...best.warnings, ...cov.warnings);
+  const own = modes.multiMode?.covariance ?? responseCovariance(set, best.layout, best.values, t0Start, best.sse / Math.max(1, dof));
+  const allowed = allowance && allowance.held === best && !modes.multiMode ? allowance : null;
+  const cov = allowed ? withAlphaAllowance(own, allowed.alphaVariance) : own;
+  warnings.push(...best.warnings, ...cov.warnings, ...(allowed ? [allowed.warning] : []));
   return assembleFit(trace, set, best, t0Start, cov, noise, warnings, { jumpStart, startNote, evidence: explanation.evidence, tailTimeConstant: tail, ...modes });
 }

@@ -9,7 +9,7 @@ import { refine } from './refine';
 import { unpackParams, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
 import type { RateCandidate } from './startingRates';
-import { continuousStartRejected } from './stepStart';
+import { compareStarts, continuousStartRejected, startAllowance, type StartAllowance } from './stepStart';
 
 /** Event times tried either side of the detected event and the continuous fit's t0, in set values. */
 const SCAN_VALUES = 4;
@@ -39,10 +39,14 @@ export interface JumpStartFit {
   jump: number;
 }
 
+/** What the start of a response asks for: the free start, or an allowance on the held start's alpha. */
+export type StartChoice = { fit: JumpStartFit; note: string | null; allowance?: undefined } | { fit?: undefined; allowance: StartAllowance };
+
 /**
  * The free start the record asks for, with the warning that says why (null: the jump's own, which assembleFit
- * words), or null when the continuous start stands: a jump (showsJump), or a start the continuous fit bends its rates
- * to meet (continuousStartRejected: a finite edge). `stated`: the person asked for the free start.
+ * words): a jump (showsJump), or a start the held fit bends its rates to meet (continuousStartRejected: a finite
+ * edge). Or, where the two starts differ only suggestively, the held start with an allowance on alpha
+ * (startAllowance). Null when the held start stands as it is. `stated`: the person asked for the free start.
  */
 export function freeStartFor(
   set: FitSet,
@@ -51,17 +55,19 @@ export function freeStartFor(
   t0Start: number,
   noise: number,
   stated: boolean,
-): { fit: JumpStartFit; note: string | null } | null {
+): StartChoice | null {
   const rates = { alpha: attemptValue(continuous, 'alpha'), omega0: attemptValue(continuous, 'omega0') };
   const scan = scanEventTime(set, 'free-pre', rates, t0Start, attemptT0(continuous, t0Start));
   const asked = stated || beatsContinuous(continuous, scan.sse, continuous.values.length + 1, set, scan.t0);
   const fitted = asked ? fitJumpStart(set, rates, scan.t0, candidates, noise) : null;
   if (fitted && (stated || showsJump(continuous, fitted, set, noise))) return { fit: fitted, note: null };
-  // The test needs a free start even where none beat the continuous one: refined once from its rates.
+  // The comparison needs a free start even where none beat the held one: refined once from its rates.
   const compared = fitted ?? refinedFreeStart(set, rates, scan.t0);
-  const note = continuousStartRejected(set, continuous, t0Start, compared.attempt, compared.t0);
-  if (!note) return null;
-  return { fit: fitted ?? fitJumpStart(set, rates, scan.t0, candidates, noise) ?? compared, note };
+  const comparison = compareStarts(set, continuous, t0Start, compared.attempt, compared.t0);
+  const note = continuousStartRejected(comparison);
+  if (note) return { fit: fitted ?? fitJumpStart(set, rates, scan.t0, candidates, noise) ?? compared, note };
+  const allowance = startAllowance(comparison);
+  return allowance ? { allowance } : null;
 }
 
 /**

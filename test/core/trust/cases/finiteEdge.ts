@@ -58,4 +58,8 @@ export const finiteEdgeCases: TrustCase[] = [
   edgeRow({ name: 'the same through a 20 ns edge, another noise', spec: { ...SPEC, seed: 702 }, ...RING, edge: 20e-9 }),
   edgeRow({ name: 'the same through a 20 ns edge, a third noise', spec: { ...SPEC, seed: 703 }, ...RING, edge: 20e-9 }),
   edgeRow({ name: 'a 10 V step through a 40 ns edge (a fifth of the ring period), 37 dB', spec: { ...SPEC, seed: 704 }, ...RING, edge: 40e-9 }),
+  edgeRow({ name: 'a 10 V step through a 10 ns edge (a twentieth of the ring period), 37 dB', spec: { ...SPEC, seed: 705 }, ...RING, edge: 10e-9 }),
+  edgeRow({ name: 'the same through a 10 ns edge, another noise', spec: { ...SPEC, seed: 706 }, ...RING, edge: 10e-9 }),
+  edgeRow({ name: 'the same through a 10 ns edge, a third noise', spec: { ...SPEC, seed: 707 }, ...RING, edge: 10e-9 }),
+  edgeRow({ name: 'the same through a 10 ns edge, a fourth noise', spec: { ...SPEC, seed: 708 }, ...RING, edge: 10e-9 }),
 ];
