@@ -9,6 +9,11 @@ const MAX_TERMS = 500;
  * Q(dof/2, x/2), by its power series below a + 1 and by its continued fraction (modified Lentz) above it
  * (the usual split, W. H. Press et al., Numerical Recipes, section 6.2; from memory).
  */
+/** A p-value as the fits' messages write it: two significant digits, or 'p < 1e-6' below that. */
+export function pValueText(p: number): string {
+  return p < 1e-6 ? 'p < 1e-6' : `p = ${p.toPrecision(2)}`;
+}
+
 export function chiSquareTail(x: number, dof: number): number {
   if (!(dof > 0) || !Number.isInteger(dof)) throw new RangeError(`chiSquareTail: dof must be a positive integer, got ${dof}`);
   if (!(x > 0)) return 1;

@@ -87,7 +87,7 @@ export function covarianceFromJacobian(
   const inverse = Array.from({ length: p }, (_, a) =>
     Array.from({ length: p }, (_, b) => vectors.reduce((s, v, k) => s + (v[a] * v[b]) / sigma[k], 0)),
   );
-  const correlation = inverse.map((row, a) => row.map((v, b) => (a === b ? 1 : v / Math.sqrt(inverse[a][a] * inverse[b][b]))));
+  const correlation = correlationMatrix(inverse);
   if (residualVariance === null) {
     return { covariance: null, stderr: null, correlation, singularValues: sigma, degenerateDirections: [], warnings: [] };
   }
@@ -114,8 +114,12 @@ export function sandwichCovariance(bread: readonly number[][], meat: readonly nu
   const full = product(product(bread, meat), bread);
   // Symmetric in exact arithmetic; averaging removes the rounding.
   const covariance = full.map((row, a) => row.map((v, b) => (v + full[b][a]) / 2));
-  const correlation = covariance.map((row, a) => row.map((v, b) => (a === b ? 1 : v / Math.sqrt(covariance[a][a] * covariance[b][b]))));
-  return { covariance, correlation };
+  return { covariance, correlation: correlationMatrix(covariance) };
+}
+
+/** The correlations of a covariance matrix: each entry over the square root of its two variances, 1 on the diagonal. */
+export function correlationMatrix(c: readonly number[][]): number[][] {
+  return c.map((row, a) => row.map((v, b) => (a === b ? 1 : v / Math.sqrt(c[a][a] * c[b][b]))));
 }
 
 /** 'tell a and b apart (lost direction 0.707 a - 0.707 b)' from the largest components of a unit null vector. */

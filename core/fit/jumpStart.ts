@@ -65,7 +65,7 @@ export function freeStartFor(
   const compared = fitted ?? refinedFreeStart(set, rates, scan.t0);
   const comparison = compareStarts(set, continuous, t0Start, compared.attempt, compared.t0);
   const note = continuousStartRejected(comparison);
-  if (note) return { fit: fitted ?? fitJumpStart(set, rates, scan.t0, candidates, noise) ?? compared, note };
+  if (note) return { fit: fitted ?? fitJumpStart(set, rates, scan.t0, candidates, noise, compared.attempt) ?? compared, note };
   const allowance = startAllowance(comparison);
   return allowance ? { allowance } : null;
 }
@@ -73,10 +73,17 @@ export function freeStartFor(
 /**
  * The response fitted from any initial value at the event. With a jump, the event lies anywhere between
  * two samples (every place there fits alike), so t0 is held at `t0` (scanEventTime's, with the continuous
- * fit's rates), and the fit is refined from those rates and from the ranked starts.
+ * fit's rates), and the fit is refined from those rates (`fromRates`, when already refined) and from the ranked starts.
  */
-function fitJumpStart(set: FitSet, rates: Rates, t0: number, candidates: RateCandidate[], noise: number): JumpStartFit | null {
-  const starts = [refinedFreeStart(set, rates, t0).attempt, ...searchLayouts(set, ['free-pre'], candidates, t0, noise)];
+function fitJumpStart(
+  set: FitSet,
+  rates: Rates,
+  t0: number,
+  candidates: RateCandidate[],
+  noise: number,
+  fromRates: Attempt = refinedFreeStart(set, rates, t0).attempt,
+): JumpStartFit | null {
+  const starts = [fromRates, ...searchLayouts(set, ['free-pre'], candidates, t0, noise)];
   const tried = starts.filter((a) => Number.isFinite(a.sse));
   if (tried.length === 0) return null;
   const attempt = tried.reduce((x, y) => (y.sse < x.sse ? y : x));

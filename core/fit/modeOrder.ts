@@ -15,6 +15,7 @@ import type { FitSet } from './fitSet';
 import type { ModelOrder, ModelOrderRow, ResponseFitOptions } from './responseFit';
 import { information } from './modelSelection';
 import { nestedFTestTail } from './significance';
+import { pValueText } from '../chiSquare';
 import { modeSpec, NO_PRE_EVENT, parameterCount, solveModes, startConstraintOf, ModesWorkspace, type ModeRates, type ModeSpec } from './modesModel';
 import { refineModes, type ModesFit } from './modesFit';
 import { GRID_NYQUIST_SHARE, gridNyquist, residualAfter, ringStarts, slowStarts, type RingStart } from './modesStarts';
@@ -222,7 +223,6 @@ function compare(simple: Candidate, rich: Candidate, set: FitSet, richModel: Arr
   const richCriterion = information(rich.sse, rich.parameters, nEff);
   const gain = information(simple.sse, simple.parameters, nEff) - richCriterion;
   const drop = 100 * (1 - rich.sse / simple.sse);
-  const pText = searched < 1e-6 ? 'p < 1e-6' : `p = ${searched.toPrecision(2)}`;
   const significant = gain > 0 && searched < SIGNIFICANCE_LEVEL;
   // Each term the richer model holds must stand clear of zero by its own standard error, not only the residual drop.
   const weak = significant && !forced ? termAmplitudes(set, rich.fit).findIndex((q) => !(Math.abs(q.value) > SUPPORTED_SIGMAS * (q.stderr ?? Infinity))) : -1;
@@ -233,7 +233,7 @@ function compare(simple: Candidate, rich: Candidate, set: FitSet, richModel: Arr
   return {
     accepted: significant,
     richCriterion,
-    text: `lowers the residual by ${drop.toPrecision(2)} % (${ORDER_CRITERION} ${gain > 0 ? 'better' : 'worse'} by ${Math.abs(gain).toPrecision(3)}, F-test ${pText} with the search counted)`,
+    text: `lowers the residual by ${drop.toPrecision(2)} % (${ORDER_CRITERION} ${gain > 0 ? 'better' : 'worse'} by ${Math.abs(gain).toPrecision(3)}, F-test ${pValueText(searched)} with the search counted)`,
   };
 }
 

@@ -5,6 +5,7 @@ import type { FitSet } from './fitSet';
 import { LAYOUTS, layoutValues } from './responseModel';
 import type { Attempt } from './attempt';
 import { nestedFTestTail } from './significance';
+import { pValueText } from '../chiSquare';
 
 /** Smallest residual sum of squares the criterion takes the logarithm of (a perfect fit stays finite). */
 const MIN_SSE = 1e-300;
@@ -95,7 +96,6 @@ export function explainRecord(ring: Attempt, t0Start: number, decay: { attempt: 
     const better = information(rich.sse, rich.values.length, nEff) < information(simpleSse, simpleParameters, nEff);
     return { p, accepted: better && p < SIGNIFICANCE_LEVEL };
   };
-  const pText = (p: number) => (p < 1e-6 ? 'p < 1e-6' : `p = ${p.toPrecision(2)}`);
   let response = ring;
   let evidence = '';
   let doubt: string | undefined;
@@ -103,10 +103,10 @@ export function explainRecord(ring: Attempt, t0Start: number, decay: { attempt: 
     const ringOverDecay = test(firstOrder.sse, firstOrder.values.length, ring, 1);
     if (!ringOverDecay.accepted) {
       response = firstOrder;
-      evidence = `a single decay explains the record as well as a ring (F-test of the ring against it: ${pText(ringOverDecay.p)})`;
+      evidence = `a single decay explains the record as well as a ring (F-test of the ring against it: ${pValueText(ringOverDecay.p)})`;
       if (ringOverDecay.p < SUGGESTIVE_LEVEL) {
         doubt =
-          `a ring is suggested but not established (F-test of the ring against the single decay: ${pText(ringOverDecay.p)}; ` +
+          `a ring is suggested but not established (F-test of the ring against the single decay: ${pValueText(ringOverDecay.p)}; ` +
           `a ring is accepted below ${SIGNIFICANCE_LEVEL}): the record may hold a damped ring its noise hides, and tau then only ` +
           'approximates the response (more signal, or averaging, would tell)';
       }
@@ -114,7 +114,7 @@ export function explainRecord(ring: Attempt, t0Start: number, decay: { attempt: 
   }
   const overConstant = test(constantSse, 1, response, nEff);
   if (!overConstant.accepted) {
-    const lowered = `the best response fit lowers the residual by ${(100 * (1 - response.sse / constantSse)).toFixed(2)} % (F-test against the constant with the search counted: ${pText(overConstant.p)}; accepted below ${SIGNIFICANCE_LEVEL})`;
+    const lowered = `the best response fit lowers the residual by ${(100 * (1 - response.sse / constantSse)).toFixed(2)} % (F-test against the constant with the search counted: ${pValueText(overConstant.p)}; accepted below ${SIGNIFICANCE_LEVEL})`;
     const excess = Math.sqrt(constantSse / n) / noise;
     if (excess >= CONSTANT_MISFIT) {
       const misfit =

@@ -1,6 +1,6 @@
 // Covariance of the response parameters: Jacobian at the solution, as a sandwich over the residuals' noise model when they are correlated.
 
-import { covarianceFromJacobian, sandwichCovariance } from './covariance';
+import { correlationMatrix, covarianceFromJacobian, sandwichCovariance } from './covariance';
 import { widenAlongZetaProfile } from './profileWidening';
 import { LAYOUTS, layoutValues, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
@@ -265,7 +265,7 @@ export function responseCovariance(
   return {
     ...local,
     covariance: c,
-    correlation: c ? c.map((row, a) => row.map((v, b) => (a === b ? 1 : v / Math.sqrt(c[a][a] * c[b][b])))) : null,
+    correlation: c ? correlationMatrix(c) : null,
     zetaInterval: widened.zetaInterval,
     warnings: [...local.warnings, ...widened.warnings],
   };

@@ -1,9 +1,10 @@
 // Whether a response starts as an instant step would: a finite input edge or a front end's rise bends its first
 // samples, and a start held to the level before then pulls alpha and omega0 off the ring's own.
 
-import { chiSquareTail } from '../chiSquare';
+import { chiSquareTail, pValueText } from '../chiSquare';
 import { attemptValue, type Attempt } from './attempt';
 import type { FitSet } from './fitSet';
+import { correlationMatrix } from './covariance';
 import { localCovariance } from './responseCovariance';
 
 /**
@@ -63,7 +64,7 @@ export function continuousStartRejected(comparison: StartComparison | null): str
   if (!comparison || !(comparison.p < CONTINUOUS_START_P)) return null;
   return (
     `the response does not start as an instant step would (a finite input edge or a front end's rise bends its first samples): ` +
-    `held to the level before, alpha lay ${comparison.z.toFixed(1)} standard errors from the ring's own (${pText(comparison.p)}), ` +
+    `held to the level before, alpha lay ${comparison.z.toFixed(1)} standard errors from the ring's own (${pValueText(comparison.p)}), ` +
     `so alpha and omega0 are fitted from a free initial value, t0 held at the event`
   );
 }
@@ -81,7 +82,7 @@ export function startAllowance(comparison: StartComparison | null): StartAllowan
     alphaVariance: comparison.difference * comparison.difference,
     warning:
       `the fit held to the level before and the one from a free initial value differ in alpha by ${Math.abs(comparison.z).toFixed(1)} ` +
-      `standard errors (${pText(comparison.p)}; a finite input edge or a front end's rise can do this): alpha's uncertainty takes in the difference`,
+      `standard errors (${pValueText(comparison.p)}; a finite input edge or a front end's rise can do this): alpha's uncertainty takes in the difference`,
   };
 }
 
@@ -95,12 +96,7 @@ export function withAlphaAllowance<T extends { names: string[]; covariance: numb
   if (!c || i < 0) return cov;
   const widened = c.map((row) => [...row]);
   widened[i][i] += alphaVariance;
-  const correlation = widened.map((row, a) => row.map((v, b) => (a === b ? 1 : v / Math.sqrt(widened[a][a] * widened[b][b]))));
-  return { ...cov, covariance: widened, correlation };
-}
-
-function pText(p: number): string {
-  return p < 1e-6 ? 'p < 1e-6' : `p = ${p.toPrecision(2)}`;
+  return { ...cov, covariance: widened, correlation: correlationMatrix(widened) };
 }
 
 /** Alpha's variance, or null when the covariance could not be estimated. */
