@@ -153,15 +153,26 @@ function railEffect(trace: Trace, ex: Extremes, model: PointModel, sign: 1 | -1,
       let chunkExpected = 0;
       let chunkSurprise = 0;
       let chunkShift = 0;
+      // A run of equal model values (a level before the event, a settled tail) has one z: its terms are computed once.
+      let fitted = NaN;
+      let z = 0;
+      let beyond = 0;
+      let loss = 0;
       for (let k = 0; k < y.length; k++) {
         const i = first + k;
         if (clipped?.[i] || !Number.isFinite(values[i])) continue;
-        const z = (sign * (edge - y[k])) / spread;
+        if (y[k] !== fitted) {
+          fitted = y[k];
+          z = (sign * (edge - fitted)) / spread;
+          if (z <= TAIL_LIMIT) {
+            beyond = normalTail(z);
+            loss = (normalDensity(z) - z * beyond) ** 2;
+          }
+        }
         if (z > TAIL_LIMIT) continue;
-        const beyond = normalTail(z);
         chunkExpected += beyond;
         if (values[i] === rail) chunkSurprise -= Math.log1p(-beyond);
-        chunkShift += (normalDensity(z) - z * beyond) ** 2;
+        chunkShift += loss;
       }
       expected += chunkExpected;
       atRailSurprise += chunkSurprise;
