@@ -68,6 +68,7 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
         measured = measureCapture({
           file: name,
           channel,
+          otherChannels: capture.channels,
           captureWarnings: capture.warnings,
           importSummary: capture.importSummary,
           metadata: capture.metadata,
@@ -152,7 +153,7 @@ function readEdge(edge: ParasiticsEdgeAsk, progress: (stage: string) => void): E
 function readSide(side: CaptureFile, channel: string | number | undefined, progress: (stage: string) => void): ComparisonSide {
   progress(`reading ${side.name}`);
   const capture = readContent(side);
-  return { file: side.name, channel: selectChannel(capture, channel), captureWarnings: capture.warnings };
+  return { file: side.name, channel: selectChannel(capture, channel), otherChannels: capture.channels, captureWarnings: capture.warnings };
 }
 
 /** A compared channel reduced to its extremes per column, for the overlay. */

@@ -17,6 +17,7 @@ import { cautionInputsFromCapture, type CautionComponents } from '../safety/caut
 import { evaluateCautions, type CautionResult } from '../safety/evaluateCautions';
 import { deriveComponents, ratesOfMode, type KnownPartRequest } from './measuredComponents';
 import { fitEvents } from './events';
+import { varyingChannelsNote } from './flatChannel';
 import { withoutSpikes } from './spikeFree';
 import { runSetupChecks, setupRefusal, type SetupCheck, type SetupOptions } from './setupChecks';
 
@@ -34,6 +35,8 @@ export interface MeasureRequest {
   /** The capture's name as people see it (a file name without its folder). */
   file: string;
   channel: Channel;
+  /** The capture's other channels: a flat channel's message names those that vary. */
+  otherChannels?: readonly Pick<Channel, 'name' | 'values'>[];
   /** Warnings of the import (dropped rows, clipping...), shown before the fit's own. */
   captureWarnings?: readonly string[];
   /** What the importer inferred from the capture, carried on the summary as its `import` field. */
@@ -159,6 +162,8 @@ export function measureCapture(request: MeasureRequest): MeasureResult {
   const { channel, warning } = withoutSpikes(request.channel);
   const { fit, summary } = fitEvents(warning ? { ...request, channel, captureWarnings: [...(request.captureWarnings ?? []), warning] } : request);
   if (request.importSummary) summary.import = request.importSummary;
+  const elsewhere = summary.status === 'no-response' ? varyingChannelsNote(request.channel, request.otherChannels ?? []) : null;
+  if (elsewhere) summary.message += elsewhere;
   const { knownPart, design } = request;
   const components = knownPart ? attempt(() => deriveComponents(fit, knownPart, request.mode)) : NOT_ASKED;
   if (components.value) summary.components = components.value;

@@ -54,6 +54,7 @@ export function measureFile(file: string, settings: MeasureSettings, cwd: string
   const result = measureCapture({
     file: basename(file),
     channel: capture.channel,
+    otherChannels: capture.capture.channels,
     captureWarnings: capture.capture.warnings,
     importSummary: capture.capture.importSummary,
     window: parsed.window,
@@ -77,7 +78,7 @@ export function compareFiles(before: string, after: string, settings: MeasureSet
   const parsed = parseMeasureSettings(settings);
   const side = (file: string) => {
     const capture = loadCaptureFor(file, settings, cwd);
-    return { file: basename(file), channel: capture.channel, captureWarnings: capture.capture.warnings, window: parsed.window, event: parsed.event, continuity: parsed.continuity };
+    return { file: basename(file), channel: capture.channel, otherChannels: capture.capture.channels, captureWarnings: capture.capture.warnings, window: parsed.window, event: parsed.event, continuity: parsed.continuity };
   };
   return compareCaptures({ before: side(before), after: side(after), knownPart: parsed.knownPart });
 }

@@ -182,3 +182,17 @@ describe('the flag wording leaves the file’s own names alone', () => {
     expect(message).toBe("line 3: time 5 ns is earlier than 19 ns (column 'sortTime'); time must increase (--sort-time sorts the rows)");
   });
 });
+
+describe('a flat channel points to the channels that vary', () => {
+  it('fit: exit 1, and the status names the other channel', async () => {
+    const source = readFileSync(path.join(dir, ring), 'utf8').trimEnd().split('\n');
+    const lines = source.map((line, i) => (i === 0 ? 'Time (s),Probe off (V),Node (V)' : line.replace(',', ',0.25,')));
+    writeFileSync(path.join(dir, 'flat-first.csv'), `${lines.join('\n')}\n`);
+    const { code, out } = await run(['fit', 'flat-first.csv']);
+    expect(code).toBe(1);
+    expect(out).toContain("every usable sample holds one value");
+    expect(out).toContain("channel 'Node' of this capture varies: choose the channel to fit (--column)");
+    const chosen = await run(['fit', 'flat-first.csv', '--column', 'Node']);
+    expect(chosen.code).toBe(0);
+  });
+});
