@@ -5,6 +5,13 @@ import { DISPLAY_PREFIX, displayUnit } from './prefixes';
 
 const MIN_EXPONENT = -15;
 const MAX_EXPONENT = 9;
+/**
+ * A standard error under this share of its value is rounding in the arithmetic, not a measurement's (a double
+ * resolves 2.2e-16 of a value): a fit of a noise-free flat line gave 1.000000000000000666 mV ± 0.000021 fV.
+ */
+const ROUNDING_SHARE = 8 * Number.EPSILON;
+/** Significant digits a double holds for certain. */
+const DOUBLE_DIGITS = 15;
 /** Units shown without SI prefixes. */
 const UNPREFIXED = new Set(['', '%', 'dB', 'deg']);
 
@@ -74,7 +81,7 @@ function formatRoundedValue(value: number, place: number, unit: string): string 
  */
 export function formatMeasured(q: Quantity): string {
   const text = formatWithUncertainty(q);
-  const share = q.stderr === 0 ? null : relativeUncertainty(q);
+  const share = q.stderr === 0 || atRounding(q) ? null : relativeUncertainty(q);
   return share === null ? text : `${text} (${formatPlain(100 * share, 2)} %)`;
 }
 
@@ -85,6 +92,12 @@ export function formatWithUncertainty(q: Quantity): string {
   }
   if (!Number.isFinite(q.value)) return `${formatEngineering(q.value, q.unit)} ± ${formatEngineering(q.stderr, q.unit)}`;
   if (q.stderr === 0) return `${formatEngineering(q.value, q.unit)} ± 0 (exact)`;
+  if (atRounding(q)) return `${formatEngineering(q.value, q.unit, DOUBLE_DIGITS)} ± 0 (to rounding)`;
   const place = Math.floor(Math.log10(q.stderr)) - 1;
   return `${formatRoundedValue(q.value, place, q.unit)} ± ${formatUncertainty(q.stderr, q.unit)}`;
+}
+
+/** Whether the standard error is within the rounding of the value (ROUNDING_SHARE). */
+function atRounding(q: Quantity): boolean {
+  return q.stderr !== null && q.stderr < Math.abs(q.value) * ROUNDING_SHARE;
 }

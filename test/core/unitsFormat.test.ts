@@ -57,4 +57,12 @@ describe('formatMeasured', () => {
   it('marks an exact value', () => {
     expect(formatMeasured(quantity(470e-9, 0, 'F'))).toBe('470 nF ± 0 (exact)');
   });
+
+  it('shows an uncertainty within the rounding of the value as rounding, the value to at most 15 digits', () => {
+    // A noise-free flat line's fit: its standard error is 2e-17 of the value, the arithmetic's own rounding.
+    expect(formatMeasured(quantity(1.000000000000000666e-3, 2.1e-20, 'V'))).toBe('1 mV ± 0 (to rounding)');
+    expect(formatMeasured(quantity(-2.5, 1e-15, 'V'))).toBe('-2.5 V ± 0 (to rounding)');
+    // Just above it the uncertainty is shown as usual, the value to its place.
+    expect(formatMeasured(quantity(1, 1e-14, 'V'))).toBe('1.000000000000000 V ± 10 fV (1e-12 %)');
+  });
 });
