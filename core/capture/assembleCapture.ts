@@ -104,6 +104,8 @@ function columnAxis(index: number, layout: Layout, store: StoredRows, lines: Row
   const problem = findOrderProblem(time);
   if (problem === null) return { time, order: null, interval: uniformInterval(time), leftOut: null };
   const line = lines.lineOf(problem.row);
+  const copies = problem.time === problem.previous ? withoutCopiedRows(time, index, layout, store, lines, warnings) : null;
+  if (copies) return copies;
   if (!options.sortTime) {
     const where = `(column '${label(column)}')`;
     if (problem.time !== problem.previous) {
@@ -128,6 +130,33 @@ function columnAxis(index: number, layout: Layout, store: StoredRows, lines: Row
     leftOut = { reason: 'repeated time stamp', count: sorted.repeated, firstLine };
   }
   return { time: sortedTime, order: sorted.order, interval: uniformInterval(sortedTime), leftOut };
+}
+
+/**
+ * The axis without the rows that repeat the row before whole, its time stamp and every value of its channels (lines a
+ * logger or an export wrote twice: they hold nothing new, and kept they would shift every later sample by a step),
+ * with a warning. Null when any repeated stamp's row differs from the one before (stamps written with too few digits,
+ * say), or when the axis without them is not evenly stepped: a copy written over a row, not beside it, leaves a gap.
+ */
+function withoutCopiedRows(time: Float64Array, index: number, layout: Layout, store: StoredRows, lines: RowLines, warnings: string[]): Axis | null {
+  const values = layout.columns.flatMap((c, k) => (c.kind === 'value' && c.timeColumn === index ? [store.column(k)] : []));
+  const kept: number[] = [];
+  let firstCopy = -1;
+  for (let i = 0; i < time.length; i++) {
+    const copied = i > 0 && time[i] === time[i - 1];
+    if (!copied) kept.push(i);
+    else if (!values.every((column) => Object.is(column[i], column[i - 1]))) return null;
+    else if (firstCopy < 0) firstCopy = i;
+  }
+  const order = Uint32Array.from(kept);
+  const keptTime = Float64Array.from(order, (row) => time[row]);
+  const interval = findOrderProblem(keptTime) === null ? uniformInterval(keptTime) : null;
+  if (interval === null) return null;
+  const count = time.length - kept.length;
+  const firstLine = lines.lineOf(firstCopy);
+  const column = layout.columns[index];
+  warnings.push(`${count} row(s) repeating the row before whole (time in column '${label(column)}' and every value) were left out (first on line ${firstLine})`);
+  return { time: keptTime, order, interval, leftOut: { reason: 'row repeated whole', count, firstLine } };
 }
 
 /**

@@ -87,6 +87,29 @@ describe('time order', () => {
     expect(captureError(table(repeated)).message).toContain('time must increase (option sortTime sorts the rows)');
   });
 
+  it('leaves out rows written twice whole, beside the row they copy, with a warning', () => {
+    const twice = good.flatMap((r, i) => (i === 4 || i === 17 || i === 18 ? [r, r] : [r]));
+    twice.splice(21, 0, good[18]);
+    const capture = parseCapture(table(twice));
+    const [vsw, vgate] = capture.channels;
+    expect(vsw.values.length).toBe(N);
+    for (let i = 0; i < N; i++) {
+      expect(vsw.time[i]).toBe(Number((i * 1e-8).toExponential(3)));
+      expect(vsw.values[i]).toBe(value(i));
+      expect(vgate.values[i]).toBe(Number(String(-value(i))));
+    }
+    expect(capture.sampleInterval).toBeCloseTo(1e-8, 20);
+    expect(capture.warnings).toContain("4 row(s) repeating the row before whole (time in column 'Time (s)' and every value) were left out (first on line 7)");
+    expect(capture.importSummary.droppedRows).toEqual([{ reason: 'row repeated whole', count: 4, firstLine: 7 }]);
+  });
+
+  it('keeps refusing a repeated stamp whose values differ, or a copy written over a row (it leaves a gap)', () => {
+    const differing = good.flatMap((r, i) => (i === 4 ? [r, r.replace(/,[^,]+$/, ',0.123')] : [r]));
+    expect(captureError(table(differing)).message).toContain('repeats the time stamp of the row before');
+    expect(captureError(table(differing)).line).toBe(7);
+    expect(captureError(table(repeated)).message).toContain('repeats the time stamp of the row before');
+  });
+
   it('builds the axis from the sampleInterval option over a time column, from its first stamp', () => {
     const coarse = Array.from({ length: 200 }, (_, i) => `${(5e-9 + i * 1e-9).toExponential(2)},${value(i)},${-value(i)}`);
     const capture = parseCapture(table(coarse), { sampleInterval: 1e-9 });

@@ -106,9 +106,13 @@ describe('the import summary', () => {
     const timeless = parseCapture(rows.join('\n')).importSummary;
     expect(timeless.droppedRows).toEqual([{ reason: 'no readable time', count: 1, firstLine: 6 }]);
     const repeated = ringdown().split('\n');
-    repeated.splice(10, 0, repeated[9]);
+    repeated.splice(10, 0, `${repeated[9].split(',')[0]},0.125`);
     const sorted = parseCapture(repeated.join('\n'), { sortTime: true }).importSummary;
     expect(sorted.droppedRows).toEqual([{ reason: 'repeated time stamp', count: 1, firstLine: 11 }]);
+    // A row written twice whole is left out without asking.
+    const copied = ringdown().split('\n');
+    copied.splice(10, 0, copied[9]);
+    expect(parseCapture(copied.join('\n')).importSummary.droppedRows).toEqual([{ reason: 'row repeated whole', count: 1, firstLine: 11 }]);
   });
 
   it('gives the spread of the steps of an uneven axis', () => {
