@@ -129,3 +129,23 @@ export function unitSuffixedCell(text: string): string | null {
   }
   return null;
 }
+
+/** A cell that opens as a number does: a sign (the Unicode minus too) or not, then a digit or a point and a digit. */
+const NUMBER_OPENING = /^\s*[-+\u2212]?(\d|[.,]\d)/;
+
+/**
+ * The first cell of a line of cells (two or more, over half of them opening as numbers) that opens as a number but
+ * does not read as one (a Fortran 'D' exponent, a stray letter), for a message on a file with no rows of numbers;
+ * null when there is none.
+ */
+export function unreadableNumberCell(text: string): string | null {
+  for (const delimiter of CANDIDATES) {
+    const cells = splitLine(text, delimiter).filter((c) => c.trim() !== '');
+    if (cells.length < 2) continue;
+    const opening = cells.filter((cell) => NUMBER_OPENING.test(cell));
+    if (2 * opening.length <= cells.length) continue;
+    const unread = opening.find((cell) => slowCellValue(cell, true) === null);
+    if (unread !== undefined) return unread;
+  }
+  return null;
+}

@@ -53,7 +53,7 @@ import { cutOffReason } from './cutLastLine';
 import { ByteRowReader } from './byteRowReader';
 import { ColumnStore } from './columnStore';
 import { groupingCause } from './cellValue';
-import { dataShape, groupedCell, groupedCellAnyDelimiter, sameShape, unitSuffixedCell, type DataShape } from './dataShape';
+import { dataShape, groupedCell, groupedCellAnyDelimiter, sameShape, unitSuffixedCell, unreadableNumberCell, type DataShape } from './dataShape';
 import { decideLayout, rowDelimiter, type Layout } from './layout';
 import { MAX_LINE_LENGTH, checkLastLine, checkUnfinishedLine, lineTooLong } from './captureLimits';
 import { LineMap } from './lineMap';
@@ -606,6 +606,10 @@ function noRowsOfNumbers(lines: number, head: PreambleLine[]): CaptureError {
       return new CaptureError(
         `${message}; line ${line} holds ${quotedValue(withUnit.trim())}: a unit written after each number is not read; export the values as plain numbers, with the units in the column headers ('Time (us)')`,
       );
+    }
+    const unread = unreadableNumberCell(text);
+    if (unread !== null) {
+      return new CaptureError(`${message}; line ${line} holds ${quotedValue(unread.trim())}, which does not read as a number; export plain decimal numbers (such as -1.5e-06)`);
     }
   }
   return new CaptureError(message);

@@ -212,6 +212,16 @@ describe('a number written with a thousands separator', () => {
     expect(captureError('Item,Count\nbolts,12 apples\n').message).toBe('no rows of numbers found in 2 line(s)');
   });
 
+  it('every number in a form not read (a Fortran D exponent, a stray letter): no table, and the first such cell named', () => {
+    const rows = Array.from({ length: 40 }, (_, i) => `${(i * 1e-9 - 2e-8).toExponential(6).replace('e', 'D')},${(i % 7) * 0.5}`).join('\n');
+    expect(captureError(`Time (s),CH1 (V)\n${rows}\n`).message).toBe(
+      "no rows of numbers found in 41 line(s); line 2 holds '-2.000000D-8', which does not read as a number; export plain decimal numbers (such as -1.5e-06)",
+    );
+    expect(captureError('t,v\n1.0x,2\n2.0x,3\n').message).toContain("line 2 holds '1.0x', which does not read as a number");
+    // A heading that opens with a digit is no number meant (no more than half its cells open as numbers).
+    expect(captureError('2nd probe,time,volts\nx,y,z\n').message).toBe('no rows of numbers found in 2 line(s)');
+  });
+
   it('a footer of settings after the table is still left out, whatever its numbers', () => {
     const capture = parseCapture(`${grouped(';', (i) => mV(i))}Points;10,000.0\n`);
     expect(capture.channels[0].values.length).toBe(40);
