@@ -102,7 +102,7 @@ export function createFitPanel(actions: BenchActions) {
         standing.showRegime ? h('span', { class: 'regime', id: 'fit-regime', data: { regime: fit.regime } }, fit.regime) : null,
       ),
       // The solver's message explains a failed fit; beside a setup check's refusal (a converged fit) it would only confuse.
-      standing.tone === 'bad' && fit.status !== 'converged' && fit.message !== standing.label ? h('p', { class: 'error-text', id: 'fit-message' }, fit.message) : null,
+      standing.tone === 'bad' && fit.status !== 'converged' && summary.message !== standing.label ? h('p', { class: 'error-text', id: 'fit-message' }, summary.message) : null,
       firstDoubt ? h('p', { class: `first-warning ${standing.tone}`, id: 'fit-first-warning' }, firstDoubt, otherDoubts.length ? h('span', { class: 'muted' }, ` (${otherDoubts.length} more below)`) : null) : null,
       standing.showRegime ? h('p', { class: 'muted small' }, fit.regimeEvidence) : null,
     );

@@ -68,6 +68,20 @@ describe.skipIf(!hasChromium)('the capture panel in a browser', () => {
     await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-windows-1252.png') });
   });
 
+  it("names the channels that vary when the first one is flat", async () => {
+    const lines = ['Time (s),Probe off (V),Node (V)'];
+    for (let i = 0; i < 600; i++) {
+      const t = -1e-6 + i * 1e-8;
+      const ring = t < 0 ? 0 : Math.exp(-t * 1.5e6) * Math.sin(2 * Math.PI * 5e6 * t) + 0.01 * Math.sin(i * 12.9898);
+      lines.push(`${t.toExponential(6)},0.25,${ring.toFixed(5)}`);
+    }
+    const file = join(folder, 'flat-first.csv');
+    writeFileSync(file, `${lines.join('\n')}\n`);
+    await dropFile(page, file, 'flat-first.csv');
+    await waitForFit(page, 'flat-first.csv');
+    expect(await page.locator('#fit-message').innerText()).toContain("channel 'Node' of this capture varies: choose the channel to fit");
+  });
+
   it('offers the segments of a file of repeated acquisitions and fits the one chosen', async () => {
     const file = join(folder, 'two-segments.csv');
     writeFileSync(file, twoSegmentCapture());
