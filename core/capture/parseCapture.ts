@@ -594,6 +594,7 @@ const GROUPED_SEARCH_LINES = 1000;
 
 /** The error for a text without a table, naming the first line that would be a row of numbers but for digit groups. */
 function noRowsOfNumbers(lines: number, head: PreambleLine[]): CaptureError {
+  if (lines === 0) return new CaptureError('the file is empty: no rows of numbers');
   const message = `no rows of numbers found in ${lines} line(s)`;
   let searched = 0;
   for (const { text, line } of head) {

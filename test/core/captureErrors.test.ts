@@ -157,7 +157,7 @@ describe('too little data', () => {
 
   it('fails for text with no rows of numbers', () => {
     expect(captureError('# nothing here\nTime,CH1\n').message).toBe('no rows of numbers found in 2 line(s)');
-    expect(captureError('').message).toBe('no rows of numbers found in 0 line(s)');
+    expect(captureError('').message).toBe('the file is empty: no rows of numbers');
   });
 });
 
