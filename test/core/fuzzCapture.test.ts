@@ -9,7 +9,7 @@ import { encodeText, exportHabits } from '../fixtures/exportHabits';
 /** A case slower than this is treated as a hang (generous: a case takes well under a millisecond). */
 const HANG_MS = 2000;
 /** Errors about the whole text, where no single line is to blame (one that would be a row but for its cells may be named). */
-const WHOLE_TEXT = [/^no rows of numbers found in \d+ line\(s\)(?:; line \d+ holds '.*)?$/, /at least 20 samples are needed$/];
+const WHOLE_TEXT = [/^the file is empty: no rows of numbers$/, /^no rows of numbers found in \d+ line\(s\)(?:; line \d+ holds '.*)?$/, /at least 20 samples are needed$/];
 
 type Outcome = { capture: Capture } | { error: CaptureError };
 
