@@ -1,5 +1,6 @@
 // Fits the second-order response to one trace: runs the fit's steps in order; each step is its own module.
 
+import { fitOrigin, rebasedOptions, rebasedTrace, restoredFit } from './timeOrigin';
 import { formatEngineering } from '../units/format';
 import { estimateNoise, quantisationStep, recordNoise } from './noise';
 import { locateResponse, settleEvent } from './responseStart';
@@ -30,15 +31,22 @@ const FLAT_EVIDENCE = 'every usable sample holds one value';
 const FLAT_MESSAGE = `no second-order response found: ${FLAT_EVIDENCE} (a flat line: a disconnected probe, the wrong channel, or a window that misses the response?)`;
 
 /** ' (from 280 ns to 300 ns; the record runs from -50 ns to 250 ns)' for a window set at either end, so that a window beside the record shows as one; else ''. */
-function windowAndRecord(window: { start?: number; end?: number }, { time }: Trace): string {
+function windowAndRecord(window: { start?: number; end?: number }, { time }: Trace, origin: number): string {
   if (window.start === undefined && window.end === undefined) return '';
-  const at = (t: number | undefined, open: string) => (t === undefined ? open : formatEngineering(t, 's'));
+  const at = (t: number | undefined, open: string) => (t === undefined ? open : formatEngineering(t + origin, 's'));
   const finite = time.filter(Number.isFinite);
   const record = finite.length > 0 ? `; the record runs from ${at(finite[0], '')} to ${at(finite[finite.length - 1], '')}` : '';
   return ` (from ${at(window.start, 'the start')} to ${at(window.end, 'the end')}${record})`;
 }
 
 export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): ResponseFit {
+  const origin = fitOrigin(trace.time);
+  if (origin === 0) return fitOnAxis(trace, options, 0);
+  return restoredFit(fitOnAxis(rebasedTrace(trace, origin), rebasedOptions(options, origin), origin), origin);
+}
+
+/** The fit of a trace whose times are counted from `origin` (timeOrigin.ts), which only its messages add back. */
+function fitOnAxis(trace: Trace, options: ResponseFitOptions, origin: number): ResponseFit {
   // The continuous layouts are fitted first; a jump at the event is looked for once they are (jumpStart.ts).
   const continuity = 'continuous';
   const jumpOption = options.continuity ?? 'auto';
@@ -48,7 +56,7 @@ export function fitResponse(trace: Trace, options: ResponseFitOptions = {}): Res
   const prepared = fitSetAndSamples(trace, window);
   let set = prepared.set;
   if (set.time.length < MIN_FIT_SAMPLES) {
-    throw new FitInputError('trace', `only ${set.time.length} usable samples in the fit window${windowAndRecord(window, trace)}; at least ${MIN_FIT_SAMPLES} are needed`);
+    throw new FitInputError('trace', `only ${set.time.length} usable samples in the fit window${windowAndRecord(window, trace, origin)}; at least ${MIN_FIT_SAMPLES} are needed`);
   }
   if (!(set.range > 0)) return { ...noResponseFit(set, 0, [...set.warnings], FLAT_EVIDENCE, trace.unit), message: FLAT_MESSAGE };
   // Block means lie few to a ring period: their noise is read from second differences (noise.ts).
