@@ -1,6 +1,6 @@
 // A fit summary as the readable table the command line prints.
 
-import { formatEngineering } from '../units/format';
+import { formatEngineering, formatTimeRange } from '../units/format';
 import { escapeControls } from './escape';
 import { fitWarnings, type FitSummary } from './fitSummary';
 import { formatEventsText } from './eventsText';
@@ -33,7 +33,7 @@ export function formatFitText(s: FitSummary): string {
   for (const row of fitTransitionRows(s)) text += line(row.symbol, `${row.modelText}, measured ${row.measuredText}`);
   text += line('residual rms', `${formatEngineering(s.rmsResidual, s.finalValue.unit)} (noise ${formatEngineering(s.noiseRms, s.finalValue.unit)})`);
   text += line('samples used', `${s.samplesUsed}${s.decimation ? ` (${s.decimation.note})` : ''}`);
-  text += line('fit window', `${formatEngineering(s.window.start, 's')} to ${formatEngineering(s.window.end, 's')}`);
+  text += line('fit window', formatTimeRange(s.window.start, s.window.end));
   if (s.events) text += formatEventsText(s.events);
   for (const w of fitWarnings(s)) text += `  warning: ${w}\n`;
   return text;

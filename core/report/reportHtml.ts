@@ -1,7 +1,7 @@
 // The bench report as one self-contained, printable HTML file: summary and yield, then every unit.
 // No scripts, no network: inline CSS and inline SVG only. Every string from a record is escaped here.
 
-import { formatEngineering, formatMeasured } from '../units/format';
+import { formatEngineering, formatMeasured, formatTimeRange } from '../units/format';
 import { DEFERRAL, STANDING_ADVICE, STANDING_ADVICE_SOURCE } from '../safety/standingAdvice';
 import type { BenchRecord } from './benchRecord';
 import type { FitSummary } from './fitSummary';
@@ -259,7 +259,7 @@ function reproduceBlock(record: BenchRecord): string {
   return (
     `<div class="reproduce">Reproduce: <code>${e(reproduceCommand(record))}</code><br>` +
     `Capture sha256 <code>${e(c.sha256)}</code>, ${e(String(c.bytes))} bytes, channel ${e(c.channel)}; ` +
-    `fit window ${e(formatEngineering(record.fit.window.start, 's'))} to ${e(formatEngineering(record.fit.window.end, 's'))}, ${e(String(record.fit.samplesUsed))} samples.` +
+    `fit window ${e(formatTimeRange(record.fit.window.start, record.fit.window.end))}, ${e(String(record.fit.samplesUsed))} samples.` +
     `${design}<br>Logged by ${e(record.software.name)} ${e(record.software.version)}, record <code>${e(record.id)}</code>.</div>`
   );
 }

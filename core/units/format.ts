@@ -50,6 +50,23 @@ export function formatEngineering(value: number, unit: string, digits = 4): stri
   return join(String(mantissa), DISPLAY_PREFIX[exponent], unit);
 }
 
+/**
+ * 'start to end' in seconds, each to the digits that tell the two apart: '-1 µs to 7 µs', and on an axis far from
+ * zero (a logger's seconds since its start) '1234.499999 s to 1234.500007 s', not '1.234 ks to 1.235 ks'.
+ */
+export function formatTimeRange(start: number, end: number): string {
+  const span = Math.abs(end - start);
+  const far = Math.max(Math.abs(start), Math.abs(end));
+  const digits = span > 0 && far > span ? Math.min(DOUBLE_DIGITS, 4 + Math.ceil(Math.log10(far / span))) : 4;
+  const at = (t: number) => (digits > 4 ? formatPlainSeconds(t, digits) : formatEngineering(t, 's'));
+  return `${at(start)} to ${at(end)}`;
+}
+
+/** Seconds without a prefix, to `digits` significant digits, trailing zeros dropped: '1234.5 s'. */
+function formatPlainSeconds(t: number, digits: number): string {
+  return `${Number(t.toPrecision(digits))} s`;
+}
+
 /** Exactly two significant digits (trailing zeros kept), with its own prefix: '13 s^-1', '1.0 µs'. */
 function formatUncertainty(stderr: number, unit: string): string {
   const twoDigits = (x: number): string => {

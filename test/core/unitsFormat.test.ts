@@ -1,7 +1,7 @@
 // Display of values in engineering notation and of measured values with their uncertainty.
 
 import { describe, expect, it } from 'vitest';
-import { formatEngineering, formatMeasured } from '../../core/units/format';
+import { formatEngineering, formatMeasured, formatTimeRange } from '../../core/units/format';
 import { quantity } from '../../core/quantity';
 
 describe('formatEngineering', () => {
@@ -56,6 +56,13 @@ describe('formatMeasured', () => {
 
   it('marks an exact value', () => {
     expect(formatMeasured(quantity(470e-9, 0, 'F'))).toBe('470 nF ± 0 (exact)');
+  });
+
+  it('writes a time range to the digits that tell its ends apart', () => {
+    expect(formatTimeRange(-30e-9, 269.8e-9)).toBe('-30 ns to 269.8 ns');
+    expect(formatTimeRange(-997e-9, 6.995e-6)).toBe('-997 ns to 6.995 µs');
+    // A logger's axis, 1234.5 s in: 8 µs of it, which '1.234 ks to 1.235 ks' would hide.
+    expect(formatTimeRange(1234.499999003, 1234.500006995)).toBe('1234.499999003 s to 1234.500006995 s');
   });
 
   it('shows an uncertainty within the rounding of the value as rounding, the value to at most 15 digits', () => {
