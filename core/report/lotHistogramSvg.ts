@@ -59,7 +59,7 @@ export function renderLotHistogram(q: LotQuantity, designName: string): string {
 function valueAxis(min: number, max: number, unit: string): AxisScale {
   const scale = scaleAxis(min, max, unit, 6);
   if (takesPrefix(unit)) return scale;
-  return { ticks: scale.ticks, labels: scale.ticks.map((t) => String(Number(t.toPrecision(6)))), unit };
+  return { ticks: scale.ticks, labels: scale.ticks.map((t) => String(Number(t.toPrecision(6)))), unit, origin: null };
 }
 
 function axes(

@@ -1,6 +1,13 @@
 // Axis ticks for report plots: steps of 1, 2 or 5 times a power of ten, labelled with one SI prefix per axis.
 
+import { formatEngineering, rangeDigits } from '../units/format';
 import { DISPLAY_PREFIX } from '../units/prefixes';
+
+/**
+ * A range more than this many spans from zero is labelled from an origin ('Time − 1234.499999 s (µs)'): its labels
+ * would need more decimals than a label holds (6), and its ticks all read '1.234500'.
+ */
+const OFFSET_SPANS = 100;
 
 export interface AxisScale {
   /** Tick positions in SI units, inside [min, max]. */
@@ -9,10 +16,29 @@ export interface AxisScale {
   labels: string[];
   /** Prefixed unit for the axis title ('µs', 'V', 'mA'), or the prefix alone when the unit is ''. */
   unit: string;
+  /** The origin the labels count from, written for the title ('1234.499999 s'), or null when they count from 0. */
+  origin: string | null;
 }
 
-/** Ticks for the range [min, max] (min < max) at most about `target` of them. */
-export function scaleAxis(min: number, max: number, unit: string, target = 6): AxisScale {
+/** The axis title: 'Time (µs)', or 'Time − 1234.499999 s (µs)' for labels counted from an origin. */
+export function axisTitle(name: string, scale: AxisScale, unit = scale.unit): string {
+  const from = scale.origin === null ? '' : ` − ${scale.origin}`;
+  return unit === '' ? `${name}${from}` : `${name}${from} (${unit})`;
+}
+
+/**
+ * Ticks for the range [min, max] (min < max) at most about `target` of them; with `fromOrigin`, a range far from zero
+ * (OFFSET_SPANS) is labelled from a round origin inside it.
+ */
+export function scaleAxis(min: number, max: number, unit: string, target = 6, fromOrigin = false): AxisScale {
+  const span = max - min;
+  if (fromOrigin && span > 0 && Math.max(Math.abs(min), Math.abs(max)) > OFFSET_SPANS * span) {
+    const roundTo = Math.pow(10, Math.ceil(Math.log10(span)));
+    const origin = Math.round((min + max) / 2 / roundTo) * roundTo;
+    const inner = scaleAxis(min - origin, max - origin, unit, target);
+    const written = formatEngineering(origin, unit, rangeDigits(origin, origin + roundTo, 1));
+    return { ...inner, ticks: inner.ticks.map((t) => t + origin), origin: written };
+  }
   const raw = (max - min) / Math.max(1, target);
   const magnitude = Math.pow(10, Math.floor(Math.log10(raw)));
   const step = [1, 2, 5, 10].map((m) => m * magnitude).find((s) => s >= raw) ?? 10 * magnitude;
@@ -27,5 +53,5 @@ export function scaleAxis(min: number, max: number, unit: string, target = 6): A
     const text = (t / divisor).toFixed(Math.min(decimals, 6));
     return /^-0(\.0*)?$/.test(text) ? text.slice(1) : text;
   });
-  return { ticks, labels, unit: `${DISPLAY_PREFIX[exponent]}${unit}` };
+  return { ticks, labels, unit: `${DISPLAY_PREFIX[exponent]}${unit}`, origin: null };
 }

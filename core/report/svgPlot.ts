@@ -5,7 +5,7 @@
 
 import type { ColumnEnvelope } from './decimate';
 import { escapeHtml } from './escape';
-import { scaleAxis, type AxisScale } from './plotScale';
+import { axisTitle, scaleAxis, type AxisScale } from './plotScale';
 
 export interface PlotCurve {
   x: ArrayLike<number>;
@@ -52,8 +52,8 @@ export function renderOverlayPlot(input: OverlayPlotInput): string {
   const [yMin, yMax] = yRangeOf(input);
   const sx = (x: number) => area.x0 + ((x - xMin) / (xMax - xMin)) * (area.x1 - area.x0);
   const sy = (y: number) => area.y1 - ((y - yMin) / (yMax - yMin)) * (area.y1 - area.y0);
-  const xScale = scaleAxis(xMin, xMax, 's', 8);
-  const yScale = scaleAxis(yMin, yMax, input.yUnit, 5);
+  const xScale = scaleAxis(xMin, xMax, 's', 8, true);
+  const yScale = scaleAxis(yMin, yMax, input.yUnit, 5, true);
 
   const clip = `plot-area-${input.id.replace(/[^A-Za-z0-9-]/g, '-')}`;
   const parts: string[] = [];
@@ -168,8 +168,8 @@ function axes(
   });
   svg += '</g>';
   const midY = (area.y0 + area.y1) / 2;
-  svg += `<text class="axis-title" x="${(area.x0 + area.x1) / 2}" y="${area.y1 + 34}" text-anchor="middle" fill="${c}">time (${escapeHtml(xScale.unit)})</text>`;
-  const yTitle = yScale.unit ? `${yLabel} (${yScale.unit})` : yLabel;
+  svg += `<text class="axis-title" x="${(area.x0 + area.x1) / 2}" y="${area.y1 + 34}" text-anchor="middle" fill="${c}">${escapeHtml(axisTitle('time', xScale))}</text>`;
+  const yTitle = axisTitle(yLabel, yScale);
   svg += `<text class="axis-title" transform="translate(14,${midY}) rotate(-90)" text-anchor="middle" fill="${c}">${escapeHtml(yTitle)}</text>`;
   return svg;
 }

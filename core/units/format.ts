@@ -55,11 +55,19 @@ export function formatEngineering(value: number, unit: string, digits = 4): stri
  * zero (a logger's seconds since its start) '1234.499999 s to 1234.500007 s', not '1.234 ks to 1.235 ks'.
  */
 export function formatTimeRange(start: number, end: number): string {
-  const span = Math.abs(end - start);
-  const far = Math.max(Math.abs(start), Math.abs(end));
-  const digits = span > 0 && far > span ? Math.min(DOUBLE_DIGITS, 4 + Math.ceil(Math.log10(far / span))) : 4;
+  const digits = rangeDigits(start, end);
   const at = (t: number) => (digits > 4 ? formatPlainSeconds(t, digits) : formatEngineering(t, 's'));
   return `${at(start)} to ${at(end)}`;
+}
+
+/**
+ * Significant digits that tell the ends of a range apart to `digits` digits of its span: `digits` for a range near
+ * zero, more for one far from it (at most the 15 a double holds).
+ */
+export function rangeDigits(start: number, end: number, digits = 4): number {
+  const span = Math.abs(end - start);
+  const far = Math.max(Math.abs(start), Math.abs(end));
+  return span > 0 && far > span ? Math.min(DOUBLE_DIGITS, digits + Math.ceil(Math.log10(far / span))) : digits;
 }
 
 /** Seconds without a prefix, to `digits` significant digits, trailing zeros dropped: '1234.5 s'. */

@@ -13,8 +13,11 @@ import { setupChecksView, setupOptionsForm } from './setupChecksView';
 import { transitionView } from './transitionView';
 import type { BenchActions } from '../actions';
 import type { UnitRefusal } from '../workerProtocol';
+import { rangeDigits } from '../../core/units/format';
 
 /** The window's words for each row of fitResultRows (its name and symbol come from there). */
+/** Significant digits of the fit window's fields near zero (a window typed there keeps its own). */
+const WINDOW_DIGITS = 6;
 const WORDS: Record<string, [symbol: string, words: string, title?: string]> = {
   // Short enough to show whole in the readout at 1280 px; the title gives the longer name.
   alpha: ['α', 'damping rate', 'damping rate (neper frequency): the envelope falls as e^(−αt)'],
@@ -128,8 +131,10 @@ export function createFitPanel(actions: BenchActions) {
     replaceChildren(eventList, ...(summary.events ? eventsView(summary.events, (event) => void actions.chooseEvent(event)) : []));
     replaceChildren(steps, ...(summary.transitions ? transitionView(summary.transitions) : []));
     if (document.activeElement !== startInput && document.activeElement !== endInput) {
-      startInput.value = showValue(fit.window.start, 's', 6).replace(/\s/g, '');
-      endInput.value = showValue(fit.window.end, 's', 6).replace(/\s/g, '');
+      // Digits enough to tell the ends apart on an axis far from zero, where 6 read both as '1.2345ks'.
+      const digits = rangeDigits(fit.window.start, fit.window.end, WINDOW_DIGITS);
+      startInput.value = showValue(fit.window.start, 's', digits).replace(/\s/g, '');
+      endInput.value = showValue(fit.window.end, 's', digits).replace(/\s/g, '');
     }
     replaceChildren(
       extra,

@@ -1,6 +1,6 @@
 // Axis ticks and titles in engineering units ('Time (µs)', 'Voltage (mV)'), from the range shown.
 
-import { scaleAxis } from '../../core/report/plotScale';
+import { axisTitle, scaleAxis } from '../../core/report/plotScale';
 import { DISPLAY_PREFIX } from '../../core/units/prefixes';
 import type { Range } from './viewRange';
 
@@ -17,8 +17,8 @@ export interface AxisTicks {
 export function axisTicks(range: Range, unit: string, name: string, pixels: number, direction: 'x' | 'y'): AxisTicks {
   const [low, high] = range[0] < range[1] ? range : [range[0] - 1, range[0] + 1];
   const target = Math.max(2, Math.round(pixels / PIXELS_PER_TICK[direction]));
-  const scale = scaleAxis(low, high, unit, target);
-  return { tickvals: scale.ticks, ticktext: scale.labels, title: `${name} (${unit === '' ? powerOfPrefix(scale.unit) : scale.unit})` };
+  const scale = scaleAxis(low, high, unit, target, true);
+  return { tickvals: scale.ticks, ticktext: scale.labels, title: axisTitle(name, scale, unit === '' ? powerOfPrefix(scale.unit) : scale.unit) };
 }
 
 /** A unitless axis names its scale as a power of ten ('×1e-3'), since a prefix alone reads as a unit. */

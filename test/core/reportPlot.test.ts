@@ -1,7 +1,7 @@
 // The report plot: min/max decimation, axis ticks, the SVG it draws and the redrawn fitted curve.
 import { describe, expect, it } from 'vitest';
 import { decimateMinMax } from '../../core/report/decimate';
-import { scaleAxis } from '../../core/report/plotScale';
+import { axisTitle, scaleAxis } from '../../core/report/plotScale';
 import { PLOT_COLORS, plotColumns, renderOverlayPlot } from '../../core/report/svgPlot';
 
 describe('decimateMinMax', () => {
@@ -41,6 +41,24 @@ describe('scaleAxis', () => {
     expect(axis.ticks.length).toBe(ticks.length);
     expect(axis.labels).toEqual(labels);
     expect(axis.unit).toBe(prefixed);
+  });
+
+  it('labels a range far from zero from a round origin the title names, when asked', () => {
+    // 8 µs of a logger's axis 1234.5 s in: without an origin every label would read 1.234500 (ks).
+    const far = scaleAxis(1234.499999003, 1234.500006995, 's', 5, true);
+    expect(far.origin).toBe('1.2345 ks');
+    expect(far.unit).toBe('µs');
+    expect(far.labels).toEqual(['0', '2', '4', '6']);
+    far.ticks.forEach((t, i) => expect(t - 1234.5).toBeCloseTo(2 * i * 1e-6, 9));
+    expect(axisTitle('Time', far)).toBe('Time − 1.2345 ks (µs)');
+    // A 400 V bus ringing by 2 V.
+    const bus = scaleAxis(399, 401.2, 'V', 5, true);
+    expect(axisTitle('Voltage', bus)).toBe('Voltage − 400 V (V)');
+    expect(bus.labels).toEqual(['-1.0', '-0.5', '0.0', '0.5', '1.0']);
+    // Near zero, or not asked: labels count from 0 as before.
+    expect(scaleAxis(-2e-7, 1.8e-6, 's', 5, true).origin).toBeNull();
+    expect(axisTitle('Time', scaleAxis(-2e-7, 1.8e-6, 's', 5, true))).toBe('Time (µs)');
+    expect(scaleAxis(399, 401.2, 'V', 5).origin).toBeNull();
   });
 });
 
