@@ -198,11 +198,13 @@ export function groupingCause(cell: string): string | null {
 const DATE_TIME =
   /^\d{1,4}[/.-]\d{1,2}[/.-]\d{1,4}(?:[ T]+|\s*,\s*)\d{1,2}:\d{2}(?::\d{2}(?:[.,]\d+)?)?(?:\s*[AP]M)?(?:Z|[+-]\d{2}:?\d{2})?$/i;
 const TIME_OF_DAY = /^\d{1,2}:\d{2}:\d{2}(?:[.,]\d+)?(?:\s*[AP]M)?$/i;
+/** A date alone, its year written in full: a logger's date column beside its time-of-day column. */
+const DATE_ONLY = /^(?:\d{4}[/.-]\d{1,2}[/.-]\d{1,2}|\d{1,2}[/.-]\d{1,2}[/.-]\d{4})$/;
 
-/** True for a wall-clock time stamp such as '5/26/2021  11:44:55.465797' or '11:44:55.4'. */
+/** True for a wall-clock time stamp such as '5/26/2021  11:44:55.465797', '11:44:55.4' or a date alone, '2026-12-05'. */
 export function isTimestamp(cell: string): boolean {
   const text = cell.trim();
-  return DATE_TIME.test(text) || TIME_OF_DAY.test(text);
+  return DATE_TIME.test(text) || TIME_OF_DAY.test(text) || DATE_ONLY.test(text);
 }
 
 /** Where fastNumber has composeNumber put its value. */

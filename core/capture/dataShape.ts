@@ -144,7 +144,7 @@ export function unreadableNumberCell(text: string): string | null {
     if (cells.length < 2) continue;
     const opening = cells.filter((cell) => NUMBER_OPENING.test(cell));
     if (2 * opening.length <= cells.length) continue;
-    const unread = opening.find((cell) => slowCellValue(cell, true) === null);
+    const unread = opening.find((cell) => slowCellValue(cell, true) === null && !isTimestamp(cell));
     if (unread !== undefined) return unread;
   }
   return null;

@@ -131,7 +131,12 @@ describe('isTimestamp', () => {
     ['11:44:55.4', true],
     ['11:44:55 PM', true],
     ['2.000000E-6', false],
-    ['5/26/2021', false],
+    // A date alone, its year in full: a logger's date column beside its time-of-day column.
+    ['5/26/2021', true],
+    ['2026-12-05', true],
+    ['05.12.2026', true],
+    ['5.26', false],
+    ['2026-12', false],
     ['12:30', false],
     ['abc', false],
   ])("'%s' -> %s", (cell, expected) => {

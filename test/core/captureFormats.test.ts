@@ -338,6 +338,17 @@ describe('wall-clock time stamps', () => {
     expect(capture.channels[1].time[5]).toBe(5 * 1e-6);
   });
 
+  it("reads a logger's date column beside its time-of-day column as stamps too", () => {
+    const clock = (i: number): string => `11:44:55.${String(465797 + 2 * i).padStart(6, '0')}`;
+    for (const date of ['2021-05-26', '26.05.2021', '5/26/2021']) {
+      const capture = parseCapture(`Date,Time,V_S\n${rowsOf((i) => `${date},${clock(i)},${values[i]}`)}`, { sampleInterval: 2e-6 });
+      expect(capture.channels.map((c) => c.name)).toEqual(['V_S']);
+      expect(capture.channels[0].time[5]).toBe(5 * 2e-6);
+      expect(capture.channels[0].values[7]).toBe(values[7]);
+    }
+    expect(captureError(`Date,Time,V_S\n${rowsOf((i) => `2021-05-26,${clock(i)},${values[i]}`)}`).message).toMatch(/^line 2: column 'Date' holds wall-clock time stamps \('2021-05-26'\)/);
+  });
+
   it('fails naming the first data line without a stated interval', () => {
     const error = captureError(`waveform,V_S,V_C\n\n${body}`);
     expect(error.line).toBe(4);
