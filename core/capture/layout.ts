@@ -398,7 +398,9 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
   const interval = chooseInterval(preamble, options, warnings);
   const firstDataLine = head[runStart].line;
   if (interval === null) {
-    const stamped = columns.find((c) => c.kind === 'timestamp');
+    // A logger's time-of-day column names the stamps better than its date column beside it.
+    const stampedColumns = columns.filter((c) => c.kind === 'timestamp');
+    const stamped = stampedColumns.find((c) => firstCells[columns.indexOf(c)]?.includes(':')) ?? stampedColumns[0];
     if (stamped) {
       throw new CaptureError(
         `column '${stamped.heading || stamped.name}' holds wall-clock time stamps ('${preview(firstCells[columns.indexOf(stamped)])}') ` +

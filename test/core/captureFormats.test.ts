@@ -346,7 +346,7 @@ describe('wall-clock time stamps', () => {
       expect(capture.channels[0].time[5]).toBe(5 * 2e-6);
       expect(capture.channels[0].values[7]).toBe(values[7]);
     }
-    expect(captureError(`Date,Time,V_S\n${rowsOf((i) => `2021-05-26,${clock(i)},${values[i]}`)}`).message).toMatch(/^line 2: column 'Date' holds wall-clock time stamps \('2021-05-26'\)/);
+    expect(captureError(`Date,Time,V_S\n${rowsOf((i) => `2021-05-26,${clock(i)},${values[i]}`)}`).message).toMatch(/^line 2: column 'Time' holds wall-clock time stamps \('11:44:55.465797'\)/);
   });
 
   it('fails naming the first data line without a stated interval', () => {
