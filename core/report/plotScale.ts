@@ -4,7 +4,7 @@ import { formatEngineering, rangeDigits } from '../units/format';
 import { DISPLAY_PREFIX } from '../units/prefixes';
 
 /**
- * A range more than this many spans from zero is labelled from an origin ('Time − 1234.499999 s (µs)'): its labels
+ * A range more than this many spans from zero is labelled from an origin ('Time − 1.2345 ks (µs)'): its labels
  * would need more decimals than a label holds (6), and its ticks all read '1.234500'.
  */
 const OFFSET_SPANS = 100;
@@ -16,11 +16,11 @@ export interface AxisScale {
   labels: string[];
   /** Prefixed unit for the axis title ('µs', 'V', 'mA'), or the prefix alone when the unit is ''. */
   unit: string;
-  /** The origin the labels count from, written for the title ('1234.499999 s'), or null when they count from 0. */
+  /** The origin the labels count from, written for the title ('1.2345 ks'), or null when they count from 0. */
   origin: string | null;
 }
 
-/** The axis title: 'Time (µs)', or 'Time − 1234.499999 s (µs)' for labels counted from an origin. */
+/** The axis title: 'Time (µs)', or 'Time − 1.2345 ks (µs)' for labels counted from an origin. */
 export function axisTitle(name: string, scale: AxisScale, unit = scale.unit): string {
   const from = scale.origin === null ? '' : ` − ${scale.origin}`;
   return unit === '' ? `${name}${from}` : `${name}${from} (${unit})`;

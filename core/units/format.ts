@@ -56,7 +56,7 @@ export function formatEngineering(value: number, unit: string, digits = 4): stri
  */
 export function formatTimeRange(start: number, end: number): string {
   const digits = rangeDigits(start, end);
-  const at = (t: number) => (digits > 4 ? formatPlainSeconds(t, digits) : formatEngineering(t, 's'));
+  const at = (t: number) => (digits > 4 ? join(formatPlain(t, digits), '', 's') : formatEngineering(t, 's'));
   return `${at(start)} to ${at(end)}`;
 }
 
@@ -68,11 +68,6 @@ export function rangeDigits(start: number, end: number, digits = 4): number {
   const span = Math.abs(end - start);
   const far = Math.max(Math.abs(start), Math.abs(end));
   return span > 0 && far > span ? Math.min(DOUBLE_DIGITS, digits + Math.ceil(Math.log10(far / span))) : digits;
-}
-
-/** Seconds without a prefix, to `digits` significant digits, trailing zeros dropped: '1234.5 s'. */
-function formatPlainSeconds(t: number, digits: number): string {
-  return `${Number(t.toPrecision(digits))} s`;
 }
 
 /** Exactly two significant digits (trailing zeros kept), with its own prefix: '13 s^-1', '1.0 µs'. */

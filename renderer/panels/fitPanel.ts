@@ -15,9 +15,9 @@ import type { BenchActions } from '../actions';
 import type { UnitRefusal } from '../workerProtocol';
 import { rangeDigits } from '../../core/units/format';
 
-/** The window's words for each row of fitResultRows (its name and symbol come from there). */
 /** Significant digits of the fit window's fields near zero (a window typed there keeps its own). */
 const WINDOW_DIGITS = 6;
+/** The window's words for each row of fitResultRows (its name and symbol come from there). */
 const WORDS: Record<string, [symbol: string, words: string, title?: string]> = {
   // Short enough to show whole in the readout at 1280 px; the title gives the longer name.
   alpha: ['α', 'damping rate', 'damping rate (neper frequency): the envelope falls as e^(−αt)'],
