@@ -13,6 +13,8 @@ const TERMS: [RegExp, string][] = [
   [/--time-unit/g, "the 'Time in' choice"],
   [/--value-unit (\S+?)(?=[\s,;.)]|$)/g, "the 'Values in' choice ($1)"],
   [/--value-unit/g, "the 'Values in' choice"],
+  [/with --column/g, "with the 'Channel' choice"],
+  [/\(--column\)/g, "(the 'Channel' choice)"],
   [/--event N fits another/g, "the 'Event to fit' choice takes another"],
   // A record fitted whole shows no event choice: a window around one event fits it alone.
   [/\(--event N fits one of the events\)/g, "(set 'Window from' and 'to' around one to fit it alone)"],

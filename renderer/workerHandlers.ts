@@ -1,7 +1,7 @@
 // The fit worker's requests answered with core/workflow: no `self`, no DOM, so node tests call it directly.
 
 import { parseCapture, parseCaptureFileBytes } from '../core/capture/parseCapture';
-import { selectChannel } from '../core/capture/selectChannel';
+import { selectChannel, withReadUnit } from '../core/capture/selectChannel';
 import type { Capture, CaptureOptions, Channel } from '../core/capture/types';
 import { parseStatedUnit } from '../core/units/unitText';
 import { parseTime } from '../core/workflow/userValues';
@@ -65,6 +65,7 @@ export function handleWorkerRequest(request: WorkerAsk, progress: (stage: string
       progress(`fitting ${channel.values.length.toLocaleString('en')} samples`);
       let measured: MeasureResult;
       try {
+        withReadUnit(capture, channel);
         measured = measureCapture({
           file: name,
           channel,

@@ -224,7 +224,8 @@ function buildChannel(column: ColumnPlan, store: StoredRows, c: number, axis: Ax
     }
   }
   const clipping = detectClipping(out);
-  const channel = { name: column.name, unit: column.unit, time, values: out, clipped: clipping.clipped, dropped: n - out.length };
+  const channel: Channel = { name: column.name, unit: column.unit, time, values: out, clipped: clipping.clipped, dropped: n - out.length };
+  if (column.unreadUnit) channel.unreadUnit = column.unreadUnit;
   return { channel, clipping };
 }
 

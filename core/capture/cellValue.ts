@@ -195,9 +195,10 @@ export function groupingCause(cell: string): string | null {
   return `a number written with a thousands separator (${SEPARATOR_NAMES[match[1]]}); export the numbers without digit grouping`;
 }
 
+// Minutes and seconds of one digit too ('10:0:0.5'): some loggers write their stamps without padding.
 const DATE_TIME =
-  /^\d{1,4}[/.-]\d{1,2}[/.-]\d{1,4}(?:[ T]+|\s*,\s*)\d{1,2}:\d{2}(?::\d{2}(?:[.,]\d+)?)?(?:\s*[AP]M)?(?:Z|[+-]\d{2}:?\d{2})?$/i;
-const TIME_OF_DAY = /^\d{1,2}:\d{2}:\d{2}(?:[.,]\d+)?(?:\s*[AP]M)?$/i;
+  /^\d{1,4}[/.-]\d{1,2}[/.-]\d{1,4}(?:[ T]+|\s*,\s*)\d{1,2}:\d{1,2}(?::\d{1,2}(?:[.,]\d+)?)?(?:\s*[AP]M)?(?:Z|[+-]\d{2}:?\d{2})?$/i;
+const TIME_OF_DAY = /^\d{1,2}:\d{1,2}:\d{1,2}(?:[.,]\d+)?(?:\s*[AP]M)?$/i;
 /** A date alone, its year written in full: a logger's date column beside its time-of-day column. */
 const DATE_ONLY = /^(?:\d{4}[/.-]\d{1,2}[/.-]\d{1,2}|\d{1,2}[/.-]\d{1,2}[/.-]\d{4})$/;
 

@@ -2,7 +2,7 @@
 // settles the unit a column is read in (the header's, or the one an option states).
 
 import { canonicalUnit } from '../units/prefixes';
-import { TIME_UNIT, isUnitAttempt, printable, readUnitText, unitProblem, type StatedUnit, type UnitReading } from '../units/unitText';
+import { LONG_TIME_SYMBOL, TIME_UNIT, isUnitAttempt, printable, readUnitText, unitProblem, type StatedUnit, type UnitReading } from '../units/unitText';
 import { CaptureError, type CaptureOptions } from './types';
 
 export interface ColumnHeading {
@@ -34,6 +34,11 @@ export function isTimeName(name: string): boolean {
   return TIME_NAME.test(name.trim());
 }
 
+/** A unit's own symbol as written ('s', 'h', 'V'), not a loose spelling ('S'). */
+function isExactSymbol(text: string): boolean {
+  return canonicalUnit(text) !== null || Object.values(LONG_TIME_SYMBOL).includes(text);
+}
+
 /** True when the unit reads as time, or as one of two times ('MS'). */
 export function readsAsTime(reading: UnitReading | null): boolean {
   return reading !== null && (reading.kind === 'ambiguous' || (reading.kind === 'known' && reading.unit === TIME_UNIT));
@@ -63,7 +68,7 @@ export function parseColumnHeading(cell: string): ColumnHeading {
   const byUnderscore = underscored ? withUnit(underscored[1], underscored[2]) : null;
   if (underscored && byUnderscore && readsAsUnit(byUnderscore)) {
     const suffix = underscored[2];
-    if (suffix.length >= 2 || (isTimeName(underscored[1]) && canonicalUnit(suffix) !== null)) return byUnderscore;
+    if (suffix.length >= 2 || (isTimeName(underscored[1]) && isExactSymbol(suffix))) return byUnderscore;
   }
   // 'in' then a unit, as some scopes and most German exports head a column; only a unit read as known counts
   // ('Log in' and 'Plug in A2' stay names).
@@ -73,10 +78,19 @@ export function parseColumnHeading(cell: string): ColumnHeading {
   return { name: text, unitText: null, reading: null };
 }
 
-/** True when every non-empty cell is only a unit ('(s)', '[V]', 'mV'): a units row under the names. */
+/** A cell that is only bracketed text meant as a unit ('(VV)'), whether or not it reads as one. */
+const BRACKETED_UNIT = /^\s*[([]([^()[\]]*)[)\]]\s*$/;
+
+/**
+ * True when every non-empty cell is only a unit ('(s)', '[V]', 'mV'), and one at least reads as one: a units row under
+ * the names. A bracketed unit that does not read ('(VV)', a scope's math channel) is still that column's unit, then
+ * refused for that column alone (columnUnit).
+ */
 export function isUnitsRow(cells: string[]): boolean {
-  const filled = cells.map((c) => unitCellText(c)).filter((c) => c !== '');
-  return filled.length > 0 && filled.every((c) => readUnitText(c).kind !== 'unknown');
+  const filled = cells.filter((c) => unitCellText(c) !== '');
+  const reads = (cell: string) => readUnitText(unitCellText(cell)).kind !== 'unknown';
+  const bracketedUnit = (cell: string) => isUnitAttempt(BRACKETED_UNIT.exec(cell)?.[1] ?? '');
+  return filled.some(reads) && filled.every((c) => reads(c) || bracketedUnit(c));
 }
 
 /** The unit of a units-row cell without its brackets ('(mV)' -> 'mV'); a cell longer than a heading is left as it is. */
@@ -85,10 +99,19 @@ export function unitCellText(cell: string): string {
   return text.length > LONGEST_HEADING ? text : text.replace(/^[([]\s*|\s*[)\]]$/g, '');
 }
 
+/** The SI unit and scale a column is read in; for a channel whose header's unit cannot be read, why not (see columnUnit). */
+export interface ColumnUnit {
+  unit: string;
+  scale: number;
+  unread?: string;
+}
+
 /**
  * The SI unit and scale a column is read in: the one the option states (time columns: options.timeUnit; channels:
- * options.valueUnit), with a note when the header says otherwise; else the header's. A unit the header gives that is
- * not recognised, ambiguous or of the wrong kind is a CaptureError on `line` naming the column and the option.
+ * options.valueUnit), with a note when the header says otherwise; else the header's. A time column whose header gives
+ * a unit that is not recognised, ambiguous or of the wrong kind is a CaptureError on `line` naming the column and the
+ * option. A channel's is not (another channel may be the one wanted: a scope's math channel in 'VV' beside CH1 in V):
+ * the channel is kept without a unit, `unread` says why in the words of that error, and a fit of it is refused.
  */
 export function columnUnit(
   heading: ColumnHeading,
@@ -97,7 +120,7 @@ export function columnUnit(
   options: CaptureOptions,
   line: number | null,
   warnings: string[],
-): { unit: string; scale: number } {
+): ColumnUnit {
   const stated: StatedUnit | undefined = isTime ? options.timeUnit : options.valueUnit;
   const option = isTime ? '--time-unit' : '--value-unit';
   const { unitText, reading } = heading;
@@ -110,12 +133,17 @@ export function columnUnit(
   }
   if (unitText === null || reading === null) return { unit: '', scale: 1 };
   if (!isTime && DECIBELS.test(unitText)) {
-    throw new CaptureError(`column '${printable(label)}': unit '${printable(unitText)}' is a level in decibels, and a response is fitted to linear values; export the channel in volts or amperes`, line);
+    return unreadChannelUnit(label, `unit '${printable(unitText)}' is a level in decibels, and a response is fitted to linear values; export the channel in volts or amperes`, warnings);
   }
   const problem = unitProblem(unitText, reading, isTime);
-  if (problem !== '' || reading.kind !== 'known') {
-    const what = isTime ? 'the time unit' : "the channel's unit";
-    throw new CaptureError(`column '${printable(label)}': ${problem}; state ${what} with ${option}`, line);
-  }
-  return { unit: reading.unit, scale: reading.scale };
+  if (problem === '' && reading.kind === 'known') return { unit: reading.unit, scale: reading.scale };
+  if (!isTime) return unreadChannelUnit(label, `${problem}; state the channel's unit with ${option}`, warnings);
+  throw new CaptureError(`column '${printable(label)}': ${problem}; state the time unit with ${option}`, line);
+}
+
+/** A channel kept without a unit, since its header's cannot be read: noted, and the reason kept for a fit of it. */
+function unreadChannelUnit(label: string, why: string, warnings: string[]): ColumnUnit {
+  const unread = `column '${printable(label)}': ${why}`;
+  warnings.push(`${unread} (the channel is kept without a unit, and is not fitted until its unit is known)`);
+  return { unit: '', scale: 1, unread };
 }

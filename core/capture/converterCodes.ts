@@ -32,6 +32,8 @@ export interface CodedColumn {
   unit: string;
   scale: number;
   offset: number;
+  /** Set when the header gives a unit that could not be read: such a column holds no codes to convert. */
+  unreadUnit: unknown;
 }
 
 interface Stated {
@@ -69,7 +71,7 @@ export function readConverterCodes(columns: CodedColumn[], shapes: DataShape[], 
     perDivision?.key ??
     Object.keys(preamble.metadata).find((k) => [PER_CODE, PER_DIVISION, CODES_PER_DIVISION].some((p) => p.test(k)) && !NOT_VERTICAL.test(k));
   if (scaleKey === undefined) return null;
-  const coded = columns.filter((column, c) => column.kind === 'value' && column.unit === '' && shapes.every((s) => WHOLE_NUMBER.test(s.cells[c]?.trim() ?? '')));
+  const coded = columns.filter((column, c) => column.kind === 'value' && column.unit === '' && column.unreadUnit === null && shapes.every((s) => WHOLE_NUMBER.test(s.cells[c]?.trim() ?? '')));
   if (coded.length === 0) return null;
   const names = `channel(s) ${coded.map((c) => `'${c.name}'`).join(', ')}`;
   const kept = (why: string) => `${names} hold whole numbers and the preamble states a vertical scale ('${scaleKey}'): they look like converter codes, and are kept as codes, unscaled (${why})`;

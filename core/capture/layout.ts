@@ -1,9 +1,9 @@
 // Decides how a capture text is laid out: delimiter, header, units, time columns, channels and stated timing.
 
-import { CaptureError, type CaptureOptions } from './types';
+import { CaptureError, type CaptureOptions, type UnreadUnit } from './types';
 import { groupingCause, isTimestamp, slowCellValue } from './cellValue';
 import { checkColumnCount } from './captureLimits';
-import { columnUnit, isTimeName, isUnitsRow, parseColumnHeading, readsAsTime, unitCellText, type ColumnHeading } from './columnHeader';
+import { columnUnit, isTimeName, type ColumnUnit, isUnitsRow, parseColumnHeading, readsAsTime, unitCellText, type ColumnHeading } from './columnHeader';
 import { sameShape, dataShape, groupedCell, type DataShape } from './dataShape';
 import {
   INDEX_NAME,
@@ -21,7 +21,7 @@ import { fixedFormats, type NumberFormat } from './cutLastLine';
 import { sideLine } from './sideMetadata';
 import { isBlankOrComment, readPreamble, uncommented, usableTimeUnit, type Preamble, type PreambleLine, type StatedTime, type StatedValueUnit } from './preamble';
 import { WHITESPACE, splitLine, trimTrailingEmpty } from './splitLine';
-import { printable, readUnitText } from '../units/unitText';
+import { isUnitAttempt, printable, readUnitText } from '../units/unitText';
 
 /**
  * 'time': numbers on a time axis; 'timestamp': wall-clock stamps, axis rebuilt from the interval;
@@ -42,6 +42,8 @@ export interface ColumnPlan {
   offset: number;
   /** For value columns: index of the time column they are sampled on, or null for an axis from the interval. */
   timeColumn: number | null;
+  /** For a value column whose header's unit cannot be read: why, and the line of that header (a fit of it is refused). */
+  unreadUnit: UnreadUnit | null;
 }
 
 export interface Layout {
@@ -127,14 +129,19 @@ function commentedHeader<L extends PreambleLine>(above: L[], width: number, shif
   return isTimeName(first.name) || readsAsTime(first.reading) ? { ...line, text } : null;
 }
 
-/** A header cell and the unit under it in a units row, if the cell gives none and the one below reads as a unit. */
-function plan(heading: string, unitCell: string | undefined): ColumnHeading & { heading: string } {
+/** A header cell and the unit under it in a units row, if the cell gives none and the one below is meant as a unit (columnUnit refuses one that does not read). */
+function plan(heading: string, unitCell: string | undefined): PlannedHeading {
   const parsed = parseColumnHeading(heading);
   const unitText = unitCell === undefined ? '' : unitCellText(unitCell);
   const reading = readUnitText(unitText);
-  if (unitText !== '' && parsed.unitText === null && reading.kind !== 'unknown') return { heading, name: parsed.name, unitText, reading };
-  return { heading, ...parsed };
+  if (unitText !== '' && parsed.unitText === null && (reading.kind !== 'unknown' || isUnitAttempt(unitText))) {
+    return { heading, name: parsed.name, unitText, reading, fromUnitsRow: true };
+  }
+  return { heading, ...parsed, fromUnitsRow: false };
 }
+
+/** A column's heading as planned: whether its unit came from the units row tells which line a refusal of it names. */
+type PlannedHeading = ColumnHeading & { heading: string; fromUnitsRow: boolean };
 
 /** 'TimeV_S' + 'AmplitudeV_S' -> 'V_S'; otherwise the value column's own name. */
 function pairedName(valueName: string, timeName: string | null): string {
@@ -254,7 +261,7 @@ function planUnit(
   preamble: Preamble,
   line: number | null,
   warnings: string[],
-): { unit: string; scale: number } {
+): ColumnUnit {
   if (kind === 'ignored') return { unit: '', scale: 1 };
   const label = heading.heading || heading.name || `column ${index + 1}`;
   if (kind === 'value' && heading.unitText === null && !options.valueUnit && preamble.valueUnit) return preambleValueUnit(label, preamble.valueUnit, warnings);
@@ -366,7 +373,11 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
   const columns: ColumnPlan[] = [];
   const plans = Array.from({ length: count }, (_, c) => plan(headings[c] ?? '', units?.[c]));
   const named = header !== null || units !== undefined;
-  const timeNames = plans.map((p) => named && (isTimeName(p.name) || readsAsTime(p.reading)));
+  const timeLike = plans.map((p) => named && (isTimeName(p.name) || readsAsTime(p.reading)));
+  // A time name heading a unit that is not one of time ('T (degC)') is a channel when another column is plainly time.
+  const statesOtherUnit = (p: ColumnHeading): boolean => p.unitText !== null && !readsAsTime(p.reading);
+  const plainTime = timeLike.some((like, c) => like && !statesOtherUnit(plans[c]));
+  const timeNames = timeLike.map((like, c) => like && !(plainTime && statesOtherUnit(plans[c])));
   const stepsEvenly = (c: number): boolean => evenSteps(column(c), decimalComma);
   const numbered = timeNames.includes(true) ? new Set<number>() : numberedTimeColumns(plans.map((p) => p.name), stepsEvenly);
   for (let c = 0; c < count; c++) {
@@ -383,8 +394,10 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
     else if (firstCells[c] !== undefined && isTimestamp(firstCells[c])) kind = 'timestamp';
     else if (timeNamed || (unnamedTime && c === skip)) kind = 'time';
     else if (!header && columns.every((k) => k.kind === 'ignored') && count - c >= 2) kind = 'maybe-time';
-    const { unit, scale } = planUnit(kind, p, c, options, preamble, header?.line ?? (units && last ? last.line : null), warnings);
-    columns.push({ kind, heading: p.heading, name: p.name, unit, scale, offset: 0, timeColumn: null });
+    const unitLine = (p.fromUnitsRow ? last?.line : header?.line) ?? (units && last ? last.line : null);
+    const { unit, scale, unread } = planUnit(kind, p, c, options, preamble, unitLine, warnings);
+    const unreadUnit = unread === undefined ? null : { message: unread, line: unitLine };
+    columns.push({ kind, heading: p.heading, name: p.name, unit, scale, offset: 0, timeColumn: null, unreadUnit });
   }
   assignTimeColumns(columns);
   nameChannels(columns, header !== null);

@@ -1,6 +1,7 @@
 // Builds the import summary from what the reader decided: the text's encoding and line end, the layout, the axes.
 
 import { formatEngineering } from '../units/format';
+import { LONG_TIME_SYMBOL } from '../units/unitText';
 import type { DelimiterName, IgnoredSection, ImportSegment, ImportSummary, LineEnd, RowDrop, TextEncoding, TimeSource } from './importSummary';
 import { INTERVAL_OPTION, type ColumnPlan, type Layout } from './layout';
 import type { RowLines } from './segments';
@@ -36,7 +37,8 @@ const DELIMITER_NAMES: Record<string, DelimiterName> = { ',': 'comma', ';': 'sem
 /** The unit a time column is written in: 's' for a scale of 1, else the scale in engineering notation ('ns'). */
 function writtenTimeUnit(column: ColumnPlan): string {
   if (column.unit === '') return '';
-  return column.scale === 1 ? 's' : formatEngineering(column.scale, 's').replace(/^1 /, '');
+  if (column.scale === 1) return 's';
+  return LONG_TIME_SYMBOL[column.scale] ?? formatEngineering(column.scale, 's').replace(/^1 /, '');
 }
 
 function timeSource(layout: Layout, kept: KeptChannel): TimeSource {

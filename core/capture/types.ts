@@ -17,6 +17,14 @@ export interface Channel {
   clipped: Uint8Array;
   /** Rows dropped for this channel: NaN, empty or overrange cells. */
   dropped: number;
+  /** Set when the header's unit for this channel cannot be read: the channel has no unit, and is not fitted. */
+  unreadUnit?: UnreadUnit;
+}
+
+/** Why a channel's unit could not be read, and the line of its header. */
+export interface UnreadUnit {
+  message: string;
+  line: number | null;
 }
 
 export interface Capture {

@@ -1,4 +1,4 @@
-// The one reader of unit text written beside numbers in a capture ('us', 'nS', 'mSec', 'microseconds', 'mV', 'kΩ').
+// The one reader of unit text written beside numbers in a capture ('us', 'nS', 'mSec', 'microseconds', 'min', 'mV', 'kΩ').
 
 import { UsageError } from '../inputError';
 import { PREFIX_EXPONENT, canonicalUnit } from './prefixes';
@@ -39,6 +39,28 @@ const LOOSE_UNITS: Readonly<Record<string, string>> = {
   amperes: 'A',
 };
 
+/**
+ * Minutes, hours and days, the units of time outside the SI accepted for use with it (SI Brochure, 9th edition, 2019,
+ * table 8), as a slow logger heads its time column: any case, except that one letter must be lower case ('H' is the henry).
+ */
+const LONG_TIME_SECONDS: Readonly<Record<string, number>> = {
+  min: 60,
+  mins: 60,
+  minute: 60,
+  minutes: 60,
+  h: 3600,
+  hr: 3600,
+  hrs: 3600,
+  hour: 3600,
+  hours: 3600,
+  d: 86400,
+  day: 86400,
+  days: 86400,
+};
+
+/** The symbol of each of those units by its seconds, to write a column read in one ('min', not '60 s'). */
+export const LONG_TIME_SYMBOL: Readonly<Record<number, string>> = { 60: 'min', 3600: 'h', 86400: 'd' };
+
 /** Prefixes spelt out, any case. */
 const PREFIX_WORDS: Readonly<Record<string, number>> = {
   femto: -15,
@@ -68,9 +90,14 @@ function scaleOf(exponent: number): number {
   return Number(`1e${exponent}`);
 }
 
+/** A table's own entry for a key, never one inherited from Object ('constructor' is a header's text, not a unit). */
+function ownEntry<T>(table: Readonly<Record<string, T>>, key: string): T | undefined {
+  return Object.hasOwn(table, key) ? table[key] : undefined;
+}
+
 /** The unit of a loose spelling after its prefix, or null. */
 function looseUnit(rest: string): string | null {
-  return LOOSE_UNITS[rest.toLowerCase()] ?? null;
+  return ownEntry(LOOSE_UNITS, rest.toLowerCase()) ?? null;
 }
 
 /** Reads the unit text of a column header, a units row or a stated interval; '' is not passed (no unit). */
@@ -80,17 +107,19 @@ export function readUnitText(text: string): UnitReading {
   if (token.length > 1 && token[0] === 'M' && looseUnit(token.slice(1)) === TIME_UNIT) return { kind: 'ambiguous', meanings: AMBIGUOUS_TIME };
   const whole = canonicalUnit(token) ?? looseUnit(token);
   if (whole !== null) return { kind: 'known', scale: 1, unit: whole };
+  const long = ownEntry(LONG_TIME_SECONDS, token.length === 1 ? token : lower);
+  if (long !== undefined) return { kind: 'known', scale: long, unit: TIME_UNIT };
   for (const [word, exponent] of Object.entries(PREFIX_WORDS)) {
     const unit = lower.startsWith(word) ? looseUnit(lower.slice(word.length)) : null;
     if (unit !== null) return { kind: 'known', scale: scaleOf(exponent), unit };
   }
   const rest = token.slice(1);
-  const exact = PREFIX_EXPONENT[token[0]];
+  const exact = ownEntry(PREFIX_EXPONENT, token[0] ?? '');
   const exactUnit = canonicalUnit(rest);
   if (exact !== undefined && exactUnit !== null) return { kind: 'known', scale: scaleOf(exact), unit: exactUnit };
   // 'M' stays mega and 'm' milli; the other prefix letters in either case ('NS', 'KV', 'uS').
   const letter = token[0] === 'M' || token[0] === 'm' ? token[0] : token[0]?.toLowerCase();
-  const exponent = letter === undefined ? undefined : PREFIX_EXPONENT[letter];
+  const exponent = letter === undefined ? undefined : ownEntry(PREFIX_EXPONENT, letter);
   const unit = looseUnit(rest);
   if (exponent !== undefined && unit !== null) return { kind: 'known', scale: scaleOf(exponent), unit };
   return { kind: 'unknown' };
@@ -119,7 +148,7 @@ export function parseStatedUnit(text: string, wantTime: boolean, option: string)
   const reading = readUnitText(text);
   const problem = text.trim() === '' ? 'no unit given' : unitProblem(text, reading, wantTime);
   if (problem !== '' || reading.kind !== 'known') {
-    const expected = wantTime ? 's, ms, us, µs, ns or ps' : 'V, mV, µV, kV, A, mA or µA';
+    const expected = wantTime ? 's, ms, us, µs, ns, ps, min or h' : 'V, mV, µV, kV, A, mA or µA';
     throw new UsageError(`${option} '${printable(text)}': ${problem}; expected a unit such as ${expected}`, option);
   }
   return { text: text.trim(), scale: reading.scale, unit: reading.unit };

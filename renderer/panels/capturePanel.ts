@@ -194,6 +194,8 @@ export function createCapturePanel(actions: BenchActions) {
 
 /** The units a person can state, as the importer reads them and as shown; the same spellings as --time-unit and --value-unit take. */
 const TIME_UNITS = [
+  ['h', 'h'],
+  ['min', 'min'],
   ['s', 's'],
   ['ms', 'ms'],
   ['us', 'µs'],

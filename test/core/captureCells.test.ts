@@ -130,6 +130,9 @@ describe('isTimestamp', () => {
     ['14.03.2024 09:26:05,125', true],
     ['11:44:55.4', true],
     ['11:44:55 PM', true],
+    // Minutes and seconds without zero padding, as some loggers write them.
+    ['10:0:0.5', true],
+    ['2024-3-4 9:5:7', true],
     ['2.000000E-6', false],
     // A date alone, its year in full: a logger's date column beside its time-of-day column.
     ['5/26/2021', true],

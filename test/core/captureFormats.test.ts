@@ -2,6 +2,7 @@
 
 import { describe, expect, it } from 'vitest';
 import { parseCapture } from '../../core/capture/parseCapture';
+import { selectChannel } from '../../core/capture/selectChannel';
 import { CaptureError, type Capture } from '../../core/capture/types';
 
 const N = 32;
@@ -217,7 +218,7 @@ describe('headers and units', () => {
   });
 
   it('refuses an unknown unit, naming the column and the option that states it', () => {
-    expect(() => parseCapture(`Time (s),CH1 (div)\n${rowsOf((i) => `${times[i]},${values[i]}`)}`)).toThrow(
+    expect(() => selectChannel(parseCapture(`Time (s),CH1 (div)\n${rowsOf((i) => `${times[i]},${values[i]}`)}`))).toThrow(
       "line 1: column 'CH1 (div)': unit 'div' is not recognised; state the channel's unit with --value-unit",
     );
   });
@@ -347,6 +348,13 @@ describe('wall-clock time stamps', () => {
       expect(capture.channels[0].values[7]).toBe(values[7]);
     }
     expect(captureError(`Date,Time,V_S\n${rowsOf((i) => `2021-05-26,${clock(i)},${values[i]}`)}`).message).toMatch(/^line 2: column 'Time' holds wall-clock time stamps \('11:44:55.465797'\)/);
+  });
+
+  it('reads stamps written without zero padding (10:0:0.5) as stamps', () => {
+    const clock = (i: number): string => `10:${Math.floor(i / 120)}:${((i % 120) / 2).toFixed(1)}`;
+    const capture = parseCapture(`Time,Level (V)\n${rowsOf((i) => `${clock(i)},${values[i]}`)}`, { sampleInterval: 0.5 });
+    expect(capture.channels[0].time[3]).toBe(1.5);
+    expect(captureError(`Time,Level (V)\n${rowsOf((i) => `${clock(i)},${values[i]}`)}`).message).toMatch(/^line 2: column 'Time' holds wall-clock time stamps \('10:0:0.0'\)/);
   });
 
   it('fails naming the first data line without a stated interval', () => {

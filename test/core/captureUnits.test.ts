@@ -1,6 +1,7 @@
 // Units as people type them, in column headers and in a preamble's sample interval: read to SI, or refused by name.
 import { describe, expect, it } from 'vitest';
 import { parseCapture } from '../../core/capture/parseCapture';
+import { selectChannel } from '../../core/capture/selectChannel';
 import { CaptureError } from '../../core/capture/types';
 import { UsageError } from '../../core/inputError';
 import { parseStatedUnit } from '../../core/units/unitText';
@@ -27,6 +28,14 @@ const TIME_UNITS: [string, number][] = [
   ['microseconds', 1e-6],
   ['Sec', 1],
   ['seconds', 1],
+  // Minutes, hours and days: accepted for use with the SI (SI Brochure, 9th edition, 2019, table 8).
+  ['min', 60],
+  ['Min', 60],
+  ['minutes', 60],
+  ['h', 3600],
+  ['hr', 3600],
+  ['Hours', 3600],
+  ['d', 86400],
 ];
 
 /** Value spellings, their scale to SI and the SI unit. */
@@ -134,9 +143,10 @@ describe("'in' before a word that is no unit leaves the heading a name", () => {
   });
 });
 
+// A channel's unread unit is refused when that channel is chosen (selectChannel), a time column's as the file is read.
 describe('a unit that cannot be read is refused, naming where and the option', () => {
   it.each(['dBV', 'dBm', 'dB'])("'CH1 (%s)' is a level in decibels: refused as no linear value, on its line", (unit) => {
-    const error = captureError(() => parseCapture(`Time (s),CH1 (${unit})\n${timedRows()}`));
+    const error = captureError(() => selectChannel(parseCapture(`Time (s),CH1 (${unit})\n${timedRows()}`)));
     expect(error.line).toBe(1);
     expect(error.message).toContain(`unit '${unit}' is a level in decibels, and a response is fitted to linear values`);
   });
@@ -163,7 +173,7 @@ describe('a unit that cannot be read is refused, naming where and the option', (
     ['Time (s),CH1 (\u0007)', "column 'CH1 (\\x07)'", "'\\x07'", '--value-unit'],
     ['Time (V),CH1 (V)', "column 'Time (V)'", "'V' is not a unit of time", '--time-unit'],
   ])("'%s' is refused", (header, column, unit, option) => {
-    const error = captureError(() => parseCapture(`${header}\n${timedRows()}`));
+    const error = captureError(() => selectChannel(parseCapture(`${header}\n${timedRows()}`)));
     expect(error.line).toBe(1);
     expect(error.message).toContain(column);
     expect(error.message).toContain(unit);
@@ -204,6 +214,64 @@ describe('a unit that cannot be read is refused, naming where and the option', (
     const capture = parseCapture(`Start Time,2024-03-14 09:26:05\nSample Interval,1e-6\nCH1 (V)\n${values.join('\n')}`);
     expect(capture.sampleInterval).toBe(1e-6);
     expect(capture.channels[0].time[0]).toBe(0);
+  });
+});
+
+describe("a channel whose unit cannot be read is kept beside the others, and refused only when it is chosen", () => {
+  const rows = values.map((v, i) => `${i * 1e-6},${v},${2 * v}`).join('\n');
+
+  it.each([
+    ['Temp (degC)', "unit 'degC' is not recognised"],
+    ['MATH (VV)', "unit 'VV' is not recognised"],
+    ['FFT (dBV)', "unit 'dBV' is a level in decibels"],
+  ])("'%s' beside CH1 (V): CH1 is read in V and chosen by name; the other is named in a note and refused", (heading, why) => {
+    const capture = parseCapture(`Time (s),${heading},CH1 (V)\n${rows}`);
+    expect(capture.channels.map((c) => c.unit)).toEqual(['', 'V']);
+    expect(capture.channels[0].values[0]).toBe(values[0]);
+    expect(capture.warnings.join('\n')).toContain(`column '${heading}': ${why}`);
+    expect(selectChannel(capture, 'CH1').values[1]).toBe(2 * values[1]);
+    const error = captureError(() => selectChannel(capture));
+    expect(error.line).toBe(1);
+    expect(error.message).toContain(`column '${heading}': ${why}`);
+    expect(error.message).toContain("or choose another channel with --column ('CH1')");
+  });
+
+  it("a units row with one unit that does not read ('(VV)') keeps the names above it, and names its own line", () => {
+    const capture = parseCapture(`TIME,CH1,MATH\n(s),(V),(VV)\n${rows}`);
+    expect(capture.channels.map((c) => [c.name, c.unit])).toEqual([
+      ['CH1', 'V'],
+      ['MATH', ''],
+    ]);
+    const error = captureError(() => selectChannel(capture, 'MATH'));
+    expect(error.line).toBe(2);
+    expect(error.message).toContain("column 'MATH': unit 'VV' is not recognised");
+    const time = captureError(() => parseCapture(`Time,CH1\n(furlongs),(V)\n${timedRows()}`));
+    expect(time.line).toBe(2);
+    expect(time.message).toContain("column 'Time': unit 'furlongs' is not recognised; state the time unit with --time-unit");
+  });
+
+  it('a stated value unit reads every channel, that one too', () => {
+    const capture = parseCapture(`Time (s),Temp (degC),CH1 (V)\n${rows}`, { valueUnit: parseStatedUnit('mV', false, '--value-unit') });
+    expect(selectChannel(capture).values[0]).toBeCloseTo(values[0] * 1e-3, 15);
+  });
+
+  it("a time name heading another unit ('T (degC)') is a channel beside a plain time column", () => {
+    const capture = parseCapture(`Time (s),T (degC),CH1 (V)\n${rows}`);
+    expect(capture.channels.map((c) => c.name)).toEqual(['T', 'CH1']);
+    close(capture.channels[1].time[1], 1e-6);
+    expect(captureError(() => selectChannel(capture)).message).toContain('--value-unit');
+  });
+
+  it('a lone time column heading a unit that is not of time is still refused as the time column', () => {
+    const error = captureError(() => parseCapture(`T (degC),CH1 (V)\n${values.map((v, i) => `${i},${v}`).join('\n')}`));
+    expect(error.message).toContain("column 'T (degC)'");
+    expect(error.message).toContain('--time-unit');
+  });
+
+  it("a header's text that names a property of every object ('constructor') is no unit", () => {
+    const error = captureError(() => selectChannel(parseCapture(`Time (s),CH1 (constructor)\n${timedRows()}`)));
+    expect(error.message).toContain("unit 'constructor' is not recognised");
+    expect(captureError(() => parseCapture(`Time (hasOwnProperty),CH1 (V)\n${timedRows()}`)).message).toContain('is not recognised');
   });
 });
 

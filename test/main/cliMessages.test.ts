@@ -196,3 +196,19 @@ describe('a flat channel points to the channels that vary', () => {
     expect(chosen.code).toBe(0);
   });
 });
+
+describe('a side channel whose unit cannot be read', () => {
+  it("fit: exit 2 naming it and the channel to choose; with --column the other channel is fitted, the side one noted", async () => {
+    const source = readFileSync(path.join(dir, ring), 'utf8').trimEnd().split('\n');
+    const lines = source.map((line, i) => (i === 0 ? 'Time (s),Temp (degC),Node (V)' : line.replace(',', ',24.5,')));
+    writeFileSync(path.join(dir, 'with-temperature.csv'), `${lines.join('\n')}\n`);
+    const refused = await run(['fit', 'with-temperature.csv']);
+    expect(refused.code).toBe(2);
+    expect(refused.err).toBe(
+      "ringbench: with-temperature.csv: line 1: column 'Temp (degC)': unit 'degC' is not recognised; state the channel's unit with --value-unit, or choose another channel with --column ('Node')\n",
+    );
+    const chosen = await run(['fit', 'with-temperature.csv', '--column', 'Node']);
+    expect(chosen.code).toBe(0);
+    expect(chosen.out).toContain("column 'Temp (degC)': unit 'degC' is not recognised");
+  });
+});

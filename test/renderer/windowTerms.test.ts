@@ -23,6 +23,11 @@ describe('inWindowTerms', () => {
       "no time column and no sample interval stated in the file; give the sample interval (the 'Sample interval' field)",
     ],
     ["the sampleInterval option replaces the time stamps of column 'Time (s)': t = 0 s + i × 2 ns", "the 'Sample interval' field replaces the time stamps of column 'Time (s)': t = 0 s + i × 2 ns"],
+    [
+      "column 'Temp (degC)': unit 'degC' is not recognised; state the channel's unit with --value-unit, or choose another channel with --column ('CH1')",
+      "column 'Temp (degC)': unit 'degC' is not recognised; state the channel's unit with the 'Values in' choice, or choose another channel with the 'Channel' choice ('CH1')",
+    ],
+    ["channel 'C' of this capture varies: choose the channel to fit (--column)", "channel 'C' of this capture varies: choose the channel to fit (the 'Channel' choice)"],
     ['the time unit is probably misread (state it with --time-unit or --sample-interval)', "the time unit is probably misread (state it with the 'Time in' choice or the 'Sample interval' field)"],
   ])('%s', (message, shown) => {
     expect(inWindowTerms(message)).toBe(shown);
