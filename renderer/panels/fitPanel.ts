@@ -78,6 +78,20 @@ export function createFitPanel(actions: BenchActions) {
   const modeChoices = { setModes: (modes: number | null) => void actions.setModes(modes), chooseMode: (mode: number) => void actions.chooseMode(mode) };
   body.append(status, setupList, table, copyRow, modeList, eventList, steps, h('h3', {}, 'Fit window'), h('p', { class: 'field-hint' }, 'Drag the edges of the shaded region on the plot, or type the times.'), windowRow, windowNote, setupOptionsForm((setup) => void actions.setSetup(setup)), extra);
 
+  /** The window in the fields, unless one is being typed in; without ends, the fields are emptied. */
+  function showWindow(start: number | undefined, end: number | undefined): void {
+    if (document.activeElement === startInput || document.activeElement === endInput) return;
+    if (start === undefined || end === undefined) {
+      startInput.value = '';
+      endInput.value = '';
+      return;
+    }
+    // Digits enough to tell the ends apart on an axis far from zero, where 6 read both as '1.2345ks'.
+    const digits = rangeDigits(start, end, WINDOW_DIGITS);
+    startInput.value = showValue(start, 's', digits).replace(/\s/g, '');
+    endInput.value = showValue(end, 's', digits).replace(/\s/g, '');
+  }
+
   function render(state: BenchState): void {
     const { fit, summary, fitError } = state;
     root.dataset.fitCount = String(state.fitCount);
@@ -92,6 +106,8 @@ export function createFitPanel(actions: BenchActions) {
       setupList.replaceChildren();
       steps.replaceChildren();
       extra.replaceChildren();
+      // Without a fit, the window typed for this capture, if any; never the last capture's.
+      showWindow(state.userWindow.start, state.userWindow.end);
       return;
     }
     const standing = fitStanding(summary, state.capture?.info.warnings ?? [], state.setupChecks);
@@ -130,12 +146,7 @@ export function createFitPanel(actions: BenchActions) {
     replaceChildren(modeList, ...modesView(summary, state.modesAsked, state.chosenMode, modeChoices));
     replaceChildren(eventList, ...(summary.events ? eventsView(summary.events, (event) => void actions.chooseEvent(event)) : []));
     replaceChildren(steps, ...(summary.transitions ? transitionView(summary.transitions) : []));
-    if (document.activeElement !== startInput && document.activeElement !== endInput) {
-      // Digits enough to tell the ends apart on an axis far from zero, where 6 read both as '1.2345ks'.
-      const digits = rangeDigits(fit.window.start, fit.window.end, WINDOW_DIGITS);
-      startInput.value = showValue(fit.window.start, 's', digits).replace(/\s/g, '');
-      endInput.value = showValue(fit.window.end, 's', digits).replace(/\s/g, '');
-    }
+    showWindow(fit.window.start, fit.window.end);
     replaceChildren(
       extra,
       h(

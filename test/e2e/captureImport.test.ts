@@ -82,6 +82,30 @@ describe.skipIf(!hasChromium)('the capture panel in a browser', () => {
     expect(await page.locator('#fit-message').innerText()).toContain("channel 'Node' of this capture varies: choose the channel to fit");
   });
 
+  it("refuses to fit a channel whose unit does not read, with empty window fields, and fits the channel chosen instead", async () => {
+    const lines = ['Time (s),Temp (degC),Node (V)'];
+    for (let i = 0; i < 600; i++) {
+      const t = -1e-6 + i * 1e-8;
+      const ring = t < 0 ? 0 : Math.exp(-t * 1.5e6) * Math.sin(2 * Math.PI * 5e6 * t) + 0.01 * Math.sin(i * 12.9898);
+      lines.push(`${t.toExponential(6)},${(24.5 + 0.01 * (i % 3)).toFixed(2)},${ring.toFixed(5)}`);
+    }
+    const file = join(folder, 'with-temperature.csv');
+    writeFileSync(file, `${lines.join('\n')}\n`);
+    await dropFile(page, file, 'with-temperature.csv');
+    await waitForFit(page, 'with-temperature.csv');
+    expect(await page.locator('#fit-status').innerText()).toBe(
+      "line 1: column 'Temp (degC)': unit 'degC' is not recognised; state the channel's unit with the 'Values in' choice, or choose another channel with the 'Channel' choice ('Node')",
+    );
+    // The last capture's window is not offered for this one.
+    expect(await page.locator('#window-start').inputValue()).toBe('');
+    expect(await page.locator('#window-end').inputValue()).toBe('');
+    const fits = Number(await page.locator('#fit-panel').getAttribute('data-fit-count'));
+    await page.locator('#channel-select').selectOption('1');
+    await page.waitForFunction((n) => Number(document.querySelector('#fit-panel')?.getAttribute('data-fit-count')) > n && document.querySelector('#progress')?.textContent === '', fits, { timeout: 90_000 });
+    expect(await page.locator('#fit-state').getAttribute('data-status')).toBe('converged');
+    expect(await page.locator('#window-start').inputValue()).not.toBe('');
+  });
+
   it('offers the segments of a file of repeated acquisitions and fits the one chosen', async () => {
     const file = join(folder, 'two-segments.csv');
     writeFileSync(file, twoSegmentCapture());
