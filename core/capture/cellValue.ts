@@ -129,7 +129,8 @@ export function storeLeadingNumber(bytes: Uint8Array, start: number, decimalCode
 /** storeLeadingNumber's answer when the slow path must decide. */
 export const NOT_PLAIN = -1;
 
-const MISSING = new Set(['', 'nan', '-nan', '+nan', 'inf', '-inf', '+inf', 'infinity', '-infinity', '+infinity', 'null', 'none', 'n/a', 'na', 'over', 'under', 'overrange', 'ovf', 'clip', '?']);
+/** Cells that hold no sample: missing, or beyond the converter's range ('∞', as some scope software writes overrange). */
+const MISSING = new Set(['', 'nan', '-nan', '+nan', 'inf', '-inf', '+inf', 'infinity', '-infinity', '+infinity', '\u221e', '-\u221e', '+\u221e', '\u2212\u221e', 'null', 'none', 'n/a', 'na', 'over', 'under', 'overrange', 'ovf', 'clip', '?']);
 const STARS = /^\*+$/;
 /** A run of dashes ('----'): how some exports fill a cell they have no sample for. */
 const DASHES = /^-+$/;

@@ -73,6 +73,9 @@ describe('slowCellValue', () => {
     ['nan', NaN],
     ['inf', NaN],
     ['-inf', NaN],
+    // The infinity sign, as some scope software writes an overrange sample.
+    ['\u221e', NaN],
+    ['-\u221e', NaN],
     ['Infinity', NaN],
     ['****', NaN],
     ['9.9E37', NaN], // the usual scope overrange marker

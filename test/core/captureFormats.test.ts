@@ -375,6 +375,8 @@ describe('missing and overrange cells', () => {
       [10, '****'],
       [12, '-9.9E+37'],
       [14, '-inf'],
+      [16, '\u221e'],
+      [18, '-\u221e'],
     ]);
     const text = `Time (s),A (V),B (V)\n${rowsOf((i) => `${times[i]},${junk.get(i) ?? values[i]},${i === 20 ? 'nan' : values[i]}`)}`;
     const capture: Capture = parseCapture(text);
@@ -386,7 +388,7 @@ describe('missing and overrange cells', () => {
     const keptTimes = times.filter((_, i) => !junk.has(i));
     expectClose(a.time, keptTimes);
     expectClose(a.values, values.filter((_, i) => !junk.has(i)));
-    expect(capture.warnings).toContain("channel 'A': 7 sample(s) dropped (empty, NaN, infinite or overrange cells)");
+    expect(capture.warnings).toContain("channel 'A': 9 sample(s) dropped (empty, NaN, infinite or overrange cells)");
     expect(capture.layout.rows).toBe(N);
   });
 
