@@ -17,11 +17,14 @@ export interface ColumnHeading {
 const BRACKETED = /^(.*?)\s*[([]\s*([^()[\]]*?)\s*[)\]]\s*$/;
 const SLASHED = /^(.+?)\s*\/\s*([^\s/]+)$/;
 const UNDERSCORED = /^(.+?)_([^_\s]+)$/;
+/** 'Time, s' or 'Voltage, V': a name, a comma, then the unit (counted only when it reads as one). */
+const COMMA_UNIT = /^(.+?)\s*,\s*([^\s,]+)$/;
 /** A level in decibels ('dB', 'dBV', 'dBm', 'dBuV'): no scale turns it into the linear values a fit needs. */
 const DECIBELS = /^db/i;
 /** 'Time in ms', 'C1 in V', or a bare 'in s' (a name left empty), the unit the last word. */
 const IN_UNIT = /^(?:(.*?)\s+)?in\s+(\S+)$/i;
-const TIME_NAME = /^(?:t|x|sec|secs|seconds?|timestamp|zeit|tempo)$|^time/i;
+/** 'Time' and the word for it in the languages a scope's export may be set to (German, Italian, French, Spanish, ...). */
+const TIME_NAME = /^(?:t|x|sec|secs|seconds?|timestamp|zeit|tempo|temps|tiempo|tijd|tid|czas|aika|\u0432\u0440\u0435\u043c\u044f|\u65f6\u95f4|\u6642\u9593)$|^time/i;
 /**
  * A heading longer than this is a name, never read for a unit: the patterns above backtrack through runs of spaces,
  * in time growing with the square of a cell's length (a 300 000-character heading of two words took minutes), and
@@ -70,6 +73,9 @@ export function parseColumnHeading(cell: string): ColumnHeading {
     const suffix = underscored[2];
     if (suffix.length >= 2 || (isTimeName(underscored[1]) && isExactSymbol(suffix))) return byUnderscore;
   }
+  const comma = COMMA_UNIT.exec(text);
+  const byComma = comma ? withUnit(comma[1], comma[2]) : null;
+  if (byComma?.reading?.kind === 'known') return byComma;
   // 'in' then a unit, as some scopes and most German exports head a column; only a unit read as known counts
   // ('Log in' and 'Plug in A2' stay names).
   const inUnit = IN_UNIT.exec(text);

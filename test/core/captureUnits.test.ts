@@ -79,6 +79,7 @@ describe('time units in a column header', () => {
     ['time_unit', (u) => `time_${u}`],
     ['Time in unit', (u) => `Time in ${u}`],
     ['in unit', (u) => `in ${u}`],
+    ['"Time, unit"', (u) => `"Time, ${u}"`],
   ];
   for (const [form, heading] of forms) {
     it.each(TIME_UNITS)(`${form} with '%s' gives the axis in s`, (unit, scale) => {
@@ -121,6 +122,7 @@ describe('value units in a column header', () => {
     ['CH1 [unit]', (u) => `CH1 [${u}]`],
     ['CH1_unit', (u) => `CH1_${u}`],
     ['CH1 in unit', (u) => `CH1 in ${u}`],
+    ['"CH1, unit"', (u) => `"CH1, ${u}"`],
   ];
   for (const [form, heading] of forms) {
     // A one-letter suffix stays part of the name ('V_C', 'I_A'): the '_unit' form is read from two letters on.
@@ -133,6 +135,22 @@ describe('value units in a column header', () => {
       values.forEach((v, i) => close(channel.values[i], v * scale));
     });
   }
+});
+
+describe("the word for time in an export set to another language names the time column", () => {
+  it.each(['Temps', 'Tiempo', 'Zeit', 'Tempo', 'Tijd', 'Tid', 'Czas', 'Aika', '\u0412\u0440\u0435\u043c\u044f', '\u65f6\u95f4', '\u6642\u9593'])("'%s'", (name) => {
+    const capture = parseCapture(`${name},CH1 (V)\n${timedRows()}`);
+    expect(capture.channels.map((c) => c.name)).toEqual(['CH1']);
+    close(capture.channels[0].time[1], 11);
+  });
+});
+
+describe("a comma before a word that is no unit leaves the heading a name", () => {
+  it.each(['"Probe A, B"', '"Node, out"'])("%s is a channel's name, without a unit", (heading) => {
+    const capture = parseCapture(`Time (s),${heading}\n${timedRows()}`);
+    expect(capture.channels[0].name).toBe(heading.slice(1, -1));
+    expect(capture.channels[0].unit).toBe('');
+  });
 });
 
 describe("'in' before a word that is no unit leaves the heading a name", () => {
