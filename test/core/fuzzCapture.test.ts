@@ -235,9 +235,9 @@ describe('the importer on arbitrary input (fast-check)', () => {
   });
 
   it('junk in the middle of a good table: one CaptureError naming exactly that line', () => {
-    // Cells no importer may take for a number or a missing-value marker.
+    // Cells no importer may take for a number or a missing-value marker ('∞' is one: an overrange sample, as 'inf').
     const junk = fc.oneof(
-      fc.constantFrom('abc', '.', '+', '-.', 'e', '1e', '1e+', '--1', '1.2.3', '1.2k', 'x', '0x1F', '1_000', '∞', '½', 'ok'),
+      fc.constantFrom('abc', '.', '+', '-.', 'e', '1e', '1e+', '--1', '1.2.3', '1.2k', 'x', '0x1F', '1_000', '§', '½', 'ok'),
       fc.string({ unit: fc.constantFrom(...'abcxyzVm%$/()[]'.split('')), minLength: 1, maxLength: 6 }),
     );
     fc.assert(
