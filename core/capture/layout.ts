@@ -19,7 +19,7 @@ import {
 import { readConverterCodes } from './converterCodes';
 import { fixedFormats, type NumberFormat } from './cutLastLine';
 import { sideLine } from './sideMetadata';
-import { isBlankOrComment, readPreamble, uncommented, usableTimeUnit, type Preamble, type PreambleLine, type StatedTime, type StatedValueUnit } from './preamble';
+import { isBlankOrComment, isStatingLine, readPreamble, uncommented, usableTimeUnit, type Preamble, type PreambleLine, type StatedTime, type StatedValueUnit } from './preamble';
 import { WHITESPACE, splitLine, trimTrailingEmpty } from './splitLine';
 import { isUnitAttempt, printable, readUnitText } from '../units/unitText';
 
@@ -325,7 +325,10 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
     const lastCells = headerCells(last.text, delimiter);
     const before = meaningful[meaningful.length - 2];
     const beforeCells = before ? headerCells(before.text, delimiter) : [];
-    const namesAbove = before !== undefined && (looksLikeHeader(beforeCells, width, skip > 0, decimalComma) || numbersChannels(beforeCells, width));
+    const namesAbove =
+      before !== undefined &&
+      !isStatingLine(before.text, delimiter) &&
+      (looksLikeHeader(beforeCells, width, skip > 0, decimalComma) || numbersChannels(beforeCells, width));
     if (isUnitsRow(lastCells) && namesAbove) {
       header = before;
       units = lastCells;

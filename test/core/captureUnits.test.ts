@@ -518,6 +518,12 @@ describe("the channels' unit a preamble states for the vertical axis", () => {
     expect(capture.warnings.join('\n')).toContain(`gives no unit: read in ${line.split(/[,:=]\s*/).pop()?.replace('CH1:', '')}, as '${key}' on line 2 states`);
   });
 
+  it("is preamble above a units row, never the names of its columns ('Vertical Units,V' over 'Second,Volt')", () => {
+    const capture = parseCapture(`Record Length,${N}\nSample Interval,1e-9\nVertical Units,V\nSecond,Volt\n${values.map((v, i) => `${i * 1e-9},${v}`).join('\n')}`);
+    expect(capture.channels.map((c) => [c.name, c.unit])).toEqual([['channel 1', 'V']]);
+    expect(capture.importSummary.time).toMatchObject({ kind: 'column', column: 'column 1', unit: 's' });
+  });
+
   it("is under the header's own unit and the --value-unit option", () => {
     const header = parseCapture(`Vertical Units,mV\nTime (s),CH1 (V)\n${timedRows()}`);
     expect(header.channels[0].unit).toBe('V');
