@@ -23,8 +23,11 @@ const COMMA_UNIT = /^(.+?)\s*,\s*([^\s,]+)$/;
 const DECIBELS = /^db/i;
 /** 'Time in ms', 'C1 in V', or a bare 'in s' (a name left empty), the unit the last word. */
 const IN_UNIT = /^(?:(.*?)\s+)?in\s+(\S+)$/i;
-/** 'Time' and the word for it in the languages a scope's export may be set to (German, Italian, French, Spanish, ...). */
-const TIME_NAME = /^(?:t|x|sec|secs|seconds?|timestamp|zeit|tempo|temps|tiempo|tijd|tid|czas|aika|\u0432\u0440\u0435\u043c\u044f|\u65f6\u95f4|\u6642\u9593)$|^time/i;
+/**
+ * 'Time', 'X_Value' (a data logger's horizontal axis) and the word for time in the languages a scope's export may be
+ * set to (German, Italian, French, Spanish, ...).
+ */
+const TIME_NAME = /^(?:t|x|x[ _]?values?|sec|secs|seconds?|timestamp|zeit|tempo|temps|tiempo|tijd|tid|czas|aika|\u0432\u0440\u0435\u043c\u044f|\u65f6\u95f4|\u6642\u9593)$|^time/i;
 /**
  * A heading longer than this is a name, never read for a unit: the patterns above backtrack through runs of spaces,
  * in time growing with the square of a cell's length (a 300 000-character heading of two words took minutes), and

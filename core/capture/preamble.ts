@@ -15,6 +15,7 @@ const INTERVAL_KEYS = new Set([
   'x increment',
   'delta t',
   'deltat',
+  'delta x',
   'dt',
   'time per point',
   'time step',
@@ -38,7 +39,7 @@ const TIME_UNIT_KEYS = new Set([
 ]);
 
 /** Keys that state the unit of the vertical axis: of a channel whose header gives none ('Vertical Units,V'). */
-const VALUE_UNIT_KEYS = new Set(['vertical unit', 'vertical units', 'y unit', 'y units', 'yunit', 'yunits', 'y axis unit', 'y axis units']);
+const VALUE_UNIT_KEYS = new Set(['vertical unit', 'vertical units', 'y unit', 'y units', 'yunit', 'yunits', 'y axis unit', 'y axis units', 'y unit label']);
 
 export interface StatedTime {
   /** Value in s. */
@@ -279,16 +280,17 @@ function statedTimeUnit(lines: PreambleLine[], delimiter: string): StatedTimeUni
 }
 
 /**
- * The first line stating the unit of the vertical axis, when it holds one cell (after a channel label, 'CH1:V') and that
- * reads as a channel's unit. A unit not read (divisions, a typing slip) gives none, and so do several ('V,A': which
- * channel has which is not sure): the channels then stay without a unit.
+ * The first line stating the unit of the vertical axis, when it holds one unit (after a channel label, 'CH1:V'; or the
+ * same one per channel, 'Volts,Volts') and that reads as a channel's unit. A unit not read (divisions, a typing slip)
+ * gives none, and so do several ('V,A': which channel has which is not sure): the channels then stay without a unit.
  */
 function statedValueUnit(lines: PreambleLine[], delimiter: string): StatedValueUnit | null {
   const stated = firstKeyed(lines, delimiter, VALUE_UNIT_KEYS);
   if (!stated) return null;
-  const cells = stated.value.split(/[,;\t]/).map((c) => c.trim()).filter((c) => c !== '');
-  if (cells.length !== 1) return null;
-  const written = cells[0].replace(/^[A-Za-z][\w ]*?:\s*/, '');
+  const cells = stated.value.split(/[,;\t]/).map((c) => c.trim().replace(/^[A-Za-z][\w ]*?:\s*/, '')).filter((c) => c !== '');
+  // One unit for each channel, the same for all ('Volts\tVolts'), is that unit.
+  if (new Set(cells).size !== 1) return null;
+  const written = cells[0];
   const reading = readUnitText(written);
   if (reading.kind !== 'known' || unitProblem(written, reading, false) !== '') return null;
   return { text: written, scale: reading.scale, unit: reading.unit, key: stated.key, line: stated.line };

@@ -4,7 +4,7 @@ import { readdirSync, statSync } from 'node:fs';
 import { extname, join } from 'node:path';
 import { FileError } from '../io/fileError';
 
-const CAPTURE_EXTENSIONS = new Set(['.csv', '.txt', '.dat']);
+const CAPTURE_EXTENSIONS = new Set(['.csv', '.txt', '.dat', '.lvm']);
 
 /** Shard K of N (1 <= K <= N), as `--shard K/N` gives it. */
 export interface Shard {
@@ -17,7 +17,7 @@ function byCodePoint(a: string, b: string): number {
   return Buffer.compare(Buffer.from(a, 'utf8'), Buffer.from(b, 'utf8'));
 }
 
-/** Capture files of a folder (*.csv, *.txt, *.dat, any case), sorted by the code points of their names. */
+/** Capture files of a folder (*.csv, *.txt, *.dat, *.lvm: a data logger's measurement file; any case), sorted by the code points of their names. */
 export function listCaptureFiles(folder: string): string[] {
   let names: string[];
   try {

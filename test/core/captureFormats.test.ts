@@ -119,12 +119,40 @@ describe('preamble', () => {
     ['increment 1e-6', 1e-6],
     ['Sample Interval,Analog:2.00E-09,', 2e-9],
     ['Sample Interval,CH1: 4 ns', 4e-9],
+    ['Delta_X\t2.000000E-6\t2.000000E-6\t', 2e-6],
   ])("takes the interval from '%s'", (line, interval) => {
     const capture = parseCapture(`${line}\nVout (V)\n${data}`);
     expect(capture.sampleInterval).toBeCloseTo(interval, 20);
     const { time } = capture.channels[0];
     expect(time[0]).toBe(0);
     expect(time[N - 1]).toBeCloseTo((N - 1) * interval, 20);
+  });
+
+  it("reads a data logger's two header blocks: its X_Value column is time, and one unit per channel is every channel's", () => {
+    const text = [
+      'LabVIEW Measurement\t',
+      'Writer_Version\t2',
+      'Separator\tTab',
+      '***End_of_Header***\t',
+      '\t',
+      'Channels\t2\t',
+      'Samples\t32\t32\t',
+      'Y_Unit_Label\tVolts\tVolts\t',
+      'X_Dimension\tTime\tTime\t',
+      'X0\t0.0000000000000000E+0\t0.0000000000000000E+0\t',
+      'Delta_X\t1.000000E-6\t1.000000E-6\t',
+      '***End_of_Header***\t\t\t',
+      'X_Value\tV_S\tV_C\tComment',
+      rowsOf((i) => `${times[i]}\t${values[i]}\t${-values[i]}`),
+    ].join('\n');
+    const capture = parseCapture(text);
+    expect(capture.channels.map((c) => [c.name, c.unit])).toEqual([
+      ['V_S', 'V'],
+      ['V_C', 'V'],
+    ]);
+    expectClose(capture.channels[0].time, times);
+    expectClose(capture.channels[1].values, values.map((v) => -v));
+    expect(capture.importSummary.time).toMatchObject({ kind: 'column', column: 'X_Value' });
   });
 
   it('reads a long preamble of comments, key/value lines and blanks, and keeps the keys as written', () => {

@@ -35,6 +35,13 @@ describe('batch --shard', () => {
     expect(listCaptureFiles(lot)).toEqual(IN_ORDER);
   });
 
+  it("takes a data logger's measurement files (*.lvm) too, and nothing else", () => {
+    const other = join(folder, 'logger');
+    mkdirSync(other);
+    for (const name of ['run.LVM', 'a.csv', 'b.md', 'c.lvm.bak']) writeFileSync(join(other, name), '');
+    expect(listCaptureFiles(other)).toEqual(['a.csv', 'run.LVM']);
+  });
+
   it.each([1, 2, 3, 5, 8])('the %i shards of the folder partition it: file i in shard (i mod N) + 1', async (count) => {
     const shares = [];
     for (let k = 1; k <= count; k++) shares.push(await shardFiles(`${k}/${count}`));

@@ -28,7 +28,7 @@ type BatchOptions = Omit<LogAddOptions, 'log' | 'unit'> & { log?: string; jobs?:
 export function registerBatchCommand(program: Command, ctx: CommandContext): void {
   const command = program
     .command('batch')
-    .description('fit every capture (*.csv, *.txt, *.dat) of a folder; exit 1 when a file could not be read, its fit failed or it got no verdict against the design, 3 when a unit was out of tolerance')
+    .description('fit every capture (*.csv, *.txt, *.dat, *.lvm) of a folder; exit 1 when a file could not be read, its fit failed or it got no verdict against the design, 3 when a unit was out of tolerance')
     .argument('<dir>', 'folder of capture files')
     .option('--design <file>', 'design file to check every unit against (instead of --topology/--known)');
   addModeOptions(addSetupOptions(addCaptureOptions(addComponentOptions(command))))
@@ -61,7 +61,7 @@ export function registerBatchCommand(program: Command, ctx: CommandContext): voi
       const logging = logPath ? checkConditions(options) : null;
       const design = options.design === undefined ? null : loadDesignFile(options.design, ctx.io.cwd);
       const files = listCaptureFiles(folder);
-      if (!files.length) throw new FileError(`no capture files (*.csv, *.txt, *.dat) in '${dir}'`);
+      if (!files.length) throw new FileError(`no capture files (*.csv, *.txt, *.dat, *.lvm) in '${dir}'`);
       const share = shard ? shardShare(files, shard) : files;
       if (shard && !share.length) ctx.io.err(`ringbench: shard ${shard.index}/${shard.count} holds none of the ${files.length} captures in '${dir}'\n`);
 
