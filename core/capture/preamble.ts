@@ -22,6 +22,15 @@ const INTERVAL_KEYS = new Set([
   'timestep',
   'increment',
 ]);
+/** Normalised keys that state the sample rate instead: the interval is its reciprocal (when no interval is stated). */
+const RATE_KEYS = new Set(['sample rate', 'sampling rate', 'samplerate', 'sample frequency', 'sampling frequency', 'sa rate']);
+/**
+ * A rate as written: a number, then samples or cycles per second with an SI prefix ('1GSa/s', '500 MS/s', '2.5e9',
+ * '100 kHz', '1 Msps'); no unit means per second.
+ */
+const RATE_VALUE = /^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(?:([kMG]?)(?:Sa\/s|S\/s|sps|Hz|SPS))?\s*(?:$|[,;\t(])/;
+const RATE_PREFIX: Readonly<Record<string, number>> = { '': 1, k: 1e3, M: 1e6, G: 1e9 };
+
 /** Keys that state the time of the first sample (used only when numeric). */
 const OFFSET_KEYS = new Set(['t0', 'x0', 'x origin', 'xorigin', 'start', 'start time', 'time offset', 'first time']);
 /** Keys that state the unit of the horizontal axis: of a time column without a unit, and of times stated without one. */
@@ -297,20 +306,28 @@ function statedValueUnit(lines: PreambleLine[], delimiter: string): StatedValueU
 }
 
 /**
- * Metadata and stated timing of the preamble lines (blank and comment lines skipped, but for the time unit). Times
+ * Metadata and stated timing of the preamble lines (blank lines skipped, comment lines but for the interval or rate). Times
  * stated without a unit are in the preamble's time unit when it states one; `timeUnit` (the option) is over both.
  */
 export function readPreamble(lines: PreambleLine[], delimiter: string, decimalComma: boolean, timeUnit?: StatedUnit): Preamble {
   const stated = timeUnit ? null : statedTimeUnit(lines, delimiter);
   const preamble: Preamble = { metadata: {}, interval: null, offset: null, timeUnit: stated, valueUnit: statedValueUnit(lines, delimiter), warnings: [] };
+  let rate: StatedTime | null = null;
   for (const { text, line } of lines) {
-    if (isBlankOrComment(text)) continue;
-    const pair = splitKeyValue(text, delimiter);
+    // Behind a comment marker, only the sample interval or rate counts ('#Sampling rate:200MSa/s', as some scopes
+    // write it): a comment's prose ('# Gate loop, bench 3') is no metadata.
+    const commented = isBlankOrComment(text);
+    const pair = splitKeyValue(commented ? uncommented(text) : text, delimiter);
     if (!pair) continue;
     const [key, value] = pair;
-    if (!(key in preamble.metadata)) preamble.metadata[key] = value;
     const { words, unitText } = normaliseKey(key);
     const isInterval = INTERVAL_KEYS.has(words);
+    if (commented && !isInterval && !RATE_KEYS.has(words)) continue;
+    if (!(key in preamble.metadata)) preamble.metadata[key] = value;
+    if (RATE_KEYS.has(words)) {
+      rate ??= statedRate(value, key, line, decimalComma);
+      continue;
+    }
     if (!isInterval && !OFFSET_KEYS.has(words)) continue;
     const notes: string[] = [];
     const written = timeReadings(value, decimalComma);
@@ -325,5 +342,15 @@ export function readPreamble(lines: PreambleLine[], delimiter: string, decimalCo
     if (isInterval && preamble.interval === null && readings[0] > 0) preamble.interval = time;
     if (!isInterval && preamble.offset === null) preamble.offset = time;
   }
+  preamble.interval ??= rate;
   return preamble;
+}
+
+/** The sample interval a stated rate gives ('Sample Rate,1GSa/s': 1 ns), or null when the value reads as no rate. */
+function statedRate(value: string, key: string, line: number, decimalComma: boolean): StatedTime | null {
+  const first = value.split(decimalComma ? /[;\t]/ : /[,;\t]/)[0].replace(/^[A-Za-z][\w ]*?:\s*/, '');
+  const found = RATE_VALUE.exec(decimalComma ? first.replace(',', '.') : first);
+  if (!found) return null;
+  const perSecond = Number(found[1]) * RATE_PREFIX[found[2] ?? ''];
+  return perSecond > 0 && Number.isFinite(perSecond) ? { value: 1 / perSecond, key, line, unitStated: true } : null;
 }

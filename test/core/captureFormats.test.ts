@@ -120,12 +120,28 @@ describe('preamble', () => {
     ['Sample Interval,Analog:2.00E-09,', 2e-9],
     ['Sample Interval,CH1: 4 ns', 4e-9],
     ['Delta_X\t2.000000E-6\t2.000000E-6\t', 2e-6],
+    // A sample rate gives the interval as its reciprocal; behind a comment marker, the interval or rate still counts.
+    ['Sample Rate,2.000000e+08', 5e-9],
+    ['Sampling rate:200MSa/s', 5e-9],
+    ['#Sampling rate:1GSa/s', 1e-9],
+    ['Sample rate (Hz),2.5e9', 4e-10],
+    ['Sample Rate,500 kHz', 2e-6],
+    ['sampling frequency = 1 MSPS', 1e-6],
+    ['# Sample Interval: 2 ns', 2e-9],
   ])("takes the interval from '%s'", (line, interval) => {
     const capture = parseCapture(`${line}\nVout (V)\n${data}`);
     expect(capture.sampleInterval).toBeCloseTo(interval, 20);
     const { time } = capture.channels[0];
     expect(time[0]).toBe(0);
     expect(time[N - 1]).toBeCloseTo((N - 1) * interval, 20);
+  });
+
+  it('a stated interval is over a stated rate; a rate that does not read states none; a comment gives no metadata', () => {
+    const both = parseCapture(`Sample Rate,1e9\nSample Interval,2e-9\nVout (V)\n${data}`);
+    expect(both.sampleInterval).toBe(2e-9);
+    expect(captureError(`Sample Rate,auto\nVout (V)\n${data}`).message).toContain('no sample interval');
+    const commented = parseCapture(`# bench 3, gate loop\n# Operator: someone\n#Sampling rate:1GSa/s\nVout (V)\n${data}`);
+    expect(commented.metadata).toEqual({ 'Sampling rate': '1GSa/s' });
   });
 
   it("reads a data logger's two header blocks: its X_Value column is time, and one unit per channel is every channel's", () => {
