@@ -5,6 +5,7 @@ import { formatEngineering } from '../units/format';
 import { readUnitText } from '../units/unitText';
 import type { DataShape } from './dataShape';
 import type { Preamble } from './preamble';
+import type { UnreadUnit } from './types';
 
 /** A whole number as counters and converter codes are written. */
 const WHOLE_NUMBER = /^[-+]?\d+$/;
@@ -33,7 +34,7 @@ export interface CodedColumn {
   scale: number;
   offset: number;
   /** Set when the header gives a unit that could not be read: such a column holds no codes to convert. */
-  unreadUnit: unknown;
+  unreadUnit: UnreadUnit | null;
 }
 
 interface Stated {

@@ -260,10 +260,6 @@ export function uncommented(text: string): string {
 }
 
 /**
- * The key, value and line of the first line whose key is one of `keys`. A comment line counts ('# Time units = us'): a
- * unit stated only there is still the unit the samples are written in.
- */
-/**
  * True for a line that states the timing or a unit under a key this reader knows ('Vertical Units,V',
  * 'Sample Interval,1e-9'): preamble, never the names of the columns, however much it looks like them.
  */
@@ -271,9 +267,13 @@ export function isStatingLine(text: string, delimiter: string): boolean {
   const pair = splitKeyValue(uncommented(text), delimiter);
   if (!pair) return false;
   const { words } = normaliseKey(pair[0]);
-  return [INTERVAL_KEYS, OFFSET_KEYS, TIME_UNIT_KEYS, VALUE_UNIT_KEYS].some((keys) => keys.has(words));
+  return [INTERVAL_KEYS, RATE_KEYS, OFFSET_KEYS, TIME_UNIT_KEYS, VALUE_UNIT_KEYS].some((keys) => keys.has(words));
 }
 
+/**
+ * The key, value and line of the first line whose key is one of `keys`. A comment line counts ('# Time units = us'): a
+ * unit stated only there is still the unit the samples are written in.
+ */
 function firstKeyed(lines: PreambleLine[], delimiter: string, keys: ReadonlySet<string>): { key: string; value: string; line: number } | null {
   for (const { text, line } of lines) {
     const pair = splitKeyValue(uncommented(text), delimiter);

@@ -34,7 +34,7 @@ export interface KeptChannel {
 
 const DELIMITER_NAMES: Record<string, DelimiterName> = { ',': 'comma', ';': 'semicolon', '\t': 'tab', ' ': 'whitespace', '': 'none' };
 
-/** The unit a time column is written in: 's' for a scale of 1, else the scale in engineering notation ('ns'). */
+/** The unit a time column is written in: 's' for a scale of 1, a minute, hour or day by its symbol, else the scale in engineering notation ('ns'). */
 function writtenTimeUnit(column: ColumnPlan): string {
   if (column.unit === '') return '';
   if (column.scale === 1) return 's';
