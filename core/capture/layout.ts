@@ -7,6 +7,7 @@ import { columnUnit, isTimeName, type ColumnUnit, isUnitsRow, parseColumnHeading
 import { sameShape, dataShape, groupedCell, type DataShape } from './dataShape';
 import {
   INDEX_NAME,
+  TEXT_NAME,
   countsUp,
   evenSteps,
   headerTiming,
@@ -26,9 +27,10 @@ import { isUnitAttempt, printable, readUnitText } from '../units/unitText';
 /**
  * 'time': numbers on a time axis; 'timestamp': wall-clock stamps, axis rebuilt from the interval;
  * 'maybe-time': first column of a headerless file, time when strictly increasing (decided at the end); 'value';
- * 'ignored': read but not a channel (an empty leading field, a sample index, cells of stated timing).
+ * 'ignored': read but not a channel (an empty leading field, a sample index, cells of stated timing); 'text': free
+ * text by its name ('Comment'), not read at all.
  */
-export type ColumnKind = 'time' | 'timestamp' | 'maybe-time' | 'value' | 'ignored';
+export type ColumnKind = 'time' | 'timestamp' | 'maybe-time' | 'value' | 'ignored' | 'text';
 
 export interface ColumnPlan {
   kind: ColumnKind;
@@ -150,6 +152,11 @@ function pairedName(valueName: string, timeName: string | null): string {
   return rest !== '' && rest.length < valueName.length && valueName.toLowerCase().endsWith(rest.toLowerCase()) ? rest : valueName;
 }
 
+/** True for a column whose cells are read as numbers: all but wall-clock stamps and free text. */
+export function isReadColumn(column: ColumnPlan): boolean {
+  return column.kind !== 'timestamp' && column.kind !== 'text';
+}
+
 function isTimeKind(kind: ColumnKind): boolean {
   return kind === 'time' || kind === 'timestamp' || kind === 'maybe-time';
 }
@@ -174,7 +181,7 @@ export function nameChannels(columns: ColumnPlan[], hasHeader: boolean): void {
   let count = 0;
   const seen = new Map<string, number>();
   columns.forEach((column, index) => {
-    if (column.kind === 'ignored') return;
+    if (column.kind === 'ignored' || column.kind === 'text') return;
     if (isTimeKind(column.kind)) {
       if (column.name === '') column.name = 'time';
       return;
@@ -262,7 +269,7 @@ function planUnit(
   line: number | null,
   warnings: string[],
 ): ColumnUnit {
-  if (kind === 'ignored') return { unit: '', scale: 1 };
+  if (kind === 'ignored' || kind === 'text') return { unit: '', scale: 1 };
   const label = heading.heading || heading.name || `column ${index + 1}`;
   if (kind === 'value' && heading.unitText === null && !options.valueUnit && preamble.valueUnit) return preambleValueUnit(label, preamble.valueUnit, warnings);
   // The preamble states no unit when the option does (readPreamble): the option is over it.
@@ -392,7 +399,8 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
     // A headerless column counting up beside an evenly stepped one is a sample index, unless a units row makes it time.
     const beforeTime = !header && !timeNamed && c === skip && evenSteps(column(c + 1), decimalComma) && !countsUp(column(c + 1));
     let kind: ColumnKind = 'value';
-    if (c < skip || timing?.cells.has(c)) kind = 'ignored';
+    if (named && TEXT_NAME.test(p.name)) kind = 'text';
+    else if (c < skip || timing?.cells.has(c)) kind = 'ignored';
     else if (counting && (indexNamed || beforeTime || (statesTiming && (timeNamed || c === skip)))) kind = 'ignored';
     else if (firstCells[c] !== undefined && isTimestamp(firstCells[c])) kind = 'timestamp';
     else if (timeNamed || (unnamedTime && c === skip)) kind = 'time';

@@ -11,6 +11,8 @@ export function statesANumber(cell: string): boolean {
 
 /** Names of a column that counts samples rather than measuring anything. */
 export const INDEX_NAME = /^(?:index|idx|samples?|sample ?(?:no|nr|number|#)|no|nr|#|points?|pt|seq|sequence|counter)\.?$/i;
+/** A column of free text by its name ('Comment', as a data logger heads its last column): never read as a channel. */
+export const TEXT_NAME = /^(?:comments?|notes?|remarks?|annotations?)$/i;
 /** Fewest digits after a decimal comma for '0,123' to be read as one number rather than two columns (fixed decimals). */
 const FIXED_DECIMALS = 3;
 /** A whole number as counters and converter codes are written. */

@@ -54,7 +54,7 @@ import { ByteRowReader } from './byteRowReader';
 import { ColumnStore } from './columnStore';
 import { groupingCause } from './cellValue';
 import { dataShape, groupedCell, groupedCellAnyDelimiter, sameShape, unitSuffixedCell, unreadableNumberCell, type DataShape } from './dataShape';
-import { decideLayout, rowDelimiter, type Layout } from './layout';
+import { decideLayout, isReadColumn, rowDelimiter, type Layout } from './layout';
 import { MAX_LINE_LENGTH, checkLastLine, checkUnfinishedLine, lineTooLong } from './captureLimits';
 import { LineMap } from './lineMap';
 import { isBlankOrComment, type PreambleLine } from './preamble';
@@ -440,7 +440,7 @@ class StreamingReader implements CaptureReader {
   /** The byte reader once the layout is known, when lines end in LF and every column holds numbers; else null. */
   private byteRowReader(): ByteRowReader | null {
     const layout = this.layout;
-    if (layout === null || this.terminator !== '\n' || layout.columns.some((c) => c.kind === 'timestamp')) return null;
+    if (layout === null || this.terminator !== '\n' || layout.columns.some((c) => !isReadColumn(c))) return null;
     const delimiter = rowDelimiter(layout);
     // A decimal comma in a comma-separated table (from quoted fields) needs the cells split first: the text path.
     if (layout.decimalComma && delimiter === ',') return null;
@@ -492,7 +492,7 @@ class StreamingReader implements CaptureReader {
    */
   private startTable(): void {
     const layout = decideLayout(this.head, this.run, this.options, this.side);
-    const parsed = layout.columns.map((c) => c.kind !== 'timestamp');
+    const parsed = layout.columns.map(isReadColumn);
     this.layout = layout;
     this.store = new ColumnStore(parsed, () => this.line);
     const rows = new RowReader(this.store, parsed, rowDelimiter(layout), layout.decimalComma);

@@ -144,7 +144,7 @@ describe('preamble', () => {
     expect(commented.metadata).toEqual({ 'Sampling rate': '1GSa/s' });
   });
 
-  it("reads a data logger's two header blocks: its X_Value column is time, and one unit per channel is every channel's", () => {
+  it("reads a data logger's two header blocks: its X_Value column is time, one unit per channel is every channel's, and its Comment column is no channel", () => {
     const text = [
       'LabVIEW Measurement\t',
       'Writer_Version\t2',
@@ -159,9 +159,11 @@ describe('preamble', () => {
       'Delta_X\t1.000000E-6\t1.000000E-6\t',
       '***End_of_Header***\t\t\t',
       'X_Value\tV_S\tV_C\tComment',
-      rowsOf((i) => `${times[i]}\t${values[i]}\t${-values[i]}`),
+      // Its Comment column is free text, empty but where an operator wrote a note.
+      rowsOf((i) => `${times[i]}\t${values[i]}\t${-values[i]}${i === 5 ? '\tprobe moved, see log' : ''}`),
     ].join('\n');
     const capture = parseCapture(text);
+    expect(capture.warnings.join('\n')).not.toContain('Comment');
     expect(capture.channels.map((c) => [c.name, c.unit])).toEqual([
       ['V_S', 'V'],
       ['V_C', 'V'],
