@@ -19,6 +19,12 @@ const SLASHED = /^(.+?)\s*\/\s*([^\s/]+)$/;
 const UNDERSCORED = /^(.+?)_([^_\s]+)$/;
 /** 'Time, s' or 'Voltage, V': a name, a comma, then the unit (counted only when it reads as one). */
 const COMMA_UNIT = /^(.+?)\s*,\s*([^\s,]+)$/;
+/**
+ * A circuit simulator's probe ('V(out)', 'v(n001)', 'I(L1)', 'V(a,b)'): the letter is the quantity, volts or amperes
+ * (SPICE's output convention, common practice), and the brackets name the node or branch, which stays part of the
+ * channel's name.
+ */
+const SIMULATOR_PROBE = /^([VI])\(\s*([^()\s][^()]*?)\s*\)$/i;
 /** A level in decibels ('dB', 'dBV', 'dBm', 'dBuV'): no scale turns it into the linear values a fit needs. */
 const DECIBELS = /^db/i;
 /** 'Time in ms', 'C1 in V', or a bare 'in s' (a name left empty), the unit the last word. */
@@ -63,6 +69,12 @@ function readsAsUnit(heading: ColumnHeading): boolean {
 export function parseColumnHeading(cell: string): ColumnHeading {
   const text = cell.trim();
   if (text.length > LONGEST_HEADING) return { name: text, unitText: null, reading: null };
+  const probe = SIMULATOR_PROBE.exec(text);
+  // 'V(mV)' and 'I(A)' are a name and its unit: a probe names a node or a branch, which reads as no unit.
+  if (probe && readUnitText(probe[2]).kind === 'unknown') {
+    const unitText = probe[1].toUpperCase() === 'V' ? 'V' : 'A';
+    return { name: text, unitText, reading: readUnitText(unitText) };
+  }
   const bracketed = BRACKETED.exec(text);
   if (bracketed) return withUnit(bracketed[1], bracketed[2]);
   const slashed = SLASHED.exec(text);

@@ -145,6 +145,22 @@ describe("the word for time in an export set to another language names the time 
   });
 });
 
+describe("a circuit simulator's probe heading gives its quantity's unit and keeps the node in the name", () => {
+  it.each([
+    ['V(out)', 'V(out)', 'V', 1],
+    ['v(n001)', 'v(n001)', 'V', 1],
+    ['I(L1)', 'I(L1)', 'A', 1],
+    ['i(vsense)', 'i(vsense)', 'A', 1],
+    // A unit in the brackets is the unit of a channel named by the letter.
+    ['V(mV)', 'V', 'V', 1e-3],
+    ['I(mA)', 'I', 'A', 1e-3],
+  ])("'%s'", (heading, name, unit, scale) => {
+    const capture = parseCapture(`time\t${heading}\n${values.map((v, i) => `${i * 1e-9}\t${v}`).join('\n')}`);
+    expect(capture.channels.map((c) => [c.name, c.unit])).toEqual([[name, unit]]);
+    close(capture.channels[0].values[2], values[2] * scale);
+  });
+});
+
 describe("a comma before a word that is no unit leaves the heading a name", () => {
   it.each(['"Probe A, B"', '"Node, out"'])("%s is a channel's name, without a unit", (heading) => {
     const capture = parseCapture(`Time (s),${heading}\n${timedRows()}`);
