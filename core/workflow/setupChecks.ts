@@ -44,6 +44,12 @@ export interface SetupCheckInput {
 
 /** A drift beyond this many combined standard errors between the first and the last window is reported (about 0.3 % false alarms for honest errors). */
 const DRIFT_SIGMAS = 3;
+/**
+ * Nor is a drift under this share of the ring frequency (10 ppm), however many standard errors it is: no component's
+ * voltage dependence is told by it, and on a noise-free record (a simulator's output, whose varying step moves the
+ * frequency by parts in 10^8) the windows' errors are near zero and would call any such trace a drift.
+ */
+const DRIFT_FLOOR = 1e-5;
 /** The ring is followed until its envelope falls to this many times the fit's residual; beyond, the windows would fit noise. */
 const RING_END_NOISE = 5;
 /** A decay indistinguishable from none: alpha within this many standard errors of zero. */
@@ -435,11 +441,14 @@ function frequencyDrift(input: SetupCheckInput): SetupCheck[] {
   ];
 }
 
-/** The late window's frequency less the early one's, their combined standard error, and whether the difference exceeds DRIFT_SIGMAS of it. */
+/**
+ * The late window's frequency less the early one's, their combined standard error, and whether the difference exceeds
+ * DRIFT_SIGMAS of it and DRIFT_FLOOR of the frequency.
+ */
 function shift(early: Quantity, late: Quantity): { drift: number; combined: number; drifts: boolean } {
   const drift = late.value - early.value;
   const combined = Math.hypot(early.stderr ?? Infinity, late.stderr ?? Infinity);
-  return { drift, combined, drifts: Math.abs(drift) > DRIFT_SIGMAS * combined };
+  return { drift, combined, drifts: Math.abs(drift) > DRIFT_SIGMAS * combined && Math.abs(drift) > DRIFT_FLOOR * Math.abs(early.value) };
 }
 
 /** Kept from the fit's warnings as a setup note: a ring shorter than one time constant leaves alpha's error wide (already in it). */
