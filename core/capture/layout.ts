@@ -166,6 +166,20 @@ export function rowDelimiter(layout: Layout): string {
   return layout.delimiter || (layout.decimalComma ? '\t' : ',');
 }
 
+/**
+ * Wall-clock stamps beside a time column of numbers (a data logger's 'Date/Time' before its 'Elapsed (s)') give no axis:
+ * the numbers do, with no interval to state. The stamps are left unread, with a note.
+ */
+function stampsBesideTime(columns: ColumnPlan[], warnings: string[]): void {
+  const time = columns.find((c) => c.kind === 'time');
+  if (!time) return;
+  const stamps = columns.filter((c) => c.kind === 'timestamp');
+  for (const stamp of stamps) stamp.kind = 'text';
+  if (stamps.length === 0) return;
+  const names = stamps.map((c) => `'${printable(c.heading || c.name)}'`).join(' and ');
+  warnings.push(`wall-clock time stamps in ${names} were left unread: the time column '${printable(time.heading || time.name)}' gives the time axis`);
+}
+
 /** Each value column takes the nearest time column on its left, else the first one, else none. */
 function assignTimeColumns(columns: ColumnPlan[]): void {
   const first = columns.findIndex((c) => isTimeKind(c.kind));
@@ -410,6 +424,7 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
     const unreadUnit = unread === undefined ? null : { message: unread, line: unitLine };
     columns.push({ kind, heading: p.heading, name: p.name, unit, scale, offset: 0, timeColumn: null, unreadUnit });
   }
+  stampsBesideTime(columns, warnings);
   assignTimeColumns(columns);
   nameChannels(columns, header !== null);
   nameFromSource(columns, preamble.metadata);

@@ -396,6 +396,17 @@ describe('wall-clock time stamps', () => {
     expect(captureError(`Date,Time,V_S\n${rowsOf((i) => `2021-05-26,${clock(i)},${values[i]}`)}`).message).toMatch(/^line 2: column 'Time' holds wall-clock time stamps \('11:44:55.465797'\)/);
   });
 
+  it("leaves stamps unread beside a time column of numbers (a data logger's Date/Time before its Elapsed (s))", () => {
+    for (const header of ['Date/Time,Elapsed (s),V_S (V)', 'Elapsed (s),Date/Time,V_S (V)']) {
+      const stampFirst = header.startsWith('Date');
+      const text = `${header}\n${rowsOf((i) => (stampFirst ? `2026-12-05 10:00:0${i % 10},${times[i]},${values[i]}` : `${times[i]},2026-12-05 10:00:0${i % 10},${values[i]}`))}`;
+      const capture = parseCapture(text);
+      expectClose(capture.channels[0].time, times);
+      expect(capture.importSummary.time).toMatchObject({ kind: 'column', column: 'Elapsed (s)' });
+      expect(capture.warnings).toContain("wall-clock time stamps in 'Date/Time' were left unread: the time column 'Elapsed (s)' gives the time axis");
+    }
+  });
+
   it('reads stamps written without zero padding (10:0:0.5) as stamps', () => {
     const clock = (i: number): string => `10:${Math.floor(i / 120)}:${((i % 120) / 2).toFixed(1)}`;
     const capture = parseCapture(`Time,Level (V)\n${rowsOf((i) => `${clock(i)},${values[i]}`)}`, { sampleInterval: 0.5 });
