@@ -88,14 +88,13 @@ export function parseColumnHeading(cell: string): ColumnHeading {
     const suffix = underscored[2];
     if (suffix.length >= 2 || (isTimeName(underscored[1]) && isExactSymbol(suffix))) return byUnderscore;
   }
-  const comma = COMMA_UNIT.exec(text);
-  const byComma = comma ? withUnit(comma[1], comma[2]) : null;
-  if (byComma?.reading?.kind === 'known') return byComma;
-  // 'in' then a unit, as some scopes and most German exports head a column; only a unit read as known counts
-  // ('Log in' and 'Plug in A2' stay names).
-  const inUnit = IN_UNIT.exec(text);
-  const byIn = inUnit ? withUnit(inUnit[1] ?? '', inUnit[2]) : null;
-  if (byIn?.reading?.kind === 'known') return byIn;
+  // A comma, or 'in' (as some scopes and most German exports head a column), then a unit: only a unit read as known
+  // counts ('Node, out', 'Log in' and 'Plug in A2' stay names).
+  for (const pattern of [COMMA_UNIT, IN_UNIT]) {
+    const found = pattern.exec(text);
+    const byWord = found ? withUnit(found[1] ?? '', found[2]) : null;
+    if (byWord?.reading?.kind === 'known') return byWord;
+  }
   return { name: text, unitText: null, reading: null };
 }
 

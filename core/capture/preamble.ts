@@ -25,10 +25,10 @@ const INTERVAL_KEYS = new Set([
 /** Normalised keys that state the sample rate instead: the interval is its reciprocal (when no interval is stated). */
 const RATE_KEYS = new Set(['sample rate', 'sampling rate', 'samplerate', 'sample frequency', 'sampling frequency', 'sa rate']);
 /**
- * A rate as written: a number, then samples or cycles per second with an SI prefix ('1GSa/s', '500 MS/s', '2.5e9',
- * '100 kHz', '1 Msps'); no unit means per second.
+ * The unit after a rate's number: samples or cycles per second with an SI prefix ('GSa/s', 'MS/s', 'kHz', 'Msps');
+ * none means per second.
  */
-const RATE_VALUE = /^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(?:([kMG]?)(?:Sa\/s|S\/s|sps|Hz|SPS))?\s*(?:$|[,;\t(])/;
+const RATE_UNIT = /^([kMG]?)(?:Sa\/s|S\/s|sps|SPS|Hz)$|^$/;
 const RATE_PREFIX: Readonly<Record<string, number>> = { '': 1, k: 1e3, M: 1e6, G: 1e9 };
 
 /** Keys that state the time of the first sample (used only when numeric). */
@@ -322,9 +322,10 @@ export function readPreamble(lines: PreambleLine[], delimiter: string, decimalCo
     const [key, value] = pair;
     const { words, unitText } = normaliseKey(key);
     const isInterval = INTERVAL_KEYS.has(words);
-    if (commented && !isInterval && !RATE_KEYS.has(words)) continue;
+    const isRate = RATE_KEYS.has(words);
+    if (commented && !isInterval && !isRate) continue;
     if (!(key in preamble.metadata)) preamble.metadata[key] = value;
-    if (RATE_KEYS.has(words)) {
+    if (isRate) {
       rate ??= statedRate(value, key, line, decimalComma);
       continue;
     }
@@ -348,9 +349,10 @@ export function readPreamble(lines: PreambleLine[], delimiter: string, decimalCo
 
 /** The sample interval a stated rate gives ('Sample Rate,1GSa/s': 1 ns), or null when the value reads as no rate. */
 function statedRate(value: string, key: string, line: number, decimalComma: boolean): StatedTime | null {
-  const first = value.split(decimalComma ? /[;\t]/ : /[,;\t]/)[0].replace(/^[A-Za-z][\w ]*?:\s*/, '');
-  const found = RATE_VALUE.exec(decimalComma ? first.replace(',', '.') : first);
-  if (!found) return null;
-  const perSecond = Number(found[1]) * RATE_PREFIX[found[2] ?? ''];
+  const first = value.split(decimalComma ? /[;\t]/ : /[,;\t]/)[0].trim().replace(LABELLED, '');
+  const found = NUMBER_FIRST.exec(decimalComma ? first.replace(',', '.') : first);
+  const unit = found ? RATE_UNIT.exec(found[3].split(/[\s(]/)[0]) : null;
+  if (!found || !unit) return null;
+  const perSecond = Number(found[1]) * RATE_PREFIX[unit[1] ?? ''];
   return perSecond > 0 && Number.isFinite(perSecond) ? { value: 1 / perSecond, key, line, unitStated: true } : null;
 }

@@ -34,7 +34,7 @@ export function selectChannel(capture: Capture, selector?: string | number): Cha
  */
 export function withReadUnit(capture: Capture, channel: Channel): Channel {
   if (!channel.unreadUnit) return channel;
-  const others = capture.channels.filter((c) => c !== channel && !c.unreadUnit).map((c) => `'${c.name}'`);
+  const others = capture.channels.filter((c) => c.name !== channel.name && !c.unreadUnit).map((c) => `'${c.name}'`);
   const instead = others.length === 0 ? '' : `, or choose another channel with --column (${others.join(', ')})`;
   throw new CaptureError(`${channel.unreadUnit.message}${instead}`, channel.unreadUnit.line);
 }
