@@ -36,7 +36,7 @@ export interface MeasureRequest {
   file: string;
   channel: Channel;
   /** The capture's other channels: a flat channel's message names those that vary. */
-  otherChannels?: readonly Pick<Channel, 'name' | 'values'>[];
+  otherChannels?: readonly Pick<Channel, 'name' | 'values' | 'unreadUnit'>[];
   /** Warnings of the import (dropped rows, clipping...), shown before the fit's own. */
   captureWarnings?: readonly string[];
   /** What the importer inferred from the capture, carried on the summary as its `import` field. */

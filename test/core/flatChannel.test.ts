@@ -25,6 +25,13 @@ describe('a flat channel names the channels that vary', () => {
     expect(varyingChannelsNote(flat, [channel([0, 1], 'C'), channel([3, 1], 'D')])).toBe("; channels 'C' and 'D' of this capture vary: choose the channel to fit (--column)");
   });
 
+  it('does not name a channel whose unit does not read, which cannot be fitted', () => {
+    const flat = channel([2, 2, 2], 'CH1');
+    const temperature = { ...channel([20, 21, 22], 'Temp'), unreadUnit: { message: "unit 'degC' is not recognised", line: 1 } };
+    expect(varyingChannelsNote(flat, [temperature])).toBeNull();
+    expect(varyingChannelsNote(flat, [temperature, channel([0, 1, 0], 'CH2')])).toBe("; channel 'CH2' of this capture varies: choose the channel to fit (--column)");
+  });
+
   it('says nothing for a channel that varies, or when no other channel does', () => {
     expect(varyingChannelsNote(channel([0, 1], 'A'), [channel([0, 2], 'B')])).toBeNull();
     expect(varyingChannelsNote(channel([1, 1], 'A'), [channel([5, 5], 'B')])).toBeNull();
