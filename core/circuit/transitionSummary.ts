@@ -46,6 +46,12 @@ const PEAK_HALF_PHASE = Math.PI / 6;
 /** The largest sample exceeding the parabola's peak by more than this many standard errors is flagged. */
 const LIFT_SIGMAS = 3;
 
+/**
+ * Why a fit without samples before its event has no step metrics: the level it starts from and the instant are
+ * the model's at the first fitted sample, not the step's (a record caught 9 samples late read 43 % overshoot for 37 %).
+ */
+const NO_STEP_START = 'the fit window starts inside the response, with no samples before the event: the level and the instant the step started from are unknown';
+
 /** The samples measured, time ascending; `clipped` flags samples at an ADC rail (1, else 0), whose values are not the waveform's. */
 export interface TransitionTrace {
   time: ArrayLike<number>;
@@ -55,9 +61,9 @@ export interface TransitionTrace {
 
 /**
  * Always returns a summary: with `reason` set (and `measured`, `model` null) when the fit holds no
- * step to measure. The state levels are the fitted model's, the event time the fit's t0. When samples
- * after the event sit at a rail, the sample peak is not the waveform's: overshoot, undershoot and peak
- * time are not measured from the samples (the model's still are).
+ * step to measure, or no samples before its step (NO_STEP_START). The state levels are the fitted model's,
+ * the event time the fit's t0. When samples after the event sit at a rail, the sample peak is not the
+ * waveform's: overshoot, undershoot and peak time are not measured from the samples (the model's still are).
  */
 export function summarizeTransitions(trace: TransitionTrace, fit: ResponseFit): TransitionSummary {
   const levels = { initial: fit.preLevel.value, final: fit.finalValue.value };
@@ -65,15 +71,14 @@ export function summarizeTransitions(trace: TransitionTrace, fit: ResponseFit): 
   const summary: TransitionSummary = { reason: null, levelMethod: 'fitted model', levels, eventTime, measured: null, model: null, warnings: [] };
   const model = modelTransitions(fit);
   if (model.metrics === null) return { ...summary, reason: model.reason };
+  if (fit.startsInResponse || !(trace.time[0] < eventTime)) return { ...summary, reason: NO_STEP_START };
   const { warnings: modelWarnings, ...modelMetrics } = model.metrics;
 
-  const m = transitionMetrics(trace.time, trace.values, { ...levels, eventTime, method: 'fitted model' });
+  const modelSettled = eventTime + modelMetrics.settlingTime2.value;
+  const m = transitionMetrics(trace.time, trace.values, { ...levels, eventTime, method: 'fitted model', modelSettled });
   const fromEvent = (settling: number | null) => (settling === null || m.instants.t50 === null ? null : settling + m.instants.t50 - eventTime);
   const peakOvershoot = parabolaOvershoot(trace, fit, m.peakInstant);
   const warnings = [...m.warnings, ...modelWarnings];
-  if (!(trace.time[0] < eventTime)) {
-    warnings.push('no sample precedes the event: the starting level is the model at the first sample, and times count from there.');
-  }
   if (peakOvershoot?.stderr && m.overshoot !== null && m.overshoot - peakOvershoot.value > LIFT_SIGMAS * peakOvershoot.stderr) {
     warnings.push(
       `noise lifts the largest sample: the sample overshoot reads ${(m.overshoot - peakOvershoot.value).toFixed(2)} percentage points above the parabola through the peak's samples.`,

@@ -48,6 +48,10 @@ export interface FittedResponse {
   params?: ResponseParams;
   /** Fitted level before the event with its standard error. Default: params.yPre, no standard error. */
   preLevel?: Quantity;
+  /** True when the fit saw no samples before the event: the level before it and the swing at it are not checked. */
+  startsInResponse?: boolean;
+  /** True when t0 is no event time (the fit saw none and none was given): the prediction is not placed, so no rmsDifference. */
+  eventTimeUnknown?: boolean;
   /** Fitted final value with its standard error. Default: params.yFinal, no standard error. */
   finalValue?: Quantity;
   /** The fitted model's step metrics (a FitSummary's); read only for the overshoot and settling limits a design states. */
@@ -81,7 +85,7 @@ export interface Verdict {
   /** The decision rule the quantities were decided by, and whether the design chose it. */
   rule: DecisionRule;
   quantities: VerdictQuantity[];
-  /** RMS of measured minus predicted over the fit window, unit of the probe; null when the window holds no samples. */
+  /** RMS of measured minus predicted over the fit window, unit of the probe; null when the window holds no samples or the event time is unknown. */
   rmsDifference: number | null;
   likelyCause: LikelyCause | null;
   /** d ln(alpha) / d ln(X) and d ln(omega0) / d ln(X) for X in R, L, C. */
@@ -208,11 +212,12 @@ export function checkDesign(
     }
   }
 
-  const startsAfterEvent = measured.time.length > 0 && (fit.t0?.value ?? 0) < measured.time[0];
+  const startsAfterEvent = fit.startsInResponse === true || (measured.time.length > 0 && (fit.t0?.value ?? 0) < measured.time[0]);
   const observed = observedLevels(design, fit, startsAfterEvent);
   const levels = observed ? levelRows(design, observed, rule) : [];
   quantities.push(...levels);
   if (observed) notes.push(...levelNotes(design, startsAfterEvent, levels));
+  if (fit.eventTimeUnknown) notes.push('No event time is known (the record holds none): the prediction is not placed, so it is not compared with the samples.');
   let likelyCause = shapeOut ? componentCause : null;
   if (observed && levels.some(deviates)) {
     // The levels may follow the part that moved (a coil current's swing goes as sqrt(C / L)): the source is
@@ -345,8 +350,8 @@ function tightestComponent(design: Design, except?: ComponentName | 'source'): C
 const LEVEL_NAMES: Record<keyof DesignLevels, string> = { preLevel: 'initial level', finalValue: 'final value', swing: 'swing' };
 
 /**
- * The fit's levels in the probe's unit; the one before the event is null when the record starts after it,
- * the swing null for a single decay (the swing is a ring's amplitude at omega0).
+ * The fit's levels in the probe's unit; the one before the event and the swing at it are null when the record
+ * starts after it, the swing null for a single decay too (the swing is a ring's amplitude at omega0).
  */
 interface ObservedLevels {
   preLevel: Quantity | null;
@@ -361,7 +366,7 @@ function observedLevels(design: Design, fit: FittedResponse, startsAfterEvent: b
   return {
     preLevel: startsAfterEvent ? null : (fit.preLevel ?? quantity(p.yPre, null, unit)),
     finalValue: fit.finalValue ?? quantity(p.yFinal, null, unit),
-    swing: fit.tau ? null : quantity(responseSwing(p.a, p.b - p.alpha * p.a, p.omega0), null, unit),
+    swing: fit.tau || startsAfterEvent ? null : quantity(responseSwing(p.a, p.b - p.alpha * p.a, p.omega0), null, unit),
   };
 }
 
@@ -416,7 +421,11 @@ function levelNotes(design: Design, startsAfterEvent: boolean, rows: readonly Ve
   const notes = [
     `Level limits: the extremes over the tolerance corners widened by ${stated} of the larger of the level and the swing.`,
   ];
-  if (startsAfterEvent) notes.push('The record starts after the event: the level before it is not observed, so it is not checked.');
+  if (startsAfterEvent) {
+    const expected = designLevels(design);
+    const swing = expected.preLevel === expected.finalValue ? ' and the swing at it are' : ' is';
+    notes.push(`The record starts after the event: the level before it${swing} not observed, so not checked.`);
+  }
   if (rows.some((q) => q.name === LEVEL_NAMES.swing)) {
     notes.push('The swing, sqrt(a^2 + (slope / omega0)^2) at the event, has no fitted standard error: it is decided on its value alone and its margin uses the design uncertainty alone.');
   }
@@ -497,6 +506,7 @@ function explainDeviation(
 }
 
 function rmsDifference(design: Design, fit: FittedResponse, measured: { time: ArrayLike<number>; values: ArrayLike<number> }): number | null {
+  if (fit.eventTimeUnknown) return null;
   const prediction = evaluateResponse(predictResponse(design, fit.t0?.value ?? 0), measured.time);
   const start = fit.window?.start ?? -Infinity;
   const end = fit.window?.end ?? Infinity;

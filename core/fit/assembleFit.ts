@@ -84,6 +84,7 @@ export function assembleFit(
     ...(ring ?? { alpha: NOT_APPLICABLE('s^-1'), omega0: NOT_APPLICABLE('rad/s'), omegaD: null, zeta: NOT_APPLICABLE(''), Q: NOT_APPLICABLE('') }),
     ...(firstOrder ? { tau: decayTime(alpha, seAlpha, choice.tailTimeConstant) } : {}),
     ...(choice.jumpStart ? { jumpStart: true } : {}),
+    ...(seesPreEvent ? {} : { startsInResponse: true }),
     finalValue: quantity(params.yFinal, se('yFinal'), trace.unit),
     t0: quantity(params.t0, t0Known ? se('t0') : null, 's'),
     // A layout without a pre-event level reports y(t0+) there, with no standard error.

@@ -41,6 +41,12 @@ export interface ResponseFit {
   tau?: Quantity;
   /** True when the fit let the response jump at the event (stated, or found in the data). */
   jumpStart?: boolean;
+  /**
+   * True when the fit window holds no samples before the event (the record or the window starts inside the
+   * response): t0 is then the first fitted sample and preLevel the model's value there, not a level before an
+   * event, so nothing that needs the step's start (its level, its instant, the step metrics) is measured.
+   */
+  startsInResponse?: boolean;
   finalValue: Quantity;
   t0: Quantity;
   preLevel: Quantity;

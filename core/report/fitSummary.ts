@@ -38,6 +38,10 @@ export interface FitSummary {
   tau?: Quantity;
   finalValue: Quantity;
   t0: Quantity;
+  /** The fitted level before the event; absent when the fit saw none (startsInResponse) or failed. Absent in older records. */
+  preLevel?: Quantity;
+  /** True when the fit window holds no samples before the event (ResponseFit.startsInResponse). */
+  startsInResponse?: boolean;
   /** `mode` is given when the fit has several ringing modes (--mode, default the dominant one). */
   components?: ComponentSet & { topology: string; known: string; mode?: ComponentMode };
   /**
@@ -100,6 +104,7 @@ export function summarizeFit(
     Q: fit.Q,
     finalValue: fit.finalValue,
     t0: fit.t0,
+    ...(fit.startsInResponse ? { startsInResponse: true } : fitSucceeded(fit) ? { preLevel: fit.preLevel } : {}),
     rmsResidual: fit.rmsResidual,
     noiseRms: fit.noiseRms,
     samplesUsed: fit.samplesUsed,

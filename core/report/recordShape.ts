@@ -96,6 +96,8 @@ function fitSummaryProblem(value: unknown): ShapeProblem | string | null {
   if (value.components !== undefined && (!isObject(value.components) || !isText(value.components.topology) || !isText(value.components.known))) {
     return 'components must give topology and known with R, L and C';
   }
+  if (value.preLevel !== undefined && !isQuantity(value.preLevel)) return 'preLevel must be a quantity { value, stderr, unit }';
+  if (value.startsInResponse !== undefined && value.startsInResponse !== true) return 'startsInResponse must be true where given';
   const modes = modesProblem(value);
   if (modes) return modes;
   if (!isNumberOrNull(value.rmsResidual) || !isNumberOrNull(value.noiseRms)) return 'rmsResidual and noiseRms must be numbers';

@@ -73,7 +73,8 @@ export async function measure(ctx: ActionContext): Promise<void> {
   if (generation !== ctx.counters.fitGeneration || !answer) return ctx.store.update();
   const { result, fitError, verdictError, componentsError, modeCurves } = answer.reply;
   ctx.store.update((s) => {
-    if (result && s.userWindow.start === undefined && result.fit.status !== 'failed') s.eventTime = result.fit.t0.value;
+    // A fit that saw no samples before its event holds no event time: its t0 is only where the record starts.
+    if (result && s.userWindow.start === undefined && result.fit.status !== 'failed') s.eventTime = result.fit.startsInResponse ? null : result.fit.t0.value;
     s.fit = result?.fit ?? null;
     s.summary = result?.summary ?? null;
     s.modeCurves = modeCurves;

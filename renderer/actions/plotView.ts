@@ -15,7 +15,7 @@ export async function drawPlot(ctx: ActionContext): Promise<void> {
     params: fit && (fit.status === 'converged' || fit.status === 'max-iterations') ? fit.params : null,
     window: fit ? fit.window : null,
     design: design?.design ?? null,
-    eventTime: state.eventTime ?? fit?.t0.value ?? 0,
+    eventTime: state.eventTime ?? (fit && !fit.startsInResponse ? fit.t0.value : null),
     events: events ? events.list.map((e) => ({ index: e.index, onset: e.onset, end: e.end, fitted: e.index === events.chosen })) : [],
     transitions: summary?.transitions ?? null,
     modeCurves: fit ? state.modeCurves : [],

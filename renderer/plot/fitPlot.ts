@@ -26,8 +26,8 @@ export interface PlotInput {
   params: ResponseParams | null;
   window: { start: number; end: number } | null;
   design: Design | null;
-  /** Where the design's response starts, s. */
-  eventTime: number;
+  /** Where the design's response starts, s; null when no event time is known (then no prediction is drawn). */
+  eventTime: number | null;
   /** The events of a record holding several (empty otherwise): each marked at its onset, the one fitted picked out. */
   events: PlotEvent[];
   /** The fit's step metrics, marked on the plot (overshoot, peak time, settling time); null without a fit. */
@@ -176,7 +176,7 @@ export class FitPlot {
     const curves = params ? input.modeCurves : [];
     const model = params ? (curves.length ? modelOfModes(params, trace.time, curves) : evaluateResponse(params, trace.time)) : null;
     const residual = model ? Float64Array.from(trace.values, (v, i) => v - model[i]) : null;
-    const prediction = input.design ? predictResponse(input.design, input.eventTime) : null;
+    const prediction = input.design && input.eventTime !== null ? predictResponse(input.design, input.eventTime) : null;
     const modes = curves;
     this.derived = { model, residual, prediction, modes };
     this.showToolState();

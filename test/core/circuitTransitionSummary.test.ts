@@ -95,6 +95,28 @@ describe('summarizeTransitions on simulated captures', () => {
     // The model's overshoot stands, near the truth for zeta 0.3 (exp(-pi zeta / sqrt(1 - zeta^2)) = 37.2 %).
     expect(s.model!.overshoot.value).toBeCloseTo(100 * Math.exp((-Math.PI * 0.3) / Math.sqrt(1 - 0.09)), 0);
   });
+
+  it('measures no step metrics from a record or a window that starts after the step (its start level and instant are unknown)', () => {
+    const c = capture(0.3, 6);
+    // Caught 9 samples after the event: the model's value at the first sample is 15 % of the step, not 0, and its
+    // overshoot relative to that read 43 % for the true 37 % (with a standard error of 0.15 %).
+    const late = { time: c.time.subarray(260), values: c.values.subarray(260) };
+    const fromLate = fitResponse({ ...late, unit: 'V' });
+    expect(fromLate.status).toBe('converged');
+    expect(fromLate.startsInResponse).toBe(true);
+    const s = summarizeTransitions(late, fromLate);
+    expect(s.reason).toMatch(/starts inside the response/);
+    expect(s.measured).toBeNull();
+    expect(s.model).toBeNull();
+    // The same through a window set by hand after the event, on the whole record.
+    const windowed = fitResponse({ time: c.time, values: c.values, unit: 'V' }, { window: { start: c.time[260] } });
+    expect(windowed.startsInResponse).toBe(true);
+    expect(summarizeTransitions(c, windowed).reason).toMatch(/starts inside the response/);
+    // With the event in the record, the flag is absent and the metrics are measured.
+    const whole = fitResponse({ time: c.time, values: c.values, unit: 'V' });
+    expect(whole.startsInResponse).toBeUndefined();
+    expect(summarizeTransitions(c, whole).reason).toBeNull();
+  });
 });
 
 describe('state levels at zeta 0.3 (12 seeds)', () => {

@@ -81,8 +81,24 @@ describe('transitionMetrics', () => {
     const noisy = clean.map((y) => y + 0.1 * random.normal());
     const m = transitionMetrics(time, noisy, { initial: 0, final: 12 });
     expect(Math.abs(m.ringFrequency! / (wd / (2 * Math.PI)) - 1)).toBeLessThan(0.003);
-    // 0.83 % rms noise against a 2 % band: the settling time is flagged as noise-bound.
+    // 0.83 % rms noise against a 2 % band: the settling time is flagged as noise-bound, also when the model settled early.
     expect(m.warnings.join(' ')).toMatch(/settled noise/);
+    const settled = transitionMetrics(time, noisy, { initial: 0, final: 12, modelSettled: Math.log(50) / alpha });
+    expect(settled.warnings.join(' ')).toMatch(/settled noise/);
+  });
+
+  it("takes a ring still running at the record's end for no settled noise when the model says it has not settled", () => {
+    // Noise-free, alpha 1e5 s^-1: the 2 % band is reached at 39 us, the record ends at 18 us.
+    const alpha = 1e5;
+    const omega0 = 2 * Math.PI * 2e6;
+    const time = axis(3600, 5e-9);
+    const clean = evaluateResponse({ t0: 0, yPre: 0, yFinal: 1, alpha, omega0, a: -1, b: -alpha }, time);
+    const settles = Math.log(1 / 0.02) / alpha;
+    const unsettled = transitionMetrics(time, clean, { initial: 0, final: 1, modelSettled: settles });
+    expect(unsettled.warnings.join(' ')).not.toMatch(/settled noise/);
+    expect(unsettled.warnings.join(' ')).toMatch(/does not stay within 2 %/);
+    // Without the model's word the ring's spread in the last fifth reads as noise, as the definitions alone give it.
+    expect(transitionMetrics(time, clean, { initial: 0, final: 1 }).warnings.join(' ')).toMatch(/settled noise/);
   });
 
   it('takes no ring from the noise about a noisy overdamped step', () => {
