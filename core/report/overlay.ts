@@ -48,6 +48,8 @@ export function renderMeasurementPlot(record: BenchRecord, trace: ReportTrace, i
   if (design) {
     if (probeUnit(design) !== trace.unit) {
       notes.push(`The design predicts ${probeUnit(design)} but the channel is in ${trace.unit || 'no unit'}: prediction not drawn.`);
+    } else if (fit.startsInResponse) {
+      notes.push('The fit saw no samples before the event, so no event time places the prediction: prediction not drawn.');
     } else {
       const time = grid(xRange[0], xRange[1], columns);
       const t0 = fit.t0.value;

@@ -124,4 +124,22 @@ describe.skipIf(!hasChromium)('the capture panel in a browser', () => {
     expect((await finalValue()) / first).toBeCloseTo(0.5, 3);
     await page.locator('#capture-panel').screenshot({ path: join(outputDir, 'capture-panel-segments.png') });
   });
+
+  it('a capture caught after its step: no step metrics, no initial level judged, no prediction drawn', async () => {
+    // The bundled input-filter step without its first 120 us: the record starts in the ring, after the event.
+    const [header, ...rows] = readFileSync(join(repoRoot, 'sample-captures', 'input-filter-step.csv'), 'utf8').trim().split('\n');
+    const file = join(folder, 'late-filter-step.csv');
+    writeFileSync(file, `${[header, ...rows.filter((row) => Number(row.split(',')[0]) >= 120e-6)].join('\n')}\n`);
+    await dropFile(page, file, 'late-filter-step.csv');
+    await waitForFit(page, 'late-filter-step.csv');
+    expect(await page.locator('#fit-state').getAttribute('data-status')).toBe('converged');
+    expect(await page.locator('#transition-reason').innerText()).toMatch(/starts inside the response/);
+    await page.selectOption('#design-select', 'input-filter-step');
+    await page.waitForSelector('#verdict tr[data-quantity="final value"]', { timeout: 90_000 });
+    expect(await page.locator('#verdict tr[data-quantity="initial level"]').count()).toBe(0);
+    expect(await page.locator('#design-panel').innerText()).toMatch(/No event time is known/);
+    const traces = await page.evaluate(() => ((document.querySelector('#fit-plot') as unknown as { data?: { name: string }[] }).data ?? []).map((t) => t.name));
+    expect(traces).toContain('Fit');
+    expect(traces).not.toContain('Design prediction');
+  });
 });
