@@ -23,7 +23,7 @@ export interface ResultRowSpec {
   /** A row computed from another (f0 from omega0; a mode's energy in % from its share) rather than stored in the summary. */
   derived?: { from: string; convert: (q: Quantity) => Quantity };
   /** How a person reads the value when not 'value ± stderr (rel %)' (a share with no standard error, an instant). */
-  describe?: (q: Quantity) => string;
+  describe?: (q: Quantity, fit: FitSummary) => string;
 }
 
 /** A row of one fit, formatted both ways a face shows it. */
@@ -35,6 +35,9 @@ export interface ResultRow extends ResultRowSpec {
   brief: string;
 }
 
+/** How t0 reads for a fit that saw no samples before its event (FitSummary.startsInResponse). */
+const NO_EVENT = 'the first fitted sample: no event in the window';
+
 export const RESULT_ROWS = [
   { name: 'alpha', symbol: 'alpha', unit: 's^-1', column: 'alpha_per_s' },
   { name: 'omega0', symbol: 'omega0', unit: 'rad/s', column: 'omega0_rad_per_s' },
@@ -44,8 +47,9 @@ export const RESULT_ROWS = [
   { name: 'Q', symbol: 'Q', unit: '', column: 'Q' },
   { name: 'tau', symbol: 'tau', unit: 's', column: 'tau_s', optional: 'first-order' },
   { name: 'finalValue', symbol: 'final value', unit: null, column: 'final_value' },
-  // An instant on the capture's own time axis, whose zero (the trigger) is arbitrary: no relative uncertainty.
-  { name: 't0', symbol: 't0', unit: 's', column: 't0_s', describe: formatWithUncertainty },
+  // An instant on the capture's own time axis, whose zero (the trigger) is arbitrary: no relative uncertainty. A fit
+  // that saw no samples before its event starts at its first sample, which is no event time.
+  { name: 't0', symbol: 't0', unit: 's', column: 't0_s', describe: (q, fit) => (fit.startsInResponse ? `${formatEngineering(q.value, q.unit)} (${NO_EVENT})` : formatWithUncertainty(q)) },
   { name: 'components.R', symbol: 'R', unit: 'ohm', column: 'R_ohm', optional: 'components' },
   { name: 'components.L', symbol: 'L', unit: 'H', column: 'L_h', optional: 'components' },
   { name: 'components.C', symbol: 'C', unit: 'F', column: 'C_f', optional: 'components' },
@@ -95,7 +99,7 @@ export function fitResultRows(fit: FitSummary): ResultRow[] {
   const specs: readonly ResultRowSpec[] = [...RESULT_ROWS.slice(0, components), ...MODE_RESULT_ROWS, ...RESULT_ROWS.slice(components)];
   return specs.flatMap((spec: ResultRowSpec) => {
     const q = rowQuantity(spec, fit);
-    return q ? [{ ...spec, quantity: q, text: spec.describe ? spec.describe(q) : formatMeasured(q), brief: formatEngineering(q.value, q.unit) }] : [];
+    return q ? [{ ...spec, quantity: q, text: spec.describe ? spec.describe(q, fit) : formatMeasured(q), brief: formatEngineering(q.value, q.unit) }] : [];
   });
 }
 
