@@ -342,7 +342,8 @@ export function decideLayout(head: PreambleLine[], run: number[], options: Captu
   let units: string[] | undefined;
   let timing: HeaderTiming | null = null;
   const last = meaningful[meaningful.length - 1];
-  if (last) {
+  // A line stating the timing or a unit ('YUNIT,V' right above the data) is preamble, not the names of the columns.
+  if (last && !isStatingLine(last.text, delimiter)) {
     const lastCells = headerCells(last.text, delimiter);
     const before = meaningful[meaningful.length - 2];
     const beforeCells = before ? headerCells(before.text, delimiter) : [];

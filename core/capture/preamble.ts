@@ -13,6 +13,8 @@ const INTERVAL_KEYS = new Set([
   'sampling period',
   'xincrement',
   'x increment',
+  'xincr',
+  'x incr',
   'delta t',
   'deltat',
   'delta x',
@@ -260,14 +262,26 @@ export function uncommented(text: string): string {
 }
 
 /**
- * True for a line that states the timing or a unit under a key this reader knows ('Vertical Units,V',
- * 'Sample Interval,1e-9'): preamble, never the names of the columns, however much it looks like them.
+ * True for a line that states the timing or a unit under a key this reader knows, with a value that reads as one
+ * ('Vertical Units,V', 'Sample Interval,1e-9', 'YUNIT,V'): preamble, never the names of the columns, however much it
+ * looks like them. A header whose first column is named like a key ('dt,CH1') states nothing, and stays a header.
  */
 export function isStatingLine(text: string, delimiter: string): boolean {
   const pair = splitKeyValue(uncommented(text), delimiter);
   if (!pair) return false;
-  const { words } = normaliseKey(pair[0]);
-  return [INTERVAL_KEYS, RATE_KEYS, OFFSET_KEYS, TIME_UNIT_KEYS, VALUE_UNIT_KEYS].some((keys) => keys.has(words));
+  const [key, value] = pair;
+  const { words } = normaliseKey(key);
+  if (TIME_UNIT_KEYS.has(words) || VALUE_UNIT_KEYS.has(words)) return unitCells(value).some((cell) => readUnitText(cell).kind === 'known');
+  const timing = [INTERVAL_KEYS, RATE_KEYS, OFFSET_KEYS].some((keys) => keys.has(words));
+  return timing && NUMBER_FIRST.test(value.trim().replace(LABELLED, ''));
+}
+
+/** The units of a line stating them, one per channel or one for all ('Volts\tVolts', 'CH1:V,CH2:V'), labels left out. */
+function unitCells(value: string): string[] {
+  return value
+    .split(/[,;\t]/)
+    .map((c) => c.trim().replace(/^[A-Za-z][\w ]*?:\s*/, ''))
+    .filter((c) => c !== '');
 }
 
 /**
@@ -296,7 +310,7 @@ function statedTimeUnit(lines: PreambleLine[], delimiter: string): StatedTimeUni
 function statedValueUnit(lines: PreambleLine[], delimiter: string): StatedValueUnit | null {
   const stated = firstKeyed(lines, delimiter, VALUE_UNIT_KEYS);
   if (!stated) return null;
-  const cells = stated.value.split(/[,;\t]/).map((c) => c.trim().replace(/^[A-Za-z][\w ]*?:\s*/, '')).filter((c) => c !== '');
+  const cells = unitCells(stated.value);
   // One unit for each channel, the same for all ('Volts\tVolts'), is that unit.
   if (new Set(cells).size !== 1) return null;
   const written = cells[0];

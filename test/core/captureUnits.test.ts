@@ -562,4 +562,17 @@ describe("the channels' unit a preamble states for the vertical axis", () => {
     const capture = parseCapture(`Vertical Units,V\nSample Interval,1e-9\n${values.join('\n')}`);
     expect(capture.channels[0].unit).toBe('V');
   });
+
+  it("is preamble right above a column of values, not its name ('XINCR,5e-9' then 'YUNIT,V')", () => {
+    // Taken for the header, the line named the channel 'YUNIT' and gave it the unit V by accident.
+    const capture = parseCapture(`XINCR,5e-9\nYUNIT,V\n${values.join('\n')}`);
+    expect(capture.channels.map((c) => [c.name, c.unit])).toEqual([['channel 1', 'V']]);
+    close(capture.channels[0].time[1] - capture.channels[0].time[0], 5e-9);
+    expect(capture.channels[0].time.length).toBe(values.length);
+  });
+
+  it("leaves a header named like a key a header when its cells state nothing ('Start,Stop' over two columns)", () => {
+    const capture = parseCapture(`Sample Interval,1e-9\nStart,Stop\n${values.map((v) => `${v},${-v}`).join('\n')}`);
+    expect(capture.channels.map((c) => c.name)).toEqual(['Start', 'Stop']);
+  });
 });
