@@ -212,7 +212,7 @@ function lastBeyond(d: StepFraction, band: number, from: number, to: number): nu
 function settledNoise(d: StepFraction, after: number): { noise: number; from: number } {
   const { values, initial, amplitude } = d;
   const n = values.length;
-  const from = Math.min(n - 1, Math.max(after, Math.floor(0.8 * n)));
+  const from = Math.max(after, Math.floor(0.8 * n));
   let squares = 0;
   for (let i = from; i < n; i++) squares += ((values[i] - initial) / amplitude - 1) ** 2;
   return { noise: Math.sqrt(squares / Math.max(1, n - from)), from };
