@@ -4,32 +4,15 @@
 import { describe, expect, it } from 'vitest';
 import type { Channel } from '../../core/capture/types';
 import { parseDesign } from '../../core/circuit/design';
-import { createRandom } from '../../core/random';
-import { evaluateResponse } from '../../core/response/secondOrder';
 import { measureCapture, verdictRefusal } from '../../core/workflow/measure';
+import { ALPHA, DT, OMEGA0, stepDesignJson as design, stepSamples } from '../fixtures/stepFromRest';
 
-/** A 1 V step into a series loop (46 ohm, 5.75 uH, 1 nF): alpha 4.0e6 s^-1, omega0 1.319e7 rad/s, zeta 0.30. */
-const R = 46;
-const L = 5.75e-6;
-const C = 1e-9;
-const ALPHA = R / (2 * L);
-const OMEGA0 = 1 / Math.sqrt(L * C);
-const DT = 5e-9;
 const NOISE = 0.005;
 
-/** 4000 samples 5 ns apart with 5 mV of seeded noise, the first at `firstSample` samples after the event. */
+/** 4000 samples with 5 mV of seeded noise, the first at `firstSample` samples after the event. */
 function stepChannel(firstSample: number, seed: number): Channel {
-  const time = Float64Array.from({ length: 4000 }, (_, i) => (i + firstSample) * DT);
-  const clean = evaluateResponse({ t0: 0, yPre: 0, yFinal: 1, alpha: ALPHA, omega0: OMEGA0, a: -1, b: -ALPHA }, time);
-  const random = createRandom(seed);
-  const values = Float64Array.from(clean, (v, i) => (time[i] < 0 ? 0 : v) + NOISE * random.normal());
+  const { time, values } = stepSamples(4000, firstSample, seed, NOISE);
   return { name: 'CH1', unit: 'V', time, values, clipped: new Uint8Array(time.length), dropped: 0 };
-}
-
-function design(limits = ''): string {
-  const parts = `"R": { "value": "${R}", "tolerance": 0.05 }, "L": { "value": "${L}", "tolerance": 0.05 }, "C": { "value": "${C}", "tolerance": 0.05 }`;
-  return `{ "format": "ringbench-design", "version": 1, "name": "late step", "topology": "series", "components": { ${parts} },
-    "source": { "kind": "step", "amplitude": "1", "initialLevel": 0 }, "probe": "capacitor-voltage"${limits} }`;
 }
 
 describe('a step caught after its event', () => {

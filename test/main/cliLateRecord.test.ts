@@ -4,31 +4,15 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { createRandom } from '../../core/random';
-import { evaluateResponse } from '../../core/response/secondOrder';
+import { stepDesignJson, stepSamples } from '../fixtures/stepFromRest';
 import { runCliIn } from './cliHarness';
-
-/** A 1 V step into 46 ohm, 5.75 uH and 1 nF in series (alpha 4.0e6 s^-1, zeta 0.30), sampled every 5 ns. */
-const ALPHA = 46 / (2 * 5.75e-6);
-const OMEGA0 = 1 / Math.sqrt(5.75e-6 * 1e-9);
-const DESIGN = {
-  format: 'ringbench-design',
-  version: 1,
-  name: 'late step',
-  topology: 'series',
-  components: { R: { value: '46', tolerance: 0.05 }, L: { value: '5.75u', tolerance: 0.05 }, C: { value: '1n', tolerance: 0.05 } },
-  source: { kind: 'step', amplitude: '1', initialLevel: 0 },
-  probe: 'capacitor-voltage',
-};
 
 let folder: string;
 
 /** 3000 samples from `firstSample` samples after the event, 5 mV of seeded noise. */
 function writeCapture(name: string, firstSample: number): void {
-  const time = Float64Array.from({ length: 3000 }, (_, i) => (i + firstSample) * 5e-9);
-  const clean = evaluateResponse({ t0: 0, yPre: 0, yFinal: 1, alpha: ALPHA, omega0: OMEGA0, a: -1, b: -ALPHA }, time);
-  const random = createRandom(firstSample + 100);
-  const rows = Array.from(time, (t, i) => `${t.toExponential(6)},${((t < 0 ? 0 : clean[i]) + 0.005 * random.normal()).toFixed(5)}`);
+  const { time, values } = stepSamples(3000, firstSample, firstSample + 100, 0.005);
+  const rows = Array.from(time, (t, i) => `${t.toExponential(6)},${values[i].toFixed(5)}`);
   writeFileSync(join(folder, name), `Time (s),CH1 (V)\n${rows.join('\n')}\n`);
 }
 
@@ -36,7 +20,7 @@ beforeAll(() => {
   folder = mkdtempSync(join(tmpdir(), 'ringbench-late-'));
   writeCapture('late.csv', 9);
   writeCapture('whole.csv', -300);
-  writeFileSync(join(folder, 'design.json'), JSON.stringify(DESIGN));
+  writeFileSync(join(folder, 'design.json'), stepDesignJson());
 });
 afterAll(() => rmSync(folder, { recursive: true, force: true }));
 
