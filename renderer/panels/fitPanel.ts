@@ -31,6 +31,9 @@ const WORDS: Record<string, [symbol: string, words: string, title?: string]> = {
   tau: ['τ', 'time constant'],
 };
 
+/** t0's words for a fit that saw no samples before its event: where the fit starts, not an event time. */
+const NO_EVENT_T0: [string, string, string] = ['t₀', 'fit start', 'no samples before the event: the fit starts at its first sample'];
+
 /** What the capture panel asks for, by what a refused capture was refused for. */
 const REFUSED_FOR: Record<UnitRefusal['unit'], string> = { time: 'time unit', value: 'value unit', interval: 'sample interval' };
 
@@ -136,7 +139,7 @@ export function createFitPanel(actions: BenchActions) {
         'tbody',
         {},
         ...rows.flatMap((row) => {
-          const [symbol, words, title] = WORDS[row.name];
+          const [symbol, words, title] = row.name === 't0' && summary.startsInResponse ? NO_EVENT_T0 : WORDS[row.name];
           const tr = quantityRow(row.name, symbol, words, row.quantity, title, row.text);
           return row.name === 'omegaD' ? [tr, ringHz] : [tr];
         }),
