@@ -139,8 +139,10 @@ export function createFitPanel(actions: BenchActions) {
         'tbody',
         {},
         ...rows.flatMap((row) => {
-          const [symbol, words, title] = row.name === 't0' && summary.startsInResponse ? NO_EVENT_T0 : WORDS[row.name];
-          const tr = quantityRow(row.name, symbol, words, row.quantity, title, row.text);
+          // The label says what t0 is then; the value alone keeps the readout's words column readable.
+          const fitStart = row.name === 't0' && summary.startsInResponse === true;
+          const [symbol, words, title] = fitStart ? NO_EVENT_T0 : WORDS[row.name];
+          const tr = quantityRow(row.name, symbol, words, row.quantity, title, fitStart ? row.brief : row.text);
           return row.name === 'omegaD' ? [tr, ringHz] : [tr];
         }),
       ),
