@@ -80,6 +80,14 @@ export function fitSucceeded(fit: { status: FitStatus }): boolean {
   return fit.status === 'converged';
 }
 
+/**
+ * The fit's event time, s, or null when it saw no samples before its event: its t0 is then only where it starts, and
+ * nothing that needs the event (the design's prediction) is placed there.
+ */
+export function eventTimeOf(fit: Pick<FitSummary, 't0' | 'startsInResponse'>): number | null {
+  return fit.startsInResponse ? null : fit.t0.value;
+}
+
 /** Every warning the fit's text shows, the transition metrics' last. */
 export function fitWarnings(s: Pick<FitSummary, 'warnings' | 'transitions'>): string[] {
   return [...s.warnings, ...(s.transitions?.warnings ?? []).map((w) => `transitions: ${w}`)];

@@ -3,6 +3,7 @@
 import { evaluateResponse } from '../response/secondOrder';
 import { predictResponse, probeUnit, toleranceBand } from '../circuit/predict';
 import type { BenchRecord } from './benchRecord';
+import { eventTimeOf } from './fitSummary';
 import { decimateMinMax } from './decimate';
 import { fittedModel } from './fittedModel';
 import { plotColumns, renderOverlayPlot, type OverlayPlotInput } from './svgPlot';
@@ -45,14 +46,14 @@ export function renderMeasurementPlot(record: BenchRecord, trace: ReportTrace, i
   else notes.push('The fitted curve could not be redrawn from the logged values.');
 
   const design = record.design?.spec;
+  const t0 = eventTimeOf(fit);
   if (design) {
     if (probeUnit(design) !== trace.unit) {
       notes.push(`The design predicts ${probeUnit(design)} but the channel is in ${trace.unit || 'no unit'}: prediction not drawn.`);
-    } else if (fit.startsInResponse) {
+    } else if (t0 === null) {
       notes.push('The fit saw no samples before the event, so no event time places the prediction: prediction not drawn.');
     } else {
       const time = grid(xRange[0], xRange[1], columns);
-      const t0 = fit.t0.value;
       input.prediction = { x: time, y: evaluateResponse(predictResponse(design, t0), time) };
       const band = toleranceBand(design, time, { t0 });
       input.band = { x: time, lower: band.lower, upper: band.upper };

@@ -12,7 +12,7 @@ import { checkDesign, singleDecayRefusal, undecidedByCapture, type Verdict } fro
 import { fitResponse, type ResponseFit, type ResponseFitOptions } from '../fit/fitResponse';
 import { isThinSamplingWarning } from '../fit/fitWarnings';
 import { InputError, UsageError } from '../inputError';
-import { fitSucceeded, summarizeFit, type FitSummary } from '../report/fitSummary';
+import { eventTimeOf, fitSucceeded, summarizeFit, type FitSummary } from '../report/fitSummary';
 import { cautionInputsFromCapture, type CautionComponents } from '../safety/cautionInputs';
 import { evaluateCautions, type CautionResult } from '../safety/evaluateCautions';
 import { deriveComponents, ratesOfMode, type KnownPartRequest } from './measuredComponents';
@@ -141,7 +141,7 @@ export function checkAgainstDesign(
     throw new UsageError(`${file} holds ${fit.events.list.length} events: a design is checked against one; set the fit window (--from, --to) around it`);
   }
   const t0 = eventTime === undefined ? fit.t0 : { ...fit.t0, value: eventTime };
-  return checkDesign(design, { ...fit, t0, eventTimeUnknown: fit.startsInResponse === true && eventTime === undefined }, { time: channel.time, values: channel.values });
+  return checkDesign(design, { ...fit, t0, eventTimeUnknown: eventTime === undefined && eventTimeOf(fit) === null }, { time: channel.time, values: channel.values });
 }
 
 /** An implausible result (a misread unit, the wrong known part) says so as the first warning. */

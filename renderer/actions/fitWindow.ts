@@ -1,6 +1,7 @@
 // Measuring the open channel in the worker (fit, then verdict and parts beside it, then cautions); a new fit window measures again.
 
 import type { SetupOptions } from '../../core/circuit/setupTypes';
+import { eventTimeOf } from '../../core/report/fitSummary';
 import type { FitWindow } from '../workerProtocol';
 import { reweighCautions } from './cautions';
 import { knownPartForFit } from './components';
@@ -73,8 +74,7 @@ export async function measure(ctx: ActionContext): Promise<void> {
   if (generation !== ctx.counters.fitGeneration || !answer) return ctx.store.update();
   const { result, fitError, verdictError, componentsError, modeCurves } = answer.reply;
   ctx.store.update((s) => {
-    // A fit that saw no samples before its event holds no event time: its t0 is only where the record starts.
-    if (result && s.userWindow.start === undefined && result.fit.status !== 'failed') s.eventTime = result.fit.startsInResponse ? null : result.fit.t0.value;
+    if (result && s.userWindow.start === undefined && result.fit.status !== 'failed') s.eventTime = eventTimeOf(result.fit);
     s.fit = result?.fit ?? null;
     s.summary = result?.summary ?? null;
     s.modeCurves = modeCurves;

@@ -1,5 +1,6 @@
 // Draws the open channel, its fit, the design's prediction, the fit window and the step's metrics on the plot.
 
+import { eventTimeOf } from '../../core/report/fitSummary';
 import type { ActionContext } from './context';
 
 export async function drawPlot(ctx: ActionContext): Promise<void> {
@@ -15,7 +16,7 @@ export async function drawPlot(ctx: ActionContext): Promise<void> {
     params: fit && (fit.status === 'converged' || fit.status === 'max-iterations') ? fit.params : null,
     window: fit ? fit.window : null,
     design: design?.design ?? null,
-    eventTime: state.eventTime ?? (fit && !fit.startsInResponse ? fit.t0.value : null),
+    eventTime: state.eventTime ?? (fit ? eventTimeOf(fit) : null),
     events: events ? events.list.map((e) => ({ index: e.index, onset: e.onset, end: e.end, fitted: e.index === events.chosen })) : [],
     transitions: summary?.transitions ?? null,
     modeCurves: fit ? state.modeCurves : [],
