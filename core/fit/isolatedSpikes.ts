@@ -25,7 +25,8 @@ const SPIKE_PATTERN = [1, -4, 6, -4, 1];
 
 /**
  * Indices of the isolated single-sample spikes in `values`: a sample whose fourth difference is SPIKE_SIGMAS local
- * noise deviations or more (and at least that many quantisation steps) above the rest, and whose four neighbours'
+ * noise deviations or more (and at least that many quantisation steps) above the rest, that stands as far off each
+ * neighbour on the same side, and whose four neighbours'
  * fourth differences are a lone spike's pattern within PATTERN_SIGMAS. A step, a ring's peak, two spikes side by side
  * or a burst are not taken (the fit then judges them). In increasing order.
  */
@@ -60,7 +61,13 @@ function loneSpike(values: Float64Array, i: number, h: number, floor: number, d4
   const local: number[] = [];
   for (let j = Math.max(2, i - LOCAL_SPAN); j < Math.min(n - 2, i + LOCAL_SPAN + 1); j++) if (Math.abs(j - i) > 4) local.push(Math.abs(d4(j)));
   const sigma4 = Math.max(floor, MAD_TO_SIGMA * median(local));
-  if (Math.abs(h) < SPIKE_SIGMAS * (sigma4 / Math.sqrt(70))) return false;
+  const sigma = sigma4 / Math.sqrt(70);
+  if (Math.abs(h) < SPIKE_SIGMAS * sigma) return false;
+  // It stands that far off each neighbour, on the same side: the last sample before a jump into a steep ring can leave
+  // a spike's pattern of fourth differences while standing within the noise of the sample before it.
+  const offLeft = values[i] - values[i - 1];
+  const offRight = values[i] - values[i + 1];
+  if (!(offLeft * offRight > 0 && Math.min(Math.abs(offLeft), Math.abs(offRight)) >= SPIKE_SIGMAS * sigma)) return false;
   for (let k = -2; k <= 2; k++) {
     const j = i + k;
     if (j < 2 || j >= n - 2) continue;

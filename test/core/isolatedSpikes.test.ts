@@ -38,6 +38,25 @@ function addSpikes(y: Float64Array, count: number, gap: number, low: number, hig
   return at.sort((a, b) => a - b);
 }
 
+/**
+ * Noise about 0, then a jump to -0.49 into a ring that falls on to -0.66 (about 30 samples a period). The sample before
+ * the jump stands 3.3 noise deviations above the one before it, yet the jump and the ring's start leave a spike's
+ * pattern of fourth differences there, 24 deviations high: these samples once were taken for one.
+ */
+function jumpIntoSteepRing(): Float64Array {
+  const random = createRandom(11);
+  const y = Float64Array.from({ length: 400 }, () => 0.01 * random.normal());
+  const around = [0.00285, 0.00685, -0.02344, 0.01006, -0.48741, -0.61976, -0.65714, -0.65005, -0.62379];
+  const jump = 200;
+  y.set(around, jump - 4);
+  const decay = Math.exp(-0.028);
+  const turn = (2 * Math.PI) / 30.4;
+  for (let k = around.length - 4; jump + k < y.length; k++) {
+    y[jump + k] += -0.66 * decay ** (k - 3) * Math.cos(turn * (k - 3));
+  }
+  return y;
+}
+
 describe('isolated spikes', () => {
   it.each([8, 20, 100])('finds every spike of 20 to 60 noise deviations, and only those, on a ring of %i samples a period', (perPeriod) => {
     const sigma = 0.005;
@@ -54,6 +73,7 @@ describe('isolated spikes', () => {
     ['a noiseless step', Float64Array.from({ length: 2000 }, (_, i) => (i < 700 ? 0 : 5))],
     ['a square wave with noise', Float64Array.from(ring(4000, 40, 0.01, 5), (v, i) => v + (Math.floor(i / 37) % 2 ? 3 : -3))],
     ['an 8-bit record of a slow step (mostly one code)', Float64Array.from({ length: 3000 }, (_, i) => Math.round(127 * (i < 1500 ? 0.1 : 0.9) + (i % 97 === 0 ? 1 : 0)) / 127)],
+    ['the last sample before a jump into a steep ring', jumpIntoSteepRing()],
   ])('finds none in %s', (_, values) => {
     expect(isolatedSpikes(values)).toEqual([]);
   });
