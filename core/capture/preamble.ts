@@ -33,6 +33,12 @@ const RATE_KEYS = new Set(['sample rate', 'sampling rate', 'samplerate', 'sample
 const RATE_UNIT = /^([kMG]?)(?:Sa\/s|S\/s|sps|SPS|Hz)$|^$/;
 const RATE_PREFIX: Readonly<Record<string, number>> = { '': 1, k: 1e3, M: 1e6, G: 1e9 };
 
+/**
+ * Normalised keys naming the sample clock ('#CLOCK=2.0000nS'): its unit tells whether it states the interval (a unit
+ * of time) or the rate (Hz, Sa/s); without a unit it states neither.
+ */
+const CLOCK_KEYS = new Set(['clock', 'sample clock', 'sampling clock']);
+
 /** Keys that state the time of the first sample (used only when numeric). */
 const OFFSET_KEYS = new Set(['t0', 'x0', 'x origin', 'xorigin', 'start', 'start time', 'time offset', 'first time']);
 /** Keys that state the unit of the horizontal axis: of a time column without a unit, and of times stated without one. */
@@ -272,7 +278,7 @@ export function isStatingLine(text: string, delimiter: string): boolean {
   const [key, value] = pair;
   const { words } = normaliseKey(key);
   if (TIME_UNIT_KEYS.has(words) || VALUE_UNIT_KEYS.has(words)) return unitCells(value).some((cell) => readUnitText(cell).kind === 'known');
-  const timing = [INTERVAL_KEYS, RATE_KEYS, OFFSET_KEYS].some((keys) => keys.has(words));
+  const timing = [INTERVAL_KEYS, RATE_KEYS, CLOCK_KEYS, OFFSET_KEYS].some((keys) => keys.has(words));
   return timing && NUMBER_FIRST.test(value.trim().replace(LABELLED, ''));
 }
 
@@ -335,10 +341,12 @@ export function readPreamble(lines: PreambleLine[], delimiter: string, decimalCo
     if (!pair) continue;
     const [key, value] = pair;
     const { words, unitText } = normaliseKey(key);
-    const isInterval = INTERVAL_KEYS.has(words);
-    const isRate = RATE_KEYS.has(words);
+    const clock = CLOCK_KEYS.has(words) ? clockKind(value, unitText, decimalComma) : null;
+    const isInterval = INTERVAL_KEYS.has(words) || clock === 'interval';
+    const isRate = RATE_KEYS.has(words) || clock === 'rate';
     if (commented && !isInterval && !isRate) continue;
     if (!(key in preamble.metadata)) preamble.metadata[key] = value;
+    if (CLOCK_KEYS.has(words) && !clock) continue;
     if (isRate) {
       rate ??= statedRate(value, key, line, decimalComma);
       continue;
@@ -359,6 +367,16 @@ export function readPreamble(lines: PreambleLine[], delimiter: string, decimalCo
   }
   preamble.interval ??= rate;
   return preamble;
+}
+
+/** Whether a sample clock's value states the interval or the rate, by its unit; null without a unit that says. */
+function clockKind(value: string, keyUnit: string | null, decimalComma: boolean): 'interval' | 'rate' | null {
+  const written = timeReadings(value, decimalComma)[0];
+  const unit = written?.unitText ?? keyUnit;
+  if (unit === null) return null;
+  const reading = readUnitText(unit);
+  if (reading.kind === 'known' && reading.unit === 's') return 'interval';
+  return RATE_UNIT.test(unit) && unit !== '' ? 'rate' : null;
 }
 
 /** The sample interval a stated rate gives ('Sample Rate,1GSa/s': 1 ns), or null when the value reads as no rate. */

@@ -128,6 +128,9 @@ describe('preamble', () => {
     ['Sample Rate,500 kHz', 2e-6],
     ['sampling frequency = 1 MSPS', 1e-6],
     ['# Sample Interval: 2 ns', 2e-9],
+    // A sample clock states the interval or the rate, as its unit says.
+    ['#CLOCK=2.0000nS', 2e-9],
+    ['Sample clock,250 MHz', 4e-9],
   ])("takes the interval from '%s'", (line, interval) => {
     const capture = parseCapture(`${line}\nVout (V)\n${data}`);
     expect(capture.sampleInterval).toBeCloseTo(interval, 20);
@@ -140,6 +143,8 @@ describe('preamble', () => {
     const both = parseCapture(`Sample Rate,1e9\nSample Interval,2e-9\nVout (V)\n${data}`);
     expect(both.sampleInterval).toBe(2e-9);
     expect(captureError(`Sample Rate,auto\nVout (V)\n${data}`).message).toContain('no sample interval');
+    // A clock without a unit could be either.
+    expect(captureError(`Clock,2e-9\nVout (V)\n${data}`).message).toContain('no sample interval');
     const commented = parseCapture(`# bench 3, gate loop\n# Operator: someone\n#Sampling rate:1GSa/s\nVout (V)\n${data}`);
     expect(commented.metadata).toEqual({ 'Sampling rate': '1GSa/s' });
   });
