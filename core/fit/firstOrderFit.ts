@@ -6,7 +6,7 @@ import { projectedModel, stallAsConvergence } from './projectedModel';
 import { firstOrderLayoutFor, LAYOUTS, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
 import { attemptT0, attemptValue, type Attempt } from './attempt';
-import { beatsContinuous, jumpOf, scanEventTime, showsJump } from './jumpStart';
+import { scanEventTime, settleEventTime, showsJump } from './jumpStart';
 import { indexRamp } from './indexVectors';
 import { responseCovariance } from './responseCovariance';
 
@@ -34,11 +34,15 @@ export function fitFirstOrderRecord(set: FitSet, record: { hasPreEvent: boolean;
   const rate = attemptValue(first, 'alpha');
   // A jump is where the event was detected; a continuous fit's t0 can wander off it.
   const scan = scanEventTime(set, 'first-order-jump', { alpha: rate, omega0: rate }, t0Start, record.jumpStart ? attemptT0(first, t0Start) : t0Start);
-  if (!record.jumpStart && !beatsContinuous(first, scan.sse, first.values.length + 1, set, scan.t0)) return { attempt: first, t0: t0Start };
-  const { t0 } = scan;
-  const jumping = fitFirstOrder(set, 'first-order-jump', t0);
-  if (record.jumpStart) return jumping && jumping.sse < first.sse ? { attempt: jumping, t0 } : { attempt: first, t0: t0Start };
-  if (jumping && showsJump(first, { attempt: jumping, t0, jump: jumpOf(jumping, t0) }, set, noise)) return { attempt: jumping, t0 };
+  // The jump is fitted even where the scan at that rate found none better: a decay held to the level before meets a
+  // strong jump with a rate so fast that no jump fits at it (an RC charging current read as an unresolved ring).
+  const fitted = fitFirstOrder(set, 'first-order-jump', scan.t0);
+  // The scan ran at the rate of a decay held to the level before, which the jump bends: the decay's own rate moves it.
+  const settled = fitted && settleEventTime(set, fitted, scan.t0, (at) => fitFirstOrder(set, 'first-order-jump', at));
+  if (!settled) return { attempt: first, t0: t0Start };
+  const { attempt: jumping, t0 } = settled;
+  if (record.jumpStart) return jumping.sse < first.sse ? { attempt: jumping, t0 } : { attempt: first, t0: t0Start };
+  if (showsJump(first, settled, set, noise)) return { attempt: jumping, t0 };
   return { attempt: first, t0: t0Start };
 }
 

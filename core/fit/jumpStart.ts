@@ -6,7 +6,7 @@ import { attemptT0, attemptValue, type Attempt } from './attempt';
 import { searchLayouts } from './layoutSearch';
 import { effectiveSamples, information } from './modelSelection';
 import { refine } from './refine';
-import { unpackParams, type ParameterLayout } from './responseModel';
+import { LAYOUTS, unpackParams, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
 import type { RateCandidate } from './startingRates';
 import { compareStarts, continuousStartRejected, startAllowance, type StartAllowance } from './stepStart';
@@ -89,35 +89,44 @@ function fitJumpStart(
   const starts = [fromRates, ...searchLayouts(set, ['free-pre'], candidates, t0, noise)];
   const tried = starts.filter((a) => Number.isFinite(a.sse));
   if (tried.length === 0) return null;
-  return settleEventTime(set, tried.reduce((x, y) => (y.sse < x.sse ? y : x)), t0);
+  const best = tried.reduce((x, y) => (y.sse < x.sse ? y : x));
+  return settleEventTime(set, best, t0, (at, from) => refine(set, 'free-pre', { ...from, source: 'free fit at a moved event time' }, at));
 }
 
 /**
- * Moves the held event time while a fit there leaves less residual: to where a scan at the free fit's own rates puts
- * it, and one raw sample either way, each refined from the free fit's rates; up to EVENT_MOVES times. The first scan
- * used the continuous fit's rates, which the jump bends: with them the least residual can lie a sample or two off the
- * jump, and a sample of the level before then counts as one of the response (seen on records with a strong jump and a
- * damping ratio near 0.2: alpha 10 % off, its uncertainty widened to 8 % by the misfit). Where the jump falls between
- * two samples every event time there fits alike, so the fits compared differ in which samples are the response's.
+ * Moves the held event time while a fit there leaves less residual: to where a scan at the jumping fit's own rates
+ * puts it, and one raw sample either way, each fitted by `fitAt`; up to EVENT_MOVES times. The first scan used the
+ * rates of a fit held continuous at the event, which the jump bends: with them the least residual can lie a sample
+ * or more off the jump, and samples of the level before then count as the response's (seen on rings with a strong
+ * jump and a damping ratio near 0.2: alpha 10 % off, its uncertainty widened to 8 % by the misfit; and on single
+ * decays, 10 samples early, which lost the decay to an unresolved ring). Where the jump falls between two samples
+ * every event time there fits alike, so the fits compared differ in which samples are the response's.
  */
-function settleEventTime(set: FitSet, attempt: Attempt, t0: number): JumpStartFit {
+export function settleEventTime(set: FitSet, attempt: Attempt, t0: number, fitAt: (t0: number, rates: Rates) => Attempt | null): JumpStartFit {
   const rawStep = set.block?.spacing ?? set.dt;
+  const layout = attempt.layout;
   let best = { attempt, t0 };
   const tried = [t0];
   for (let move = 0; move < EVENT_MOVES; move++) {
-    const rates = { alpha: attemptValue(best.attempt, 'alpha'), omega0: attemptValue(best.attempt, 'omega0') };
-    const scanned = scanEventTime(set, 'free-pre', rates, best.t0, best.t0).t0;
+    const rates = ratesOf(best.attempt);
+    const scanned = scanEventTime(set, layout, rates, best.t0, best.t0).t0;
     const places = [scanned, best.t0 - rawStep, best.t0 + rawStep].filter((t) => tried.every((u) => Math.abs(t - u) > rawStep / 2));
     let moved: typeof best | null = null;
     for (const place of places) {
       tried.push(place);
-      const there = refine(set, 'free-pre', { ...rates, source: 'free fit at a moved event time' }, place);
-      if (there.sse < (moved ?? best).attempt.sse) moved = { attempt: there, t0: place };
+      const there = fitAt(place, rates);
+      if (there && there.sse < (moved ?? best).attempt.sse) moved = { attempt: there, t0: place };
     }
     if (!moved) break;
     best = moved;
   }
   return { ...best, jump: jumpOf(best.attempt, best.t0) };
+}
+
+/** An attempt's alpha and omega0 (a single decay's rate as both). */
+function ratesOf(attempt: Attempt): Rates {
+  const alpha = attemptValue(attempt, 'alpha');
+  return { alpha, omega0: LAYOUTS[attempt.layout].order === 1 ? alpha : attemptValue(attempt, 'omega0') };
 }
 
 /** The free start refined from the continuous fit's rates, t0 held. */
