@@ -6,7 +6,7 @@ import { projectedModel, stallAsConvergence } from './projectedModel';
 import { firstOrderLayoutFor, LAYOUTS, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
 import { attemptT0, attemptValue, type Attempt } from './attempt';
-import { scanEventTime, settleEventTime, showsJump } from './jumpStart';
+import { beatsContinuous, scanEventTime, settleEventTime, showsJump } from './jumpStart';
 import { indexRamp } from './indexVectors';
 import { responseCovariance } from './responseCovariance';
 
@@ -23,7 +23,13 @@ export interface FirstOrderFit {
  * fast root, so the jump is looked for here too). A jump's event time is held between the samples
  * either side of it, found with the decay's own rate.
  */
-export function fitFirstOrderRecord(set: FitSet, record: { hasPreEvent: boolean; jumpStart: boolean }, t0Start: number, noise: number): FirstOrderFit | null {
+export function fitFirstOrderRecord(
+  set: FitSet,
+  record: { hasPreEvent: boolean; jumpStart: boolean },
+  t0Start: number,
+  noise: number,
+  ringDecayRate: number,
+): FirstOrderFit | null {
   if (!record.hasPreEvent) {
     const fromStart = fitFirstOrder(set, firstOrderLayoutFor({ hasPreEvent: false, continuity: 'continuous' }), t0Start);
     return fromStart && { attempt: fromStart, t0: t0Start };
@@ -31,14 +37,18 @@ export function fitFirstOrderRecord(set: FitSet, record: { hasPreEvent: boolean;
   // The decay's own fit at the given event time gives the rate the jump's place is looked for with.
   const first = fitFirstOrder(set, record.jumpStart ? 'first-order-jump' : 'first-order', t0Start);
   if (!first) return null;
-  const rate = attemptValue(first, 'alpha');
-  // A jump is where the event was detected; a continuous fit's t0 can wander off it.
-  const scan = scanEventTime(set, 'first-order-jump', { alpha: rate, omega0: rate }, t0Start, record.jumpStart ? attemptT0(first, t0Start) : t0Start);
-  // The jump is fitted even where the scan at that rate found none better: a decay held to the level before meets a
-  // strong jump with a rate so fast that no jump fits at it (an RC charging current read as an unresolved ring).
+  // A jump is where the event was detected; a continuous fit's t0 can wander off it. The scan runs at the held decay's
+  // rate and at the ring's slowest: a decay held to the level before meets a strong jump with a rate so fast that no
+  // jump fits at it, while a ring's fast root stands in for the jump and leaves its slow one the decay's.
+  const from = record.jumpStart ? attemptT0(first, t0Start) : t0Start;
+  const scan = [attemptValue(first, 'alpha'), ringDecayRate]
+    .filter((rate) => rate > 0 && Number.isFinite(rate))
+    .map((rate) => scanEventTime(set, 'first-order-jump', { alpha: rate, omega0: rate }, t0Start, from))
+    .reduce((x, y) => (y.sse < x.sse ? y : x));
+  if (!record.jumpStart && !beatsContinuous(first, scan.sse, first.values.length + 1, set, scan.t0)) return { attempt: first, t0: t0Start };
   const fitted = fitFirstOrder(set, 'first-order-jump', scan.t0);
-  // The scan ran at the rate of a decay held to the level before, which the jump bends: the decay's own rate moves it.
-  const settled = fitted && settleEventTime(set, fitted, scan.t0, (at) => fitFirstOrder(set, 'first-order-jump', at));
+  // The scan's rate is not the jumping decay's own: at its own rate the least residual can lie a sample or more off.
+  const settled = fitted && settleEventTime(set, fitted, scan.t0, noise, (at) => fitFirstOrder(set, 'first-order-jump', at));
   if (!settled) return { attempt: first, t0: t0Start };
   const { attempt: jumping, t0 } = settled;
   if (record.jumpStart) return jumping.sse < first.sse ? { attempt: jumping, t0 } : { attempt: first, t0: t0Start };

@@ -2,6 +2,7 @@
 
 import { fitOrigin, rebasedOptions, rebasedTrace, restoredFit } from './timeOrigin';
 import { formatEngineering } from '../units/format';
+import { slowestDecayRate } from '../response/secondOrder';
 import { estimateNoise, quantisationStep, recordNoise } from './noise';
 import { locateResponse, settleEvent } from './responseStart';
 import { rateCandidates } from './startingRates';
@@ -21,7 +22,7 @@ import { FitInputError } from './fitInputError';
 import { checkModeOptions, ringModes } from './modeOrder';
 import type { Trace } from './trace';
 import type { ResponseFit, ResponseFitOptions } from './responseFit';
-import type { Attempt } from './attempt';
+import { attemptValue, type Attempt } from './attempt';
 
 export type { Trace } from './trace';
 export type { Regime, ResponseFit, ResponseFitOptions } from './responseFit';
@@ -98,7 +99,7 @@ function fitOnAxis(trace: Trace, options: ResponseFitOptions, origin: number): R
     } else if (start?.allowance) allowance = { held: best, ...start.allowance };
   }
   // A ring no single decay could come near is not compared with one (the decay's own fit is the costliest step).
-  const firstOrder = ringRulesOutDecay(set, best, t0Start, noise) ? null : fitFirstOrderRecord(set, { hasPreEvent, jumpStart }, t0Start, noise);
+  const firstOrder = ringRulesOutDecay(set, best, t0Start, noise) ? null : fitFirstOrderRecord(set, { hasPreEvent, jumpStart }, t0Start, noise, slowestDecayRate(attemptValue(best, 'alpha'), attemptValue(best, 'omega0')));
   const explanation = explainRecord(best, t0Start, firstOrder, set, noise);
   if (explanation.misfit) return failedFit(set, noise, warnings, explanation.misfit);
   if (explanation.choice === 'none') return noResponseFit(set, noise, warnings, explanation.evidence, trace.unit);

@@ -6,7 +6,7 @@ import { attemptT0, attemptValue, type Attempt } from './attempt';
 import { searchLayouts } from './layoutSearch';
 import { effectiveSamples, information } from './modelSelection';
 import { refine } from './refine';
-import { LAYOUTS, unpackParams, type ParameterLayout } from './responseModel';
+import { LAYOUTS, layoutValues, unpackParams, type ParameterLayout } from './responseModel';
 import type { FitSet } from './fitSet';
 import type { RateCandidate } from './startingRates';
 import { compareStarts, continuousStartRejected, startAllowance, type StartAllowance } from './stepStart';
@@ -90,7 +90,7 @@ function fitJumpStart(
   const tried = starts.filter((a) => Number.isFinite(a.sse));
   if (tried.length === 0) return null;
   const best = tried.reduce((x, y) => (y.sse < x.sse ? y : x));
-  return settleEventTime(set, best, t0, (at, from) => refine(set, 'free-pre', { ...from, source: 'free fit at a moved event time' }, at));
+  return settleEventTime(set, best, t0, noise, (at, from) => refine(set, 'free-pre', { ...from, source: 'free fit at a moved event time' }, at));
 }
 
 /**
@@ -102,10 +102,11 @@ function fitJumpStart(
  * decays, 10 samples early, which lost the decay to an unresolved ring). Where the jump falls between two samples
  * every event time there fits alike, so the fits compared differ in which samples are the response's.
  */
-export function settleEventTime(set: FitSet, attempt: Attempt, t0: number, fitAt: (t0: number, rates: Rates) => Attempt | null): JumpStartFit {
+export function settleEventTime(set: FitSet, attempt: Attempt, t0: number, noise: number, fitAt: (t0: number, rates: Rates) => Attempt | null): JumpStartFit {
   const rawStep = set.block?.spacing ?? set.dt;
   const layout = attempt.layout;
   let best = { attempt, t0 };
+  if (fitsAtEvent(set, attempt, t0, noise)) return { ...best, jump: jumpOf(attempt, t0) };
   const tried = [t0];
   for (let move = 0; move < EVENT_MOVES; move++) {
     const rates = ratesOf(best.attempt);
@@ -121,6 +122,23 @@ export function settleEventTime(set: FitSet, attempt: Attempt, t0: number, fitAt
     best = moved;
   }
   return { ...best, jump: jumpOf(best.attempt, best.t0) };
+}
+
+/**
+ * A value either side of the one the event falls in, and that one, within this many noise levels of the fit: no
+ * sample there is on the wrong side of the event (one would stand off by about the jump), so the event time stays.
+ */
+const EVENT_FIT_SIGMAS = 3;
+
+/** Whether the values around the event time lie within EVENT_FIT_SIGMAS noise levels of the attempt held there. */
+function fitsAtEvent(set: FitSet, attempt: Attempt, t0: number, noise: number): boolean {
+  const reach = set.block ? ((set.block.samples - 1) / 2) * set.block.spacing : 0;
+  const at = set.time.findIndex((t) => t + reach >= t0);
+  if (at < 0) return false;
+  const from = Math.max(0, at - 1);
+  const to = Math.min(set.time.length, at + 2);
+  const model = layoutValues(attempt.layout, attempt.values, t0, set.time.subarray(from, to), set.block);
+  return model.every((m, k) => Math.abs(set.values[from + k] - m) <= EVENT_FIT_SIGMAS * noise);
 }
 
 /** An attempt's alpha and omega0 (a single decay's rate as both). */
