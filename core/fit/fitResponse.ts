@@ -99,7 +99,8 @@ function fitOnAxis(trace: Trace, options: ResponseFitOptions, origin: number): R
     } else if (start?.allowance) allowance = { held: best, ...start.allowance };
   }
   // A ring no single decay could come near is not compared with one (the decay's own fit is the costliest step).
-  const firstOrder = ringRulesOutDecay(set, best, t0Start, noise) ? null : fitFirstOrderRecord(set, { hasPreEvent, jumpStart }, t0Start, noise, slowestDecayRate(attemptValue(best, 'alpha'), attemptValue(best, 'omega0')));
+  const ringDecayRate = slowestDecayRate(attemptValue(best, 'alpha'), attemptValue(best, 'omega0'));
+  const firstOrder = ringRulesOutDecay(set, best, t0Start, noise) ? null : fitFirstOrderRecord(set, { hasPreEvent, jumpStart }, t0Start, noise, ringDecayRate);
   const explanation = explainRecord(best, t0Start, firstOrder, set, noise);
   if (explanation.misfit) return failedFit(set, noise, warnings, explanation.misfit);
   if (explanation.choice === 'none') return noResponseFit(set, noise, warnings, explanation.evidence, trace.unit);

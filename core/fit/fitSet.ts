@@ -135,7 +135,7 @@ export function fitSetAndSamples(trace: Trace, window: { start?: number; end?: n
       used = t.length * factor;
       decimation = {
         factor,
-        note: `fitted on means of ${factor} consecutive samples (${t.length} points), each block at most ${rings ? '1/8 of the ring period' : "1/4 of the response's transit"}, against the model averaged over the same blocks`,
+        note: `fitted on means of ${factor} consecutive samples (${t.length} points), each block at most ${rings ? `1/${1 / BLOCK_PER_PERIOD} of the ring period` : `1/${1 / BLOCK_PER_TRANSIT} of the response's transit`}, against the model averaged over the same blocks`,
       };
     }
   }

@@ -132,7 +132,7 @@ const EVENT_FIT_SIGMAS = 3;
 
 /** Whether the values around the event time lie within EVENT_FIT_SIGMAS noise levels of the attempt held there. */
 function fitsAtEvent(set: FitSet, attempt: Attempt, t0: number, noise: number): boolean {
-  const reach = set.block ? ((set.block.samples - 1) / 2) * set.block.spacing : 0;
+  const reach = halfBlockSpan(set);
   const at = set.time.findIndex((t) => t + reach >= t0);
   if (at < 0) return false;
   const from = Math.max(0, at - 1);
@@ -196,7 +196,12 @@ export function scanEventTime(
 
 /** The time of the set's first raw sample: its first value's, less half a block's span when it holds block means. */
 function firstRawTime(set: FitSet): number {
-  return set.block ? set.time[0] - ((set.block.samples - 1) / 2) * set.block.spacing : set.time[0];
+  return set.time[0] - halfBlockSpan(set);
+}
+
+/** From a value's time to its block's first sample (0 without blocks). */
+function halfBlockSpan(set: FitSet): number {
+  return set.block ? ((set.block.samples - 1) / 2) * set.block.spacing : 0;
 }
 
 /**
